@@ -1,0 +1,34 @@
+// Unit and API tests. Browser tests have their own config (jest.browser.config.js).
+const tsJest = ['ts-jest', { tsconfig: 'tsconfig.server.json', diagnostics: { warnOnly: false } }];
+
+/** @type {import('jest').Config} */
+module.exports = {
+  projects: [
+    {
+      displayName: 'engine',
+      testEnvironment: 'node',
+      transform: { '^.+\\.ts$': tsJest },
+      testMatch: ['<rootDir>/shared/**/*.spec.ts', '<rootDir>/test/engine/**/*.test.ts'],
+    },
+    {
+      displayName: 'server',
+      testEnvironment: 'node',
+      transform: { '^.+\\.ts$': tsJest },
+      testMatch: ['<rootDir>/server/**/*.spec.ts', '<rootDir>/test/api/**/*.test.ts'],
+    },
+    {
+      displayName: 'client',
+      preset: 'jest-preset-angular',
+      testEnvironment: 'jest-preset-angular/environments/jest-jsdom-env',
+      setupFilesAfterEnv: ['<rootDir>/src/test-setup.ts'],
+      testMatch: ['<rootDir>/src/**/*.spec.ts'],
+      transform: {
+        '^.+\\.(ts|mjs|js|html)$': [
+          'jest-preset-angular',
+          { tsconfig: '<rootDir>/tsconfig.spec.json', stringifyContentPathRegex: '\\.(html|svg)$' },
+        ],
+      },
+      transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$)'],
+    },
+  ],
+};

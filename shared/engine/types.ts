@@ -1,0 +1,316 @@
+/**
+ * Contracts of the analysis engine. Framework-free: nothing here imports Angular,
+ * Express or MikroORM.
+ *
+ * Canonical numeric form:
+ * - frequency in Hz;
+ * - a complex number inside hot loops is two adjacent float64 slots (re, im);
+ * - an ABCD matrix at one frequency is 8 slots [Are, Aim, Bre, Bim, Cre, Cim, Dre, Dim];
+ *   a sweep of n points is one Float64Array of length 8·n, point i at offset 8·i.
+ * Voltages and currents are PEAK phasors; reports say so and add rms where users expect it.
+ */
+
+export type UnitKind =
+  | 'ohm'
+  | 'henry'
+  | 'farad'
+  | 'hertz'
+  | 'volt'
+  | 'volt-per-metre'
+  | 'watt'
+  | 'siemens'
+  | 'metre'
+  | 'kelvin'
+  | 'degree'
+  | 'db'
+  | 'dbm'
+  | 'ratio'
+  | 'percent'
+  | 'none';
+
+export interface ParamOption {
+  value: string;
+  label: string;
+}
+
+/** One entry of a stage type's parameter schema. The client builds its form from these. */
+export interface ParamSpec {
+  key: string;
+  label: string;
+  kind: 'number' | 'enum' | 'boolean';
+  unit: UnitKind;
+  default: number | string | boolean;
+  /** Inclusive lower bound unless `exclusiveMin`. */
+  min?: number;
+  exclusiveMin?: boolean;
+  max?: number;
+  options?: ParamOption[];
+  /** Whether the value may carry a tolerance (Monte Carlo). */
+  tolerance?: boolean;
+  /** Shown under the input. */
+  help?: string;
+  /** Show (and validate) only when another parameter has this value. */
+  showWhen?: { key: string; equals: string | boolean | number };
+}
+
+export type StageCategory =
+  | 'source'
+  | 'coupler'
+  | 'matching'
+  | 'filter'
+  | 'amplifier'
+  | 'mixer'
+  | 'load'
+  | 'element';
+
+export type ParamValues = Record<string, number | string | boolean>;
+
+export type Caution = 'high-voltage' | 'transmit' | 'rf-exposure';
+
+/** Writes one complex value (re, im) into out[o], out[o+1]. */
+export type ComplexFn = (f: number, out: Float64Array, o: number) => void;
+/** Writes one ABCD matrix (8 slots) into out[o..o+7]. */
+export type AbcdFn = (f: number, out: Float64Array, o: number) => void;
+
+/**
+ * One elementary two-port inside a stage. A stage is a list of sections; the nodes
+ * between sections are internal nodes of the stage (numbered 1..sections-1 inside it;
+ * 0 = stage input, sections.length = stage output).
+ */
+export interface Section {
+  abcd: AbcdFn;
+  /** Unilateral (y12 = 0): the backward pass restarts at its input. */
+  unilateral?: boolean;
+  /** Frequency at the section's output for frequency f at its input (mixers). */
+  translate?: (f: number) => number;
+}
+
+/** A resonator a stage declares about itself. */
+export type ResonatorDecl =
+  | {
+      kind: 'shunt';
+      label: string;
+      /** Stage-local node (0..sections.length) the tank sits at; the tank is on the source side of it. */
+      node: number;
+      /** The tank's own admittance (its lossy L and C only), for unloaded Q. */
+      ownAdmittance: ComplexFn;
+    }
+  | {
+      kind: 'series';
+      label: string;
+      /** Index of the section that is the series resonator (a series impedance). */
+      section: number;
+      /** The resonator's own series impedance, for unloaded Q. */
+      ownImpedance: ComplexFn;
+    };
+
+export type NoiseDecl =
+  | { kind: 'passive' }
+  | { kind: 'figure'; nfDb: number }
+  | {
+      kind: 'parameters';
+      fminDb: number;
+      /** Equivalent noise resistance, ohm. */
+      rn: number;
+      /** Optimum source admittance, siemens (re, im). */
+      yoptRe: number;
+      yoptIm: number;
+    };
+
+/** What a built stage tells the engine. */
+export interface StageModel {
+  /** Two-ports: the sections in order. Sources and loads have none. */
+  sections: Section[];
+  /** Sources: open-circuit EMF (PEAK volts) at frequency f. */
+  emf?: (f: number) => number;
+  /** Sources: source impedance. Loads: load impedance. */
+  impedance?: ComplexFn;
+  resonators?: ResonatorDecl[];
+  noise?: NoiseDecl;
+  linearity?: { iip3Dbm?: number; p1dbDbm?: number };
+  /** Detectors: the lowest input level (PEAK volts) at which they work properly. */
+  detector?: { minInputPeakV: number };
+  /** Matching networks: the resistances it was designed to match (for the mismatch flag). */
+  designedMatch?: { r1: number; r2: number };
+  /** Matching networks: loaded Q the design needs versus what its parts have. */
+  qBudget?: { required: number; componentQ: number };
+  /**
+   * SPICE (ngspice) lines for the stage between nodes `inNode` and `outNode`
+   * (ground is `0`). Element names must start with `prefix`. Undefined when SPICE
+   * cannot express the stage. Sources write a voltage source named `${prefix}V`;
+   * loads write only elements from `inNode` to ground.
+   */
+  spice?: (inNode: string, outNode: string, prefix: string) => string[];
+}
+
+/** Context handed to a stage's builder. */
+export interface BuildContext {
+  /** Design frequency of the chain at the stage's input (translated after a mixer). */
+  f0Hz: number;
+  temperatureK: number;
+}
+
+export interface StageDefinition {
+  type: string;
+  category: StageCategory;
+  role: 'source' | 'two-port' | 'load';
+  label: string;
+  /** One sentence for the palette. */
+  summary: string;
+  params: ParamSpec[];
+  presets?: { key: string; label: string; values: ParamValues }[];
+  cautions?: Caution[];
+  /** Throws StageParameterError for values the model cannot take (after schema checks). */
+  build(values: ParamValues, ctx: BuildContext): StageModel;
+}
+
+/** The catalogue as sent to clients: definitions without functions. */
+export type StageTypeInfo = Omit<StageDefinition, 'build'>;
+
+// ---------------------------------------------------------------- results
+
+export interface ComplexJson {
+  re: number;
+  im: number;
+}
+
+export type Severity = 'info' | 'warning' | 'error';
+
+export type FlagCode =
+  | 'tank-overloaded'
+  | 'tank-detuned'
+  | 'no-resonance'
+  | 'match-missed'
+  | 'compression'
+  | 'detector-underdriven'
+  | 'q-budget'
+  | 'caution';
+
+export interface Flag {
+  code: FlagCode;
+  severity: Severity;
+  /** Id of the stage the flag concerns. */
+  stageId: string;
+  /** One sentence with the numbers a designer needs. */
+  message: string;
+  /** The numbers, for tables and tests. */
+  data?: Record<string, number | string>;
+}
+
+/** Everything at one user-level node (a stage boundary) at f0. Node 0 = source terminal. */
+export interface NodeReport {
+  index: number;
+  /** Label of the stage that ends at this node ("Source" for node 0). */
+  after: string;
+  /** Input impedance looking toward the load. */
+  zIn: ComplexJson;
+  /** Impedance looking back toward the source. */
+  zSrc: ComplexJson;
+  /** Node voltage, PEAK volts, and its rms. */
+  vPeak: number;
+  vRms: number;
+  phaseDeg: number;
+  /** |V|/|Es| (voltage step-up relative to the source EMF) and in dB. */
+  stepUp: number;
+  stepUpDb: number;
+  deliveredW: number;
+  availableW: number;
+  deliveredDbm: number;
+  availableDbm: number;
+  /** Transducer gain from the source to this node, dB. */
+  transducerGainDb: number;
+  /** Mismatch factor 4·Rs·Rl/|Zs+Zl|² and its loss in dB. */
+  mismatch: number;
+  mismatchLossDb: number;
+  returnLossDb: number;
+  vswr: number;
+}
+
+/** One stage (two-port) between node k and node k+1, at f0. */
+export interface StageReport {
+  id: string;
+  type: string;
+  label: string;
+  fromNode: number;
+  toNode: number;
+  /** Frequency at the stage's input and output, Hz. */
+  fInHz: number;
+  fOutHz: number;
+  voltageGainDb: number;
+  cumulativeVoltageGainDb: number;
+  availableGainDb: number;
+  transducerGainDb: number;
+  noiseFigureDb: number;
+  cumulativeNoiseFigureDb: number;
+  cumulativeGainDb: number;
+  iip3Dbm: number | null;
+  cumulativeIip3Dbm: number | null;
+  p1dbDbm: number | null;
+  cumulativeP1dbDbm: number | null;
+  /** Signal level at the stage input, dBm available. */
+  inputLevelDbm: number;
+}
+
+export interface ResonatorReport {
+  stageId: string;
+  label: string;
+  kind: 'shunt' | 'series';
+  /** Global node index (shunt) or null for series resonators inside a stage. */
+  node: number | null;
+  resonanceHz: number | null;
+  loadedQ: number | null;
+  unloadedQ: number | null;
+  bandwidthHz: number | null;
+  /** Q and bandwidth with the downstream side removed (shunt tanks). */
+  detachedQ: number | null;
+  detachedBandwidthHz: number | null;
+  /** Q_attached / Q_detached. */
+  loadingRatio: number | null;
+  /** Share of the tank's damping taken by the downstream side at fr. */
+  downstreamShare: number | null;
+}
+
+export interface SelectivityReport {
+  node: number;
+  peakHz: number | null;
+  peakStepUpDb: number | null;
+  bw3dbHz: number | null;
+  bw60dbHz: number | null;
+  shapeFactor: number | null;
+  /** Attenuation relative to the peak at each stated offset (+ and − side), dB. */
+  offsets: { offsetHz: number; belowDb: number | null; aboveDb: number | null }[];
+  imageHz: number | null;
+  imageRejectionDb: number | null;
+}
+
+export interface LevelsReport {
+  noiseFloorDbm: number;
+  noiseFigureDb: number;
+  totalGainDb: number;
+  sensitivityDbm: number;
+  /** Sensitivity as PEAK and rms EMF at the source, volts. */
+  sensitivityEmfRms: number;
+  iip3Dbm: number | null;
+  sfdrDb: number | null;
+  inputAvailableDbm: number;
+}
+
+export interface SweepReport {
+  freqsHz: number[];
+  /** Per node: step-up in dB and phase of the node voltage, degrees. */
+  nodes: { index: number; stepUpDb: number[]; phaseDeg: number[] }[];
+  zIn: { re: number[]; im: number[] };
+  returnLossDb: number[];
+}
+
+export interface AnalysisResult {
+  engineVersion: string;
+  f0Hz: number;
+  nodes: NodeReport[];
+  stages: StageReport[];
+  resonators: ResonatorReport[];
+  selectivity: SelectivityReport[];
+  levels: LevelsReport;
+  flags: Flag[];
+  sweep?: SweepReport;
+}

@@ -1,0 +1,170 @@
+/**
+ * Request bodies and response shapes of the JSON API under /api. The server validates
+ * every body with these schemas; the client's forms use the same ones.
+ *
+ * Errors are always JSON: { error: string (a code), message: string, details?: unknown }.
+ * Status codes: 400 malformed / 422 invalid field (details: [{ path, message }]),
+ * 401 not signed in, 403 role too low, 404, 409 conflict (stale version: details
+ * carries { currentVersion }), 413 body too large, 429 too many sign-in attempts.
+ *
+ * State-changing requests carry the CSRF token from GET /api/auth/csrf in the
+ * `x-csrf-token` header.
+ */
+import { z } from 'zod';
+import { chainDocumentSchema } from './chain';
+
+export const ROLES = ['owner', 'editor', 'viewer'] as const;
+export type WorkspaceRole = (typeof ROLES)[number];
+export const SITE_ROLES = ['admin', 'user'] as const;
+export type SiteRole = (typeof SITE_ROLES)[number];
+
+const email = z.string().trim().toLowerCase().email('enter a valid e-mail address').max(254);
+const password = z
+  .string()
+  .min(10, 'a password needs at least 10 characters')
+  .max(200, 'a password may have at most 200 characters');
+
+// ------------------------------------------------------------------ auth
+export const registerSchema = z.object({
+  email,
+  displayName: z.string().trim().min(1, 'enter a display name').max(80),
+  password,
+});
+export const loginSchema = z.object({ email, password: z.string().min(1).max(200) });
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1).max(200),
+  newPassword: password,
+});
+export const siteSettingsSchema = z.object({ openRegistration: z.boolean() });
+
+export interface UserDto {
+  id: string;
+  email: string;
+  displayName: string;
+  siteRole: SiteRole;
+}
+export interface MembershipDto {
+  workspaceId: string;
+  workspaceName: string;
+  role: WorkspaceRole;
+}
+/** GET /api/me */
+export interface MeDto {
+  user: UserDto;
+  memberships: MembershipDto[];
+}
+
+// ------------------------------------------------------------------ workspaces
+export const workspaceNameSchema = z.object({
+  name: z.string().trim().min(1, 'a workspace needs a name').max(120),
+});
+export interface WorkspaceDto {
+  id: string;
+  name: string;
+  role: WorkspaceRole;
+}
+export const addMemberSchema = z.object({ email, role: z.enum(ROLES) });
+export const changeRoleSchema = z.object({ role: z.enum(ROLES) });
+export interface MemberDto {
+  userId: string;
+  email: string;
+  displayName: string;
+  role: WorkspaceRole;
+}
+
+// ------------------------------------------------------------------ chains
+export const createChainSchema = z
+  .object({
+    document: chainDocumentSchema.optional(),
+    /** Key of an example from GET /api/examples, instead of a document. */
+    fromExample: z.string().max(80).optional(),
+    /** Overrides the document's or example's name. */
+    name: z.string().trim().min(1).max(200).optional(),
+    message: z.string().max(500).optional(),
+  })
+  .refine((b) => !!b.document !== !!b.fromExample, {
+    message: 'send either a document or fromExample, not both and not neither',
+  });
+
+export const updateChainSchema = z.object({
+  /** The version the client last read; a stale one gives 409 and nothing is written. */
+  version: z.number().int().min(1),
+  document: chainDocumentSchema,
+  message: z.string().max(500).optional(),
+});
+
+export const duplicateChainSchema = z.object({
+  name: z.string().trim().min(1).max(200).optional(),
+  /** Keep the copy linked to its parent for comparison. */
+  asVariant: z.boolean().default(false),
+  /** Duplicate this document instead of the stored one (used to keep unsaved edits). */
+  document: chainDocumentSchema.optional(),
+});
+
+export const restoreRevisionSchema = z.object({ version: z.number().int().min(1) });
+
+export const listChainsQuerySchema = z.object({
+  q: z.string().max(200).optional(),
+  page: z.coerce.number().int().min(0).default(0),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  sort: z.enum(['name', 'f0Hz', 'stageCount', 'flagCount', 'updatedAt']).default('updatedAt'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+});
+
+export interface ChainSummaryDto {
+  id: string;
+  workspaceId: string;
+  name: string;
+  description: string;
+  f0Hz: number;
+  stageCount: number;
+  /** Flags (warning + error) found by the analysis at the last save. */
+  flagCount: number;
+  version: number;
+  parentId: string | null;
+  createdBy: string;
+  updatedBy: string;
+  updatedAt: string;
+}
+export interface ChainListDto {
+  items: ChainSummaryDto[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+export interface ChainDto extends ChainSummaryDto {
+  document: z.infer<typeof chainDocumentSchema>;
+  /** The caller's role in the chain's workspace. */
+  role: WorkspaceRole;
+  createdAt: string;
+}
+export interface RevisionSummaryDto {
+  id: string;
+  /** The chain version this revision saved (1, 2, ...). */
+  version: number;
+  author: string;
+  message: string;
+  createdAt: string;
+}
+export interface RevisionDto extends RevisionSummaryDto {
+  document: z.infer<typeof chainDocumentSchema>;
+}
+
+// ------------------------------------------------------------------ analysis
+export const analysisRequestSchema = z.object({
+  document: chainDocumentSchema,
+  /** Include the frequency sweep in the answer. */
+  sweep: z.boolean().default(true),
+});
+
+export interface ExampleDto {
+  key: string;
+  name: string;
+  description: string;
+}
+
+export interface ApiErrorDto {
+  error: string;
+  message: string;
+  details?: unknown;
+}

@@ -1,0 +1,100 @@
+/**
+ * The chain document: the one JSON form of a chain, used by the API, the database
+ * (stored as JSONB), the client's editor, the CLI and the `examples/` files.
+ *
+ * File format "chainwright-chain", formatVersion 1. All values are SI numbers
+ * (Hz, ohm, henry, farad, volt, metre, kelvin); levels are in dBm where the key says so.
+ * What the user typed (e.g. "22 uH") may be kept in `entered` for display only; the
+ * engine reads `values`.
+ */
+import { z } from 'zod';
+
+export const CHAIN_FORMAT = 'chainwright-chain';
+export const CHAIN_FORMAT_VERSION = 1;
+
+const finite = (what: string) =>
+  z.number({ error: `${what} must be a number` }).refine(Number.isFinite, {
+    message: `${what} must be a finite number (not NaN or Infinity)`,
+  });
+const positive = (what: string) => finite(what).refine((v) => v > 0, `${what} must be above 0`);
+
+export const paramValueSchema = z.union([z.number(), z.string().max(200), z.boolean()]);
+
+export const stageInstanceSchema = z.object({
+  /** Stable id within the chain (used by flags, comments and the editor). */
+  id: z.string().min(1).max(64),
+  /** A type from the stage catalogue, e.g. "shunt-lc-tank". */
+  type: z.string().min(1).max(64),
+  label: z.string().max(120).default(''),
+  /** Parameter values in SI units, keyed by the catalogue's parameter keys. */
+  values: z.record(z.string(), paramValueSchema).default({}),
+  /** What the user typed, for display only (e.g. { l: "22 uH" }). */
+  entered: z.record(z.string(), z.string().max(200)).optional(),
+  /** Tolerance in percent (± half-range) per value, for Monte Carlo. */
+  tolerances: z.record(z.string(), z.number().min(0).max(100)).optional(),
+  /** Id of an attached data file (Touchstone, parts list), when the type takes one. */
+  dataFileId: z.string().max(64).optional(),
+});
+export type StageInstance = z.infer<typeof stageInstanceSchema>;
+
+export const thresholdsSchema = z.object({
+  /** Loading ratio Q_attached/Q_detached below which a tank is flagged as a warning. */
+  loadingWarn: z.number().gt(0).lt(1).default(0.5),
+  /** ...and below which it is flagged as an error. */
+  loadingError: z.number().gt(0).lt(1).default(0.2),
+  /** A stage is flagged when its input level passes P1dB less this back-off (dB). */
+  compressionBackoffDb: z.number().min(0).max(40).default(3),
+  /** A designed match is flagged when its return loss at f0 falls below this (dB). */
+  matchReturnLossDb: z.number().min(0).max(60).default(15),
+  /** A resonator is flagged when tuned off f0 by more than this fraction of its bandwidth. */
+  detuneFraction: z.number().gt(0).max(10).default(0.5),
+});
+export type Thresholds = z.infer<typeof thresholdsSchema>;
+
+export const sweepSchema = z
+  .object({
+    startHz: positive('sweep start'),
+    stopHz: positive('sweep stop'),
+    points: z.number().int().min(1).max(100001),
+    scale: z.enum(['lin', 'log']).default('lin'),
+  })
+  .refine((s) => s.stopHz >= s.startHz, {
+    message: 'sweep stop must not be below sweep start',
+    path: ['stopHz'],
+  });
+export type Sweep = z.infer<typeof sweepSchema>;
+
+export const chainSettingsSchema = z.object({
+  /** Design frequency f0 in Hz (at the chain's input: RF). */
+  f0Hz: positive('design frequency'),
+  sweep: sweepSchema,
+  /** Reference temperature for noise, K (IEEE T0 = 290 K). */
+  temperatureK: positive('temperature').default(290),
+  /** Channel (noise) bandwidth target in Hz, for noise floor and sensitivity. */
+  channelBandwidthHz: positive('channel bandwidth').default(10e3),
+  /** Required SNR at the detector for the sensitivity figure, dB. */
+  requiredSnrDb: finite('required SNR').default(10),
+  /** Offsets from f0 (Hz) at which cumulative attenuation is reported. */
+  offsetsHz: z.array(positive('offset')).max(16).default([]),
+  thresholds: thresholdsSchema.default({
+    loadingWarn: 0.5,
+    loadingError: 0.2,
+    compressionBackoffDb: 3,
+    matchReturnLossDb: 15,
+    detuneFraction: 0.5,
+  }),
+});
+export type ChainSettings = z.infer<typeof chainSettingsSchema>;
+
+export const chainDocumentSchema = z.object({
+  format: z.literal(CHAIN_FORMAT).default(CHAIN_FORMAT),
+  formatVersion: z.literal(CHAIN_FORMAT_VERSION).default(CHAIN_FORMAT_VERSION),
+  name: z.string().trim().min(1, 'a chain needs a name').max(200),
+  description: z.string().max(5000).default(''),
+  settings: chainSettingsSchema,
+  /** Ordered from the source (first) to the load (last). */
+  stages: z.array(stageInstanceSchema).min(2, 'a chain needs at least a source and a load').max(64),
+});
+export type ChainDocument = z.infer<typeof chainDocumentSchema>;
+/** The document as written by hand or sent by a client, before defaults are filled. */
+export type ChainDocumentInput = z.input<typeof chainDocumentSchema>;
