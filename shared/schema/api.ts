@@ -48,6 +48,11 @@ export interface MembershipDto {
   workspaceName: string;
   role: WorkspaceRole;
 }
+/** POST /api/auth/login and /api/auth/register answer this; the session is new, so is the CSRF token. */
+export interface SignedInDto {
+  user: UserDto;
+  csrfToken: string;
+}
 /** GET /api/me */
 export interface MeDto {
   user: UserDto;
