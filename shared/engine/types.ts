@@ -37,7 +37,8 @@ export interface ParamOption {
 export interface ParamSpec {
   key: string;
   label: string;
-  kind: 'number' | 'enum' | 'boolean';
+  /** `text`: a short string value (at most 200 characters, e.g. a compact measured table). */
+  kind: 'number' | 'enum' | 'boolean' | 'text';
   unit: UnitKind;
   default: number | string | boolean;
   /** Inclusive lower bound unless `exclusiveMin`. */
@@ -148,6 +149,27 @@ export interface BuildContext {
   /** Design frequency of the chain at the stage's input (translated after a mixer). */
   f0Hz: number;
   temperatureK: number;
+  /**
+   * The stage's attached data file, parsed (measured antenna: one-port; measured two-port:
+   * two-port). Optional: measured stages fall back to their text table parameter.
+   */
+  dataFile?: MeasuredNetwork;
+}
+
+/** One frequency point of measured S-parameters (one-port: s11 only), real reference z0. */
+export interface SParamPoint {
+  f: number;
+  z0: number;
+  s11: ComplexJson;
+  s21?: ComplexJson;
+  s12?: ComplexJson;
+  s22?: ComplexJson;
+}
+
+/** A parsed measurement (e.g. from a Touchstone file), points in ascending frequency. */
+export interface MeasuredNetwork {
+  ports: 1 | 2;
+  points: SParamPoint[];
 }
 
 export interface StageDefinition {
