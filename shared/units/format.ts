@@ -1,0 +1,54 @@
+/**
+ * Writes SI values the way engineers read them: "22 µH", "77.5 kHz", "2.2 kΩ".
+ * Pure and framework-free; no mathjs needed.
+ */
+import type { UnitKind } from '../engine/types';
+import { UNIT_KINDS } from './kinds';
+
+const ENGINEERING_PREFIXES: [number, string][] = [
+  [1e12, 'T'],
+  [1e9, 'G'],
+  [1e6, 'M'],
+  [1e3, 'k'],
+  [1, ''],
+  [1e-3, 'm'],
+  [1e-6, 'µ'],
+  [1e-9, 'n'],
+  [1e-12, 'p'],
+  [1e-15, 'f'],
+];
+
+/**
+ * Formats `value` (SI, or dB/dBm/percent for those kinds) with an engineering prefix and
+ * the kind's symbol, rounded to `digits` significant digits without trailing zeros.
+ * Non-finite values come out as "—" (not a number) or "∞".
+ */
+export function formatEngineering(value: number, unitKind: UnitKind, digits = 3): string {
+  const info = UNIT_KINDS[unitKind];
+  const join = (num: string, symbol: string) =>
+    symbol === '' ? num : symbol === '%' || symbol === '°' ? `${num}${symbol}` : `${num} ${symbol}`;
+  if (Number.isNaN(value)) return '—';
+  if (!Number.isFinite(value)) return join(value > 0 ? '∞' : '-∞', info.symbol);
+  if (!info.prefixed) return join(roundSignificant(value, digits), info.symbol);
+  const [mantissa, prefix] = scaleToPrefix(value, digits);
+  return join(roundSignificant(mantissa, digits), prefix + info.symbol);
+}
+
+/** Picks the prefix after rounding, so 999.96 with 3 digits reads "1 k", not "1000". */
+function scaleToPrefix(value: number, digits: number): [number, string] {
+  if (value === 0) return [0, ''];
+  const magnitude = Math.abs(value);
+  const rounded = Number(magnitude.toPrecision(digits));
+  const smallest = ENGINEERING_PREFIXES[ENGINEERING_PREFIXES.length - 1];
+  const chosen = ENGINEERING_PREFIXES.find(([scale]) => rounded >= scale) ?? smallest;
+  return [value / chosen[0], chosen[1]];
+}
+
+function roundSignificant(value: number, digits: number): string {
+  if (value === 0) return '0';
+  const text = Number(value.toPrecision(Math.max(1, Math.min(digits, 15))));
+  // Very large or small plain numbers keep exponent form; the rest print plainly.
+  const abs = Math.abs(text);
+  const plain = abs >= 1e-4 && abs < 1e15 ? String(text) : text.toExponential();
+  return plain;
+}
