@@ -1,0 +1,442 @@
+/**
+ * Touchstone reader for one- and two-port files (`.s1p`, `.s2p`).
+ *
+ * Follows the Touchstone® File Format Specification Rev 1.1 (EIA/IBIS Open Forum), with the
+ * simple parts of Version 2.0/2.1: `[Version]`, `[Number of Ports]`, `[Two-Port Data Order]`
+ * (`21_12` = N11 N21 N12 N22, the 1.x order; `12_21` = N11 N12 N21 N22), `[Number of
+ * Frequencies]`, a single-valued `[Reference]`, `[Matrix Format] Full`, `[Network Data]`,
+ * `[Noise Data]`, `[Begin/End Information]` (skipped) and `[End]`.
+ *
+ * What 1.1 says and this reader does:
+ * - the option line `# <unit> <parameter> <format> R <n>` may give its fields in any order and
+ *   omit any of them; the defaults are GHz, S, MA, R 50; only the first option line counts;
+ * - everything is case-insensitive; `!` starts a comment that runs to the end of the line;
+ * - DB is 20·log10|x| with the angle in degrees, MA is magnitude and degrees, RI is re, im;
+ * - Y and Z data in 1.x files are normalised to R (in 2.x files they are in siemens / ohm);
+ * - a two-port point is one line: frequency then N11 N21 N12 N22 (two numbers each);
+ * - in a 1.x two-port file the noise parameters start where the frequency stops increasing.
+ *
+ * Output is the canonical `NetworkData` (Hz, S re/im, one real reference). Every error is a
+ * `TouchstoneError` naming the file and line and saying what to change.
+ */
+import { normalisedToS, sStride, type NetworkData } from './network-data';
+
+/** One point of two-port noise parameters as the file gives them. */
+export interface NoisePoint {
+  fHz: number;
+  nfMinDb: number;
+  /** Optimum source reflection coefficient (against the file's reference). */
+  gammaOpt: { re: number; im: number };
+  /** Equivalent noise resistance, ohm (de-normalised). */
+  rnOhm: number;
+}
+
+/** A parsed Touchstone file in canonical form. */
+export interface TouchstoneFile extends NetworkData {
+  fileName: string;
+  /** '1.1' for files without `[Version]`, otherwise the version the file states. */
+  version: string;
+  /** The parameter the file held before conversion to S. */
+  sourceParameter: 'S' | 'Y' | 'Z';
+  /** Two-port noise parameters, when the file has them. */
+  noise: NoisePoint[];
+  /** Comment text (without `!`), in file order. */
+  comments: string[];
+}
+
+/** A Touchstone file that cannot be read as written. */
+export class TouchstoneError extends Error {
+  constructor(
+    readonly fileName: string,
+    readonly line: number | undefined,
+    detail: string,
+  ) {
+    super(`${fileName}${line === undefined ? '' : `, line ${line}`}: ${detail}`);
+    this.name = 'TouchstoneError';
+  }
+}
+
+export interface ReadTouchstoneOptions {
+  /** Port count when the file name does not say (`.s1p`/`.s2p`) and the file has no keyword. */
+  ports?: 1 | 2;
+}
+
+type Format = 'DB' | 'MA' | 'RI';
+type Section = 'header' | 'network' | 'noise' | 'information' | 'end';
+
+/** Everything the reader knows part-way through a file. */
+interface ParseState {
+  readonly fileName: string;
+  lineNo: number;
+  version: string;
+  ports: 1 | 2 | undefined;
+  optionLineSeen: boolean;
+  freqScale: number;
+  parameter: 'S' | 'Y' | 'Z';
+  format: Format;
+  reference: number;
+  /** Whether two-port columns come N11 N21 N12 N22 (1.x and `21_12`). */
+  order21First: boolean;
+  /** Whether `[Two-Port Data Order]` was given (2.x two-ports must give it). */
+  orderGiven: boolean;
+  section: Section;
+  expectedFrequencies: number | undefined;
+  /** Numbers of a v2 point that continues on the next line, and where it started. */
+  pending: number[];
+  pendingLine: number;
+  freqs: number[];
+  values: number[];
+  noise: NoisePoint[];
+  comments: string[];
+}
+
+const UNIT_SCALE: Record<string, number> = { HZ: 1, KHZ: 1e3, MHZ: 1e6, GHZ: 1e9 };
+const OPTION_HELP =
+  'the option line takes a frequency unit (Hz, kHz, MHz, GHz), a parameter (S, Y, Z), ' +
+  'a format (DB, MA, RI) and R followed by the reference resistance, e.g. "# MHz S DB R 50"';
+
+/**
+ * Reads the text of a one- or two-port Touchstone file.
+ * @param text the file's content
+ * @param fileName used for the port count (`.s1p`/`.s2p`) and in every error message
+ * @throws TouchstoneError naming the file, the line and what to change
+ */
+export function readTouchstone(
+  text: string,
+  fileName: string,
+  options: ReadTouchstoneOptions = {},
+): TouchstoneFile {
+  const state: ParseState = {
+    fileName,
+    lineNo: 0,
+    version: '1.1',
+    ports: portsFromName(fileName) ?? options.ports,
+    optionLineSeen: false,
+    freqScale: 1e9,
+    parameter: 'S',
+    format: 'MA',
+    reference: 50,
+    order21First: true,
+    orderGiven: false,
+    section: 'header',
+    expectedFrequencies: undefined,
+    pending: [],
+    pendingLine: 0,
+    freqs: [],
+    values: [],
+    noise: [],
+    comments: [],
+  };
+  for (const raw of text.split(/\r\n|\r|\n/)) {
+    state.lineNo++;
+    readLine(state, raw);
+    if (state.section === 'end') break;
+  }
+  return finish(state);
+}
+
+function portsFromName(fileName: string): 1 | 2 | undefined {
+  const m = /\.s([0-9]+)p$/i.exec(fileName);
+  if (!m) return undefined;
+  const n = Number(m[1]);
+  if (n === 1 || n === 2) return n;
+  throw new TouchstoneError(
+    fileName,
+    undefined,
+    `a ${n}-port file; only 1- and 2-port files are read`,
+  );
+}
+
+function fail(state: ParseState, detail: string, line: number = state.lineNo): never {
+  throw new TouchstoneError(state.fileName, line, detail);
+}
+
+function readLine(state: ParseState, raw: string): void {
+  const bang = raw.indexOf('!');
+  if (bang >= 0) state.comments.push(raw.slice(bang + 1).trim());
+  const line = (bang >= 0 ? raw.slice(0, bang) : raw).trim();
+  if (line === '') return;
+  if (state.section === 'information') {
+    if (/^\[end information\]/i.test(line)) state.section = 'header';
+    return;
+  }
+  if (line.startsWith('[')) return readKeyword(state, line);
+  if (line.startsWith('#')) return readOptionLine(state, line);
+  readDataLine(state, line);
+}
+
+function readKeyword(state: ParseState, line: string): void {
+  const m = /^\[([^\]]+)\]\s*(.*)$/.exec(line);
+  if (!m) fail(state, `"${line}" opens a keyword but has no closing "]"`);
+  const keyword = m[1].trim().toLowerCase().replace(/\s+/g, ' ');
+  const arg = m[2].trim();
+  if (state.pending.length > 0) {
+    fail(state, 'the previous frequency point is incomplete', state.pendingLine);
+  }
+  switch (keyword) {
+    case 'version':
+      if (!/^2\.[0-9]+$/.test(arg)) fail(state, `[Version] ${arg} is not read; use 2.0 or 2.1`);
+      state.version = arg;
+      return;
+    case 'number of ports': {
+      const n = Number(arg);
+      if (n !== 1 && n !== 2) fail(state, `[Number of Ports] ${arg}: only 1 and 2 ports are read`);
+      if (state.ports !== undefined && state.ports !== n && portsFromName(state.fileName)) {
+        fail(state, `[Number of Ports] ${n} disagrees with the file name; rename the file`);
+      }
+      state.ports = n;
+      return;
+    }
+    case 'two-port data order':
+      state.orderGiven = true;
+      if (arg === '21_12') state.order21First = true;
+      else if (arg === '12_21') state.order21First = false;
+      else fail(state, `[Two-Port Data Order] must be 12_21 or 21_12, not "${arg}"`);
+      return;
+    case 'number of frequencies': {
+      const n = Number(arg);
+      if (!Number.isInteger(n) || n < 1)
+        fail(state, `[Number of Frequencies] needs a count above 0`);
+      state.expectedFrequencies = n;
+      return;
+    }
+    case 'reference':
+      return readReference(state, arg);
+    case 'matrix format':
+      if (arg.toLowerCase() !== 'full') {
+        fail(state, `[Matrix Format] ${arg} is not read; write the full matrix`);
+      }
+      return;
+    case 'network data':
+      if (state.ports === 2 && !state.orderGiven) {
+        fail(
+          state,
+          'a 2.x two-port file needs [Two-Port Data Order] 12_21 or 21_12 before the data',
+        );
+      }
+      state.section = 'network';
+      return;
+    case 'noise data':
+    case 'number of noise frequencies':
+      if (keyword === 'noise data') state.section = 'noise';
+      return;
+    case 'begin information':
+      state.section = 'information';
+      return;
+    case 'end':
+      state.section = 'end';
+      return;
+    default:
+      fail(state, `[${m[1]}] is not a keyword this reader knows (mixed-mode data is not read)`);
+  }
+}
+
+function readReference(state: ParseState, arg: string): void {
+  const values = arg.split(/\s+/).filter(Boolean).map(Number);
+  if (values.length === 0 || values.some((v) => !(v > 0))) {
+    fail(state, '[Reference] needs positive resistances on the same line');
+  }
+  if (values.some((v) => v !== values[0])) {
+    fail(state, '[Reference] gives ports different resistances; renormalise to one reference');
+  }
+  state.reference = values[0];
+}
+
+function readOptionLine(state: ParseState, line: string): void {
+  // 1.1: "Additional option lines after the first are ignored."
+  if (state.optionLineSeen) return;
+  if (state.freqs.length > 0) fail(state, 'the option line must come before the data');
+  state.optionLineSeen = true;
+  const tokens = line.slice(1).trim().split(/\s+/).filter(Boolean);
+  for (let i = 0; i < tokens.length; i++) {
+    const t = tokens[i].toUpperCase();
+    if (t in UNIT_SCALE) state.freqScale = UNIT_SCALE[t];
+    else if (t === 'S' || t === 'Y' || t === 'Z') state.parameter = t;
+    else if (t === 'DB' || t === 'MA' || t === 'RI') state.format = t;
+    else if (t === 'R') {
+      const r = Number(tokens[i + 1]);
+      if (!(r > 0)) fail(state, `R must be followed by a resistance above 0 ohm; ${OPTION_HELP}`);
+      state.reference = r;
+      i++;
+      // 1.1 per-port syntax "R 50 50": accept extra equal values, refuse different ones.
+      while (i + 1 < tokens.length && isNumber(tokens[i + 1])) {
+        if (Number(tokens[i + 1]) !== r) {
+          fail(state, 'the option line gives ports different references; use one R');
+        }
+        i++;
+      }
+    } else if (t === 'H' || t === 'G') {
+      fail(state, `${t}-parameters are not read; export S-parameters instead`);
+    } else fail(state, `"${tokens[i]}" is not an option; ${OPTION_HELP}`);
+  }
+}
+
+function isNumber(token: string): boolean {
+  return token.trim() !== '' && Number.isFinite(Number(token));
+}
+
+function readDataLine(state: ParseState, line: string): void {
+  if (!state.optionLineSeen) {
+    fail(state, 'data before the option line; start the file with e.g. "# GHz S MA R 50"');
+  }
+  if (state.version !== '1.1' && state.section === 'header') {
+    fail(state, 'a 2.x file needs [Network Data] before its data');
+  }
+  const tokens = line.split(/\s+/);
+  const numbers = tokens.map(Number);
+  const bad = numbers.findIndex((v) => !Number.isFinite(v));
+  if (bad >= 0) fail(state, `"${tokens[bad]}" is not a number`);
+  if (state.section === 'noise') return readNoise(state, numbers);
+  if (state.pending.length > 0) {
+    return addToPending(state, numbers);
+  }
+  const ports = state.ports ?? inferPorts(state, numbers.length);
+  const needed = 1 + 2 * ports * ports;
+  // 1.x two-port noise data: frequency at or below the last one, five numbers.
+  const last = state.freqs[state.freqs.length - 1];
+  if (ports === 2 && state.version === '1.1' && last !== undefined) {
+    if (numbers[0] * state.freqScale <= last && numbers.length === 5) {
+      state.section = 'noise';
+      return readNoise(state, numbers);
+    }
+  }
+  if (numbers.length === needed) return addPoint(state, numbers);
+  if (numbers.length < needed && state.version !== '1.1') {
+    state.pending = numbers;
+    state.pendingLine = state.lineNo;
+    return;
+  }
+  fail(state, `${numbers.length} numbers on a data line; ${describePoint(ports)}`);
+}
+
+function describePoint(ports: 1 | 2): string {
+  return ports === 1
+    ? 'a one-port point needs 3 (frequency and S11 as two numbers)'
+    : 'a two-port point needs 9 (frequency and N11 N21 N12 N22 as two numbers each)';
+}
+
+function inferPorts(state: ParseState, count: number): 1 | 2 {
+  if (count === 3) return (state.ports = 1);
+  if (count === 9) return (state.ports = 2);
+  return fail(
+    state,
+    `${count} numbers on the first data line, so the port count is unclear; name the file .s1p or .s2p`,
+  );
+}
+
+function addToPending(state: ParseState, numbers: number[]): void {
+  const ports = state.ports ?? 2;
+  const needed = 1 + 2 * ports * ports;
+  const all = state.pending.concat(numbers);
+  if (all.length > needed) {
+    fail(
+      state,
+      `a point ran past its ${needed} numbers; ${describePoint(ports)}`,
+      state.pendingLine,
+    );
+  }
+  if (all.length < needed) {
+    state.pending = all;
+    return;
+  }
+  state.pending = [];
+  addPoint(state, all, state.pendingLine);
+}
+
+function addPoint(state: ParseState, numbers: number[], line: number = state.lineNo): void {
+  const ports = state.ports ?? 1;
+  const f = numbers[0] * state.freqScale;
+  const last = state.freqs[state.freqs.length - 1];
+  if (!(f >= 0)) fail(state, 'a frequency must not be negative', line);
+  if (last !== undefined && !(f > last)) {
+    fail(
+      state,
+      `frequencies must increase, but ${numbers[0]} comes after ${last / state.freqScale}; ` +
+        'sort the points by frequency and remove repeats',
+      line,
+    );
+  }
+  const pairs: number[] = [];
+  for (let k = 1; k < numbers.length; k += 2) {
+    pairs.push(...toRectangular(state.format, numbers[k], numbers[k + 1]));
+  }
+  // Columns in file order → row-major S11 S12 S21 S22.
+  const m =
+    ports === 2 && state.order21First ? [0, 1, 4, 5, 2, 3, 6, 7].map((i) => pairs[i]) : pairs;
+  state.freqs.push(f);
+  if (state.parameter === 'S') {
+    state.values.push(...m);
+    return;
+  }
+  // 2.x Y/Z are in siemens/ohm; 1.x are already normalised to R.
+  const scale =
+    state.version === '1.1' ? 1 : state.parameter === 'Z' ? 1 / state.reference : state.reference;
+  const s = new Float64Array(m.length);
+  normalisedToS(
+    state.parameter,
+    ports,
+    m.map((v) => v * scale),
+    s,
+    0,
+  );
+  state.values.push(...s);
+}
+
+function toRectangular(format: Format, a: number, b: number): [number, number] {
+  if (format === 'RI') return [a, b];
+  const mag = format === 'MA' ? a : Math.pow(10, a / 20);
+  const rad = (b * Math.PI) / 180;
+  return [mag * Math.cos(rad), mag * Math.sin(rad)];
+}
+
+function readNoise(state: ParseState, numbers: number[]): void {
+  if (numbers.length !== 5) {
+    fail(
+      state,
+      `${numbers.length} numbers on a noise line; it needs 5 (f, NFmin dB, |Γopt|, ∠Γopt, Rn)`,
+    );
+  }
+  const f = numbers[0] * state.freqScale;
+  const last = state.noise[state.noise.length - 1];
+  if (last && !(f > last.fHz)) fail(state, 'noise frequencies must increase');
+  const rad = (numbers[3] * Math.PI) / 180;
+  state.noise.push({
+    fHz: f,
+    nfMinDb: numbers[1],
+    gammaOpt: { re: numbers[2] * Math.cos(rad), im: numbers[2] * Math.sin(rad) },
+    // Rn is normalised to R (1.1); read 2.x files the same way (from memory).
+    rnOhm: numbers[4] * state.reference,
+  });
+}
+
+function finish(state: ParseState): TouchstoneFile {
+  if (state.pending.length > 0) {
+    fail(state, 'the last frequency point is incomplete', state.pendingLine);
+  }
+  if (state.freqs.length === 0) {
+    throw new TouchstoneError(state.fileName, undefined, 'no data points found');
+  }
+  if (state.expectedFrequencies !== undefined && state.expectedFrequencies !== state.freqs.length) {
+    throw new TouchstoneError(
+      state.fileName,
+      undefined,
+      `[Number of Frequencies] says ${state.expectedFrequencies} but the file has ` +
+        `${state.freqs.length} points; correct the count`,
+    );
+  }
+  const ports = state.ports ?? 1;
+  if (state.values.length !== sStride(ports) * state.freqs.length) {
+    throw new TouchstoneError(state.fileName, undefined, 'internal: point size mismatch');
+  }
+  return {
+    fileName: state.fileName,
+    version: state.version,
+    ports,
+    sourceParameter: state.parameter,
+    freqsHz: Float64Array.from(state.freqs),
+    s: Float64Array.from(state.values),
+    z0: state.reference,
+    noise: state.noise,
+    comments: state.comments,
+  };
+}
