@@ -129,6 +129,11 @@ export interface StageModel {
   resonators?: ResonatorDecl[];
   noise?: NoiseDecl;
   linearity?: { iip3Dbm?: number; p1dbDbm?: number };
+  /**
+   * Mixers (optional): the local oscillator, so the image frequency is stated exactly. When
+   * absent the engine derives it from the sections' `translate`.
+   */
+  mixer?: { loHz: number; product: 'difference' | 'sum' };
   /** Detectors: the lowest input level (PEAK volts) at which they work properly. */
   detector?: { minInputPeakV: number };
   /** Matching networks: the resistances it was designed to match (for the mismatch flag). */

@@ -1,0 +1,65 @@
+/**
+ * The analysis of a whole chain: validation and building, node analysis at f0 and over the
+ * sweep, resonators, selectivity, noise, linearity, levels and flags.
+ */
+import { ChainValidationError } from './errors';
+import type { AnalysisResult, StageDefinition } from './types';
+import { buildChain, type BuiltChain, type ChainLike } from './core/build';
+import { raiseFlags } from './core/flags';
+import { runNodeAnalysis } from './core/nodes';
+import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
+import { analyzeResonators } from './core/resonators';
+import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivity';
+import { frequencyGrid } from './core/sweep';
+import { defaultCatalogue } from './default-catalogue';
+
+/** Version of the engine's methods, stored with saved results. */
+export const ENGINE_VERSION = '0.1.0';
+
+export interface AnalyzeOptions {
+  /** Include the sweep arrays in the result (default true). Selectivity is always computed. */
+  sweep?: boolean;
+  /** Stage types to accept (default: the product's stage catalogue). */
+  catalogue?: readonly StageDefinition[];
+}
+
+/** Analyses an already built chain (for callers that build once and analyse many times). */
+export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {}): AnalysisResult {
+  const f0Hz = built.settings.f0Hz;
+  const f0Na = runNodeAnalysis(built, [f0Hz]);
+  const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+  const nodes = nodeReports(built, f0Na);
+  const stages = stageReports(built, f0Na);
+  const findings = analyzeResonators(built);
+  const image = imageFrequency(built, findMixer(built));
+  const selectivity = analyzeSelectivity(built, sweepNa, image);
+  const flags = raiseFlags({ built, f0Na, resonators: findings, stages });
+  const resonators = findings.map(
+    ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, ...report }) => report,
+  );
+  return {
+    engineVersion: ENGINE_VERSION,
+    f0Hz,
+    nodes,
+    stages,
+    resonators,
+    selectivity,
+    levels: levelsReport(built, f0Na, stages),
+    flags,
+    ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa) }),
+  };
+}
+
+/**
+ * Analyses a chain document.
+ * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
+ */
+export function analyzeChain(doc: ChainLike, options: AnalyzeOptions = {}): AnalysisResult {
+  const catalogue = options.catalogue ?? defaultCatalogue();
+  if (!catalogue) {
+    throw new ChainValidationError([
+      { path: [], message: 'No stage catalogue is available yet: pass one in the options' },
+    ]);
+  }
+  return analyzeBuilt(buildChain(doc, catalogue), options);
+}

@@ -1,0 +1,288 @@
+/**
+ * From a chain document to a "built chain": every value checked against its stage type's
+ * parameter schema (all problems collected, then one ChainValidationError), every stage's
+ * model built, and the sections of all two-ports laid out flat with maps back to stages and
+ * user-level nodes (stage boundaries).
+ */
+import { chainSettingsSchema, type ChainSettings } from '../../schema/chain';
+import { ChainValidationError, StageParameterError, type ChainIssue } from '../errors';
+import type { ParamSpec, ParamValues, Section, StageDefinition, StageModel } from '../types';
+import { formatQuantity } from './format';
+
+/** One stage of the chain after validation and building. */
+export interface BuiltStage {
+  /** Position in the document's `stages` (0 = source). */
+  index: number;
+  id: string;
+  type: string;
+  /** The instance's label, or the type's label when the instance has none. */
+  label: string;
+  definition: StageDefinition;
+  values: ParamValues;
+  model: StageModel;
+  /** Flat index of the stage's first section; the flat node at its input. */
+  firstSection: number;
+  sectionCount: number;
+}
+
+/** A chain ready for analysis. User-level node k sits between two-port k−1 and two-port k. */
+export interface BuiltChain {
+  settings: ChainSettings;
+  source: BuiltStage;
+  load: BuiltStage;
+  /** The stages between source and load, in order (two-port k spans user nodes k → k+1). */
+  twoPorts: BuiltStage[];
+  /** All sections of all two-ports, in order. Flat node j is the input of section j. */
+  sections: Section[];
+  /** For each section, the index in `twoPorts` of the stage that owns it. */
+  sectionStage: Int32Array;
+  /** For each user-level node (0 … twoPorts.length), its flat node. */
+  userNodeFlat: Int32Array;
+  /** The design frequency at each flat node (translated after a mixer), Hz. */
+  f0AtFlatNode: Float64Array;
+}
+
+/** The loose shape accepted from callers (a parsed ChainDocument or one before defaults). */
+export interface ChainLike {
+  settings?: unknown;
+  stages?: unknown;
+}
+
+interface StageLike {
+  id?: unknown;
+  type?: unknown;
+  label?: unknown;
+  values?: unknown;
+}
+
+/** "Stage 3 "Detector" (diode-detector)" — how messages name a stage. */
+export function stageName(index: number, label: string, type: string): string {
+  return `Stage ${index + 1} "${label}" (${type})`;
+}
+
+function paramName(spec: ParamSpec): string {
+  const l = spec.label || spec.key;
+  // keep acronyms such as "IIP3" or "LO frequency" as written
+  return l.length > 1 && l[1] === l[1].toUpperCase() && l[1] !== l[1].toLowerCase()
+    ? l
+    : l[0].toLowerCase() + l.slice(1);
+}
+
+function showParam(spec: ParamSpec, resolved: ParamValues): boolean {
+  return !spec.showWhen || resolved[spec.showWhen.key] === spec.showWhen.equals;
+}
+
+function describe(v: unknown): string {
+  return typeof v === 'string' ? JSON.stringify(v) : String(v);
+}
+
+/** Checks one value against its spec; returns the problem ("must be ...") or null. */
+function checkValue(spec: ParamSpec, v: unknown): string | null {
+  const unit = (x: number) => formatQuantity(x, spec.unit, 6);
+  switch (spec.kind) {
+    case 'number':
+      if (typeof v !== 'number') return `must be a number (got ${describe(v)})`;
+      if (!Number.isFinite(v)) return `must be a finite number (got ${describe(v)})`;
+      if (spec.min !== undefined) {
+        if (spec.exclusiveMin && !(v > spec.min))
+          return `must be above ${unit(spec.min)} (got ${describe(v)})`;
+        if (!spec.exclusiveMin && !(v >= spec.min))
+          return `must be at least ${unit(spec.min)} (got ${describe(v)})`;
+      }
+      if (spec.max !== undefined && !(v <= spec.max))
+        return `must be at most ${unit(spec.max)} (got ${describe(v)})`;
+      return null;
+    case 'enum': {
+      const allowed = (spec.options ?? []).map((o) => o.value);
+      if (typeof v !== 'string' || !allowed.includes(v))
+        return `must be one of ${allowed.join(', ')} (got ${describe(v)})`;
+      return null;
+    }
+    case 'boolean':
+      return typeof v === 'boolean' ? null : `must be true or false (got ${describe(v)})`;
+  }
+  return `has a kind the engine does not know ("${String(spec.kind)}")`;
+}
+
+function settingsIssues(raw: unknown): { settings?: ChainSettings; issues: ChainIssue[] } {
+  const issues: ChainIssue[] = [];
+  const s = (raw ?? {}) as Record<string, unknown>;
+  const f0 = s['f0Hz'];
+  if (typeof f0 !== 'number' || !Number.isFinite(f0) || f0 <= 0) {
+    issues.push({
+      path: ['settings', 'f0Hz'],
+      message: `Design frequency must be a finite frequency above 0 Hz (got ${describe(f0)})`,
+    });
+  }
+  const parsed = chainSettingsSchema.safeParse(raw);
+  if (!parsed.success) {
+    for (const zi of parsed.error.issues) {
+      const path = ['settings', ...zi.path.map((p) => (typeof p === 'symbol' ? String(p) : p))];
+      if (path[1] === 'f0Hz' && issues.length > 0) continue; // already said above
+      issues.push({ path, message: `Settings ${path.slice(1).join('.')}: ${zi.message}` });
+    }
+  }
+  return { settings: parsed.success ? parsed.data : undefined, issues };
+}
+
+/** Resolves a stage's values (defaults filled, hidden ones reset) and reports bad ones. */
+function resolveValues(
+  def: StageDefinition,
+  given: Record<string, unknown>,
+  where: { index: number; id: string; name: string },
+  issues: ChainIssue[],
+): ParamValues {
+  const resolved: ParamValues = {};
+  for (const spec of def.params) {
+    const v = given[spec.key];
+    resolved[spec.key] = v === undefined ? spec.default : (v as number | string | boolean);
+  }
+  for (const spec of def.params) {
+    if (!showParam(spec, resolved)) {
+      resolved[spec.key] = spec.default; // hidden: neither checked nor used
+      continue;
+    }
+    const problem = checkValue(spec, resolved[spec.key]);
+    if (problem) {
+      issues.push({
+        stageId: where.id,
+        stageIndex: where.index,
+        param: spec.key,
+        path: ['stages', where.index, 'values', spec.key],
+        message: `${where.name}: ${paramName(spec)} ${problem}`,
+      });
+    }
+  }
+  return resolved;
+}
+
+function checkModel(role: StageDefinition['role'], m: StageModel): string | null {
+  if (!m || !Array.isArray(m.sections)) return 'its model has no section list';
+  if (role === 'source' && (typeof m.emf !== 'function' || typeof m.impedance !== 'function'))
+    return 'a source model needs an EMF and an impedance';
+  if (role === 'load' && typeof m.impedance !== 'function')
+    return 'a load model needs an impedance';
+  return null;
+}
+
+/**
+ * Validates a chain against a catalogue and builds every stage.
+ * @param doc the chain document (defaults of the settings are filled here)
+ * @param catalogue the stage types to accept
+ * @throws ChainValidationError listing every problem found, each naming stage and parameter
+ */
+export function buildChain(doc: ChainLike, catalogue: readonly StageDefinition[]): BuiltChain {
+  const { settings, issues } = settingsIssues(doc.settings);
+  const byType = new Map(catalogue.map((d) => [d.type, d]));
+  const stagesRaw = doc.stages;
+  if (!Array.isArray(stagesRaw) || stagesRaw.length < 2) {
+    issues.push({ path: ['stages'], message: 'A chain needs at least a source and a load stage' });
+    throw new ChainValidationError(issues);
+  }
+  const last = stagesRaw.length - 1;
+  const resolved: { def: StageDefinition; values: ParamValues; st: StageLike; name: string }[] = [];
+  stagesRaw.forEach((raw: unknown, index) => {
+    const st = (raw ?? {}) as StageLike;
+    const type = typeof st.type === 'string' ? st.type : '';
+    const id = typeof st.id === 'string' && st.id ? st.id : `#${index + 1}`;
+    const def = byType.get(type);
+    const label = typeof st.label === 'string' && st.label ? st.label : (def?.label ?? type);
+    const name = stageName(index, label, type || 'no type');
+    if (!def) {
+      issues.push({
+        stageId: id,
+        stageIndex: index,
+        path: ['stages', index, 'type'],
+        message: `${name}: unknown stage type "${type}"; choose one from the stage catalogue`,
+      });
+      return;
+    }
+    const wanted = index === 0 ? 'source' : index === last ? 'load' : 'two-port';
+    if (def.role !== wanted) {
+      const where = index === 0 ? 'first' : index === last ? 'last' : 'between source and load';
+      issues.push({
+        stageId: id,
+        stageIndex: index,
+        path: ['stages', index, 'type'],
+        message: `${name}: a ${def.role} cannot be ${where}; the ${where === 'first' ? 'first stage must be a source' : where === 'last' ? 'last stage must be a load' : 'stages in between must be two-ports'}`,
+      });
+    }
+    const given =
+      st.values && typeof st.values === 'object' ? (st.values as Record<string, unknown>) : {};
+    const values = resolveValues(def, given, { index, id, name }, issues);
+    resolved.push({ def, values, st: { ...st, id, label }, name });
+  });
+  if (issues.length > 0 || !settings) throw new ChainValidationError(issues);
+
+  // Build in order, carrying the design frequency through frequency-translating sections.
+  let f0 = settings.f0Hz;
+  const built: BuiltStage[] = [];
+  const f0Flat: number[] = [];
+  let flat = 0;
+  resolved.forEach(({ def, values, st, name }, index) => {
+    let model: StageModel;
+    try {
+      model = def.build(values, { f0Hz: f0, temperatureK: settings.temperatureK });
+    } catch (e) {
+      const param = e instanceof StageParameterError ? e.param : undefined;
+      issues.push({
+        stageId: st.id as string,
+        stageIndex: index,
+        param,
+        path: param ? ['stages', index, 'values', param] : ['stages', index],
+        message: `${name}: ${e instanceof Error ? e.message : String(e)}`,
+      });
+      return;
+    }
+    const bad = checkModel(def.role, model);
+    if (bad) {
+      issues.push({
+        stageId: st.id as string,
+        stageIndex: index,
+        path: ['stages', index],
+        message: `${name}: ${bad}`,
+      });
+      return;
+    }
+    const count = def.role === 'two-port' ? model.sections.length : 0;
+    built.push({
+      index,
+      id: st.id as string,
+      type: def.type,
+      label: st.label as string,
+      definition: def,
+      values,
+      model,
+      firstSection: flat,
+      sectionCount: count,
+    });
+    for (let k = 0; k < count; k++) {
+      f0Flat.push(f0);
+      const tr = model.sections[k].translate;
+      if (tr) f0 = tr(f0);
+    }
+    flat += count;
+  });
+  if (issues.length > 0) throw new ChainValidationError(issues);
+  f0Flat.push(f0);
+
+  const twoPorts = built.slice(1, -1);
+  const sections = twoPorts.flatMap((s) => s.model.sections);
+  const sectionStage = new Int32Array(sections.length);
+  const userNodeFlat = new Int32Array(twoPorts.length + 1);
+  twoPorts.forEach((s, k) => {
+    sectionStage.fill(k, s.firstSection, s.firstSection + s.sectionCount);
+    userNodeFlat[k] = s.firstSection;
+  });
+  userNodeFlat[twoPorts.length] = sections.length;
+  return {
+    settings,
+    source: built[0],
+    load: built[built.length - 1],
+    twoPorts,
+    sections,
+    sectionStage,
+    userNodeFlat,
+    f0AtFlatNode: Float64Array.from(f0Flat),
+  };
+}

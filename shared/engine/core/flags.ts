@@ -1,0 +1,145 @@
+/**
+ * Flags: what a designer should look at, each with the stage, a severity and one sentence
+ * with the numbers behind it. Thresholds come from the chain's settings.
+ */
+import type { Caution, Flag, StageReport } from '../types';
+import type { BuiltChain } from './build';
+import { formatNumber as num, formatQuantity, hz } from './format';
+import type { NodeAnalysis } from './nodes';
+import { returnLossDb, vMag } from './quantities';
+import { searchRange, type ResonatorFinding } from './resonators';
+
+/** The usual caution wording for each hazard a stage definition declares. */
+export const CAUTION_TEXT: Record<Caution, string> = {
+  'high-voltage':
+    'works with voltages that can injure or kill: switch off and discharge before touching, and follow local electrical codes and licensed practice.',
+  transmit:
+    'can radiate: transmitting needs the right licence or authorisation; check the output against local regulations and licensed practice before connecting an antenna.',
+  'rf-exposure':
+    'can produce RF fields above exposure limits near the antenna: keep people clear and follow the exposure rules and licensed practice where you operate.',
+};
+
+export interface FlagInputs {
+  built: BuiltChain;
+  /** Node analysis at f0 (one point). */
+  f0Na: NodeAnalysis;
+  resonators: readonly ResonatorFinding[];
+  stages: readonly StageReport[];
+}
+
+function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
+  const t = built.settings.thresholds;
+  const flags: Flag[] = [];
+  const kind = r.kind === 'shunt' ? 'Tank' : 'Series resonator';
+  if (r.resonanceHz === null || r.loadedQ === null) {
+    const [lo, hi] = searchRange(built);
+    flags.push({
+      code: 'no-resonance',
+      severity: 'warning',
+      stageId: r.stageId,
+      message: `${kind} "${r.label}" shows no resonance between ${hz(lo)} and ${hz(hi)} near the design frequency ${hz(r.f0LocalHz)}; check its L and C values.`,
+      data: { f0Hz: r.f0LocalHz },
+    });
+    return flags;
+  }
+  const fr = r.resonanceHz;
+  const bw = r.bandwidthHz ?? NaN;
+  if (r.loadingRatio !== null && r.detachedQ !== null && r.loadingRatio < t.loadingWarn) {
+    const share = r.downstreamShare === null ? '' : ` The downstream side takes ${num(100 * r.downstreamShare, 2)} % of the damping.`; // prettier-ignore
+    flags.push({
+      code: 'tank-overloaded',
+      severity: r.loadingRatio < t.loadingError ? 'error' : 'warning',
+      stageId: r.stageId,
+      message:
+        `${kind} "${r.label}" at ${hz(fr)}: Q falls from ${num(r.detachedQ)} to ${num(r.loadedQ)} ` +
+        `(ratio ${num(r.loadingRatio, 2)}) when ${r.downstreamLabel} is attached; bandwidth widens ` +
+        `from ${hz(r.detachedBandwidthHz ?? NaN)} to ${hz(bw)}.${share}`,
+      data: {
+        resonanceHz: fr,
+        detachedQ: r.detachedQ,
+        loadedQ: r.loadedQ,
+        loadingRatio: r.loadingRatio,
+        downstreamShare: r.downstreamShare ?? NaN,
+      },
+    });
+  }
+  const off = fr - r.f0LocalHz;
+  if (Number.isFinite(bw) && Math.abs(off) > t.detuneFraction * bw) {
+    flags.push({
+      code: 'tank-detuned',
+      severity: 'warning',
+      stageId: r.stageId,
+      message: `${kind} "${r.label}" resonates at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
+      data: { resonanceHz: fr, f0Hz: r.f0LocalHz, offsetHz: off, bandwidthHz: bw },
+    });
+  }
+  return flags;
+}
+
+/** Every flag of the chain, in chain order within each kind. */
+export function raiseFlags({ built, f0Na, resonators, stages }: FlagInputs): Flag[] {
+  const t = built.settings.thresholds;
+  const flags: Flag[] = [];
+  for (const r of resonators) flags.push(...tankFlags(built, r));
+  built.twoPorts.forEach((stage, k) => {
+    const m = stage.model;
+    const report = stages[k];
+    const name = `"${stage.label}"`;
+    if (m.designedMatch) {
+      const rl = returnLossDb(f0Na, stage.firstSection, 0);
+      if (rl < t.matchReturnLossDb) {
+        flags.push({
+          code: 'match-missed',
+          severity: 'warning',
+          stageId: stage.id,
+          message: `${name} was designed to match ${formatQuantity(m.designedMatch.r1, 'ohm')} to ${formatQuantity(m.designedMatch.r2, 'ohm')}, but its input return loss at ${hz(built.settings.f0Hz)} is ${num(rl)} dB (wanted at least ${num(t.matchReturnLossDb)} dB); check what it really sees on each side.`,
+          data: { returnLossDb: rl, thresholdDb: t.matchReturnLossDb },
+        });
+      }
+    }
+    const p1 = m.linearity?.p1dbDbm;
+    if (p1 !== undefined && report && report.inputLevelDbm > p1 - t.compressionBackoffDb) {
+      const level = report.inputLevelDbm;
+      flags.push({
+        code: 'compression',
+        severity: level > p1 ? 'error' : 'warning',
+        stageId: stage.id,
+        message: `${name} is driven at ${num(level)} dBm available, ${level > p1 ? `${num(level - p1)} dB past` : `within ${num(p1 - level)} dB of`} its ${num(p1)} dBm 1 dB compression point (back-off wanted: ${num(t.compressionBackoffDb)} dB).`,
+        data: { inputLevelDbm: level, p1dbDbm: p1 },
+      });
+    }
+    if (m.detector) {
+      const v = vMag(f0Na, stage.firstSection, 0);
+      if (v < m.detector.minInputPeakV) {
+        flags.push({
+          code: 'detector-underdriven',
+          severity: 'warning',
+          stageId: stage.id,
+          message: `${name} gets ${formatQuantity(v, 'volt')} peak (${formatQuantity(v / Math.SQRT2, 'volt')} rms) at ${hz(built.f0AtFlatNode[stage.firstSection])}, below the ${formatQuantity(m.detector.minInputPeakV, 'volt')} peak it needs to work properly; add gain or step the voltage up before it.`,
+          data: { inputPeakV: v, minInputPeakV: m.detector.minInputPeakV },
+        });
+      }
+    }
+    if (m.qBudget && m.qBudget.required > m.qBudget.componentQ) {
+      flags.push({
+        code: 'q-budget',
+        severity: 'warning',
+        stageId: stage.id,
+        message: `${name} needs a loaded Q of ${num(m.qBudget.required)} but its parts have Q ${num(m.qBudget.componentQ)}; losses will eat the match. Use a lower-Q design or better parts.`,
+        data: { requiredQ: m.qBudget.required, componentQ: m.qBudget.componentQ },
+      });
+    }
+  });
+  for (const stage of [built.source, ...built.twoPorts, built.load]) {
+    for (const c of stage.definition.cautions ?? []) {
+      flags.push({
+        code: 'caution',
+        severity: 'info',
+        stageId: stage.id,
+        message: `Caution: "${stage.label}" ${CAUTION_TEXT[c]}`,
+        data: { caution: c },
+      });
+    }
+  }
+  return flags;
+}

@@ -1,0 +1,151 @@
+/**
+ * Node, stage and level reports at the design frequency, read from a one-point node
+ * analysis at f0 (so f0 figures never depend on the sweep's spacing).
+ */
+import type { LevelsReport, NodeReport, StageReport, SweepReport } from '../types';
+import type { BuiltChain } from './build';
+import { cascadeInputPoint } from './linearity';
+import type { NodeAnalysis } from './nodes';
+import {
+  emfForAvailableDbm,
+  friis,
+  noiseFloorDbm,
+  sensitivityDbm,
+  sfdrDb,
+  stageNoiseFactor,
+} from './noise';
+import {
+  availablePower,
+  dbm,
+  deliveredPower,
+  mismatchFactor,
+  reflectionMag,
+  returnLossDb,
+  stepUp,
+  vMag,
+  vswr,
+} from './quantities';
+
+const db10 = (r: number) => 10 * Math.log10(r);
+const db20 = (r: number) => 20 * Math.log10(r);
+const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
+
+/** Reports of every user-level node at f0. */
+export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
+  const pavs = availablePower(na, 0, 0);
+  return Array.from(built.userNodeFlat, (flat, n): NodeReport => {
+    const k = flat * na.points;
+    const v = vMag(na, flat, 0);
+    const up = stepUp(na, flat, 0);
+    const p = deliveredPower(na, flat, 0);
+    const pav = availablePower(na, flat, 0);
+    const mm = mismatchFactor(na, flat, 0);
+    return {
+      index: n,
+      after: n === 0 ? built.source.label : built.twoPorts[n - 1].label,
+      zIn: { re: na.zinRe[k], im: na.zinIm[k] },
+      zSrc: { re: na.zsrcRe[k], im: na.zsrcIm[k] },
+      vPeak: v,
+      vRms: v / Math.SQRT2,
+      phaseDeg: (Math.atan2(na.vIm[k], na.vRe[k]) * 180) / Math.PI,
+      stepUp: up,
+      stepUpDb: db20(up),
+      deliveredW: p,
+      availableW: pav,
+      deliveredDbm: dbm(p),
+      availableDbm: dbm(pav),
+      transducerGainDb: db10(p / pavs),
+      mismatch: mm,
+      mismatchLossDb: -db10(mm),
+      returnLossDb: returnLossDb(na, flat, 0),
+      vswr: vswr(na, flat, 0),
+    };
+  });
+}
+
+/** Per-stage gains, noise and linearity cascades at f0. */
+export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[] {
+  const flats = built.userNodeFlat;
+  const pav = Array.from(flats, (j) => availablePower(na, j, 0));
+  const v = Array.from(flats, (j) => vMag(na, j, 0));
+  const gains = built.twoPorts.map((_, k) => pav[k + 1] / pav[k]);
+  const factors = built.twoPorts.map((s, k) => {
+    const j = flats[k] * na.points;
+    const zr = na.zsrcRe[j];
+    const zi = na.zsrcIm[j];
+    const d = zr * zr + zi * zi;
+    return stageNoiseFactor(s.model.noise, gains[k], zr / d, -zi / d);
+  });
+  const cumF = friis(gains, factors);
+  const gainsDb = gains.map(db10);
+  const iip3 = cascadeInputPoint(gainsDb, built.twoPorts.map((s) => s.model.linearity?.iip3Dbm ?? null)); // prettier-ignore
+  const p1 = cascadeInputPoint(gainsDb, built.twoPorts.map((s) => s.model.linearity?.p1dbDbm ?? null)); // prettier-ignore
+  return built.twoPorts.map((s, k): StageReport => ({
+    id: s.id,
+    type: s.type,
+    label: s.label,
+    fromNode: k,
+    toNode: k + 1,
+    fInHz: na.fNode[flats[k] * na.points],
+    fOutHz: na.fNode[flats[k + 1] * na.points],
+    voltageGainDb: db20(v[k + 1] / v[k]),
+    cumulativeVoltageGainDb: db20(v[k + 1] / v[0]),
+    availableGainDb: gainsDb[k],
+    transducerGainDb: db10(deliveredPower(na, flats[k + 1], 0) / pav[k]),
+    noiseFigureDb: db10(factors[k]),
+    cumulativeNoiseFigureDb: db10(cumF[k]),
+    cumulativeGainDb: db10(pav[k + 1] / pav[0]),
+    iip3Dbm: s.model.linearity?.iip3Dbm ?? null,
+    cumulativeIip3Dbm: finiteOrNull(iip3[k]),
+    p1dbDbm: s.model.linearity?.p1dbDbm ?? null,
+    cumulativeP1dbDbm: finiteOrNull(p1[k]),
+    inputLevelDbm: dbm(pav[k]),
+  }));
+}
+
+/** Signal and noise levels of the whole chain. */
+export function levelsReport(
+  built: BuiltChain,
+  na: NodeAnalysis,
+  stages: StageReport[],
+): LevelsReport {
+  const { temperatureK, channelBandwidthHz, requiredSnrDb } = built.settings;
+  const last = stages[stages.length - 1];
+  const nf = last ? last.cumulativeNoiseFigureDb : 0;
+  const floor = noiseFloorDbm(temperatureK, channelBandwidthHz, nf);
+  const sens = sensitivityDbm(floor, requiredSnrDb);
+  const iip3 = last ? last.cumulativeIip3Dbm : null;
+  return {
+    noiseFloorDbm: floor,
+    noiseFigureDb: nf,
+    totalGainDb: last ? last.cumulativeGainDb : 0,
+    sensitivityDbm: sens,
+    sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[0]) / Math.SQRT2,
+    iip3Dbm: iip3,
+    sfdrDb: iip3 === null ? null : sfdrDb(iip3, floor),
+    inputAvailableDbm: dbm(availablePower(na, 0, 0)),
+  };
+}
+
+/** The sweep as plain arrays for plotting: step-up and phase per user node, input Zin and RL. */
+export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
+  const P = na.points;
+  const nodes = Array.from(built.userNodeFlat, (flat, index) => {
+    const stepUpDb: number[] = new Array(P);
+    const phase: number[] = new Array(P);
+    for (let i = 0; i < P; i++) {
+      const k = flat * P + i;
+      stepUpDb[i] = db20(stepUp(na, flat, i));
+      phase[i] = (Math.atan2(na.vIm[k], na.vRe[k]) * 180) / Math.PI;
+    }
+    return { index, stepUpDb, phaseDeg: phase };
+  });
+  const rl: number[] = new Array(P);
+  for (let i = 0; i < P; i++) rl[i] = -db20(reflectionMag(na, 0, i));
+  return {
+    freqsHz: Array.from(na.freqs),
+    nodes,
+    zIn: { re: Array.from(na.zinRe.subarray(0, P)), im: Array.from(na.zinIm.subarray(0, P)) },
+    returnLossDb: rl,
+  };
+}

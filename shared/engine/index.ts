@@ -1,0 +1,50 @@
+/**
+ * Public API of the analysis engine (framework-free; used by the server, the CLI and the
+ * client). Import from here rather than from the modules behind it.
+ */
+export { analyzeChain, analyzeBuilt, ENGINE_VERSION, type AnalyzeOptions } from './analyze';
+export {
+  buildChain,
+  stageName,
+  type BuiltChain,
+  type BuiltStage,
+  type ChainLike,
+} from './core/build';
+export { runNodeAnalysis, createNodeAnalysis, type NodeAnalysis } from './core/nodes';
+export * as quantities from './core/quantities';
+export {
+  ABCD_SLOTS,
+  abcdToS,
+  abcdToY,
+  abcdToZ,
+  cascade,
+  cascadeAll,
+  db20,
+  identityAbcd,
+  phaseDeg,
+  sToAbcd,
+  type RefImpedance,
+} from './core/abcd';
+export { cabs, carg, cdiv, cinv, cmul, csqrt, isOpen } from './core/complex';
+export { frequencyGrid, logGrid, type SweepSpec } from './core/sweep';
+export {
+  BOLTZMANN,
+  T0_KELVIN,
+  cascadeNoiseFigure,
+  emfForAvailableDbm,
+  friis,
+  noiseFloorDbm,
+  sensitivityDbm,
+  sfdrDb,
+  stageNoiseFactor,
+  thermalNoiseW,
+} from './core/noise';
+export { cascadeIip3, cascadeInputPoint, cascadeP1db } from './core/linearity';
+export { analyzeResonators, searchRange } from './core/resonators';
+export { analyzeSelectivity, findMixer, imageFrequency, type MixerInfo } from './core/selectivity';
+export { raiseFlags, CAUTION_TEXT } from './core/flags';
+export { formatQuantity, formatNumber } from './core/format';
+export { validateChain } from './validate';
+export * from './errors';
+export * from './types';
+export { catalogue, getStageDefinition } from './catalogue';

@@ -1,0 +1,24 @@
+/**
+ * Validation without analysis (for editors and the API): builds the chain and returns the
+ * issues instead of throwing.
+ */
+import { ChainValidationError, type ChainIssue } from './errors';
+import type { StageDefinition } from './types';
+import { buildChain, type ChainLike } from './core/build';
+import { defaultCatalogue } from './default-catalogue';
+
+/** Every problem of a chain; empty when it can be analysed. */
+export function validateChain(
+  doc: ChainLike,
+  catalogue?: readonly StageDefinition[],
+): ChainIssue[] {
+  const defs = catalogue ?? defaultCatalogue();
+  if (!defs) return [{ path: [], message: 'No stage catalogue is available yet: pass one in' }];
+  try {
+    buildChain(doc, defs);
+    return [];
+  } catch (e) {
+    if (e instanceof ChainValidationError) return e.issues;
+    throw e;
+  }
+}
