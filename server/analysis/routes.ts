@@ -1,0 +1,68 @@
+import { Router, type Response } from 'express';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { analysisRequestSchema } from '../../shared/schema/api';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { ChainValidationError, StageParameterError } from '../../shared/engine/errors';
+import { HttpError } from '../common/errors';
+import { chainRole, requireUser } from '../common/roles';
+import { parseOr422 } from '../common/validate';
+import { loadEngine, type EngineApi } from './engine';
+
+class EngineUnavailableError extends HttpError {
+  constructor() {
+    super(
+      503,
+      'engine-unavailable',
+      'the analysis engine is not available on this server; see its log',
+    );
+  }
+}
+
+async function engineOr503(): Promise<EngineApi> {
+  const engine = await loadEngine();
+  if (!engine) throw new EngineUnavailableError();
+  return engine;
+}
+
+/** Runs the engine and maps its validation errors to 422 with the issues as details. */
+async function analyze(res: Response, doc: ChainDocument, sweep: boolean) {
+  const engine = await engineOr503();
+  try {
+    res.json(await engine.analyzeChain(doc, { sweep }));
+  } catch (err) {
+    if (err instanceof ChainValidationError) {
+      throw new HttpError(422, 'invalid-chain', err.message, err.issues);
+    }
+    if (err instanceof StageParameterError) {
+      throw new HttpError(422, 'invalid-chain', err.message, [
+        { param: err.param, path: [], message: err.message },
+      ]);
+    }
+    throw err;
+  }
+}
+
+/** POST /api/analysis and GET /api/catalogue: any signed-in user. */
+export function analysisRouter(): Router {
+  const router = Router();
+  // requireUser per route: this router sits at /api, where a router-wide guard would
+  // answer 401 for unknown paths that deserve a 404.
+  router.post('/analysis', requireUser, async (req, res) => {
+    const body = parseOr422(analysisRequestSchema, req.body);
+    await analyze(res, body.document, body.sweep);
+  });
+  router.get('/catalogue', requireUser, async (_req, res) => {
+    res.json((await engineOr503()).catalogue());
+  });
+  return router;
+}
+
+/** GET /api/chains/:id/analysis?sweep=1: the stored chain, for viewers and up. */
+export function chainAnalysisRouter(em: EntityManager): Router {
+  const router = Router();
+  router.get('/:id/analysis', chainRole(em, 'viewer'), async (req, res) => {
+    const sweep = req.query.sweep === '1' || req.query.sweep === 'true';
+    await analyze(res, res.locals.chain!.document, sweep);
+  });
+  return router;
+}

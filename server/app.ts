@@ -1,0 +1,93 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { RequestContext } from '@mikro-orm/core';
+import { analysisRouter, chainAnalysisRouter } from './analysis/routes';
+import { authRouter } from './auth/routes';
+import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './auth/session';
+import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
+import { apiNotFound, errorHandler } from './common/error-handler';
+import { healthHandler } from './common/health';
+import type { Services } from './common/services';
+import { adminRouter } from './users/admin-routes';
+import { meRouter } from './users/me-routes';
+import { workspacesRouter } from './workspaces/routes';
+
+/**
+ * Builds the Express app (API under /api, the built client for everything else) without
+ * listening; server/main.ts listens, tests drive it with supertest.
+ */
+export function createApp(services: Services): Express {
+  const { config, em, orm } = services;
+  const app = express();
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // Angular writes component styles into <style> elements at run time and plotly
+          // sets inline style attributes on its SVG, so inline styles must be allowed;
+          // inline scripts stay forbidden.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          // data: and blob: for plot images (PNG export) and Material's inline SVG icons.
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      // Served over plain http on loopback in development: no HSTS there.
+      strictTransportSecurity: config.cookieSecure,
+    }),
+  );
+  app.use(express.json({ limit: config.bodyLimitBytes }));
+  // One entity manager per request, so identity maps never leak between requests.
+  app.use((_req, _res, next) => RequestContext.create(orm.em, next));
+
+  // Health answers before the session store, which needs the database it is checking.
+  app.get('/api/health', healthHandler(orm));
+
+  const passport = createPassport(em);
+  const csrf = createCsrf();
+  app.use('/api', sessionMiddleware(services), passport.session(), csrf.csrfSynchronisedProtection);
+
+  app.use('/api/auth', authRouter({ em, passport, csrf, signInLimiter: signInLimiter(services) }));
+  app.use('/api/me', meRouter(em));
+  app.use('/api/admin', adminRouter(em));
+  app.use('/api/workspaces', workspacesRouter(em, services.mailer));
+  app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
+  app.use('/api/chains', chainsRouter(em));
+  app.use('/api/chains', chainAnalysisRouter(em));
+  app.use('/api/examples', examplesRouter(config.examplesDir));
+  app.use('/api', analysisRouter());
+  app.use('/api', apiNotFound);
+
+  serveClient(app, config.clientDir);
+  app.use(errorHandler);
+  return app;
+}
+
+/** The built Angular app, with every other GET answered by index.html (client-side routes). */
+function serveClient(app: Express, clientDir: string): void {
+  const index = path.join(clientDir, 'index.html');
+  app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+  app.get('/{*splat}', (_req, res) => {
+    if (existsSync(index)) {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(index);
+    } else {
+      res
+        .status(503)
+        .type('text/plain')
+        .send('The client is not built yet: `npm start` builds it (npx ng build).\n');
+    }
+  });
+}

@@ -1,0 +1,106 @@
+import type { RequestHandler } from 'express';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import { csrfSync, type CsrfSync } from 'csrf-sync';
+import { Passport } from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import { rateLimit } from 'express-rate-limit';
+import { SESSION_TABLE } from '../mikro-orm.config';
+import type { Services } from '../common/services';
+import { UserSchema } from '../users/user.entity';
+import { verifyPassword } from '../users/password';
+import '../common/request-types';
+import { CSRF_ERROR_CODE } from './csrf-code';
+
+/** Name of the session cookie (ours, not the library default, which names the stack). */
+export const SESSION_COOKIE = 'cw_session';
+const SESSION_DAYS = 14;
+
+/** Session middleware backed by PostgreSQL. */
+export function sessionMiddleware(services: Services): RequestHandler {
+  const PgStore = connectPgSimple(session);
+  const { config } = services;
+  return session({
+    name: SESSION_COOKIE,
+    secret: config.sessionSecret,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    store: new PgStore({
+      pool: services.sessionPool,
+      tableName: SESSION_TABLE,
+      schemaName: config.dbSchema,
+      // Jest must be able to exit: no pruning timer in tests.
+      pruneSessionInterval: config.pruneSessions ? 15 * 60 : false,
+    }),
+    cookie: {
+      httpOnly: true,
+      sameSite: 'lax',
+      secure: config.cookieSecure,
+      maxAge: SESSION_DAYS * 24 * 3600 * 1000,
+    },
+  });
+}
+
+/**
+ * A passport instance of the app's own (not the module-wide singleton) with the local
+ * strategy: e-mail + password. The session keeps only the user id.
+ */
+export function createPassport(em: EntityManager): InstanceType<typeof Passport> {
+  const passport = new Passport();
+  passport.use(
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password' },
+      (email, password, done) => {
+        em.findOne(UserSchema, { email: email.trim().toLowerCase() })
+          .then(async (user) => {
+            const ok = user ? await verifyPassword(password, user.passwordHash) : false;
+            done(null, ok ? user! : false);
+          })
+          .catch(done);
+      },
+    ),
+  );
+  passport.serializeUser((user, done) => done(null, user.id));
+  passport.deserializeUser((id: string, done) => {
+    em.findOne(UserSchema, { id })
+      .then((user) => done(null, user ?? false))
+      .catch(done);
+  });
+  return passport;
+}
+
+/** Synchroniser-token CSRF protection: the token lives in the session, the client sends it in `x-csrf-token`. */
+export function createCsrf(): CsrfSync {
+  return csrfSync({
+    getTokenFromRequest: (req) => {
+      const header = req.headers['x-csrf-token'];
+      return typeof header === 'string' ? header : undefined;
+    },
+    errorConfig: {
+      statusCode: 403,
+      code: CSRF_ERROR_CODE,
+      message:
+        'missing or wrong CSRF token: GET /api/auth/csrf and send its token in the x-csrf-token header',
+    },
+  });
+}
+
+/** Limits failed sign-in attempts per client address; successful ones do not count. */
+export function signInLimiter(services: Services): RequestHandler {
+  const { windowMs, limit } = services.config.signInLimit;
+  return rateLimit({
+    windowMs,
+    limit,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    handler: (_req, res) => {
+      res.status(429).json({
+        error: 'too-many-attempts',
+        message: `too many failed sign-ins from this address; wait ${Math.ceil(windowMs / 60000)} minutes and try again`,
+      });
+    },
+  });
+}

@@ -1,0 +1,128 @@
+import { Router } from 'express';
+import type { EntityManager, FilterQuery } from '@mikro-orm/postgresql';
+import {
+  createChainSchema,
+  duplicateChainSchema,
+  listChainsQuerySchema,
+  updateChainSchema,
+  type ChainListDto,
+} from '../../shared/schema/api';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { access, chainRole, currentUser, requireUser, workspaceRole } from '../common/roles';
+import { parseOr422 } from '../common/validate';
+import { CHAIN_DTO_POPULATE, createChain, saveChainVersion } from './chain-store';
+import { ChainSchema, type Chain } from './chain.entity';
+import { toChainDto, toChainSummaryDto } from './dto';
+import { readExample, readExamples, toExampleDto } from './examples';
+import { revisionRoutes } from './revision-routes';
+
+/** Escapes LIKE wildcards so a search for "50%" finds the text "50%". */
+const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => '\\' + c);
+
+/** /api/workspaces/:wid/chains: list (search, page, sort) and create. */
+export function workspaceChainsRouter(em: EntityManager, examplesDir: string): Router {
+  const router = Router();
+
+  router.get('/:wid/chains', workspaceRole(em, 'viewer'), async (req, res) => {
+    const query = parseOr422(listChainsQuerySchema, req.query, 'query');
+    const where: FilterQuery<Chain> = { workspace: access(res).workspace.id };
+    const q = query.q?.trim();
+    if (q) {
+      const pattern = `%${likeEscape(q)}%`;
+      where.$or = [{ name: { $ilike: pattern } }, { description: { $ilike: pattern } }];
+    }
+    const [items, total] = await em.findAndCount(ChainSchema, where, {
+      populate: CHAIN_DTO_POPULATE,
+      // The id breaks ties so pages never overlap or skip rows.
+      orderBy: [{ [query.sort]: query.dir }, { id: 'asc' }],
+      limit: query.pageSize,
+      offset: query.page * query.pageSize,
+    });
+    const body: ChainListDto = {
+      items: items.map(toChainSummaryDto),
+      total,
+      page: query.page,
+      pageSize: query.pageSize,
+    };
+    res.json(body);
+  });
+
+  router.post('/:wid/chains', workspaceRole(em, 'editor'), async (req, res) => {
+    const body = parseOr422(createChainSchema, req.body);
+    const { workspace, role } = access(res);
+    let document: ChainDocument;
+    let message = body.message;
+    if (body.document) {
+      document = body.document;
+    } else {
+      document = (await readExample(examplesDir, body.fromExample!)).document;
+      message ??= `Created from example ${body.fromExample}`;
+    }
+    if (body.name) document = { ...document, name: body.name };
+    const chain = await createChain(em, {
+      workspace,
+      document,
+      user: currentUser(req),
+      message: message ?? 'Created',
+    });
+    res.status(201).json(toChainDto(chain, role));
+  });
+
+  return router;
+}
+
+/** /api/examples: the example chains new chains can start from. */
+export function examplesRouter(examplesDir: string): Router {
+  const router = Router();
+  router.use(requireUser);
+  router.get('/', async (_req, res) => {
+    res.json((await readExamples(examplesDir)).map(toExampleDto));
+  });
+  return router;
+}
+
+/** /api/chains/:id: read, save, delete, duplicate, and the revision history. */
+export function chainsRouter(em: EntityManager): Router {
+  const router = Router();
+
+  router.get('/:id', chainRole(em, 'viewer'), async (_req, res) => {
+    const chain = await em.findOneOrFail(ChainSchema, res.locals.chain!.id, {
+      populate: CHAIN_DTO_POPULATE,
+    });
+    res.json(toChainDto(chain, access(res).role));
+  });
+
+  router.put('/:id', chainRole(em, 'editor'), async (req, res) => {
+    const body = parseOr422(updateChainSchema, req.body);
+    const saved = await saveChainVersion(em, res.locals.chain!, {
+      expectedVersion: body.version,
+      document: body.document,
+      user: currentUser(req),
+      message: body.message ?? '',
+    });
+    res.json(toChainDto(saved, access(res).role));
+  });
+
+  router.delete('/:id', chainRole(em, 'editor'), async (_req, res) => {
+    await em.remove(res.locals.chain!).flush();
+    res.status(204).end();
+  });
+
+  router.post('/:id/duplicate', chainRole(em, 'editor'), async (req, res) => {
+    const body = parseOr422(duplicateChainSchema, req.body ?? {});
+    const source = res.locals.chain!;
+    const name = body.name ?? `${source.name} (${body.asVariant ? 'variant' : 'copy'})`;
+    const document = { ...(body.document ?? source.document), name };
+    const copy = await createChain(em, {
+      workspace: source.workspace,
+      document,
+      user: currentUser(req),
+      message: `${body.asVariant ? 'Variant' : 'Copy'} of "${source.name}" version ${source.version}`,
+      parent: body.asVariant ? source : null,
+    });
+    res.status(201).json(toChainDto(copy, access(res).role));
+  });
+
+  router.use('/:id/revisions', revisionRoutes(em));
+  return router;
+}

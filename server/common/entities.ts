@@ -1,0 +1,16 @@
+import { ChainSchema } from '../chains/chain.entity';
+import { ChainRevisionSchema } from '../chains/revision.entity';
+import { SiteSettingSchema } from '../users/site-setting.entity';
+import { UserSchema } from '../users/user.entity';
+import { MembershipSchema } from '../workspaces/membership.entity';
+import { WorkspaceSchema } from '../workspaces/workspace.entity';
+
+/** Every entity, for the ORM configuration (order does not matter). */
+export const ENTITIES = [
+  UserSchema,
+  SiteSettingSchema,
+  WorkspaceSchema,
+  MembershipSchema,
+  ChainSchema,
+  ChainRevisionSchema,
+];

@@ -1,0 +1,49 @@
+import { MikroORM, type EntityManager } from '@mikro-orm/postgresql';
+import nodemailer, { type Transporter } from 'nodemailer';
+import pg from 'pg';
+import type { ServerConfig } from '../config';
+import { ormOptions } from '../mikro-orm.config';
+
+/** What the app needs from the outside world; built once by initServices, passed to createApp. */
+export interface Services {
+  config: ServerConfig;
+  orm: MikroORM;
+  /** The global entity manager; handlers use `RequestContext`'s fork through `em()`. */
+  em: EntityManager;
+  /** Pool for the session store (kept apart from the ORM's so each can be sized alone). */
+  sessionPool: pg.Pool;
+  mailer: Transporter;
+  /** Ends every pool and connection so the process (or jest) can exit. */
+  close(): Promise<void>;
+}
+
+/** Connects the ORM, the session pool and the mail transport. */
+export async function initServices(config: ServerConfig): Promise<Services> {
+  const orm = await MikroORM.init(
+    ormOptions(config.databaseUrl, config.dbSchema ? { schema: config.dbSchema } : {}),
+  );
+  const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 4 });
+  // An idle client losing its connection must not crash the server; the pool replaces it.
+  sessionPool.on('error', (err) => console.error('[server] session pool:', err.message));
+  const mailer =
+    config.mail.kind === 'smtp'
+      ? nodemailer.createTransport({
+          host: config.mail.host,
+          port: config.mail.port,
+          secure: false,
+          ignoreTLS: true,
+        })
+      : nodemailer.createTransport({ jsonTransport: true });
+  return {
+    config,
+    orm,
+    em: orm.em,
+    sessionPool,
+    mailer,
+    async close() {
+      mailer.close();
+      await sessionPool.end();
+      await orm.close(true);
+    },
+  };
+}

@@ -1,0 +1,48 @@
+import type { Server } from 'node:http';
+import path from 'node:path';
+import type { SMTPServer } from 'smtp-server';
+import { createApp } from './app';
+import { configFromEnv, REPO_ROOT } from './config';
+import { initServices } from './common/services';
+import { startFakeSmtp } from './mail/fake-smtp';
+
+/** Starts the fake mail catcher (when CW_SMTP_PORT is set), the ORM and the HTTP server. */
+async function main(): Promise<void> {
+  const config = configFromEnv();
+  let smtp: SMTPServer | undefined;
+  if (config.mail.kind === 'smtp') {
+    const mailDir = process.env.CW_MAIL_DIR || path.join(REPO_ROOT, '.data', 'mail');
+    smtp = await startFakeSmtp(config.mail.port, mailDir);
+    console.log(
+      `[server] mail is caught on 127.0.0.1:${config.mail.port} and written to ${mailDir}`,
+    );
+  }
+  const services = await initServices(config);
+  const app = createApp(services);
+  const server: Server = await new Promise((resolve, reject) => {
+    const s = app.listen(config.port, config.host, (err?: Error) =>
+      err ? reject(err) : resolve(s),
+    );
+  });
+  console.log(`[server] Chainwright is listening on http://${config.host}:${config.port}`);
+
+  let stopping = false;
+  const stop = async (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`[server] ${signal}: stopping`);
+    // Keep-alive connections would hold close() open; a browser tab should not block Ctrl-C.
+    server.closeAllConnections();
+    await new Promise<void>((resolve) => server.close(() => resolve()));
+    if (smtp) await new Promise<void>((resolve) => smtp.close(() => resolve()));
+    await services.close();
+    process.exit(0);
+  };
+  process.on('SIGINT', () => void stop('SIGINT'));
+  process.on('SIGTERM', () => void stop('SIGTERM'));
+}
+
+main().catch((err: unknown) => {
+  console.error('[server] failed to start:', err);
+  process.exit(1);
+});

@@ -1,0 +1,42 @@
+import path from 'node:path';
+import { defineConfig, type Options } from '@mikro-orm/postgresql';
+import { Migrator } from '@mikro-orm/migrations';
+import { ENTITIES } from './common/entities';
+
+/** Table of the session store (connect-pg-simple); created by a migration, not by entities. */
+export const SESSION_TABLE = 'user_session';
+
+const repoRoot = path.resolve(__dirname, '..');
+
+/**
+ * ORM options for a database URL. Also the config file the MikroORM CLI loads
+ * (`npm run db:migration:create`), which reads DATABASE_URL.
+ */
+export function ormOptions(clientUrl: string, overrides: Partial<Options> = {}): Options {
+  return defineConfig({
+    clientUrl,
+    entities: ENTITIES,
+    extensions: [Migrator],
+    // Entities are defined with defineEntity, so no metadata reflection is needed.
+    discovery: { warnWhenNoEntities: true },
+    migrations: {
+      path: path.join(repoRoot, 'migrations'),
+      pathTs: path.join(repoRoot, 'migrations'),
+      glob: '!(*.d).{js,ts}',
+      tableName: 'mikro_orm_migrations',
+      snapshotName: '.snapshot-chainwright',
+      transactional: true,
+      emit: 'ts',
+    },
+    // The session store's table is created by our migration; without this the generator
+    // would try to drop it on every diff.
+    schemaGenerator: { skipTables: [SESSION_TABLE] },
+    pool: { min: 0, max: 8 },
+    debug: false,
+    ...overrides,
+  });
+}
+
+export default ormOptions(
+  process.env.DATABASE_URL ?? 'postgresql://postgres@127.0.0.1:54330/chainwright',
+);

@@ -1,0 +1,29 @@
+import { Router } from 'express';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import type { MeDto } from '../../shared/schema/api';
+import { currentUser } from '../common/roles';
+import { MembershipSchema } from '../workspaces/membership.entity';
+import { toUserDto } from './dto';
+
+/** /api/me: who is signed in, and their workspaces. */
+export function meRouter(em: EntityManager): Router {
+  const router = Router();
+  router.get('/', async (req, res) => {
+    const user = currentUser(req);
+    const memberships = await em.find(
+      MembershipSchema,
+      { user: user.id },
+      { populate: ['workspace'], orderBy: { workspace: { name: 'asc' } } },
+    );
+    const body: MeDto = {
+      user: toUserDto(user),
+      memberships: memberships.map((m) => ({
+        workspaceId: m.workspace.id,
+        workspaceName: m.workspace.name,
+        role: m.role,
+      })),
+    };
+    res.json(body);
+  });
+  return router;
+}
