@@ -1,0 +1,88 @@
+import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable } from 'rxjs';
+import type { z } from 'zod';
+import type {
+  ChainDto,
+  ChainListDto,
+  createChainSchema,
+  duplicateChainSchema,
+  ExampleDto,
+  listChainsQuerySchema,
+  RevisionDto,
+  RevisionSummaryDto,
+  updateChainSchema,
+} from '../../../../shared/schema/api';
+
+export type ChainListQuery = Partial<z.input<typeof listChainsQuerySchema>>;
+export type CreateChainBody = z.input<typeof createChainSchema>;
+export type UpdateChainBody = z.input<typeof updateChainSchema>;
+export type DuplicateChainBody = z.input<typeof duplicateChainSchema>;
+
+/** Chains, their revisions, and the examples a chain can start from. */
+@Injectable({ providedIn: 'root' })
+export class ChainsApi {
+  private readonly http = inject(HttpClient);
+
+  list(workspaceId: string, query: ChainListQuery = {}): Observable<ChainListDto> {
+    let params = new HttpParams();
+    for (const [key, value] of Object.entries(query)) {
+      // An empty filter means "no filter": leave it out rather than send q=.
+      if (value !== undefined && value !== '') params = params.set(key, String(value));
+    }
+    return this.http.get<ChainListDto>(`/api/workspaces/${enc(workspaceId)}/chains`, { params });
+  }
+
+  create(workspaceId: string, body: CreateChainBody, context?: HttpContext): Observable<ChainDto> {
+    return this.http.post<ChainDto>(`/api/workspaces/${enc(workspaceId)}/chains`, body, {
+      context,
+    });
+  }
+
+  get(chainId: string, context?: HttpContext): Observable<ChainDto> {
+    return this.http.get<ChainDto>(`/api/chains/${enc(chainId)}`, { context });
+  }
+
+  update(chainId: string, body: UpdateChainBody, context?: HttpContext): Observable<ChainDto> {
+    return this.http.put<ChainDto>(`/api/chains/${enc(chainId)}`, body, { context });
+  }
+
+  delete(chainId: string): Observable<unknown> {
+    return this.http.delete(`/api/chains/${enc(chainId)}`);
+  }
+
+  duplicate(
+    chainId: string,
+    body: DuplicateChainBody = {},
+    context?: HttpContext,
+  ): Observable<ChainDto> {
+    return this.http.post<ChainDto>(`/api/chains/${enc(chainId)}/duplicate`, body, { context });
+  }
+
+  revisions(chainId: string): Observable<RevisionSummaryDto[]> {
+    return this.http.get<RevisionSummaryDto[]>(`/api/chains/${enc(chainId)}/revisions`);
+  }
+
+  revision(chainId: string, version: number): Observable<RevisionDto> {
+    return this.http.get<RevisionDto>(`/api/chains/${enc(chainId)}/revisions/${version}`);
+  }
+
+  restore(chainId: string, version: number, context?: HttpContext): Observable<ChainDto> {
+    return this.http.post<ChainDto>(
+      `/api/chains/${enc(chainId)}/revisions/${version}/restore`,
+      { version },
+      { context },
+    );
+  }
+
+  /** The stage catalogue, unparsed: callers validate the parts they rely on. */
+  catalogue(): Observable<unknown> {
+    return this.http.get<unknown>('/api/catalogue');
+  }
+
+  examples(): Observable<ExampleDto[]> {
+    return this.http.get<ExampleDto[]>('/api/examples');
+  }
+}
+
+const enc = encodeURIComponent;

@@ -1,0 +1,102 @@
+import { HttpContext } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCardModule } from '@angular/material/card';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { Router, RouterLink } from '@angular/router';
+import { firstValueFrom } from 'rxjs';
+import { loginSchema } from '../../../../shared/schema/api';
+import { AuthApi } from '../../core/api/auth.api';
+import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
+import { describeHttpError } from '../../core/http/error-message';
+import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { SessionStore } from '../../core/session/session.store';
+import { safeReturnUrl } from './return-url';
+
+/** Sign in with e-mail and password, then go back where the user was heading. */
+@Component({
+  selector: 'cw-sign-in',
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    MatCardModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <section class="cw-page-narrow">
+      <mat-card appearance="outlined" class="cw-auth-card">
+        <mat-card-content>
+          <h1>Sign in</h1>
+          <p class="cw-muted">Open your workspaces and chains.</p>
+          <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+            <mat-form-field>
+              <mat-label>E-mail</mat-label>
+              <input matInput formControlName="email" type="email" autocomplete="username" />
+              <mat-error>{{ message(form.controls.email) }}</mat-error>
+            </mat-form-field>
+            <mat-form-field>
+              <mat-label>Password</mat-label>
+              <input
+                matInput
+                formControlName="password"
+                type="password"
+                autocomplete="current-password"
+              />
+              <mat-error>{{ message(form.controls.password) }}</mat-error>
+            </mat-form-field>
+            @if (failure(); as text) {
+              <p class="cw-form-error" role="alert">{{ text }}</p>
+            }
+            <div class="cw-actions">
+              <button mat-flat-button type="submit" [disabled]="busy()">Sign in</button>
+              <a routerLink="/register">Create an account</a>
+            </div>
+          </form>
+        </mat-card-content>
+      </mat-card>
+    </section>
+  `,
+  styleUrl: './auth-page.scss',
+})
+export default class SignInComponent {
+  private readonly auth = inject(AuthApi);
+  private readonly session = inject(SessionStore);
+  private readonly router = inject(Router);
+
+  /** Where to go after signing in (a path inside the app), from `?next=`. */
+  readonly next = input<string>();
+
+  protected readonly form = new FormGroup({
+    email: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(loginSchema.shape.email)],
+    }),
+    password: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
+  });
+  protected readonly busy = signal(false);
+  protected readonly failure = signal('');
+  protected readonly message = controlMessage;
+
+  protected async submit(): Promise<void> {
+    this.form.markAllAsTouched();
+    if (this.form.invalid || this.busy()) return;
+    this.busy.set(true);
+    this.failure.set('');
+    try {
+      // Wrong password (401), bad fields (422) and throttling (429) are shown in the form.
+      const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [401, 403, 422, 429]);
+      const answer = await firstValueFrom(this.auth.login(this.form.getRawValue(), context));
+      await this.session.startSession(answer);
+      await this.router.navigateByUrl(safeReturnUrl(this.next()) ?? '/');
+    } catch (error) {
+      this.failure.set(describeHttpError(error));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+}

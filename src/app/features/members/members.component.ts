@@ -1,0 +1,137 @@
+import { HttpContext } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { MatTableModule } from '@angular/material/table';
+import { MatTooltipModule } from '@angular/material/tooltip';
+import { firstValueFrom } from 'rxjs';
+import { addMemberSchema, MemberDto, ROLES, WorkspaceRole } from '../../../../shared/schema/api';
+import { WorkspacesApi } from '../../core/api/workspaces.api';
+import {
+  ConfirmDialogComponent,
+  ConfirmDialogData,
+} from '../../core/dialogs/confirm-dialog.component';
+import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
+import { describeHttpError } from '../../core/http/error-message';
+import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { ROLE_LABELS } from '../../core/session/roles';
+import { SessionStore } from '../../core/session/session.store';
+
+/** The workspace's members. Everyone can read the list; only owners change it. */
+@Component({
+  selector: 'cw-members',
+  imports: [
+    ReactiveFormsModule,
+    MatTableModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatButtonModule,
+    MatIconModule,
+    MatTooltipModule,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './members.component.html',
+  styleUrl: './members.component.scss',
+})
+export default class MembersComponent {
+  protected readonly session = inject(SessionStore);
+  private readonly api = inject(WorkspacesApi);
+  private readonly dialog = inject(MatDialog);
+  private readonly snackBar = inject(MatSnackBar);
+
+  /** From the route. */
+  readonly workspaceId = input.required<string>();
+
+  protected readonly roles = ROLES;
+  protected readonly roleLabels = ROLE_LABELS;
+  protected readonly message = controlMessage;
+  protected readonly members = signal<MemberDto[]>([]);
+  protected readonly addFailure = signal('');
+  protected readonly busy = signal(false);
+
+  protected readonly addForm = new FormGroup({
+    email: new FormControl('', {
+      nonNullable: true,
+      validators: [zodValidator(addMemberSchema.shape.email)],
+    }),
+    role: new FormControl<WorkspaceRole>('editor', { nonNullable: true }),
+  });
+
+  constructor() {
+    effect(() => void this.load(this.workspaceId()));
+  }
+
+  /** Table rows are untyped in the template; this narrows the role for the label. */
+  protected roleLabel(role: string): string {
+    return ROLE_LABELS[role as WorkspaceRole] ?? role;
+  }
+
+  protected columns(): string[] {
+    return this.session.isOwner()
+      ? ['displayName', 'email', 'role', 'actions']
+      : ['displayName', 'email', 'role'];
+  }
+
+  private async load(workspaceId: string): Promise<void> {
+    try {
+      this.members.set(await firstValueFrom(this.api.members(workspaceId)));
+    } catch {
+      this.members.set([]);
+    }
+  }
+
+  protected async add(): Promise<void> {
+    this.addForm.markAllAsTouched();
+    if (this.addForm.invalid || this.busy()) return;
+    this.busy.set(true);
+    this.addFailure.set('');
+    const { email, role } = this.addForm.getRawValue();
+    try {
+      // Unknown address (404), already a member (409), bad field (422): said beside the form.
+      const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404, 409, 422]);
+      await firstValueFrom(this.api.addMember(this.workspaceId(), email, role, context));
+      this.addForm.reset({ email: '', role });
+      await this.load(this.workspaceId());
+    } catch (error) {
+      this.addFailure.set(describeHttpError(error));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  protected async changeRole(member: MemberDto, role: WorkspaceRole): Promise<void> {
+    try {
+      await firstValueFrom(this.api.changeRole(this.workspaceId(), member.userId, role));
+      this.snackBar.open(`${member.displayName} is now ${ROLE_LABELS[role].toLowerCase()}.`, 'OK');
+    } finally {
+      // Reload either way, so a refused change shows the role the server kept.
+      await this.load(this.workspaceId());
+      if (member.userId === this.session.user()?.id) await this.session.refresh();
+    }
+  }
+
+  protected async remove(member: MemberDto): Promise<void> {
+    const ref = this.dialog.open<ConfirmDialogComponent, ConfirmDialogData, boolean>(
+      ConfirmDialogComponent,
+      {
+        data: {
+          title: 'Remove member',
+          message: `Remove ${member.displayName} (${member.email}) from this workspace? Their chains stay here.`,
+          confirmLabel: 'Remove',
+        },
+      },
+    );
+    if (!(await firstValueFrom(ref.afterClosed()))) return;
+    await firstValueFrom(this.api.removeMember(this.workspaceId(), member.userId)).catch(
+      () => null,
+    );
+    await this.load(this.workspaceId());
+  }
+}
