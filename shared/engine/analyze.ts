@@ -2,7 +2,6 @@
  * The analysis of a whole chain: validation and building, node analysis at f0 and over the
  * sweep, resonators, selectivity, noise, linearity, levels and flags.
  */
-import { ChainValidationError } from './errors';
 import type { AnalysisResult, StageDefinition } from './types';
 import { buildChain, type BuiltChain, type ChainLike } from './core/build';
 import { raiseFlags } from './core/flags';
@@ -55,11 +54,5 @@ export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {
  * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
  */
 export function analyzeChain(doc: ChainLike, options: AnalyzeOptions = {}): AnalysisResult {
-  const catalogue = options.catalogue ?? defaultCatalogue();
-  if (!catalogue) {
-    throw new ChainValidationError([
-      { path: [], message: 'No stage catalogue is available yet: pass one in the options' },
-    ]);
-  }
-  return analyzeBuilt(buildChain(doc, catalogue), options);
+  return analyzeBuilt(buildChain(doc, options.catalogue ?? defaultCatalogue()), options);
 }

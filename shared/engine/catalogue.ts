@@ -7,7 +7,7 @@ import { defaultCatalogue } from './default-catalogue';
 
 /** Every stage type without its `build` function, ready to send as JSON. */
 export function catalogue(defs?: readonly StageDefinition[]): StageTypeInfo[] {
-  return (defs ?? defaultCatalogue() ?? []).map(({ build: _build, ...info }) => info);
+  return (defs ?? defaultCatalogue()).map(({ build: _build, ...info }) => info);
 }
 
 /** The definition of a stage type, or undefined when the catalogue has no such type. */
@@ -15,5 +15,5 @@ export function getStageDefinition(
   type: string,
   defs?: readonly StageDefinition[],
 ): StageDefinition | undefined {
-  return (defs ?? defaultCatalogue() ?? []).find((d) => d.type === type);
+  return (defs ?? defaultCatalogue()).find((d) => d.type === type);
 }

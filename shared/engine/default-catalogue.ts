@@ -1,10 +1,11 @@
 /**
  * The product's stage catalogue as the engine's default. Kept in its own file so the core
- * never depends on the stage modules and tests can pass their own definitions.
+ * modules never depend on the stage modules, and tests can pass their own definitions.
  */
+import { STAGE_DEFINITIONS } from './stages';
 import type { StageDefinition } from './types';
 
-/** The default stage definitions, or null while no catalogue is installed. */
-export function defaultCatalogue(): readonly StageDefinition[] | null {
-  return null;
+/** The default stage definitions (the product's catalogue). */
+export function defaultCatalogue(): readonly StageDefinition[] {
+  return STAGE_DEFINITIONS;
 }

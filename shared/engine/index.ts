@@ -48,3 +48,4 @@ export { validateChain } from './validate';
 export * from './errors';
 export * from './types';
 export { catalogue, getStageDefinition } from './catalogue';
+export { STAGE_DEFINITIONS } from './stages';
