@@ -1,0 +1,94 @@
+import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
+import { MatTabsModule } from '@angular/material/tabs';
+import type { ChainDocument } from '../../../../../shared/schema/chain';
+import type { AnalysisResult } from '../../../../../shared/engine/types';
+import { budgetTable, nodeOfStage } from './budget-rows';
+import { BudgetTableComponent } from './budget-table.component';
+import {
+  flagCounts,
+  flagItems,
+  offsetHeadings,
+  resonatorRows,
+  selectivityRows,
+  summaryItems,
+} from './detail-rows';
+import { FlagsListComponent } from './flags-list.component';
+import { ResonanceTablesComponent } from './resonance-tables.component';
+import { ResultPlotsComponent } from './result-plots.component';
+import { SummaryPanelComponent } from './summary-panel.component';
+
+/**
+ * The results of one analysis of the chain: budget by node, resonators and selectivity,
+ * flags, sweep plots and the headline figures. Selecting a node column, resonator or flag
+ * asks the editor to select that stage.
+ */
+@Component({
+  selector: 'cw-analysis-results',
+  imports: [
+    MatTabsModule,
+    BudgetTableComponent,
+    FlagsListComponent,
+    ResonanceTablesComponent,
+    ResultPlotsComponent,
+    SummaryPanelComponent,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './analysis-results.component.html',
+  styleUrl: './analysis-results.component.scss',
+})
+export class AnalysisResultsComponent {
+  /** The latest analysis, or null while none has arrived (or it failed). */
+  readonly result = input.required<AnalysisResult | null>();
+  /** The chain the result belongs to: labels, thresholds, sweep scale. */
+  readonly document = input.required<ChainDocument>();
+  readonly selectedStageId = input<string | null>(null);
+  /** Emits the id of a stage the user picked from the results. */
+  readonly stageSelected = output<string>();
+
+  /** Kept across new results so an edit does not throw the user back to the first tab. */
+  protected readonly tabIndex = signal(0);
+
+  protected readonly budget = computed(() => {
+    const result = this.result();
+    return result ? budgetTable(result, this.document()) : null;
+  });
+  protected readonly selectedNode = computed(() => {
+    const result = this.result();
+    return result ? nodeOfStage(this.selectedStageId(), result, this.document()) : null;
+  });
+  protected readonly resonators = computed(() => {
+    const result = this.result();
+    return result ? resonatorRows(result, this.document()) : [];
+  });
+  protected readonly selectivity = computed(() => {
+    const result = this.result();
+    return result ? selectivityRows(result) : [];
+  });
+  protected readonly offsets = computed(() => offsetHeadings(this.document()));
+  protected readonly flags = computed(() => {
+    const result = this.result();
+    return result ? flagItems(result, this.document()) : [];
+  });
+  protected readonly counts = computed(() => {
+    const result = this.result();
+    return result ? flagCounts(result) : { error: 0, warning: 0, info: 0 };
+  });
+  protected readonly summary = computed(() => {
+    const result = this.result();
+    return result ? summaryItems(result, this.document()) : [];
+  });
+  /** The four figures shown above the tabs. */
+  protected readonly headline = computed(() =>
+    this.summary().filter((s) => ['nf', 'gain', 'sensitivity', 'sfdr'].includes(s.key)),
+  );
+
+  protected readonly flagsTabLabel = computed(() => {
+    const { error, warning, info } = this.counts();
+    const parts = [
+      error ? `${error} error${error > 1 ? 's' : ''}` : '',
+      warning ? `${warning} warning${warning > 1 ? 's' : ''}` : '',
+      info ? `${info} note${info > 1 ? 's' : ''}` : '',
+    ].filter(Boolean);
+    return parts.length ? `Flags (${parts.join(', ')})` : 'Flags (none)';
+  });
+}

@@ -1,0 +1,83 @@
+import { Clipboard } from '@angular/cdk/clipboard';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DOCUMENT,
+  computed,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatTableModule } from '@angular/material/table';
+import type { BudgetColumn, BudgetLine, BudgetRow, BudgetTable } from './budget-rows';
+import { budgetCsv, csvFileName } from './budget-csv';
+
+/**
+ * The budget at f0: one column per node left to right, as the chain reads on the strip,
+ * with the quantity names in a sticky first column so they stay in view while scrolling.
+ */
+@Component({
+  selector: 'cw-budget-table',
+  imports: [MatButtonModule, MatTableModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './budget-table.component.html',
+  styleUrl: './budget-table.component.scss',
+})
+export class BudgetTableComponent {
+  readonly table = input.required<BudgetTable>();
+  /** Node whose column is highlighted (the selected stage's output node). */
+  readonly selectedNode = input<number | null>(null);
+  /** Chain name, for the CSV file name. */
+  readonly chainName = input.required<string>();
+  /** Emits the id of the stage whose column header was activated. */
+  readonly columnSelected = output<string>();
+
+  private readonly clipboard = inject(Clipboard);
+  private readonly page = inject(DOCUMENT);
+  private readonly noticeText = signal('');
+  /** Outcome of the last copy or download, read out by screen readers. */
+  protected readonly notice = this.noticeText.asReadonly();
+
+  protected readonly columns = computed(() => this.table().columns);
+  protected readonly lines = computed(() => this.table().lines);
+  protected readonly displayedColumns = computed(() => [
+    'quantity',
+    ...this.columns().map((c) => c.id),
+  ]);
+
+  protected readonly isQuantity = (_: number, line: BudgetLine) => line.kind === 'quantity';
+  protected readonly isGroup = (_: number, line: BudgetLine) => line.kind === 'group';
+  protected readonly trackLine = (_: number, line: BudgetLine) => line.key;
+
+  /** Template helper: Material's cell context is untyped, so narrow it here. */
+  protected row(line: BudgetLine): BudgetRow | null {
+    return line.kind === 'quantity' ? line : null;
+  }
+
+  protected select(column: BudgetColumn): void {
+    if (column.stageId !== null) this.columnSelected.emit(column.stageId);
+  }
+
+  protected copyCsv(): void {
+    const copied = this.clipboard.copy(budgetCsv(this.table()));
+    this.noticeText.set(
+      copied ? 'Budget copied as CSV.' : 'The browser refused to copy; use Download CSV.',
+    );
+  }
+
+  protected downloadCsv(): void {
+    const view = this.page.defaultView;
+    if (!view) return;
+    const blob = new Blob([budgetCsv(this.table())], { type: 'text/csv;charset=utf-8' });
+    const url = view.URL.createObjectURL(blob);
+    const link = this.page.createElement('a');
+    link.href = url;
+    link.download = csvFileName(this.chainName());
+    link.click();
+    // Revoke after the click has been handled, or some browsers cancel the download.
+    view.setTimeout(() => view.URL.revokeObjectURL(url), 0);
+    this.noticeText.set(`Saved ${link.download}.`);
+  }
+}

@@ -1,0 +1,74 @@
+import {
+  NO_VALUE,
+  decibels,
+  engineering,
+  impedancePolar,
+  impedanceRect,
+  percent,
+  plain,
+  times,
+} from './format-quantity';
+
+describe('format-quantity', () => {
+  describe('engineering', () => {
+    it('should show a missing value as a dash', () => {
+      expect(engineering(null, 'hertz')).toBe(NO_VALUE);
+      expect(engineering(undefined, 'hertz')).toBe(NO_VALUE);
+      expect(engineering(Number.NaN, 'hertz')).toBe(NO_VALUE);
+    });
+
+    it('should pick the prefix for the value', () => {
+      expect(engineering(10e6, 'hertz')).toBe('10 MHz');
+      expect(engineering(455e3, 'hertz', 4)).toBe('455 kHz');
+      expect(engineering(10e-6, 'volt')).toBe('10 µV');
+      expect(engineering(2400, 'ohm')).toBe('2.4 kΩ');
+    });
+  });
+
+  describe('decibels', () => {
+    it('should keep the stated decimals', () => {
+      expect(decibels(-3, 'dB', 1)).toBe('-3.0 dB');
+      expect(decibels(-120.66, 'dBm')).toBe('-120.7 dBm');
+    });
+
+    it('should not print a negative zero', () => {
+      expect(decibels(-0.01)).toBe('0.0 dB');
+    });
+
+    it('should show infinities and missing values', () => {
+      expect(decibels(Number.POSITIVE_INFINITY)).toBe('∞ dB');
+      expect(decibels(null, 'dBm')).toBe(NO_VALUE);
+    });
+  });
+
+  describe('ratios', () => {
+    it('should show step-up as a multiplier without milli prefixes', () => {
+      expect(times(7.05)).toBe('×7.05');
+      expect(times(0.05)).toBe('×0.0500');
+      expect(times(1410.4)).toBe('×1410');
+      expect(times(2.5e7)).toBe('×2.5e+7');
+    });
+
+    it('should show plain numbers and percentages', () => {
+      expect(plain(25.04, 1)).toBe('25.0');
+      expect(plain(null)).toBe(NO_VALUE);
+      expect(percent(0.72)).toBe('72 %');
+    });
+  });
+
+  describe('impedance', () => {
+    it('should write the rectangular form with the sign of the reactance', () => {
+      expect(impedanceRect({ re: 50, im: 12 })).toBe('50 Ω + j12 Ω');
+      expect(impedanceRect({ re: 2150, im: -80 })).toBe('2.15 kΩ - j80 Ω');
+    });
+
+    it('should write the polar form with magnitude and angle', () => {
+      expect(impedancePolar({ re: 3, im: 4 })).toBe('5 Ω ∠53.1°');
+      expect(impedancePolar({ re: 0, im: -100 })).toBe('100 Ω ∠-90.0°');
+    });
+
+    it('should show a dash when a part is missing', () => {
+      expect(impedanceRect({ re: Number.NaN, im: 1 })).toBe(NO_VALUE);
+    });
+  });
+});

@@ -1,0 +1,76 @@
+/**
+ * Display formatting for the results panel: engineering prefixes (through the project's
+ * shared formatter), decibels, ratios and complex impedances. Values arrive in SI units
+ * from the engine; nothing here parses input.
+ */
+import type { UnitKind } from '../../../../../shared/engine/types';
+import { formatEngineering } from '../../../../../shared/units';
+
+/** Shown wherever the engine has no value (no resonance in the sweep, no linearity data). */
+export const NO_VALUE = '—';
+
+function isMissing(value: number | null | undefined): value is null | undefined {
+  return value === null || value === undefined || Number.isNaN(value);
+}
+
+/**
+ * `value` with an engineering prefix and the kind's symbol, as the editor writes values
+ * (e.g. `engineering(22e-6, 'henry')` → "22 µH"), and "—" when the engine has no value.
+ */
+export function engineering(value: number | null | undefined, kind: UnitKind, digits = 3): string {
+  if (isMissing(value)) return NO_VALUE;
+  return formatEngineering(value, kind, digits);
+}
+
+/** A level or ratio in decibels with a fixed number of decimals, e.g. "-3.0 dB". */
+export function decibels(value: number | null | undefined, unit = 'dB', decimals = 1): string {
+  if (isMissing(value)) return NO_VALUE;
+  if (!Number.isFinite(value)) return `${value > 0 ? '' : '-'}∞ ${unit}`;
+  // Avoid "-0.0 dB", which reads as a loss that is not there.
+  const text = value.toFixed(decimals);
+  return `${Number(text) === 0 ? (0).toFixed(decimals) : text} ${unit}`;
+}
+
+/** A plain number with fixed decimals (Q values, ratios, shape factors). */
+export function plain(value: number | null | undefined, decimals = 2): string {
+  if (isMissing(value)) return NO_VALUE;
+  if (!Number.isFinite(value)) return value > 0 ? '∞' : '-∞';
+  return value.toFixed(decimals);
+}
+
+/**
+ * A voltage ratio as a multiplier, e.g. "×12.5", "×0.0500" or "×1410". Milli and kilo
+ * prefixes on a bare ratio read badly, so large ratios are written out and only ratios
+ * past a million or below a thousandth use exponent form.
+ */
+export function times(value: number | null | undefined, digits = 3): string {
+  if (isMissing(value)) return NO_VALUE;
+  const magnitude = Math.abs(value);
+  if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e3)) {
+    return `×${value.toPrecision(digits)}`;
+  }
+  const rounded = Number(value.toPrecision(digits));
+  if (magnitude >= 1e3 && magnitude < 1e6) return `×${rounded}`;
+  return `×${rounded.toExponential()}`;
+}
+
+/** A fraction 0…1 shown as a percentage. */
+export function percent(fraction: number | null | undefined, decimals = 0): string {
+  if (isMissing(fraction)) return NO_VALUE;
+  return `${(fraction * 100).toFixed(decimals)} %`;
+}
+
+/** A complex impedance in rectangular form, e.g. "2.4 kΩ + j150 Ω". */
+export function impedanceRect(z: { re: number; im: number }, digits = 3): string {
+  if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
+  const sign = z.im < 0 ? '-' : '+';
+  return `${engineering(z.re, 'ohm', digits)} ${sign} j${engineering(Math.abs(z.im), 'ohm', digits)}`;
+}
+
+/** A complex impedance in polar form, e.g. "51.4 Ω ∠13.5°". */
+export function impedancePolar(z: { re: number; im: number }, digits = 3): string {
+  if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
+  const magnitude = Math.hypot(z.re, z.im);
+  const angle = (Math.atan2(z.im, z.re) * 180) / Math.PI;
+  return `${engineering(magnitude, 'ohm', digits)} ∠${angle.toFixed(1)}°`;
+}

@@ -1,0 +1,159 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  ElementRef,
+  afterNextRender,
+  effect,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import type { Config } from 'plotly.js-dist-min';
+import { PLOTLY_LOADER, type PlotlyApi } from './plotly-loader';
+import type { PlotFigure } from './plot-traces';
+
+/** Plot heights are fixed so the page does not jump while Plotly loads. */
+const PLOT_HEIGHT_PX = 380;
+
+const PLOT_CONFIG: Partial<Config> = {
+  displaylogo: false,
+  // Our own PNG button names the file after the chain; resizing is ours too.
+  modeBarButtonsToRemove: ['toImage', 'select2d', 'lasso2d'],
+  responsive: false,
+};
+
+/**
+ * One Plotly figure. Plotly is loaded on first render; each new figure is applied with
+ * `Plotly.react`, which diffs against the plot on screen instead of rebuilding it.
+ */
+@Component({
+  selector: 'cw-result-plot',
+  imports: [MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <figure class="frame">
+      <div
+        #canvas
+        class="canvas"
+        role="img"
+        [attr.aria-label]="label()"
+        [style.height.px]="height"
+      ></div>
+      @if (state() === 'loading') {
+        <p class="status cw-muted" aria-live="polite">Loading the plotting library…</p>
+      } @else if (state() === 'failed') {
+        <p class="status cw-error-text" role="alert">
+          The plot could not be drawn: {{ failure() }}
+        </p>
+      }
+      <figcaption class="caption">
+        <span class="cw-muted">{{ label() }}</span>
+        <button
+          mat-stroked-button
+          type="button"
+          [disabled]="state() !== 'ready'"
+          (click)="downloadPng()"
+        >
+          Save PNG
+        </button>
+      </figcaption>
+    </figure>
+  `,
+  styles: `
+    .frame {
+      margin: 0;
+      position: relative;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 12px;
+      padding: 8px;
+    }
+    .canvas {
+      width: 100%;
+    }
+    .status {
+      position: absolute;
+      inset: 40% 0 auto;
+      text-align: center;
+    }
+    .caption {
+      display: flex;
+      align-items: center;
+      justify-content: space-between;
+      gap: 12px;
+      padding: 4px 8px 0;
+    }
+  `,
+})
+export class ResultPlotComponent {
+  /** Traces and layout to show; a new object redraws through `Plotly.react`. */
+  readonly figure = input.required<PlotFigure>();
+  /** Accessible name of the plot, also shown as its caption. */
+  readonly label = input.required<string>();
+  /** PNG file name without extension. */
+  readonly fileName = input.required<string>();
+
+  protected readonly height = PLOT_HEIGHT_PX;
+  private readonly canvas = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
+  private readonly loader = inject(PLOTLY_LOADER);
+  private readonly plotly = signal<PlotlyApi | null>(null);
+  private readonly failureText = signal('');
+  protected readonly failure = this.failureText.asReadonly();
+  protected readonly state = signal<'loading' | 'ready' | 'failed'>('loading');
+
+  constructor() {
+    const destroyRef = inject(DestroyRef);
+    let resizeObserver: ResizeObserver | undefined;
+
+    afterNextRender(() => {
+      this.loader().then(
+        (plotly) => {
+          if (destroyRef.destroyed) return;
+          this.plotly.set(plotly);
+          const element = this.canvas().nativeElement;
+          if (typeof ResizeObserver !== 'undefined') {
+            resizeObserver = new ResizeObserver(() => plotly.Plots.resize(element));
+            resizeObserver.observe(element);
+          }
+        },
+        (error: unknown) => {
+          this.failureText.set(error instanceof Error ? error.message : String(error));
+          this.state.set('failed');
+        },
+      );
+    });
+
+    effect(() => {
+      const plotly = this.plotly();
+      const figure = this.figure();
+      if (!plotly) return;
+      const layout = { ...figure.layout, height: PLOT_HEIGHT_PX };
+      plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG).then(
+        () => this.state.set('ready'),
+        (error: unknown) => {
+          this.failureText.set(error instanceof Error ? error.message : String(error));
+          this.state.set('failed');
+        },
+      );
+    });
+
+    destroyRef.onDestroy(() => {
+      resizeObserver?.disconnect();
+      this.plotly()?.purge(this.canvas().nativeElement);
+    });
+  }
+
+  protected downloadPng(): void {
+    const plotly = this.plotly();
+    if (!plotly) return;
+    const element = this.canvas().nativeElement;
+    void plotly.downloadImage(element, {
+      format: 'png',
+      filename: this.fileName(),
+      width: Math.max(element.clientWidth, 800),
+      height: PLOT_HEIGHT_PX,
+    });
+  }
+}

@@ -1,0 +1,162 @@
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DOCUMENT,
+  DestroyRef,
+  computed,
+  inject,
+  input,
+  linkedSignal,
+  signal,
+} from '@angular/core';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import type { ChainDocument } from '../../../../../shared/schema/chain';
+import type { AnalysisResult } from '../../../../../shared/engine/types';
+import { csvFileName } from './budget-csv';
+import {
+  type PlotContext,
+  defaultPlotNodes,
+  imageFrequency,
+  impedanceFigure,
+  returnLossFigure,
+  stepUpFigure,
+} from './plot-traces';
+import { themePalette } from './plot-theme';
+import { ResultPlotComponent } from './result-plot.component';
+
+/** The sweep plots: step-up at chosen nodes, input impedance and return loss. */
+@Component({
+  selector: 'cw-result-plots',
+  imports: [MatCheckboxModule, ResultPlotComponent],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @let shown = figures();
+    @let stepUp = stepUpPlot();
+    @if (shown && stepUp) {
+      <fieldset class="nodes">
+        <legend>Nodes on the step-up plot</legend>
+        @for (node of result().nodes; track node.index) {
+          <mat-checkbox
+            [checked]="chosen().includes(node.index)"
+            (change)="toggleNode(node.index, $event.checked)"
+          >
+            {{ nodeName(node.index) }}
+          </mat-checkbox>
+        }
+      </fieldset>
+      <div class="plots">
+        <cw-result-plot
+          [figure]="stepUp"
+          label="Voltage step-up versus frequency"
+          [fileName]="fileStem() + '-step-up'"
+        />
+        <cw-result-plot
+          [figure]="shown.impedance"
+          label="Input impedance, magnitude and phase"
+          [fileName]="fileStem() + '-input-impedance'"
+        />
+        <cw-result-plot
+          [figure]="shown.returnLoss"
+          label="Return loss at the input"
+          [fileName]="fileStem() + '-return-loss'"
+        />
+      </div>
+    } @else {
+      <p class="cw-muted">
+        This analysis has no frequency sweep. Set a sweep with more than one point in the chain
+        settings to see the plots.
+      </p>
+    }
+  `,
+  styles: `
+    .nodes {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 0 16px;
+      border: none;
+      padding: 0;
+      margin: 0 0 12px;
+    }
+    .nodes legend {
+      font: var(--mat-sys-title-small);
+      padding: 0;
+    }
+    .plots {
+      display: grid;
+      gap: 16px;
+    }
+  `,
+})
+export class ResultPlotsComponent {
+  readonly result = input.required<AnalysisResult>();
+  readonly document = input.required<ChainDocument>();
+
+  private readonly page = inject(DOCUMENT);
+  /** Bumped when the page switches theme, so colours are read again. */
+  private readonly themeRevision = signal(0);
+
+  /** Chosen nodes; reset to the defaults when the chain's node count changes. */
+  protected readonly chosen = linkedSignal<number, number[]>({
+    source: () => this.result().nodes.length,
+    computation: () => defaultPlotNodes(this.result()),
+  });
+
+  protected readonly fileStem = computed(() =>
+    csvFileName(this.document().name).replace(/-budget\.csv$/, ''),
+  );
+
+  private readonly nodeNames = computed(
+    () => new Map(this.result().nodes.map((n) => [n.index, `Node ${n.index} · ${n.after}`])),
+  );
+
+  protected readonly context = computed((): PlotContext | null => {
+    this.themeRevision();
+    const result = this.result();
+    const sweep = result.sweep;
+    if (!sweep || sweep.freqsHz.length < 2) return null;
+    return {
+      sweep,
+      scale: this.document().settings.sweep.scale,
+      f0Hz: result.f0Hz,
+      imageHz: imageFrequency(result),
+      palette: themePalette(this.page),
+      nodeNames: this.nodeNames(),
+    };
+  });
+
+  // Separate from the other plots so ticking a node redraws only the step-up plot.
+  protected readonly stepUpPlot = computed(() => {
+    const ctx = this.context();
+    return ctx ? stepUpFigure(ctx, this.chosen()) : null;
+  });
+
+  protected readonly figures = computed(() => {
+    const ctx = this.context();
+    if (!ctx) return null;
+    return {
+      impedance: impedanceFigure(ctx),
+      returnLoss: returnLossFigure(ctx, this.document().settings.thresholds.matchReturnLossDb),
+    };
+  });
+
+  constructor() {
+    // The shell switches themes with a class on <html>; follow it.
+    const view = this.page.defaultView;
+    if (view && 'MutationObserver' in view) {
+      const observer = new view.MutationObserver(() => this.themeRevision.update((n) => n + 1));
+      observer.observe(this.page.documentElement, { attributes: true, attributeFilter: ['class'] });
+      inject(DestroyRef).onDestroy(() => observer.disconnect());
+    }
+  }
+
+  protected nodeName(index: number): string {
+    return this.nodeNames().get(index) ?? `Node ${index}`;
+  }
+
+  protected toggleNode(index: number, checked: boolean): void {
+    this.chosen.update((nodes) => {
+      const rest = nodes.filter((n) => n !== index);
+      return checked ? [...rest, index].sort((a, b) => a - b) : rest;
+    });
+  }
+}
