@@ -90,7 +90,7 @@ export function reflectionMag(na: NodeAnalysis, node: number, i: number): number
 
 /** Return loss in dB from {@link reflectionMag} (Infinity for a perfect match). */
 export function returnLossDb(na: NodeAnalysis, node: number, i: number): number {
-  return -20 * Math.log10(reflectionMag(na, node, i));
+  return 0 - 20 * Math.log10(reflectionMag(na, node, i)); // 0 − 0 keeps a total reflection at +0 dB
 }
 
 /** VSWR from {@link reflectionMag} (Infinity for total reflection). */

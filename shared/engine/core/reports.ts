@@ -141,7 +141,7 @@ export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
     return { index, stepUpDb, phaseDeg: phase };
   });
   const rl: number[] = new Array(P);
-  for (let i = 0; i < P; i++) rl[i] = -db20(reflectionMag(na, 0, i));
+  for (let i = 0; i < P; i++) rl[i] = 0 - db20(reflectionMag(na, 0, i));
   return {
     freqsHz: Array.from(na.freqs),
     nodes,

@@ -1,0 +1,137 @@
+/**
+ * Validation and building: every problem collected with its path and a message naming the
+ * stage and parameter; defaults; hidden values; roles; builder errors; the flat layout.
+ */
+import { ChainValidationError, type ChainIssue } from '../../shared/engine/errors';
+import { buildChain } from '../../shared/engine/core/build';
+import { frequencyGrid } from '../../shared/engine/core/sweep';
+import { chain, TEST_CATALOGUE } from './core-fixtures';
+
+function issuesOf(run: () => unknown): ChainIssue[] {
+  try {
+    run();
+  } catch (e) {
+    expect(e).toBeInstanceOf(ChainValidationError);
+    return (e as ChainValidationError).issues;
+  }
+  throw new Error('expected a ChainValidationError');
+}
+
+const SRC = { type: 't-source' };
+const LOAD = { type: 't-load' };
+
+describe('buildChain validation', () => {
+  it('refuses f0 = 0, NaN and Infinity in the settings, naming the field', () => {
+    for (const bad of [0, -1, NaN, Infinity]) {
+      const doc = chain([SRC, LOAD], { f0Hz: 1e6 });
+      (doc.settings as { f0Hz: number }).f0Hz = bad;
+      const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
+      expect(issues[0].path).toEqual(['settings', 'f0Hz']);
+      expect(issues[0].message).toMatch(/Design frequency must be a finite frequency above 0 Hz/);
+    }
+  });
+
+  it('names stage and parameter for NaN, Infinity and negative values, collecting all', () => {
+    const doc = chain(
+      [
+        SRC,
+        { type: 't-tank', label: 'Tuner', values: { l: NaN, c: Infinity } },
+        { type: 't-shunt-r', label: 'Detector', values: { r: -5 } },
+        LOAD,
+      ],
+      { f0Hz: 1e6 },
+    );
+    const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
+    expect(issues.map((i) => i.path)).toEqual([
+      ['stages', 1, 'values', 'l'],
+      ['stages', 1, 'values', 'c'],
+      ['stages', 2, 'values', 'r'],
+    ]);
+    expect(issues[0].message).toBe('Stage 2 "Tuner" (t-tank): inductance must be a finite number (got NaN)'); // prettier-ignore
+    expect(issues[1].message).toMatch(/capacitance must be a finite number \(got Infinity\)/);
+    expect(issues[2].message).toBe('Stage 3 "Detector" (t-shunt-r): load resistance must be above 0 Ω (got -5)'); // prettier-ignore
+    expect(issues[2]).toMatchObject({ stageId: 's2', stageIndex: 2, param: 'r' });
+  });
+
+  it('refuses an unknown type, a wrong kind of value and a bad enum option', () => {
+    const doc = chain(
+      [SRC, { type: 'no-such-stage' }, { type: 't-series', values: { r: 'ten' } }, { type: 't-load', values: { mode: 'ajar' } }], // prettier-ignore
+      { f0Hz: 1e6 },
+    );
+    const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
+    expect(issues.map((i) => i.message)).toEqual([
+      'Stage 2 "no-such-stage" (no-such-stage): unknown stage type "no-such-stage"; choose one from the stage catalogue', // prettier-ignore
+      'Stage 3 "Series RLC" (t-series): resistance must be a number (got "ten")',
+      'Stage 4 "Test load" (t-load): termination must be one of r, open, short (got "ajar")',
+    ]);
+  });
+
+  it('checks roles: a source first, a load last, two-ports between', () => {
+    const issues = issuesOf(() =>
+      buildChain(chain([LOAD, SRC, SRC], { f0Hz: 1e6 }), TEST_CATALOGUE),
+    );
+    expect(issues.map((i) => i.path)).toEqual([
+      ['stages', 0, 'type'],
+      ['stages', 1, 'type'],
+      ['stages', 2, 'type'],
+    ]);
+    expect(issues[0].message).toMatch(/the first stage must be a source/);
+    expect(issues[2].message).toMatch(/the last stage must be a load/);
+  });
+
+  it('fills defaults and ignores values hidden by showWhen', () => {
+    const doc = chain([SRC, { type: 't-load', values: { mode: 'open', r: -1 } }], { f0Hz: 1e6 });
+    const built = buildChain(doc, TEST_CATALOGUE);
+    expect(built.source.values).toEqual({ rs: 50, xs: 0, emf: 1 });
+    expect(built.load.values['r']).toBe(50); // the hidden −1 is neither checked nor used
+  });
+
+  it('turns a StageParameterError from a builder into an issue on that parameter', () => {
+    const doc = chain([SRC, { type: 't-mixer', values: { lo: 1e6 } }, LOAD], { f0Hz: 1e6 });
+    const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
+    expect(issues).toEqual([
+      {
+        stageId: 's1',
+        stageIndex: 1,
+        param: 'lo',
+        path: ['stages', 1, 'values', 'lo'],
+        message: 'Stage 2 "Mixer" (t-mixer): LO frequency must differ from the signal frequency',
+      },
+    ]);
+  });
+
+  it('refuses a chain without a source and a load', () => {
+    const issues = issuesOf(() => buildChain({ settings: { f0Hz: 1 }, stages: [] }, TEST_CATALOGUE)); // prettier-ignore
+    expect(issues.at(-1)?.message).toMatch(/at least a source and a load/);
+  });
+
+  it('lays out sections flat, maps nodes, and carries f0 through a mixer', () => {
+    const doc = chain(
+      [SRC, { type: 't-tank' }, { type: 't-mixer', values: { lo: 1.455e6 } }, { type: 't-tank' }, LOAD], // prettier-ignore
+      { f0Hz: 1e6 },
+    );
+    const built = buildChain(doc, TEST_CATALOGUE);
+    expect(built.sections).toHaveLength(3);
+    expect(Array.from(built.userNodeFlat)).toEqual([0, 1, 2, 3]);
+    expect(Array.from(built.sectionStage)).toEqual([0, 1, 2]);
+    // IF = |1000 − 1455| kHz = 455 kHz after the mixer (IMG-1 arithmetic)
+    expect(Array.from(built.f0AtFlatNode)).toEqual([1e6, 1e6, 455e3, 455e3]);
+  });
+});
+
+describe('frequencyGrid', () => {
+  it('includes both ends for lin and log spacing', () => {
+    expect(Array.from(frequencyGrid({ startHz: 1, stopHz: 5, points: 5, scale: 'lin' }))).toEqual([1, 2, 3, 4, 5]); // prettier-ignore
+    const log = frequencyGrid({ startHz: 1e3, stopHz: 1e6, points: 4, scale: 'log' });
+    [1e3, 1e4, 1e5, 1e6].forEach((f, i) => expect(log[i] / f).toBeCloseTo(1, 12));
+  });
+
+  it('a one-point sweep is the start frequency', () => {
+    expect(Array.from(frequencyGrid({ startHz: 7e6, stopHz: 9e6, points: 1, scale: 'log' }))).toEqual([7e6]); // prettier-ignore
+  });
+
+  it('refuses a bad sweep with a message that names the field', () => {
+    expect(() => frequencyGrid({ startHz: 0, stopHz: 1, points: 3, scale: 'lin' })).toThrow(/start must be/); // prettier-ignore
+    expect(() => frequencyGrid({ startHz: 1, stopHz: 2, points: 0, scale: 'lin' })).toThrow(/points must be/); // prettier-ignore
+  });
+});
