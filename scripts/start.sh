@@ -1,0 +1,73 @@
+#!/usr/bin/env bash
+# npm start: sets up everything on a fresh Debian machine (npm packages, PostgreSQL, the
+# database, migrations, demo data, the client build) and serves Chainwright on
+# http://127.0.0.1:4300 (PORT overrides). Ctrl-C stops the server and PostgreSQL; the next
+# start reuses the data in .data/.
+set -euo pipefail
+source "$(dirname "$0")/lib/common.sh"
+cd "$CW_REPO"
+
+PORT="${PORT:-4300}"
+PG_CLUSTER_PORT="${CW_PG_PORT:-54330}"
+SMTP_PORT="${CW_SMTP_PORT:-2530}"
+DB_NAME=chainwright
+
+cleanup() {
+  trap - EXIT INT TERM
+  stop_node
+  pg_down
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+ensure_node_modules
+ensure_postgres_binaries
+pg_up pg "$PG_CLUSTER_PORT"
+db_create "$DB_NAME"
+export DATABASE_URL
+DATABASE_URL="$(pg_url "$DB_NAME")"
+# For `npm run db:migrate` and friends in another terminal while this one serves.
+printf 'DATABASE_URL=%s\n' "$DATABASE_URL" >.data/dev.env
+chmod 600 .data/dev.env
+
+step "Applying migrations and demo data"
+node --import tsx scripts/db.ts migrate seed
+
+if [ ! -f angular.json ]; then
+  note "angular.json is missing: the client is not set up yet; serving the API only"
+elif client_build_stale; then
+  step "Building the client (npx ng build)"
+  npx ng build
+else
+  note "Client build is up to date"
+fi
+
+# A session secret kept across restarts, so sign-ins survive a restart.
+if [ ! -s .data/session-secret ]; then
+  head -c 32 /dev/urandom | od -An -tx1 | tr -d ' \n' >.data/session-secret
+  chmod 600 .data/session-secret
+fi
+
+step "Starting Chainwright"
+export PORT CW_SMTP_PORT="$SMTP_PORT" CW_MAIL_DIR="$CW_REPO/.data/mail"
+export CW_SESSION_SECRET
+CW_SESSION_SECRET="$(cat .data/session-secret)"
+start_node_ts server/main.ts
+if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
+  die "the server did not answer on port $PORT (see its messages above)"
+fi
+
+cat <<EOF
+
+  Chainwright is running:  http://127.0.0.1:$PORT
+
+  Demo sign-ins (password for all three: demo-receiver-2026)
+    owner@chainwright.test    owner of "Demo receivers", site admin
+    editor@chainwright.test   editor
+    viewer@chainwright.test   viewer
+
+  Mail the app sends is written to .data/mail/
+  Press Ctrl-C to stop the server and PostgreSQL.
+
+EOF
+wait "$NODE_PID" || true
