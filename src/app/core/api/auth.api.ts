@@ -35,6 +35,11 @@ export class AuthApi {
     return this.http.post('/api/auth/password', body, { context });
   }
 
+  /** Whether anyone may create an account (public; the register page asks first). */
+  registration(context?: HttpContext): Observable<{ openRegistration: boolean }> {
+    return this.http.get<{ openRegistration: boolean }>('/api/auth/registration', { context });
+  }
+
   me(context?: HttpContext): Observable<MeDto> {
     return this.http.get<MeDto>('/api/me', { context });
   }

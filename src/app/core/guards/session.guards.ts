@@ -15,9 +15,11 @@ function signInTree(router: Router, state: RouterStateSnapshot) {
 
 /** Lets signed-in users through; sends visitors to sign in and back here afterwards. */
 export const signedInGuard: CanActivateFn = async (_route, state) => {
+  // inject() only works before the first await: take everything needed up front.
   const session = inject(SessionStore);
+  const router = inject(Router);
   const me = await session.ensureLoaded();
-  return me ? true : signInTree(inject(Router), state);
+  return me ? true : signInTree(router, state);
 };
 
 /** Keeps signed-in users away from the sign-in and registration pages. */

@@ -1,5 +1,6 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import type { ApiErrorDto } from '../../../../shared/schema/api';
+import { sentence } from '../forms/zod-validator';
 
 /** The API's error body, when the answer carried one. */
 export function apiErrorBody(error: unknown): ApiErrorDto | null {
@@ -14,7 +15,8 @@ export function apiErrorBody(error: unknown): ApiErrorDto | null {
 /** A sentence for the user: the server's message, or what went wrong on the way. */
 export function describeHttpError(error: unknown): string {
   const body = apiErrorBody(error);
-  if (body) return body.message;
+  // The server writes messages as lower-case fragments; show them as sentences.
+  if (body) return sentence(body.message);
   if (error instanceof HttpErrorResponse) {
     if (error.status === 0)
       return 'The server cannot be reached. Check the connection and try again.';

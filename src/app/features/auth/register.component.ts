@@ -106,6 +106,15 @@ export default class RegisterComponent {
   protected readonly closed = signal(false);
   protected readonly message = controlMessage;
 
+  constructor() {
+    // Ask up front so nobody fills the form in vain; the answer to POST decides anyway.
+    const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, true);
+    this.auth.registration(context).subscribe({
+      next: (answer) => this.closed.set(!answer.openRegistration),
+      error: () => undefined,
+    });
+  }
+
   protected async submit(): Promise<void> {
     this.form.markAllAsTouched();
     if (this.form.invalid || this.busy()) return;
