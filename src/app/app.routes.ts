@@ -1,4 +1,5 @@
 import { Routes } from '@angular/router';
+import { editorLeaveGuard } from './features/editor/leave.guard';
 import {
   adminGuard,
   homeRedirectGuard,
@@ -54,6 +55,7 @@ export const appRoutes: Routes = [
         path: 'chains/:chainId',
         title: 'Chain · Chainwright',
         loadComponent: () => import('./features/editor/chain-editor.component'),
+        canDeactivate: [editorLeaveGuard],
       },
       {
         path: 'members',
