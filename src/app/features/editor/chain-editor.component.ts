@@ -1,20 +1,199 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
-import { RouterLink } from '@angular/router';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  HostListener,
+  inject,
+  input,
+  signal,
+  untracked,
+} from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { forkJoin, firstValueFrom } from 'rxjs';
+import type { StageTypeInfo } from '../../../../shared/engine/types';
+import type { RevisionDto } from '../../../../shared/schema/api';
+import { ChainsApi } from '../../core/api/chains.api';
+import { describeHttpError } from '../../core/http/error-message';
+import { CautionBannerComponent } from './cautions/caution-banner.component';
+import { RevisionPanelComponent } from './history/revision-panel.component';
+import { GlyphComponent } from './icons/glyph.component';
+import type { LeaveAware } from './leave.guard';
+import { StagePaletteComponent } from './palette/stage-palette.component';
+import { ParamPanelComponent } from './params/param-panel.component';
+import { AnalysisResultsComponent } from './results/analysis-results.component';
+import { ChainPersistence } from './save/chain-persistence';
+import { ChainSettingsComponent } from './settings/chain-settings.component';
+import { AnalysisApi } from './state/analysis-api';
+import { AnalysisRunner } from './state/analysis-runner';
+import { clearDrafts, readDraft, writeDraft, type Draft } from './state/draft-store';
+import { EditFeedback } from './state/edit-feedback';
+import { EditorStore } from './state/editor.store';
+import { StageStripComponent } from './strip/stage-strip.component';
 
-/** Stand-in for the chain editor so the route resolves until the editor lands here. */
+type SidePanel = 'stage' | 'chain' | 'history';
+
+/**
+ * The chain editor page: palette, strip of stage cards, live analysis, the side panel
+ * (stage values, chain settings, revisions) and saving. Viewers get the same page with
+ * every control that changes the chain disabled.
+ */
 @Component({
   selector: 'cw-chain-editor',
-  imports: [RouterLink],
+  imports: [
+    MatButtonModule,
+    MatButtonToggleModule,
+    MatProgressBarModule,
+    GlyphComponent,
+    StagePaletteComponent,
+    StageStripComponent,
+    ParamPanelComponent,
+    ChainSettingsComponent,
+    RevisionPanelComponent,
+    CautionBannerComponent,
+    AnalysisResultsComponent,
+  ],
+  providers: [EditorStore, AnalysisRunner, EditFeedback, ChainPersistence],
   changeDetection: ChangeDetectionStrategy.OnPush,
-  template: `
-    <section class="cw-page">
-      <h1>Chain</h1>
-      <p>The editor for chain {{ chainId() }} is on its way.</p>
-      <a [routerLink]="['/w', workspaceId(), 'chains']">Back to the chain list</a>
-    </section>
-  `,
+  templateUrl: './chain-editor.component.html',
+  styleUrl: './chain-editor.component.scss',
 })
-export default class ChainEditorComponent {
+export default class ChainEditorComponent implements LeaveAware {
   readonly workspaceId = input.required<string>();
   readonly chainId = input.required<string>();
+
+  protected readonly store = inject(EditorStore);
+  protected readonly runner = inject(AnalysisRunner);
+  protected readonly persistence = inject(ChainPersistence);
+  protected readonly feedback = inject(EditFeedback);
+  private readonly chains = inject(ChainsApi);
+  private readonly analysisApi = inject(AnalysisApi);
+
+  protected readonly stripListId = 'cw-stage-strip';
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly types = signal<StageTypeInfo[]>([]);
+  protected readonly panel = signal<SidePanel>('stage');
+  protected readonly saveMessage = signal('');
+  protected readonly draftOffer = signal<Draft | null>(null);
+  protected readonly viewing = signal<RevisionDto | null>(null);
+
+  protected readonly doc = this.store.doc;
+  protected readonly selectedId = this.store.selectedId;
+  protected readonly analysis = this.runner.result;
+  /** The document on screen: a revision being looked at, or the one being edited. */
+  protected readonly shownDoc = computed(() => this.viewing()?.document ?? this.doc());
+  protected readonly locked = computed(() => this.store.readOnly() || this.viewing() !== null);
+  protected readonly chainTypes = computed(() => {
+    const catalogue = this.store.catalogue();
+    return this.shownDoc()
+      .stages.map((s) => catalogue.get(s.type))
+      .filter((t): t is StageTypeInfo => t !== undefined);
+  });
+
+  constructor() {
+    effect(() => {
+      const id = this.chainId();
+      untracked(() => void this.loadChain(id));
+    });
+    // Every change of what is on screen is analysed; unsaved edits also go to the draft.
+    effect(() => {
+      const doc = this.shownDoc();
+      if (this.store.chain()) untracked(() => this.runner.request(doc));
+    });
+    effect(() => {
+      const chain = this.store.chain();
+      const doc = this.doc();
+      if (chain && this.store.dirty() && !this.store.readOnly()) {
+        untracked(() => writeDraft(chain.id, chain.version, doc));
+      }
+    });
+  }
+
+  hasUnsavedEdits(): boolean {
+    return this.store.dirty() && !this.store.readOnly();
+  }
+
+  @HostListener('window:beforeunload', ['$event'])
+  protected warnBeforeUnload(event: BeforeUnloadEvent): void {
+    if (this.hasUnsavedEdits()) event.preventDefault();
+  }
+
+  @HostListener('window:keydown', ['$event'])
+  protected onShortcut(event: KeyboardEvent): void {
+    if (!(event.ctrlKey || event.metaKey) || this.locked()) return;
+    // Inside a text field the browser's own undo applies to the text being typed.
+    if (event.target instanceof HTMLInputElement || event.target instanceof HTMLTextAreaElement)
+      return;
+    const key = event.key.toLowerCase();
+    if (key === 'z' && !event.shiftKey) {
+      event.preventDefault();
+      this.store.undo();
+    } else if (key === 'y' || (key === 'z' && event.shiftKey)) {
+      event.preventDefault();
+      this.store.redo();
+    }
+  }
+
+  protected select(stageId: string): void {
+    this.store.select(stageId);
+    this.panel.set('stage');
+  }
+
+  protected insertFromPalette(type: StageTypeInfo): void {
+    this.feedback.report(this.store.insertType(type));
+    this.panel.set('stage');
+  }
+
+  protected async save(): Promise<void> {
+    if (await this.persistence.save(this.saveMessage())) this.saveMessage.set('');
+  }
+
+  protected restoreDraft(): void {
+    const draft = this.draftOffer();
+    if (draft) this.store.replaceDocument(draft.document);
+    this.draftOffer.set(null);
+  }
+
+  protected discardDraft(): void {
+    clearDrafts(this.chainId());
+    this.draftOffer.set(null);
+  }
+
+  protected async viewRevision(version: number): Promise<void> {
+    try {
+      this.viewing.set(await firstValueFrom(this.chains.revision(this.chainId(), version)));
+    } catch (e) {
+      this.feedback.report({
+        ok: false,
+        reason: `Revision ${version} did not load: ${describeHttpError(e)}`,
+      });
+    }
+  }
+
+  protected async restoreRevision(version: number): Promise<void> {
+    const unsaved = this.hasUnsavedEdits();
+    if (unsaved && !window.confirm('Restoring replaces your unsaved edits. Restore anyway?'))
+      return;
+    if (await this.persistence.restore(version)) this.viewing.set(null);
+  }
+
+  private async loadChain(id: string): Promise<void> {
+    this.loadError.set(null);
+    this.viewing.set(null);
+    try {
+      const { chain, catalogue } = await firstValueFrom(
+        forkJoin({ chain: this.chains.get(id), catalogue: this.analysisApi.catalogue() }),
+      );
+      this.types.set(catalogue);
+      this.store.setCatalogue(catalogue);
+      this.store.load(chain);
+      const draft = chain.role === 'viewer' ? null : readDraft(id);
+      const differs = draft && JSON.stringify(draft.document) !== JSON.stringify(chain.document);
+      this.draftOffer.set(differs ? draft : null);
+    } catch (e) {
+      this.loadError.set(describeHttpError(e));
+    }
+  }
 }

@@ -1,0 +1,99 @@
+import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatMenuModule } from '@angular/material/menu';
+import { MatSlideToggleModule } from '@angular/material/slide-toggle';
+import type { ParamSpec, ParamValues } from '../../../../../shared/engine/types';
+import type { StageInstance } from '../../../../../shared/schema/chain';
+import { AnalysisRunner } from '../state/analysis-runner';
+import { EditorStore } from '../state/editor.store';
+import {
+  displayText,
+  valueOf,
+  visibleParams,
+  withPreset,
+  withTolerance,
+  withValue,
+} from '../state/stage-factory';
+import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
+
+/**
+ * The form for the selected stage, built from its type's parameter schema: unit-aware
+ * fields for numbers, selects for enums, toggles for booleans, tolerances where the
+ * schema allows them, presets where the type has them. `showWhen` hides what does not
+ * apply (a matching network's design fields appear only in design mode).
+ */
+@Component({
+  selector: 'cw-param-panel',
+  imports: [QuantityFieldComponent, MatSlideToggleModule, MatMenuModule, MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './param-panel.component.html',
+  styleUrl: './field.scss',
+})
+export class ParamPanelComponent {
+  /** Disabled inputs for viewers and for revisions being viewed. */
+  readonly readOnly = input(false);
+
+  protected readonly store = inject(EditorStore);
+  private readonly runner = inject(AnalysisRunner);
+
+  protected readonly stage = this.store.selectedStage;
+  protected readonly type = this.store.selectedType;
+  protected readonly params = computed(() => {
+    const stage = this.stage();
+    const type = this.type();
+    return stage && type ? visibleParams(stage, type) : [];
+  });
+  /** Server refusals of this stage, by parameter key ('' for the stage as a whole). */
+  protected readonly refusals = computed(() => {
+    const id = this.stage()?.id;
+    const map = new Map<string, string>();
+    for (const issue of this.runner.refusal()?.issues ?? []) {
+      if (issue.stageId === id) map.set(issue.param ?? '', issue.message);
+    }
+    return map;
+  });
+
+  protected text(stage: StageInstance, spec: ParamSpec): string {
+    return displayText(stage, spec);
+  }
+
+  protected value(stage: StageInstance, spec: ParamSpec): number | string | boolean {
+    return valueOf(stage, spec);
+  }
+
+  protected toleranceText(stage: StageInstance, spec: ParamSpec): string {
+    const t = stage.tolerances?.[spec.key];
+    return t === undefined ? '' : String(t);
+  }
+
+  protected onNumber(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
+    this.store.updateStage(withValue(stage, spec.key, edit.value, edit.text), spec.key);
+  }
+
+  protected onTolerance(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
+    const percent = edit.text.trim() === '' ? null : edit.value;
+    this.store.updateStage(withTolerance(stage, spec.key, percent), `tol:${spec.key}`);
+  }
+
+  protected onEnum(stage: StageInstance, spec: ParamSpec, event: Event): void {
+    this.store.updateStage(withValue(stage, spec.key, (event.target as HTMLSelectElement).value));
+  }
+
+  protected onBoolean(stage: StageInstance, spec: ParamSpec, checked: boolean): void {
+    this.store.updateStage(withValue(stage, spec.key, checked));
+  }
+
+  protected onText(stage: StageInstance, spec: ParamSpec, event: Event): void {
+    const text = (event.target as HTMLTextAreaElement).value.slice(0, 200);
+    this.store.updateStage(withValue(stage, spec.key, text), spec.key);
+  }
+
+  protected onLabel(stage: StageInstance, event: Event): void {
+    const label = (event.target as HTMLInputElement).value.slice(0, 120);
+    this.store.updateStage({ ...stage, label }, 'label');
+  }
+
+  protected applyPreset(stage: StageInstance, values: ParamValues): void {
+    this.store.updateStage(withPreset(stage, values));
+  }
+}

@@ -1,0 +1,29 @@
+import { HttpClient, HttpContext } from '@angular/common/http';
+import { inject, Injectable } from '@angular/core';
+import { Observable, shareReplay } from 'rxjs';
+import type { AnalysisResult, StageTypeInfo } from '../../../../../shared/engine/types';
+import type { ChainDocument } from '../../../../../shared/schema/chain';
+import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
+
+/** The stage catalogue and the analysis endpoint. */
+@Injectable({ providedIn: 'root' })
+export class AnalysisApi {
+  private readonly http = inject(HttpClient);
+  // The catalogue changes only with a deploy: fetch it once per page load.
+  private readonly catalogue$ = this.http
+    .get<StageTypeInfo[]>('/api/catalogue')
+    .pipe(shareReplay({ bufferSize: 1, refCount: false }));
+
+  catalogue(): Observable<StageTypeInfo[]> {
+    return this.catalogue$;
+  }
+
+  /** The editor shows a refused chain (422) in its own banner, so no snackbar for it. */
+  analyse(document: ChainDocument): Observable<AnalysisResult> {
+    return this.http.post<AnalysisResult>(
+      '/api/analysis',
+      { document, sweep: true },
+      { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
+    );
+  }
+}

@@ -1,0 +1,112 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { afterNextRender, DestroyRef, inject, Injectable, Injector, signal } from '@angular/core';
+import { catchError, debounceTime, map, of, Subject, switchMap, tap } from 'rxjs';
+import type { ChainIssue } from '../../../../../shared/engine/errors';
+import type { AnalysisResult } from '../../../../../shared/engine/types';
+import type { ChainDocument } from '../../../../../shared/schema/chain';
+import { describeHttpError } from '../../../core/http/error-message';
+import { AnalysisApi } from './analysis-api';
+
+/** Quiet time after the last edit before the chain is sent for analysis. */
+export const ANALYSIS_DEBOUNCE_MS = 120;
+/** performance.measure name from an edit to the rendered result (read by browser tests). */
+export const EDIT_TO_RENDER_MEASURE = 'cw-edit-to-render';
+const EDIT_MARK = 'cw-edit';
+
+/** Why the server would not analyse the chain, with the stages and fields at fault. */
+export interface AnalysisRefusal {
+  message: string;
+  issues: ChainIssue[];
+}
+
+type Outcome =
+  | { kind: 'result'; result: AnalysisResult }
+  | { kind: 'refused'; refusal: AnalysisRefusal }
+  | { kind: 'failed'; message: string };
+
+/**
+ * Runs the analysis for each edit of the chain: debounced, and a newer edit cancels the
+ * request still in flight (switchMap), so only the latest document's answer lands.
+ * The last good result stays visible while a refused or failed edit is fixed.
+ */
+@Injectable()
+export class AnalysisRunner {
+  private readonly api = inject(AnalysisApi);
+  private readonly injector = inject(Injector);
+  private readonly edits = new Subject<ChainDocument>();
+
+  private readonly resultState = signal<AnalysisResult | null>(null);
+  private readonly pendingState = signal(false);
+  private readonly refusalState = signal<AnalysisRefusal | null>(null);
+  private readonly failureState = signal<string | null>(null);
+
+  /** The latest analysis of a valid chain. */
+  readonly result = this.resultState.asReadonly();
+  /** Whether an edit is waiting for its analysis. */
+  readonly pending = this.pendingState.asReadonly();
+  /** The server refused the latest document (422). */
+  readonly refusal = this.refusalState.asReadonly();
+  /** The request failed for another reason (network, 5xx). */
+  readonly failure = this.failureState.asReadonly();
+
+  constructor() {
+    const subscription = this.edits
+      .pipe(
+        tap(() => this.pendingState.set(true)),
+        debounceTime(ANALYSIS_DEBOUNCE_MS),
+        switchMap((doc) =>
+          this.api.analyse(doc).pipe(
+            map((result): Outcome => ({ kind: 'result', result })),
+            catchError((error: unknown) => of(toOutcome(error))),
+          ),
+        ),
+      )
+      .subscribe((outcome) => this.land(outcome));
+    inject(DestroyRef).onDestroy(() => subscription.unsubscribe());
+  }
+
+  /** Queues `doc` for analysis; call on every change of the document. */
+  request(doc: ChainDocument): void {
+    markEdit();
+    this.edits.next(doc);
+  }
+
+  private land(outcome: Outcome): void {
+    this.pendingState.set(false);
+    if (outcome.kind === 'result') {
+      this.resultState.set(outcome.result);
+      this.refusalState.set(null);
+      this.failureState.set(null);
+      afterNextRender(measureEditToRender, { injector: this.injector });
+    } else if (outcome.kind === 'refused') {
+      this.refusalState.set(outcome.refusal);
+      this.failureState.set(null);
+    } else {
+      this.failureState.set(outcome.message);
+    }
+  }
+}
+
+function toOutcome(error: unknown): Outcome {
+  if (error instanceof HttpErrorResponse && error.status === 422) {
+    const body = (error.error ?? {}) as { message?: string; details?: unknown };
+    const issues = Array.isArray(body.details) ? (body.details as ChainIssue[]) : [];
+    return {
+      kind: 'refused',
+      refusal: { message: body.message ?? 'The chain cannot be analysed as it stands.', issues },
+    };
+  }
+  return { kind: 'failed', message: describeHttpError(error) };
+}
+
+function markEdit(): void {
+  if (typeof performance === 'undefined' || !performance.mark) return;
+  performance.clearMarks(EDIT_MARK);
+  performance.mark(EDIT_MARK);
+}
+
+function measureEditToRender(): void {
+  if (typeof performance === 'undefined' || !performance.measure) return;
+  if (performance.getEntriesByName(EDIT_MARK, 'mark').length === 0) return;
+  performance.measure(EDIT_TO_RENDER_MEASURE, EDIT_MARK);
+}

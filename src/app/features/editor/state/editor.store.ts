@@ -1,0 +1,186 @@
+import { computed, Injectable, signal } from '@angular/core';
+import type { StageTypeInfo } from '../../../../../shared/engine/types';
+import type { ChainDto } from '../../../../../shared/schema/api';
+import type {
+  ChainDocument,
+  ChainSettings,
+  StageInstance,
+} from '../../../../../shared/schema/chain';
+import { HistoryStore } from './chain-history.store';
+import { createStage, newStageId } from './stage-factory';
+import {
+  duplicateStage,
+  insertStage,
+  moveStage,
+  removeStage,
+  type OrderChange,
+  type RoleOf,
+} from './stage-order';
+
+/** The answer of an edit: done, or refused with a reason to show the user. */
+export type EditOutcome = { ok: true; message?: string } | { ok: false; reason: string };
+
+const EMPTY: ChainDocument = {
+  format: 'chainwright-chain',
+  formatVersion: 1,
+  name: '',
+  description: '',
+  settings: {
+    f0Hz: 1e6,
+    sweep: { startHz: 5e5, stopHz: 2e6, points: 201, scale: 'lin' },
+    temperatureK: 290,
+    channelBandwidthHz: 10e3,
+    requiredSnrDb: 10,
+    offsetsHz: [],
+    thresholds: {
+      loadingWarn: 0.5,
+      loadingError: 0.2,
+      compressionBackoffDb: 3,
+      matchReturnLossDb: 15,
+      detuneFraction: 0.5,
+    },
+  },
+  stages: [],
+};
+
+/**
+ * The chain being edited: the loaded chain's metadata, the document with undo/redo,
+ * the selected stage, and every edit as a method that keeps the source first and the
+ * load last. Provided per editor page.
+ */
+@Injectable()
+export class EditorStore {
+  private readonly history = new HistoryStore<ChainDocument>(EMPTY);
+  private readonly chainState = signal<ChainDto | null>(null);
+  private readonly savedState = signal<ChainDocument | null>(null);
+  private readonly catalogueState = signal<ReadonlyMap<string, StageTypeInfo>>(new Map());
+  private readonly selectedState = signal<string | null>(null);
+
+  readonly doc = this.history.present;
+  readonly chain = this.chainState.asReadonly();
+  readonly catalogue = this.catalogueState.asReadonly();
+  readonly selectedId = this.selectedState.asReadonly();
+  readonly canUndo = this.history.canUndo;
+  readonly canRedo = this.history.canRedo;
+  readonly readOnly = computed(() => this.chainState()?.role === 'viewer');
+  /** Whether the document differs from the last saved or loaded one. */
+  readonly dirty = computed(() => {
+    const saved = this.savedState();
+    return saved !== null && JSON.stringify(saved) !== JSON.stringify(this.doc());
+  });
+  readonly selectedStage = computed(
+    () => this.doc().stages.find((s) => s.id === this.selectedState()) ?? null,
+  );
+  readonly selectedType = computed(() => {
+    const stage = this.selectedStage();
+    return stage ? (this.catalogueState().get(stage.type) ?? null) : null;
+  });
+
+  readonly roleOf: RoleOf = (stage) => this.catalogueState().get(stage.type)?.role ?? 'two-port';
+
+  setCatalogue(types: StageTypeInfo[]): void {
+    this.catalogueState.set(new Map(types.map((t) => [t.type, t])));
+  }
+
+  /** Loads a chain from the server: no undo steps, nothing unsaved. */
+  load(chain: ChainDto, document: ChainDocument = chain.document): void {
+    this.chainState.set(chain);
+    this.savedState.set(chain.document);
+    this.history.reset(document);
+    if (!document.stages.some((s) => s.id === this.selectedState())) {
+      this.selectedState.set(document.stages[0]?.id ?? null);
+    }
+  }
+
+  /** After a save: the new version is the baseline; undo history stays. */
+  markSaved(chain: ChainDto): void {
+    this.chainState.set(chain);
+    this.savedState.set(chain.document);
+  }
+
+  select(stageId: string | null): void {
+    this.selectedState.set(stageId);
+  }
+
+  undo(): boolean {
+    return !this.readOnly() && this.history.undo();
+  }
+
+  redo(): boolean {
+    return !this.readOnly() && this.history.redo();
+  }
+
+  /** Drops a catalogue type at `index` (or after the selected stage when index is omitted). */
+  insertType(type: StageTypeInfo, index?: number): EditOutcome {
+    const stages = this.doc().stages;
+    const selectedIndex = stages.findIndex((s) => s.id === this.selectedState());
+    const at = index ?? (selectedIndex >= 0 ? selectedIndex + 1 : stages.length - 1);
+    const stage = createStage(type);
+    // "Insert after" the load means just before it; after the source, right after it.
+    const target = index === undefined && at >= stages.length ? stages.length - 1 : at;
+    const outcome = this.applyOrder(insertStage(stages, this.roleOf, stage, target));
+    if (outcome.ok) this.selectedState.set(stage.id);
+    return outcome;
+  }
+
+  move(from: number, to: number): EditOutcome {
+    return this.applyOrder(moveStage(this.doc().stages, this.roleOf, from, to));
+  }
+
+  moveBy(stageId: string, delta: number): EditOutcome {
+    const from = this.doc().stages.findIndex((s) => s.id === stageId);
+    return this.move(from, from + delta);
+  }
+
+  remove(stageId: string): EditOutcome {
+    const stages = this.doc().stages;
+    const index = stages.findIndex((s) => s.id === stageId);
+    const outcome = this.applyOrder(removeStage(stages, this.roleOf, index));
+    if (outcome.ok && this.selectedState() === stageId) {
+      this.selectedState.set(this.doc().stages[Math.max(0, index - 1)]?.id ?? null);
+    }
+    return outcome;
+  }
+
+  duplicate(stageId: string): EditOutcome {
+    const stages = this.doc().stages;
+    const index = stages.findIndex((s) => s.id === stageId);
+    const id = newStageId();
+    const outcome = this.applyOrder(duplicateStage(stages, this.roleOf, index, id));
+    if (outcome.ok) this.selectedState.set(id);
+    return outcome;
+  }
+
+  /** Replaces one stage (a field edit); consecutive edits of one field are one undo step. */
+  updateStage(next: StageInstance, coalesceKey?: string): void {
+    if (this.readOnly()) return;
+    const stages = this.doc().stages.map((s) => (s.id === next.id ? next : s));
+    this.history.commit({ ...this.doc(), stages }, coalesceKey && `${next.id}:${coalesceKey}`);
+  }
+
+  updateSettings(settings: ChainSettings, coalesceKey?: string): void {
+    if (this.readOnly()) return;
+    this.history.commit({ ...this.doc(), settings }, coalesceKey && `settings:${coalesceKey}`);
+  }
+
+  updateInfo(info: { name?: string; description?: string }, coalesceKey?: string): void {
+    if (this.readOnly()) return;
+    this.history.commit({ ...this.doc(), ...info }, coalesceKey && `info:${coalesceKey}`);
+  }
+
+  /** Replaces the whole document as one undo step (restoring a draft). */
+  replaceDocument(document: ChainDocument): void {
+    this.history.commit(document);
+  }
+
+  private applyOrder(change: OrderChange): EditOutcome {
+    if (this.readOnly()) return { ok: false, reason: 'You can view this chain but not change it.' };
+    if (!change.ok) return change;
+    this.history.commit({ ...this.doc(), stages: change.stages });
+    if (change.note === 'replaced-source')
+      return { ok: true, message: 'The new source replaced the old one.' };
+    if (change.note === 'replaced-load')
+      return { ok: true, message: 'The new load replaced the old one.' };
+    return { ok: true };
+  }
+}

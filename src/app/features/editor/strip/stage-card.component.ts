@@ -1,0 +1,44 @@
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import type { ChainIssue } from '../../../../../shared/engine/errors';
+import type { Flag, StageTypeInfo } from '../../../../../shared/engine/types';
+import type { StageInstance } from '../../../../../shared/schema/chain';
+import { GlyphComponent } from '../icons/glyph.component';
+import { StageSymbolComponent } from '../icons/stage-symbol.component';
+import { keyValues } from '../state/stage-factory';
+
+const SEVERITY_WORD = { error: 'Error', warning: 'Warning', info: 'Note' } as const;
+
+/** One stage in the strip: what it is, its key values, its flags, and its edit buttons. */
+@Component({
+  selector: 'cw-stage-card',
+  imports: [StageSymbolComponent, GlyphComponent],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './stage-card.component.html',
+  styleUrl: './stage-card.component.scss',
+})
+export class StageCardComponent {
+  readonly stage = input.required<StageInstance>();
+  readonly type = input.required<StageTypeInfo | null>();
+  readonly flags = input<Flag[]>([]);
+  readonly issues = input<ChainIssue[]>([]);
+  readonly selected = input(false);
+  readonly readOnly = input(false);
+  readonly canMoveLeft = input(false);
+  readonly canMoveRight = input(false);
+
+  readonly picked = output<void>();
+  readonly moveLeft = output<void>();
+  readonly moveRight = output<void>();
+  readonly duplicated = output<void>();
+  readonly removed = output<void>();
+
+  protected readonly severityWord = SEVERITY_WORD;
+  protected readonly isTwoPort = computed(() => (this.type()?.role ?? 'two-port') === 'two-port');
+  protected readonly values = computed(() => {
+    const type = this.type();
+    return type ? keyValues(this.stage(), type) : [];
+  });
+  protected readonly title = computed(
+    () => this.stage().label || this.type()?.label || this.stage().type,
+  );
+}
