@@ -56,6 +56,16 @@ function otherValues(def: StageDefinition): ParamValues {
   return values;
 }
 
+/**
+ * One enum option changed. A design-mode network would refuse orientations that do not suit
+ * its default resistances, so topology variants use the stage's own component values.
+ */
+function variant(def: StageDefinition, key: string, value: string): ParamValues {
+  const mode = def.params.find((p) => p.key === 'mode');
+  const byValues = key !== 'mode' && mode?.options?.some((o) => o.value === 'values');
+  return byValues ? { mode: 'values', [key]: value } : { [key]: value };
+}
+
 const defaultsOf = (def: StageDefinition): ParamValues =>
   Object.fromEntries(def.params.map((p) => [p.key, p.default]));
 
@@ -105,6 +115,34 @@ describe('every SPICE-expressible stage type against ngspice', () => {
       });
     },
   );
+
+  // Each other option of each enum (orientation, position, element...) changes the topology.
+  const variants = twoPorts
+    .filter(expressible)
+    .flatMap((def) =>
+      def.params
+        .filter((p) => p.kind === 'enum')
+        .flatMap((p) =>
+          (p.options ?? [])
+            .filter((o) => o.value !== p.default)
+            .map(
+              (o) =>
+                [
+                  `${def.type} with ${p.key} = ${o.value}`,
+                  def,
+                  variant(def, p.key, o.value),
+                ] as const,
+            ),
+        ),
+    );
+  it.each(variants)('should agree for %s', (_name, def, values) => {
+    const a = expectAgreement(
+      chainAround(def, values, { rs: 75, rl: 2200, cl: 4.7e-12 }),
+      catalogue,
+    );
+    expect(a.worstDb.dbError).toBeLessThanOrEqual(AGREEMENT.db);
+    expect(a.worstDeg.degError).toBeLessThanOrEqual(AGREEMENT.deg);
+  });
 
   it('should refuse every stage SPICE cannot express with an error naming the stage', () => {
     // The catalogue's own such types, plus a test-only one so the check always runs.

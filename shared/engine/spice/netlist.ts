@@ -177,8 +177,8 @@ function oneLine(s: string): string {
 }
 
 /**
- * The `.ac` line for a sweep and the frequencies ngspice will use.
- * ngspice's `dec` grid is start·10^(i/perDecade) for i = 0, 1, … up to stop.
+ * The `.ac` line for a sweep and the frequencies ngspice will use (`exact`: the same grid as
+ * the engine's `frequencyGrid(sweep)`).
  */
 export function acGrid(sweep: SweepSpec): {
   acLine: string;
@@ -194,14 +194,18 @@ export function acGrid(sweep: SweepSpec): {
       freqsHz[i] = i === points - 1 && points > 1 ? stopHz : startHz + step * i;
     return { acLine: `ac lin ${points} ${num(startHz)} ${num(stopHz)}`, exact: true, freqsHz };
   }
+  // ngspice (checked on ngspice-39) makes floor(decades·perDecade) intervals and spreads them
+  // geometrically from start to stop exactly. Look for a whole perDecade that gives the
+  // sweep's own interval count; otherwise take the nearest and report the grid it makes.
   const decades = Math.log10(stopHz / startHz);
-  const perDecadeExact = (points - 1) / decades;
-  const perDecade = Math.max(1, Math.round(perDecadeExact));
-  const exact = Math.abs(perDecadeExact - perDecade) < 1e-9 * perDecade;
-  const count = Math.floor(decades * perDecade + 1e-9) + 1;
-  const freqsHz = Float64Array.from(
-    { length: count },
-    (_, i) => startHz * Math.pow(10, i / perDecade),
+  const intervals = (p: number) => Math.floor(decades * p + 1e-9);
+  const candidate = Math.max(1, Math.ceil((points - 1) / decades - 1e-9));
+  const exact = intervals(candidate) === points - 1;
+  const perDecade = exact ? candidate : Math.max(1, Math.round((points - 1) / decades));
+  const count = Math.max(1, intervals(perDecade)) + 1;
+  const ratio = Math.log(stopHz / startHz) / (count - 1);
+  const freqsHz = Float64Array.from({ length: count }, (_, i) =>
+    i === count - 1 ? stopHz : startHz * Math.exp(ratio * i),
   );
   return { acLine: `ac dec ${perDecade} ${num(startHz)} ${num(stopHz)}`, exact, freqsHz };
 }
