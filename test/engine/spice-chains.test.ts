@@ -176,7 +176,7 @@ describe('the comparison itself', () => {
       ],
     };
     expect(() => expectAgreement(doc, [...catalogue, mislabelled])).toThrow(
-      /engine and ngspice disagree for "mislabelled":\n  worst dB at [0-9.e+]+ Hz, (node 1|Zin)/,
+      /engine and ngspice disagree for "mislabelled":\n {2}worst dB at [0-9.e+]+ Hz, (node 1|Zin)/,
     );
   });
 });
