@@ -302,6 +302,9 @@ export interface SelectivityReport {
   peakHz: number | null;
   peakStepUpDb: number | null;
   bw3dbHz: number | null;
+  /** Lower and upper half-power (−3 dB) edges, Hz (optional; null when not reached). */
+  bw3dbLowHz?: number | null;
+  bw3dbHighHz?: number | null;
   bw60dbHz: number | null;
   shapeFactor: number | null;
   /** Attenuation relative to the peak at each stated offset (+ and − side), dB. */

@@ -71,14 +71,14 @@ function crossAt(f: ArrayLike<number>, db: Float64Array, k: number, level: numbe
   return a === b ? f[k] : f[k] + ((f[k + 1] - f[k]) * (level - a)) / (b - a);
 }
 
-/** Bandwidth at `drop` dB below the peak around index p, or null when it stays above. */
-function bandwidthAt(
+/** Band edges at `drop` dB below the peak around index p, or null when the curve stays above. */
+function edgesAt(
   f: ArrayLike<number>,
   db: Float64Array,
   p: number,
   peakDb: number,
   drop: number,
-): number | null {
+): [number, number] | null {
   const level = peakDb - drop;
   let lo: number | null = null;
   for (let k = p; k > 0; k--) {
@@ -94,7 +94,7 @@ function bandwidthAt(
       break;
     }
   }
-  return lo !== null && hi !== null ? hi - lo : null;
+  return lo !== null && hi !== null ? [lo, hi] : null;
 }
 
 /** Peak index with a parabolic refinement of its dB level and frequency (3-point fit). */
@@ -117,6 +117,8 @@ function peakOf(
 }
 
 const toDb = (r: number) => 20 * Math.log10(r);
+/** The "−3 dB" points are the half-power points, 10·log10(2) = 3.0103 dB down (common practice). */
+const HALF_POWER_DB = 10 * Math.log10(2);
 
 /**
  * Selectivity report of every user-level node.
@@ -141,8 +143,10 @@ export function analyzeSelectivity(
     const flat = built.userNodeFlat[n];
     for (let i = 0; i < P; i++) db[i] = toDb(stepUp(sweepNa, flat, i));
     const peak = P > 0 ? peakOf(sweepNa.freqs, db) : null;
-    const bw3 = peak && P > 2 ? bandwidthAt(sweepNa.freqs, db, peak.k, peak.db, 3) : null;
-    const bw60 = peak && P > 2 ? bandwidthAt(sweepNa.freqs, db, peak.k, peak.db, 60) : null;
+    const e3 = peak && P > 2 ? edgesAt(sweepNa.freqs, db, peak.k, peak.db, HALF_POWER_DB) : null;
+    const e60 = peak && P > 2 ? edgesAt(sweepNa.freqs, db, peak.k, peak.db, 60) : null;
+    const bw3 = e3 ? e3[1] - e3[0] : null;
+    const bw60 = e60 ? e60[1] - e60[0] : null;
     const ref = peak ? peak.db : toDb(stepUp(ex, flat, 0));
     const offsets = offsetsHz.map((offsetHz, q) => ({
       offsetHz,
@@ -158,6 +162,8 @@ export function analyzeSelectivity(
       peakHz: peak ? peak.fHz : null,
       peakStepUpDb: peak ? peak.db : null,
       bw3dbHz: bw3,
+      bw3dbLowHz: e3 ? e3[0] : null,
+      bw3dbHighHz: e3 ? e3[1] : null,
       bw60dbHz: bw60,
       shapeFactor: bw3 && bw60 ? bw60 / bw3 : null,
       offsets,
