@@ -84,34 +84,6 @@ export function normalisedToS(
   multiply2(n, inv, out, o);
 }
 
-/**
- * S-parameters (reference z0 on both ports) of a two-port given by its ABCD matrix
- * (8 slots at `abcd[a..]`, the engine's layout), written row-major into `out[o..]`.
- * Standard conversion: Δ = A + B/z0 + C·z0 + D; S11 = (A + B/z0 − C·z0 − D)/Δ;
- * S12 = 2(AD − BC)/Δ; S21 = 2/Δ; S22 = (−A + B/z0 − C·z0 + D)/Δ.
- */
-export function abcdToSAt(
-  abcd: Float64Array,
-  a: number,
-  z0: number,
-  out: Float64Array,
-  o: number,
-): void {
-  const [are, aim, bre, bim, cre, cim, dre, dim] = abcd.subarray(a, a + 8);
-  const bzr = bre / z0;
-  const bzi = bim / z0;
-  const czr = cre * z0;
-  const czi = cim * z0;
-  const delRe = are + bzr + czr + dre;
-  const delIm = aim + bzi + czi + dim;
-  divide(are + bzr - czr - dre, aim + bzi - czi - dim, delRe, delIm, out, o);
-  const detRe = are * dre - aim * dim - (bre * cre - bim * cim);
-  const detIm = are * dim + aim * dre - (bre * cim + bim * cre);
-  divide(2 * detRe, 2 * detIm, delRe, delIm, out, o + 2);
-  divide(2, 0, delRe, delIm, out, o + 4);
-  divide(-are + bzr - czr + dre, -aim + bzi - czi + dim, delRe, delIm, out, o + 6);
-}
-
 /** Impedance seen into a one-port of reflection s against real z0: z0·(1 + s)/(1 − s). */
 export function reflectionToImpedance(sre: number, sim: number, z0: number): [number, number] {
   const out = new Float64Array(2);

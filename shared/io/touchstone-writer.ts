@@ -3,7 +3,8 @@
  * Specification Rev 1.1 file (option line, `!` comments, one point per line, two-port
  * columns N11 N21 N12 N22).
  */
-import { abcdToSAt, sStride, type NetworkData } from './network-data';
+import { abcdToS } from '../engine/core/abcd';
+import { sStride, type NetworkData } from './network-data';
 
 export type TouchstoneFormat = 'RI' | 'MA' | 'DB';
 export type TouchstoneUnit = 'Hz' | 'kHz' | 'MHz' | 'GHz';
@@ -69,9 +70,7 @@ export function abcdSweepToNetwork(
     );
   }
   if (!(z0 > 0)) throw new Error('touchstone writer: the reference resistance must be above 0 ohm');
-  const s = new Float64Array(abcd.length);
-  for (let i = 0; i < freqsHz.length; i++) abcdToSAt(abcd, 8 * i, z0, s, 8 * i);
-  return { ports: 2, freqsHz: Float64Array.from(freqsHz), s, z0 };
+  return { ports: 2, freqsHz: Float64Array.from(freqsHz), s: abcdToS(abcd, z0), z0 };
 }
 
 function fromRectangular(format: TouchstoneFormat, re: number, im: number): [number, number] {
