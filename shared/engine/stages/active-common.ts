@@ -1,0 +1,48 @@
+/**
+ * What amplifiers and mixers share: the unilateral Y-parameter section
+ * (y11 = 1/Rin + jωCin, y22 = 1/Rout + jωCout, y21 = −gm, y12 = 0) and what "stated gain"
+ * means.
+ *
+ * Stated gain G (linear power ratio) is the available power gain when the stage is driven
+ * from a source resistance equal to Rin, capacitances left out; it is also the transducer
+ * gain into a load equal to Rout. With V1 = Es/2 and the output current gm·V1 into
+ * Rout ∥ Rout: G = gm²·Rin·Rout/4, so gm = 2·√(G/(Rin·Rout)).
+ */
+import type { Section } from '../types';
+import { omega, unilateralAbcd } from './primitives';
+
+export interface UnilateralPorts {
+  rin: number;
+  cin: number;
+  rout: number;
+  cout: number;
+  gm: number;
+}
+
+/** Transconductance (S) giving the stated available power gain (dB) between rin and rout. */
+export function gmForStatedGain(gainDb: number, rin: number, rout: number): number {
+  return 2 * Math.sqrt(10 ** (gainDb / 10) / (rin * rout));
+}
+
+/** Available power gain (dB) of gm between rin and rout (capacitances left out). */
+export function statedGainForGm(gm: number, rin: number, rout: number): number {
+  return 10 * Math.log10((gm * gm * rin * rout) / 4);
+}
+
+/** The unilateral section; `translate` for mixers. */
+export function unilateralSection(
+  ports: UnilateralPorts,
+  translate?: (f: number) => number,
+): Section {
+  const { rin, cin, rout, cout, gm } = ports;
+  return {
+    unilateral: true,
+    translate,
+    abcd(f, out, o) {
+      const w = omega(f);
+      // The output admittance belongs to the output frequency: a mixer's port 2 runs at the IF.
+      const wOut = translate ? omega(translate(f)) : w;
+      unilateralAbcd(1 / rin, w * cin, 1 / rout, wOut * cout, -gm, 0, out, o);
+    },
+  };
+}
