@@ -17,10 +17,21 @@ export interface Services {
   close(): Promise<void>;
 }
 
-/** Connects the ORM, the session pool and the mail transport. */
-export async function initServices(config: ServerConfig): Promise<Services> {
+/**
+ * Connects the ORM, the session pool and the mail transport. With `connect: false` the
+ * database is first reached by the first query (a server that must start while the
+ * database is away, e.g. to answer 503 on /api/health).
+ */
+export async function initServices(
+  config: ServerConfig,
+  opts: { connect?: boolean } = {},
+): Promise<Services> {
+  const connect = opts.connect ?? true;
   const orm = await MikroORM.init(
-    ormOptions(config.databaseUrl, config.dbSchema ? { schema: config.dbSchema } : {}),
+    ormOptions(config.databaseUrl, {
+      ...(config.dbSchema ? { schema: config.dbSchema } : {}),
+      ...(connect ? {} : { connect: false, ensureDatabase: false }),
+    }),
   );
   const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 4 });
   // An idle client losing its connection must not crash the server; the pool replaces it.
