@@ -62,9 +62,12 @@ export function themePalette(doc: Document): PlotPalette {
     const rootStyle = view.getComputedStyle(doc.documentElement);
     const palette = readPlotPalette((name) => {
       // An undefined property would leave the probe at its inherited colour: report unset.
-      if (!rootStyle.getPropertyValue(name).trim()) return '';
+      const declared = rootStyle.getPropertyValue(name).trim();
+      if (!declared) return '';
       probe.style.color = `var(${name})`;
-      return view.getComputedStyle(probe).color;
+      const resolved = view.getComputedStyle(probe).color;
+      // Engines that do not substitute var() in computed styles (jsdom) hand it back as is.
+      return resolved && !resolved.includes('var(') ? resolved : declared;
     });
     const bodyFont = view.getComputedStyle(doc.body).fontFamily;
     return { ...palette, fontFamily: bodyFont || palette.fontFamily };

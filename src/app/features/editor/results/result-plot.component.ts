@@ -3,6 +3,7 @@ import {
   Component,
   DestroyRef,
   ElementRef,
+  PendingTasks,
   afterNextRender,
   effect,
   inject,
@@ -98,6 +99,9 @@ export class ResultPlotComponent {
   protected readonly height = PLOT_HEIGHT_PX;
   private readonly canvas = viewChild.required<ElementRef<HTMLDivElement>>('canvas');
   private readonly loader = inject(PLOTLY_LOADER);
+  // Loading and drawing count as pending work, so the app (and a test) is stable only
+  // once the plot is on screen.
+  private readonly pendingTasks = inject(PendingTasks);
   private readonly plotly = signal<PlotlyApi | null>(null);
   private readonly failureText = signal('');
   protected readonly failure = this.failureText.asReadonly();
@@ -108,21 +112,24 @@ export class ResultPlotComponent {
     let resizeObserver: ResizeObserver | undefined;
 
     afterNextRender(() => {
-      this.loader().then(
-        (plotly) => {
-          if (destroyRef.destroyed) return;
-          this.plotly.set(plotly);
-          const element = this.canvas().nativeElement;
-          if (typeof ResizeObserver !== 'undefined') {
-            resizeObserver = new ResizeObserver(() => plotly.Plots.resize(element));
-            resizeObserver.observe(element);
-          }
-        },
-        (error: unknown) => {
-          this.failureText.set(error instanceof Error ? error.message : String(error));
-          this.state.set('failed');
-        },
-      );
+      const loaded = this.pendingTasks.add();
+      this.loader()
+        .then(
+          (plotly) => {
+            if (destroyRef.destroyed) return;
+            this.plotly.set(plotly);
+            const element = this.canvas().nativeElement;
+            if (typeof ResizeObserver !== 'undefined') {
+              resizeObserver = new ResizeObserver(() => plotly.Plots.resize(element));
+              resizeObserver.observe(element);
+            }
+          },
+          (error: unknown) => {
+            this.failureText.set(error instanceof Error ? error.message : String(error));
+            this.state.set('failed');
+          },
+        )
+        .finally(loaded);
     });
 
     effect(() => {
@@ -130,13 +137,17 @@ export class ResultPlotComponent {
       const figure = this.figure();
       if (!plotly) return;
       const layout = { ...figure.layout, height: PLOT_HEIGHT_PX };
-      plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG).then(
-        () => this.state.set('ready'),
-        (error: unknown) => {
-          this.failureText.set(error instanceof Error ? error.message : String(error));
-          this.state.set('failed');
-        },
-      );
+      const drawn = this.pendingTasks.add();
+      const drawing = plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG);
+      drawing
+        .then(
+          () => this.state.set('ready'),
+          (error: unknown) => {
+            this.failureText.set(error instanceof Error ? error.message : String(error));
+            this.state.set('failed');
+          },
+        )
+        .finally(drawn);
     });
 
     destroyRef.onDestroy(() => {

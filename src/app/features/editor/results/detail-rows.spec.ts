@@ -1,0 +1,150 @@
+import {
+  flagCounts,
+  flagItems,
+  loadingState,
+  offsetHeadings,
+  resonatorRows,
+  selectivityRows,
+  stageLabel,
+  summaryItems,
+} from './detail-rows';
+import { NO_VALUE } from './format-quantity';
+import { sampleDocument, sampleResult } from './testing/sample-analysis';
+
+describe('detail-rows', () => {
+  const result = sampleResult();
+  const document = sampleDocument();
+  const thresholds = document.settings.thresholds;
+
+  describe('stageLabel', () => {
+    it('should use the label the user gave', () => {
+      expect(stageLabel(document, 'lna')).toBe('LNA');
+    });
+
+    it('should fall back to the type for an unlabelled stage and to the id for a missing one', () => {
+      const unlabelled = sampleDocument();
+      unlabelled.stages[2].label = '  ';
+      expect(stageLabel(unlabelled, 'lna')).toBe('amplifier');
+      expect(stageLabel(document, 'gone')).toBe('gone');
+    });
+  });
+
+  describe('loadingState', () => {
+    it('should judge the ratio against the chain thresholds, edges included', () => {
+      expect(loadingState(0.5, thresholds)).toBe('fine');
+      expect(loadingState(0.49, thresholds)).toBe('warning');
+      expect(loadingState(0.2, thresholds)).toBe('warning');
+      expect(loadingState(0.19, thresholds)).toBe('error');
+      expect(loadingState(null, thresholds)).toBe('unknown');
+    });
+  });
+
+  describe('resonatorRows', () => {
+    const rows = resonatorRows(result, document);
+
+    it('should show Q and bandwidth with the downstream side attached and removed', () => {
+      expect(rows[0]).toMatchObject({
+        stage: 'Preselector',
+        resonance: '10.02 MHz',
+        loadedQ: '25.0',
+        unloadedQ: '180.0',
+        bandwidth: '401 kHz',
+        detachedQ: '90.0',
+        detachedBandwidth: '111 kHz',
+        loadingRatio: '0.28',
+        downstreamShare: '72 %',
+        loading: 'warning',
+      });
+    });
+
+    it('should say when there is no resonance in the sweep', () => {
+      expect(rows[1].resonance).toBe('none in sweep');
+      expect(rows[1].loadedQ).toBe(NO_VALUE);
+      expect(rows[1].node).toBe('inside stage');
+    });
+  });
+
+  describe('selectivityRows', () => {
+    const rows = selectivityRows(result);
+
+    it('should show bandwidths, shape factor and image rejection per node', () => {
+      expect(rows[1]).toMatchObject({
+        node: 4,
+        after: 'IF filter',
+        bw3: '9 kHz',
+        bw60: '40 kHz',
+        shapeFactor: '4.44',
+        image: '10.91 MHz',
+        imageRejection: '24.5 dB',
+      });
+    });
+
+    it('should say when the −60 dB points lie beyond the sweep', () => {
+      expect(rows[0].bw60).toBe('beyond sweep');
+      expect(rows[0].image).toBe(NO_VALUE);
+    });
+
+    it('should show the attenuation on both sides of each offset', () => {
+      expect(offsetHeadings(document)).toEqual(['±100 kHz']);
+      expect(rows[1].offsets).toEqual(['62.1 dB / 63.0 dB']);
+    });
+  });
+
+  describe('summaryItems', () => {
+    const items = summaryItems(result, document);
+    const item = (key: string) => items.find((i) => i.key === key);
+
+    it('should give the sensitivity as source EMF in rms with the peak beside it', () => {
+      expect(item('sensitivity-emf')).toMatchObject({ value: '410 nV rms', note: '580 nV peak' });
+    });
+
+    it('should state the channel the noise floor is measured in', () => {
+      expect(item('noise-floor')).toMatchObject({
+        value: '-134.0 dBm',
+        note: 'in a 10 kHz channel at 290 K',
+      });
+    });
+
+    it('should show a missing dynamic range as a dash', () => {
+      const noLinearity = sampleResult();
+      noLinearity.levels.sfdrDb = null;
+      expect(summaryItems(noLinearity, document).find((i) => i.key === 'sfdr')?.value).toBe(
+        NO_VALUE,
+      );
+    });
+  });
+
+  describe('flagItems', () => {
+    it('should put errors first, then warnings, then notes', () => {
+      expect(flagItems(result, document).map((i) => i.flag.severity)).toEqual([
+        'error',
+        'warning',
+        'info',
+      ]);
+    });
+
+    it('should order flags of one severity by their place in the chain', () => {
+      const twoWarnings = sampleResult();
+      twoWarnings.flags = [
+        { code: 'compression', severity: 'warning', stageId: 'mix', message: 'b' },
+        { code: 'tank-detuned', severity: 'warning', stageId: 'tank', message: 'a' },
+      ];
+      expect(flagItems(twoWarnings, document).map((i) => i.stageLabel)).toEqual([
+        'Preselector',
+        'Mixer',
+      ]);
+    });
+
+    it('should name the severity in words', () => {
+      expect(flagItems(result, document).map((i) => i.severityText)).toEqual([
+        'Error',
+        'Warning',
+        'Note',
+      ]);
+    });
+
+    it('should count flags by severity', () => {
+      expect(flagCounts(result)).toEqual({ error: 1, warning: 1, info: 1 });
+    });
+  });
+});

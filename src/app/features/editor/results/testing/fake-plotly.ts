@@ -1,0 +1,50 @@
+/**
+ * A recording stand-in for Plotly in component specs: jsdom cannot lay out SVG plots,
+ * and the specs check what the panel asks Plotly to do, not Plotly's drawing.
+ */
+import type { Data, Layout } from 'plotly.js-dist-min';
+import type { PlotlyApi } from '../plotly-loader';
+
+export interface PlotlyCall {
+  element: HTMLElement;
+  data: Data[];
+  layout: Partial<Layout>;
+}
+
+export interface FakePlotly {
+  api: PlotlyApi;
+  reacts: PlotlyCall[];
+  purged: HTMLElement[];
+  downloads: { element: HTMLElement; filename: string; format: string }[];
+  /** How many times the library was asked for. */
+  loads: number;
+  loader: () => Promise<PlotlyApi>;
+}
+
+export function fakePlotly(): FakePlotly {
+  const fake: FakePlotly = {
+    reacts: [],
+    purged: [],
+    downloads: [],
+    loads: 0,
+    api: {
+      react: (async (element: HTMLElement, data: Data[], layout: Partial<Layout>) => {
+        fake.reacts.push({ element, data, layout });
+        return element;
+      }) as unknown as PlotlyApi['react'],
+      purge: ((element: HTMLElement) => {
+        fake.purged.push(element);
+      }) as unknown as PlotlyApi['purge'],
+      downloadImage: (async (element: HTMLElement, opts: { filename: string; format: string }) => {
+        fake.downloads.push({ element, filename: opts.filename, format: opts.format });
+        return '';
+      }) as unknown as PlotlyApi['downloadImage'],
+      Plots: { resize: () => undefined } as unknown as PlotlyApi['Plots'],
+    },
+    loader: () => {
+      fake.loads += 1;
+      return Promise.resolve(fake.api);
+    },
+  };
+  return fake;
+}
