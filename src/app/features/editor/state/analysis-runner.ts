@@ -100,13 +100,13 @@ function toOutcome(error: unknown): Outcome {
 }
 
 function markEdit(): void {
-  if (typeof performance === 'undefined' || !performance.mark) return;
-  performance.clearMarks(EDIT_MARK);
+  if (typeof performance?.mark !== 'function') return;
+  performance.clearMarks?.(EDIT_MARK);
   performance.mark(EDIT_MARK);
 }
 
 function measureEditToRender(): void {
-  if (typeof performance === 'undefined' || !performance.measure) return;
+  if (typeof performance?.measure !== 'function') return;
   if (performance.getEntriesByName(EDIT_MARK, 'mark').length === 0) return;
   performance.measure(EDIT_TO_RENDER_MEASURE, EDIT_MARK);
 }

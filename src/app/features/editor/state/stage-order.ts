@@ -108,7 +108,8 @@ export function duplicateStage(
   const original = stages[index];
   const role = roleOf(original);
   if (role !== 'two-port') return { ok: false, reason: `A chain has only one ${role}.` };
-  const copy: StageInstance = structuredClone({ ...original, id: newId });
+  // Stages are plain JSON, so a JSON round trip is a complete deep copy.
+  const copy: StageInstance = JSON.parse(JSON.stringify({ ...original, id: newId }));
   copy.label = original.label ? `${original.label} (copy)` : '';
   return { ok: true, stages: [...stages.slice(0, index + 1), copy, ...stages.slice(index + 1)] };
 }

@@ -1,0 +1,186 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
+import type { AnalysisResult } from '../../../../../shared/engine/types';
+import { sampleDocument } from '../testing/catalogue-fixture';
+import { ANALYSIS_DEBOUNCE_MS, AnalysisRunner, EDIT_TO_RENDER_MEASURE } from './analysis-runner';
+
+describe('AnalysisRunner', () => {
+  let runner: AnalysisRunner;
+  let http: HttpTestingController;
+
+  beforeEach(() => {
+    // The page's performance timeline stays real: the runner writes marks into it.
+    jest.useFakeTimers({ doNotFake: ['performance'] });
+    TestBed.configureTestingModule({
+      providers: [provideHttpClient(), provideHttpClientTesting(), AnalysisRunner],
+    });
+    runner = TestBed.inject(AnalysisRunner);
+    http = TestBed.inject(HttpTestingController);
+  });
+
+  afterEach(() => {
+    http.verify();
+    jest.useRealTimers();
+  });
+
+  describe('debounce', () => {
+    it('should wait for a quiet spell before sending', () => {
+      runner.request(doc('a'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 1);
+      http.expectNone('/api/analysis');
+      expect(runner.pending()).toBe(true);
+      jest.advanceTimersByTime(1);
+      const req = http.expectOne('/api/analysis');
+      expect(req.request.method).toBe('POST');
+      expect(req.request.body).toEqual({ document: doc('a'), sweep: true });
+      req.flush(result(1));
+    });
+
+    it('should send only the last of several quick edits', () => {
+      runner.request(doc('a'));
+      jest.advanceTimersByTime(50);
+      runner.request(doc('b'));
+      jest.advanceTimersByTime(50);
+      runner.request(doc('c'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      const req = http.expectOne('/api/analysis');
+      expect(req.request.body.document.name).toBe('c');
+      req.flush(result(1));
+    });
+  });
+
+  describe('cancelling stale requests', () => {
+    it('should cancel the request in flight when a newer edit is sent', () => {
+      runner.request(doc('old'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      const stale = http.expectOne('/api/analysis');
+      runner.request(doc('new'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      expect(stale.cancelled).toBe(true);
+      const fresh = http.expectOne('/api/analysis');
+      expect(fresh.request.body.document.name).toBe('new');
+      fresh.flush(result(2e6));
+      expect(runner.result()?.f0Hz).toBe(2e6);
+      expect(runner.pending()).toBe(false);
+    });
+  });
+
+  describe('results and refusals', () => {
+    it('should expose the latest result as a signal', () => {
+      expect(runner.result()).toBeNull();
+      send('a').flush(result(7.1e6));
+      expect(runner.result()?.f0Hz).toBe(7.1e6);
+    });
+
+    it('should keep the last good result and show the refusal on 422', () => {
+      send('a').flush(result(1e6));
+      send('b').flush(
+        {
+          error: 'invalid-chain',
+          message: 'Stage 2 (Tank): inductance must be above 0 H',
+          details: [
+            {
+              stageId: 'tank',
+              stageIndex: 1,
+              param: 'l',
+              path: ['stages', 1, 'values', 'l'],
+              message: 'inductance must be above 0 H',
+            },
+          ],
+        },
+        { status: 422, statusText: 'Unprocessable Entity' },
+      );
+      expect(runner.result()?.f0Hz).toBe(1e6);
+      expect(runner.refusal()).toEqual({
+        message: 'Stage 2 (Tank): inductance must be above 0 H',
+        issues: [expect.objectContaining({ stageId: 'tank', param: 'l' })],
+      });
+    });
+
+    it('should clear the refusal once an edit analyses again', () => {
+      send('a').flush({ message: 'bad' }, { status: 422, statusText: 'Unprocessable Entity' });
+      expect(runner.refusal()?.message).toBe('bad');
+      send('b').flush(result(1e6));
+      expect(runner.refusal()).toBeNull();
+    });
+
+    it('should report other failures and keep running for later edits', () => {
+      send('a').flush(
+        { error: 'x', message: 'engine crashed' },
+        { status: 500, statusText: 'Error' },
+      );
+      expect(runner.failure()).toMatch(/engine crashed/i);
+      send('b').flush(result(3e6));
+      expect(runner.failure()).toBeNull();
+      expect(runner.result()?.f0Hz).toBe(3e6);
+    });
+  });
+
+  describe('edit-to-render measure', () => {
+    it('should measure from the edit to the rendered result, not before the render', () => {
+      const timeline = fakeTimeline();
+      send('a').flush(result(1e6));
+      expect(timeline.measure).not.toHaveBeenCalled();
+      TestBed.tick();
+      expect(timeline.mark).toHaveBeenCalledWith('cw-edit');
+      expect(timeline.measure).toHaveBeenCalledWith(EDIT_TO_RENDER_MEASURE, 'cw-edit');
+      timeline.restore();
+    });
+  });
+
+  // Helpers
+
+  function send(name: string) {
+    runner.request(doc(name));
+    jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+    return http.expectOne('/api/analysis');
+  }
+});
+
+/** jsdom has no performance timeline: stand in the four calls the runner makes. */
+function fakeTimeline() {
+  const marks = new Set<string>();
+  const fakes = {
+    mark: jest.fn((name: string) => void marks.add(name)),
+    clearMarks: jest.fn((name: string) => void marks.delete(name)),
+    measure: jest.fn(),
+    getEntriesByName: jest.fn((name: string) => (marks.has(name) ? [{ name }] : [])),
+  };
+  for (const [key, value] of Object.entries(fakes)) {
+    Object.defineProperty(performance, key, { value, configurable: true });
+  }
+  return {
+    ...fakes,
+    restore: () =>
+      Object.keys(fakes).forEach(
+        (key) => delete (performance as unknown as Record<string, unknown>)[key],
+      ),
+  };
+}
+
+function doc(name: string) {
+  return { ...sampleDocument(), name };
+}
+
+function result(f0Hz: number): AnalysisResult {
+  return {
+    engineVersion: 'test',
+    f0Hz,
+    nodes: [],
+    stages: [],
+    resonators: [],
+    selectivity: [],
+    levels: {
+      noiseFloorDbm: -130,
+      noiseFigureDb: 3,
+      totalGainDb: 20,
+      sensitivityDbm: -120,
+      sensitivityEmfRms: 1e-6,
+      iip3Dbm: null,
+      sfdrDb: null,
+      inputAvailableDbm: -100,
+    },
+    flags: [],
+  };
+}
