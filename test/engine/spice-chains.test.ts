@@ -35,12 +35,13 @@ const lin = (startHz: number, stopHz: number, points: number) => ({
 
 const CHAINS: ChainDocumentInput[] = [
   {
-    name: 'Whip, coupled coils, tank and detector for a 7 MHz listener',
+    name: 'Whip, coupled coils, tank, amplifier and detector for a 7 MHz listener',
     settings: { f0Hz: 7e6, sweep: lin(5e6, 9e6, 401) },
     stages: [
       stage('ant', 'short-monopole', { height: 1.5, diameter: 1.5e-3, lossR: 3 }, 'Whip'),
       stage('cpl', 'coupled-coils', { l1: 1e-6, l2: 10e-6, k: 0.3, q1: 80, q2: 150 }, 'Link coils'),
       stage('tank', 'shunt-lc-tank', { l: 10e-6, ql: 150, c: 51.7e-12, qc: 800 }, 'Tuned tank'),
+      stage('amp', 'unilateral-amplifier', { rin: 2600, cin: 25e-12, gm: 0.0385 }, 'RF amplifier'),
       stage('det', 'envelope-detector', { rLoad: 47e3, c: 4e-12 }, 'Detector'),
     ],
   },
@@ -60,12 +61,14 @@ const CHAINS: ChainDocumentInput[] = [
     ],
   },
   {
-    name: 'Pi then T matching with a series trap, into 50 Ω',
+    name: 'Pi, T, feeder, pad and a series trap, into 50 Ω',
     settings: { f0Hz: 10e6, sweep: lin(1e6, 40e6, 781) },
     stages: [
       stage('src', 'resistive-generator', { r: 1000, level: 'emf', emf: 1 }, 'High-Z source'),
       stage('pi', 'pi-match', { mode: 'design', r1: 1000, r2: 50, q: 10 }, 'Pi'),
       stage('t', 't-match', { mode: 'design', r1: 50, r2: 10, q: 3 }, 'T'),
+      stage('line', 'transmission-line', { z0: 50, length: 3, vf: 0.66 }, 'Feeder'),
+      stage('pad', 'attenuator-pad', { db: 3, z0: 50, form: 't' }, '3 dB pad'),
       stage('trap', 'series-lc', { l: 4.7e-6, ql: 60, c: 10.8e-12, qc: 900 }, 'Series trap'),
       stage('load', 'rc-load', { r: 50, c: 0 }, 'Termination'),
     ],
@@ -85,6 +88,27 @@ const CHAINS: ChainDocumentInput[] = [
       stage('tap', 'capacitive-tap', { c1: 150e-12, c2: 1.2e-9, direction: 'step-down' }, 'C tap'),
       stage('xf', 'ideal-transformer', { n: 0.25 }, 'Step-up transformer'),
       stage('ear', 'earphone-high-z', { r: 4000, c: 2e-9 }, 'Earpiece'),
+    ],
+  },
+  {
+    name: 'Two-resonator bandpass, T/R switch and a triode stage into an ADC',
+    settings: { f0Hz: 10e6, sweep: lin(7e6, 13e6, 601) },
+    stages: [
+      stage('src', 'resistive-generator', { r: 50, level: 'emf', emf: 1e-3 }, 'Antenna port'),
+      stage(
+        'sw',
+        'tr-switch',
+        { insertionLossDb: 0.6, isolationDb: 45, state: 'receive', z0: 50 },
+        'T/R',
+      ),
+      stage(
+        'bp',
+        'coupled-bandpass',
+        { coupling: 'top-c', l: 1e-6, c: 250e-12, cc: 8.2e-12 },
+        'Preselector',
+      ),
+      stage('v1', 'triode-amplifier', { gm: 0.004, rout: 12e3 }, 'Triode'),
+      stage('adc', 'adc-input', { r: 1000, c: 5e-12 }, 'ADC'),
     ],
   },
   {
@@ -186,12 +210,12 @@ describe('the netlist as an export', () => {
 
   it('should start with a title naming the chain and label every stage in a comment', () => {
     const lines = netlist.split('\n');
-    expect(lines[0]).toBe('Chainwright chain "Pi then T matching with a series trap, into 50 Ω"');
+    expect(lines[0]).toBe('Chainwright chain "Pi, T, feeder, pad and a series trap, into 50 Ω"');
     expect(netlist).toContain('* Stage 1 "High-Z source" (resistive-generator): source, drives n0');
     expect(netlist).toContain('* Stage 3 "T" (t-match): n1 -> n2');
-    expect(netlist).toContain('* Stage 5 "Termination" (rc-load): load, n3 to ground');
+    expect(netlist).toContain('* Stage 7 "Termination" (rc-load): load, n5 to ground');
     expect(lines).toContain('ac lin 781 1000000 40000000');
-    expect(lines).toContain('wrdata chain-ac.txt v(n0) v(n1) v(n2) v(n3) i(Vs0)');
+    expect(lines).toContain('wrdata chain-ac.txt v(n0) v(n1) v(n2) v(n3) v(n4) v(n5) i(Vs0)');
     expect(lines[lines.length - 2]).toBe('.end');
   });
 
@@ -209,9 +233,24 @@ describe('the netlist as an export', () => {
     );
   });
 
+  it('should refuse a mixer, naming it', () => {
+    const doc: ChainDocumentInput = {
+      ...CHAINS[1],
+      stages: [
+        ...CHAINS[1].stages.slice(0, 3),
+        stage('mix', 'mixer', {}, 'First mixer'),
+        ...CHAINS[1].stages.slice(3),
+      ],
+    };
+    expect(() => chainToSpice(doc, { catalogue })).toThrow(SpiceExportError);
+    expect(() => chainToSpice(doc, { catalogue })).toThrow(
+      /^Stage 4 "First mixer" \(mixer\) cannot be written as a SPICE netlist/,
+    );
+  });
+
   it('should refuse a probe node the chain does not have', () => {
     expect(() => chainToSpice(CHAINS[2], { catalogue, probeNodes: [0, 9] })).toThrow(
-      /probe node 9 is not a node of this chain \(0\.\.3\)/,
+      /probe node 9 is not a node of this chain \(0\.\.5\)/,
     );
   });
 
