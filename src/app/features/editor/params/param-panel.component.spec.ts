@@ -1,0 +1,193 @@
+import { provideHttpClient } from '@angular/common/http';
+import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { ComponentFixture, TestBed } from '@angular/core/testing';
+import type { ChainDto, WorkspaceRole } from '../../../../../shared/schema/api';
+import { AnalysisRunner } from '../state/analysis-runner';
+import { EditorStore } from '../state/editor.store';
+import { CATALOGUE, sampleDocument } from '../testing/catalogue-fixture';
+import { ParamPanelComponent } from './param-panel.component';
+
+describe('ParamPanelComponent', () => {
+  let fixture: ComponentFixture<ParamPanelComponent>;
+  let store: EditorStore;
+
+  describe('form generation', () => {
+    beforeEach(() => setUp('editor', 'tank'));
+
+    it('should show one field per visible parameter, with the label', async () => {
+      await fixture.whenStable();
+      expect(labels()).toEqual([
+        'Label',
+        'Inductance',
+        '± %',
+        'Capacitance',
+        'Entry',
+        'Include losses',
+      ]);
+    });
+
+    it('should show a design field only when its showWhen holds', async () => {
+      await fixture.whenStable();
+      expect(input('q')).toBeNull();
+      const select = host().querySelector<HTMLSelectElement>('select[data-param="mode"]')!;
+      select.value = 'design';
+      select.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+      expect(input('q')).not.toBeNull();
+      expect(tank().values['mode']).toBe('design');
+    });
+
+    it('should offer presets when the type has them', async () => {
+      store.select('amp');
+      await fixture.whenStable();
+      expect(buttonTexts()).toContain('Presets');
+    });
+
+    it('should not offer presets for a type without them', async () => {
+      await fixture.whenStable();
+      expect(buttonTexts()).not.toContain('Presets');
+    });
+  });
+
+  describe('typing values with units', () => {
+    beforeEach(() => setUp('editor', 'tank'));
+
+    it('should store the SI value and the typed text and show the value read', async () => {
+      await type('l', '22 uH');
+      expect(tank().values['l']).toBeCloseTo(22e-6, 15);
+      expect(tank().entered).toEqual({ l: '22 uH' });
+      expect(note('l')).toBe('');
+      expect(readBack('l')).toBe('= 22 µH');
+    });
+
+    it('should accept a component code', async () => {
+      await type('c', '4p7');
+      expect(tank().values['c']).toBeCloseTo(4.7e-12, 20);
+      expect(readBack('c')).toBe('= 4.7 pF');
+    });
+
+    it('should say what is wrong, keep the typed text and keep the old value', async () => {
+      const before = tank().values['l'];
+      await type('l', '4.7 pF');
+      expect(note('l')).toBe('expected an inductance (H), got a capacitance');
+      expect(input('l')!.value).toBe('4.7 pF');
+      expect(input('l')!.getAttribute('aria-invalid')).toBe('true');
+      expect(tank().values['l']).toBe(before);
+    });
+
+    it('should refuse a value below the schema minimum in the field unit', async () => {
+      await type('l', '0.1 nH');
+      expect(note('l')).toBe('must be at least 1 nH');
+    });
+
+    it('should set a tolerance in percent', async () => {
+      await type('l:tolerance', '5 %');
+      expect(tank().tolerances).toEqual({ l: 5 });
+    });
+
+    it('should rename the stage from the label field', async () => {
+      await fixture.whenStable();
+      const label = host().querySelector<HTMLInputElement>('#cw-stage-label')!;
+      label.value = 'Antenna tank';
+      label.dispatchEvent(new Event('input'));
+      await fixture.whenStable();
+      expect(tank().label).toBe('Antenna tank');
+    });
+
+    it('should make a run of keystrokes in one field a single undo step', async () => {
+      await type('l', '2');
+      await type('l', '22');
+      await type('l', '22 uH');
+      store.undo();
+      // The fixture's tank starts with no stored values: one undo goes all the way back.
+      expect(tank().values).toEqual({});
+      expect(tank().entered).toBeUndefined();
+    });
+  });
+
+  describe('viewers', () => {
+    beforeEach(() => setUp('viewer', 'tank'));
+
+    it('should disable every input', async () => {
+      await fixture.whenStable();
+      const controls = host().querySelectorAll<HTMLInputElement>('input, select, textarea');
+      expect(controls.length).toBeGreaterThan(3);
+      expect([...controls].every((c) => c.disabled)).toBe(true);
+    });
+  });
+
+  // Helpers
+
+  function setUp(role: WorkspaceRole, selected: string): void {
+    TestBed.configureTestingModule({
+      providers: [provideHttpClient(), provideHttpClientTesting(), EditorStore, AnalysisRunner],
+    });
+    store = TestBed.inject(EditorStore);
+    store.setCatalogue(CATALOGUE);
+    store.load(chainDto(role));
+    store.select(selected);
+    fixture = TestBed.createComponent(ParamPanelComponent);
+    fixture.componentRef.setInput('readOnly', role === 'viewer');
+  }
+
+  function host(): HTMLElement {
+    return fixture.nativeElement as HTMLElement;
+  }
+
+  function input(param: string): HTMLInputElement | null {
+    return host().querySelector<HTMLInputElement>(`input[data-param="${param}"]`);
+  }
+
+  async function type(param: string, text: string): Promise<void> {
+    await fixture.whenStable();
+    const el = input(param)!;
+    el.value = text;
+    el.dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+  }
+
+  function fieldOf(param: string): HTMLElement {
+    return input(param)!.closest('cw-quantity-field') as HTMLElement;
+  }
+
+  function note(param: string): string {
+    return fieldOf(param).querySelector('.note .cw-error-text')?.textContent?.trim() ?? '';
+  }
+
+  function readBack(param: string): string {
+    return fieldOf(param).querySelector('output')?.textContent?.trim() ?? '';
+  }
+
+  function labels(): string[] {
+    return [...host().querySelectorAll('label')].map((l) => l.textContent!.trim());
+  }
+
+  function buttonTexts(): string[] {
+    return [...host().querySelectorAll('button')].map((b) => b.textContent!.trim());
+  }
+
+  function tank() {
+    return store.doc().stages.find((s) => s.id === 'tank')!;
+  }
+});
+
+function chainDto(role: WorkspaceRole): ChainDto {
+  const document = sampleDocument();
+  return {
+    id: 'c1',
+    workspaceId: 'w1',
+    name: document.name,
+    description: '',
+    f0Hz: document.settings.f0Hz,
+    stageCount: document.stages.length,
+    flagCount: 0,
+    version: 3,
+    parentId: null,
+    createdBy: 'Ada',
+    updatedBy: 'Ada',
+    updatedAt: '2026-01-01T00:00:00Z',
+    createdAt: '2026-01-01T00:00:00Z',
+    document,
+    role,
+  };
+}
