@@ -1,0 +1,93 @@
+/** Analysis routes answer what the engine computes, and the engine's refusals as 422. */
+import { chainDocumentSchema } from '../../shared/schema/chain';
+import { loadEngine } from '../../server/analysis/engine';
+import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
+import { fixtureChain } from './support/chain-fixture';
+import { analyzeChainForTest } from './support/engine';
+import { createTestContext, type TestContext } from './support/test-db';
+
+let ctx: TestContext;
+let viewer: Client;
+let editor: Client;
+let wid: string;
+
+beforeAll(async () => {
+  ctx = await createTestContext();
+  const em = ctx.services.orm.em.fork();
+  const v = await createUser(em, 'viewer@analysis.test');
+  const e = await createUser(em, 'editor@analysis.test');
+  wid = (
+    await createWorkspace(em, 'Analysis', [
+      [v, 'viewer'],
+      [e, 'editor'],
+    ])
+  ).id;
+  viewer = await signIn(ctx.app, 'viewer@analysis.test');
+  editor = await signIn(ctx.app, 'editor@analysis.test');
+});
+afterAll(() => ctx.close());
+
+describe('analysis', () => {
+  it('should have an engine to test against', async () => {
+    expect(await loadEngine()).not.toBeNull();
+  });
+
+  it('should answer POST /api/analysis with what the engine computes', async () => {
+    const doc = chainDocumentSchema.parse(fixtureChain());
+    const expected = await analyzeChainForTest(doc);
+    const res = await send(viewer, 'post', '/api/analysis', { document: doc, sweep: false });
+    expect(res.status).toBe(200);
+    expect(res.body.flags).toEqual(expected!.flags);
+    expect(res.body.flags.length).toBeGreaterThan(0);
+    expect(res.body.nodes).toHaveLength(expected!.nodes.length);
+    expect(res.body.sweep).toBeUndefined();
+  });
+
+  it('should answer 422 with the engine issues for a stage type it does not know', async () => {
+    const doc = fixtureChain();
+    doc.stages[1] = { ...doc.stages[1], type: 'no-such-stage-type' };
+    const res = await send(viewer, 'post', '/api/analysis', { document: doc });
+    expect(res.status).toBe(422);
+    expect(res.body.error).toBe('invalid-chain');
+    expect(res.body.details).toContainEqual(
+      expect.objectContaining({ stageId: 'tank', path: ['stages', 1, 'type'] }),
+    );
+  });
+
+  it('should answer 422 from the schema before the engine sees a malformed chain', async () => {
+    const res = await send(viewer, 'post', '/api/analysis', { document: { name: 'x' } });
+    expect(res.status).toBe(422);
+    expect(res.body.error).toBe('invalid');
+    expect(res.body.details.map((d: { path: string }) => d.path)).toContain('document.settings');
+  });
+
+  it('should analyse a stored chain, with the sweep when asked', async () => {
+    const created = await send(editor, 'post', `/api/workspaces/${wid}/chains`, {
+      document: fixtureChain({
+        stages: fixtureChain().stages.map((s, i) => (i === 1 ? { ...s, type: 'x-unknown' } : s)),
+      }),
+    });
+    expect(created.status).toBe(201); // saving never depends on the engine
+    expect(created.body.flagCount).toBe(0);
+    const refused = await send(viewer, 'get', `/api/chains/${created.body.id}/analysis`);
+    expect(refused.status).toBe(422);
+
+    const good = await send(editor, 'post', `/api/workspaces/${wid}/chains`, {
+      document: fixtureChain(),
+    });
+    const expected = await analyzeChainForTest(good.body.document);
+    const res = await send(viewer, 'get', `/api/chains/${good.body.id}/analysis?sweep=1`);
+    expect(res.status).toBe(expected ? 200 : 422);
+    if (res.status === 200) expect(res.body.sweep.freqsHz).toHaveLength(201);
+  });
+
+  it('should list the catalogue with every stage type and no functions', async () => {
+    const engine = (await loadEngine())!;
+    const res = await send(viewer, 'get', '/api/catalogue');
+    expect(res.status).toBe(200);
+    expect(res.body.map((t: { type: string }) => t.type)).toEqual(
+      engine.catalogue().map((t) => t.type),
+    );
+    expect(res.body[0]).not.toHaveProperty('build');
+  });
+});
