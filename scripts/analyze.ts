@@ -1,0 +1,198 @@
+/**
+ * Command-line analysis of a chain file.
+ *
+ *   npm run analyze -- <chain.json> [--sweep] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+ *   npm run analyze -- --list-types [--json]
+ *
+ * Exit codes: 0 done; 1 wrong usage; 2 the file cannot be read or is not JSON; 3 the chain
+ * is not valid (each problem on its own line); 4 the chain cannot be exported in the asked
+ * form (a stage with no SPICE form, a frequency-translating stage in a Touchstone export).
+ */
+import { readFileSync } from 'node:fs';
+import { analyzeChain } from '../shared/engine/analyze';
+import { defaultCatalogue } from '../shared/engine/default-catalogue';
+import { ChainValidationError } from '../shared/engine/errors';
+import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
+import type { StageDefinition } from '../shared/engine/types';
+import { budgetText } from '../shared/io/budget-text';
+import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
+import { chainDocumentSchema } from '../shared/schema/chain';
+
+const USAGE = `usage: analyze <chain.json> [--sweep] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+       analyze --list-types [--json]
+
+  (no option)    the budget table at f0: nodes, stages, resonators, selectivity, levels, flags
+  --sweep        add the sweep (a table, or arrays with --json)
+  --json         the whole analysis as JSON
+  --spice        an ngspice netlist of the chain
+  --touchstone   Touchstone 1.1 S-parameters of the stages between source and load
+  --z0 <ohm>     reference resistance of the Touchstone file (default 50)
+  --list-types   the stage types with their parameters, units and defaults`;
+
+/** A failure with its exit code and the lines to print. */
+class CliError extends Error {
+  constructor(
+    readonly code: number,
+    message: string,
+  ) {
+    super(message);
+  }
+}
+
+interface Options {
+  file?: string;
+  sweep: boolean;
+  json: boolean;
+  spice: boolean;
+  touchstone: boolean;
+  listTypes: boolean;
+  z0: number;
+}
+
+function parseArgs(argv: string[]): Options {
+  const o: Options = {
+    sweep: false,
+    json: false,
+    spice: false,
+    touchstone: false,
+    listTypes: false,
+    z0: 50,
+  };
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i];
+    if (a === '--sweep') o.sweep = true;
+    else if (a === '--json') o.json = true;
+    else if (a === '--spice') o.spice = true;
+    else if (a === '--touchstone') o.touchstone = true;
+    else if (a === '--list-types') o.listTypes = true;
+    else if (a === '--z0') {
+      o.z0 = Number(argv[++i]);
+      if (!(o.z0 > 0))
+        throw new CliError(1, `--z0 needs a resistance above 0 ohm (got ${argv[i]})`);
+    } else if (a === '--help' || a === '-h') throw new CliError(0, USAGE);
+    else if (a.startsWith('-')) throw new CliError(1, `unknown option ${a}\n${USAGE}`);
+    else if (o.file) throw new CliError(1, `one chain file at a time (got ${o.file} and ${a})`);
+    else o.file = a;
+  }
+  if ([o.spice, o.touchstone, o.listTypes].filter(Boolean).length > 1) {
+    throw new CliError(1, 'choose one of --spice, --touchstone and --list-types');
+  }
+  if (!o.file && !o.listTypes) throw new CliError(1, `no chain file given\n${USAGE}`);
+  return o;
+}
+
+function readJson(file: string): unknown {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const why =
+      code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : String(e);
+    throw new CliError(2, `cannot read chain file ${file}: ${why}`);
+  }
+  try {
+    return JSON.parse(text);
+  } catch (e) {
+    const msg = (e as Error).message;
+    const pos = /position (\d+)/.exec(msg);
+    const where = pos ? ` at ${lineAndColumn(text, Number(pos[1]))}` : '';
+    throw new CliError(2, `${file} is not valid JSON${where}: ${msg}`);
+  }
+}
+
+function lineAndColumn(text: string, position: number): string {
+  const before = text.slice(0, position).split('\n');
+  return `line ${before.length}, column ${before[before.length - 1].length + 1}`;
+}
+
+/** Schema problems, one line each, naming the stage when the path is inside one. */
+function schemaIssues(raw: unknown): string[] {
+  const parsed = chainDocumentSchema.safeParse(raw);
+  if (parsed.success) return [];
+  const stages = (raw as { stages?: unknown[] } | null)?.stages;
+  return parsed.error.issues.map((issue) => {
+    const path = issue.path.map(String);
+    let who = '';
+    if (path[0] === 'stages' && path.length > 1 && Array.isArray(stages)) {
+      const s = (stages[Number(path[1])] ?? {}) as { id?: unknown; type?: unknown };
+      who = `stage ${Number(path[1]) + 1} (${String(s.id ?? '?')}, ${String(s.type ?? '?')}) `;
+    }
+    return `${formatPath(path)}: ${who}${issue.message}`;
+  });
+}
+
+function formatPath(path: (string | number)[]): string {
+  if (path.length === 0) return '(document)';
+  return path.map((p, i) => (/^\d+$/.test(String(p)) ? `[${p}]` : i === 0 ? p : `.${p}`)).join('');
+}
+
+function listTypes(catalogue: readonly StageDefinition[], json: boolean): string {
+  if (json) {
+    const info = catalogue.map(({ build: _build, ...rest }) => rest);
+    return JSON.stringify(info, null, 2);
+  }
+  return catalogue
+    .map((d) => {
+      const params = d.params.map((p) => {
+        const unit = p.unit === 'none' || p.unit === 'ratio' ? '' : ` ${p.unit}`;
+        const options = p.options ? ` (${p.options.map((o) => o.value).join(' | ')})` : '';
+        return `    ${p.key} = ${JSON.stringify(p.default)}${unit}${options}  ${p.label}`;
+      });
+      return [`${d.type}  [${d.role}, ${d.category}]  ${d.label}: ${d.summary}`, ...params].join(
+        '\n',
+      );
+    })
+    .join('\n');
+}
+
+function run(argv: string[]): string {
+  const o = parseArgs(argv);
+  const catalogue = defaultCatalogue();
+  if (o.listTypes) return listTypes(catalogue, o.json);
+  const raw = readJson(o.file!);
+  const problems = schemaIssues(raw);
+  if (problems.length > 0) {
+    throw new CliError(
+      3,
+      `${o.file}: ${problems.length} problem(s) in the chain:\n${problems.map((p) => `  ${p}`).join('\n')}`,
+    );
+  }
+  const doc = chainDocumentSchema.parse(raw);
+  try {
+    if (o.spice) return chainToSpice(doc, { catalogue }).trimEnd();
+    if (o.touchstone) return chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd();
+    const result = analyzeChain(doc, { catalogue, sweep: o.sweep });
+    return o.json ? JSON.stringify(result, null, 2) : budgetText(doc.name, result);
+  } catch (e) {
+    if (e instanceof ChainValidationError) {
+      const lines = e.issues.map((i) => `  ${formatPath(i.path)}: ${i.message}`);
+      throw new CliError(
+        3,
+        `${o.file}: ${e.issues.length} problem(s) in the chain:\n${lines.join('\n')}`,
+      );
+    }
+    if (e instanceof SpiceExportError || e instanceof TouchstoneExportError) {
+      throw new CliError(4, `${o.file}: ${e.message}`);
+    }
+    throw e;
+  }
+}
+
+function main(): void {
+  try {
+    process.stdout.write(run(process.argv.slice(2)) + '\n');
+  } catch (e) {
+    if (e instanceof CliError) {
+      (e.code === 0 ? process.stdout : process.stderr).write(e.message + '\n');
+      process.exitCode = e.code;
+      return;
+    }
+    process.stderr.write(
+      `analyze: internal error: ${e instanceof Error ? (e.stack ?? e.message) : String(e)}\n`,
+    );
+    process.exitCode = 5;
+  }
+}
+
+main();
