@@ -2,14 +2,17 @@
  * Database tasks: `node --import tsx scripts/db.ts migrate [seed]`.
  * - migrate: applies pending migrations from migrations/.
  * - seed: loads the demo accounts, workspace and example chains (idempotent).
- * Reads DATABASE_URL (and CW_EXAMPLES_DIR); scripts/start.sh and test.sh set them.
+ * Reads DATABASE_URL (and CW_EXAMPLES_DIR); scripts/start.sh and test.sh set them, and
+ * without them the URL `npm start` left in .data/dev.env is used.
  */
 import path from 'node:path';
 import { MikroORM } from '@mikro-orm/postgresql';
 import { ormOptions } from '../server/mikro-orm.config';
+import { loadDevEnv } from '../server/dev-env';
 import { seedDemo } from '../server/seed/seed-demo';
 
 async function run(tasks: string[]): Promise<void> {
+  loadDevEnv();
   const url = process.env.DATABASE_URL;
   if (!url) throw new Error('db: DATABASE_URL is not set (npm start and npm test set it)');
   const unknown = tasks.filter((t) => t !== 'migrate' && t !== 'seed');

@@ -3,11 +3,13 @@ import path from 'node:path';
 import type { SMTPServer } from 'smtp-server';
 import { createApp } from './app';
 import { configFromEnv, REPO_ROOT } from './config';
+import { loadDevEnv } from './dev-env';
 import { initServices } from './common/services';
 import { startFakeSmtp } from './mail/fake-smtp';
 
 /** Starts the fake mail catcher (when CW_SMTP_PORT is set), the ORM and the HTTP server. */
 async function main(): Promise<void> {
+  loadDevEnv();
   const config = configFromEnv();
   let smtp: SMTPServer | undefined;
   if (config.mail.kind === 'smtp') {

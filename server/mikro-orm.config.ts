@@ -27,6 +27,8 @@ export function ormOptions(clientUrl: string, overrides: Partial<Options> = {}):
       snapshotName: '.snapshot-chainwright',
       transactional: true,
       emit: 'ts',
+      // scripts/db.ts reports what it applied; the migrator's own log would repeat it.
+      silent: true,
     },
     // The session store's table is created by our migration; without this the generator
     // would try to drop it on every diff.
