@@ -26,13 +26,20 @@ const num = (key: string, def: number, extra: Partial<ParamSpec> = {}): ParamSpe
   ...extra,
 });
 
+/** Writes an ABCD matrix into 8 slots without allocating (the engine's hot path calls this). */
+// prettier-ignore
+function write(out: Float64Array, o: number, ar: number, ai: number, br: number, bi: number, cr: number, ci: number, dr: number, di: number): void {
+  out[o] = ar; out[o + 1] = ai; out[o + 2] = br; out[o + 3] = bi;
+  out[o + 4] = cr; out[o + 5] = ci; out[o + 6] = dr; out[o + 7] = di;
+}
+
 /** Series impedance section. */
 export function seriesZ(z: ComplexFn): Section {
   const t = new Float64Array(2);
   return {
     abcd(f, out, o) {
       z(f, t, 0);
-      out.set([1, 0, t[0], t[1], 0, 0, 1, 0], o);
+      write(out, o, 1, 0, t[0], t[1], 0, 0, 1, 0);
     },
   };
 }
@@ -43,7 +50,7 @@ export function shuntY(y: ComplexFn): Section {
   return {
     abcd(f, out, o) {
       y(f, t, 0);
-      out.set([1, 0, 0, 0, t[0], t[1], 1, 0], o);
+      write(out, o, 1, 0, 0, 0, t[0], t[1], 1, 0);
     },
   };
 }
@@ -60,7 +67,7 @@ export function unilateral(
     unilateral: true,
     translate,
     abcd(_f, out, o) {
-      out.set([g22 / gm, 0, 1 / gm, 0, (g11 * g22) / gm, 0, g11 / gm, 0], o);
+      write(out, o, g22 / gm, 0, 1 / gm, 0, (g11 * g22) / gm, 0, g11 / gm, 0);
     },
   };
 }

@@ -36,8 +36,8 @@ export interface NodeAnalysis {
   vIm: Float64Array;
   /** Source EMF (PEAK volts) at each input frequency. */
   emf: Float64Array;
-  /** Scratch: the ABCD of every section at the current point (8 slots each). */
-  readonly scratch: Float64Array;
+  /** The ABCD of every section at every point, 8 slots each, at offset 8·(section·points + i). */
+  abcd: Float64Array;
 }
 
 /** Allocates a workspace for `points` frequencies; pass it back to reuse the arrays. */
@@ -56,12 +56,13 @@ export function createNodeAnalysis(built: BuiltChain, points: number): NodeAnaly
     vRe: new Float64Array(size),
     vIm: new Float64Array(size),
     emf: new Float64Array(points),
-    scratch: new Float64Array(8 * Math.max(1, built.sections.length) + 2),
+    abcd: new Float64Array(8 * built.sections.length * points),
   };
 }
 
 /**
  * Runs the node analysis at every frequency of `freqs` (Hz at the chain's input).
+ * Loops run section by section over all points so memory is read in order.
  * @param ws a workspace from {@link createNodeAnalysis} with the same point count to reuse
  */
 export function runNodeAnalysis(
@@ -70,36 +71,41 @@ export function runNodeAnalysis(
   ws?: NodeAnalysis,
 ): NodeAnalysis {
   const P = freqs.length;
-  const na = ws && ws.points === P && ws.nodes === built.sections.length + 1
-    ? ws
-    : createNodeAnalysis(built, P); // prettier-ignore
-  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm, vRe, vIm, emf, scratch: m } = na;
+  const N = built.sections.length;
+  const na = ws && ws.points === P && ws.nodes === N + 1 ? ws : createNodeAnalysis(built, P);
+  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm, vRe, vIm, emf, abcd: m } = na;
   const sections = built.sections;
-  const N = sections.length;
-  const zl = built.load.model.impedance!;
-  const zs = built.source.model.impedance!;
-  const es = built.source.model.emf!;
-  const zo = 8 * N; // two scratch slots after the matrices
+  const t = new Float64Array(2);
 
+  // Frequencies at every node and every section's ABCD at the frequency at its input.
   for (let i = 0; i < P; i++) {
-    const f = freqs[i];
-    na.freqs[i] = f;
-    fNode[i] = f;
-    for (let j = 0; j < N; j++) {
-      const fj = fNode[j * P + i];
-      const s = sections[j];
-      s.abcd(fj, m, 8 * j);
-      fNode[(j + 1) * P + i] = s.translate ? s.translate(fj) : fj;
+    na.freqs[i] = freqs[i];
+    fNode[i] = freqs[i];
+  }
+  for (let j = 0; j < N; j++) {
+    const s = sections[j];
+    const tr = s.translate;
+    const base = j * P;
+    for (let i = 0; i < P; i++) {
+      const fj = fNode[base + i];
+      s.abcd(fj, m, 8 * (base + i));
+      fNode[base + P + i] = tr ? tr(fj) : fj;
     }
+  }
 
-    // Backward pass, load → source.
-    zl(fNode[N * P + i], m, zo);
-    let zr = m[zo];
-    let zi = m[zo + 1];
-    zinRe[N * P + i] = zr;
-    zinIm[N * P + i] = zi;
-    for (let j = N - 1; j >= 0; j--) {
-      const o = 8 * j;
+  // Backward pass, load → source.
+  const zl = built.load.model.impedance!;
+  for (let i = 0; i < P; i++) {
+    zl(fNode[N * P + i], t, 0);
+    zinRe[N * P + i] = t[0];
+    zinIm[N * P + i] = t[1];
+  }
+  for (let j = N - 1; j >= 0; j--) {
+    const out = j * P;
+    for (let i = 0; i < P; i++) {
+      const o = 8 * (out + i);
+      const zr = zinRe[out + P + i];
+      const zi = zinIm[out + P + i];
       let nr: number, ni: number, dr: number, di: number; // prettier-ignore
       if (Number.isFinite(zr) && Number.isFinite(zi)) {
         nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
@@ -114,26 +120,49 @@ export function runNodeAnalysis(
       }
       const d2 = dr * dr + di * di;
       if (d2 === 0) {
-        zr = Infinity;
-        zi = 0;
+        zinRe[out + i] = Infinity;
+        zinIm[out + i] = 0;
       } else {
-        zr = (nr * dr + ni * di) / d2;
-        zi = (ni * dr - nr * di) / d2;
+        zinRe[out + i] = (nr * dr + ni * di) / d2;
+        zinIm[out + i] = (ni * dr - nr * di) / d2;
       }
-      zinRe[j * P + i] = zr;
-      zinIm[j * P + i] = zi;
     }
+  }
 
-    // Forward pass, source → load.
-    zs(f, m, zo);
-    let sr = m[zo];
-    let si = m[zo + 1];
-    const zsr = sr;
-    const zsi = si;
+  // Forward pass, source → load, and the voltage at the source terminal.
+  const zs = built.source.model.impedance!;
+  const es = built.source.model.emf!;
+  for (let i = 0; i < P; i++) {
+    zs(freqs[i], t, 0);
+    const sr = t[0];
+    const si = t[1];
     zsrcRe[i] = sr;
     zsrcIm[i] = si;
-    for (let j = 0; j < N; j++) {
-      const o = 8 * j;
+    const e = es(freqs[i]);
+    emf[i] = e;
+    const z0r = zinRe[i];
+    const z0i = zinIm[i];
+    if (!Number.isFinite(z0r) || !Number.isFinite(z0i)) {
+      vRe[i] = e;
+      vIm[i] = 0;
+    } else if (!Number.isFinite(sr) || !Number.isFinite(si)) {
+      vRe[i] = 0;
+      vIm[i] = 0;
+    } else {
+      // V0 = e·Zin/(Zs + Zin)
+      const dr = sr + z0r;
+      const di = si + z0i;
+      const d2 = dr * dr + di * di;
+      vRe[i] = (e * (z0r * dr + z0i * di)) / d2;
+      vIm[i] = (e * (z0i * dr - z0r * di)) / d2;
+    }
+  }
+  for (let j = 0; j < N; j++) {
+    const at = j * P;
+    for (let i = 0; i < P; i++) {
+      const o = 8 * (at + i);
+      const sr = zsrcRe[at + i];
+      const si = zsrcIm[at + i];
       let nr: number, ni: number, dr: number, di: number; // prettier-ignore
       if (Number.isFinite(sr) && Number.isFinite(si)) {
         nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
@@ -147,68 +176,37 @@ export function runNodeAnalysis(
         di = m[o + 5];
       }
       const d2 = dr * dr + di * di;
+      const k = at + P + i;
       if (d2 === 0) {
-        sr = Infinity;
-        si = 0;
+        zsrcRe[k] = Infinity;
+        zsrcIm[k] = 0;
       } else {
-        sr = (nr * dr + ni * di) / d2;
-        si = (ni * dr - nr * di) / d2;
+        zsrcRe[k] = (nr * dr + ni * di) / d2;
+        zsrcIm[k] = (ni * dr - nr * di) / d2;
       }
-      zsrcRe[(j + 1) * P + i] = sr;
-      zsrcIm[(j + 1) * P + i] = si;
-    }
 
-    // Node voltages, PEAK phasors.
-    const e = es(f);
-    emf[i] = e;
-    let vr: number, vi: number; // prettier-ignore
-    const z0r = zinRe[i];
-    const z0i = zinIm[i];
-    if (!Number.isFinite(z0r) || !Number.isFinite(z0i)) {
-      vr = e;
-      vi = 0;
-    } else if (!Number.isFinite(zsr) || !Number.isFinite(zsi)) {
-      vr = 0;
-      vi = 0;
-    } else {
-      // V0 = e·Zin/(Zs + Zin)
-      const dr = zsr + z0r;
-      const di = zsi + z0i;
-      const d2 = dr * dr + di * di;
-      vr = (e * (z0r * dr + z0i * di)) / d2;
-      vi = (e * (z0i * dr - z0r * di)) / d2;
-    }
-    vRe[i] = vr;
-    vIm[i] = vi;
-    for (let j = 0; j < N; j++) {
-      const o = 8 * j;
-      const k = (j + 1) * P + i;
+      // V[j+1] = V[j]/(A + B·Y) with Y = 1/Zin[j+1] (0 when open, a short gives 0 V)
       const ar = zinRe[k];
       const ai = zinIm[k];
-      // den = A + B·Y with Y = 1/Zin[j+1] (0 when open)
-      let dr = m[o];
-      let di = m[o + 1];
+      const vr = vRe[at + i];
+      const vi = vIm[at + i];
+      let er = m[o];
+      let ei = m[o + 1];
       if (Number.isFinite(ar) && Number.isFinite(ai)) {
         const a2 = ar * ar + ai * ai;
-        if (a2 === 0) {
-          vr = 0; // a short: no voltage from here on
-          vi = 0;
+        if (a2 === 0 || (vr === 0 && vi === 0)) {
           vRe[k] = 0;
           vIm[k] = 0;
           continue;
         }
         const yr = ar / a2;
         const yi = -ai / a2;
-        dr += m[o + 2] * yr - m[o + 3] * yi;
-        di += m[o + 2] * yi + m[o + 3] * yr;
+        er += m[o + 2] * yr - m[o + 3] * yi;
+        ei += m[o + 2] * yi + m[o + 3] * yr;
       }
-      const d2 = dr * dr + di * di;
-      const nr = (vr * dr + vi * di) / d2;
-      const ni = (vi * dr - vr * di) / d2;
-      vr = nr;
-      vi = ni;
-      vRe[k] = vr;
-      vIm[k] = vi;
+      const e2 = er * er + ei * ei;
+      vRe[k] = (vr * er + vi * ei) / e2;
+      vIm[k] = (vi * er - vr * ei) / e2;
     }
   }
   return na;
