@@ -122,7 +122,6 @@ export const SHORT_MONOPOLE: StageDefinition = {
   summary:
     'A vertical wire much shorter than a quarter wave: small radiation resistance, a few pF.',
   params: MONOPOLE_PARAMS,
-  cautions: ['rf-exposure'],
   build(values) {
     const p = readParams(MONOPOLE_PARAMS, values);
     const ant = shortMonopole(p.num('height'), p.num('diameter'));
@@ -170,7 +169,6 @@ export const MEASURED_ANTENNA: StageDefinition = {
   label: 'Measured antenna',
   summary: 'An antenna described by its measured impedance, interpolated between the points.',
   params: MEASURED_ANTENNA_PARAMS,
-  cautions: ['rf-exposure'],
   build(values, ctx) {
     const p = readParams(MEASURED_ANTENNA_PARAMS, values);
     const table: SampleTable = ctx.dataFile
