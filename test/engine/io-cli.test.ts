@@ -4,7 +4,7 @@
  * one runs the TypeScript source through tsx, as `npm run analyze` does.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { bundleCli } from '../../scripts/bench/bundle-cli';
@@ -16,9 +16,14 @@ const FIXTURE = (name: string) => join(ROOT, 'test', 'fixtures', 'chains', name)
 let dir: string;
 let bundle: string;
 
+let broken: string;
+
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'cw-cli-'));
   bundle = bundleCli(join(dir, 'analyze.js'));
+  // Written here rather than kept as a fixture, so formatters never see invalid JSON.
+  broken = join(dir, 'broken.json');
+  writeFileSync(broken, '{\n  "name": "broken",\n  "settings": { "f0Hz": 7e6, }\n}\n');
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -119,7 +124,7 @@ describe('analyze CLI', () => {
   });
 
   it('should exit 2 with the line and column of bad JSON', () => {
-    const { code, err } = cli(FIXTURE('broken.json'));
+    const { code, err } = cli(broken);
     expect(code).toBe(2);
     expect(err).toMatch(/broken\.json is not valid JSON at line 3, column 30/);
   });
@@ -145,7 +150,7 @@ describe('analyze CLI', () => {
 
   it('should exit 1 on wrong usage', () => {
     expect(cli().code).toBe(1);
-    expect(cli(FIXTURE('broken.json'), '--bogus').err).toMatch(/unknown option --bogus/);
+    expect(cli(broken, '--bogus').err).toMatch(/unknown option --bogus/);
     expect(cli(FIXTURE('listener-7mhz.json'), '--spice', '--touchstone').code).toBe(1);
     expect(cli(FIXTURE('listener-7mhz.json'), '--touchstone', '--z0', '-3').err).toMatch(
       /--z0 needs a resistance above 0/,
