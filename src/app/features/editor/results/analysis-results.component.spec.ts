@@ -61,7 +61,7 @@ describe('AnalysisResultsComponent', () => {
           `${e.querySelector('.node-title')?.textContent} · ${e.querySelector('.node-after')?.textContent}`,
       );
       expect(headers).toEqual([
-        'Node 0 · Source',
+        'Node 0 · Antenna',
         'Node 1 · Preselector',
         'Node 2 · LNA',
         'Node 3 · Mixer',
@@ -105,7 +105,7 @@ describe('AnalysisResultsComponent', () => {
       buttonNamed('Copy as CSV').click();
       await fixture.whenStable();
       expect(copy).toHaveBeenCalledTimes(1);
-      expect(copy.mock.calls[0][0]).toMatch(/^Quantity,Unit,Node 0 \(Source\),/);
+      expect(copy.mock.calls[0][0]).toMatch(/^Quantity,Unit,Node 0 \(Antenna\),/);
       expect(text('.notice')).toBe('Budget copied as CSV.');
     });
 

@@ -34,7 +34,7 @@ describe('budget-csv', () => {
 
     it('should head the columns with the nodes and what precedes them', () => {
       expect(lines[0]).toBe(
-        'Quantity,Unit,Node 0 (Source),Node 1 (Preselector),Node 2 (LNA),Node 3 (Mixer),Node 4 (IF filter)',
+        'Quantity,Unit,Node 0 (Antenna),Node 1 (Preselector),Node 2 (LNA),Node 3 (Mixer),Node 4 (IF filter)',
       );
     });
 

@@ -11,7 +11,7 @@ describe('budget-rows', () => {
       const columns = budgetColumns(result, document);
       expect(columns.map((c) => c.id)).toEqual(['n0', 'n1', 'n2', 'n3', 'n4']);
       expect(columns.map((c) => c.after)).toEqual([
-        'Source',
+        'Antenna',
         'Preselector',
         'LNA',
         'Mixer',

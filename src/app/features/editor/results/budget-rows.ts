@@ -9,6 +9,7 @@ import type { AnalysisResult, NodeReport, StageReport } from '../../../../../sha
 import {
   NO_VALUE,
   decibels,
+  degrees,
   engineering,
   impedancePolar,
   impedanceRect,
@@ -21,7 +22,7 @@ export interface BudgetColumn {
   id: string;
   node: number;
   title: string;
-  /** Label of the stage that ends at this node ("Source" at node 0). */
+  /** Label of the stage that ends at this node (the source's label at node 0). */
   after: string;
   /** Stage whose output is this node (the source for node 0), for selection. */
   stageId: string | null;
@@ -143,7 +144,7 @@ const VOLTAGE: RowSpec[] = [
     key: 'v-peak',
     label: 'Node voltage',
     note: 'peak (engine phasor)',
-    display: (p) => `${engineering(p.node.vPeak, 'volt')} pk ∠${p.node.phaseDeg.toFixed(1)}°`,
+    display: (p) => `${engineering(p.node.vPeak, 'volt')} pk ∠${degrees(p.node.phaseDeg)}`,
     csv: [
       { label: 'Node voltage, peak', unit: 'V', value: (p) => p.node.vPeak },
       { label: 'Node voltage, phase', unit: 'deg', value: (p) => p.node.phaseDeg },
@@ -328,7 +329,7 @@ export function budgetColumns(result: AnalysisResult, document: ChainDocument): 
       id: `n${node.index}`,
       node: node.index,
       title: `Node ${node.index}`,
-      after: node.index === 0 ? 'Source' : (stage?.label ?? node.after),
+      after: stage?.label ?? node.after,
       stageId,
       frequencyHz: stage?.fOutHz ?? result.f0Hz,
     };

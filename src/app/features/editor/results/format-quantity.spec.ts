@@ -1,6 +1,7 @@
 import {
   NO_VALUE,
   decibels,
+  degrees,
   engineering,
   impedancePolar,
   impedanceRect,
@@ -56,6 +57,13 @@ describe('format-quantity', () => {
     });
   });
 
+  describe('degrees', () => {
+    it('should not print a negative zero angle', () => {
+      expect(degrees(-0.01)).toBe('0.0°');
+      expect(degrees(-28.46)).toBe('-28.5°');
+    });
+  });
+
   describe('impedance', () => {
     it('should write the rectangular form with the sign of the reactance', () => {
       expect(impedanceRect({ re: 50, im: 12 })).toBe('50 Ω + j12 Ω');
@@ -65,6 +73,7 @@ describe('format-quantity', () => {
     it('should write the polar form with magnitude and angle', () => {
       expect(impedancePolar({ re: 3, im: 4 })).toBe('5 Ω ∠53.1°');
       expect(impedancePolar({ re: 0, im: -100 })).toBe('100 Ω ∠-90.0°');
+      expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10 MΩ ∠0.0°');
     });
 
     it('should show a dash when a part is missing', () => {

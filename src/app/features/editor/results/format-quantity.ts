@@ -60,6 +60,13 @@ export function percent(fraction: number | null | undefined, decimals = 0): stri
   return `${(fraction * 100).toFixed(decimals)} %`;
 }
 
+/** An angle in degrees with one decimal, never "-0.0°". */
+export function degrees(value: number, decimals = 1): string {
+  if (Number.isNaN(value)) return NO_VALUE;
+  const text = value.toFixed(decimals);
+  return `${Number(text) === 0 ? (0).toFixed(decimals) : text}°`;
+}
+
 /** A complex impedance in rectangular form, e.g. "2.4 kΩ + j150 Ω". */
 export function impedanceRect(z: { re: number; im: number }, digits = 3): string {
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
@@ -72,5 +79,5 @@ export function impedancePolar(z: { re: number; im: number }, digits = 3): strin
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
   const magnitude = Math.hypot(z.re, z.im);
   const angle = (Math.atan2(z.im, z.re) * 180) / Math.PI;
-  return `${engineering(magnitude, 'ohm', digits)} ∠${angle.toFixed(1)}°`;
+  return `${engineering(magnitude, 'ohm', digits)} ∠${degrees(angle)}`;
 }

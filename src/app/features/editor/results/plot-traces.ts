@@ -248,6 +248,8 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
         range: [-95, 95],
         dtick: 45,
         showgrid: false,
+        // A phase zero line would read as a gridline of the |Z| scale.
+        zeroline: false,
       },
       shapes: markers.shapes,
       annotations: markers.annotations,

@@ -51,7 +51,7 @@ const PLOT_CONFIG: Partial<Config> = {
         </p>
       }
       <figcaption class="caption">
-        <span class="cw-muted">{{ label() }}</span>
+        <span class="cw-muted">{{ hint() }}</span>
         <button
           mat-stroked-button
           type="button"
@@ -91,8 +91,10 @@ const PLOT_CONFIG: Partial<Config> = {
 export class ResultPlotComponent {
   /** Traces and layout to show; a new object redraws through `Plotly.react`. */
   readonly figure = input.required<PlotFigure>();
-  /** Accessible name of the plot, also shown as its caption. */
+  /** Accessible name of the plot (the figure's own title is drawn inside the plot). */
   readonly label = input.required<string>();
+  /** How to read the plot, shown under it. */
+  readonly hint = input('');
   /** PNG file name without extension. */
   readonly fileName = input.required<string>();
 

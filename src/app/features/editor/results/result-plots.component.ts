@@ -48,16 +48,19 @@ import { ResultPlotComponent } from './result-plot.component';
         <cw-result-plot
           [figure]="stepUp"
           label="Voltage step-up versus frequency"
+          hint="◇ marks each node's −3 dB points. Step-up is |V| relative to the source EMF."
           [fileName]="fileStem() + '-step-up'"
         />
         <cw-result-plot
           [figure]="shown.impedance"
           label="Input impedance, magnitude and phase"
+          hint="The impedance the source sees: |Z| on the left scale, phase on the right."
           [fileName]="fileStem() + '-input-impedance'"
         />
         <cw-result-plot
           [figure]="shown.returnLoss"
           label="Return loss at the input"
+          hint="Against the conjugate of the source impedance; the dotted line is the chain's match target."
           [fileName]="fileStem() + '-return-loss'"
         />
       </div>

@@ -112,7 +112,7 @@ export function sampleResult(): AnalysisResult {
     engineVersion: 'test',
     f0Hz: SAMPLE_F0,
     nodes: [
-      node(0, 'Source', { zIn: { re: 48.2, im: -3.1 }, stepUpDb: -6.2, stepUp: 0.49 }),
+      node(0, 'Antenna', { zIn: { re: 48.2, im: -3.1 }, stepUpDb: -6.2, stepUp: 0.49 }),
       node(1, 'Preselector', {
         zIn: { re: 2400, im: 150 },
         zSrc: { re: 2150, im: -80 },
