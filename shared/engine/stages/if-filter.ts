@@ -79,6 +79,45 @@ export const IF_FILTER: StageDefinition = {
   label: 'IF filter block',
   summary: 'A packaged IF filter from its data sheet: centre, bandwidth, loss and rejection.',
   params: PARAMS,
+  // Typical data-sheet figures of the trade (common practice, rounded; not a given part).
+  presets: [
+    {
+      key: 'ceramic-455k',
+      label: '455 kHz ceramic, 6 kHz wide (typical)',
+      values: {
+        centreHz: 455e3,
+        bandwidthHz: 6e3,
+        insertionLossDb: 6,
+        ultimateRejectionDb: 40,
+        order: 4,
+        z0: 1500,
+      },
+    },
+    {
+      key: 'ceramic-10m7',
+      label: '10.7 MHz ceramic, 280 kHz wide (typical)',
+      values: {
+        centreHz: 10.7e6,
+        bandwidthHz: 280e3,
+        insertionLossDb: 6,
+        ultimateRejectionDb: 40,
+        order: 3,
+        z0: 330,
+      },
+    },
+    {
+      key: 'crystal-10m7',
+      label: '10.7 MHz crystal, 15 kHz wide (typical)',
+      values: {
+        centreHz: 10.7e6,
+        bandwidthHz: 15e3,
+        insertionLossDb: 3,
+        ultimateRejectionDb: 80,
+        order: 8,
+        z0: 910,
+      },
+    },
+  ],
   build(values) {
     const p = readParams(PARAMS, values);
     const order = p.num('order');

@@ -81,13 +81,19 @@ export const ADC_INPUT = rcLoad(
  * High-impedance earphone. Typical values (common practice, not a measured part): a
  * magnetic "2000 Ω" earphone or a crystal earpiece is several kΩ with 1–10 nF.
  */
-export const EARPHONE_HIGH_Z = rcLoad(
-  'earphone-high-z',
-  'High-impedance earphone',
-  'A magnetic or crystal earpiece: several kilohms with some capacitance.',
-  4000,
-  2e-9,
-);
+export const EARPHONE_HIGH_Z: StageDefinition = {
+  ...rcLoad(
+    'earphone-high-z',
+    'High-impedance earphone',
+    'A magnetic or crystal earpiece: several kilohms with some capacitance.',
+    4000,
+    2e-9,
+  ),
+  presets: [
+    { key: 'magnetic', label: 'Magnetic, "2000 Ω" class (typical)', values: { r: 4000, c: 2e-9 } },
+    { key: 'crystal', label: 'Crystal (piezo) earpiece (typical)', values: { r: 1e6, c: 10e-9 } },
+  ],
+};
 
 const DETECTOR_PARAMS = [
   numParam('rLoad', 'Detector load resistance', 'ohm', 10e3, {

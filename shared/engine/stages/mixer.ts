@@ -87,6 +87,19 @@ export const MIXER: StageDefinition = {
   label: 'Mixer',
   summary: 'Moves the signal to the IF with the local oscillator; the image comes along too.',
   params: PARAMS,
+  // Typical figures of the trade (common practice, from memory; not a given part).
+  presets: [
+    {
+      key: 'diode-ring',
+      label: 'Diode ring, passive (typical)',
+      values: { conversionGainDb: -6, nfDb: 6.5, iip3Dbm: 15, p1dbDbm: 1, rin: 50, rout: 50 },
+    },
+    {
+      key: 'gilbert-cell',
+      label: 'Gilbert-cell, active (typical)',
+      values: { conversionGainDb: 14, nfDb: 5, iip3Dbm: -13, p1dbDbm: -20, rin: 1500, rout: 1500 },
+    },
+  ],
   build(values, ctx) {
     const p = readParams(PARAMS, values);
     const lo = mixerLoFrequency(ctx.f0Hz, {
