@@ -16,6 +16,11 @@
  */
 import type { BuiltChain } from './build';
 
+// Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
+// hot loop is slow.
+const finite = Number.isFinite;
+const OPEN = Number.POSITIVE_INFINITY;
+
 /** Results of a node analysis. Arrays are `nodes × points`, index `node·points + i`. */
 export interface NodeAnalysis {
   points: number;
@@ -107,7 +112,7 @@ export function runNodeAnalysis(
       const zr = zinRe[out + P + i];
       const zi = zinIm[out + P + i];
       let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-      if (Number.isFinite(zr) && Number.isFinite(zi)) {
+      if (finite(zr) && finite(zi)) {
         nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
         ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
         dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
@@ -120,7 +125,7 @@ export function runNodeAnalysis(
       }
       const d2 = dr * dr + di * di;
       if (d2 === 0) {
-        zinRe[out + i] = Infinity;
+        zinRe[out + i] = OPEN;
         zinIm[out + i] = 0;
       } else {
         zinRe[out + i] = (nr * dr + ni * di) / d2;
@@ -142,10 +147,10 @@ export function runNodeAnalysis(
     emf[i] = e;
     const z0r = zinRe[i];
     const z0i = zinIm[i];
-    if (!Number.isFinite(z0r) || !Number.isFinite(z0i)) {
+    if (!finite(z0r) || !finite(z0i)) {
       vRe[i] = e;
       vIm[i] = 0;
-    } else if (!Number.isFinite(sr) || !Number.isFinite(si)) {
+    } else if (!finite(sr) || !finite(si)) {
       vRe[i] = 0;
       vIm[i] = 0;
     } else {
@@ -164,7 +169,7 @@ export function runNodeAnalysis(
       const sr = zsrcRe[at + i];
       const si = zsrcIm[at + i];
       let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-      if (Number.isFinite(sr) && Number.isFinite(si)) {
+      if (finite(sr) && finite(si)) {
         nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
         ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
         dr = m[o + 4] * sr - m[o + 5] * si + m[o];
@@ -178,7 +183,7 @@ export function runNodeAnalysis(
       const d2 = dr * dr + di * di;
       const k = at + P + i;
       if (d2 === 0) {
-        zsrcRe[k] = Infinity;
+        zsrcRe[k] = OPEN;
         zsrcIm[k] = 0;
       } else {
         zsrcRe[k] = (nr * dr + ni * di) / d2;
@@ -192,7 +197,7 @@ export function runNodeAnalysis(
       const vi = vIm[at + i];
       let er = m[o];
       let ei = m[o + 1];
-      if (Number.isFinite(ar) && Number.isFinite(ai)) {
+      if (finite(ar) && finite(ai)) {
         const a2 = ar * ar + ai * ai;
         if (a2 === 0 || (vr === 0 && vi === 0)) {
           vRe[k] = 0;
