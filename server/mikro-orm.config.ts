@@ -2,6 +2,7 @@ import path from 'node:path';
 import { defineConfig, type Options } from '@mikro-orm/postgresql';
 import { Migrator } from '@mikro-orm/migrations';
 import { ENTITIES } from './common/entities';
+import { loadDevEnv } from './dev-env';
 
 /** Table of the session store (connect-pg-simple); created by a migration, not by entities. */
 export const SESSION_TABLE = 'user_session';
@@ -12,7 +13,11 @@ const repoRoot = path.resolve(__dirname, '..');
  * ORM options for a database URL. Also the config file the MikroORM CLI loads
  * (`npm run db:migration:create`), which reads DATABASE_URL.
  */
-export function ormOptions(clientUrl: string, overrides: Partial<Options> = {}): Options {
+export function ormOptions(
+  clientUrl: string,
+  overrides: Partial<Options> = {},
+  { forCli = false }: { forCli?: boolean } = {},
+): Options {
   return defineConfig({
     clientUrl,
     entities: ENTITIES,
@@ -29,6 +34,10 @@ export function ormOptions(clientUrl: string, overrides: Partial<Options> = {}):
       emit: 'ts',
       // scripts/db.ts reports what it applied; the migrator's own log would repeat it.
       silent: true,
+      // The committed snapshot is the generator's baseline. Applying migrations would
+      // rewrite it from the live database (session table and all), so only the CLI, which
+      // generates migrations, may write it.
+      snapshot: forCli,
     },
     // The session store's table is created by our migration; without this the generator
     // would try to drop it on every diff.
@@ -39,6 +48,10 @@ export function ormOptions(clientUrl: string, overrides: Partial<Options> = {}):
   });
 }
 
+// The CLI (npm run db:migration:create) reads the URL npm start left in .data/dev.env.
+loadDevEnv();
 export default ormOptions(
   process.env.DATABASE_URL ?? 'postgresql://postgres@127.0.0.1:54330/chainwright',
+  {},
+  { forCli: true },
 );
