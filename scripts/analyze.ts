@@ -16,7 +16,7 @@ import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
 import type { StageDefinition } from '../shared/engine/types';
 import { budgetText } from '../shared/io/budget-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
-import { chainDocumentSchema } from '../shared/schema/chain';
+import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, chainDocumentSchema } from '../shared/schema/chain';
 
 const USAGE = `usage: analyze <chain.json> [--sweep] [--json] [--spice] [--touchstone [--z0 <ohm>]]
        analyze --list-types [--json]
@@ -108,6 +108,19 @@ function lineAndColumn(text: string, position: number): string {
 
 /** Schema problems, one line each, naming the stage when the path is inside one. */
 function schemaIssues(raw: unknown): string[] {
+  const head = (raw ?? {}) as { format?: unknown; formatVersion?: unknown };
+  // Name what was found, so an old reader facing a newer file says so plainly.
+  if (head.format !== undefined && head.format !== CHAIN_FORMAT) {
+    return [
+      `format: this is not a chain file (format ${JSON.stringify(head.format)}; expected "${CHAIN_FORMAT}")`,
+    ];
+  }
+  if (head.formatVersion !== undefined && head.formatVersion !== CHAIN_FORMAT_VERSION) {
+    return [
+      `formatVersion: ${JSON.stringify(head.formatVersion)} is not a version this program reads ` +
+        `(it reads ${CHAIN_FORMAT_VERSION}); use a program that knows that version or convert the file`,
+    ];
+  }
   const parsed = chainDocumentSchema.safeParse(raw);
   if (parsed.success) return [];
   const stages = (raw as { stages?: unknown[] } | null)?.stages;

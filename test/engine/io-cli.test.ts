@@ -4,7 +4,7 @@
  * one runs the TypeScript source through tsx, as `npm run analyze` does.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { bundleCli } from '../../scripts/bench/bundle-cli';
@@ -140,6 +140,15 @@ describe('analyze CLI', () => {
     expect(lines[2]).toMatch(
       /^ {2}stages\[1\]\.values\.l: Stage 2 .*\(shunt-lc-tank\): inductance must be a number/,
     );
+  });
+
+  it('should exit 3 naming an unknown formatVersion', () => {
+    const file = join(dir, 'future.json');
+    const doc = JSON.parse(readFileSync(FIXTURE('listener-7mhz.json'), 'utf8')) as object;
+    writeFileSync(file, JSON.stringify({ ...doc, formatVersion: 2 }));
+    const { code, err } = cli(file);
+    expect(code).toBe(3);
+    expect(err).toMatch(/formatVersion: 2 is not a version this program reads \(it reads 1\)/);
   });
 
   it('should exit 4 naming the stage SPICE cannot express', () => {
