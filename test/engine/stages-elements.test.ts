@@ -250,6 +250,10 @@ describe('sources', () => {
       },
     );
     expect(impedanceAt(m, 1e6).re).toBeCloseTo(150, 10);
+    const twoPort = { ports: 2 as const, points: [{ f: 1e6, z0: 50, s11: c(0) }] };
+    expect(() =>
+      def('measured-antenna').build({}, { f0Hz: 1e6, temperatureK: 290, dataFile: twoPort }),
+    ).toThrow(/one-port data file/);
     const z = impedanceAt(m, 2e6);
     expect(z.re).toBeCloseTo(30, 10);
     expect(z.im).toBeCloseTo(40, 10);

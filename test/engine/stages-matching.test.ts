@@ -134,6 +134,24 @@ describe('designed matching stages present R1 at f0', () => {
     expect(m.resonators?.[0]).toMatchObject({ kind: 'shunt', node: 1 });
   });
 
+  it('absorbs a parasitic at port 2 in the pi and the tapped-C designs', () => {
+    const w = 2 * Math.PI * 10e6;
+    const load = parallel(c(50), div(c(1), c(0, w * 100e-12)));
+    for (const [type, r1, q] of [
+      ['pi-match', 1000, 10],
+      ['tapped-c-match', 5000, 10],
+    ] as const) {
+      const m = build(
+        def(type),
+        { mode: 'design', r1, r2: 50, q, f0: 10e6, parasiticC: 100e-12, ...lossless },
+        10e6,
+      );
+      const z = zIn(stageAbcd(m, 10e6), load);
+      expect(rel(z.re, r1)).toBeLessThan(1e-9);
+      expect(Math.abs(z.im)).toBeLessThan(1e-6 * r1);
+    }
+  });
+
   it('values mode builds the same network as the design it was given', () => {
     const design = build(
       def('pi-match'),

@@ -86,6 +86,12 @@ export function interpolate(table: SampleTable, freq: number, out: Float64Array,
 
 /** One-port impedance table (R, X) from a parsed measurement: Z = z0·(1 + S11)/(1 − S11). */
 export function impedanceTableFromNetwork(net: MeasuredNetwork): SampleTable {
+  if (net.ports !== 1) {
+    throw new StageParameterError(
+      undefined,
+      'a measured antenna needs a one-port data file (.s1p)',
+    );
+  }
   const n = net.points.length;
   if (n === 0) throw new StageParameterError(undefined, 'the attached data file has no points');
   const f = new Float64Array(n);
