@@ -78,6 +78,14 @@ describe('analyzeChain on a superheterodyne front end', () => {
     expect(res.selectivity[4].imageHz).toBeCloseTo(1.91e6, 3);
   });
 
+  it('finds the IF tank through a high-side LO, where the IF falls as the input rises', () => {
+    // A narrow RF sweep leaves the image out, so only the signal-side crossing is in range.
+    const narrow = { ...doc, settings: { ...doc.settings, sweep: { startHz: 0.95e6, stopHz: 1.05e6, points: 201, scale: 'lin' as const } } }; // prettier-ignore
+    const ifTank = analyzeChain(narrow, opts).resonators[1];
+    expect(Math.abs((ifTank.resonanceHz as number) / 455e3 - 1)).toBeLessThan(1e-3);
+    expect(ifTank.loadedQ).toBeCloseTo(res.resonators[1].loadedQ as number, 6);
+  });
+
   it('keeps stage and cumulative figures consistent', () => {
     let sum = 0;
     res.stages.forEach((s) => {

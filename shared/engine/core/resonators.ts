@@ -48,18 +48,22 @@ export function searchRange(built: BuiltChain): [number, number] {
 
 /**
  * Index k of the rising zero crossing (v[k] < 0 ≤ v[k+1]) whose interpolated frequency is
- * nearest `target`, or −1 when there is none.
+ * nearest `target`, or −1 when there is none. With `local` (the node's own frequency at each
+ * point, which falls as the input rises behind a mixer whose LO is above the signal), "rising"
+ * means rising with the local frequency.
  */
 export function nearestRisingCrossing(
   f: ArrayLike<number>,
   v: ArrayLike<number>,
   target: number,
+  local?: ArrayLike<number>,
 ): number {
   let best = -1;
   let bestDist = Infinity;
   for (let k = 0; k + 1 < f.length; k++) {
-    const a = v[k];
-    const b = v[k + 1];
+    const s = orientation(local, k);
+    const a = s * v[k];
+    const b = s * v[k + 1];
     if (!(a < 0 && b >= 0) || !Number.isFinite(a) || !Number.isFinite(b)) continue;
     const fc = f[k] + ((f[k + 1] - f[k]) * -a) / (b - a);
     const d = Math.abs(Math.log(fc / target));
@@ -69,6 +73,11 @@ export function nearestRisingCrossing(
     }
   }
   return best;
+}
+
+/** +1 when the local frequency rises from point k to k+1 (or none is given), else −1. */
+function orientation(local: ArrayLike<number> | undefined, k: number): number {
+  return !local || local[k + 1] >= local[k] ? 1 : -1;
 }
 
 /** Refines a bracketed rising zero of `g` on [lo, hi] by bisection to machine precision. */
@@ -101,19 +110,22 @@ function resonate(
 ): Resonance | null {
   const out = new Float64Array(3);
   const im = new Float64Array(grid.length);
+  const local = new Float64Array(grid.length);
   for (let i = 0; i < grid.length; i++) {
     extract(gridNa, i, out);
     im[i] = out[1];
+    local[i] = out[2];
   }
-  const k = nearestRisingCrossing(grid, im, target);
+  const k = nearestRisingCrossing(grid, im, target, local);
   if (k < 0) return null;
+  const sign = orientation(local, k);
   const one = createNodeAnalysis(built, 1);
   const f1 = new Float64Array(1);
   const probe = (f: number) => {
     f1[0] = f;
     runNodeAnalysis(built, f1, one);
     extract(one, 0, out);
-    return out[1];
+    return sign * out[1];
   };
   const fIn = bisectRising(probe, grid[k], grid[k + 1]);
   probe(fIn);
