@@ -140,9 +140,14 @@ export const SHORT_MONOPOLE: StageDefinition = {
           const mid = w.node();
           w.capacitor(e, mid, c);
           const k = (40 * Math.PI ** 2 * p.num('height') ** 2) / SPEED_OF_LIGHT ** 2;
-          w.raw(
-            `${w.name('R')} ${mid} ${outNode} r={${spiceNum(k)}*hertz*hertz+${spiceNum(lossR)}}`,
-          );
+          // With no loss resistance the operating point (hertz = 0) would see 0 Ω in series
+          // with C and no DC path; the 1e-12 Ω floor keeps it regular and is below the
+          // radiation resistance at any frequency of interest.
+          const r =
+            lossR > 0
+              ? `${spiceNum(k)}*hertz*hertz+${spiceNum(lossR)}`
+              : `max(${spiceNum(k)}*hertz*hertz,1e-12)`;
+          w.raw(`${w.name('R')} ${mid} ${outNode} r={${r}}`);
         }),
     };
   },
