@@ -76,6 +76,11 @@ describe('format-quantity', () => {
       expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10 MΩ ∠0.0°');
     });
 
+    it('should show cascade rounding left in a part as zero', () => {
+      expect(impedanceRect({ re: 1500, im: 8.3e-16 })).toBe('1.5 kΩ + j0 Ω');
+      expect(impedanceRect({ re: 0.1, im: 3e-9 })).toBe('100 mΩ + j3 nΩ');
+    });
+
     it('should show a dash when a part is missing', () => {
       expect(impedanceRect({ re: Number.NaN, im: 1 })).toBe(NO_VALUE);
     });

@@ -70,8 +70,13 @@ export function degrees(value: number, decimals = 1): string {
 /** A complex impedance in rectangular form, e.g. "2.4 kΩ + j150 Ω". */
 export function impedanceRect(z: { re: number; im: number }, digits = 3): string {
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
-  const sign = z.im < 0 ? '-' : '+';
-  return `${engineering(z.re, 'ohm', digits)} ${sign} j${engineering(Math.abs(z.im), 'ohm', digits)}`;
+  // A part a billion times smaller than the whole is rounding left over from the cascade
+  // (e.g. "1.5 kΩ + j0.83 fΩ"); show it as the zero it is.
+  const floor = Math.hypot(z.re, z.im) * 1e-9;
+  const re = Math.abs(z.re) < floor ? 0 : z.re;
+  const im = Math.abs(z.im) < floor ? 0 : z.im;
+  const sign = im < 0 ? '-' : '+';
+  return `${engineering(re, 'ohm', digits)} ${sign} j${engineering(Math.abs(im), 'ohm', digits)}`;
 }
 
 /** A complex impedance in polar form, e.g. "51.4 Ω ∠13.5°". */

@@ -89,6 +89,12 @@ describe('plot-traces', () => {
       expect((far.layout.shapes as Shape[]).map((s) => s.x0)).toEqual([SAMPLE_F0]);
     });
 
+    it('should place the marker labels in log10 units on a log axis', () => {
+      const log = stepUpFigure({ ...context(), scale: 'log' }, [1]);
+      expect((log.layout.shapes as Shape[])[0].x0).toBe(SAMPLE_F0);
+      expect(log.layout.annotations?.[0].x).toBeCloseTo(7, 12);
+    });
+
     it('should follow the sweep scale on the frequency axis', () => {
       expect(figure.layout.xaxis?.type).toBe('linear');
       expect(stepUpFigure({ ...context(), scale: 'log' }, [1]).layout.xaxis?.type).toBe('log');

@@ -139,7 +139,8 @@ function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotations: Ann
         ({
           xref: 'x',
           yref: 'paper',
-          x: m.hz,
+          // Unlike shapes, annotations on a log axis are placed in log10 units.
+          x: ctx.scale === 'log' ? Math.log10(m.hz) : m.hz,
           y: 1,
           yanchor: 'bottom',
           text: `${m.label} ${engineering(m.hz, 'hertz', 4)}`,
