@@ -32,7 +32,7 @@ export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {
   const findings = analyzeResonators(built);
   const image = imageFrequency(built, findMixer(built));
   const selectivity = analyzeSelectivity(built, sweepNa, image);
-  const flags = raiseFlags({ built, f0Na, resonators: findings, stages });
+  const flags = raiseFlags({ built, f0Na, resonators: findings });
   const resonators = findings.map(
     ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, ...report }) => report,
   );

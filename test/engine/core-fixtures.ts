@@ -264,7 +264,28 @@ export const T_MATCH: StageDefinition = {
   }),
 };
 
+/** A detector or converter input as the chain's load: resistance, working level, noise figure. */
+export const T_DETECTOR_LOAD: StageDefinition = {
+  type: 't-detector-load',
+  category: 'load',
+  role: 'load',
+  label: 'Detector load',
+  summary: 'Resistive load that needs a minimum drive.',
+  params: [
+    num('r', 50, { min: 0, exclusiveMin: true, label: 'Input resistance' }),
+    num('vmin', 0.1, { unit: 'volt', min: 0, label: 'Working level' }),
+    num('nf', 0, { unit: 'db', min: 0, label: 'Noise figure (0 = none)' }),
+  ],
+  build: (v) => ({
+    sections: [],
+    impedance: (_f, out, o) => ((out[o] = n(v, 'r')), (out[o + 1] = 0)),
+    detector: { minInputPeakV: n(v, 'vmin') },
+    ...(n(v, 'nf') > 0 ? { noise: { kind: 'figure' as const, nfDb: n(v, 'nf') } } : {}),
+  }),
+};
+
 export const TEST_CATALOGUE: StageDefinition[] = [
+  T_DETECTOR_LOAD,
   T_SOURCE,
   T_LOAD,
   T_SERIES,

@@ -108,4 +108,11 @@ describe('stage flags', () => {
     const ok = run([{ type: 't-source', values: { emf: 1 } }, det, { type: 't-load', values: { mode: 'open' } }], { f0Hz: 1e6 }); // prettier-ignore
     expect(only(ok.flags, 'detector-underdriven')).toEqual([]);
   });
+
+  it('detector-underdriven also for a detector that is the last stage (a load)', () => {
+    const res = run([{ type: 't-source', values: { emf: 0.02 } }, { type: 't-detector-load', label: 'Diode', values: { vmin: 0.1 } }], { f0Hz: 1e6 }); // prettier-ignore
+    const [flag] = only(res.flags, 'detector-underdriven');
+    expect(flag.stageId).toBe('s1');
+    expect(flag.message).toMatch(/^"Diode" gets 10 mV peak/);
+  });
 });

@@ -128,4 +128,13 @@ describe('noise and linearity through a built chain', () => {
     near(res.stages[1].inputLevelDbm, -53.0103, 1e-4);
     near(res.levels.sensitivityEmfRms, emfForAvailableDbm(floor + 10, 50) / Math.SQRT2, 1e-15);
   });
+
+  it('a load with its own noise figure ends the cascade', () => {
+    const base = [{ type: 't-source' }, { type: 't-amp', values: { rin: 50, rout: 50, gm: 0.2, nf: 2 } }]; // prettier-ignore
+    const quiet = analyzeChain(chain([...base, { type: 't-detector-load', values: { nf: 0 } }], { f0Hz: 1e6 }), { catalogue: TEST_CATALOGUE, sweep: false }); // prettier-ignore
+    const noisy = analyzeChain(chain([...base, { type: 't-detector-load', values: { nf: 20 } }], { f0Hz: 1e6 }), { catalogue: TEST_CATALOGUE, sweep: false }); // prettier-ignore
+    near(quiet.levels.noiseFigureDb, 2, 1e-9);
+    const g = noisy.levels.totalGainDb;
+    near(noisy.levels.noiseFigureDb, cascadeNoiseFigure([g, 0], [2, 20])[1], 1e-9);
+  });
 });

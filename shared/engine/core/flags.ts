@@ -2,11 +2,11 @@
  * Flags: what a designer should look at, each with the stage, a severity and one sentence
  * with the numbers behind it. Thresholds come from the chain's settings.
  */
-import type { Caution, Flag, StageReport } from '../types';
+import type { Caution, Flag } from '../types';
 import type { BuiltChain } from './build';
 import { formatNumber as num, formatQuantity, hz } from './format';
 import type { NodeAnalysis } from './nodes';
-import { returnLossDb, vMag } from './quantities';
+import { availablePower, dbm, returnLossDb, vMag } from './quantities';
 import { searchRange, type ResonatorFinding } from './resonators';
 
 /** The usual caution wording for each hazard a stage definition declares. */
@@ -24,7 +24,6 @@ export interface FlagInputs {
   /** Node analysis at f0 (one point). */
   f0Na: NodeAnalysis;
   resonators: readonly ResonatorFinding[];
-  stages: readonly StageReport[];
 }
 
 function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
@@ -77,13 +76,13 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
 }
 
 /** Every flag of the chain, in chain order within each kind. */
-export function raiseFlags({ built, f0Na, resonators, stages }: FlagInputs): Flag[] {
+export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
   const t = built.settings.thresholds;
   const flags: Flag[] = [];
   for (const r of resonators) flags.push(...tankFlags(built, r));
-  built.twoPorts.forEach((stage, k) => {
+  // Loads take part too: a detector or converter input is often the chain's last stage.
+  for (const stage of [...built.twoPorts, built.load]) {
     const m = stage.model;
-    const report = stages[k];
     const name = `"${stage.label}"`;
     if (m.designedMatch) {
       const rl = returnLossDb(f0Na, stage.firstSection, 0);
@@ -98,8 +97,8 @@ export function raiseFlags({ built, f0Na, resonators, stages }: FlagInputs): Fla
       }
     }
     const p1 = m.linearity?.p1dbDbm;
-    if (p1 !== undefined && report && report.inputLevelDbm > p1 - t.compressionBackoffDb) {
-      const level = report.inputLevelDbm;
+    const level = dbm(availablePower(f0Na, stage.firstSection, 0));
+    if (p1 !== undefined && level > p1 - t.compressionBackoffDb) {
       flags.push({
         code: 'compression',
         severity: level > p1 ? 'error' : 'warning',
@@ -129,7 +128,7 @@ export function raiseFlags({ built, f0Na, resonators, stages }: FlagInputs): Fla
         data: { requiredQ: m.qBudget.required, componentQ: m.qBudget.componentQ },
       });
     }
-  });
+  }
   for (const stage of [built.source, ...built.twoPorts, built.load]) {
     for (const c of stage.definition.cautions ?? []) {
       flags.push({

@@ -111,7 +111,18 @@ export function levelsReport(
 ): LevelsReport {
   const { temperatureK, channelBandwidthHz, requiredSnrDb } = built.settings;
   const last = stages[stages.length - 1];
-  const nf = last ? last.cumulativeNoiseFigureDb : 0;
+  let nf = last ? last.cumulativeNoiseFigureDb : 0;
+  // A load that declares its own noise (a converter or receiver input) ends the cascade.
+  const loadNoise = built.load.model.noise;
+  if (loadNoise && loadNoise.kind !== 'passive') {
+    const j = built.sections.length * na.points;
+    const zr = na.zsrcRe[j];
+    const zi = na.zsrcIm[j];
+    const d = zr * zr + zi * zi;
+    const fl = stageNoiseFactor(loadNoise, 1, zr / d, -zi / d);
+    const g = last ? Math.pow(10, last.cumulativeGainDb / 10) : 1;
+    nf = db10(Math.pow(10, nf / 10) + (fl - 1) / g);
+  }
   const floor = noiseFloorDbm(temperatureK, channelBandwidthHz, nf);
   const sens = sensitivityDbm(floor, requiredSnrDb);
   const iip3 = last ? last.cumulativeIip3Dbm : null;
