@@ -4,6 +4,7 @@
 import {
   SERIES_MANTISSAS,
   seriesValues,
+  snapComponentValues,
   snapToSeries,
   wheelerInductance,
   wheelerTurns,
@@ -62,6 +63,20 @@ describe('IEC 60063 series', () => {
     expect(() => snapToSeries(0, 'E12')).toThrow(/positive/);
     expect(() => snapToSeries(-5, 'E12')).toThrow(RangeError);
     expect(seriesValues('E6', 0, 1)).toEqual([1, 1.5, 2.2, 3.3, 4.7, 6.8, 10, 15, 22, 33, 47, 68]);
+  });
+});
+
+describe('snapComponentValues', () => {
+  it('snaps the listed parts of a design and says how far each moved (LN-1 parts, E12)', () => {
+    const { values, changePercent } = snapComponentValues(
+      { l: 41.92e-6, c: 558.9e-12, r1: 75 },
+      ['l', 'c'],
+      'E12',
+    );
+    expect(values).toEqual({ l: 39e-6, c: 560e-12, r1: 75 });
+    expect(changePercent.l).toBeCloseTo(((39 - 41.92) / 41.92) * 100, 9);
+    expect(changePercent.c).toBeCloseTo(((560 - 558.9) / 558.9) * 100, 9);
+    expect(() => snapComponentValues({}, ['l'], 'E6')).toThrow(/no value "l"/);
   });
 });
 

@@ -74,3 +74,26 @@ export function seriesValues(
   }
   return out;
 }
+
+/**
+ * Snaps the chosen component values of a stage (e.g. a design's L and C) to a series and
+ * reports how far each moved, so the caller can rebuild the stage and show the response
+ * with real parts. Keys not listed are copied unchanged.
+ */
+export function snapComponentValues(
+  values: Record<string, number>,
+  keys: readonly string[],
+  series: PreferredSeries,
+): { values: Record<string, number>; changePercent: Record<string, number> } {
+  const out = { ...values };
+  const changePercent: Record<string, number> = {};
+  for (const key of keys) {
+    const v = values[key];
+    if (v === undefined) {
+      throw new RangeError(`snapComponentValues: no value "${key}" to snap`);
+    }
+    out[key] = snapToSeries(v, series);
+    changePercent[key] = ((out[key] - v) / v) * 100;
+  }
+  return { values: out, changePercent };
+}
