@@ -7,6 +7,7 @@ import {
   measuredTwoPort,
   mixerLoFrequency,
   shortMonopole,
+  sToAbcd,
 } from '../../shared/engine/stages';
 import type { StageDefinition } from '../../shared/engine/types';
 import {
@@ -310,6 +311,41 @@ describe('filters', () => {
     expect(() => build(def('measured-two-port'), { table: '1e6 0 0 0 0 0 0 0 0' }, 1e6)).toThrow(
       /S21 is 0/,
     );
+  });
+
+  it('S → ABCD inverts the textbook ABCD → S conversion, reciprocal or not (Pozar, Table 4.2; from memory)', () => {
+    const z0 = 75;
+    const cases = [
+      { a: c(1), b: c(25), c: c(0), d: c(1) }, // series 25 Ω
+      { a: c(0.2, 0.1), b: c(-3, 40), c: c(0.001, -0.02), d: c(1.5, -0.3) }, // arbitrary, non-reciprocal
+    ];
+    for (const m of cases) {
+      const bz = div(m.b, c(z0));
+      const cz = { re: m.c.re * z0, im: m.c.im * z0 };
+      const delta = { re: m.a.re + bz.re + cz.re + m.d.re, im: m.a.im + bz.im + cz.im + m.d.im };
+      const adbc = {
+        re: m.a.re * m.d.re - m.a.im * m.d.im - (m.b.re * m.c.re - m.b.im * m.c.im),
+        im: m.a.re * m.d.im + m.a.im * m.d.re - (m.b.re * m.c.im + m.b.im * m.c.re),
+      };
+      const s11 = div(
+        { re: m.a.re + bz.re - cz.re - m.d.re, im: m.a.im + bz.im - cz.im - m.d.im },
+        delta,
+      );
+      const s21 = div(c(2), delta);
+      const s12 = div({ re: 2 * adbc.re, im: 2 * adbc.im }, delta);
+      const s22 = div(
+        { re: -m.a.re + bz.re - cz.re + m.d.re, im: -m.a.im + bz.im - cz.im + m.d.im },
+        delta,
+      );
+      const s = Float64Array.from([s11.re, s11.im, s21.re, s21.im, s12.re, s12.im, s22.re, s22.im]);
+      const out = new Float64Array(8);
+      sToAbcd(s, 0, z0, out, 0);
+      const back = fromSlots(out);
+      for (const k of ['a', 'b', 'c', 'd'] as const) {
+        expect(back[k].re).toBeCloseTo(m[k].re, 9);
+        expect(back[k].im).toBeCloseTo(m[k].im, 9);
+      }
+    }
   });
 
   it('shunt LC tank declares its resonator at node 1, resonating at 1/(2π√LC)', () => {

@@ -21,20 +21,17 @@ export function sToAbcd(
   out: Float64Array,
   o: number,
 ): void {
-  const [s11r, s11i, s21r, s21i, s12r, s12i, s22r, s22i] = [
-    s[so],
-    s[so + 1],
-    s[so + 2],
-    s[so + 3],
-    s[so + 4],
-    s[so + 5],
-    s[so + 6],
-    s[so + 7],
-  ];
-  const p = out; // scratch in the output slots, overwritten below in order
-  cmul(s12r, s12i, s21r, s21i, p, o); // S12·S21
-  const xr = p[o];
-  const xi = p[o + 1];
+  const s11r = s[so];
+  const s11i = s[so + 1];
+  const s21r = s[so + 2];
+  const s21i = s[so + 3];
+  const s12r = s[so + 4];
+  const s12i = s[so + 5];
+  const s22r = s[so + 6];
+  const s22i = s[so + 7];
+  // x = S12·S21, computed before `out` is written (s and out may be the same array).
+  const xr = s12r * s21r - s12i * s21i;
+  const xi = s12r * s21i + s12i * s21r;
   const tr = 2 * s21r;
   const ti = 2 * s21i;
   cmul(1 + s11r, s11i, 1 - s22r, -s22i, out, o);
