@@ -20,16 +20,17 @@
  * `TouchstoneError` naming the file and line and saying what to change.
  */
 import { normalisedToS, sStride, type NetworkData } from './network-data';
+import { readKeyword, readOptionLine } from './touchstone-header';
+import {
+  fail,
+  portsFromName,
+  TouchstoneError,
+  type Format,
+  type NoisePoint,
+  type ParseState,
+} from './touchstone-state';
 
-/** One point of two-port noise parameters as the file gives them. */
-export interface NoisePoint {
-  fHz: number;
-  nfMinDb: number;
-  /** Optimum source reflection coefficient (against the file's reference). */
-  gammaOpt: { re: number; im: number };
-  /** Equivalent noise resistance, ohm (de-normalised). */
-  rnOhm: number;
-}
+export { TouchstoneError, type NoisePoint } from './touchstone-state';
 
 /** A parsed Touchstone file in canonical form. */
 export interface TouchstoneFile extends NetworkData {
@@ -44,56 +45,10 @@ export interface TouchstoneFile extends NetworkData {
   comments: string[];
 }
 
-/** A Touchstone file that cannot be read as written. */
-export class TouchstoneError extends Error {
-  constructor(
-    readonly fileName: string,
-    readonly line: number | undefined,
-    detail: string,
-  ) {
-    super(`${fileName}${line === undefined ? '' : `, line ${line}`}: ${detail}`);
-    this.name = 'TouchstoneError';
-  }
-}
-
 export interface ReadTouchstoneOptions {
   /** Port count when the file name does not say (`.s1p`/`.s2p`) and the file has no keyword. */
   ports?: 1 | 2;
 }
-
-type Format = 'DB' | 'MA' | 'RI';
-type Section = 'header' | 'network' | 'noise' | 'information' | 'end';
-
-/** Everything the reader knows part-way through a file. */
-interface ParseState {
-  readonly fileName: string;
-  lineNo: number;
-  version: string;
-  ports: 1 | 2 | undefined;
-  optionLineSeen: boolean;
-  freqScale: number;
-  parameter: 'S' | 'Y' | 'Z';
-  format: Format;
-  reference: number;
-  /** Whether two-port columns come N11 N21 N12 N22 (1.x and `21_12`). */
-  order21First: boolean;
-  /** Whether `[Two-Port Data Order]` was given (2.x two-ports must give it). */
-  orderGiven: boolean;
-  section: Section;
-  expectedFrequencies: number | undefined;
-  /** Numbers of a v2 point that continues on the next line, and where it started. */
-  pending: number[];
-  pendingLine: number;
-  freqs: number[];
-  values: number[];
-  noise: NoisePoint[];
-  comments: string[];
-}
-
-const UNIT_SCALE: Record<string, number> = { HZ: 1, KHZ: 1e3, MHZ: 1e6, GHZ: 1e9 };
-const OPTION_HELP =
-  'the option line takes a frequency unit (Hz, kHz, MHz, GHz), a parameter (S, Y, Z), ' +
-  'a format (DB, MA, RI) and R followed by the reference resistance, e.g. "# MHz S DB R 50"';
 
 /**
  * Reads the text of a one- or two-port Touchstone file.
@@ -135,22 +90,6 @@ export function readTouchstone(
   return finish(state);
 }
 
-function portsFromName(fileName: string): 1 | 2 | undefined {
-  const m = /\.s([0-9]+)p$/i.exec(fileName);
-  if (!m) return undefined;
-  const n = Number(m[1]);
-  if (n === 1 || n === 2) return n;
-  throw new TouchstoneError(
-    fileName,
-    undefined,
-    `a ${n}-port file; only 1- and 2-port files are read`,
-  );
-}
-
-function fail(state: ParseState, detail: string, line: number = state.lineNo): never {
-  throw new TouchstoneError(state.fileName, line, detail);
-}
-
 function readLine(state: ParseState, raw: string): void {
   const bang = raw.indexOf('!');
   if (bang >= 0) state.comments.push(raw.slice(bang + 1).trim());
@@ -163,116 +102,6 @@ function readLine(state: ParseState, raw: string): void {
   if (line.startsWith('[')) return readKeyword(state, line);
   if (line.startsWith('#')) return readOptionLine(state, line);
   readDataLine(state, line);
-}
-
-function readKeyword(state: ParseState, line: string): void {
-  const m = /^\[([^\]]+)\]\s*(.*)$/.exec(line);
-  if (!m) fail(state, `"${line}" opens a keyword but has no closing "]"`);
-  const keyword = m[1].trim().toLowerCase().replace(/\s+/g, ' ');
-  const arg = m[2].trim();
-  if (state.pending.length > 0) {
-    fail(state, 'the previous frequency point is incomplete', state.pendingLine);
-  }
-  switch (keyword) {
-    case 'version':
-      if (!/^2\.[0-9]+$/.test(arg)) fail(state, `[Version] ${arg} is not read; use 2.0 or 2.1`);
-      state.version = arg;
-      return;
-    case 'number of ports': {
-      const n = Number(arg);
-      if (n !== 1 && n !== 2) fail(state, `[Number of Ports] ${arg}: only 1 and 2 ports are read`);
-      if (state.ports !== undefined && state.ports !== n && portsFromName(state.fileName)) {
-        fail(state, `[Number of Ports] ${n} disagrees with the file name; rename the file`);
-      }
-      state.ports = n;
-      return;
-    }
-    case 'two-port data order':
-      state.orderGiven = true;
-      if (arg === '21_12') state.order21First = true;
-      else if (arg === '12_21') state.order21First = false;
-      else fail(state, `[Two-Port Data Order] must be 12_21 or 21_12, not "${arg}"`);
-      return;
-    case 'number of frequencies': {
-      const n = Number(arg);
-      if (!Number.isInteger(n) || n < 1)
-        fail(state, `[Number of Frequencies] needs a count above 0`);
-      state.expectedFrequencies = n;
-      return;
-    }
-    case 'reference':
-      return readReference(state, arg);
-    case 'matrix format':
-      if (arg.toLowerCase() !== 'full') {
-        fail(state, `[Matrix Format] ${arg} is not read; write the full matrix`);
-      }
-      return;
-    case 'network data':
-      if (state.ports === 2 && !state.orderGiven) {
-        fail(
-          state,
-          'a 2.x two-port file needs [Two-Port Data Order] 12_21 or 21_12 before the data',
-        );
-      }
-      state.section = 'network';
-      return;
-    case 'noise data':
-    case 'number of noise frequencies':
-      if (keyword === 'noise data') state.section = 'noise';
-      return;
-    case 'begin information':
-      state.section = 'information';
-      return;
-    case 'end':
-      state.section = 'end';
-      return;
-    default:
-      fail(state, `[${m[1]}] is not a keyword this reader knows (mixed-mode data is not read)`);
-  }
-}
-
-function readReference(state: ParseState, arg: string): void {
-  const values = arg.split(/\s+/).filter(Boolean).map(Number);
-  if (values.length === 0 || values.some((v) => !(v > 0))) {
-    fail(state, '[Reference] needs positive resistances on the same line');
-  }
-  if (values.some((v) => v !== values[0])) {
-    fail(state, '[Reference] gives ports different resistances; renormalise to one reference');
-  }
-  state.reference = values[0];
-}
-
-function readOptionLine(state: ParseState, line: string): void {
-  // 1.1: "Additional option lines after the first are ignored."
-  if (state.optionLineSeen) return;
-  if (state.freqs.length > 0) fail(state, 'the option line must come before the data');
-  state.optionLineSeen = true;
-  const tokens = line.slice(1).trim().split(/\s+/).filter(Boolean);
-  for (let i = 0; i < tokens.length; i++) {
-    const t = tokens[i].toUpperCase();
-    if (t in UNIT_SCALE) state.freqScale = UNIT_SCALE[t];
-    else if (t === 'S' || t === 'Y' || t === 'Z') state.parameter = t;
-    else if (t === 'DB' || t === 'MA' || t === 'RI') state.format = t;
-    else if (t === 'R') {
-      const r = Number(tokens[i + 1]);
-      if (!(r > 0)) fail(state, `R must be followed by a resistance above 0 ohm; ${OPTION_HELP}`);
-      state.reference = r;
-      i++;
-      // 1.1 per-port syntax "R 50 50": accept extra equal values, refuse different ones.
-      while (i + 1 < tokens.length && isNumber(tokens[i + 1])) {
-        if (Number(tokens[i + 1]) !== r) {
-          fail(state, 'the option line gives ports different references; use one R');
-        }
-        i++;
-      }
-    } else if (t === 'H' || t === 'G') {
-      fail(state, `${t}-parameters are not read; export S-parameters instead`);
-    } else fail(state, `"${tokens[i]}" is not an option; ${OPTION_HELP}`);
-  }
-}
-
-function isNumber(token: string): boolean {
-  return token.trim() !== '' && Number.isFinite(Number(token));
 }
 
 function readDataLine(state: ParseState, line: string): void {
