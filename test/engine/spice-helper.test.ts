@@ -5,7 +5,7 @@
  * the test.
  */
 import { parseWrdata } from '../../shared/engine/spice/output';
-import { acControl, runAc, vectorAt } from './helpers/ngspice';
+import { acControl, INSTALL_HINT, runAc, runNgspice, vectorAt } from './helpers/ngspice';
 
 const TWO_PI = 2 * Math.PI;
 
@@ -143,6 +143,18 @@ describe('ngspice helper on published and closed-form cases', () => {
     expect(Math.abs(flo - 9.8029e6) / 9.8029e6).toBeLessThan(2e-3);
     expect(Math.abs(fhi - 10.2011e6) / 10.2011e6).toBeLessThan(2e-3);
     expect(Math.abs(table.freqsHz[iPeak] / (fhi - flo) - 25.11) / 25.11).toBeLessThan(1e-3);
+  });
+
+  it('should say how to install ngspice when it is missing', () => {
+    const run = () => runNgspice('title\n.end\n', [], { command: 'ngspice-absent-for-this-test' });
+    expect(run).toThrow(`ngspice was not found on PATH: ${INSTALL_HINT}`);
+    expect(INSTALL_HINT).toBe("install Debian's ngspice: apt-get install -y ngspice");
+  });
+
+  it('should show ngspice messages and the netlist when no table is written', () => {
+    expect(() => runNgspice('broken\nR1 a\n.end\n', ['ac.txt'])).toThrow(
+      /ngspice wrote no ac\.txt[\s\S]*--- netlist ---\nbroken/,
+    );
   });
 
   it('should refuse a table that is not a wrdata AC table, saying why', () => {

@@ -36,13 +36,13 @@ export interface NgspiceRun {
 export function runNgspice(
   netlist: string,
   outputFiles: string[],
-  options: { timeoutMs?: number } = {},
+  options: { timeoutMs?: number; command?: string } = {},
 ): NgspiceRun {
   const dir = mkdtempSync(join(tmpdir(), 'cw-spice-'));
   try {
     writeFileSync(join(dir, 'circuit.cir'), netlist);
     const started = process.hrtime.bigint();
-    const proc = spawnSync('ngspice', ['-b', 'circuit.cir'], {
+    const proc = spawnSync(options.command ?? 'ngspice', ['-b', 'circuit.cir'], {
       cwd: dir,
       encoding: 'utf8',
       timeout: options.timeoutMs ?? 60_000,
