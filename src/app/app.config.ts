@@ -46,7 +46,11 @@ export const appConfig: ApplicationConfig = {
     provideAppIcons(),
     {
       provide: MAT_FORM_FIELD_DEFAULT_OPTIONS,
-      useValue: { appearance: 'outline' } satisfies MatFormFieldDefaultOptions,
+      // Required fields are the rule in this app; optional ones say so in their label.
+      useValue: {
+        appearance: 'outline',
+        hideRequiredMarker: true,
+      } satisfies MatFormFieldDefaultOptions,
     },
     {
       provide: MAT_SNACK_BAR_DEFAULT_OPTIONS,

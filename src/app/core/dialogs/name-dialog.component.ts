@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -25,12 +25,12 @@ export interface NameDialogData {
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <form (ngSubmit)="submit()">
+    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <h2 mat-dialog-title>{{ data.title }}</h2>
       <mat-dialog-content>
         <mat-form-field appearance="outline" class="cw-full">
           <mat-label>{{ data.label }}</mat-label>
-          <input matInput [formControl]="name" cdkFocusInitial [maxlength]="data.maxLength" />
+          <input matInput formControlName="name" cdkFocusInitial [maxlength]="data.maxLength" />
           @if (name.hasError('required') || name.hasError('blank')) {
             <mat-error>Enter a name.</mat-error>
           }
@@ -55,6 +55,9 @@ export class NameDialogComponent {
     nonNullable: true,
     validators: [Validators.required, (c) => (String(c.value).trim() ? null : { blank: true })],
   });
+
+  // A form group, not a bare control, so that (ngSubmit) fires.
+  protected readonly form = new FormGroup({ name: this.name });
 
   protected submit(): void {
     this.name.markAsTouched();

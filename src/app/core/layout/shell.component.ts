@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDividerModule } from '@angular/material/divider';
 import { MatIconModule } from '@angular/material/icon';
@@ -7,8 +8,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatToolbarModule } from '@angular/material/toolbar';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { Router, RouterLink, RouterOutlet } from '@angular/router';
-import { firstValueFrom } from 'rxjs';
+import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
+import { filter, firstValueFrom, map } from 'rxjs';
 import { AuthApi } from '../api/auth.api';
 import { LoadingTracker } from '../http/loading.interceptor';
 import { SessionStore } from '../session/session.store';
@@ -41,6 +42,16 @@ export class ShellComponent {
   private readonly auth = inject(AuthApi);
   private readonly router = inject(Router);
   private readonly workspaces = inject(WorkspaceActions);
+
+  private readonly url = toSignal(
+    this.router.events.pipe(
+      filter((event) => event instanceof NavigationEnd),
+      map((event) => event.urlAfterRedirects),
+    ),
+    { initialValue: this.router.url },
+  );
+  /** On the sign-in and registration pages the toolbar needs no "Sign in" link. */
+  protected readonly onAuthPage = computed(() => /^\/(sign-in|register)\b/.test(this.url()));
 
   protected readonly homeLink = computed(() => {
     const id = this.session.homeWorkspaceId();

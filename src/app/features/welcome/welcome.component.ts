@@ -1,5 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -20,10 +20,10 @@ import { SessionStore } from '../../core/session/session.store';
         Chains live in workspaces, which you share with colleagues. Create one for yourself or your
         team, or ask a workspace owner to add you to theirs.
       </p>
-      <form (ngSubmit)="create()" class="cw-stack" novalidate>
+      <form [formGroup]="form" (ngSubmit)="create()" class="cw-stack" novalidate>
         <mat-form-field>
           <mat-label>Workspace name</mat-label>
-          <input matInput [formControl]="name" maxlength="120" />
+          <input matInput formControlName="name" maxlength="120" />
           <mat-error>{{ message(name) }}</mat-error>
         </mat-form-field>
         <div>
@@ -40,6 +40,8 @@ export default class WelcomeComponent {
     nonNullable: true,
     validators: [zodValidator(workspaceNameSchema.shape.name)],
   });
+  // A form group, not a bare control, so that (ngSubmit) fires.
+  protected readonly form = new FormGroup({ name: this.name });
   protected readonly busy = signal(false);
   protected readonly message = controlMessage;
 

@@ -1,0 +1,176 @@
+/**
+ * The client foundation end to end: a new account, a first workspace, a first chain, and
+ * signing out; then the demo viewer, who must see no edit controls.
+ */
+import type { Browser } from 'playwright-core';
+import {
+  DEMO,
+  launchBrowser,
+  openPage,
+  shot,
+  signIn,
+  signOut,
+  uniqueSuffix,
+  type WatchedPage,
+} from './harness';
+
+describe('client foundation', () => {
+  let browser: Browser;
+  let watched: WatchedPage;
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  beforeEach(async () => {
+    watched = await openPage(browser);
+  });
+
+  afterEach(async () => {
+    await watched.context.close();
+    // Any console error, page error or 5xx during the test fails it.
+    expect(watched.problems).toEqual([]);
+  });
+
+  it('should register, create a workspace and a chain, see it listed, and sign out', async () => {
+    const { page } = watched;
+    const suffix = uniqueSuffix();
+    const email = `e2e-${suffix}@chainwright.test`;
+    const displayName = `Tess Tuner ${suffix}`;
+    const password = 'tuned-circuit-42';
+
+    await page.goto('/');
+    await page.waitForURL('**/sign-in');
+    await shot(page, 'foundation-01-sign-in');
+
+    await page.getByRole('link', { name: 'Create an account' }).click();
+    await page.waitForURL('**/register');
+    // Submitting empty shows the schema's own messages.
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await expectVisible(page.getByText('Enter a display name.'));
+    await expectVisible(page.getByText('Enter a valid e-mail address.'));
+    await shot(page, 'foundation-02-register-errors');
+
+    await page.getByLabel('Display name').fill(displayName);
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill(password);
+    await page.getByRole('button', { name: 'Create account' }).click();
+
+    // A brand-new account has no workspace yet (unless the server gives one).
+    await page.waitForURL(/\/(welcome|w\/[^/]+\/chains)$/);
+    if (page.url().endsWith('/welcome')) {
+      await shot(page, 'foundation-03-welcome');
+      await page.getByLabel('Workspace name').fill(`Bench ${suffix}`);
+      await page.getByRole('button', { name: 'Create workspace' }).click();
+    }
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await expectVisible(page.getByRole('heading', { name: 'Chains' }));
+    await expectVisible(page.getByText('No chains here yet.'));
+    await shot(page, 'foundation-04-empty-list');
+
+    await page.getByRole('button', { name: 'New chain' }).click();
+    const dialog = page.locator('mat-dialog-container');
+    await expectVisible(dialog.getByRole('heading', { name: 'New chain' }));
+    await dialog.getByLabel('Name').fill('Loop antenna front end');
+    await shot(page, 'foundation-05-new-chain-dialog');
+    await dialog.getByRole('button', { name: 'Create' }).click();
+
+    await expectVisible(page.getByRole('link', { name: 'Loop antenna front end' }));
+    const row = page.getByRole('row', { name: /Loop antenna front end/ });
+    await expectVisible(row.getByRole('button', { name: 'Delete Loop antenna front end' }));
+    await shot(page, 'foundation-06-chain-listed');
+
+    // The filter asks the server; a name that matches nothing empties the table.
+    await page.getByLabel('Filter by name or description').fill('no-such-chain-xyz');
+    await expectVisible(page.getByText('No chain matches “no-such-chain-xyz”.'));
+    await page.getByLabel('Filter by name or description').fill('');
+    await expectVisible(page.getByRole('link', { name: 'Loop antenna front end' }));
+
+    // Dark theme, remembered across a reload.
+    await page.getByRole('button', { name: 'Switch to the dark theme' }).click();
+    await page.reload();
+    await expectVisible(page.getByRole('button', { name: 'Switch to the light theme' }));
+    await expectVisible(page.getByRole('link', { name: 'Loop antenna front end' }));
+    await shot(page, 'foundation-07-chain-list-dark');
+    await page.getByRole('button', { name: 'Switch to the light theme' }).click();
+
+    await page.getByRole('button', { name: displayName }).click();
+    await shot(page, 'foundation-08-account-menu');
+    await page.getByRole('menuitem', { name: 'Account' }).click();
+    await expectVisible(page.getByRole('heading', { name: 'Change password' }));
+    await expectVisible(page.getByText(email));
+    // A short new password is refused with the schema's message before anything is sent.
+    await page.getByLabel('Current password').fill(password);
+    await page.getByLabel('New password').fill('short');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    await expectVisible(page.getByText('A password needs at least 10 characters.'));
+    await shot(page, 'foundation-08b-account');
+    await signOut(page, displayName);
+    await expectVisible(page.getByRole('heading', { name: 'Sign in' }));
+
+    // Signing in again lands in the workspace with the chain.
+    await signIn(page, email, password);
+    await expectVisible(page.getByRole('link', { name: 'Loop antenna front end' }));
+    await signOut(page, displayName);
+  });
+
+  it('should show the demo viewer the chains but no edit controls', async () => {
+    const { page } = watched;
+    await signIn(page, DEMO.viewer, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await expectVisible(page.getByRole('heading', { name: 'Chains' }));
+    // Wait for the list to answer: either rows or the viewer's empty text.
+    await page.locator('tr.mat-mdc-row, .cw-empty').first().waitFor();
+    await shot(page, 'foundation-09-viewer-list');
+
+    expect(await page.getByRole('button', { name: 'New chain' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Delete / }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Rename / }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Duplicate / }).count()).toBe(0);
+
+    // The members page lists people but offers a viewer no changes.
+    await page
+      .getByRole('button', { name: /Vera Viewer|Viewer/ })
+      .first()
+      .click();
+    await page.getByRole('menuitem', { name: 'Members' }).click();
+    await page.waitForURL(/\/members$/);
+    await expectVisible(page.getByText('Only owners of this workspace can add'));
+    expect(await page.getByRole('button', { name: 'Add member' }).count()).toBe(0);
+    await shot(page, 'foundation-10-viewer-members');
+  });
+
+  it('should show the owner the members page and the site administration', async () => {
+    const { page } = watched;
+    await signIn(page, DEMO.owner, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.locator('tr.mat-mdc-row, .cw-empty').first().waitFor();
+    await shot(page, 'foundation-11-owner-list');
+
+    const menu = page.getByRole('button', { name: /Olga Owner|Owner/ }).first();
+    await menu.click();
+    await page.getByRole('menuitem', { name: 'Members' }).click();
+    await expectVisible(page.getByRole('button', { name: 'Add member' }));
+    await expectVisible(page.getByRole('cell', { name: DEMO.viewer }));
+    await shot(page, 'foundation-12-owner-members');
+
+    await menu.click();
+    await page.getByRole('menuitem', { name: 'Site administration' }).click();
+    await expectVisible(page.getByRole('switch', { name: 'Open registration' }));
+    await expectVisible(page.getByRole('cell', { name: DEMO.viewer }));
+    await shot(page, 'foundation-13-admin');
+
+    await page.goto('/no/such/page');
+    await expectVisible(page.getByRole('heading', { name: 'Nothing at this address' }));
+    await shot(page, 'foundation-14-not-found');
+  });
+});
+
+// Helpers
+async function expectVisible(locator: { waitFor(o: { state: 'visible' }): Promise<void> }) {
+  await locator.waitFor({ state: 'visible' });
+}
