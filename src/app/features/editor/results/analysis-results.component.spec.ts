@@ -241,6 +241,9 @@ describe('AnalysisResultsComponent', () => {
       expect(plotly.downloads).toEqual([
         expect.objectContaining({ filename: 'ten-metre-first-try-step-up', format: 'png' }),
       ]);
+      // Drawn from the figure with a system font, so the picture's text fits its layout.
+      const root = plotly.downloads[0].root as { layout: { font: { family: string } } };
+      expect(root.layout.font.family).toMatch(/^Arial/);
     });
 
     it('should release the plots when the panel goes away', async () => {

@@ -19,6 +19,9 @@ import type { PlotFigure } from './plot-traces';
 /** Plot heights are fixed so the page does not jump while Plotly loads. */
 const PLOT_HEIGHT_PX = 380;
 
+/** Font of downloaded PNGs: one every system has, see `downloadPng`. */
+const EXPORT_FONT = 'Arial, Helvetica, "Liberation Sans", "DejaVu Sans", sans-serif';
+
 const PLOT_CONFIG: Partial<Config> = {
   displaylogo: false,
   // Our own PNG button names the file after the chain; resizing is ours too.
@@ -64,6 +67,10 @@ const PLOT_CONFIG: Partial<Config> = {
     </figure>
   `,
   styles: `
+    :host {
+      display: block;
+      min-width: 0;
+    }
     .frame {
       margin: 0;
       position: relative;
@@ -73,6 +80,8 @@ const PLOT_CONFIG: Partial<Config> = {
     }
     .canvas {
       width: 100%;
+      // Lets the plot shrink with its container, so the resize observer sees a change.
+      overflow: hidden;
     }
     .status {
       position: absolute;
@@ -162,11 +171,24 @@ export class ResultPlotComponent {
     const plotly = this.plotly();
     if (!plotly) return;
     const element = this.canvas().nativeElement;
-    void plotly.downloadImage(element, {
-      format: 'png',
-      filename: this.fileName(),
-      width: Math.max(element.clientWidth, 800),
+    const figure = this.figure();
+    // The image is drawn from serialised SVG, which cannot use the page's web font; with
+    // a system font both the layout and the picture use the same glyph widths, so the
+    // legend entries do not overlap.
+    const layout = {
+      ...figure.layout,
       height: PLOT_HEIGHT_PX,
-    });
+      font: { ...figure.layout.font, family: EXPORT_FONT },
+    };
+    void plotly.downloadImage(
+      { data: figure.data, layout, config: PLOT_CONFIG },
+      {
+        format: 'png',
+        filename: this.fileName(),
+        width: Math.max(element.clientWidth, 640),
+        height: PLOT_HEIGHT_PX,
+        scale: 2,
+      },
+    );
   }
 }

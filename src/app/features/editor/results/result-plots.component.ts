@@ -86,6 +86,8 @@ import { ResultPlotComponent } from './result-plot.component';
     }
     .plots {
       display: grid;
+      // minmax(0, …) lets the plots shrink below their drawn width when the window narrows.
+      grid-template-columns: minmax(0, 1fr);
       gap: 16px;
     }
   `,

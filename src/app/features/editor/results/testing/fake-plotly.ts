@@ -15,7 +15,7 @@ export interface FakePlotly {
   api: PlotlyApi;
   reacts: PlotlyCall[];
   purged: HTMLElement[];
-  downloads: { element: HTMLElement; filename: string; format: string }[];
+  downloads: { root: unknown; filename: string; format: string }[];
   /** How many times the library was asked for. */
   loads: number;
   loader: () => Promise<PlotlyApi>;
@@ -35,8 +35,8 @@ export function fakePlotly(): FakePlotly {
       purge: ((element: HTMLElement) => {
         fake.purged.push(element);
       }) as unknown as PlotlyApi['purge'],
-      downloadImage: (async (element: HTMLElement, opts: { filename: string; format: string }) => {
-        fake.downloads.push({ element, filename: opts.filename, format: opts.format });
+      downloadImage: (async (root: unknown, opts: { filename: string; format: string }) => {
+        fake.downloads.push({ root, filename: opts.filename, format: opts.format });
         return '';
       }) as unknown as PlotlyApi['downloadImage'],
       Plots: { resize: () => undefined } as unknown as PlotlyApi['Plots'],
