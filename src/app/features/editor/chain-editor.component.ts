@@ -31,6 +31,7 @@ import { AnalysisRunner } from './state/analysis-runner';
 import { clearDrafts, readDraft, writeDraft, type Draft } from './state/draft-store';
 import { EditFeedback } from './state/edit-feedback';
 import { EditorStore } from './state/editor.store';
+import { sameJson } from './state/same-document';
 import { StageStripComponent } from './strip/stage-strip.component';
 
 type SidePanel = 'stage' | 'chain' | 'history';
@@ -190,7 +191,7 @@ export default class ChainEditorComponent implements LeaveAware {
       this.store.setCatalogue(catalogue);
       this.store.load(chain);
       const draft = chain.role === 'viewer' ? null : readDraft(id);
-      const differs = draft && JSON.stringify(draft.document) !== JSON.stringify(chain.document);
+      const differs = draft && !sameJson(draft.document, chain.document);
       this.draftOffer.set(differs ? draft : null);
     } catch (e) {
       this.loadError.set(describeHttpError(e));

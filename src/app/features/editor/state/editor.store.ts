@@ -7,6 +7,7 @@ import type {
   StageInstance,
 } from '../../../../../shared/schema/chain';
 import { HistoryStore } from './chain-history.store';
+import { sameJson } from './same-document';
 import { createStage, newStageId } from './stage-factory';
 import {
   duplicateStage,
@@ -66,7 +67,7 @@ export class EditorStore {
   /** Whether the document differs from the last saved or loaded one. */
   readonly dirty = computed(() => {
     const saved = this.savedState();
-    return saved !== null && JSON.stringify(saved) !== JSON.stringify(this.doc());
+    return saved !== null && !sameJson(saved, this.doc());
   });
   readonly selectedStage = computed(
     () => this.doc().stages.find((s) => s.id === this.selectedState()) ?? null,

@@ -68,15 +68,16 @@ import { StageCardComponent } from './stage-card.component';
     }
     .strip {
       display: flex;
-      align-items: stretch;
+      align-items: flex-start;
       min-height: 160px;
       min-width: min-content;
     }
     .slot {
       display: flex;
-      align-items: center;
+      align-items: flex-start;
     }
     .wire {
+      margin-top: 30px;
       width: 18px;
       height: 2px;
       background: var(--mat-sys-outline);

@@ -1,0 +1,321 @@
+/**
+ * The chain editor end to end, against a running server with demo data: build a chain
+ * from the palette with real pointer drags, type values with units, watch the budget,
+ * a plot and the tank-loading flag follow, save, restore an older revision, and resolve
+ * a save conflict with a second browser session.
+ */
+import type { Browser, Locator, Page } from 'playwright-core';
+import {
+  DEMO,
+  launchBrowser,
+  openPage,
+  shot,
+  signIn,
+  uniqueSuffix,
+  type WatchedPage,
+} from './harness';
+
+describe('chain editor', () => {
+  let browser: Browser;
+  let watched: WatchedPage;
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  beforeEach(async () => {
+    watched = await openPage(browser);
+  });
+
+  afterEach(async () => {
+    await watched.context.close();
+    expect(watched.problems).toEqual([]);
+  });
+
+  it('should build, analyse, save, restore and resolve a conflict', async () => {
+    const { page } = watched;
+    const name = `Broadcast tank ${uniqueSuffix()}`;
+    await signIn(page, DEMO.editor, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+
+    // A new chain starts as a source straight into a load.
+    await page.getByRole('button', { name: 'New chain' }).click();
+    const dialog = page.locator('mat-dialog-container');
+    await dialog.getByLabel('Name').fill(name);
+    await dialog.getByRole('button', { name: 'Create' }).click();
+    await page.getByRole('link', { name }).click();
+    await page.waitForURL(/\/chains\/[^/]+$/);
+    await expect(cards(page)).toHaveCountEventually(2);
+    await shot(page, 'editor-01-new-chain');
+
+    // Drag a shunt tank from the palette onto the load card: it lands between the two.
+    await dragFromPalette(page, 'Parallel LC tank', card(page, 1));
+    await expect(cards(page)).toHaveCountEventually(3);
+    expect(await cardTypes(page)).toEqual(['resistive-generator', 'shunt-lc-tank', 'rc-load']);
+    await shot(page, 'editor-02-tank-dropped');
+
+    // Values with units: a 1 kΩ generator, a 22 µH coil and the capacitor for 1 MHz.
+    await card(page, 0)
+      .getByRole('button', { name: /^Select / })
+      .click();
+    await typeParam(page, 'r', '1k', '= 1 kΩ');
+    await card(page, 1)
+      .getByRole('button', { name: /^Select / })
+      .click();
+    await typeParam(page, 'l', '22 uH', '= 22 µH');
+    await typeParam(page, 'c', '1/((2*pi*1 MHz)^2*22 uH)', '= 1.151 nF');
+    // A wrong dimension is refused in plain words, and the typed text stays.
+    await typeParam(page, 'ql', '3 pF', null);
+    await expectText(fieldOf(page, 'ql'), 'expected a plain ratio, got a capacitance');
+    expect(await param(page, 'ql').inputValue()).toBe('3 pF');
+    await typeParam(page, 'ql', '120', '= 120');
+    await expect(page.getByRole('region', { name: 'Budget by node' })).toBeVisibleEventually();
+    await shot(page, 'editor-03-values-typed');
+
+    // The budget table and a plot follow the edits.
+    const budgetBefore = await budgetText(page);
+    await typeParam(page, 'l', '33 uH', '= 33 µH');
+    await waitUntil(async () => (await budgetText(page)) !== budgetBefore, 'the budget to change');
+    await page.getByRole('tab', { name: 'Plots' }).click();
+    await page
+      .locator('cw-result-plots .js-plotly-plot, cw-result-plots svg')
+      .first()
+      .waitFor({ timeout: 30000 });
+    await shot(page, 'editor-04-plot');
+    await typeParam(page, 'l', '22 uH', '= 22 µH');
+    await page.getByRole('tab', { name: 'Budget' }).click();
+
+    // A high-impedance detector leaves the tank alone; low-impedance phones across it
+    // flag it; putting the detector back clears the flag.
+    const overload = card(page, 1).locator('[data-flag-code="tank-overloaded"]');
+    await dragFromPalette(page, 'Diode envelope detector', card(page, 2));
+    expect(await cardTypes(page)).toEqual([
+      'resistive-generator',
+      'shunt-lc-tank',
+      'envelope-detector',
+    ]);
+    await waitUntil(
+      async () => (await overload.count()) === 0,
+      'no loading flag with the detector',
+    );
+    await dragFromPalette(page, 'Low-impedance headphone', card(page, 2));
+    expect(await cardTypes(page)).toEqual([
+      'resistive-generator',
+      'shunt-lc-tank',
+      'headphone-low-z',
+    ]);
+    await typeParam(page, 'l', '1 uH', '= 1 µH');
+    await expectText(overload, 'Low-impedance headphone');
+    await shot(page, 'editor-05-tank-overloaded');
+    await dragFromPalette(page, 'Diode envelope detector', card(page, 2));
+    expect(await cardTypes(page)).toEqual([
+      'resistive-generator',
+      'shunt-lc-tank',
+      'envelope-detector',
+    ]);
+    await waitUntil(async () => (await overload.count()) === 0, 'the loading flag to clear');
+    await shot(page, 'editor-06-flag-cleared');
+
+    // Between a source and a load there is nowhere to move the tank: both buttons say so.
+    expect(await card(page, 1).getByRole('button', { name: 'Move left' }).isDisabled()).toBe(true);
+    expect(await card(page, 1).getByRole('button', { name: 'Move right' }).isDisabled()).toBe(true);
+
+    // Save, change, save again; then restore the first save from the history.
+    await save(page, 'Tank with detector');
+    const firstVersion = await savedVersion(page);
+    await card(page, 1)
+      .getByRole('button', { name: /^Select / })
+      .click();
+    await typeParam(page, 'l', '47 uH', '= 47 µH');
+    await save(page, 'Bigger coil');
+    await page
+      .getByRole('radio', { name: 'History' })
+      .or(page.getByRole('button', { name: 'History' }))
+      .first()
+      .click();
+    const older = page.locator(`cw-revision-panel li[data-version="${firstVersion}"]`);
+    await older.getByRole('button', { name: 'View' }).click();
+    await expectText(page.locator('.banner'), `Viewing revision ${firstVersion}`);
+    await shot(page, 'editor-07-viewing-revision');
+    await page.getByRole('button', { name: 'Restore this revision' }).click();
+    await expectText(
+      page.locator('simple-snack-bar, .mat-mdc-snack-bar-label').first(),
+      `Revision ${firstVersion} restored`,
+    );
+    await card(page, 1)
+      .getByRole('button', { name: /^Select / })
+      .click();
+    await page
+      .getByRole('radio', { name: 'Stage' })
+      .or(page.getByRole('button', { name: 'Stage' }))
+      .first()
+      .click();
+    expect(await param(page, 'l').inputValue()).toBe('22 uH');
+    await shot(page, 'editor-08-restored');
+
+    // A colleague saves first in another session; our save meets the conflict dialog.
+    const chainUrl = page.url();
+    const other = await openPage(browser);
+    try {
+      await signIn(other.page, DEMO.owner, DEMO.password);
+      await other.page.goto(chainUrl);
+      await expect(cards(other.page)).toHaveCountEventually(3);
+      await card(other.page, 1)
+        .getByRole('button', { name: /^Select / })
+        .click();
+      await typeParam(other.page, 'l', '10 uH', '= 10 µH');
+      await save(other.page, 'Colleague tweak');
+      expect(other.problems).toEqual([]);
+    } finally {
+      await other.context.close();
+    }
+    await typeParam(page, 'l', '27 uH', '= 27 µH');
+    await page.getByRole('button', { name: 'Save' }).click();
+    const conflict = page.locator('mat-dialog-container');
+    await expectText(conflict, 'Someone saved this chain first');
+    await shot(page, 'editor-09-conflict');
+    await conflict.getByRole('button', { name: 'Keep mine as a variant' }).click();
+    await page.waitForURL((url) => url.href !== chainUrl && /\/chains\/[^/]+$/.test(url.pathname));
+    await expectText(page.locator('h1'), `${name} (my edits)`);
+    await card(page, 1)
+      .getByRole('button', { name: /^Select / })
+      .click();
+    await waitUntil(
+      async () => (await param(page, 'l').inputValue()) === '27 uH',
+      'my edit in the variant',
+    );
+    await shot(page, 'editor-10-variant');
+
+    const figures = await page.evaluate(() =>
+      performance
+        .getEntriesByName('cw-edit-to-render', 'measure')
+        .map((m) => Math.round(m.duration)),
+    );
+    console.log(`cw-edit-to-render (ms), last ${figures.length} edits: ${figures.join(', ')}`);
+  });
+});
+
+// Helpers
+
+function cards(page: Page): Locator {
+  return page.locator('cw-stage-strip .slot');
+}
+
+function card(page: Page, index: number): Locator {
+  return cards(page).nth(index);
+}
+
+function param(page: Page, key: string): Locator {
+  return page.locator(`cw-param-panel input[data-param="${key}"]`);
+}
+
+function fieldOf(page: Page, key: string): Locator {
+  return param(page, key).locator('xpath=ancestor::cw-quantity-field[1]');
+}
+
+async function cardTypes(page: Page): Promise<string[]> {
+  return cards(page)
+    .locator('article')
+    .evaluateAll((els) => els.map((el) => el.getAttribute('data-stage-type') ?? ''));
+}
+
+async function budgetText(page: Page): Promise<string> {
+  return (await page.getByRole('region', { name: 'Budget by node' }).textContent()) ?? '';
+}
+
+/** Types into a parameter field and waits for the value read back beside it (null: an error). */
+async function typeParam(
+  page: Page,
+  key: string,
+  text: string,
+  readBack: string | null,
+): Promise<void> {
+  const field = param(page, key);
+  await field.fill(text);
+  if (readBack === null) return;
+  await expectText(fieldOf(page, key).locator('output'), readBack);
+}
+
+/**
+ * A real pointer drag: CDK starts a drag only after the pointer moves a few pixels with the
+ * button down, and sorts on intermediate moves, so the path goes in steps.
+ */
+async function dragFromPalette(page: Page, label: string, target: Locator): Promise<void> {
+  await page.getByPlaceholder('Search types').fill(label);
+  const item = page.locator('cw-stage-palette .item').filter({ hasText: label }).first();
+  await target.scrollIntoViewIfNeeded();
+  const from = (await item.boundingBox())!;
+  const to = (await target.boundingBox())!;
+  await page.mouse.move(from.x + 30, from.y + from.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(from.x + 40, from.y + from.height / 2 + 8, { steps: 4 });
+  await page.mouse.move(to.x + to.width * 0.3, to.y + to.height / 2, { steps: 25 });
+  await page.mouse.move(to.x + to.width * 0.25, to.y + to.height / 2, { steps: 5 });
+  await page.mouse.up();
+  await page.getByPlaceholder('Search types').fill('');
+}
+
+async function save(page: Page, message: string): Promise<void> {
+  await page.getByLabel('Save message').fill(message);
+  await page.getByRole('button', { name: 'Save', exact: true }).click();
+  await expectText(page.locator('.chip'), 'Saved');
+}
+
+async function savedVersion(page: Page): Promise<number> {
+  const text = (await page.locator('.chip').textContent()) ?? '';
+  return Number(/v(\d+)/.exec(text)?.[1]);
+}
+
+async function expectText(locator: Locator, text: string): Promise<void> {
+  await waitUntil(
+    async () => ((await locator.first().textContent()) ?? '').includes(text),
+    `"${text}"`,
+  );
+}
+
+async function waitUntil(
+  check: () => Promise<boolean>,
+  what: string,
+  timeoutMs = 15000,
+): Promise<void> {
+  const end = Date.now() + timeoutMs;
+  while (Date.now() < end) {
+    if (await check()) return;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`timed out waiting for ${what}`);
+}
+
+// Two small polling matchers, so the test reads as a list of expectations.
+expect.extend({
+  async toHaveCountEventually(locator: Locator, count: number) {
+    try {
+      await waitUntil(async () => (await locator.count()) === count, `${count} items`);
+      return { pass: true, message: () => `expected not ${count}` };
+    } catch {
+      return { pass: false, message: () => `expected ${count} items, found ${0}` };
+    }
+  },
+  async toBeVisibleEventually(locator: Locator) {
+    try {
+      await locator.first().waitFor({ state: 'visible', timeout: 15000 });
+      return { pass: true, message: () => 'expected hidden' };
+    } catch {
+      return { pass: false, message: () => 'expected the element to become visible' };
+    }
+  },
+});
+
+declare global {
+  // eslint-disable-next-line @typescript-eslint/no-namespace
+  namespace jest {
+    interface Matchers<R> {
+      toHaveCountEventually(count: number): Promise<R>;
+      toBeVisibleEventually(): Promise<R>;
+    }
+  }
+}
