@@ -45,10 +45,11 @@ ensure_postgres_binaries() {
 }
 
 # Runs a command as the PostgreSQL server user: `postgres` when we are root (initdb and
-# postgres refuse to run as root), otherwise ourselves.
+# postgres refuse to run as root), otherwise ourselves. From / because the postgres user
+# may not be allowed into the repository's folder.
 as_pg() {
   if [ "$(id -u)" = 0 ]; then
-    runuser -u postgres -- "$@"
+    (cd / && runuser -u postgres -- "$@")
   else
     "$@"
   fi
