@@ -30,6 +30,11 @@ apt_install() {
 # npm ci when node_modules is missing or older than the lock file.
 ensure_node_modules() {
   cd "$CW_REPO" || exit 1
+  if [ -L node_modules ]; then
+    # npm ci would empty the folder the link points to, which belongs to another checkout.
+    note "node_modules is a symbolic link: not reinstalling (run npm ci yourself if needed)"
+    return 0
+  fi
   if [ ! -d node_modules ] || [ package-lock.json -nt node_modules ]; then
     step "Installing npm packages (npm ci)"
     npm ci --no-audit --no-fund
