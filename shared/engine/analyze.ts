@@ -3,7 +3,7 @@
  * sweep, resonators, selectivity, noise, linearity, levels and flags.
  */
 import type { AnalysisResult, StageDefinition } from './types';
-import { buildChain, type BuiltChain, type ChainLike } from './core/build';
+import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
 import { raiseFlags } from './core/flags';
 import { runNodeAnalysis } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
@@ -15,7 +15,7 @@ import { defaultCatalogue } from './default-catalogue';
 /** Version of the engine's methods, stored with saved results. */
 export const ENGINE_VERSION = '0.1.0';
 
-export interface AnalyzeOptions {
+export interface AnalyzeOptions extends BuildOptions {
   /** Include the sweep arrays in the result (default true). Selectivity is always computed. */
   sweep?: boolean;
   /** Stage types to accept (default: the product's stage catalogue). */
@@ -54,5 +54,5 @@ export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {
  * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
  */
 export function analyzeChain(doc: ChainLike, options: AnalyzeOptions = {}): AnalysisResult {
-  return analyzeBuilt(buildChain(doc, options.catalogue ?? defaultCatalogue()), options);
+  return analyzeBuilt(buildChain(doc, options.catalogue ?? defaultCatalogue(), options), options);
 }

@@ -6,6 +6,7 @@ export { analyzeChain, analyzeBuilt, ENGINE_VERSION, type AnalyzeOptions } from 
 export {
   buildChain,
   stageName,
+  type BuildOptions,
   type BuiltChain,
   type BuiltStage,
   type ChainLike,

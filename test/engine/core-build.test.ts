@@ -100,6 +100,23 @@ describe('buildChain validation', () => {
     ]);
   });
 
+  it('checks text values and hands an attached data file to the builder', () => {
+    const stages = [SRC, { type: 't-measured-load', values: { table: 'x'.repeat(201) } }];
+    const [issue] = issuesOf(() => buildChain(chain(stages, { f0Hz: 1e6 }), TEST_CATALOGUE));
+    expect(issue.message).toBe('Stage 2 "Measured load" (t-measured-load): table must be at most 200 characters (got 201)'); // prettier-ignore
+    const doc = chain([SRC, { type: 't-measured-load' }], { f0Hz: 1e6 });
+    doc.stages[1].dataFileId = 'f1';
+    // S11 = 0.5 against 50 Ω is 150 Ω (REFERENCES.md TS-1 conversion)
+    const file = { ports: 1 as const, points: [{ f: 1e6, z0: 50, s11: { re: 0.5, im: 0 } }] };
+    const built = buildChain(doc, TEST_CATALOGUE, { dataFiles: { f1: file } });
+    const z = new Float64Array(2);
+    built.load.model.impedance!(1e6, z, 0);
+    expect(z[0]).toBeCloseTo(150, 12);
+    const missing = issuesOf(() => buildChain(doc, TEST_CATALOGUE, { dataFiles: {} }));
+    expect(missing[0]).toMatchObject({ path: ['stages', 1, 'dataFileId'], message: expect.stringMatching(/data file "f1" was not found/) }); // prettier-ignore
+    expect(() => buildChain(doc, TEST_CATALOGUE)).not.toThrow(); // no files resolved: the text table is used
+  });
+
   it('refuses a chain without a source and a load', () => {
     const issues = issuesOf(() => buildChain({ settings: { f0Hz: 1 }, stages: [] }, TEST_CATALOGUE)); // prettier-ignore
     expect(issues.at(-1)?.message).toMatch(/at least a source and a load/);

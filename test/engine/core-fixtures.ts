@@ -284,7 +284,24 @@ export const T_DETECTOR_LOAD: StageDefinition = {
   }),
 };
 
+/** A load that reads a one-point measured table, from a text value or an attached file. */
+export const T_MEASURED_LOAD: StageDefinition = {
+  type: 't-measured-load',
+  category: 'load',
+  role: 'load',
+  label: 'Measured load',
+  summary: 'Resistance read from a table.',
+  params: [{ key: 'table', label: 'Table', kind: 'text', unit: 'none', default: '50' }],
+  build: (v, ctx) => {
+    // S11 against z0 gives Z = z0·(1 + S11)/(1 − S11) for a real S11
+    const p = ctx.dataFile?.points[0];
+    const r = p ? (p.z0 * (1 + p.s11.re)) / (1 - p.s11.re) : Number(v['table']);
+    return { sections: [], impedance: (_f, out, o) => ((out[o] = r), (out[o + 1] = 0)) };
+  },
+};
+
 export const TEST_CATALOGUE: StageDefinition[] = [
+  T_MEASURED_LOAD,
   T_DETECTOR_LOAD,
   T_SOURCE,
   T_LOAD,

@@ -6,7 +6,14 @@
  */
 import { chainSettingsSchema, type ChainSettings } from '../../schema/chain';
 import { ChainValidationError, StageParameterError, type ChainIssue } from '../errors';
-import type { ParamSpec, ParamValues, Section, StageDefinition, StageModel } from '../types';
+import type {
+  MeasuredNetwork,
+  ParamSpec,
+  ParamValues,
+  Section,
+  StageDefinition,
+  StageModel,
+} from '../types';
 import { formatQuantity } from './format';
 
 /** One stage of the chain after validation and building. */
@@ -53,6 +60,17 @@ interface StageLike {
   type?: unknown;
   label?: unknown;
   values?: unknown;
+  dataFileId?: unknown;
+}
+
+/** What the caller resolved outside the engine (which does no I/O). */
+export interface BuildOptions {
+  /**
+   * Parsed data files by `dataFileId`. When given, a stage whose file is missing here is an
+   * issue; when absent, stages with a file id are built without it (they fall back to their
+   * own parameters).
+   */
+  dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
 }
 
 /** "Stage 3 "Detector" (diode-detector)" — how messages name a stage. */
@@ -100,6 +118,9 @@ function checkValue(spec: ParamSpec, v: unknown): string | null {
     }
     case 'boolean':
       return typeof v === 'boolean' ? null : `must be true or false (got ${describe(v)})`;
+    case 'text':
+      if (typeof v !== 'string') return `must be text (got ${describe(v)})`;
+      return v.length <= 200 ? null : `must be at most 200 characters (got ${v.length})`;
   }
   return `has a kind the engine does not know ("${String(spec.kind)}")`;
 }
@@ -171,7 +192,11 @@ function checkModel(role: StageDefinition['role'], m: StageModel): string | null
  * @param catalogue the stage types to accept
  * @throws ChainValidationError listing every problem found, each naming stage and parameter
  */
-export function buildChain(doc: ChainLike, catalogue: readonly StageDefinition[]): BuiltChain {
+export function buildChain(
+  doc: ChainLike,
+  catalogue: readonly StageDefinition[],
+  options: BuildOptions = {},
+): BuiltChain {
   const { settings, issues } = settingsIssues(doc.settings);
   const byType = new Map(catalogue.map((d) => [d.type, d]));
   const stagesRaw = doc.stages;
@@ -221,8 +246,23 @@ export function buildChain(doc: ChainLike, catalogue: readonly StageDefinition[]
   let flat = 0;
   resolved.forEach(({ def, values, st, name }, index) => {
     let model: StageModel;
+    const fileId = typeof st.dataFileId === 'string' ? st.dataFileId : undefined;
+    const dataFile = fileId && options.dataFiles ? options.dataFiles[fileId] : undefined;
+    if (fileId && options.dataFiles && !dataFile) {
+      issues.push({
+        stageId: st.id as string,
+        stageIndex: index,
+        path: ['stages', index, 'dataFileId'],
+        message: `${name}: the attached data file "${fileId}" was not found; attach it again or remove it`,
+      });
+      return;
+    }
     try {
-      model = def.build(values, { f0Hz: f0, temperatureK: settings.temperatureK });
+      model = def.build(values, {
+        f0Hz: f0,
+        temperatureK: settings.temperatureK,
+        ...(dataFile ? { dataFile } : {}),
+      });
     } catch (e) {
       const param = e instanceof StageParameterError ? e.param : undefined;
       issues.push({
