@@ -190,6 +190,65 @@ describe('chain editor', () => {
     );
     await shot(page, 'editor-10-variant');
 
+    // Keyboard alternatives: insert a triode after the selected tank with the palette's
+    // button, then move it left with Alt+←. A tube stage brings its caution.
+    await page.getByPlaceholder('Search types').fill('Triode');
+    await page
+      .getByRole('button', { name: 'Insert Triode stage after the selected stage' })
+      .click();
+    await page.getByPlaceholder('Search types').fill('');
+    expect(await cardTypes(page)).toEqual([
+      'resistive-generator',
+      'shunt-lc-tank',
+      'triode-amplifier',
+      'envelope-detector',
+    ]);
+    await expectText(page.getByRole('note', { name: 'Safety cautions' }), 'plate voltages');
+    await card(page, 2).focus();
+    await page.keyboard.press('Alt+ArrowLeft');
+    expect(await cardTypes(page)).toEqual([
+      'resistive-generator',
+      'triode-amplifier',
+      'shunt-lc-tank',
+      'envelope-detector',
+    ]);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    expect((await cardTypes(page))[1]).toBe('shunt-lc-tank');
+    await page
+      .getByRole('radio', { name: 'Chain' })
+      .or(page.getByRole('button', { name: 'Chain', exact: true }))
+      .first()
+      .click();
+    await page.locator('input[data-param="channelBandwidthHz"]').fill('9k');
+    await expectText(
+      page
+        .locator('input[data-param="channelBandwidthHz"]')
+        .locator('xpath=ancestor::cw-quantity-field[1]'),
+      '= 9 kHz',
+    );
+    await shot(page, 'editor-11-caution-and-settings');
+    await save(page, 'Triode stage after the tank');
+
+    // A viewer gets the same screen with nothing that changes the chain.
+    const viewer = await openPage(browser);
+    try {
+      await signIn(viewer.page, DEMO.viewer, DEMO.password);
+      await viewer.page.goto(page.url());
+      await expect(cards(viewer.page)).toHaveCountEventually(4);
+      await expectText(viewer.page.locator('.chip'), 'Read only');
+      expect(await viewer.page.getByRole('button', { name: 'Save', exact: true }).count()).toBe(0);
+      expect(await viewer.page.getByRole('button', { name: /^Insert / }).count()).toBe(0);
+      expect(await viewer.page.getByRole('button', { name: 'Remove stage' }).count()).toBe(0);
+      await card(viewer.page, 1)
+        .getByRole('button', { name: /^Select / })
+        .click();
+      expect(await param(viewer.page, 'gm').isDisabled()).toBe(true);
+      await shot(viewer.page, 'editor-12-viewer');
+      expect(viewer.problems).toEqual([]);
+    } finally {
+      await viewer.context.close();
+    }
+
     const figures = await page.evaluate(() =>
       performance
         .getEntriesByName('cw-edit-to-render', 'measure')

@@ -36,6 +36,11 @@ import { StageCardComponent } from './stage-card.component';
           [cdkDragData]="stage"
           [cdkDragDisabled]="readOnly() || !movable(stage)"
           role="listitem"
+          tabindex="0"
+          [attr.aria-label]="'Stage ' + (i + 1) + ': ' + (stage.label || stage.type)"
+          [attr.aria-keyshortcuts]="
+            readOnly() ? null : 'Alt+ArrowLeft Alt+ArrowRight Delete Control+D'
+          "
           (keydown)="onKey($event, stage)"
         >
           <cw-stage-card

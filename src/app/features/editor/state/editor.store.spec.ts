@@ -1,0 +1,132 @@
+import { TestBed } from '@angular/core/testing';
+import type { ChainDto, WorkspaceRole } from '../../../../../shared/schema/api';
+import { AMP, CATALOGUE, LOAD, SOURCE, TANK, sampleDocument } from '../testing/catalogue-fixture';
+import { EditorStore } from './editor.store';
+
+describe('EditorStore', () => {
+  let store: EditorStore;
+
+  beforeEach(() => {
+    TestBed.configureTestingModule({ providers: [EditorStore] });
+    store = TestBed.inject(EditorStore);
+    store.setCatalogue(CATALOGUE);
+  });
+
+  describe('inserting from the palette', () => {
+    beforeEach(() => store.load(chainDto('editor')));
+
+    it('should insert after the selected stage and select the new one', () => {
+      store.select('tank');
+      expect(store.insertType(TANK)).toEqual({ ok: true });
+      const ids = store.doc().stages.map((s) => s.type);
+      expect(ids).toEqual(['test-source', 'test-tank', 'test-tank', 'test-amp', 'test-load']);
+      expect(store.selectedId()).toBe(store.doc().stages[2].id);
+    });
+
+    it('should put a two-port just before the load when the load is selected', () => {
+      store.select('load');
+      store.insertType(AMP);
+      expect(
+        store
+          .doc()
+          .stages.map((s) => s.type)
+          .slice(-2),
+      ).toEqual(['test-amp', 'test-load']);
+      expect(store.doc().stages).toHaveLength(5);
+    });
+
+    it('should replace the source and say so', () => {
+      expect(store.insertType(SOURCE, 2)).toEqual({
+        ok: true,
+        message: 'The new source replaced the old one.',
+      });
+      expect(store.doc().stages).toHaveLength(4);
+      expect(store.doc().stages[0].id).not.toBe('src');
+    });
+
+    it('should refuse a two-port dropped after the load, with the reason', () => {
+      expect(store.insertType(TANK, 4)).toEqual({
+        ok: false,
+        reason: 'Stages go before the load: the load stays last.',
+      });
+      expect(store.canUndo()).toBe(false);
+    });
+  });
+
+  describe('editing and the unsaved state', () => {
+    beforeEach(() => store.load(chainDto('editor')));
+
+    it('should be clean after loading and dirty after an edit', () => {
+      expect(store.dirty()).toBe(false);
+      store.moveBy('tank', 1);
+      expect(store.doc().stages.map((s) => s.id)).toEqual(['src', 'amp', 'tank', 'load']);
+      expect(store.dirty()).toBe(true);
+    });
+
+    it('should be clean again when undo returns to the saved document', () => {
+      store.remove('amp');
+      store.undo();
+      expect(store.dirty()).toBe(false);
+    });
+
+    it('should take a saved answer with other key order as clean', () => {
+      store.duplicate('tank');
+      const saved = { ...chainDto('editor'), version: 4, document: reorderKeys(store.doc()) };
+      store.markSaved(saved);
+      expect(store.dirty()).toBe(false);
+      expect(store.chain()?.version).toBe(4);
+    });
+
+    it('should refuse to remove the load', () => {
+      expect(store.remove('load').ok).toBe(false);
+      expect(store.doc().stages.at(-1)?.type).toBe(LOAD.type);
+    });
+  });
+
+  describe('viewers', () => {
+    beforeEach(() => store.load(chainDto('viewer')));
+
+    it('should refuse every edit', () => {
+      expect(store.readOnly()).toBe(true);
+      expect(store.insertType(TANK).ok).toBe(false);
+      store.updateStage({ ...store.doc().stages[1], label: 'changed' });
+      expect(store.doc().stages[1].label).toBe('Test tank');
+      expect(store.dirty()).toBe(false);
+    });
+  });
+});
+
+// Helpers
+
+function chainDto(role: WorkspaceRole): ChainDto {
+  const document = sampleDocument();
+  return {
+    id: 'c1',
+    workspaceId: 'w1',
+    name: document.name,
+    description: '',
+    f0Hz: 1e6,
+    stageCount: 4,
+    flagCount: 0,
+    version: 3,
+    parentId: null,
+    createdBy: 'Ada',
+    updatedBy: 'Ada',
+    updatedAt: '2026-01-01T00:00:00Z',
+    createdAt: '2026-01-01T00:00:00Z',
+    document,
+    role,
+  };
+}
+
+function reorderKeys<T>(value: T): T {
+  if (Array.isArray(value)) return value.map(reorderKeys) as T;
+  if (value && typeof value === 'object') {
+    return Object.fromEntries(
+      Object.entries(value as Record<string, unknown>)
+        .reverse()
+        .map(([k, v]) => [k, reorderKeys(v)]),
+    ) as T;
+  }
+  return value;
+}
