@@ -128,8 +128,9 @@ export function runNodeAnalysis(
         zinRe[out + i] = OPEN;
         zinIm[out + i] = 0;
       } else {
-        zinRe[out + i] = (nr * dr + ni * di) / d2;
-        zinIm[out + i] = (ni * dr - nr * di) / d2;
+        const inv = 1 / d2; // one division, two products
+        zinRe[out + i] = (nr * dr + ni * di) * inv;
+        zinIm[out + i] = (ni * dr - nr * di) * inv;
       }
     }
   }
@@ -186,8 +187,9 @@ export function runNodeAnalysis(
         zsrcRe[k] = OPEN;
         zsrcIm[k] = 0;
       } else {
-        zsrcRe[k] = (nr * dr + ni * di) / d2;
-        zsrcIm[k] = (ni * dr - nr * di) / d2;
+        const inv = 1 / d2;
+        zsrcRe[k] = (nr * dr + ni * di) * inv;
+        zsrcIm[k] = (ni * dr - nr * di) * inv;
       }
 
       // V[j+1] = V[j]/(A + B·Y) with Y = 1/Zin[j+1] (0 when open, a short gives 0 V)
@@ -204,14 +206,15 @@ export function runNodeAnalysis(
           vIm[k] = 0;
           continue;
         }
-        const yr = ar / a2;
-        const yi = -ai / a2;
+        const ia = 1 / a2;
+        const yr = ar * ia;
+        const yi = -ai * ia;
         er += m[o + 2] * yr - m[o + 3] * yi;
         ei += m[o + 2] * yi + m[o + 3] * yr;
       }
-      const e2 = er * er + ei * ei;
-      vRe[k] = (vr * er + vi * ei) / e2;
-      vIm[k] = (vi * er - vr * ei) / e2;
+      const ie = 1 / (er * er + ei * ei);
+      vRe[k] = (vr * er + vi * ei) * ie;
+      vIm[k] = (vi * er - vr * ei) * ie;
     }
   }
   return na;
