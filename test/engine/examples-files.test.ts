@@ -77,6 +77,13 @@ describe('the example set', () => {
   });
 });
 
+/** The flags each scenario is about (cautions apart); every other example raises none. */
+const EXPECTED_FLAGS: Record<string, string[]> = {
+  'longwave-time-signal-loop': ['detector-underdriven', 'tank-overloaded'],
+  'longwave-time-signal-loop-light-load': ['detector-underdriven'],
+  'sensor-868-front-end': ['match-missed'],
+};
+
 describe.each(keys)('example %s', (key) => {
   const raw = jsonOf(key);
   const doc = docOf(key);
@@ -173,6 +180,12 @@ describe.each(keys)('example %s', (key) => {
     expect(res.flags.filter((f) => f.code === 'no-resonance' || f.code === 'tank-detuned')).toEqual(
       [],
     );
+  });
+
+  it('raises exactly the flags its scenario is about', () => {
+    const res = analyzeChain(doc, { sweep: false });
+    const codes = [...new Set(res.flags.filter((f) => f.code !== 'caution').map((f) => f.code))];
+    expect(codes.sort()).toEqual(EXPECTED_FLAGS[key] ?? []);
   });
 
   it('cascades its noise by Friis from the stage figures it reports (self-consistency)', () => {
