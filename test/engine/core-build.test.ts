@@ -117,6 +117,13 @@ describe('buildChain validation', () => {
     expect(() => buildChain(doc, TEST_CATALOGUE)).not.toThrow(); // no files resolved: the text table is used
   });
 
+  it('refuses something that is not a chain at all, without crashing', () => {
+    for (const bad of [null, undefined, 42, 'chain']) {
+      const issues = issuesOf(() => buildChain(bad as never, TEST_CATALOGUE));
+      expect(issues[0].message).toMatch(/must be an object with "settings" and "stages"/);
+    }
+  });
+
   it('refuses a chain without a source and a load', () => {
     const issues = issuesOf(() => buildChain({ settings: { f0Hz: 1 }, stages: [] }, TEST_CATALOGUE)); // prettier-ignore
     expect(issues.at(-1)?.message).toMatch(/at least a source and a load/);

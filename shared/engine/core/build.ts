@@ -197,6 +197,11 @@ export function buildChain(
   catalogue: readonly StageDefinition[],
   options: BuildOptions = {},
 ): BuiltChain {
+  if (!doc || typeof doc !== 'object') {
+    throw new ChainValidationError([
+      { path: [], message: 'A chain must be an object with "settings" and "stages"' },
+    ]);
+  }
   const { settings, issues } = settingsIssues(doc.settings);
   const byType = new Map(catalogue.map((d) => [d.type, d]));
   const stagesRaw = doc.stages;
