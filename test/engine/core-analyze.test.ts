@@ -145,6 +145,27 @@ describe('public API and the default catalogue', () => {
   });
 });
 
+describe('with the product catalogue', () => {
+  it('derives the image of the catalogue mixer from its frequency translation', () => {
+    // Our own scenario: 1 MHz preselector, mixer set to a 455 kHz IF with a high-side LO.
+    const doc = {
+      name: 'catalogue superhet',
+      settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2.5e6, points: 401, scale: 'lin' as const } }, // prettier-ignore
+      stages: [
+        { id: 'src', type: 'resistive-generator', values: {} },
+        { id: 'pre', type: 'shunt-lc-tank', values: { l: 100e-6, c: 253.3e-12 } },
+        { id: 'mix', type: 'mixer', values: { loSource: 'from-if', ifHz: 455e3, side: 'high' } },
+        { id: 'ld', type: 'rc-load', values: {} },
+      ],
+    };
+    const res = analyzeChain(doc);
+    expect(res.stages[1].fOutHz).toBeCloseTo(455e3, 3);
+    expect(res.selectivity[2].imageHz).toBeCloseTo(1.91e6, 3);
+    expect(res.selectivity[1].imageRejectionDb as number).toBeGreaterThan(0);
+    expect(Math.abs((res.resonators[0].resonanceHz as number) / 1e6 - 1)).toBeLessThan(2e-3);
+  });
+});
+
 describe('hot path', () => {
   it('a 12-stage chain over 2001 points cascades in milliseconds (loose guard for a shared machine)', () => {
     const mid: StageInput[] = [];
