@@ -53,6 +53,14 @@ describe('buildChain validation', () => {
     expect(issues[2]).toMatchObject({ stageId: 's2', stageIndex: 2, param: 'r' });
   });
 
+  it('keeps acronyms in parameter names as written', () => {
+    const doc = chain([SRC, { type: 't-amp', values: { iip3: NaN } }, LOAD], { f0Hz: 1e6 });
+    const [issue] = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
+    expect(issue.message).toBe(
+      'Stage 2 "Amplifier" (t-amp): IIP3 must be a finite number (got NaN)',
+    );
+  });
+
   it('refuses an unknown type, a wrong kind of value and a bad enum option', () => {
     const doc = chain(
       [SRC, { type: 'no-such-stage' }, { type: 't-series', values: { r: 'ten' } }, { type: 't-load', values: { mode: 'ajar' } }], // prettier-ignore

@@ -80,10 +80,10 @@ export function stageName(index: number, label: string, type: string): string {
 
 function paramName(spec: ParamSpec): string {
   const l = spec.label || spec.key;
-  // keep acronyms such as "IIP3" or "LO frequency" as written
-  return l.length > 1 && l[1] === l[1].toUpperCase() && l[1] !== l[1].toLowerCase()
-    ? l
-    : l[0].toLowerCase() + l.slice(1);
+  // Lower-case only an ordinary first word ("Load resistance"); keep "IIP3", "LO frequency",
+  // "S-parameter points" and "Q of the coil" as written.
+  const second = l.charAt(1);
+  return second && second !== second.toUpperCase() ? l[0].toLowerCase() + l.slice(1) : l;
 }
 
 function showParam(spec: ParamSpec, resolved: ParamValues): boolean {
