@@ -282,7 +282,10 @@ export interface ResonatorReport {
   stageId: string;
   label: string;
   kind: 'shunt' | 'series';
-  /** Global node index (shunt) or null for series resonators inside a stage. */
+  /**
+   * User-level node index (shunt tanks at a stage boundary); null for series resonators and
+   * for tanks at a node inside a stage.
+   */
   node: number | null;
   resonanceHz: number | null;
   loadedQ: number | null;
