@@ -202,12 +202,12 @@ describe('AnalysisResultsComponent', () => {
       expect(plotly.loads).toBe(0);
     });
 
-    it('should draw three SVG plots once the plots are opened', async () => {
+    it('should draw four SVG plots once the plots are opened, none of them WebGL', async () => {
       await selectTab('Plots');
       await fixture.whenStable();
-      expect(plotly.reacts).toHaveLength(3);
+      expect(plotly.reacts).toHaveLength(4);
       const types = plotly.reacts.flatMap((call) => call.data.map((trace) => trace.type));
-      expect(new Set(types)).toEqual(new Set(['scatter']));
+      expect(new Set(types)).toEqual(new Set(['scatter', 'scattersmith']));
     });
 
     it('should redraw in place with Plotly.react when a new result arrives', async () => {
@@ -218,8 +218,8 @@ describe('AnalysisResultsComponent', () => {
       next.f0Hz = 10.2e6;
       host.result.set(next);
       await fixture.whenStable();
-      expect(plotly.reacts).toHaveLength(6);
-      expect(plotly.reacts.slice(3).map((call) => call.element)).toEqual(elements);
+      expect(plotly.reacts).toHaveLength(8);
+      expect(plotly.reacts.slice(4).map((call) => call.element)).toEqual(elements);
       expect(plotly.purged).toHaveLength(0);
     });
 
@@ -229,8 +229,8 @@ describe('AnalysisResultsComponent', () => {
       const box = all('mat-checkbox input')[2] as HTMLInputElement;
       box.click();
       await fixture.whenStable();
-      expect(plotly.reacts).toHaveLength(4);
-      const names = plotly.reacts[3].data.map((trace) => trace.name);
+      expect(plotly.reacts).toHaveLength(5);
+      const names = plotly.reacts[4].data.map((trace) => trace.name);
       expect(names).toContain('Node 2 · LNA');
     });
 
@@ -250,7 +250,7 @@ describe('AnalysisResultsComponent', () => {
       await selectTab('Plots');
       await fixture.whenStable();
       fixture.destroy();
-      expect(plotly.purged).toHaveLength(3);
+      expect(plotly.purged).toHaveLength(4);
     });
 
     it('should explain a result without a sweep', async () => {

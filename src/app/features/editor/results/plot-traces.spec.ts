@@ -1,9 +1,10 @@
-import type { ScatterData, Shape } from 'plotly.js-dist-min';
+import type { ScatterData, ScattersmithData, Shape } from 'plotly.js-dist-min';
 import {
   type PlotContext,
   defaultPlotNodes,
   halfPowerEdges,
   imageFrequency,
+  impedanceChartFigure,
   impedanceFigure,
   returnLossFigure,
   stepUpFigure,
@@ -130,6 +131,27 @@ describe('plot-traces', () => {
       const i = 14;
       expect((magnitude.y as number[])[i]).toBeCloseTo(Math.hypot(48, 4), 9);
       expect((phase.y as number[])[i]).toBeCloseTo((Math.atan2(4, 48) * 180) / Math.PI, 9);
+    });
+  });
+
+  describe('impedanceChartFigure', () => {
+    it('should normalise the input impedance to the reference resistance', () => {
+      const [path] = impedanceChartFigure(context(), 50).data as Partial<ScattersmithData>[];
+      expect(path.type).toBe('scattersmith');
+      expect((path.real as number[])[14]).toBeCloseTo(48 / 50, 12);
+      expect((path.imag as number[])[14]).toBeCloseTo(4 / 50, 12);
+    });
+
+    it('should mark the sweep point nearest f0', () => {
+      const [, marker] = impedanceChartFigure(context(), 50).data as Partial<ScattersmithData>[];
+      // The sample has R = 48 Ω and X = 0 at 10 MHz.
+      expect(marker.real).toEqual([48 / 50]);
+      expect(marker.imag).toEqual([0]);
+    });
+
+    it('should fall back to 50 Ω for an unusable reference', () => {
+      const figure = impedanceChartFigure(context(), 0);
+      expect(figure.layout.title?.text).toContain('50 Ω');
     });
   });
 

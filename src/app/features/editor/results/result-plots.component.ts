@@ -17,6 +17,7 @@ import {
   type PlotContext,
   defaultPlotNodes,
   imageFrequency,
+  impedanceChartFigure,
   impedanceFigure,
   returnLossFigure,
   stepUpFigure,
@@ -24,7 +25,7 @@ import {
 import { themePalette } from './plot-theme';
 import { ResultPlotComponent } from './result-plot.component';
 
-/** The sweep plots: step-up at chosen nodes, input impedance and return loss. */
+/** The sweep plots: step-up at chosen nodes, input impedance, return loss and its chart. */
 @Component({
   selector: 'cw-result-plots',
   imports: [MatCheckboxModule, ResultPlotComponent],
@@ -62,6 +63,12 @@ import { ResultPlotComponent } from './result-plot.component';
           label="Return loss at the input"
           hint="Against the conjugate of the source impedance; the dotted line is the chain's match target."
           [fileName]="fileStem() + '-return-loss'"
+        />
+        <cw-result-plot
+          [figure]="shown.chart"
+          label="Input impedance chart"
+          hint="The input impedance over the sweep, normalised to the source resistance at f0; ○ marks f0."
+          [fileName]="fileStem() + '-impedance-chart'"
         />
       </div>
     } @else {
@@ -141,6 +148,7 @@ export class ResultPlotsComponent {
     return {
       impedance: impedanceFigure(ctx),
       returnLoss: returnLossFigure(ctx, this.document().settings.thresholds.matchReturnLossDb),
+      chart: impedanceChartFigure(ctx, this.result().nodes[0]?.zSrc.re ?? 50),
     };
   });
 
