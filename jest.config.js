@@ -14,6 +14,7 @@ module.exports = {
       displayName: 'server',
       testEnvironment: 'node',
       transform: { '^.+\\.ts$': tsJest },
+      setupFilesAfterEnv: ['<rootDir>/test/api/support/fail-on-console.ts'],
       testMatch: ['<rootDir>/server/**/*.spec.ts', '<rootDir>/test/api/**/*.test.ts'],
     },
     {

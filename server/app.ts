@@ -9,6 +9,7 @@ import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
 import { apiNotFound, errorHandler } from './common/error-handler';
 import { healthHandler } from './common/health';
+import { rejectNulCharacters } from './common/reject-nul';
 import type { Services } from './common/services';
 import { adminRouter } from './users/admin-routes';
 import { meRouter } from './users/me-routes';
@@ -48,7 +49,7 @@ export function createApp(services: Services): Express {
       strictTransportSecurity: config.cookieSecure,
     }),
   );
-  app.use(express.json({ limit: config.bodyLimitBytes }));
+  app.use(express.json({ limit: config.bodyLimitBytes }), rejectNulCharacters);
   // One entity manager per request, so identity maps never leak between requests.
   app.use((_req, _res, next) => RequestContext.create(orm.em, next));
 

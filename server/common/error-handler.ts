@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import {
+  DriverException,
   NotFoundError as OrmNotFoundError,
   OptimisticLockError,
   UniqueConstraintViolationException,
@@ -18,7 +19,8 @@ interface BodyParserError {
   limit?: number;
 }
 
-function toDto(err: unknown): { status: number; body: ApiErrorDto } {
+/** The status and JSON body for any thrown value (exported for its unit test). */
+export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
   if (err instanceof HttpError) {
     return {
       status: err.status,
@@ -68,6 +70,17 @@ function toDto(err: unknown): { status: number; body: ApiErrorDto } {
   }
   if (err instanceof UniqueConstraintViolationException) {
     return { status: 409, body: { error: 'duplicate', message: 'that already exists' } };
+  }
+  // PostgreSQL class 22 (data exception): a value the column cannot hold, e.g. an integer
+  // out of range. It is the request's fault, not the server's.
+  if (err instanceof DriverException && (err.code ?? '').startsWith('22')) {
+    return {
+      status: 422,
+      body: {
+        error: 'invalid',
+        message: `a value cannot be stored: ${err.message.split(' - ').pop()}`,
+      },
+    };
   }
   if (typeof bp?.status === 'number' && bp.status >= 400 && bp.status < 500) {
     return { status: bp.status, body: { error: 'bad-request', message: (err as Error).message } };

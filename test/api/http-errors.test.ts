@@ -40,6 +40,14 @@ describe('request bodies', () => {
     });
   });
 
+  it('should answer 422 for text PostgreSQL cannot store, naming the field', async () => {
+    const res = await send(user, 'post', '/api/workspaces', { name: 'bad\u0000name' });
+    expect(res.status).toBe(422);
+    expect(res.body.details).toEqual([
+      { path: 'name', message: 'text may not contain the NUL character (U+0000)' },
+    ]);
+  });
+
   it('should answer 422 for a missing body', async () => {
     const res = await user.agent.post('/api/workspaces').set('x-csrf-token', user.csrf);
     expect(res.status).toBe(422);
