@@ -4,7 +4,11 @@
  */
 import type { NodeAnalysis } from './nodes';
 
-const open = (re: number, im: number) => !Number.isFinite(re) || !Number.isFinite(im);
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { abs, hypot, log10 } = Math;
+const isFiniteNumber = Number.isFinite;
+
+const open = (re: number, im: number) => !isFiniteNumber(re) || !isFiniteNumber(im);
 
 /** Index of (flat node, point) in a node analysis. */
 export function at(na: NodeAnalysis, node: number, i: number): number {
@@ -14,12 +18,12 @@ export function at(na: NodeAnalysis, node: number, i: number): number {
 /** |V| at a node, PEAK volts. */
 export function vMag(na: NodeAnalysis, node: number, i: number): number {
   const k = node * na.points + i;
-  return Math.hypot(na.vRe[k], na.vIm[k]);
+  return hypot(na.vRe[k], na.vIm[k]);
 }
 
 /** |V[node]| / |Es|: the voltage step-up relative to the source EMF. */
 export function stepUp(na: NodeAnalysis, node: number, i: number): number {
-  return vMag(na, node, i) / Math.abs(na.emf[i]);
+  return vMag(na, node, i) / abs(na.emf[i]);
 }
 
 /** Re(1/Zin) at a node (0 when open), siemens. */
@@ -85,12 +89,12 @@ export function reflectionMag(na: NodeAnalysis, node: number, i: number): number
   const zr = na.zinRe[k];
   const zi = na.zinIm[k];
   if (open(zr, zi) || open(sr, si)) return 1;
-  return Math.hypot(zr - sr, zi + si) / Math.hypot(zr + sr, zi + si);
+  return hypot(zr - sr, zi + si) / hypot(zr + sr, zi + si);
 }
 
 /** Return loss in dB from {@link reflectionMag} (Infinity for a perfect match). */
 export function returnLossDb(na: NodeAnalysis, node: number, i: number): number {
-  return 0 - 20 * Math.log10(reflectionMag(na, node, i)); // 0 − 0 keeps a total reflection at +0 dB
+  return 0 - 20 * log10(reflectionMag(na, node, i)); // 0 − 0 keeps a total reflection at +0 dB
 }
 
 /** VSWR from {@link reflectionMag} (Infinity for total reflection). */
@@ -101,5 +105,5 @@ export function vswr(na: NodeAnalysis, node: number, i: number): number {
 
 /** Power in watts as dBm. */
 export function dbm(watts: number): number {
-  return 10 * Math.log10(watts / 1e-3);
+  return 10 * log10(watts / 1e-3);
 }

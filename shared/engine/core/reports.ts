@@ -26,9 +26,13 @@ import {
   vswr,
 } from './quantities';
 
-const db10 = (r: number) => 10 * Math.log10(r);
-const db20 = (r: number) => 20 * Math.log10(r);
-const finiteOrNull = (x: number) => (Number.isFinite(x) ? x : null);
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { PI, SQRT2, atan2, log10, pow } = Math;
+const isFiniteNumber = Number.isFinite;
+
+const db10 = (r: number) => 10 * log10(r);
+const db20 = (r: number) => 20 * log10(r);
+const finiteOrNull = (x: number) => (isFiniteNumber(x) ? x : null);
 
 /** Reports of every user-level node at f0. */
 export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
@@ -46,8 +50,8 @@ export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
       zIn: { re: na.zinRe[k], im: na.zinIm[k] },
       zSrc: { re: na.zsrcRe[k], im: na.zsrcIm[k] },
       vPeak: v,
-      vRms: v / Math.SQRT2,
-      phaseDeg: (Math.atan2(na.vIm[k], na.vRe[k]) * 180) / Math.PI,
+      vRms: v / SQRT2,
+      phaseDeg: (atan2(na.vIm[k], na.vRe[k]) * 180) / PI,
       stepUp: up,
       stepUpDb: db20(up),
       deliveredW: p,
@@ -120,8 +124,8 @@ export function levelsReport(
     const zi = na.zsrcIm[j];
     const d = zr * zr + zi * zi;
     const fl = stageNoiseFactor(loadNoise, 1, zr / d, -zi / d);
-    const g = last ? Math.pow(10, last.cumulativeGainDb / 10) : 1;
-    nf = db10(Math.pow(10, nf / 10) + (fl - 1) / g);
+    const g = last ? pow(10, last.cumulativeGainDb / 10) : 1;
+    nf = db10(pow(10, nf / 10) + (fl - 1) / g);
   }
   const floor = noiseFloorDbm(temperatureK, channelBandwidthHz, nf);
   const sens = sensitivityDbm(floor, requiredSnrDb);
@@ -131,7 +135,7 @@ export function levelsReport(
     noiseFigureDb: nf,
     totalGainDb: last ? last.cumulativeGainDb : 0,
     sensitivityDbm: sens,
-    sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[0]) / Math.SQRT2,
+    sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[0]) / SQRT2,
     iip3Dbm: iip3,
     sfdrDb: iip3 === null ? null : sfdrDb(iip3, floor),
     inputAvailableDbm: dbm(availablePower(na, 0, 0)),
@@ -147,7 +151,7 @@ export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
     for (let i = 0; i < P; i++) {
       const k = flat * P + i;
       stepUpDb[i] = db20(stepUp(na, flat, i));
-      phase[i] = (Math.atan2(na.vIm[k], na.vRe[k]) * 180) / Math.PI;
+      phase[i] = (atan2(na.vIm[k], na.vRe[k]) * 180) / PI;
     }
     return { index, stepUpDb, phaseDeg: phase };
   });

@@ -17,6 +17,10 @@ import type { BuiltChain } from './build';
 import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { logGrid } from './sweep';
 
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { PI, abs, log, max, min } = Math;
+const isFiniteNumber = Number.isFinite;
+
 /** Grid points of the bracketing search. */
 const SEARCH_POINTS = 4001;
 /** Relative step of the central difference for dB/dω. */
@@ -41,8 +45,8 @@ type Extract = (na: NodeAnalysis, i: number, out: Float64Array) => void;
  */
 export function searchRange(built: BuiltChain): [number, number] {
   const { f0Hz, sweep } = built.settings;
-  const lo = Math.min(sweep.startHz, f0Hz);
-  const hi = Math.max(sweep.stopHz, f0Hz);
+  const lo = min(sweep.startHz, f0Hz);
+  const hi = max(sweep.stopHz, f0Hz);
   return hi / lo < 1.001 ? [f0Hz / 2, f0Hz * 2] : [lo, hi];
 }
 
@@ -64,9 +68,9 @@ export function nearestRisingCrossing(
     const s = orientation(local, k);
     const a = s * v[k];
     const b = s * v[k + 1];
-    if (!(a < 0 && b >= 0) || !Number.isFinite(a) || !Number.isFinite(b)) continue;
+    if (!(a < 0 && b >= 0) || !isFiniteNumber(a) || !isFiniteNumber(b)) continue;
     const fc = f[k] + ((f[k + 1] - f[k]) * -a) / (b - a);
-    const d = Math.abs(Math.log(fc / target));
+    const d = abs(log(fc / target));
     if (d < bestDist) {
       bestDist = d;
       best = k;
@@ -136,9 +140,9 @@ function resonate(
   const imLo = out[1];
   const fLo = out[2];
   extract(two, 1, out);
-  const slope = (out[1] - imLo) / (2 * Math.PI * (out[2] - fLo)); // d(im)/dω at the node
-  const q = ((2 * Math.PI * fr) / (2 * real)) * slope;
-  return { fIn, fr, real, q: Number.isFinite(q) && q > 0 ? q : NaN };
+  const slope = (out[1] - imLo) / (2 * PI * (out[2] - fLo)); // d(im)/dω at the node
+  const q = ((2 * PI * fr) / (2 * real)) * slope;
+  return { fIn, fr, real, q: isFiniteNumber(q) && q > 0 ? q : NaN };
 }
 
 /** Resonance and Q of a resonator's own element (unloaded), searched around `near`. */
@@ -157,13 +161,13 @@ function ownResonance(fn: ComplexFn, near: number): number | null {
   fn(fr, out, 0);
   const real = out[0];
   const h = fr * DIFF_STEP;
-  const slope = (imAt(fr + h) - imAt(fr - h)) / (2 * Math.PI * 2 * h);
-  const q = ((2 * Math.PI * fr) / (2 * real)) * slope;
-  return Number.isFinite(q) && q > 0 ? q : null;
+  const slope = (imAt(fr + h) - imAt(fr - h)) / (2 * PI * 2 * h);
+  const q = ((2 * PI * fr) / (2 * real)) * slope;
+  return isFiniteNumber(q) && q > 0 ? q : null;
 }
 
 function addInverse(re: number, im: number, out: Float64Array, o: number): void {
-  if (!Number.isFinite(re) || !Number.isFinite(im)) return; // an open side adds nothing
+  if (!isFiniteNumber(re) || !isFiniteNumber(im)) return; // an open side adds nothing
   const d = re * re + im * im;
   out[o] += d === 0 ? Infinity : re / d;
   out[o + 1] += d === 0 ? 0 : -im / d;
@@ -222,7 +226,7 @@ export function analyzeResonators(built: BuiltChain): ResonatorFinding[] {
   return decls.map(({ stage, decl }): ResonatorFinding => {
     const base = { stageId: stage.id, label: decl.label, kind: decl.kind };
     if (decl.kind === 'shunt') {
-      const flat = stage.firstSection + Math.max(0, Math.min(decl.node, stage.sectionCount));
+      const flat = stage.firstSection + max(0, min(decl.node, stage.sectionCount));
       const att = resonate(built, grid, gridNa, shuntExtract(flat, true), f0);
       const det = resonate(built, grid, gridNa, shuntExtract(flat, false), f0);
       let share: number | null = null;
@@ -231,7 +235,7 @@ export function analyzeResonators(built: BuiltChain): ResonatorFinding[] {
         const k = flat;
         const zr = one.zinRe[k];
         const zi = one.zinIm[k];
-        const gDown = Number.isFinite(zr) && Number.isFinite(zi) ? zr / (zr * zr + zi * zi) : 0;
+        const gDown = isFiniteNumber(zr) && isFiniteNumber(zi) ? zr / (zr * zr + zi * zi) : 0;
         share = att.real > 0 ? gDown / att.real : null;
       }
       const qA = nn(att?.q);
@@ -270,7 +274,7 @@ export function analyzeResonators(built: BuiltChain): ResonatorFinding[] {
       loadingRatio: null,
       downstreamShare: null,
       flat: section,
-      f0LocalHz: built.f0AtFlatNode[Math.min(section, built.f0AtFlatNode.length - 1)],
+      f0LocalHz: built.f0AtFlatNode[min(section, built.f0AtFlatNode.length - 1)],
       downstreamLabel: downstreamOf(built, section + 1),
     };
   });

@@ -8,6 +8,10 @@ import type { BuiltChain } from './build';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { stepUp } from './quantities';
 
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { abs, log10 } = Math;
+const isFiniteNumber = Number.isFinite;
+
 /** The first frequency-translating section of a chain and its local oscillator. */
 export interface MixerInfo {
   /** Flat index of the mixer section. */
@@ -61,7 +65,7 @@ export function imageFrequency(built: BuiltChain, mixer: MixerInfo | null): numb
   if (!mixer || mixer.product !== 'difference') return null;
   if (mixer.fInHz !== built.settings.f0Hz) return null;
   const img = 2 * mixer.loHz - mixer.fInHz;
-  return img > 0 && Math.abs(img - mixer.fInHz) > 1e-9 * mixer.fInHz ? img : null;
+  return img > 0 && abs(img - mixer.fInHz) > 1e-9 * mixer.fInHz ? img : null;
 }
 
 /** Frequency where the dB curve crosses `level` between points k and k+1 (linear in dB). */
@@ -103,7 +107,7 @@ function peakOf(
   db: Float64Array,
 ): { k: number; fHz: number; db: number } | null {
   let k = -1;
-  for (let i = 0; i < db.length; i++) if (Number.isFinite(db[i]) && (k < 0 || db[i] > db[k])) k = i;
+  for (let i = 0; i < db.length; i++) if (isFiniteNumber(db[i]) && (k < 0 || db[i] > db[k])) k = i;
   if (k < 0) return null;
   if (k === 0 || k === db.length - 1) return { k, fHz: f[k], db: db[k] };
   const a = db[k - 1];
@@ -116,9 +120,9 @@ function peakOf(
   return { k, fHz, db: b - 0.25 * (a - c) * x };
 }
 
-const toDb = (r: number) => 20 * Math.log10(r);
+const toDb = (r: number) => 20 * log10(r);
 /** The "−3 dB" points are the half-power points, 10·log10(2) = 3.0103 dB down (common practice). */
-const HALF_POWER_DB = 10 * Math.log10(2);
+const HALF_POWER_DB = 10 * log10(2);
 
 /**
  * Selectivity report of every user-level node.
@@ -168,7 +172,7 @@ export function analyzeSelectivity(
       shapeFactor: bw3 && bw60 ? bw60 / bw3 : null,
       offsets,
       imageHz,
-      imageRejectionDb: Number.isFinite(imageRejectionDb ?? 0) ? imageRejectionDb : null,
+      imageRejectionDb: isFiniteNumber(imageRejectionDb ?? 0) ? imageRejectionDb : null,
     });
   }
   return reports;
