@@ -69,6 +69,24 @@ const adminOnly = (ok: number): Record<Caller, number> => ({
 });
 
 const ROWS: Row[] = [
+  {
+    name: 'health',
+    method: 'get',
+    url: () => '/api/health',
+    expect: { ...signedIn(200), anonymous: 200 },
+  },
+  {
+    name: 'CSRF token',
+    method: 'get',
+    url: () => '/api/auth/csrf',
+    expect: { ...signedIn(200), anonymous: 200 },
+  },
+  {
+    name: 'registration status',
+    method: 'get',
+    url: () => '/api/auth/registration',
+    expect: { ...signedIn(200), anonymous: 200 },
+  },
   { name: 'me', method: 'get', url: () => '/api/me', expect: signedIn(200) },
   { name: 'list workspaces', method: 'get', url: () => '/api/workspaces', expect: signedIn(200) },
   {
