@@ -95,6 +95,10 @@ const PLOT_CONFIG: Partial<Config> = {
       gap: 12px;
       padding: 4px 8px 0;
     }
+    .caption button {
+      flex-shrink: 0;
+      white-space: nowrap;
+    }
   `,
 })
 export class ResultPlotComponent {

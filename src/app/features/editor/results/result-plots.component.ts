@@ -67,7 +67,7 @@ import { ResultPlotComponent } from './result-plot.component';
         <cw-result-plot
           [figure]="shown.chart"
           label="Input impedance chart"
-          hint="The input impedance over the sweep, normalised to the source resistance at f0; ○ marks f0."
+          hint="Normalised to the source resistance at f0; ○ marks f0."
           [fileName]="fileStem() + '-impedance-chart'"
         />
       </div>
