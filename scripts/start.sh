@@ -37,7 +37,9 @@ if [ ! -f angular.json ]; then
   note "angular.json is missing: the client is not set up yet; serving the API only"
 elif client_build_stale; then
   step "Building the client (npx ng build)"
-  npx ng build
+  # A broken client build should not keep the API from starting: say so and go on with
+  # the previous build, if any.
+  npx ng build || note "WARNING: the client build failed (messages above); serving the previous build, if any"
 else
   note "Client build is up to date"
 fi

@@ -30,7 +30,7 @@ run_step() {
   if "$@"; then
     note "ok: $name ($(($(date +%s) - started)) s)"
   else
-    note "FAILED: $name"
+    note "FAILED: $name ($(($(date +%s) - started)) s)"
     FAILED+=("$name")
   fi
 }

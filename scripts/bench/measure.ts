@@ -18,8 +18,19 @@ export function timeMs(fn: () => void): number {
 
 /** Median time of `runs` calls after `warmup` calls, ms. */
 export function medianMs(fn: () => void, runs: number, warmup = Math.min(runs, 20)): number {
+  return timings(fn, runs, warmup).median;
+}
+
+/** Median and fastest of `runs` calls after `warmup` calls, ms (the fastest shows the
+ * machine's capability when other work shares it). */
+export function timings(
+  fn: () => void,
+  runs: number,
+  warmup = Math.min(runs, 20),
+): { median: number; best: number } {
   for (let i = 0; i < warmup; i++) fn();
-  return median(Array.from({ length: runs }, () => timeMs(fn)));
+  const all = Array.from({ length: runs }, () => timeMs(fn));
+  return { median: median(all), best: Math.min(...all) };
 }
 
 let gcFn: (() => void) | undefined;
