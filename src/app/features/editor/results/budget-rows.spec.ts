@@ -102,6 +102,8 @@ describe('budget-rows', () => {
     it('should show a missing intercept as a dash, not as zero', () => {
       expect(row('iip3-stage').cells[1]).toBe(NO_VALUE);
       expect(row('iip3-stage').cells[2]).toBe('5.0 dBm');
+      expect(row('p1db-stage').cells[2]).toBe('-5.0 dBm');
+      expect(row('p1db-cum').cells[2]).toBe('-4.2 dBm');
     });
 
     it('should show the frequency at each node', () => {

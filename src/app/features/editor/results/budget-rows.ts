@@ -245,6 +245,12 @@ const NOISE: RowSpec[] = [
     csv: [{ label: 'Cumulative IIP3', unit: 'dBm', value: ofStage((s) => s.cumulativeIip3Dbm) }],
   },
   {
+    key: 'p1db-stage',
+    label: 'Stage input P1dB',
+    display: (p) => decibels(p.stage?.p1dbDbm, 'dBm'),
+    csv: [{ label: 'Stage input P1dB', unit: 'dBm', value: ofStage((s) => s.p1dbDbm) }],
+  },
+  {
     key: 'p1db-cum',
     label: 'Cumulative input P1dB',
     display: (p) => decibels(p.stage?.cumulativeP1dbDbm, 'dBm'),

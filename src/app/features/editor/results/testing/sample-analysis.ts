@@ -151,6 +151,8 @@ export function sampleResult(): AnalysisResult {
         cumulativeGainDb: 19.2,
         iip3Dbm: 5,
         cumulativeIip3Dbm: 5.8,
+        p1dbDbm: -5,
+        cumulativeP1dbDbm: -4.2,
       }),
       stage('mix', 'Mixer', 2, {
         fOutHz: 455e3,
