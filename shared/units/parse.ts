@@ -6,13 +6,60 @@
  * whitelist (numbers, units, + - * / ^, parentheses, a few functions), so typed text can
  * never reach assignment, imports or other mathjs machinery.
  */
-import { all, create, type MathNode, type Unit } from 'mathjs';
+import {
+  absDependencies,
+  addDependencies,
+  cosDependencies,
+  create,
+  divideDependencies,
+  eDependencies,
+  expDependencies,
+  isUnit,
+  log10Dependencies,
+  logDependencies,
+  multiplyDependencies,
+  parseDependencies,
+  piDependencies,
+  powDependencies,
+  sinDependencies,
+  sqrtDependencies,
+  subtractDependencies,
+  tanDependencies,
+  tauDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  unitDependencies,
+  type MathNode,
+  type Unit,
+} from 'mathjs';
 import type { UnitKind } from '../engine/types';
 import { KNOWN_DIMENSIONS, UNIT_KINDS } from './kinds';
 
 export type ParseResult = { ok: true; value: number } | { ok: false; message: string };
 
-const math = create(all);
+// Only what arithmetic on quantities needs: the whole library would triple the editor's size.
+const math = create({
+  parseDependencies,
+  unitDependencies,
+  addDependencies,
+  subtractDependencies,
+  multiplyDependencies,
+  divideDependencies,
+  powDependencies,
+  unaryMinusDependencies,
+  unaryPlusDependencies,
+  sqrtDependencies,
+  expDependencies,
+  logDependencies,
+  log10Dependencies,
+  absDependencies,
+  sinDependencies,
+  cosDependencies,
+  tanDependencies,
+  piDependencies,
+  eDependencies,
+  tauDependencies,
+});
 const MAX_LENGTH = 200;
 const NUM = String.raw`[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?`;
 const PREFIXES: Record<string, number> = {
@@ -145,7 +192,7 @@ function readExpression(s: string, kind: UnitKind, raw: string): ParseResult {
     return fail(`could not work out "${raw}": ${(e as Error).message}`);
   }
   if (typeof result === 'number') return ok(result);
-  if (math.isUnit(result)) return fromUnit(result as Unit, kind);
+  if (isUnit(result)) return fromUnit(result as Unit, kind);
   return fail(`"${raw}" is not a single number`);
 }
 
