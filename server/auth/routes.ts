@@ -52,27 +52,32 @@ export function authRouter({ em, passport, csrf, signInLimiter }: AuthDeps): Rou
 
   router.post('/register', signInLimiter, async (req, res) => {
     const body = parseOr422(registerSchema, req.body);
-    const userCount = await em.count(UserSchema);
-    if (userCount > 0 && !(await siteSettings(em)).openRegistration) {
-      throw new ForbiddenError(
-        'registration is closed on this site; ask an admin for an account',
-        'registration-closed',
-      );
-    }
-    if (await em.findOne(UserSchema, { email: body.email })) {
-      throw new ConflictError(
-        'email-taken',
-        'an account with this e-mail exists already; sign in instead',
-      );
-    }
-    const user = em.create(UserSchema, {
-      email: body.email,
-      displayName: body.displayName,
-      passwordHash: await hashPassword(body.password),
-      // The first account of a new site runs it.
-      siteRole: userCount === 0 ? 'admin' : 'user',
+    const passwordHash = await hashPassword(body.password);
+    // One registration at a time (a transaction-scoped advisory lock), so two first
+    // sign-ups on an empty site cannot both become its admin.
+    const user = await em.transactional(async (tem) => {
+      await tem.execute(`select pg_advisory_xact_lock(hashtext('chainwright:register'))`);
+      const userCount = await tem.count(UserSchema);
+      if (userCount > 0 && !(await siteSettings(tem)).openRegistration) {
+        throw new ForbiddenError(
+          'registration is closed on this site; ask an admin for an account',
+          'registration-closed',
+        );
+      }
+      if (await tem.findOne(UserSchema, { email: body.email })) {
+        throw new ConflictError(
+          'email-taken',
+          'an account with this e-mail exists already; sign in instead',
+        );
+      }
+      return tem.create(UserSchema, {
+        email: body.email,
+        displayName: body.displayName,
+        passwordHash,
+        // The first account of a new site runs it.
+        siteRole: userCount === 0 ? 'admin' : 'user',
+      });
     });
-    await em.flush();
     await signIn(req, res, user, csrf, 201);
   });
 

@@ -35,6 +35,23 @@ describe('registration', () => {
     expect(ws.status).toBe(201);
   });
 
+  it('should make only one of two simultaneous first sign-ups the admin', async () => {
+    const fresh = await createTestContext();
+    try {
+      const [a, b] = await Promise.all([
+        register(fresh, 'a@race.test'),
+        register(fresh, 'b@race.test'),
+      ]);
+      expect([a.res.status, b.res.status]).toEqual([201, 201]);
+      expect([a.res.body.user.siteRole, b.res.body.user.siteRole].sort()).toEqual([
+        'admin',
+        'user',
+      ]);
+    } finally {
+      await fresh.close();
+    }
+  });
+
   it('should make later accounts plain users', async () => {
     const { res } = await register(ctx, 'second@site.test');
     expect(res.status).toBe(201);
