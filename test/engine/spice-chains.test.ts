@@ -248,6 +248,18 @@ describe('the netlist as an export', () => {
     );
   });
 
+  it('should refuse a lossy transmission line (its √f loss has no exact SPICE element)', () => {
+    const doc: ChainDocumentInput = {
+      ...CHAINS[2],
+      stages: CHAINS[2].stages.map((s) =>
+        s.id === 'line' ? { ...s, values: { ...s.values, lossDbPerM: 0.05 } } : s,
+      ),
+    };
+    expect(() => chainToSpice(doc, { catalogue })).toThrow(
+      /^Stage 4 "Feeder" \(transmission-line\) cannot be written as a SPICE netlist/,
+    );
+  });
+
   it('should refuse a probe node the chain does not have', () => {
     expect(() => chainToSpice(CHAINS[2], { catalogue, probeNodes: [0, 9] })).toThrow(
       /probe node 9 is not a node of this chain \(0\.\.5\)/,
