@@ -7,7 +7,15 @@
 import { chainToSpiceDeck } from '../../shared/engine/spice/netlist';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
 import type { StageDefinition } from '../../shared/engine/types';
-import { chainToTouchstone, TouchstoneExportError } from '../../shared/io/chain-touchstone';
+import { sToAbcd } from '../../shared/engine/core/abcd';
+import { measuredTwoPort } from '../../shared/engine/stages';
+import {
+  chainNetwork,
+  chainToTouchstone,
+  TouchstoneExportError,
+} from '../../shared/io/chain-touchstone';
+import { toMeasuredNetwork } from '../../shared/io/network-data';
+import { writeTouchstone } from '../../shared/io/touchstone-writer';
 import { readTouchstone } from '../../shared/io/touchstone';
 import type { ChainDocumentInput } from '../../shared/schema/chain';
 import { runAc, vectorAt } from './helpers/ngspice';
@@ -58,6 +66,27 @@ describe('Touchstone of a whole chain', () => {
     }
     // Touchstone keeps 12 significant digits; ngspice prints 15.
     expect(worst).toBeLessThan(1e-8);
+  });
+
+  it('should round-trip chain → Touchstone → measured two-port with the same ABCD at every point', () => {
+    // Round-trip identity: the catalogue's measured-two-port reads the exported file back
+    // (through the contract's MeasuredNetwork form) and must give the chain's own cascade.
+    const doc = terminated(50, MIDDLE);
+    const net = chainNetwork(doc, { catalogue });
+    const file = readTouchstone(writeTouchstone(net, { format: 'MA', unit: 'MHz' }), 'rt.s2p');
+    const abcdOf = measuredTwoPort(toMeasuredNetwork(file));
+    const cascaded = sToAbcd(net.s, 50);
+    const got = new Float64Array(8);
+    let worst = 0;
+    file.freqsHz.forEach((f, i) => {
+      abcdOf(f, got, 0);
+      for (let k = 0; k < 8; k += 2) {
+        const [re, im] = [cascaded[8 * i + k], cascaded[8 * i + k + 1]];
+        const scale = Math.max(1e-12, Math.hypot(re, im));
+        worst = Math.max(worst, Math.hypot(got[k] - re, got[k + 1] - im) / scale);
+      }
+    });
+    expect(worst).toBeLessThan(1e-7);
   });
 
   it('should label the file with the chain and the reference', () => {
