@@ -319,6 +319,11 @@ export interface SelectivityReport {
 export interface LevelsReport {
   noiseFloorDbm: number;
   noiseFigureDb: number;
+  /**
+   * The same noise figure by the noise-correlation-matrix method (Hillbrand and Russer), a
+   * cross-check of the Friis cascade (optional).
+   */
+  correlationNoiseFigureDb?: number;
   totalGainDb: number;
   sensitivityDbm: number;
   /** Sensitivity as PEAK and rms EMF at the source, volts. */

@@ -218,6 +218,57 @@ export const T_AMP: StageDefinition = {
   }),
 };
 
+/**
+ * One section that is series (r + jx), then shunt (g + jb), then an ideal n:1 transformer,
+ * multiplied into a single ABCD so that no entry is trivially 0 or 1.
+ */
+export const T_GENERAL: StageDefinition = {
+  type: 't-general',
+  category: 'element',
+  role: 'two-port',
+  label: 'General section',
+  summary: 'A passive section with a full ABCD matrix.',
+  params: [
+    num('r', 10, { min: 0, label: 'Series resistance' }),
+    num('x', 30, { label: 'Series reactance' }),
+    num('g', 0.002, { unit: 'siemens', min: 0, label: 'Shunt conductance' }),
+    num('b', 0.01, { unit: 'siemens', label: 'Shunt susceptance' }),
+    num('n', 2, { unit: 'ratio', min: 0, exclusiveMin: true, label: 'Turns ratio' }),
+  ],
+  build: (v) => {
+    const [r, x, g, b, t] = ['r', 'x', 'g', 'b', 'n'].map((k) => n(v, k));
+    // [[1, Z], [0, 1]]·[[1, 0], [Y, 1]] = [[1 + ZY, Z], [Y, 1]], then ·[[t, 0], [0, 1/t]]
+    const zyR = r * g - x * b;
+    const zyI = r * b + x * g;
+    return {
+      sections: [
+        { abcd: (_f, out, o) => write(out, o, (1 + zyR) * t, zyI * t, r / t, x / t, g * t, b * t, 1 / t, 0) }, // prettier-ignore
+      ],
+      noise: { kind: 'passive' },
+    };
+  },
+};
+
+/** Unilateral amplifier described by noise parameters (Fmin, Rn, Yopt). */
+export const T_FET: StageDefinition = {
+  type: 't-fet',
+  category: 'amplifier',
+  role: 'two-port',
+  label: 'Low-noise amplifier',
+  summary: 'Unilateral stage with noise parameters.',
+  params: [
+    num('rin', 200, { min: 0, exclusiveMin: true, label: 'Input resistance' }),
+    num('fmin', 0.8, { unit: 'db', min: 0, label: 'Fmin' }),
+    num('rn', 15, { min: 0, label: 'Rn' }),
+    num('yopt', 0.015, { unit: 'siemens', label: 'Yopt real part' }),
+    num('boptim', -0.005, { unit: 'siemens', label: 'Yopt imaginary part' }),
+  ],
+  build: (v) => ({
+    sections: [unilateral(1 / n(v, 'rin'), 1 / 300, 0.05)],
+    noise: { kind: 'parameters', fminDb: n(v, 'fmin'), rn: n(v, 'rn'), yoptRe: n(v, 'yopt'), yoptIm: n(v, 'boptim') }, // prettier-ignore
+  }),
+};
+
 /** Difference mixer: unilateral, output |f − fLO|; `declare` states the LO in the model. */
 export const T_MIXER: StageDefinition = {
   type: 't-mixer',
@@ -301,6 +352,8 @@ export const T_MEASURED_LOAD: StageDefinition = {
 };
 
 export const TEST_CATALOGUE: StageDefinition[] = [
+  T_GENERAL,
+  T_FET,
   T_MEASURED_LOAD,
   T_DETECTOR_LOAD,
   T_SOURCE,

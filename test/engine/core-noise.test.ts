@@ -136,5 +136,6 @@ describe('noise and linearity through a built chain', () => {
     near(quiet.levels.noiseFigureDb, 2, 1e-9);
     const g = noisy.levels.totalGainDb;
     near(noisy.levels.noiseFigureDb, cascadeNoiseFigure([g, 0], [2, 20])[1], 1e-9);
+    near(noisy.levels.correlationNoiseFigureDb as number, noisy.levels.noiseFigureDb, 1e-9);
   });
 });

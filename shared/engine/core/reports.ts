@@ -5,6 +5,7 @@
 import type { LevelsReport, NodeReport, StageReport, SweepReport } from '../types';
 import type { BuiltChain } from './build';
 import { cascadeInputPoint } from './linearity';
+import { correlationNoiseFigureDb } from './noise-correlation';
 import type { NodeAnalysis } from './nodes';
 import {
   emfForAvailableDbm,
@@ -133,6 +134,7 @@ export function levelsReport(
   return {
     noiseFloorDbm: floor,
     noiseFigureDb: nf,
+    correlationNoiseFigureDb: correlationNoiseFigureDb(built),
     totalGainDb: last ? last.cumulativeGainDb : 0,
     sensitivityDbm: sens,
     sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[0]) / SQRT2,

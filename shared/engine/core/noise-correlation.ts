@@ -1,0 +1,129 @@
+/**
+ * Exact noise figure of a chain by the noise-correlation-matrix method (H. Hillbrand and
+ * P. H. Russer, "An efficient method for computer aided noise analysis of linear amplifier
+ * networks", IEEE Trans. Circuits and Systems, 1976), as a cross-check of the Friis cascade.
+ *
+ * Each two-port gets a chain-form correlation matrix C_A of its input-referred noise voltage
+ * and current (per hertz, in the ½-normalised form where a resistor R has 2kTR):
+ * - a passive section at temperature T: C_Z = 2kT·herm(Z) moved to chain form by
+ *   T_ZA = [[1, −A], [0, −C]], or C_Y = 2kT·herm(Y) by T_YA = [[0, B], [1, D]] when the
+ *   section has no Z-parameters (a series element);
+ * - an active stage with noise parameters: 2kT0·[[Rn, (Fmin−1)/2 − Rn·Yopt*],
+ *   [(Fmin−1)/2 − Rn·Yopt, Rn·|Yopt|²]]; a stated noise figure F is taken as a noise voltage
+ *   alone, (F − 1)·Re Zs·2kT0, so it holds at the source impedance the stage sees.
+ * Cascade: C = C₁ + A₁·C₂·A₁ᴴ; F = 1 + [1 Zs]·C·[1 Zs]ᴴ / (2kT0·Re Zs).
+ * Frequency translation is taken as transparent (single-sideband, image noise ignored).
+ */
+import type { BuiltChain } from './build';
+import { cascade } from './abcd';
+import { BOLTZMANN } from './noise';
+import { runNodeAnalysis } from './nodes';
+
+type M2 = Float64Array; // [11re, 11im, 12re, 12im, 21re, 21im, 22re, 22im]
+
+/** out = X·C·Xᴴ for complex 2×2 matrices. */
+function congruence(x: M2, c: M2): M2 {
+  const t = new Float64Array(8);
+  cascade(x, 0, c, 0, t, 0);
+  const xh = Float64Array.of(x[0], -x[1], x[4], -x[5], x[2], -x[3], x[6], -x[7]);
+  const out = new Float64Array(8);
+  cascade(t, 0, xh, 0, out, 0);
+  return out;
+}
+
+/** Hermitian part (M + Mᴴ)/2 scaled by s. */
+function hermitian(m: M2, s: number): M2 {
+  return Float64Array.of(
+    s * m[0], 0,
+    (s * (m[2] + m[4])) / 2, (s * (m[3] - m[5])) / 2,
+    (s * (m[4] + m[2])) / 2, (s * (m[5] - m[3])) / 2,
+    s * m[6], 0,
+  ); // prettier-ignore
+}
+
+/** Chain-form correlation matrix of a passive section with ABCD `a` at temperature T. */
+export function passiveCorrelation(a: M2, temperatureK: number): M2 {
+  const kt2 = 2 * BOLTZMANN * temperatureK;
+  const [ar, ai, br, bi, cr, ci, dr, di] = a;
+  const cMag = Math.hypot(cr, ci);
+  const bMag = Math.hypot(br, bi);
+  if (cMag === 0 && bMag === 0) return new Float64Array(8); // transformer-like: lossless
+  const unitDiagonal = ar === 1 && ai === 0 && dr === 1 && di === 0;
+  // A bare series impedance is a noise voltage 2kT·Re Z; a bare shunt admittance a noise
+  // current 2kT·Re Y (the general forms below divide by a zero C or B for these).
+  if (unitDiagonal && cMag === 0) return Float64Array.of(kt2 * br, 0, 0, 0, 0, 0, 0, 0);
+  if (unitDiagonal && bMag === 0) return Float64Array.of(0, 0, 0, 0, 0, 0, kt2 * cr, 0);
+  const inv = (re: number, im: number) => {
+    const d = re * re + im * im;
+    return [re / d, -im / d];
+  };
+  const mul = (xr: number, xi: number, yr: number, yi: number) => [xr * yr - xi * yi, xr * yi + xi * yr]; // prettier-ignore
+  const detR = ar * dr - ai * di - (br * cr - bi * ci);
+  const detI = ar * di + ai * dr - (br * ci + bi * cr);
+  // Pick the representation that exists and is better conditioned (scaled to 50 Ω).
+  if (cMag * 2500 >= bMag) {
+    const [icr, ici] = inv(cr, ci);
+    const z = Float64Array.of(
+      ...mul(ar, ai, icr, ici), ...mul(detR, detI, icr, ici), icr, ici, ...mul(dr, di, icr, ici),
+    ); // prettier-ignore
+    return congruence(Float64Array.of(1, 0, -ar, -ai, 0, 0, -cr, -ci), hermitian(z, kt2));
+  }
+  const [ibr, ibi] = inv(br, bi);
+  const y = Float64Array.of(
+    ...mul(dr, di, ibr, ibi), ...mul(-detR, -detI, ibr, ibi), -ibr, -ibi, ...mul(ar, ai, ibr, ibi),
+  ); // prettier-ignore
+  return congruence(Float64Array.of(0, 0, br, bi, 1, 0, dr, di), hermitian(y, kt2));
+}
+
+/**
+ * Noise figure (dB) of the whole chain at f0 by the correlation-matrix method. Passive stages
+ * are taken at the chain's reference temperature, like the Friis cascade.
+ */
+export function correlationNoiseFigureDb(built: BuiltChain): number {
+  const t0 = built.settings.temperatureK;
+  const kt2 = 2 * BOLTZMANN * t0;
+  const na = runNodeAnalysis(built, [built.settings.f0Hz]);
+  const units: { a: M2; c: M2 }[] = [];
+  // A load that declares its own noise (a converter or receiver input) ends the cascade as
+  // noise sources at its terminals, behind a through connection.
+  for (const stage of [...built.twoPorts, built.load]) {
+    const decl = stage.model.noise;
+    if (stage === built.load && (!decl || decl.kind === 'passive')) continue;
+    const mats = stage.model.sections.map((s, k) => {
+      const m = new Float64Array(8);
+      s.abcd(built.f0AtFlatNode[stage.firstSection + k], m, 0);
+      return m;
+    });
+    if (!decl || decl.kind === 'passive') {
+      for (const a of mats) units.push({ a, c: passiveCorrelation(a, t0) });
+      continue;
+    }
+    const a = Float64Array.of(1, 0, 0, 0, 0, 0, 1, 0);
+    for (const m of mats) cascade(a, 0, m, 0, a, 0);
+    let c: M2;
+    if (decl.kind === 'figure') {
+      const rs = na.zsrcRe[stage.firstSection];
+      c = Float64Array.of(kt2 * (Math.pow(10, decl.nfDb / 10) - 1) * rs, 0, 0, 0, 0, 0, 0, 0);
+    } else {
+      const f1 = (Math.pow(10, decl.fminDb / 10) - 1) / 2;
+      const { rn, yoptRe: yr, yoptIm: yi } = decl;
+      c = Float64Array.of(
+        kt2 * rn, 0,
+        kt2 * (f1 - rn * yr), kt2 * (rn * yi),
+        kt2 * (f1 - rn * yr), -kt2 * (rn * yi),
+        kt2 * rn * (yr * yr + yi * yi), 0,
+      ); // prettier-ignore
+    }
+    units.push({ a, c });
+  }
+  let total: M2 = new Float64Array(8);
+  for (let k = units.length - 1; k >= 0; k--) {
+    const moved = congruence(units[k].a, total);
+    total = units[k].c.map((v, s) => v + moved[s]);
+  }
+  const zr = na.zsrcRe[0];
+  const zi = na.zsrcIm[0];
+  // [1 Zs]·C·[1 Zs]ᴴ = C11 + 2·Re(C12·Zs*) + C22·|Zs|²
+  const excess = total[0] + 2 * (total[2] * zr + total[3] * zi) + total[6] * (zr * zr + zi * zi);
+  return 10 * Math.log10(1 + excess / (kt2 * zr));
+}
