@@ -132,6 +132,8 @@ describe('AnalysisResultsComponent', () => {
       await fixture.whenStable();
       expect(clicked).toHaveBeenCalledTimes(1);
       expect(urls[0].type).toBe('text/csv;charset=utf-8');
+      const bytes = new Uint8Array(await urls[0].arrayBuffer());
+      expect(Array.from(bytes.slice(0, 3))).toEqual([0xef, 0xbb, 0xbf]);
       expect(await urls[0].text()).toContain('Frequency at node,Hz,');
       clicked.mockRestore();
     });

@@ -70,7 +70,8 @@ export class BudgetTableComponent {
   protected downloadCsv(): void {
     const view = this.page.defaultView;
     if (!view) return;
-    const blob = new Blob([budgetCsv(this.table())], { type: 'text/csv;charset=utf-8' });
+    // A byte-order mark tells spreadsheet programs the file is UTF-8 (Ω, µ in the labels).
+    const blob = new Blob(['\uFEFF', budgetCsv(this.table())], { type: 'text/csv;charset=utf-8' });
     const url = view.URL.createObjectURL(blob);
     const link = this.page.createElement('a');
     link.href = url;
