@@ -30,6 +30,7 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
   const t = built.settings.thresholds;
   const flags: Flag[] = [];
   const kind = r.kind === 'shunt' ? 'Tank' : 'Series resonator';
+  if (r.resonanceHz !== null && r.loadedQ === null) return flags; // lossless: Q is unbounded
   if (r.resonanceHz === null || r.loadedQ === null) {
     const [lo, hi] = searchRange(built);
     flags.push({
