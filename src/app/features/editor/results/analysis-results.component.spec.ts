@@ -324,6 +324,29 @@ describe('AnalysisResultsComponent', () => {
   }
 });
 
+describe('AnalysisResultsComponent without the plotting library', () => {
+  it('should say why the plots are missing when the library cannot be fetched', async () => {
+    TestBed.configureTestingModule({
+      providers: [
+        {
+          provide: PLOTLY_LOADER,
+          useValue: () => Promise.reject(new Error('the network is down')),
+        },
+      ],
+    });
+    const fixture = TestBed.createComponent(ResultsHostComponent);
+    await fixture.whenStable();
+    const tabs = await TestbedHarnessEnvironment.loader(fixture).getHarness(MatTabGroupHarness);
+    await tabs.selectTab({ label: 'Plots' });
+    await fixture.whenStable();
+    const alerts = Array.from(
+      (fixture.nativeElement as HTMLElement).querySelectorAll('cw-result-plot [role="alert"]'),
+    ).map((e) => e.textContent?.trim());
+    expect(alerts).toHaveLength(4);
+    expect(alerts[0]).toBe('The plot could not be drawn: the network is down');
+  });
+});
+
 @Component({
   imports: [AnalysisResultsComponent],
   template: `
