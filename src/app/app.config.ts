@@ -54,16 +54,18 @@ export const appConfig: ApplicationConfig = {
     },
     {
       provide: MAT_SNACK_BAR_DEFAULT_OPTIONS,
-      useValue: { duration: 6000, politeness: 'assertive' } satisfies MatSnackBarConfig,
+      // Start from Material's own defaults: a partial object would drop the rest of them.
+      useValue: { ...new MatSnackBarConfig(), duration: 6000, politeness: 'assertive' },
     },
     {
       provide: MAT_DIALOG_DEFAULT_OPTIONS,
+      // From Material's defaults too: without them the dialog loses role="dialog" and aria-modal.
       useValue: {
+        ...new MatDialogConfig(),
         autoFocus: 'first-tabbable',
         restoreFocus: true,
-        hasBackdrop: true,
         maxWidth: '95vw',
-      } satisfies MatDialogConfig,
+      },
     },
     {
       provide: MAT_TOOLTIP_DEFAULT_OPTIONS,

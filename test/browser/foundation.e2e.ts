@@ -73,7 +73,7 @@ describe('client foundation', () => {
     await shot(page, 'foundation-04-empty-list');
 
     await page.getByRole('button', { name: 'New chain' }).click();
-    const dialog = page.locator('mat-dialog-container');
+    const dialog = page.getByRole('dialog', { name: 'New chain' });
     await expectVisible(dialog.getByRole('heading', { name: 'New chain' }));
     await dialog.getByLabel('Name').fill('Loop antenna front end');
     await shot(page, 'foundation-05-new-chain-dialog');
@@ -142,6 +142,27 @@ describe('client foundation', () => {
     await expectVisible(page.getByText('Only owners of this workspace can add'));
     expect(await page.getByRole('button', { name: 'Add member' }).count()).toBe(0);
     await shot(page, 'foundation-10-viewer-members');
+  });
+
+  it('should fit a phone-width screen and show keyboard focus', async () => {
+    const { page } = watched;
+    await page.setViewportSize({ width: 390, height: 780 });
+    await signIn(page, DEMO.editor, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.locator('tr.mat-mdc-row, .cw-empty').first().waitFor();
+    // The page must not scroll sideways; a wide table scrolls inside its own frame.
+    const overflow = await page.evaluate(() => {
+      const root = (
+        globalThis as unknown as {
+          document: { documentElement: { scrollWidth: number; clientWidth: number } };
+        }
+      ).document.documentElement;
+      return root.scrollWidth - root.clientWidth;
+    });
+    expect(overflow).toBeLessThanOrEqual(0);
+    await page.getByLabel('Filter by name or description').focus();
+    await page.keyboard.press('Shift+Tab');
+    await shot(page, 'foundation-15-phone-focus');
   });
 
   it('should show the owner the members page and the site administration', async () => {

@@ -32,33 +32,35 @@ import { AdminApi, AdminUserRow } from '../../core/api/admin.api';
       </mat-card>
 
       <h2>Accounts ({{ users().length }})</h2>
-      <table mat-table [dataSource]="users()" class="cw-table">
-        <caption class="cw-visually-hidden">
-          All accounts on this site
-        </caption>
-        <ng-container matColumnDef="displayName">
-          <th mat-header-cell *matHeaderCellDef scope="col">Name</th>
-          <td mat-cell *matCellDef="let u">{{ u.displayName }}</td>
-        </ng-container>
-        <ng-container matColumnDef="email">
-          <th mat-header-cell *matHeaderCellDef scope="col">E-mail</th>
-          <td mat-cell *matCellDef="let u">{{ u.email }}</td>
-        </ng-container>
-        <ng-container matColumnDef="siteRole">
-          <th mat-header-cell *matHeaderCellDef scope="col">Site role</th>
-          <td mat-cell *matCellDef="let u">
-            {{ u.siteRole === 'admin' ? 'Administrator' : 'User' }}
-          </td>
-        </ng-container>
-        <ng-container matColumnDef="createdAt">
-          <th mat-header-cell *matHeaderCellDef scope="col">Since</th>
-          <td mat-cell *matCellDef="let u">
-            {{ u.createdAt ? (u.createdAt | date: 'mediumDate') : '—' }}
-          </td>
-        </ng-container>
-        <tr mat-header-row *matHeaderRowDef="columns"></tr>
-        <tr mat-row *matRowDef="let row; columns: columns"></tr>
-      </table>
+      <div class="cw-table-scroll">
+        <table mat-table [dataSource]="users()" class="cw-table">
+          <caption class="cw-visually-hidden">
+            All accounts on this site
+          </caption>
+          <ng-container matColumnDef="displayName">
+            <th mat-header-cell *matHeaderCellDef scope="col">Name</th>
+            <td mat-cell *matCellDef="let u">{{ u.displayName }}</td>
+          </ng-container>
+          <ng-container matColumnDef="email">
+            <th mat-header-cell *matHeaderCellDef scope="col">E-mail</th>
+            <td mat-cell *matCellDef="let u">{{ u.email }}</td>
+          </ng-container>
+          <ng-container matColumnDef="siteRole">
+            <th mat-header-cell *matHeaderCellDef scope="col">Site role</th>
+            <td mat-cell *matCellDef="let u">
+              {{ u.siteRole === 'admin' ? 'Administrator' : 'User' }}
+            </td>
+          </ng-container>
+          <ng-container matColumnDef="createdAt">
+            <th mat-header-cell *matHeaderCellDef scope="col">Since</th>
+            <td mat-cell *matCellDef="let u">
+              {{ u.createdAt ? (u.createdAt | date: 'mediumDate') : '—' }}
+            </td>
+          </ng-container>
+          <tr mat-header-row *matHeaderRowDef="columns"></tr>
+          <tr mat-row *matRowDef="let row; columns: columns"></tr>
+        </table>
+      </div>
     </section>
   `,
   styles: `
