@@ -10,7 +10,8 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 /** Where the server under test answers, e.g. http://127.0.0.1:4310. */
 export const BASE_URL = (process.env.BASE_URL ?? 'http://127.0.0.1:4300').replace(/\/$/, '');
 
-const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+// scripts/test.sh passes CHROME_PATH; the Debian package installs it here.
+const CHROMIUM = process.env.CHROME_PATH ?? process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const CHROMIUM_ARGS = [
   '--headless',
   '--no-sandbox',
