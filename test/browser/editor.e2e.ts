@@ -213,6 +213,21 @@ describe('chain editor', () => {
       'triode-amplifier',
       'envelope-detector',
     ]);
+    // The same move by a pointer drag of the card, then undone again.
+    await dragCard(page, 2, 1);
+    await expectTypes(page, [
+      'resistive-generator',
+      'triode-amplifier',
+      'shunt-lc-tank',
+      'envelope-detector',
+    ]);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expectTypes(page, [
+      'resistive-generator',
+      'shunt-lc-tank',
+      'triode-amplifier',
+      'envelope-detector',
+    ]);
     await page
       .getByRole('radio', { name: 'Chain' })
       .or(page.getByRole('button', { name: 'Chain', exact: true }))
@@ -371,6 +386,18 @@ async function dragFromPalette(page: Page, label: string, target: Locator): Prom
   await page.mouse.move(to.x + to.width * 0.25, to.y + to.height / 2, { steps: 5 });
   await page.mouse.up();
   await page.getByPlaceholder('Search types').fill('');
+}
+
+/** Drags the card at `from` over the card at `to` (its left part) and drops it there. */
+async function dragCard(page: Page, from: number, to: number): Promise<void> {
+  const start = (await card(page, from).locator('.values').boundingBox())!;
+  const target = (await card(page, to).boundingBox())!;
+  await page.mouse.move(start.x + 20, start.y + start.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(start.x + 10, start.y + start.height / 2, { steps: 4 });
+  await page.mouse.move(target.x + target.width * 0.3, target.y + 40, { steps: 25 });
+  await page.mouse.move(target.x + target.width * 0.25, target.y + 40, { steps: 5 });
+  await page.mouse.up();
 }
 
 async function save(page: Page, message: string): Promise<void> {

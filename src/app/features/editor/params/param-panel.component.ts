@@ -3,7 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import type { ParamSpec, ParamValues } from '../../../../../shared/engine/types';
-import type { StageInstance } from '../../../../../shared/schema/chain';
+import type { ChainDocument, StageInstance } from '../../../../../shared/schema/chain';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
 import {
@@ -32,12 +32,20 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
 export class ParamPanelComponent {
   /** Disabled inputs for viewers and for revisions being viewed. */
   readonly readOnly = input(false);
+  /** The document on screen when it is not the edited one (a revision being viewed). */
+  readonly document = input<ChainDocument | null>(null);
 
   protected readonly store = inject(EditorStore);
   private readonly runner = inject(AnalysisRunner);
 
-  protected readonly stage = this.store.selectedStage;
-  protected readonly type = this.store.selectedType;
+  protected readonly stage = computed(() => {
+    const doc = this.document() ?? this.store.doc();
+    return doc.stages.find((s) => s.id === this.store.selectedId()) ?? null;
+  });
+  protected readonly type = computed(() => {
+    const stage = this.stage();
+    return stage ? (this.store.catalogue().get(stage.type) ?? null) : null;
+  });
   protected readonly params = computed(() => {
     const stage = this.stage();
     const type = this.type();

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import type { ParamSpec, UnitKind } from '../../../../../shared/engine/types';
-import type { ChainSettings, Thresholds } from '../../../../../shared/schema/chain';
+import type { ChainDocument, ChainSettings, Thresholds } from '../../../../../shared/schema/chain';
 import { formatEngineering, parseQuantity } from '../../../../../shared/units';
 import { QuantityFieldComponent, type QuantityEdit } from '../params/quantity-field.component';
 import { EditorStore } from '../state/editor.store';
@@ -141,9 +141,12 @@ const FIELDS: SettingField[] = [
 })
 export class ChainSettingsComponent {
   readonly readOnly = input(false);
+  /** The document on screen when it is not the edited one (a revision being viewed). */
+  readonly document = input<ChainDocument | null>(null);
   protected readonly store = inject(EditorStore);
   protected readonly fields = FIELDS;
-  protected readonly settings = computed(() => this.store.doc().settings);
+  protected readonly shown = computed(() => this.document() ?? this.store.doc());
+  protected readonly settings = computed(() => this.shown().settings);
   /** What was typed per field with the value it gave, so undo shows the value, not stale text. */
   private readonly typed = signal<Record<string, { text: string; value: number }>>({});
   protected readonly offsetsError = signal<string | null>(null);
