@@ -1,10 +1,11 @@
 import { provideHttpClient } from '@angular/common/http';
 import { provideHttpClientTesting } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import type { ChainDto, WorkspaceRole } from '../../../../../shared/schema/api';
+import type { WorkspaceRole } from '../../../../../shared/schema/api';
+import { chainDto } from '../testing/chain-dto';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
-import { CATALOGUE, sampleDocument } from '../testing/catalogue-fixture';
+import { CATALOGUE } from '../testing/catalogue-fixture';
 import { ParamPanelComponent } from './param-panel.component';
 
 describe('ParamPanelComponent', () => {
@@ -170,24 +171,3 @@ describe('ParamPanelComponent', () => {
     return store.doc().stages.find((s) => s.id === 'tank')!;
   }
 });
-
-function chainDto(role: WorkspaceRole): ChainDto {
-  const document = sampleDocument();
-  return {
-    id: 'c1',
-    workspaceId: 'w1',
-    name: document.name,
-    description: '',
-    f0Hz: document.settings.f0Hz,
-    stageCount: document.stages.length,
-    flagCount: 0,
-    version: 3,
-    parentId: null,
-    createdBy: 'Ada',
-    updatedBy: 'Ada',
-    updatedAt: '2026-01-01T00:00:00Z',
-    createdAt: '2026-01-01T00:00:00Z',
-    document,
-    role,
-  };
-}

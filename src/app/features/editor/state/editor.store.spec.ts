@@ -1,6 +1,6 @@
 import { TestBed } from '@angular/core/testing';
-import type { ChainDto, WorkspaceRole } from '../../../../../shared/schema/api';
-import { AMP, CATALOGUE, LOAD, SOURCE, TANK, sampleDocument } from '../testing/catalogue-fixture';
+import { chainDto } from '../testing/chain-dto';
+import { AMP, CATALOGUE, LOAD, SOURCE, TANK } from '../testing/catalogue-fixture';
 import { EditorStore } from './editor.store';
 
 describe('EditorStore', () => {
@@ -97,27 +97,6 @@ describe('EditorStore', () => {
 });
 
 // Helpers
-
-function chainDto(role: WorkspaceRole): ChainDto {
-  const document = sampleDocument();
-  return {
-    id: 'c1',
-    workspaceId: 'w1',
-    name: document.name,
-    description: '',
-    f0Hz: 1e6,
-    stageCount: 4,
-    flagCount: 0,
-    version: 3,
-    parentId: null,
-    createdBy: 'Ada',
-    updatedBy: 'Ada',
-    updatedAt: '2026-01-01T00:00:00Z',
-    createdAt: '2026-01-01T00:00:00Z',
-    document,
-    role,
-  };
-}
 
 function reorderKeys<T>(value: T): T {
   if (Array.isArray(value)) return value.map(reorderKeys) as T;
