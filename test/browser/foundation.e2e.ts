@@ -179,6 +179,19 @@ describe('client foundation', () => {
     await expectVisible(page.getByRole('cell', { name: DEMO.viewer }));
     await shot(page, 'foundation-12-owner-members');
 
+    // Renaming the workspace shows at once in the heading and the toolbar's switcher.
+    const heading = await page.getByRole('heading', { name: /^Members of / }).textContent();
+    const oldName = (heading ?? '').replace(/^Members of /, '').trim();
+    await page.getByRole('button', { name: 'Rename workspace' }).click();
+    const rename = page.getByRole('dialog', { name: 'Rename workspace' });
+    await rename.getByLabel('Workspace name').fill(`${oldName} (renamed)`);
+    await rename.getByRole('button', { name: 'Rename' }).click();
+    await expectVisible(page.getByRole('heading', { name: `Members of ${oldName} (renamed)` }));
+    await page.getByRole('button', { name: 'Rename workspace' }).click();
+    await rename.getByLabel('Workspace name').fill(oldName);
+    await rename.getByRole('button', { name: 'Rename' }).click();
+    await expectVisible(page.getByRole('heading', { name: `Members of ${oldName}`, exact: true }));
+
     await menu.click();
     await page.getByRole('menuitem', { name: 'Site administration' }).click();
     await expectVisible(page.getByRole('switch', { name: 'Open registration' }));

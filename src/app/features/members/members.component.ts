@@ -17,6 +17,7 @@ import {
   ConfirmDialogComponent,
   ConfirmDialogData,
 } from '../../core/dialogs/confirm-dialog.component';
+import { NameDialogComponent, NameDialogData } from '../../core/dialogs/name-dialog.component';
 import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
@@ -114,6 +115,28 @@ export default class MembersComponent {
       // Reload either way, so a refused change shows the role the server kept.
       await this.load(this.workspaceId());
       if (member.userId === this.session.user()?.id) await this.session.refresh();
+    }
+  }
+
+  protected async renameWorkspace(): Promise<void> {
+    const current = this.session.currentMembership()?.workspaceName ?? '';
+    const ref = this.dialog.open<NameDialogComponent, NameDialogData, string>(NameDialogComponent, {
+      data: {
+        title: 'Rename workspace',
+        label: 'Workspace name',
+        initial: current,
+        maxLength: 120,
+        submitLabel: 'Rename',
+      },
+    });
+    const name = await firstValueFrom(ref.afterClosed());
+    if (!name || name === current) return;
+    try {
+      await firstValueFrom(this.api.rename(this.workspaceId(), name));
+      // The toolbar's workspace list and this heading read the memberships.
+      await this.session.refresh();
+    } catch {
+      // The error interceptor said why.
     }
   }
 
