@@ -55,14 +55,7 @@ export interface ParamSpec {
 }
 
 export type StageCategory =
-  | 'source'
-  | 'coupler'
-  | 'matching'
-  | 'filter'
-  | 'amplifier'
-  | 'mixer'
-  | 'load'
-  | 'element';
+  'source' | 'coupler' | 'matching' | 'filter' | 'amplifier' | 'mixer' | 'load' | 'element';
 
 export type ParamValues = Record<string, number | string | boolean>;
 
@@ -95,6 +88,14 @@ export type ResonatorDecl =
       node: number;
       /** The tank's own admittance (its lossy L and C only), for unloaded Q. */
       ownAdmittance: ComplexFn;
+      /**
+       * Set for one tank of a coupled pair: the side its partner tank lies on. The node's
+       * total susceptance then carries the partner's resonance as well, so the tank's Q is
+       * worked from its own susceptance slope and the conductances at its node instead.
+       * A tank whose partner is downstream is loaded by its partner on purpose: no loading
+       * ratio is reported for it.
+       */
+      coupledPartner?: 'upstream' | 'downstream';
     }
   | {
       kind: 'series';

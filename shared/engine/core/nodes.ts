@@ -22,6 +22,9 @@ const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
 
 /** Results of a node analysis. Arrays are `nodes × points`, index `node·points + i`. */
+
+/** Lowest frequency a section is evaluated at after a mixer, Hz. */
+const MIN_NODE_HZ = 1e-3;
 export interface NodeAnalysis {
   points: number;
   /** Flat nodes (sections + 1). */
@@ -94,7 +97,9 @@ export function runNodeAnalysis(
     for (let i = 0; i < P; i++) {
       const fj = fNode[base + i];
       s.abcd(fj, m, 8 * (base + i));
-      fNode[base + P + i] = tr ? tr(fj) : fj;
+      // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
+      // open circuit and its matrix infinite; evaluate such a point at 1 mHz instead.
+      fNode[base + P + i] = tr ? Math.max(tr(fj), MIN_NODE_HZ) : fj;
     }
   }
 

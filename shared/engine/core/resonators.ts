@@ -12,7 +12,7 @@
  * node's own frequency, which differs after a mixer. Only rising crossings count: a falling
  * one is a pole of B (a series resonance elsewhere), not a resonance of the tank.
  */
-import type { ComplexFn, ResonatorReport } from '../types';
+import type { ComplexFn, ResonatorDecl, ResonatorReport } from '../types';
 import type { BuiltChain } from './build';
 import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { logGrid } from './sweep';
@@ -184,6 +184,35 @@ function shuntExtract(node: number, downstream: boolean): Extract {
   };
 }
 
+/**
+ * One tank of a coupled pair, probed at the stage boundary on the tank's far side from its
+ * partner (electrically the tank's own node): real part = the conductance there (source,
+ * and downstream when `downstream`; `ownToo` adds the tank's own when the probed side does
+ * not already hold it), imaginary part = the tank's OWN susceptance, so Q = (ωr/2G)·dB/dω
+ * uses the energy the tank itself stores, not the pair's split response.
+ */
+function coupledExtract(
+  node: number,
+  own: ComplexFn,
+  withSource: boolean,
+  downstream: boolean,
+  ownToo: boolean,
+): Extract {
+  const y = new Float64Array(2);
+  return (na, i, out) => {
+    const k = node * na.points + i;
+    out[0] = 0;
+    out[1] = 0;
+    if (withSource) addInverse(na.zsrcRe[k], na.zsrcIm[k], out, 0);
+    if (downstream) addInverse(na.zinRe[k], na.zinIm[k], out, 0);
+    const f = na.fNode[k];
+    own(f, y, 0);
+    if (ownToo) out[0] += y[0];
+    out[1] = y[1];
+    out[2] = f;
+  };
+}
+
 function seriesExtract(built: BuiltChain, section: number): Extract {
   const m = new Float64Array(8);
   return (na, i, out) => {
@@ -225,6 +254,9 @@ export function analyzeResonators(built: BuiltChain): ResonatorFinding[] {
   const f0 = built.settings.f0Hz;
   return decls.map(({ stage, decl }): ResonatorFinding => {
     const base = { stageId: stage.id, label: decl.label, kind: decl.kind };
+    if (decl.kind === 'shunt' && decl.coupledPartner) {
+      return coupledTank(built, grid, gridNa, stage, decl, base);
+    }
     if (decl.kind === 'shunt') {
       const flat = stage.firstSection + max(0, min(decl.node, stage.sectionCount));
       const att = resonate(built, grid, gridNa, shuntExtract(flat, true), f0);
@@ -278,4 +310,57 @@ export function analyzeResonators(built: BuiltChain): ResonatorFinding[] {
       downstreamLabel: downstreamOf(built, section + 1),
     };
   });
+}
+
+type BuiltStageOf = BuiltChain['twoPorts'][number];
+type ShuntDecl = ResonatorDecl & { kind: 'shunt' };
+
+/**
+ * A tank of a coupled pair. Its Q comes from its own susceptance slope and the conductance
+ * at its node (see coupledExtract). The first tank (partner downstream) is reported loaded
+ * by everything at its node and detached as itself plus the source; it is damped by its
+ * partner on purpose, so it gets no loading ratio. The second tank (partner upstream)
+ * is judged like any tank: with and without the stages after it.
+ */
+function coupledTank(
+  built: BuiltChain,
+  grid: Float64Array,
+  gridNa: NodeAnalysis,
+  stage: BuiltStageOf,
+  decl: ShuntDecl,
+  base: Pick<ResonatorFinding, 'stageId' | 'label' | 'kind'>,
+): ResonatorFinding {
+  const first = decl.coupledPartner === 'downstream';
+  const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
+  const f0 = built.settings.f0Hz;
+  const own = decl.ownAdmittance;
+  const att = resonate(built, grid, gridNa, coupledExtract(flat, own, true, true, false), f0);
+  const det = first
+    ? resonate(built, grid, gridNa, coupledExtract(flat, own, true, false, true), f0)
+    : resonate(built, grid, gridNa, coupledExtract(flat, own, true, false, false), f0);
+  const qA = nn(att?.q);
+  const qD = nn(det?.q);
+  let share: number | null = null;
+  if (att && !first) {
+    const one = runNodeAnalysis(built, [att.fIn]);
+    const zr = one.zinRe[flat];
+    const zi = one.zinIm[flat];
+    const gDown = isFiniteNumber(zr) && isFiniteNumber(zi) ? zr / (zr * zr + zi * zi) : 0;
+    share = att.real > 0 ? gDown / att.real : null;
+  }
+  return {
+    ...base,
+    node: userNodeOf(built, flat),
+    resonanceHz: att ? att.fr : null,
+    loadedQ: qA,
+    unloadedQ: att ? ownResonance(own, att.fr) : null,
+    bandwidthHz: att && qA ? att.fr / qA : null,
+    detachedQ: qD,
+    detachedBandwidthHz: det && qD ? det.fr / qD : null,
+    loadingRatio: !first && qA && qD ? qA / qD : null,
+    downstreamShare: share,
+    flat,
+    f0LocalHz: built.f0AtFlatNode[flat],
+    downstreamLabel: first ? 'its coupled partner' : downstreamOf(built, flat),
+  };
 }

@@ -64,9 +64,25 @@ export const COUPLED_BANDPASS: StageDefinition = {
     const p = readParams(PARAMS, values);
     const [l, c, ql, qc] = [p.num('l'), p.num('c'), p.num('ql'), p.num('qc')];
     const own = sumOf(inductorYFn(l, ql), capacitorYFn(c, qc));
+    // With top-capacitor coupling each tank resonates with its own C plus the coupling
+    // capacitor (the usual design rule: C_tank = C_resonant − Cc), so that is the tank
+    // whose resonance and stored energy the Q figures describe.
+    const tankY = p.str('coupling') === 'top-c' ? sumOf(own, capacitorYFn(p.num('cc'), qc)) : own;
     const resonators = [
-      { kind: 'shunt' as const, label: 'first tank', node: 1, ownAdmittance: own },
-      { kind: 'shunt' as const, label: 'second tank', node: 3, ownAdmittance: own },
+      {
+        kind: 'shunt' as const,
+        label: 'first tank',
+        node: 1,
+        ownAdmittance: tankY,
+        coupledPartner: 'downstream' as const,
+      },
+      {
+        kind: 'shunt' as const,
+        label: 'second tank',
+        node: 3,
+        ownAdmittance: tankY,
+        coupledPartner: 'upstream' as const,
+      },
     ];
     if (p.str('coupling') === 'top-c') {
       const cc = p.num('cc');
