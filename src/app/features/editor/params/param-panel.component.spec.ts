@@ -76,6 +76,16 @@ describe('ParamPanelComponent', () => {
       expect(tank().values['l']).toBe(before);
     });
 
+    it('should not carry unread text over to another stage of the same type', async () => {
+      await type('l', '22 uH');
+      await type('l', 'not a value');
+      store.duplicate('tank');
+      await fixture.whenStable();
+      expect(store.selectedId()).not.toBe('tank');
+      expect(input('l')!.value).toBe('22 uH');
+      expect(note('l')).toBe('');
+    });
+
     it('should refuse a value below the schema minimum in the field unit', async () => {
       await type('l', '0.1 nH');
       expect(note('l')).toBe('must be at least 1 nH');

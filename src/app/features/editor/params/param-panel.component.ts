@@ -46,10 +46,12 @@ export class ParamPanelComponent {
     const stage = this.stage();
     return stage ? (this.store.catalogue().get(stage.type) ?? null) : null;
   });
-  protected readonly params = computed(() => {
+  /** Fields keyed by stage and parameter, so another stage never inherits a field's typed text. */
+  protected readonly fields = computed(() => {
     const stage = this.stage();
     const type = this.type();
-    return stage && type ? visibleParams(stage, type) : [];
+    if (!stage || !type) return [];
+    return visibleParams(stage, type).map((spec) => ({ id: `${stage.id}:${spec.key}`, spec }));
   });
   /** Server refusals of this stage, by parameter key ('' for the stage as a whole). */
   protected readonly refusals = computed(() => {
