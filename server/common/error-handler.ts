@@ -94,7 +94,9 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
 /** The one error middleware: maps typed errors, zod and body-parser errors to JSON. */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const { status, body } = toDto(err);
-  if (status >= 500) console.error(`[server] ${req.method} ${req.originalUrl}:`, err);
+  // Deliberate HttpErrors (e.g. 503 engine unavailable) are answers, not failures: log the rest.
+  if (status >= 500 && !(err instanceof HttpError))
+    console.error(`[server] ${req.method} ${req.originalUrl}:`, err);
   if (res.headersSent) return;
   res.status(status).json(body);
 };

@@ -83,6 +83,22 @@ describe('creating', () => {
     expect(revisions.body[0].message).toBe('Created from example test-tank');
   });
 
+  it('should list the examples with their names and descriptions', async () => {
+    const res = await send(viewer, 'get', '/api/examples');
+    expect(res.body).toEqual([
+      {
+        key: 'test-tank',
+        name: 'Test tank into a detector',
+        description: 'A 1 MHz tank fed from a 5 kilohm generator, loaded by a diode detector.',
+      },
+      {
+        key: 'test-tank-light',
+        name: 'Test tank, lighter detector load',
+        description: expect.any(String),
+      },
+    ]);
+  });
+
   it('should answer 404 for an example that does not exist', async () => {
     const res = await send(editor, 'post', `/api/workspaces/${wid}/chains`, {
       fromExample: 'no-such-one',

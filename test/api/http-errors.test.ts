@@ -1,7 +1,8 @@
 /** Bad requests get a JSON answer that says what to fix; nothing crashes. */
 import request from 'supertest';
 import { anonymous, createUser, send, signIn, type Client } from './support/agents';
-import { createTestContext, type TestContext } from './support/test-db';
+import path from 'node:path';
+import { createTestContext, FIXTURES, type TestContext } from './support/test-db';
 
 let ctx: TestContext;
 let user: Client;
@@ -106,5 +107,16 @@ describe('routing', () => {
     expect(cookie).toMatch(/^cw_session=/);
     expect(cookie).toContain('HttpOnly');
     expect(cookie).toContain('SameSite=Lax');
+  });
+
+  it('should say the client is not built, instead of a bare 404, when it is missing', async () => {
+    const bare = await createTestContext({ clientDir: path.join(FIXTURES, 'no-such-build') });
+    try {
+      const res = await request(bare.app).get('/');
+      expect(res.status).toBe(503);
+      expect(res.text).toContain('npm start');
+    } finally {
+      await bare.close();
+    }
   });
 });
