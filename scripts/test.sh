@@ -40,7 +40,8 @@ set -e
 ensure_node_modules
 ensure_postgres_binaries
 missing=()
-command -v chromium >/dev/null || missing+=(chromium)
+# Fonts too: without recommended packages Chromium would have none to lay text out with.
+command -v chromium >/dev/null || missing+=(chromium fonts-liberation fonts-dejavu-core)
 command -v ngspice >/dev/null || missing+=(ngspice)
 if [ ${#missing[@]} -gt 0 ]; then
   step "Installing ${missing[*]} from Debian"
