@@ -22,6 +22,8 @@ import { workspacesRouter } from './workspaces/routes';
 export function createApp(services: Services): Express {
   const { config, em, orm } = services;
   const app = express();
+  // Behind a proxy, client addresses (for the sign-in limit) and HTTPS come from its headers.
+  if (config.trustProxyHops > 0) app.set('trust proxy', config.trustProxyHops);
 
   app.use(
     helmet({

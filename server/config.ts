@@ -14,6 +14,8 @@ export interface ServerConfig {
   sessionSecret: string;
   /** Whether the session cookie is sent over HTTPS only (set behind a TLS proxy). */
   cookieSecure: boolean;
+  /** Reverse proxies in front of the server (0: none); sets Express's `trust proxy`. */
+  trustProxyHops: number;
   /** The built Angular app (index.html and assets). */
   clientDir: string;
   /** Folder of `<key>.chain.json` example chains. */
@@ -47,6 +49,7 @@ export function configFromEnv(env: NodeJS.ProcessEnv = process.env): ServerConfi
     // A random secret signs out everyone at restart; scripts/start.sh keeps one in .data/.
     sessionSecret: env.CW_SESSION_SECRET || randomBytes(32).toString('hex'),
     cookieSecure: env.CW_COOKIE_SECURE === '1',
+    trustProxyHops: intFrom(env.CW_TRUST_PROXY_HOPS, 0),
     clientDir: env.CW_CLIENT_DIR || path.join(REPO_ROOT, 'dist', 'client', 'browser'),
     examplesDir: env.CW_EXAMPLES_DIR || path.join(REPO_ROOT, 'examples'),
     bodyLimitBytes: intFrom(env.CW_BODY_LIMIT_BYTES, 1024 * 1024),

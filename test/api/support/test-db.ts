@@ -33,6 +33,7 @@ export function testConfig(schema: string, overrides: Partial<ServerConfig> = {}
     port: 0,
     sessionSecret: randomBytes(16).toString('hex'),
     cookieSecure: false,
+    trustProxyHops: 0,
     clientDir: path.join(FIXTURES, 'client'),
     examplesDir: path.join(FIXTURES, 'examples'),
     bodyLimitBytes: 1024 * 1024,
