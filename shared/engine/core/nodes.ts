@@ -21,10 +21,10 @@ import type { BuiltChain } from './build';
 const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
 
-/** Results of a node analysis. Arrays are `nodes × points`, index `node·points + i`. */
-
 /** Lowest frequency a section is evaluated at after a mixer, Hz. */
 const MIN_NODE_HZ = 1e-3;
+
+/** Results of a node analysis. Arrays are `nodes × points`, index `node·points + i`. */
 export interface NodeAnalysis {
   points: number;
   /** Flat nodes (sections + 1). */
