@@ -90,6 +90,15 @@ import { StageCardComponent } from './stage-card.component';
     .cdk-drag-placeholder {
       opacity: 0.3;
     }
+    /* A palette type over the strip shows where its card will land, at card size. */
+    :host ::ng-deep .strip .placeholder {
+      width: 172px;
+      height: 150px;
+      margin-right: 18px;
+      box-sizing: border-box;
+      border: 2px dashed var(--mat-sys-primary);
+      border-radius: 10px;
+    }
     .cdk-drag-animating,
     .strip.cdk-drop-list-dragging .slot:not(.cdk-drag-placeholder) {
       transition: transform 200ms cubic-bezier(0, 0, 0.2, 1);
