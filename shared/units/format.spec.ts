@@ -51,6 +51,9 @@ describe('formatEngineering', () => {
       [0.25, 'ratio', '0.25'],
       [12, 'none', '12'],
       [1e-7, 'ratio', '1e-7'],
+      [1e12, 'ratio', '1e12'],
+      [2.5e6, 'none', '2.5e6'],
+      [999999, 'none', '1e6'],
     ])('should write %p %s as "%s"', (value, kind, text) => {
       expect(formatEngineering(value, kind)).toBe(text);
     });

@@ -49,6 +49,7 @@ function roundSignificant(value: number, digits: number): string {
   const text = Number(value.toPrecision(Math.max(1, Math.min(digits, 15))));
   // Very large or small plain numbers keep exponent form; the rest print plainly.
   const abs = Math.abs(text);
-  const plain = abs >= 1e-4 && abs < 1e15 ? String(text) : text.toExponential();
-  return plain;
+  if (abs >= 1e-4 && abs < 1e6) return String(text);
+  // 1e12 reads better than 1000000000000 (a "lossless" Q) or 1e+12.
+  return text.toExponential().replace('e+', 'e');
 }
