@@ -147,6 +147,10 @@ export default class ChainEditorComponent implements LeaveAware {
     this.panel.set('stage');
   }
 
+  protected onSaveMessage(event: Event): void {
+    this.saveMessage.set((event.target as HTMLInputElement).value);
+  }
+
   protected async save(): Promise<void> {
     if (await this.persistence.save(this.saveMessage())) this.saveMessage.set('');
   }
