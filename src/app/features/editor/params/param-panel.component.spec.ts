@@ -44,6 +44,22 @@ describe('ParamPanelComponent', () => {
       expect(buttonTexts()).toContain('Presets');
     });
 
+    it('should apply a preset chosen from the menu', async () => {
+      store.select('amp');
+      await fixture.whenStable();
+      [...host().querySelectorAll('button')]
+        .find((b) => b.textContent!.trim() === 'Presets')!
+        .click();
+      await fixture.whenStable();
+      const item = [...document.querySelectorAll<HTMLButtonElement>('[mat-menu-item]')].find(
+        (b) => b.textContent!.trim() === 'Low gain',
+      )!;
+      item.click();
+      await fixture.whenStable();
+      expect(store.doc().stages.find((s) => s.id === 'amp')!.values['gain']).toBe(10);
+      expect(input('gain')!.value).toBe('10 dB');
+    });
+
     it('should not offer presets for a type without them', async () => {
       await fixture.whenStable();
       expect(buttonTexts()).not.toContain('Presets');
