@@ -144,6 +144,21 @@ describe('client foundation', () => {
     await shot(page, 'foundation-10-viewer-members');
   });
 
+  it('should follow a dark system preference until the user chooses', async () => {
+    const dark = await openPage(browser, { colorScheme: 'dark' });
+    try {
+      await dark.page.goto('/sign-in');
+      await expectVisible(dark.page.getByRole('button', { name: 'Switch to the light theme' }));
+      expect(await dark.page.locator('html.cw-dark').count()).toBe(1);
+      await dark.page.getByRole('button', { name: 'Sign in' }).click();
+      await expectVisible(dark.page.getByText('Enter a valid e-mail address.'));
+      await shot(dark.page, 'foundation-16-sign-in-dark');
+      expect(dark.problems).toEqual([]);
+    } finally {
+      await dark.context.close();
+    }
+  });
+
   it('should fit a phone-width screen and show keyboard focus', async () => {
     const { page } = watched;
     await page.setViewportSize({ width: 390, height: 780 });
