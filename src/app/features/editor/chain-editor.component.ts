@@ -12,6 +12,7 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Title } from '@angular/platform-browser';
 import { forkJoin, firstValueFrom } from 'rxjs';
 import type { StageTypeInfo } from '../../../../shared/engine/types';
 import type { RevisionDto } from '../../../../shared/schema/api';
@@ -71,6 +72,7 @@ export default class ChainEditorComponent implements LeaveAware {
   protected readonly feedback = inject(EditFeedback);
   private readonly chains = inject(ChainsApi);
   private readonly analysisApi = inject(AnalysisApi);
+  private readonly title = inject(Title);
 
   protected readonly stripListId = 'cw-stage-strip';
   protected readonly loadError = signal<string | null>(null);
@@ -102,6 +104,12 @@ export default class ChainEditorComponent implements LeaveAware {
     effect(() => {
       const doc = this.shownDoc();
       if (this.store.chain()) untracked(() => this.runner.request(doc));
+    });
+    // The tab says which chain it holds, and whether it has unsaved edits.
+    effect(() => {
+      const name = this.doc().name.trim();
+      if (!this.store.chain() || !name) return;
+      this.title.setTitle(`${this.hasUnsavedEdits() ? '• ' : ''}${name} · Chainwright`);
     });
     effect(() => {
       const chain = this.store.chain();
