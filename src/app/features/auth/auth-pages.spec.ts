@@ -32,7 +32,12 @@ describe('sign-in and registration pages', () => {
 
     beforeEach(async () => {
       fixture = TestBed.createComponent(SignInComponent);
+      http.expectOne('/api/auth/registration').flush({ openRegistration: false });
       await fixture.whenStable();
+    });
+
+    it('should not offer registration when the site has it closed', () => {
+      expect(text(fixture)).not.toContain('Create an account');
     });
 
     it('should show the schema message for a malformed e-mail and send nothing', async () => {

@@ -54,7 +54,9 @@ import { safeReturnUrl } from './return-url';
             }
             <div class="cw-actions">
               <button mat-flat-button type="submit" [disabled]="busy()">Sign in</button>
-              <a routerLink="/register">Create an account</a>
+              @if (registrationOpen()) {
+                <a routerLink="/register">Create an account</a>
+              }
             </div>
           </form>
         </mat-card-content>
@@ -81,6 +83,16 @@ export default class SignInComponent {
   protected readonly busy = signal(false);
   protected readonly failure = signal('');
   protected readonly message = controlMessage;
+  /** Offer registration unless the site says it is closed. */
+  protected readonly registrationOpen = signal(true);
+
+  constructor() {
+    const quiet = new HttpContext().set(SKIP_ERROR_SNACKBAR, true);
+    this.auth.registration(quiet).subscribe({
+      next: (answer) => this.registrationOpen.set(answer.openRegistration),
+      error: () => undefined,
+    });
+  }
 
   protected async submit(): Promise<void> {
     this.form.markAllAsTouched();
