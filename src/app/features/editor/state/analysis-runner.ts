@@ -19,8 +19,14 @@ export interface AnalysisRefusal {
   issues: ChainIssue[];
 }
 
+/** A document to analyse, with the time of the edit that made it (performance clock). */
+interface Edit {
+  doc: ChainDocument;
+  at: number;
+}
+
 type Outcome =
-  | { kind: 'result'; result: AnalysisResult }
+  | { kind: 'result'; result: AnalysisResult; editedAt: number }
   | { kind: 'refused'; refusal: AnalysisRefusal }
   | { kind: 'failed'; message: string };
 
@@ -33,7 +39,7 @@ type Outcome =
 export class AnalysisRunner {
   private readonly api = inject(AnalysisApi);
   private readonly injector = inject(Injector);
-  private readonly edits = new Subject<ChainDocument>();
+  private readonly edits = new Subject<Edit>();
 
   private readonly resultState = signal<AnalysisResult | null>(null);
   private readonly pendingState = signal(false);
@@ -54,9 +60,9 @@ export class AnalysisRunner {
       .pipe(
         tap(() => this.pendingState.set(true)),
         debounceTime(ANALYSIS_DEBOUNCE_MS),
-        switchMap((doc) =>
-          this.api.analyse(doc).pipe(
-            map((result): Outcome => ({ kind: 'result', result })),
+        switchMap((edit) =>
+          this.api.analyse(edit.doc).pipe(
+            map((result): Outcome => ({ kind: 'result', result, editedAt: edit.at })),
             catchError((error: unknown) => of(toOutcome(error))),
           ),
         ),
@@ -67,8 +73,7 @@ export class AnalysisRunner {
 
   /** Queues `doc` for analysis; call on every change of the document. */
   request(doc: ChainDocument): void {
-    markEdit();
-    this.edits.next(doc);
+    this.edits.next({ doc, at: markEdit() });
   }
 
   private land(outcome: Outcome): void {
@@ -77,7 +82,8 @@ export class AnalysisRunner {
       this.resultState.set(outcome.result);
       this.refusalState.set(null);
       this.failureState.set(null);
-      afterNextRender(measureEditToRender, { injector: this.injector });
+      const editedAt = outcome.editedAt;
+      afterNextRender(() => measureEditToRender(editedAt), { injector: this.injector });
     } else if (outcome.kind === 'refused') {
       this.refusalState.set(outcome.refusal);
       this.failureState.set(null);
@@ -99,14 +105,18 @@ function toOutcome(error: unknown): Outcome {
   return { kind: 'failed', message: describeHttpError(error) };
 }
 
-function markEdit(): void {
-  if (typeof performance?.mark !== 'function') return;
+/** Marks the edit on the page's timeline and returns its time (0 without a timeline). */
+function markEdit(): number {
+  if (typeof performance?.mark !== 'function') return 0;
   performance.clearMarks?.(EDIT_MARK);
-  performance.mark(EDIT_MARK);
+  return performance.mark(EDIT_MARK)?.startTime ?? performance.now();
 }
 
-function measureEditToRender(): void {
-  if (typeof performance?.measure !== 'function') return;
-  if (performance.getEntriesByName(EDIT_MARK, 'mark').length === 0) return;
-  performance.measure(EDIT_TO_RENDER_MEASURE, EDIT_MARK);
+/**
+ * Measures from the edit whose analysis was just rendered (not from a later edit made
+ * while the answer was on its way, which would read too fast).
+ */
+function measureEditToRender(editedAt: number): void {
+  if (typeof performance?.measure !== 'function' || editedAt <= 0) return;
+  performance.measure(EDIT_TO_RENDER_MEASURE, { start: editedAt, end: performance.now() });
 }
