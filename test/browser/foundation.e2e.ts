@@ -84,6 +84,26 @@ describe('client foundation', () => {
     await expectVisible(row.getByRole('button', { name: 'Delete Loop antenna front end' }));
     await shot(page, 'foundation-06-chain-listed');
 
+    // Duplicate, rename the copy, then delete it after confirming.
+    await page.getByRole('button', { name: 'Duplicate Loop antenna front end' }).click();
+    await expectVisible(page.getByRole('link', { name: 'Loop antenna front end (copy)' }));
+    await page.getByRole('button', { name: 'Rename Loop antenna front end (copy)' }).click();
+    const renameDialog = page.getByRole('dialog', { name: 'Rename chain' });
+    await renameDialog.getByLabel('Chain name').fill('Loop front end, wider tank');
+    await renameDialog.getByRole('button', { name: 'Rename' }).click();
+    await expectVisible(page.getByRole('link', { name: 'Loop front end, wider tank' }));
+    await page.getByRole('button', { name: 'Delete Loop front end, wider tank' }).click();
+    const confirm = page.getByRole('dialog', { name: 'Delete chain' });
+    await expectVisible(confirm.getByText('This cannot be undone.'));
+    await shot(page, 'foundation-06b-confirm-delete');
+    await confirm.getByRole('button', { name: 'Delete' }).click();
+    await page
+      .getByRole('link', { name: 'Loop front end, wider tank' })
+      .waitFor({ state: 'detached' });
+    // The list is asked again after the delete; wait for its answer, not a fixed time.
+    await page.locator('tr.mat-mdc-row').nth(1).waitFor({ state: 'detached' });
+    expect(await page.locator('tr.mat-mdc-row').count()).toBe(1);
+
     // The filter asks the server; a name that matches nothing empties the table.
     await page.getByLabel('Filter by name or description').fill('no-such-chain-xyz');
     await expectVisible(page.getByText('No chain matches “no-such-chain-xyz”.'));

@@ -137,6 +137,9 @@ export default class ChainListComponent {
   });
   protected readonly filtered = computed(() => this.q() !== '');
 
+  /** Rows are rebuilt on every answer; keep the DOM of chains that are still listed. */
+  protected readonly trackRow = (_index: number, row: { chain: ChainSummaryDto }) => row.chain.id;
+
   protected onSort(sort: Sort): void {
     const key = SORT_KEYS.includes(sort.active) ? (sort.active as ChainSortKey) : 'updatedAt';
     // Clearing the sort falls back to the server's default, newest change first.
