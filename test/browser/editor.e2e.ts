@@ -52,13 +52,13 @@ describe('chain editor', () => {
     await page.getByRole('link', { name }).click();
     await page.waitForURL(/\/chains\/[^/]+$/);
     await expect(cards(page)).toHaveCountEventually(2);
-    await shot(page, 'editor-01-new-chain');
+    await snap(page, 'editor-01-new-chain');
 
     // Drag a shunt tank from the palette onto the load card: it lands between the two.
     await dragFromPalette(page, 'Parallel LC tank', card(page, 1));
     await expect(cards(page)).toHaveCountEventually(3);
     await expectTypes(page, ['resistive-generator', 'shunt-lc-tank', 'rc-load']);
-    await shot(page, 'editor-02-tank-dropped');
+    await snap(page, 'editor-02-tank-dropped');
 
     // Values with units: a 1 kΩ generator, a 22 µH coil and the capacitor for 1 MHz.
     await card(page, 0)
@@ -76,7 +76,7 @@ describe('chain editor', () => {
     expect(await param(page, 'ql').inputValue()).toBe('3 pF');
     await typeParam(page, 'ql', '120', '= 120');
     await expect(page.getByRole('region', { name: 'Budget by node' })).toBeVisibleEventually();
-    await shot(page, 'editor-03-values-typed');
+    await snap(page, 'editor-03-values-typed');
 
     // The budget table and a plot follow the edits.
     const budgetBefore = await budgetText(page);
@@ -87,7 +87,7 @@ describe('chain editor', () => {
       .locator('cw-result-plots .js-plotly-plot, cw-result-plots svg')
       .first()
       .waitFor({ timeout: 30000 });
-    await shot(page, 'editor-04-plot');
+    await snap(page, 'editor-04-plot');
     const firstTrace = page.locator('cw-result-plots path.js-line').first();
     const traceBefore = await firstTrace.getAttribute('d');
     await typeParam(page, 'l', '22 uH', '= 22 µH');
@@ -110,11 +110,11 @@ describe('chain editor', () => {
     await expectTypes(page, ['resistive-generator', 'shunt-lc-tank', 'headphone-low-z']);
     await typeParam(page, 'l', '1 uH', '= 1 µH');
     await expectText(overload, 'Low-impedance headphone');
-    await shot(page, 'editor-05-tank-overloaded');
+    await snap(page, 'editor-05-tank-overloaded');
     await dragFromPalette(page, 'Diode envelope detector', card(page, 2));
     await expectTypes(page, ['resistive-generator', 'shunt-lc-tank', 'envelope-detector']);
     await waitUntil(async () => (await overload.count()) === 0, 'the loading flag to clear');
-    await shot(page, 'editor-06-flag-cleared');
+    await snap(page, 'editor-06-flag-cleared');
 
     // Between a source and a load there is nowhere to move the tank: both buttons say so.
     expect(await card(page, 1).getByRole('button', { name: 'Move left' }).isDisabled()).toBe(true);
@@ -136,7 +136,7 @@ describe('chain editor', () => {
     const older = page.locator(`cw-revision-panel li[data-version="${firstVersion}"]`);
     await older.getByRole('button', { name: 'View' }).click();
     await expectText(page.locator('.banner'), `Viewing revision ${firstVersion}`);
-    await shot(page, 'editor-07-viewing-revision');
+    await snap(page, 'editor-07-viewing-revision');
     await page.getByRole('button', { name: 'Restore this revision' }).click();
     await expectText(
       page.locator('simple-snack-bar, .mat-mdc-snack-bar-label').first(),
@@ -151,7 +151,7 @@ describe('chain editor', () => {
       .first()
       .click();
     expect(await param(page, 'l').inputValue()).toBe('22 uH');
-    await shot(page, 'editor-08-restored');
+    await snap(page, 'editor-08-restored');
 
     // A colleague saves first in another session; our save meets the conflict dialog.
     const chainUrl = page.url();
@@ -173,7 +173,7 @@ describe('chain editor', () => {
     await page.getByRole('button', { name: 'Save' }).click();
     const conflict = page.locator('mat-dialog-container');
     await expectText(conflict, 'Someone saved this chain first');
-    await shot(page, 'editor-09-conflict');
+    await snap(page, 'editor-09-conflict');
     await conflict.getByRole('button', { name: 'Keep mine as a variant' }).click();
     await page.waitForURL((url) => url.href !== chainUrl && /\/chains\/[^/]+$/.test(url.pathname));
     await expectText(page.locator('h1'), `${name} (my edits)`);
@@ -184,7 +184,7 @@ describe('chain editor', () => {
       async () => (await param(page, 'l').inputValue()) === '27 uH',
       'my edit in the variant',
     );
-    await shot(page, 'editor-10-variant');
+    await snap(page, 'editor-10-variant');
 
     // Keyboard alternatives: insert a triode after the selected tank with the palette's
     // button, then move it left with Alt+←. A tube stage brings its caution.
@@ -248,7 +248,7 @@ describe('chain editor', () => {
     await nameField.fill('');
     await expectText(page.getByTestId('analysis-refused'), 'Not analysed');
     await page.mouse.wheel(0, -5000);
-    await shot(page, 'editor-11-caution-settings-refused');
+    await snap(page, 'editor-11-caution-settings-refused');
     await nameField.fill(chainName);
     await waitUntil(
       async () => (await page.getByTestId('analysis-refused').count()) === 0,
@@ -280,7 +280,7 @@ describe('chain editor', () => {
       'the draft value',
     );
     await expectText(page.locator('.chip'), 'Unsaved edits');
-    await shot(page, 'editor-12-draft-restored');
+    await snap(page, 'editor-12-draft-restored');
 
     // A viewer gets the same screen with nothing that changes the chain.
     const viewer = await openPage(browser);
@@ -296,7 +296,7 @@ describe('chain editor', () => {
         .getByRole('button', { name: /^Select / })
         .click();
       expect(await param(viewer.page, 'l').isDisabled()).toBe(true);
-      await shot(viewer.page, 'editor-13-viewer');
+      await snap(viewer.page, 'editor-13-viewer');
       expect(viewer.problems).toEqual([]);
     } finally {
       await viewer.context.close();
@@ -317,6 +317,16 @@ describe('chain editor', () => {
 });
 
 // Helpers
+
+/** Waits for the analysis in flight to land, then takes the screenshot. */
+async function snap(page: Page, name: string): Promise<void> {
+  await waitUntil(
+    async () =>
+      (await page.getByRole('progressbar', { name: 'Analysing the chain' }).count()) === 0,
+    'the analysis to settle',
+  );
+  await shot(page, name);
+}
 
 /** Durations (ms) of the editor's edit-to-rendered-result measures on this page so far. */
 async function editToRender(page: Page): Promise<number[]> {
