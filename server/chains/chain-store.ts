@@ -5,10 +5,8 @@ import { ConflictError } from '../common/errors';
 import type { User } from '../users/user.entity';
 import type { Workspace } from '../workspaces/workspace.entity';
 import { ChainSchema, type Chain } from './chain.entity';
+import { CHAIN_DTO_POPULATE } from './chain.repository';
 import { ChainRevisionSchema } from './revision.entity';
-
-/** Relations a ChainDto needs. */
-export const CHAIN_DTO_POPULATE = ['createdBy', 'updatedBy'] as const;
 
 /**
  * Flags of severity warning or error the engine finds in `doc` (no sweep). The count is a

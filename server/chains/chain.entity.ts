@@ -3,6 +3,7 @@ import type { ChainDocument } from '../../shared/schema/chain';
 import { baseProperties } from '../common/base.properties';
 import { UserSchema } from '../users/user.entity';
 import { WorkspaceSchema } from '../workspaces/workspace.entity';
+import { ChainRepository } from './chain.repository';
 
 /**
  * A chain in a workspace. `document` holds the whole chain document (JSONB); name,
@@ -28,5 +29,6 @@ export const ChainSchema = defineEntity({
     createdBy: () => p.manyToOne(UserSchema).deleteRule('restrict'),
     updatedBy: () => p.manyToOne(UserSchema).deleteRule('restrict'),
   },
+  repository: () => ChainRepository,
 });
 export type Chain = InferEntity<typeof ChainSchema>;

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import type { EntityManager, FilterQuery } from '@mikro-orm/postgresql';
+import type { EntityManager } from '@mikro-orm/postgresql';
 import {
   createChainSchema,
   duplicateChainSchema,
@@ -10,14 +10,12 @@ import {
 import type { ChainDocument } from '../../shared/schema/chain';
 import { access, chainRole, currentUser, requireUser, workspaceRole } from '../common/roles';
 import { parseOr422 } from '../common/validate';
-import { CHAIN_DTO_POPULATE, createChain, saveChainVersion } from './chain-store';
-import { ChainSchema, type Chain } from './chain.entity';
+import { createChain, saveChainVersion } from './chain-store';
+import { ChainSchema } from './chain.entity';
+import { CHAIN_DTO_POPULATE, chainsOf } from './chain.repository';
 import { toChainDto, toChainSummaryDto } from './dto';
 import { readExample, readExamples, toExampleDto } from './examples';
 import { revisionRoutes } from './revision-routes';
-
-/** Escapes LIKE wildcards so a search for "50%" finds the text "50%". */
-const likeEscape = (s: string) => s.replace(/[\\%_]/g, (c) => '\\' + c);
 
 /** /api/workspaces/:wid/chains: list (search, page, sort) and create. */
 export function workspaceChainsRouter(em: EntityManager, examplesDir: string): Router {
@@ -25,19 +23,7 @@ export function workspaceChainsRouter(em: EntityManager, examplesDir: string): R
 
   router.get('/:wid/chains', workspaceRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(listChainsQuerySchema, req.query, 'query');
-    const where: FilterQuery<Chain> = { workspace: access(res).workspace.id };
-    const q = query.q?.trim();
-    if (q) {
-      const pattern = `%${likeEscape(q)}%`;
-      where.$or = [{ name: { $ilike: pattern } }, { description: { $ilike: pattern } }];
-    }
-    const [items, total] = await em.findAndCount(ChainSchema, where, {
-      populate: CHAIN_DTO_POPULATE,
-      // The id breaks ties so pages never overlap or skip rows.
-      orderBy: [{ [query.sort]: query.dir }, { id: 'asc' }],
-      limit: query.pageSize,
-      offset: query.page * query.pageSize,
-    });
+    const [items, total] = await chainsOf(em).search(access(res).workspace.id, query);
     const body: ChainListDto = {
       items: items.map(toChainSummaryDto),
       total,

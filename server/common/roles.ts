@@ -3,7 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { WorkspaceRole } from '../../shared/schema/api';
 import { ChainSchema, type Chain } from '../chains/chain.entity';
 import type { User } from '../users/user.entity';
-import { MembershipSchema } from '../workspaces/membership.entity';
+import { membershipsOf } from '../workspaces/membership.repository';
 import { WorkspaceSchema, type Workspace } from '../workspaces/workspace.entity';
 import { ForbiddenError, NotFoundError, UnauthorizedError } from './errors';
 import './request-types';
@@ -50,7 +50,7 @@ async function checkMembership(
   min: WorkspaceRole,
   res: Response,
 ): Promise<void> {
-  const membership = await em.findOne(MembershipSchema, { user: user.id, workspace: workspace.id });
+  const membership = await membershipsOf(em).findFor(user.id, workspace.id);
   if (!membership) {
     throw new ForbiddenError(
       'you are not a member of this workspace; ask an owner to add you',

@@ -6,6 +6,7 @@ import { hashPassword } from '../users/password';
 import { siteSettings } from '../users/site-settings';
 import { UserSchema, type User } from '../users/user.entity';
 import { MembershipSchema } from '../workspaces/membership.entity';
+import { membershipsOf } from '../workspaces/membership.repository';
 import { WorkspaceSchema, type Workspace } from '../workspaces/workspace.entity';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, DEMO_WORKSPACE } from './demo-accounts';
 
@@ -54,7 +55,7 @@ async function ensureWorkspace(
   await em.flush();
   for (const account of DEMO_ACCOUNTS) {
     const user = users.get(account.email)!;
-    if (!(await em.findOne(MembershipSchema, { user: user.id, workspace: workspace.id }))) {
+    if (!(await membershipsOf(em).findFor(user.id, workspace.id))) {
       em.create(MembershipSchema, { user, workspace, role: account.role });
       report.membershipsCreated += 1;
     }

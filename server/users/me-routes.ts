@@ -2,7 +2,7 @@ import { Router } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { MeDto } from '../../shared/schema/api';
 import { currentUser } from '../common/roles';
-import { MembershipSchema } from '../workspaces/membership.entity';
+import { membershipsOf } from '../workspaces/membership.repository';
 import { toUserDto } from './dto';
 
 /** /api/me: who is signed in, and their workspaces. */
@@ -10,11 +10,7 @@ export function meRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/', async (req, res) => {
     const user = currentUser(req);
-    const memberships = await em.find(
-      MembershipSchema,
-      { user: user.id },
-      { populate: ['workspace'], orderBy: { workspace: { name: 'asc' } } },
-    );
+    const memberships = await membershipsOf(em).listForUser(user.id);
     const body: MeDto = {
       user: toUserDto(user),
       memberships: memberships.map((m) => ({

@@ -1,7 +1,8 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { MemberDto, WorkspaceRole } from '../../shared/schema/api';
 import { ConflictError } from '../common/errors';
-import { MembershipSchema, type Membership } from './membership.entity';
+import type { Membership } from './membership.entity';
+import { membershipsOf } from './membership.repository';
 
 /** The public view of a membership. */
 export function toMemberDto(m: Membership): MemberDto {
@@ -18,10 +19,7 @@ export async function assertNotLastOwner(
   newRole: WorkspaceRole | null,
 ) {
   if (membership.role !== 'owner' || newRole === 'owner') return;
-  const owners = await em.count(MembershipSchema, {
-    workspace: membership.workspace.id,
-    role: 'owner',
-  });
+  const owners = await membershipsOf(em).countOwners(membership.workspace.id);
   if (owners <= 1) {
     throw new ConflictError(
       'last-owner',

@@ -3,6 +3,7 @@ import { ROLES } from '../../shared/schema/api';
 import { baseProperties } from '../common/base.properties';
 import { UserSchema } from '../users/user.entity';
 import { WorkspaceSchema } from './workspace.entity';
+import { MembershipRepository } from './membership.repository';
 
 /** A user's role in one workspace; a user has at most one membership per workspace. */
 export const MembershipSchema = defineEntity({
@@ -15,5 +16,6 @@ export const MembershipSchema = defineEntity({
     role: p.enum([...ROLES]),
   },
   uniques: [{ properties: ['user', 'workspace'] }],
+  repository: () => MembershipRepository,
 });
 export type Membership = InferEntity<typeof MembershipSchema>;

@@ -14,6 +14,7 @@ import { sendMemberAddedMail } from '../mail/notices';
 import { UserSchema } from '../users/user.entity';
 import { assertNotLastOwner, toMemberDto } from './members';
 import { MembershipSchema } from './membership.entity';
+import { membershipsOf } from './membership.repository';
 import { WorkspaceSchema } from './workspace.entity';
 
 /** /api/workspaces: the caller's workspaces, renaming, and members. Chains are in chains/routes.ts. */
@@ -22,11 +23,7 @@ export function workspacesRouter(em: EntityManager, mailer: Transporter): Router
   router.use(requireUser);
 
   router.get('/', async (req, res) => {
-    const memberships = await em.find(
-      MembershipSchema,
-      { user: currentUser(req).id },
-      { populate: ['workspace'], orderBy: { workspace: { name: 'asc' } } },
-    );
+    const memberships = await membershipsOf(em).listForUser(currentUser(req).id);
     const body: WorkspaceDto[] = memberships.map((m) => ({
       id: m.workspace.id,
       name: m.workspace.name,
@@ -54,11 +51,7 @@ export function workspacesRouter(em: EntityManager, mailer: Transporter): Router
   });
 
   router.get('/:wid/members', workspaceRole(em, 'viewer'), async (_req, res) => {
-    const members = await em.find(
-      MembershipSchema,
-      { workspace: access(res).workspace.id },
-      { populate: ['user'], orderBy: { user: { displayName: 'asc' } } },
-    );
+    const members = await membershipsOf(em).listMembers(access(res).workspace.id);
     res.json(members.map(toMemberDto));
   });
 
@@ -71,7 +64,7 @@ export function workspacesRouter(em: EntityManager, mailer: Transporter): Router
         { path: 'email', message: 'no account has this e-mail address' },
       ]);
     }
-    if (await em.findOne(MembershipSchema, { user: user.id, workspace: workspace.id })) {
+    if (await membershipsOf(em).findFor(user.id, workspace.id)) {
       throw new ConflictError(
         'already-member',
         `${user.email} is already a member; change their role instead`,
