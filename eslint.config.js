@@ -9,8 +9,16 @@ const noFocusedTests = {
     { object: 'it', property: 'only', message: 'Focused tests hide failures: remove .only.' },
     { object: 'describe', property: 'only', message: 'Focused tests hide failures: remove .only.' },
     { object: 'test', property: 'only', message: 'Focused tests hide failures: remove .only.' },
-    { object: 'it', property: 'skip', message: 'Skipped tests never fail: fix or delete the test.' },
-    { object: 'describe', property: 'skip', message: 'Skipped tests never fail: fix or delete it.' },
+    {
+      object: 'it',
+      property: 'skip',
+      message: 'Skipped tests never fail: fix or delete the test.',
+    },
+    {
+      object: 'describe',
+      property: 'skip',
+      message: 'Skipped tests never fail: fix or delete it.',
+    },
     { object: 'test', property: 'skip', message: 'Skipped tests never fail: fix or delete it.' },
   ],
 };
@@ -22,7 +30,10 @@ module.exports = tseslint.config(
     extends: [eslint.configs.recommended, ...tseslint.configs.recommended],
     rules: {
       ...noFocusedTests,
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_' },
+      ],
     },
   },
   {
@@ -30,8 +41,14 @@ module.exports = tseslint.config(
     extends: [...angular.configs.tsRecommended],
     processor: angular.processInlineTemplates,
     rules: {
-      '@angular-eslint/directive-selector': ['error', { type: 'attribute', prefix: 'cw', style: 'camelCase' }],
-      '@angular-eslint/component-selector': ['error', { type: 'element', prefix: 'cw', style: 'kebab-case' }],
+      '@angular-eslint/directive-selector': [
+        'error',
+        { type: 'attribute', prefix: 'cw', style: 'camelCase' },
+      ],
+      '@angular-eslint/component-selector': [
+        'error',
+        { type: 'element', prefix: 'cw', style: 'kebab-case' },
+      ],
     },
   },
   {
