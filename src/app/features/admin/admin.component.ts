@@ -1,5 +1,5 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
 import { MatCardModule } from '@angular/material/card';
 import { MatSlideToggleChange, MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSnackBar } from '@angular/material/snack-bar';
@@ -57,8 +57,8 @@ import { AdminApi, AdminUserRow } from '../../core/api/admin.api';
               {{ u.createdAt ? (u.createdAt | date: 'mediumDate') : '—' }}
             </td>
           </ng-container>
-          <tr mat-header-row *matHeaderRowDef="columns"></tr>
-          <tr mat-row *matRowDef="let row; columns: columns"></tr>
+          <tr mat-header-row *matHeaderRowDef="columns()"></tr>
+          <tr mat-row *matRowDef="let row; columns: columns()"></tr>
         </table>
       </div>
     </section>
@@ -79,8 +79,13 @@ export default class AdminComponent {
   private readonly api = inject(AdminApi);
   private readonly snackBar = inject(MatSnackBar);
 
-  protected readonly columns = ['displayName', 'email', 'siteRole', 'createdAt'];
   protected readonly users = signal<AdminUserRow[]>([]);
+  /** "Since" only when the server sends account dates; a column of dashes says nothing. */
+  protected readonly columns = computed(() =>
+    this.users().some((u) => u.createdAt)
+      ? ['displayName', 'email', 'siteRole', 'createdAt']
+      : ['displayName', 'email', 'siteRole'],
+  );
   /** null until the server has said. */
   protected readonly openRegistration = signal<boolean | null>(null);
   protected readonly saving = signal(false);
