@@ -67,10 +67,19 @@ export class ChainsApi {
     return this.http.get<RevisionDto>(`/api/chains/${enc(chainId)}/revisions/${version}`);
   }
 
-  restore(chainId: string, version: number, context?: HttpContext): Observable<ChainDto> {
+  /**
+   * Restores revision `revision` as a new revision. `currentVersion` is the chain version
+   * the caller last read: a stale one is refused with 409, as a save is.
+   */
+  restore(
+    chainId: string,
+    revision: number,
+    currentVersion: number,
+    context?: HttpContext,
+  ): Observable<ChainDto> {
     return this.http.post<ChainDto>(
-      `/api/chains/${enc(chainId)}/revisions/${version}/restore`,
-      { version },
+      `/api/chains/${enc(chainId)}/revisions/${revision}/restore`,
+      { version: currentVersion },
       { context },
     );
   }

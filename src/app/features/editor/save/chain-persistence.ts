@@ -1,4 +1,4 @@
-import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
+import { HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { inject, Injectable, signal } from '@angular/core';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
@@ -23,7 +23,6 @@ import {
 @Injectable()
 export class ChainPersistence {
   private readonly api = inject(ChainsApi);
-  private readonly http = inject(HttpClient);
   private readonly store = inject(EditorStore);
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
@@ -75,10 +74,11 @@ export class ChainPersistence {
     try {
       // The body carries the version this client last read: a stale one is a conflict.
       const restored = await firstValueFrom(
-        this.http.post<ChainDto>(
-          `/api/chains/${encodeURIComponent(chain.id)}/revisions/${revisionVersion}/restore`,
-          { version: chain.version },
-          { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [409]) },
+        this.api.restore(
+          chain.id,
+          revisionVersion,
+          chain.version,
+          new HttpContext().set(SKIP_ERROR_SNACKBAR, [409]),
         ),
       );
       clearDrafts(chain.id);
