@@ -39,9 +39,9 @@ describe('AnalysisRunner', () => {
 
     it('should send only the last of several quick edits', () => {
       runner.request(doc('a'));
-      jest.advanceTimersByTime(50);
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 10);
       runner.request(doc('b'));
-      jest.advanceTimersByTime(50);
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 10);
       runner.request(doc('c'));
       jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
       const req = http.expectOne('/api/analysis');

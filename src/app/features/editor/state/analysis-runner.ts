@@ -7,8 +7,11 @@ import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { describeHttpError } from '../../../core/http/error-message';
 import { AnalysisApi } from './analysis-api';
 
-/** Quiet time after the last edit before the chain is sent for analysis. */
-export const ANALYSIS_DEBOUNCE_MS = 120;
+/**
+ * Quiet time after the last edit before the chain is sent for analysis. Short, because the
+ * edit-to-render budget is 150 ms and a newer edit cancels a stale request anyway.
+ */
+export const ANALYSIS_DEBOUNCE_MS = 50;
 /** performance.measure name from an edit to the rendered result (read by browser tests). */
 export const EDIT_TO_RENDER_MEASURE = 'cw-edit-to-render';
 const EDIT_MARK = 'cw-edit';
