@@ -10,6 +10,7 @@
  *   port 1 o──[ A B ; C D ]──o port 2      V1 = A·V2 + B·I2,  I1 = C·V2 + D·I2
  *          o─────────────────o             (I2 flows out of port 2 into the load)
  */
+import { cdiv, cinv, cmul } from '../core/complex';
 
 const TWO_PI = 2 * Math.PI;
 
@@ -20,41 +21,8 @@ export function omega(f: number): number {
 
 // ---------------------------------------------------------------- complex helpers
 
-/** out = a·b. */
-export function cmul(
-  ar: number,
-  ai: number,
-  br: number,
-  bi: number,
-  out: Float64Array,
-  o: number,
-): void {
-  const re = ar * br - ai * bi;
-  out[o + 1] = ar * bi + ai * br;
-  out[o] = re;
-}
-
-/** out = a/b (b = 0 gives Infinity/NaN; callers guard against it). */
-export function cdiv(
-  ar: number,
-  ai: number,
-  br: number,
-  bi: number,
-  out: Float64Array,
-  o: number,
-): void {
-  const d = br * br + bi * bi;
-  const re = (ar * br + ai * bi) / d;
-  out[o + 1] = (ai * br - ar * bi) / d;
-  out[o] = re;
-}
-
-/** out = 1/z. */
-export function cinv(zr: number, zi: number, out: Float64Array, o: number): void {
-  const d = zr * zr + zi * zi;
-  out[o] = zr / d;
-  out[o + 1] = -zi / d;
-}
+// The complex arithmetic lives in the core; the catalogue uses the same functions.
+export { cdiv, cinv, cmul };
 
 /** out = z1 ∥ z2 = z1·z2/(z1 + z2). */
 export function parallelZ(
