@@ -17,19 +17,19 @@ describe('tank-overloaded', () => {
   const c = 1 / ((2 * Math.PI * f0) ** 2 * l);
   const stages = (detectorOhms: number): StageInput[] => [
     { type: 't-source', values: { rs: 100e3 } },
-    { type: 't-tank', values: { l, c, rs: 1.62 } },
+    { type: 't-tank', label: 'Loop tank', values: { l, c, rs: 1.62 } },
     { type: 't-shunt-r', label: 'Envelope detector', values: { r: detectorOhms } },
     { type: 't-load', values: { mode: 'open' } },
   ];
 
-  it('is an error below the error ratio, worded with Q, bandwidth and the damping share', () => {
+  it('is an error below the error ratio, naming the stage, worded with Q, bandwidth and the damping share', () => {
     const res = run(stages(10e3), { f0Hz: f0 });
     const [flag] = only(res.flags, 'tank-overloaded');
     const r = res.resonators[0];
     expect(flag).toMatchObject({ severity: 'error', stageId: 's1' });
     expect(r.loadingRatio as number).toBeLessThan(0.2);
     expect(flag.message).toMatch(
-      /^Tank "L1\/C1" at 77\.5 kHz: Q falls from \d+ to \d+(\.\d)? \(ratio 0\.\d+\) when "Envelope detector" is attached; bandwidth widens from \d+(\.\d+)? Hz to \d+(\.\d+)? kHz\. The downstream side takes \d+ % of the damping\.$/,
+      /^Tank "Loop tank" at 77\.5 kHz: Q falls from \d+ to \d+(\.\d)? \(ratio 0\.\d+\) when "Envelope detector" is attached; bandwidth widens from \d+(\.\d+)? Hz to \d+(\.\d+)? kHz\. The downstream side takes \d+ % of the damping\.$/,
     );
     expect(flag.data).toMatchObject({ loadedQ: r.loadedQ, detachedQ: r.detachedQ, loadingRatio: r.loadingRatio }); // prettier-ignore
   });

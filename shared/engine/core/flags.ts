@@ -26,10 +26,21 @@ export interface FlagInputs {
   resonators: readonly ResonatorFinding[];
 }
 
+/**
+ * How a sentence names a resonator: by its stage's label, which the designer chose, plus
+ * the resonator's own label where the stage has more than one (a coupled pair).
+ */
+function resonatorName(built: BuiltChain, r: ResonatorFinding): string {
+  const stage = built.twoPorts.find((s) => s.id === r.stageId);
+  if (!stage) return `"${r.label}"`;
+  const own = stage.model.resonators ?? [];
+  return own.length > 1 ? `"${stage.label}" (${r.label})` : `"${stage.label}"`;
+}
+
 function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
   const t = built.settings.thresholds;
   const flags: Flag[] = [];
-  const kind = r.kind === 'shunt' ? 'Tank' : 'Series resonator';
+  const kind = `${r.kind === 'shunt' ? 'Tank' : 'Series resonator'} ${resonatorName(built, r)}`;
   if (r.resonanceHz !== null && r.loadedQ === null) return flags; // lossless: Q is unbounded
   if (r.resonanceHz === null || r.loadedQ === null) {
     const [lo, hi] = searchRange(built);
@@ -37,7 +48,7 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
       code: 'no-resonance',
       severity: 'warning',
       stageId: r.stageId,
-      message: `${kind} "${r.label}" shows no resonance between ${hz(lo)} and ${hz(hi)} near the design frequency ${hz(r.f0LocalHz)}; check its L and C values.`,
+      message: `${kind} shows no resonance between ${hz(lo)} and ${hz(hi)} near the design frequency ${hz(r.f0LocalHz)}; check its L and C values.`,
       data: { f0Hz: r.f0LocalHz },
     });
     return flags;
@@ -51,7 +62,7 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
       severity: r.loadingRatio < t.loadingError ? 'error' : 'warning',
       stageId: r.stageId,
       message:
-        `${kind} "${r.label}" at ${hz(fr)}: Q falls from ${num(r.detachedQ)} to ${num(r.loadedQ)} ` +
+        `${kind} at ${hz(fr)}: Q falls from ${num(r.detachedQ)} to ${num(r.loadedQ)} ` +
         `(ratio ${num(r.loadingRatio, 2)}) when ${r.downstreamLabel} is attached; bandwidth widens ` +
         `from ${hz(r.detachedBandwidthHz ?? NaN)} to ${hz(bw)}.${share}`,
       data: {
@@ -69,7 +80,7 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
       code: 'tank-detuned',
       severity: 'warning',
       stageId: r.stageId,
-      message: `${kind} "${r.label}" resonates at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
+      message: `${kind} resonates at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
       data: { resonanceHz: fr, f0Hz: r.f0LocalHz, offsetHz: off, bandwidthHz: bw },
     });
   }
