@@ -13,6 +13,9 @@
  * (e) the editor's edit→render time in a browser, read from test-results/edit-to-render.json
  *     when the editor's browser test has written it.
  * Timings are medians; they vary with the machine's load and are never asserted by tests.
+ * `npm run bench` runs this file as an esbuild bundle (dist/bench.js), as the CLI ships:
+ * under a TypeScript loader every imported function in the hot loop is reached through an
+ * interop getter, which roughly doubles the node-analysis time.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';

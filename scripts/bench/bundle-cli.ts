@@ -4,9 +4,17 @@
  * Run directly (`npx tsx scripts/bench/bundle-cli.ts [outfile]`) or import `bundleCli`.
  */
 import { buildSync } from 'esbuild';
-import { join } from 'node:path';
+import { existsSync } from 'node:fs';
+import { dirname, join } from 'node:path';
 
-const ROOT = join(__dirname, '..', '..');
+/** The project root: the nearest folder above this file with a package.json (this file may run from source or from a bundle in dist/). */
+function projectRoot(from: string): string {
+  let dir = from;
+  while (!existsSync(join(dir, 'package.json')) && dirname(dir) !== dir) dir = dirname(dir);
+  return dir;
+}
+
+const ROOT = projectRoot(__dirname);
 
 /** Writes the bundle and returns its path (default `dist/analyze.js` in the project). */
 export function bundleCli(outfile = join(ROOT, 'dist', 'analyze.js')): string {
@@ -22,6 +30,7 @@ export function bundleCli(outfile = join(ROOT, 'dist', 'analyze.js')): string {
   return outfile;
 }
 
-if (require.main === module) {
+// Run as a script only when this file itself is the entry (not when bundled into another).
+if (require.main === module && /bundle-cli\.[cm]?[jt]s$/.test(process.argv[1] ?? '')) {
   process.stdout.write(`${bundleCli(process.argv[2])}\n`);
 }
