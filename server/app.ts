@@ -3,6 +3,7 @@ import path from 'node:path';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { RequestContext } from '@mikro-orm/core';
+import { chainExportRouter, exportRouter } from './analysis/export-routes';
 import { analysisRouter, chainAnalysisRouter } from './analysis/routes';
 import { authRouter } from './auth/routes';
 import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './auth/session';
@@ -69,8 +70,10 @@ export function createApp(services: Services): Express {
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
   app.use('/api/chains', chainsRouter(em));
   app.use('/api/chains', chainAnalysisRouter(em));
+  app.use('/api/chains', chainExportRouter(em));
   app.use('/api/examples', examplesRouter(config.examplesDir));
   app.use('/api', analysisRouter());
+  app.use('/api', exportRouter());
   app.use('/api', apiNotFound);
 
   serveClient(app, config.clientDir);

@@ -2,21 +2,10 @@ import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { analysisRequestSchema } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
-import { ChainValidationError, StageParameterError } from '../../shared/engine/errors';
-import { HttpError } from '../common/errors';
 import { chainRole, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { loadEngine, type EngineApi } from './engine';
-
-class EngineUnavailableError extends HttpError {
-  constructor() {
-    super(
-      503,
-      'engine-unavailable',
-      'the analysis engine is not available on this server; see its log',
-    );
-  }
-}
+import { EngineUnavailableError, invalidChainError } from './engine-errors';
 
 async function engineOr503(): Promise<EngineApi> {
   const engine = await loadEngine();
@@ -30,15 +19,7 @@ async function analyze(res: Response, doc: ChainDocument, sweep: boolean) {
   try {
     res.json(await engine.analyzeChain(doc, { sweep }));
   } catch (err) {
-    if (err instanceof ChainValidationError) {
-      throw new HttpError(422, 'invalid-chain', err.message, err.issues);
-    }
-    if (err instanceof StageParameterError) {
-      throw new HttpError(422, 'invalid-chain', err.message, [
-        { param: err.param, path: [], message: err.message },
-      ]);
-    }
-    throw err;
+    throw invalidChainError(err) ?? err;
   }
 }
 

@@ -162,6 +162,31 @@ export const analysisRequestSchema = z.object({
   sweep: z.boolean().default(true),
 });
 
+// ------------------------------------------------------------------ exports
+/** What a chain can be exported as: its chain file, an ngspice netlist, Touchstone 1.1. */
+export const EXPORT_FORMATS = ['json', 'spice', 'touchstone'] as const;
+export type ExportFormat = (typeof EXPORT_FORMATS)[number];
+
+const exportFormat = z.enum(EXPORT_FORMATS, {
+  error: 'format must be one of json, spice, touchstone',
+});
+const Z0_MESSAGE = 'the reference resistance z0 must be a number of ohms above 0';
+
+/** POST /api/export: the document as it is on screen, unsaved edits included. */
+export const exportRequestSchema = z.object({
+  document: chainDocumentSchema,
+  format: exportFormat,
+  /** Reference resistance of both Touchstone ports, ohm (default 50; other formats ignore it). */
+  z0: z.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+});
+export type ExportRequest = z.input<typeof exportRequestSchema>;
+
+/** GET /api/chains/:id/export?format=…&z0=… */
+export const exportQuerySchema = z.object({
+  format: exportFormat,
+  z0: z.coerce.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+});
+
 export interface ExampleDto {
   key: string;
   name: string;

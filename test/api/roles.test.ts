@@ -231,6 +231,19 @@ const ROWS: Row[] = [
     expect: signedIn(200),
   },
   { name: 'catalogue', method: 'get', url: () => '/api/catalogue', expect: signedIn(200) },
+  {
+    name: 'chain export',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/export?format=spice`,
+    expect: readers(200),
+  },
+  {
+    name: 'export',
+    method: 'post',
+    url: () => '/api/export',
+    body: () => ({ document: doc(), format: 'touchstone', z0: 75 }),
+    expect: signedIn(200),
+  },
 ];
 
 let ctx: TestContext;

@@ -4,7 +4,7 @@
  * a plot and the tank-loading flag follow, save, restore an older revision, and resolve
  * a save conflict with a second browser session.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Locator, Page } from 'playwright-core';
 import {
@@ -282,6 +282,13 @@ describe('chain editor', () => {
     await expectText(page.locator('.chip'), 'Unsaved edits');
     await snap(page, 'editor-12-draft-restored');
 
+    // An export carries the unsaved edits: the chain file holds the draft's 30 µH.
+    const chainFile = await downloadExport(page, 'Chain file (JSON)');
+    expect(chainFile.name).toMatch(/^[a-z0-9-]+\.chain\.json$/);
+    const exported = JSON.parse(chainFile.text);
+    expect(exported.name).toBe(chainName);
+    expect(exported.stages[1].values.l).toBeCloseTo(30e-6, 12);
+
     // A viewer gets the same screen with nothing that changes the chain.
     const viewer = await openPage(browser);
     try {
@@ -297,6 +304,10 @@ describe('chain editor', () => {
         .click();
       expect(await param(viewer.page, 'l').isDisabled()).toBe(true);
       await snap(viewer.page, 'editor-13-viewer');
+      // Viewers may export too.
+      const netlist = await downloadExport(viewer.page, 'SPICE netlist (ngspice)');
+      expect(netlist.name).toMatch(/^[a-z0-9-]+\.cir$/);
+      expect(netlist.text).toMatch(/^\.end$/m);
       expect(viewer.problems).toEqual([]);
     } finally {
       await viewer.context.close();
@@ -319,6 +330,16 @@ describe('chain editor', () => {
 // Helpers
 
 /** Waits for the analysis in flight to land, then takes the screenshot. */
+/** Picks an item of the editor's Export menu and reads the file the browser downloads. */
+async function downloadExport(page: Page, item: string): Promise<{ name: string; text: string }> {
+  await page.getByTestId('export-menu').click();
+  const [download] = await Promise.all([
+    page.waitForEvent('download'),
+    page.getByRole('menuitem', { name: item }).click(),
+  ]);
+  return { name: download.suggestedFilename(), text: readFileSync(await download.path(), 'utf8') };
+}
+
 async function snap(page: Page, name: string): Promise<void> {
   await waitUntil(
     async () =>

@@ -11,11 +11,12 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
+import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
 import { forkJoin, firstValueFrom } from 'rxjs';
 import type { StageTypeInfo } from '../../../../shared/engine/types';
-import type { RevisionDto } from '../../../../shared/schema/api';
+import type { ExportFormat, RevisionDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
@@ -25,6 +26,7 @@ import type { LeaveAware } from './leave.guard';
 import { StagePaletteComponent } from './palette/stage-palette.component';
 import { ParamPanelComponent } from './params/param-panel.component';
 import { AnalysisResultsComponent } from './results/analysis-results.component';
+import { ChainExport } from './save/chain-export';
 import { ChainPersistence } from './save/chain-persistence';
 import { ChainSettingsComponent } from './settings/chain-settings.component';
 import { AnalysisApi } from './state/analysis-api';
@@ -47,6 +49,7 @@ type SidePanel = 'stage' | 'chain' | 'history';
   imports: [
     MatButtonModule,
     MatButtonToggleModule,
+    MatMenuModule,
     MatProgressBarModule,
     GlyphComponent,
     StagePaletteComponent,
@@ -70,6 +73,7 @@ export default class ChainEditorComponent implements LeaveAware {
   protected readonly runner = inject(AnalysisRunner);
   protected readonly persistence = inject(ChainPersistence);
   protected readonly feedback = inject(EditFeedback);
+  protected readonly exporter = inject(ChainExport);
   private readonly chains = inject(ChainsApi);
   private readonly analysisApi = inject(AnalysisApi);
   private readonly title = inject(Title);
@@ -161,6 +165,25 @@ export default class ChainEditorComponent implements LeaveAware {
 
   protected async save(): Promise<void> {
     if (await this.persistence.save(this.saveMessage())) this.saveMessage.set('');
+  }
+
+  /** Exports what is on screen: the edited chain with unsaved edits, or the revision viewed. */
+  protected exportAs(format: ExportFormat, z0?: number): void {
+    void this.exporter.download(this.shownDoc(), format, z0 === undefined ? {} : { z0 });
+  }
+
+  protected exportTouchstoneAtChosenReference(): void {
+    const answer = window.prompt('Reference resistance of both ports, in ohms:', '75');
+    if (answer === null) return;
+    const z0 = Number(answer.replace(/\s*(ohms?|Ω)\s*$/i, '').trim());
+    if (!(Number.isFinite(z0) && z0 > 0)) {
+      this.feedback.report({
+        ok: false,
+        reason: `"${answer}" is not a resistance; enter a number of ohms above 0, e.g. 75.`,
+      });
+      return;
+    }
+    this.exportAs('touchstone', z0);
   }
 
   protected restoreDraft(): void {

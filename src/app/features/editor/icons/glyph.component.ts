@@ -10,6 +10,7 @@ const GLYPHS = {
   remove: 'M4 7h16M9 7V4h6v3M6 7l1 13h10l1-13',
   insert: 'M12 5v14M5 12h14',
   save: 'M5 4h11l3 3v13H5zM8 4v5h7V4M8 20v-6h8v6',
+  download: 'M12 4v11M7 10l5 5 5-5M5 20h14',
   history: 'M3 12a9 9 0 1 0 3-6.7M3 4v5h5M12 7v5l3 3',
   tune: 'M4 6h10M18 6h2M4 12h4M12 12h8M4 18h12M20 18h0M14 4v4M8 10v4M16 16v4',
   error: 'M12 3l9 16H3zM12 10v4M12 17v.01',

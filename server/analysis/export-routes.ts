@@ -1,0 +1,133 @@
+import { Router, type Response } from 'express';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import { exportQuerySchema, exportRequestSchema, type ExportFormat } from '../../shared/schema/api';
+import type { ChainDocument } from '../../shared/schema/chain';
+import type * as SpiceWriter from '../../shared/engine/spice/netlist';
+import type * as TouchstoneWriter from '../../shared/io/chain-touchstone';
+import { HttpError } from '../common/errors';
+import { chainRole, requireUser } from '../common/roles';
+import { parseOr422 } from '../common/validate';
+import { EngineUnavailableError, invalidChainError } from './engine-errors';
+
+// Loaded on first use with non-literal specifiers, as the engine is (engine.ts): the server
+// starts, and the chain-file export works, while the writers are missing or broken.
+const SPICE_MODULE = '../../shared/engine/spice/netlist';
+const TOUCHSTONE_MODULE = '../../shared/io/chain-touchstone';
+
+interface Writers {
+  spice: typeof SpiceWriter;
+  touchstone: typeof TouchstoneWriter;
+}
+let writers: Promise<Writers | null> | undefined;
+
+function loadWriters(): Promise<Writers | null> {
+  writers ??= Promise.all([import(SPICE_MODULE), import(TOUCHSTONE_MODULE)]).then(
+    ([spice, touchstone]: [typeof SpiceWriter, typeof TouchstoneWriter]) => ({ spice, touchstone }),
+    (err: unknown) => {
+      console.warn(`[server] the export writers could not be loaded: ${String(err)}`);
+      return null;
+    },
+  );
+  return writers;
+}
+
+/** A stage the asked form cannot express (a mixer in SPICE or Touchstone, an IF block in SPICE). */
+class CannotExportError extends HttpError {
+  constructor(stageId: string, message: string) {
+    super(422, 'cannot-export', message, { stageId });
+  }
+}
+
+interface ExportFile {
+  text: string;
+  contentType: string;
+  extension: string;
+}
+
+/** The file name stem: the chain's name in lower-case letters, digits and dashes. */
+export function exportSlug(chainName: string): string {
+  const slug = chainName
+    .normalize('NFKD')
+    .replace(/[^A-Za-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .toLowerCase()
+    .slice(0, 80)
+    .replace(/-+$/, '');
+  return slug || 'chain';
+}
+
+async function exportFile(
+  doc: ChainDocument,
+  format: ExportFormat,
+  z0: number | undefined,
+): Promise<ExportFile> {
+  if (format === 'json') {
+    // The chain file needs no engine: it is the document as the schema accepts it, so a
+    // chain the engine refuses can still be taken elsewhere and fixed.
+    return {
+      text: JSON.stringify(doc, null, 2) + '\n',
+      contentType: 'application/json; charset=utf-8',
+      extension: 'chain.json',
+    };
+  }
+  const w = await loadWriters();
+  if (!w) throw new EngineUnavailableError();
+  try {
+    return format === 'spice'
+      ? {
+          text: w.spice.chainToSpice(doc),
+          contentType: 'text/plain; charset=utf-8',
+          extension: 'cir',
+        }
+      : {
+          text: w.touchstone.chainToTouchstone(doc, { z0: z0 ?? 50 }),
+          contentType: 'text/plain; charset=utf-8',
+          extension: 's2p',
+        };
+  } catch (err) {
+    if (
+      err instanceof w.spice.SpiceExportError ||
+      err instanceof w.touchstone.TouchstoneExportError
+    ) {
+      throw new CannotExportError(err.stageId, err.message);
+    }
+    throw invalidChainError(err) ?? err;
+  }
+}
+
+async function sendExport(
+  res: Response,
+  doc: ChainDocument,
+  format: ExportFormat,
+  z0: number | undefined,
+): Promise<void> {
+  const file = await exportFile(doc, format, z0);
+  const name = `${exportSlug(doc.name)}.${file.extension}`;
+  res
+    .status(200)
+    .set('Content-Type', file.contentType)
+    // The slug is plain ASCII, so the quoted form needs no escaping.
+    .set('Content-Disposition', `attachment; filename="${name}"`)
+    .set('Cache-Control', 'no-store')
+    .send(file.text);
+}
+
+/** POST /api/export: any signed-in user, for the document they send. */
+export function exportRouter(): Router {
+  const router = Router();
+  router.post('/export', requireUser, async (req, res) => {
+    const body = parseOr422(exportRequestSchema, req.body);
+    await sendExport(res, body.document, body.format, body.z0);
+  });
+  return router;
+}
+
+/** GET /api/chains/:id/export?format=…&z0=…: the stored chain, for viewers and up. */
+export function chainExportRouter(em: EntityManager): Router {
+  const router = Router();
+  router.get('/:id/export', chainRole(em, 'viewer'), async (req, res) => {
+    const query = parseOr422(exportQuerySchema, req.query, 'query');
+    await sendExport(res, res.locals.chain!.document, query.format, query.z0);
+  });
+  return router;
+}
