@@ -78,7 +78,7 @@ const MONOPOLE_PARAMS = [
   numParam('height', 'Height', 'metre', 1, {
     min: 0,
     exclusiveMin: true,
-    help: 'The short-antenna formulas hold while the height is under λ/20 (1.5 m at 10 MHz).',
+    help: 'The short-antenna formulas hold while the height is under λ/20: 15 m at 1 MHz, 1.5 m at 10 MHz, 0.5 m at 30 MHz.',
   }),
   numParam('diameter', 'Wire diameter', 'metre', 2e-3, { min: 0, exclusiveMin: true }),
   numParam('lossR', 'Loss resistance', 'ohm', 5, {
