@@ -15,6 +15,23 @@ export class ChainRepository extends EntityRepository<Chain> {
    * One page of a workspace's chains: `q` matches name or description without regard to
    * case; the id breaks sort ties so pages never overlap or skip rows.
    */
+  /**
+   * How many chains of the workspace name each of `ids` as their parent (ids without
+   * variants are left out).
+   */
+  async variantCounts(workspaceId: string, ids: string[]): Promise<Map<string, number>> {
+    const counts = new Map<string, number>();
+    if (ids.length === 0) return counts;
+    const variants = await this.find(
+      { parent: { $in: ids }, workspace: workspaceId },
+      { fields: ['parent'] },
+    );
+    for (const v of variants) {
+      if (v.parent) counts.set(v.parent.id, (counts.get(v.parent.id) ?? 0) + 1);
+    }
+    return counts;
+  }
+
   search(workspaceId: string, query: z.infer<typeof listChainsQuerySchema>) {
     const where: FilterQuery<Chain> = { workspace: workspaceId };
     const q = query.q?.trim();

@@ -14,6 +14,7 @@ import { createChain, saveChainVersion } from './chain-store';
 import { ChainSchema } from './chain.entity';
 import { CHAIN_DTO_POPULATE, chainsOf } from './chain.repository';
 import { toChainDto, toChainSummaryDto } from './dto';
+import { chainFamily } from './family';
 import { readExample, readExamples, toExampleDto } from './examples';
 import { revisionRoutes } from './revision-routes';
 
@@ -23,9 +24,15 @@ export function workspaceChainsRouter(em: EntityManager, examplesDir: string): R
 
   router.get('/:wid/chains', workspaceRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(listChainsQuerySchema, req.query, 'query');
-    const [items, total] = await chainsOf(em).search(access(res).workspace.id, query);
+    const chains = chainsOf(em);
+    const workspaceId = access(res).workspace.id;
+    const [items, total] = await chains.search(workspaceId, query);
+    const variants = await chains.variantCounts(
+      workspaceId,
+      items.map((c) => c.id),
+    );
     const body: ChainListDto = {
-      items: items.map(toChainSummaryDto),
+      items: items.map((c) => ({ ...toChainSummaryDto(c), variantCount: variants.get(c.id) ?? 0 })),
       total,
       page: query.page,
       pageSize: query.pageSize,
@@ -67,7 +74,7 @@ export function examplesRouter(examplesDir: string): Router {
   return router;
 }
 
-/** /api/chains/:id: read, save, delete, duplicate, and the revision history. */
+/** /api/chains/:id: read, save, delete, duplicate, its family, and the revision history. */
 export function chainsRouter(em: EntityManager): Router {
   const router = Router();
 
@@ -76,6 +83,12 @@ export function chainsRouter(em: EntityManager): Router {
       populate: CHAIN_DTO_POPULATE,
     });
     res.json(toChainDto(chain, access(res).role));
+  });
+
+  // The chain's root and every variant below it, root first: what a comparison offers.
+  router.get('/:id/family', chainRole(em, 'viewer'), async (_req, res) => {
+    const family = await chainFamily(em, res.locals.chain!);
+    res.json(family.map(toChainSummaryDto));
   });
 
   router.put('/:id', chainRole(em, 'editor'), async (req, res) => {

@@ -127,10 +127,14 @@ export interface ChainSummaryDto {
   flagCount: number;
   version: number;
   parentId: string | null;
+  /** Chains that name this one as their parent (set by the workspace's chain list only). */
+  variantCount?: number;
   createdBy: string;
   updatedBy: string;
   updatedAt: string;
 }
+/** GET /api/chains/:id/family: the root first, then every chain whose parent is listed. */
+export type ChainFamilyDto = ChainSummaryDto[];
 export interface ChainListDto {
   items: ChainSummaryDto[];
   total: number;

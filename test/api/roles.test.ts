@@ -177,6 +177,12 @@ const ROWS: Row[] = [
     expect: editors(201),
   },
   {
+    name: 'chain family',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/family`,
+    expect: readers(200),
+  },
+  {
     name: 'list revisions',
     method: 'get',
     url: (f) => `/api/chains/${f.chainId}/revisions`,
