@@ -58,6 +58,11 @@ export const appRoutes: Routes = [
         canDeactivate: [editorLeaveGuard],
       },
       {
+        path: 'compare',
+        title: 'Compare variants · Chainwright',
+        loadComponent: () => import('./features/compare/compare.component'),
+      },
+      {
         path: 'members',
         title: 'Members · Chainwright',
         loadComponent: () => import('./features/members/members.component'),

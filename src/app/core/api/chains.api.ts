@@ -2,8 +2,10 @@ import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
 import type { z } from 'zod';
+import type { AnalysisResult } from '../../../../shared/engine/types';
 import type {
   ChainDto,
+  ChainFamilyDto,
   ChainListDto,
   createChainSchema,
   duplicateChainSchema,
@@ -57,6 +59,19 @@ export class ChainsApi {
     context?: HttpContext,
   ): Observable<ChainDto> {
     return this.http.post<ChainDto>(`/api/chains/${enc(chainId)}/duplicate`, body, { context });
+  }
+
+  /** The chain's family: its root first, then every variant below it. */
+  family(chainId: string, context?: HttpContext): Observable<ChainFamilyDto> {
+    return this.http.get<ChainFamilyDto>(`/api/chains/${enc(chainId)}/family`, { context });
+  }
+
+  /** The stored chain's analysis, with the frequency sweep. */
+  analysis(chainId: string, context?: HttpContext): Observable<AnalysisResult> {
+    return this.http.get<AnalysisResult>(`/api/chains/${enc(chainId)}/analysis`, {
+      params: { sweep: '1' },
+      context,
+    });
   }
 
   revisions(chainId: string): Observable<RevisionSummaryDto[]> {

@@ -14,6 +14,7 @@ const ICONS: Record<string, string> = {
   mark: `<path d="M2 15h4l2.5-6 3.5 11 3.5-15 2.5 10h4" ${STROKE}/>`,
   add: `<path d="M12 5v14M5 12h14" ${STROKE}/>`,
   delete: `<path d="M4 7h16M9 7V4h6v3M6 7l1 13h10l1-13M10 11v6M14 11v6" ${STROKE}/>`,
+  compare: `<rect x="3" y="5" width="7" height="14" rx="1" ${STROKE}/><rect x="14" y="5" width="7" height="14" rx="1" ${STROKE}/><path d="M5.5 10h2M16.5 14h2" ${STROKE}/>`,
   copy: `<rect x="8" y="8" width="12" height="12" rx="2" ${STROKE}/><path d="M16 8V5a1 1 0 0 0-1-1H5a1 1 0 0 0-1 1v10a1 1 0 0 0 1 1h3" ${STROKE}/>`,
   rename: `<path d="M4 20h4L19 9l-4-4L4 16v4zM13 7l4 4" ${STROKE}/>`,
   sun: `<circle cx="12" cy="12" r="4" ${STROKE}/><path d="M12 2v2M12 20v2M2 12h2M20 12h2M4.9 4.9l1.4 1.4M17.7 17.7l1.4 1.4M4.9 19.1l1.4-1.4M17.7 6.3l1.4-1.4" ${STROKE}/>`,

@@ -17,6 +17,7 @@ import {
   distinctUntilChanged,
   map,
   of,
+  firstValueFrom,
   startWith,
   switchMap,
   tap,
@@ -26,6 +27,7 @@ import { formatEngineering } from '../../../../shared/units/format';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { SessionStore } from '../../core/session/session.store';
+import { compareQueryOf, inFamily } from '../compare/compare-entry';
 import { ChainActions } from './chain-actions';
 
 export type ChainSortKey = 'name' | 'f0Hz' | 'stageCount' | 'flagCount' | 'updatedAt';
@@ -129,11 +131,14 @@ export default class ChainListComponent {
     (this.list()?.items ?? []).map((chain) => ({
       chain,
       f0: formatEngineering(chain.f0Hz, 'hertz', 4),
+      comparable: inFamily(chain),
     })),
   );
+  // Viewers get the column too when a row can be compared (comparing is read only).
   protected readonly columns = computed(() => {
     const base = ['name', 'f0Hz', 'stageCount', 'flagCount', 'updatedAt', 'createdBy'];
-    return this.session.canEdit() ? [...base, 'actions'] : base;
+    const any = this.session.canEdit() || this.rows().some((r) => r.comparable);
+    return any ? [...base, 'actions'] : base;
   });
   protected readonly filtered = computed(() => this.q() !== '');
 
@@ -169,6 +174,19 @@ export default class ChainListComponent {
   protected async duplicate(chain: ChainSummaryDto, event: Event): Promise<void> {
     event.stopPropagation();
     if (await this.actions.duplicate(chain)) this.reload();
+  }
+
+  /** Opens the comparison of the chain with the rest of its family. */
+  protected async compare(chain: ChainSummaryDto, event: Event): Promise<void> {
+    event.stopPropagation();
+    try {
+      const query = compareQueryOf(await firstValueFrom(this.api.family(chain.id)), chain.id);
+      if (query) {
+        void this.router.navigate(['/w', chain.workspaceId, 'compare'], { queryParams: query });
+      }
+    } catch {
+      // The error interceptor has shown why.
+    }
   }
 
   protected async remove(chain: ChainSummaryDto, event: Event): Promise<void> {

@@ -14,11 +14,13 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
+import { RouterLink } from '@angular/router';
 import { forkJoin, firstValueFrom } from 'rxjs';
 import type { StageTypeInfo } from '../../../../shared/engine/types';
 import type { ExportFormat, RevisionDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
+import { compareQueryOf, familyOf } from '../compare/compare-entry';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
 import { RevisionPanelComponent } from './history/revision-panel.component';
 import { GlyphComponent } from './icons/glyph.component';
@@ -51,6 +53,7 @@ type SidePanel = 'stage' | 'chain' | 'history';
     MatButtonToggleModule,
     MatMenuModule,
     MatProgressBarModule,
+    RouterLink,
     GlyphComponent,
     StagePaletteComponent,
     StageStripComponent,
@@ -85,6 +88,10 @@ export default class ChainEditorComponent implements LeaveAware {
   protected readonly saveMessage = signal('');
   protected readonly draftOffer = signal<Draft | null>(null);
   protected readonly viewing = signal<RevisionDto | null>(null);
+
+  /** The chain's family (root and variants); "Compare variants" shows when it has two or more. */
+  protected readonly family = familyOf(this.chainId);
+  protected readonly compareQuery = computed(() => compareQueryOf(this.family(), this.chainId()));
 
   protected readonly doc = this.store.doc;
   protected readonly selectedId = this.store.selectedId;

@@ -17,6 +17,7 @@ const GLYPHS = {
   warning: 'M12 3a9 9 0 1 0 0.01 0M12 7v6M12 16v.01',
   info: 'M12 3a9 9 0 1 0 0.01 0M12 11v6M12 7v.01',
   close: 'M6 6l12 12M18 6L6 18',
+  compare: 'M4 5h6v14H4zM14 5h6v14h-6zM6 9h2M16 13h2',
   grip: 'M9 6v.01M15 6v.01M9 12v.01M15 12v.01M9 18v.01M15 18v.01',
 } as const;
 

@@ -84,7 +84,7 @@ function frequencyAxis(ctx: PlotContext): Partial<LayoutAxis> {
   };
 }
 
-function axisStyle(palette: PlotPalette): Partial<LayoutAxis> {
+export function axisStyle(palette: PlotPalette): Partial<LayoutAxis> {
   return {
     color: palette.text,
     gridcolor: palette.grid,
@@ -95,7 +95,7 @@ function axisStyle(palette: PlotPalette): Partial<LayoutAxis> {
   };
 }
 
-function baseLayout(ctx: PlotContext, title: string): Partial<Layout> {
+export function baseLayout(ctx: PlotContext, title: string): Partial<Layout> {
   return {
     title: { text: title, font: { size: 15 } },
     paper_bgcolor: ctx.palette.background,
@@ -111,7 +111,7 @@ function baseLayout(ctx: PlotContext, title: string): Partial<Layout> {
 }
 
 /** Vertical markers at f0 and, for a chain with a mixer, at the image frequency. */
-function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotations: Annotation[] } {
+export function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotations: Annotation[] } {
   const first = ctx.sweep.freqsHz[0];
   const last = ctx.sweep.freqsHz[ctx.sweep.freqsHz.length - 1];
   const inSweep = (f: number) => f >= first && f <= last;
@@ -152,11 +152,11 @@ function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotations: Ann
 }
 
 /** Plotly renders names as pseudo-HTML in hover labels: show the user's label literally. */
-function escapeMarkup(text: string): string {
+export function escapeMarkup(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 }
 
-function seriesColour(palette: PlotPalette, i: number): string {
+export function seriesColour(palette: PlotPalette, i: number): string {
   return palette.series[i % palette.series.length];
 }
 

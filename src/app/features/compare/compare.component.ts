@@ -1,0 +1,186 @@
+import { DOCUMENT } from '@angular/common';
+import { HttpContext } from '@angular/common/http';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { toObservable, toSignal } from '@angular/core/rxjs-interop';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { MatSelectModule } from '@angular/material/select';
+import { Router, RouterLink } from '@angular/router';
+import { catchError, forkJoin, map, of, startWith, switchMap } from 'rxjs';
+import type { AnalysisResult } from '../../../../shared/engine/types';
+import type { ChainDto, ChainSummaryDto } from '../../../../shared/schema/api';
+import { ChainsApi } from '../../core/api/chains.api';
+import { describeHttpError } from '../../core/http/error-message';
+import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { themePalette } from '../editor/results/plot-theme';
+import { ResultPlotComponent } from '../editor/results/result-plot.component';
+import { compareRows, type CompareVariant } from './compare-rows';
+import { returnLossOverlay, stepUpOverlay } from './compare-traces';
+import { parseChainIds, MAX_COMPARED } from './compare-ids';
+
+/** One loaded variant: the chain and its analysis, or why either failed. */
+interface Loaded {
+  id: string;
+  chain: ChainDto | null;
+  result: AnalysisResult | null;
+  failure: string;
+}
+
+/**
+ * Variants of one chain side by side: a table of the key figures with the best value of
+ * each row marked, and overlaid step-up and return-loss plots. Read only, for viewers too.
+ */
+@Component({
+  selector: 'cw-compare',
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatSelectModule,
+    MatProgressBarModule,
+    ResultPlotComponent,
+  ],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './compare.component.html',
+  styleUrl: './compare.component.scss',
+})
+export default class CompareComponent {
+  /** From the route. */
+  readonly workspaceId = input.required<string>();
+  /** From the query string: `chains=<id>,<id>,…`. */
+  readonly chains = input<string | undefined>();
+
+  private readonly api = inject(ChainsApi);
+  private readonly router = inject(Router);
+  private readonly page = inject(DOCUMENT);
+
+  protected readonly maxCompared = MAX_COMPARED;
+  protected readonly ids = computed(() => parseChainIds(this.chains()));
+  /** Bumped when the page switches theme, so plot colours are read again. */
+  private readonly themeRevision = signal(0);
+
+  /** The family of the first chain named: what the picker offers. */
+  protected readonly family = toSignal(
+    toObservable(computed(() => this.ids()[0] ?? null)).pipe(
+      switchMap((id) =>
+        id
+          ? this.api.family(id).pipe(catchError(() => of<ChainSummaryDto[]>([])))
+          : of<ChainSummaryDto[]>([]),
+      ),
+    ),
+    { initialValue: [] as ChainSummaryDto[] },
+  );
+
+  private readonly loadState = toSignal(
+    toObservable(this.ids).pipe(
+      switchMap((ids) =>
+        (ids.length ? forkJoin(ids.map((id) => this.load(id))) : of<Loaded[]>([])).pipe(
+          map((loaded) => ({ loaded, loading: false })),
+          startWith({ loaded: null as Loaded[] | null, loading: true }),
+        ),
+      ),
+    ),
+    { initialValue: { loaded: null as Loaded[] | null, loading: true } },
+  );
+
+  // Keep the last table on screen while a changed selection loads.
+  private last: Loaded[] = [];
+  protected readonly loaded = computed(() => {
+    const state = this.loadState();
+    if (state.loaded) this.last = state.loaded;
+    return this.last;
+  });
+  protected readonly loading = computed(() => this.loadState().loading);
+
+  protected readonly variants = computed((): CompareVariant[] =>
+    this.loaded().map((l) => ({
+      id: l.id,
+      name: l.chain?.name ?? 'Chain not found',
+      result: l.result,
+    })),
+  );
+  protected readonly rows = computed(() => compareRows(this.variants()));
+  protected readonly failures = computed(() =>
+    this.loaded().flatMap((l) =>
+      l.failure ? [{ id: l.id, name: l.chain?.name ?? l.id, text: l.failure }] : [],
+    ),
+  );
+  protected readonly rootName = computed(() => this.family()[0]?.name ?? '');
+
+  private readonly plotOptions = computed(() => {
+    this.themeRevision();
+    const first = this.loaded().find((l) => l.chain)?.chain;
+    return {
+      palette: themePalette(this.page),
+      scale: first?.document.settings.sweep.scale ?? ('lin' as const),
+    };
+  });
+  protected readonly stepUpPlot = computed(() =>
+    stepUpOverlay(this.variants(), this.plotOptions()),
+  );
+  protected readonly returnLossPlot = computed(() =>
+    returnLossOverlay(this.variants(), this.plotOptions()),
+  );
+  protected readonly fileStem = computed(() =>
+    (this.rootName() || 'chain')
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '')
+      .slice(0, 60),
+  );
+
+  constructor() {
+    const view = this.page.defaultView;
+    if (view?.MutationObserver) {
+      const observer = new view.MutationObserver(() => this.themeRevision.update((n) => n + 1));
+      observer.observe(this.page.documentElement, { attributes: true, attributeFilter: ['class'] });
+      inject(DestroyRef).onDestroy(() => observer.disconnect());
+    }
+  }
+
+  /** The picker's choice, in family order so columns stay in a stable order. */
+  protected choose(selected: string[]): void {
+    const order = this.family().map((c) => c.id);
+    const sorted = [...selected].sort((a, b) => order.indexOf(a) - order.indexOf(b));
+    this.show(sorted);
+  }
+
+  protected remove(id: string): void {
+    this.show(this.ids().filter((i) => i !== id));
+  }
+
+  private show(ids: string[]): void {
+    void this.router.navigate(['/w', this.workspaceId(), 'compare'], {
+      queryParams: { chains: ids.slice(0, MAX_COMPARED).join(',') || null },
+    });
+  }
+
+  private load(id: string) {
+    return forkJoin({
+      chain: this.api.get(id),
+      // A chain the engine refuses (422) is shown in place, not in a snackbar.
+      result: this.api
+        .analysis(id, new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]))
+        .pipe(catchError(() => of(null))),
+    }).pipe(
+      map(({ chain, result }): Loaded => ({
+        id,
+        chain,
+        result,
+        failure: result ? '' : 'the engine could not analyse this chain',
+      })),
+      catchError((error: unknown) =>
+        of<Loaded>({ id, chain: null, result: null, failure: describeHttpError(error) }),
+      ),
+    );
+  }
+}
