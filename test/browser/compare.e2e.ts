@@ -1,0 +1,129 @@
+/**
+ * Comparing variants end to end, against a running server with demo data: from the
+ * editor's "Compare variants" button to a table with one column per variant, the image
+ * rejection row with its best value marked, the overlaid plots, and the family picker.
+ */
+import type { Browser, Page } from 'playwright-core';
+import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+
+const SINGLE = 'Shortwave superhet, 7.2 MHz, one preselector tank';
+const PAIR = 'Shortwave superhet, 7.2 MHz, coupled-pair preselector';
+
+/** The texts of the image-rejection row's value cells. */
+async function imageRow(page: Page): Promise<{ texts: string[]; best: boolean[] }> {
+  const cells = page.locator('tr[data-row="image"] td');
+  const texts = (await cells.allInnerTexts()).map((t) => t.replace(/\s+/g, ' ').trim());
+  const best = await cells.evaluateAll((tds) => tds.map((td) => td.classList.contains('best')));
+  return { texts, best };
+}
+
+/** Waits until both plots are drawn (their PNG buttons are enabled once a plot is ready). */
+async function plotsReady(page: Page): Promise<void> {
+  const ready = page.getByRole('button', { name: 'Save PNG' }).and(page.locator(':enabled'));
+  await ready.nth(1).waitFor();
+}
+
+/** The number (dB) at the start of a cell text such as "32.5 dB best". */
+const decibelsOf = (text: string) => Number(/^(-?[\d.]+) dB/.exec(text)?.[1] ?? NaN);
+
+describe('compare variants', () => {
+  let browser: Browser;
+  let watched: WatchedPage;
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  beforeEach(async () => {
+    watched = await openPage(browser);
+  });
+
+  afterEach(async () => {
+    await watched.context.close();
+    expect(watched.problems).toEqual([]);
+  });
+
+  it('should open from the editor and put the variants side by side', async () => {
+    const { page } = watched;
+    await signIn(page, DEMO.editor, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.getByRole('link', { name: SINGLE, exact: true }).click();
+    await page.waitForURL(/\/chains\/[^/]+$/);
+
+    const button = page.getByTestId('compare-variants');
+    await button.waitFor();
+    await button.click();
+    await page.waitForURL(/\/compare\?chains=/);
+
+    // One column per variant, named after the chains.
+    const heads = page.locator('table.grid thead th.variant');
+    await page.locator('tr[data-row="image"] td').first().waitFor();
+    expect((await heads.allInnerTexts()).map((t) => t.split('\n')[0].trim())).toEqual([
+      SINGLE,
+      PAIR,
+    ]);
+
+    // The coupled pair rejects the image better, and only its cell is marked.
+    const image = await imageRow(page);
+    expect(image.texts).toHaveLength(2);
+    const [single, pair] = image.texts.map(decibelsOf);
+    expect(single).toBeGreaterThan(10);
+    expect(single).toBeLessThan(18);
+    expect(pair).toBeGreaterThan(28);
+    expect(pair).toBeLessThan(36);
+    expect(image.best).toEqual([false, true]);
+    await expect(page.locator('tr[data-row="image"] th').innerText()).resolves.toContain(
+      'higher is better',
+    );
+
+    // Both plots are drawn with one trace per variant.
+    for (const label of ['Voltage step-up at the last node', 'Input return loss']) {
+      const plot = page.locator(`[role="img"][aria-label^="${label}"]`);
+      await plot.locator('.main-svg').first().waitFor();
+      expect(await plot.locator('.scatterlayer .trace').count()).toBe(2);
+    }
+    await plotsReady(page);
+    await shot(page, 'compare-01-two-variants');
+
+    // Taking one variant away leaves one column; the picker brings it back.
+    await page.getByRole('button', { name: `Stop comparing ${PAIR}` }).click();
+    await page.waitForURL((url) => url.searchParams.get('chains')?.split(',').length === 1);
+    await page.waitForFunction(
+      () =>
+        (
+          globalThis as unknown as { document: { querySelectorAll(s: string): { length: number } } }
+        ).document.querySelectorAll('table.grid thead th.variant').length === 1,
+    );
+    await page.getByTestId('compare-picker').click();
+    await page.getByRole('option', { name: PAIR }).click();
+    await page.keyboard.press('Escape');
+    await page.waitForURL((url) => url.searchParams.get('chains')?.split(',').length === 2);
+    await page.waitForFunction(
+      () =>
+        (
+          globalThis as unknown as { document: { querySelectorAll(s: string): { length: number } } }
+        ).document.querySelectorAll('tr[data-row="image"] td').length === 2,
+    );
+    expect((await heads.allInnerTexts()).map((t) => t.split('\n')[0].trim())).toEqual([
+      SINGLE,
+      PAIR,
+    ]);
+  });
+
+  it('should let a viewer compare from the chain list', async () => {
+    const { page } = watched;
+    await signIn(page, DEMO.viewer, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.getByRole('button', { name: `Compare ${PAIR} with its variants` }).click();
+    await page.waitForURL(/\/compare\?chains=/);
+    await page.locator('tr[data-row="image"] td').nth(1).waitFor();
+    const image = await imageRow(page);
+    expect(image.best).toEqual([false, true]);
+    await plotsReady(page);
+    await shot(page, 'compare-02-viewer');
+  });
+});
