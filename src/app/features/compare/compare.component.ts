@@ -147,6 +147,12 @@ export default class CompareComponent {
     }
   }
 
+  /** The last variant shown cannot be unticked, and a seventh cannot be ticked. */
+  protected locked(id: string): boolean {
+    const ids = this.ids();
+    return ids.includes(id) ? ids.length === 1 : ids.length >= MAX_COMPARED;
+  }
+
   /** The picker's choice, in family order so columns stay in a stable order. */
   protected choose(selected: string[]): void {
     const order = this.family().map((c) => c.id);
