@@ -117,6 +117,30 @@ describe('ChainListComponent', () => {
       expect(el.querySelectorAll('button[aria-label^="Delete"]').length).toBe(0);
       expect(el.querySelector('.cw-empty')).toBeNull();
     });
+
+    it('should offer a viewer the compare action on rows of a family only', async () => {
+      await setUp('viewer');
+      const navigate = jest.spyOn(TestBed.inject(Router), 'navigate').mockResolvedValue(true);
+      expectList(http).flush(
+        page([
+          chain({ id: 'p', name: 'Parent', variantCount: 1 }),
+          chain({ id: 'v', name: 'Variant', parentId: 'p', variantCount: 0 }),
+          chain({ id: 'x', name: 'Alone', variantCount: 0 }),
+        ]),
+      );
+      await fixture.whenStable();
+      expect(el.querySelectorAll('button[aria-label^="Compare"]').length).toBe(2);
+      expect(el.querySelector('[aria-label="Compare Alone with its variants"]')).toBeNull();
+      expect(el.querySelectorAll('button[aria-label^="Delete"]').length).toBe(0);
+      el.querySelector<HTMLElement>('[aria-label="Compare Variant with its variants"]')!.click();
+      http
+        .expectOne('/api/chains/v/family')
+        .flush([chain({ id: 'p' }), chain({ id: 'v', parentId: 'p' })]);
+      await fixture.whenStable();
+      expect(navigate).toHaveBeenCalledWith(['/w', 'w1', 'compare'], {
+        queryParams: { chains: 'p,v' },
+      });
+    });
   });
 
   // Helpers
