@@ -62,7 +62,7 @@ const ROWS: RowSpec[] = [
   { key: 'f0', label: 'f₀', better: 'none', value: (r) => r.f0Hz, format: hzText },
   {
     key: 'stages',
-    label: 'Stages',
+    label: 'Stages between source and load',
     better: 'none',
     value: (r) => r.stages.length,
     format: countText,
