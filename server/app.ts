@@ -8,6 +8,7 @@ import { analysisRouter, chainAnalysisRouter } from './analysis/routes';
 import { authRouter } from './auth/routes';
 import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './auth/session';
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
+import { dataFilesRouter } from './files/routes';
 import { apiNotFound, errorHandler } from './common/error-handler';
 import { healthHandler } from './common/health';
 import { rejectNulCharacters } from './common/reject-nul';
@@ -68,12 +69,13 @@ export function createApp(services: Services): Express {
   app.use('/api/admin', adminRouter(em));
   app.use('/api/workspaces', workspacesRouter(em, services.mailer));
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
+  app.use('/api/workspaces', dataFilesRouter(em));
   app.use('/api/chains', chainsRouter(em));
   app.use('/api/chains', chainAnalysisRouter(em));
   app.use('/api/chains', chainExportRouter(em));
   app.use('/api/examples', examplesRouter(config.examplesDir));
-  app.use('/api', analysisRouter());
-  app.use('/api', exportRouter());
+  app.use('/api', analysisRouter(em));
+  app.use('/api', exportRouter(em));
   app.use('/api', apiNotFound);
 
   serveClient(app, config.clientDir);

@@ -1,11 +1,11 @@
 import type { ChainDocument } from '../../shared/schema/chain';
-import type { AnalysisResult, StageTypeInfo } from '../../shared/engine/types';
+import type { AnalysisResult, MeasuredNetwork, StageTypeInfo } from '../../shared/engine/types';
 
 /** What the server uses of the analysis engine (`shared/engine/index.ts`). */
 export interface EngineApi {
   analyzeChain(
     doc: ChainDocument,
-    options: { sweep: boolean },
+    options: { sweep: boolean; dataFiles?: Readonly<Record<string, MeasuredNetwork>> },
   ): AnalysisResult | Promise<AnalysisResult>;
   catalogue(): StageTypeInfo[];
   ENGINE_VERSION: string;

@@ -5,7 +5,8 @@ import type { ChainDocument } from '../../shared/schema/chain';
 import type * as SpiceWriter from '../../shared/engine/spice/netlist';
 import type * as TouchstoneWriter from '../../shared/io/chain-touchstone';
 import { HttpError } from '../common/errors';
-import { chainRole, requireUser } from '../common/roles';
+import { chainRole, currentUser, requireUser } from '../common/roles';
+import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { parseOr422 } from '../common/validate';
 import { EngineUnavailableError, invalidChainError } from './engine-errors';
 
@@ -57,9 +58,11 @@ export function exportSlug(chainName: string): string {
 }
 
 async function exportFile(
+  em: EntityManager,
   doc: ChainDocument,
   format: ExportFormat,
   z0: number | undefined,
+  workspaceId: string | undefined,
 ): Promise<ExportFile> {
   if (format === 'json') {
     // The chain file needs no engine: it is the document as the schema accepts it, so a
@@ -72,15 +75,17 @@ async function exportFile(
   }
   const w = await loadWriters();
   if (!w) throw new EngineUnavailableError();
+  const dataFiles = await loadDataFiles(em, doc, workspaceId);
+  const withFiles = dataFiles ? { dataFiles } : {};
   try {
     return format === 'spice'
       ? {
-          text: w.spice.chainToSpice(doc),
+          text: w.spice.chainToSpice(doc, withFiles),
           contentType: 'text/plain; charset=utf-8',
           extension: 'cir',
         }
       : {
-          text: w.touchstone.chainToTouchstone(doc, { z0: z0 ?? 50 }),
+          text: w.touchstone.chainToTouchstone(doc, { z0: z0 ?? 50, ...withFiles }),
           contentType: 'text/plain; charset=utf-8',
           extension: 's2p',
         };
@@ -96,12 +101,14 @@ async function exportFile(
 }
 
 async function sendExport(
+  em: EntityManager,
   res: Response,
   doc: ChainDocument,
   format: ExportFormat,
   z0: number | undefined,
+  workspaceId: string | undefined,
 ): Promise<void> {
-  const file = await exportFile(doc, format, z0);
+  const file = await exportFile(em, doc, format, z0, workspaceId);
   const name = `${exportSlug(doc.name)}.${file.extension}`;
   res
     .status(200)
@@ -113,11 +120,12 @@ async function sendExport(
 }
 
 /** POST /api/export: any signed-in user, for the document they send. */
-export function exportRouter(): Router {
+export function exportRouter(em: EntityManager): Router {
   const router = Router();
   router.post('/export', requireUser, async (req, res) => {
     const body = parseOr422(exportRequestSchema, req.body);
-    await sendExport(res, body.document, body.format, body.z0);
+    if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
+    await sendExport(em, res, body.document, body.format, body.z0, body.workspaceId);
   });
   return router;
 }
@@ -127,7 +135,8 @@ export function chainExportRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/export', chainRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(exportQuerySchema, req.query, 'query');
-    await sendExport(res, res.locals.chain!.document, query.format, query.z0);
+    const chain = res.locals.chain!;
+    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id);
   });
   return router;
 }

@@ -2,7 +2,8 @@ import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { analysisRequestSchema } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
-import { chainRole, requireUser } from '../common/roles';
+import { chainRole, currentUser, requireUser } from '../common/roles';
+import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { parseOr422 } from '../common/validate';
 import { loadEngine, type EngineApi } from './engine';
 import { EngineUnavailableError, invalidChainError } from './engine-errors';
@@ -13,24 +14,38 @@ async function engineOr503(): Promise<EngineApi> {
   return engine;
 }
 
-/** Runs the engine and maps its validation errors to 422 with the issues as details. */
-async function analyze(res: Response, doc: ChainDocument, sweep: boolean) {
+/**
+ * Runs the engine with the data files the stages refer to (from `workspaceId` only) and maps
+ * its validation errors to 422 with the issues as details.
+ */
+async function analyze(
+  em: EntityManager,
+  res: Response,
+  doc: ChainDocument,
+  sweep: boolean,
+  workspaceId: string | undefined,
+) {
   const engine = await engineOr503();
+  const dataFiles = await loadDataFiles(em, doc, workspaceId);
   try {
-    res.json(await engine.analyzeChain(doc, { sweep }));
+    res.json(await engine.analyzeChain(doc, { sweep, ...(dataFiles ? { dataFiles } : {}) }));
   } catch (err) {
     throw invalidChainError(err) ?? err;
   }
 }
 
-/** POST /api/analysis and GET /api/catalogue: any signed-in user. */
-export function analysisRouter(): Router {
+/**
+ * POST /api/analysis and GET /api/catalogue: any signed-in user; with a `workspaceId`, a
+ * member of that workspace.
+ */
+export function analysisRouter(em: EntityManager): Router {
   const router = Router();
   // requireUser per route: this router sits at /api, where a router-wide guard would
   // answer 401 for unknown paths that deserve a 404.
   router.post('/analysis', requireUser, async (req, res) => {
     const body = parseOr422(analysisRequestSchema, req.body);
-    await analyze(res, body.document, body.sweep);
+    if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
+    await analyze(em, res, body.document, body.sweep, body.workspaceId);
   });
   router.get('/catalogue', requireUser, async (_req, res) => {
     res.json((await engineOr503()).catalogue());
@@ -43,7 +58,8 @@ export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/analysis', chainRole(em, 'viewer'), async (req, res) => {
     const sweep = req.query.sweep === '1' || req.query.sweep === 'true';
-    await analyze(res, res.locals.chain!.document, sweep);
+    const chain = res.locals.chain!;
+    await analyze(em, res, chain.document, sweep, chain.workspace.id);
   });
   return router;
 }

@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { loadEngine } from '../analysis/engine';
 import { ConflictError } from '../common/errors';
+import { loadDataFiles } from '../files/data-files';
 import type { User } from '../users/user.entity';
 import type { Workspace } from '../workspaces/workspace.entity';
 import { ChainSchema, type Chain } from './chain.entity';
@@ -13,11 +14,19 @@ import { ChainRevisionSchema } from './revision.entity';
  * convenience for the chain list: when the engine is missing or throws, it is 0 and the
  * save goes on (the document itself was validated by the schema before).
  */
-export async function countFlags(doc: ChainDocument): Promise<number> {
+export async function countFlags(
+  em: EntityManager,
+  doc: ChainDocument,
+  workspaceId: string,
+): Promise<number> {
   const engine = await loadEngine();
   if (!engine) return 0;
   try {
-    const result = await engine.analyzeChain(doc, { sweep: false });
+    const dataFiles = await loadDataFiles(em, doc, workspaceId);
+    const result = await engine.analyzeChain(doc, {
+      sweep: false,
+      ...(dataFiles ? { dataFiles } : {}),
+    });
     return result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error').length;
   } catch {
     return 0;
@@ -45,7 +54,7 @@ export async function createChain(
     parent?: Chain | null;
   },
 ): Promise<Chain> {
-  const flagCount = await countFlags(input.document);
+  const flagCount = await countFlags(em, input.document, input.workspace.id);
   const chain = em.create(ChainSchema, {
     workspace: input.workspace,
     ...documentColumns(input.document),
@@ -89,7 +98,7 @@ export async function saveChainVersion(
 ): Promise<Chain> {
   if (chain.version !== input.expectedVersion)
     throw staleError(chain.version, input.expectedVersion);
-  const flagCount = await countFlags(input.document);
+  const flagCount = await countFlags(em, input.document, chain.workspace.id);
   const next = input.expectedVersion + 1;
   await em.transactional(async (tem) => {
     const updated = await tem.nativeUpdate(

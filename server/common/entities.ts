@@ -1,5 +1,6 @@
 import { ChainSchema } from '../chains/chain.entity';
 import { ChainRevisionSchema } from '../chains/revision.entity';
+import { DataFileSchema } from '../files/data-file.entity';
 import { SiteSettingSchema } from '../users/site-setting.entity';
 import { UserSchema } from '../users/user.entity';
 import { MembershipSchema } from '../workspaces/membership.entity';
@@ -13,4 +14,5 @@ export const ENTITIES = [
   MembershipSchema,
   ChainSchema,
   ChainRevisionSchema,
+  DataFileSchema,
 ];

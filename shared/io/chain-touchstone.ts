@@ -7,7 +7,7 @@ import { buildChain, stageName, type ChainLike } from '../engine/core/build';
 import { frequencyGrid, type SweepSpec } from '../engine/core/sweep';
 import { cascade, identityAbcd } from '../engine/core/abcd';
 import { defaultCatalogue } from '../engine/default-catalogue';
-import type { StageDefinition } from '../engine/types';
+import type { MeasuredNetwork, StageDefinition } from '../engine/types';
 import type { NetworkData } from './network-data';
 import {
   abcdSweepToNetwork,
@@ -35,6 +35,8 @@ export interface ChainTouchstoneOptions {
   format?: TouchstoneFormat;
   unit?: TouchstoneUnit;
   catalogue?: readonly StageDefinition[];
+  /** Parsed measured data files by `dataFileId` (see `BuildOptions.dataFiles`). */
+  dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
 }
 
 /**
@@ -43,7 +45,11 @@ export interface ChainTouchstoneOptions {
  *   when a stage translates frequency
  */
 export function chainNetwork(doc: ChainLike, options: ChainTouchstoneOptions = {}): NetworkData {
-  const built = buildChain(doc, options.catalogue ?? defaultCatalogue());
+  const built = buildChain(
+    doc,
+    options.catalogue ?? defaultCatalogue(),
+    options.dataFiles ? { dataFiles: options.dataFiles } : {},
+  );
   const freqs = frequencyGrid(options.sweep ?? built.settings.sweep);
   for (const stage of built.twoPorts) {
     if (stage.model.sections.some((s) => s.translate)) {

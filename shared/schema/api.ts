@@ -164,7 +164,42 @@ export const analysisRequestSchema = z.object({
   document: chainDocumentSchema,
   /** Include the frequency sweep in the answer. */
   sweep: z.boolean().default(true),
+  /** The workspace whose data files the document's stages refer to (`dataFileId`). */
+  workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
 });
+
+// ------------------------------------------------------------------ data files
+/** The kinds of data file: one-port and two-port Touchstone. */
+export const DATA_FILE_KINDS = ['s1p', 's2p'] as const;
+export type DataFileKind = (typeof DATA_FILE_KINDS)[number];
+
+/** POST /api/workspaces/:wid/files: a Touchstone file as text (JSON, no multipart). */
+export const uploadDataFileSchema = z.object({
+  name: z
+    .string()
+    .trim()
+    .min(1, 'give the file a name, e.g. "loop-antenna.s1p"')
+    .max(200, 'the file name can have at most 200 characters'),
+  content: z.string().min(1, 'the file is empty; choose a Touchstone file with data lines'),
+});
+
+/** A data file in the workspace's list (without its text). */
+export interface DataFileSummaryDto {
+  id: string;
+  name: string;
+  kind: DataFileKind;
+  portCount: number;
+  pointCount: number;
+  fMinHz: number;
+  fMaxHz: number;
+  uploadedBy: string;
+  createdAt: string;
+}
+
+/** One data file with its text. */
+export interface DataFileDto extends DataFileSummaryDto {
+  content: string;
+}
 
 // ------------------------------------------------------------------ exports
 /** What a chain can be exported as: its chain file, an ngspice netlist, Touchstone 1.1. */
@@ -182,6 +217,8 @@ export const exportRequestSchema = z.object({
   format: exportFormat,
   /** Reference resistance of both Touchstone ports, ohm (default 50; other formats ignore it). */
   z0: z.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+  /** The workspace whose data files the document's stages refer to (`dataFileId`). */
+  workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
 });
 export type ExportRequest = z.input<typeof exportRequestSchema>;
 

@@ -5,6 +5,7 @@
 import type { WorkspaceRole } from '../../shared/schema/api';
 import { chainDocumentSchema } from '../../shared/schema/chain';
 import { createChain } from '../../server/chains/chain-store';
+import { DataFileSchema } from '../../server/files/data-file.entity';
 import { UserSchema, type User } from '../../server/users/user.entity';
 import { MembershipSchema } from '../../server/workspaces/membership.entity';
 import { WorkspaceSchema, type Workspace } from '../../server/workspaces/workspace.entity';
@@ -30,6 +31,8 @@ interface Fixture {
   chainVersion: number;
   /** A plain member (viewer) the member routes act on. */
   targetUserId: string;
+  /** A one-port data file in the workspace, used by no chain. */
+  fileId: string;
 }
 
 interface Row {
@@ -41,6 +44,7 @@ interface Row {
 }
 
 const doc = () => fixtureChain();
+const ONE_PORT = '# MHz S RI R 50\n0.5 0.2 -0.3\n2.0 0.1 -0.5\n';
 const readers = (ok: number): Record<Caller, number> => ({
   anonymous: 401,
   viewer: ok,
@@ -244,6 +248,38 @@ const ROWS: Row[] = [
     expect: readers(200),
   },
   {
+    name: 'analysis with workspace files',
+    method: 'post',
+    url: () => '/api/analysis',
+    body: (f) => ({ document: doc(), sweep: false, workspaceId: f.wid }),
+    expect: readers(200),
+  },
+  {
+    name: 'list data files',
+    method: 'get',
+    url: (f) => `/api/workspaces/${f.wid}/files`,
+    expect: readers(200),
+  },
+  {
+    name: 'upload data file',
+    method: 'post',
+    url: (f) => `/api/workspaces/${f.wid}/files`,
+    body: () => ({ name: 'matrix.s1p', content: ONE_PORT }),
+    expect: editors(201),
+  },
+  {
+    name: 'read data file',
+    method: 'get',
+    url: (f) => `/api/workspaces/${f.wid}/files/${f.fileId}`,
+    expect: readers(200),
+  },
+  {
+    name: 'delete data file',
+    method: 'delete',
+    url: (f) => `/api/workspaces/${f.wid}/files/${f.fileId}`,
+    expect: editors(204),
+  },
+  {
     name: 'export',
     method: 'post',
     url: () => '/api/export',
@@ -298,8 +334,25 @@ async function freshFixture(): Promise<Fixture> {
   // "add member" adds the spare user: take it out again first.
   const spare = await em.findOneOrFail(UserSchema, { email: 'spare@matrix.test' });
   await em.nativeDelete(MembershipSchema, { workspace: ws.id, user: spare.id });
+  const file = em.create(DataFileSchema, {
+    workspace: ws,
+    name: 'matrix.s1p',
+    kind: 's1p',
+    content: ONE_PORT,
+    portCount: 1,
+    pointCount: 2,
+    fMinHz: 0.5e6,
+    fMaxHz: 2e6,
+    uploadedBy: owner,
+  });
   await em.flush();
-  return { wid: ws.id, chainId: chain.id, chainVersion: chain.version, targetUserId: target.id };
+  return {
+    wid: ws.id,
+    chainId: chain.id,
+    chainVersion: chain.version,
+    targetUserId: target.id,
+    fileId: file.id,
+  };
 }
 
 describe('role matrix', () => {

@@ -20,7 +20,7 @@ import {
   type BuiltStage,
   type ChainLike,
 } from '../core/build';
-import type { StageDefinition } from '../types';
+import type { MeasuredNetwork, StageDefinition } from '../types';
 import { defaultCatalogue } from '../default-catalogue';
 
 /** A stage that SPICE cannot express (mixer, measured data, IF block). */
@@ -43,6 +43,8 @@ export interface ChainToSpiceOptions {
   dataFile?: string;
   /** Stage types to accept (default: the product's catalogue). */
   catalogue?: readonly StageDefinition[];
+  /** Parsed measured data files by `dataFileId` (see `BuildOptions.dataFiles`). */
+  dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
 }
 
 /** A netlist with what a caller needs to read its results. */
@@ -85,7 +87,11 @@ export function chainToSpiceDeck(
   const catalogue = options.catalogue ?? defaultCatalogue();
   if (!catalogue)
     throw new Error('spice export: no stage catalogue is installed; pass one in the options');
-  const built = buildChain(doc, catalogue);
+  const built = buildChain(
+    doc,
+    catalogue,
+    options.dataFiles ? { dataFiles: options.dataFiles } : {},
+  );
   const sweep = options.sweep ?? built.settings.sweep;
   const dataFile = options.dataFile ?? 'chain-ac.txt';
   const m = built.twoPorts.length;
