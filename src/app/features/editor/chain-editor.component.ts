@@ -114,7 +114,8 @@ export default class ChainEditorComponent implements LeaveAware {
     // Every change of what is on screen is analysed; unsaved edits also go to the draft.
     effect(() => {
       const doc = this.shownDoc();
-      if (this.store.chain()) untracked(() => this.runner.request(doc));
+      const chain = this.store.chain();
+      if (chain) untracked(() => this.runner.request(doc, chain.workspaceId));
     });
     // The tab says which chain it holds, and whether it has unsaved edits.
     effect(() => {
@@ -176,7 +177,11 @@ export default class ChainEditorComponent implements LeaveAware {
 
   /** Exports what is on screen: the edited chain with unsaved edits, or the revision viewed. */
   protected exportAs(format: ExportFormat, z0?: number): void {
-    void this.exporter.download(this.shownDoc(), format, z0 === undefined ? {} : { z0 });
+    const workspaceId = this.store.chain()?.workspaceId;
+    void this.exporter.download(this.shownDoc(), format, {
+      workspaceId,
+      ...(z0 === undefined ? {} : { z0 }),
+    });
   }
 
   protected exportTouchstoneAtChosenReference(): void {

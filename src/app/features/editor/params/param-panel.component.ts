@@ -14,6 +14,7 @@ import {
   withTolerance,
   withValue,
 } from '../state/stage-factory';
+import { DATA_FILE_KIND_OF_TYPE, DataFileFieldComponent } from './data-file-field.component';
 import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
 
 /**
@@ -24,7 +25,13 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
  */
 @Component({
   selector: 'cw-param-panel',
-  imports: [QuantityFieldComponent, MatSlideToggleModule, MatMenuModule, MatButtonModule],
+  imports: [
+    QuantityFieldComponent,
+    DataFileFieldComponent,
+    MatSlideToggleModule,
+    MatMenuModule,
+    MatButtonModule,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './param-panel.component.html',
   styleUrl: './field.scss',
@@ -53,6 +60,13 @@ export class ParamPanelComponent {
     if (!stage || !type) return [];
     return visibleParams(stage, type).map((spec) => ({ id: `${stage.id}:${spec.key}`, spec }));
   });
+  /** The kind of data file the stage's type reads, or null when it takes none. */
+  protected readonly fileKind = computed(() => {
+    const stage = this.stage();
+    return stage ? (DATA_FILE_KIND_OF_TYPE[stage.type] ?? null) : null;
+  });
+  /** The workspace of the chain being edited, whose data files the field offers. */
+  protected readonly workspaceId = computed(() => this.store.chain()?.workspaceId ?? null);
   /** Server refusals of this stage, by parameter key ('' for the stage as a whole). */
   protected readonly refusals = computed(() => {
     const id = this.stage()?.id;
@@ -101,6 +115,11 @@ export class ParamPanelComponent {
   protected onLabel(stage: StageInstance, event: Event): void {
     const label = (event.target as HTMLInputElement).value.slice(0, 120);
     this.store.updateStage({ ...stage, label }, 'label');
+  }
+
+  protected onDataFile(stage: StageInstance, fileId: string | null): void {
+    const { dataFileId: _previous, ...rest } = stage;
+    this.store.updateStage(fileId ? { ...rest, dataFileId: fileId } : rest);
   }
 
   protected applyPreset(stage: StageInstance, values: ParamValues): void {

@@ -59,12 +59,14 @@ export class ChainExport {
   async download(
     document: ChainDocument,
     format: ExportFormat,
-    options: { z0?: number } = {},
+    options: { z0?: number; workspaceId?: string } = {},
   ): Promise<string | null> {
     if (this.running()) return null;
     this.running.set(format);
     const body: ExportRequest = { document, format };
     if (options.z0 !== undefined) body.z0 = options.z0;
+    // The workspace lets the server find the data files the stages refer to.
+    if (options.workspaceId) body.workspaceId = options.workspaceId;
     try {
       const answer = await firstValueFrom(
         this.http.post('/api/export', body, {

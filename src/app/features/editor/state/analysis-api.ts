@@ -19,10 +19,11 @@ export class AnalysisApi {
   }
 
   /** The editor shows a refused chain (422) in its own banner, so no snackbar for it. */
-  analyse(document: ChainDocument): Observable<AnalysisResult> {
+  analyse(document: ChainDocument, workspaceId?: string): Observable<AnalysisResult> {
+    // The workspace lets the server find the data files the stages refer to.
     return this.http.post<AnalysisResult>(
       '/api/analysis',
-      { document, sweep: true },
+      { document, sweep: true, ...(workspaceId ? { workspaceId } : {}) },
       { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
     );
   }

@@ -37,6 +37,14 @@ describe('AnalysisRunner', () => {
       req.flush(result(1));
     });
 
+    it('should send the workspace whose data files the stages refer to', () => {
+      runner.request(doc('a'), 'w1');
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      const req = http.expectOne('/api/analysis');
+      expect(req.request.body).toEqual({ document: doc('a'), sweep: true, workspaceId: 'w1' });
+      req.flush(result(1));
+    });
+
     it('should send only the last of several quick edits', () => {
       runner.request(doc('a'));
       jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 10);

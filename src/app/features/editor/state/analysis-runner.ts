@@ -26,6 +26,8 @@ export interface AnalysisRefusal {
 interface Edit {
   doc: ChainDocument;
   at: number;
+  /** The workspace whose data files the stages may refer to. */
+  workspaceId?: string;
 }
 
 type Outcome =
@@ -64,7 +66,7 @@ export class AnalysisRunner {
         tap(() => this.pendingState.set(true)),
         debounceTime(ANALYSIS_DEBOUNCE_MS),
         switchMap((edit) =>
-          this.api.analyse(edit.doc).pipe(
+          this.api.analyse(edit.doc, edit.workspaceId).pipe(
             map((result): Outcome => ({ kind: 'result', result, editedAt: edit.at })),
             catchError((error: unknown) => of(toOutcome(error))),
           ),
@@ -75,8 +77,8 @@ export class AnalysisRunner {
   }
 
   /** Queues `doc` for analysis; call on every change of the document. */
-  request(doc: ChainDocument): void {
-    this.edits.next({ doc, at: markEdit() });
+  request(doc: ChainDocument, workspaceId?: string): void {
+    this.edits.next({ doc, at: markEdit(), workspaceId });
   }
 
   private land(outcome: Outcome): void {
