@@ -12,13 +12,7 @@ PG_CLUSTER_PORT="${CW_PG_PORT:-54330}"
 SMTP_PORT="${CW_SMTP_PORT:-2530}"
 DB_NAME=chainwright
 
-cleanup() {
-  trap - EXIT INT TERM
-  stop_node
-  pg_down
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
+stop_all_on_exit
 
 ensure_node_modules
 ensure_postgres_binaries

@@ -13,13 +13,7 @@ DB_NAME=chainwright_test
 export CI="${CI:-}" NG_CLI_ANALYTICS=false
 FAILED=()
 
-cleanup() {
-  trap - EXIT INT TERM
-  stop_node
-  pg_down
-}
-trap cleanup EXIT
-trap 'exit 130' INT TERM
+stop_all_on_exit
 
 # run_step NAME COMMAND...: runs one step, prints its result, remembers failures.
 run_step() {

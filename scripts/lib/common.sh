@@ -161,6 +161,17 @@ stop_node() {
 }
 
 # Whether the built client is older than its sources (src/, shared/, angular.json).
+# stop_all_on_exit: on exit, Ctrl-C or TERM, stop the node server and PostgreSQL we started.
+stop_all_on_exit() {
+  trap _stop_all EXIT
+  trap 'exit 130' INT TERM
+}
+_stop_all() {
+  trap - EXIT INT TERM
+  stop_node
+  pg_down
+}
+
 client_build_stale() {
   local index="$CW_REPO/dist/client/browser/index.html"
   [ -f "$index" ] || return 0
