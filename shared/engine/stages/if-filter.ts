@@ -52,13 +52,6 @@ export function ifFilterTransfer(
   }
   /** Writes T/g (re, im) at f into out[o], out[o+1]. */
   return (f: number, out: Float64Array, o: number): void => {
-    // At 0 Hz (an RF point landing exactly on the LO) Ω is infinite: the block sits
-    // on its floor, the ultimate rejection, with no phase to speak of.
-    if (!(f > 0)) {
-      out[o] = r;
-      out[o + 1] = 0;
-      return;
-    }
     const w = (f * f - centre * centre) / (f * bInner);
     // 1/Π(jΩ − p_k)
     let pr = 1;
