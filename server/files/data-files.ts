@@ -93,15 +93,37 @@ export async function loadDataFiles(
     );
   }
   const ids = [...new Set(stages.map((s) => s.fileId))].filter((id) => UUID.test(id));
-  const files =
-    ids.length === 0
-      ? []
-      : await em.find(DataFileSchema, { id: { $in: ids }, workspace: workspaceId });
+  if (ids.length === 0) return {};
+  // The live editor analyses on every edit: ask only which of the files this workspace
+  // holds (a fork, so no half-loaded entity lands in the request's identity map), and read
+  // and parse a file's text once — files are never changed after upload.
+  const held = await em
+    .fork()
+    .find(DataFileSchema, { id: { $in: ids }, workspace: workspaceId }, { fields: ['id'] });
   const out: Record<string, MeasuredNetwork> = {};
-  for (const file of files) {
-    out[file.id] = toMeasuredNetwork(parseDataFile(file.content, file.name));
+  const unparsed: string[] = [];
+  for (const { id } of held) {
+    const cached = PARSED.get(id);
+    if (cached) out[id] = cached;
+    else unparsed.push(id);
+  }
+  if (unparsed.length > 0) {
+    for (const file of await em.find(DataFileSchema, { id: { $in: unparsed } })) {
+      out[file.id] = toMeasuredNetwork(parseDataFile(file.content, file.name));
+      remember(file.id, out[file.id]);
+    }
   }
   return out;
+}
+
+/** Parsed files by id, most recently used last; bounded so memory stays small. */
+const PARSED = new Map<string, MeasuredNetwork>();
+const PARSED_MAX = 64;
+
+function remember(id: string, network: MeasuredNetwork): void {
+  PARSED.delete(id);
+  PARSED.set(id, network);
+  if (PARSED.size > PARSED_MAX) PARSED.delete(PARSED.keys().next().value!);
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
