@@ -119,14 +119,11 @@ export type NoiseDecl =
       yoptIm: number;
     };
 
-/** What a built stage tells the engine. */
-export interface StageModel {
-  /** Two-ports: the sections in order. Sources and loads have none. */
-  sections: Section[];
-  /** Sources: open-circuit EMF (PEAK volts) at frequency f. */
-  emf?: (f: number) => number;
-  /** Sources: source impedance. Loads: load impedance. */
-  impedance?: ComplexFn;
+/** Where a stage sits in a chain: first (source), in between (two-port) or last (load). */
+export type StageRole = 'source' | 'two-port' | 'load';
+
+/** What every built stage may tell the engine, whatever its role. */
+export interface StageModelCommon {
   resonators?: ResonatorDecl[];
   noise?: NoiseDecl;
   linearity?: { iip3Dbm?: number; p1dbDbm?: number };
@@ -149,6 +146,34 @@ export interface StageModel {
    */
   spice?: (inNode: string, outNode: string, prefix: string) => string[];
 }
+
+/** A built source: an open-circuit EMF behind an impedance. */
+export interface SourceModel extends StageModelCommon {
+  /** Open-circuit EMF (PEAK volts) at frequency f. */
+  emf: (f: number) => number;
+  /** Source impedance. */
+  impedance: ComplexFn;
+}
+
+/** A built two-port: its sections in order, port 1 to port 2. */
+export interface TwoPortModel extends StageModelCommon {
+  sections: Section[];
+}
+
+/** A built load: a one-port impedance to ground. */
+export interface LoadModel extends StageModelCommon {
+  impedance: ComplexFn;
+}
+
+/** The model a stage of each role builds. */
+export interface ModelOfRole {
+  source: SourceModel;
+  'two-port': TwoPortModel;
+  load: LoadModel;
+}
+
+/** What a built stage tells the engine: one shape per role. */
+export type StageModel = ModelOfRole[StageRole];
 
 /** Context handed to a stage's builder. */
 export interface BuildContext {
@@ -178,22 +203,32 @@ export interface MeasuredNetwork {
   points: SParamPoint[];
 }
 
-export interface StageDefinition {
+/** What a stage type is, apart from how it builds (also what clients receive). */
+export interface StageTypeInfo {
   type: string;
   category: StageCategory;
-  role: 'source' | 'two-port' | 'load';
+  role: StageRole;
   label: string;
   /** One sentence for the palette. */
   summary: string;
   params: ParamSpec[];
   presets?: { key: string; label: string; values: ParamValues }[];
   cautions?: Caution[];
-  /** Throws StageParameterError for values the model cannot take (after schema checks). */
-  build(values: ParamValues, ctx: BuildContext): StageModel;
 }
 
-/** The catalogue as sent to clients: definitions without functions. */
-export type StageTypeInfo = Omit<StageDefinition, 'build'>;
+/** A stage type of one role, with the builder of that role's model. */
+export interface RoleStageDefinition<R extends StageRole> extends StageTypeInfo {
+  role: R;
+  /** Throws StageParameterError for values the model cannot take (after schema checks). */
+  build(values: ParamValues, ctx: BuildContext): ModelOfRole[R];
+}
+
+export type SourceDefinition = RoleStageDefinition<'source'>;
+export type TwoPortDefinition = RoleStageDefinition<'two-port'>;
+export type LoadDefinition = RoleStageDefinition<'load'>;
+
+/** A stage type of the catalogue; its `role` says which model its `build` returns. */
+export type StageDefinition = SourceDefinition | TwoPortDefinition | LoadDefinition;
 
 // ---------------------------------------------------------------- results
 

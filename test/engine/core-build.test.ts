@@ -118,7 +118,7 @@ describe('buildChain validation', () => {
     const file = { ports: 1 as const, points: [{ f: 1e6, z0: 50, s11: { re: 0.5, im: 0 } }] };
     const built = buildChain(doc, TEST_CATALOGUE, { dataFiles: { f1: file } });
     const z = new Float64Array(2);
-    built.load.model.impedance!(1e6, z, 0);
+    built.load.model.impedance(1e6, z, 0);
     expect(z[0]).toBeCloseTo(150, 12);
     const missing = issuesOf(() => buildChain(doc, TEST_CATALOGUE, { dataFiles: {} }));
     expect(missing[0]).toMatchObject({ path: ['stages', 1, 'dataFileId'], message: expect.stringMatching(/data file "f1" was not found/) }); // prettier-ignore

@@ -86,7 +86,6 @@ export const T_SOURCE: StageDefinition = {
     num('emf', 1, { unit: 'volt', min: 0, label: 'EMF' }),
   ],
   build: (v) => ({
-    sections: [],
     emf: () => n(v, 'emf'),
     impedance: (_f, out, o) => {
       out[o] = n(v, 'rs');
@@ -118,7 +117,6 @@ export const T_LOAD: StageDefinition = {
     num('r', 50, { min: 0, exclusiveMin: true, label: 'Load resistance', showWhen: { key: 'mode', equals: 'r' } }), // prettier-ignore
   ],
   build: (v) => ({
-    sections: [],
     impedance: (_f, out, o) => {
       out[o] = v['mode'] === 'open' ? Infinity : v['mode'] === 'short' ? 0 : n(v, 'r');
       out[o + 1] = 0;
@@ -328,7 +326,6 @@ export const T_DETECTOR_LOAD: StageDefinition = {
     num('nf', 0, { unit: 'db', min: 0, label: 'Noise figure (0 = none)' }),
   ],
   build: (v) => ({
-    sections: [],
     impedance: (_f, out, o) => ((out[o] = n(v, 'r')), (out[o + 1] = 0)),
     detector: { minInputPeakV: n(v, 'vmin') },
     ...(n(v, 'nf') > 0 ? { noise: { kind: 'figure' as const, nfDb: n(v, 'nf') } } : {}),
@@ -347,7 +344,7 @@ export const T_MEASURED_LOAD: StageDefinition = {
     // S11 against z0 gives Z = z0·(1 + S11)/(1 − S11) for a real S11
     const p = ctx.dataFile?.points[0];
     const r = p ? (p.z0 * (1 + p.s11.re)) / (1 - p.s11.re) : Number(v['table']);
-    return { sections: [], impedance: (_f, out, o) => ((out[o] = r), (out[o + 1] = 0)) };
+    return { impedance: (_f, out, o) => ((out[o] = r), (out[o + 1] = 0)) };
   },
 };
 

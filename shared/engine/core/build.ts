@@ -7,17 +7,20 @@
 import { chainSettingsSchema, type ChainSettings } from '../../schema/chain';
 import { ChainValidationError, StageParameterError, type ChainIssue } from '../errors';
 import type {
+  LoadModel,
   MeasuredNetwork,
   ParamSpec,
   ParamValues,
   Section,
+  SourceModel,
   StageDefinition,
   StageModel,
+  TwoPortModel,
 } from '../types';
 import { formatQuantity } from './format';
 
-/** One stage of the chain after validation and building. */
-export interface BuiltStage {
+/** One stage of the chain after validation and building; `M` is its role's model. */
+export interface BuiltStage<M extends StageModel = StageModel> {
   /** Position in the document's `stages` (0 = source). */
   index: number;
   id: string;
@@ -26,7 +29,7 @@ export interface BuiltStage {
   label: string;
   definition: StageDefinition;
   values: ParamValues;
-  model: StageModel;
+  model: M;
   /** Flat index of the stage's first section; the flat node at its input. */
   firstSection: number;
   sectionCount: number;
@@ -35,10 +38,10 @@ export interface BuiltStage {
 /** A chain ready for analysis. User-level node k sits between two-port k−1 and two-port k. */
 export interface BuiltChain {
   settings: ChainSettings;
-  source: BuiltStage;
-  load: BuiltStage;
+  source: BuiltStage<SourceModel>;
+  load: BuiltStage<LoadModel>;
   /** The stages between source and load, in order (two-port k spans user nodes k → k+1). */
-  twoPorts: BuiltStage[];
+  twoPorts: BuiltStage<TwoPortModel>[];
   /** All sections of all two-ports, in order. Flat node j is the input of section j. */
   sections: Section[];
   /** For each section, the index in `twoPorts` of the stage that owns it. */
@@ -177,13 +180,20 @@ function resolveValues(
   return resolved;
 }
 
+/** What a model lacks for its role, or null when it has what the node analysis reads. */
 function checkModel(role: StageDefinition['role'], m: StageModel): string | null {
-  if (!m || !Array.isArray(m.sections)) return 'its model has no section list';
-  if (role === 'source' && (typeof m.emf !== 'function' || typeof m.impedance !== 'function'))
+  if (!m || typeof m !== 'object') return 'its builder returned no model';
+  const has = (key: string) => typeof (m as unknown as Record<string, unknown>)[key] === 'function';
+  if (role === 'source' && !(has('emf') && has('impedance')))
     return 'a source model needs an EMF and an impedance';
-  if (role === 'load' && typeof m.impedance !== 'function')
-    return 'a load model needs an impedance';
+  if (role === 'load' && !has('impedance')) return 'a load model needs an impedance';
+  if (role === 'two-port' && !Array.isArray((m as TwoPortModel).sections))
+    return 'a two-port model needs a list of sections';
   return null;
+}
+
+function isTwoPort(s: BuiltStage): s is BuiltStage<TwoPortModel> {
+  return s.definition.role === 'two-port';
 }
 
 /**
@@ -289,7 +299,8 @@ export function buildChain(
       });
       return;
     }
-    const count = def.role === 'two-port' ? model.sections.length : 0;
+    const sections = def.role === 'two-port' ? (model as TwoPortModel).sections : [];
+    const count = sections.length;
     built.push({
       index,
       id: st.id as string,
@@ -303,7 +314,7 @@ export function buildChain(
     });
     for (let k = 0; k < count; k++) {
       f0Flat.push(f0);
-      const tr = model.sections[k].translate;
+      const tr = sections[k].translate;
       if (tr) f0 = tr(f0);
     }
     flat += count;
@@ -311,7 +322,9 @@ export function buildChain(
   if (issues.length > 0) throw new ChainValidationError(issues);
   f0Flat.push(f0);
 
-  const twoPorts = built.slice(1, -1);
+  // Roles were checked above (first a source, last a load, two-ports between) and each
+  // model against its role, so these narrowings hold.
+  const twoPorts = built.slice(1, -1).filter(isTwoPort);
   const sections = twoPorts.flatMap((s) => s.model.sections);
   const sectionStage = new Int32Array(sections.length);
   const userNodeFlat = new Int32Array(twoPorts.length + 1);
@@ -322,8 +335,8 @@ export function buildChain(
   userNodeFlat[twoPorts.length] = sections.length;
   return {
     settings,
-    source: built[0],
-    load: built[built.length - 1],
+    source: built[0] as BuiltStage<SourceModel>,
+    load: built[built.length - 1] as BuiltStage<LoadModel>,
     twoPorts,
     sections,
     sectionStage,

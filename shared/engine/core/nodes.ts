@@ -104,7 +104,7 @@ export function runNodeAnalysis(
   }
 
   // Backward pass, load → source.
-  const zl = built.load.model.impedance!;
+  const zl = built.load.model.impedance;
   for (let i = 0; i < P; i++) {
     zl(fNode[N * P + i], t, 0);
     zinRe[N * P + i] = t[0];
@@ -141,8 +141,8 @@ export function runNodeAnalysis(
   }
 
   // Forward pass, source → load, and the voltage at the source terminal.
-  const zs = built.source.model.impedance!;
-  const es = built.source.model.emf!;
+  const zs = built.source.model.impedance;
+  const es = built.source.model.emf;
   for (let i = 0; i < P; i++) {
     zs(freqs[i], t, 0);
     const sr = t[0];

@@ -89,7 +89,8 @@ export function correlationNoiseFigureDb(built: BuiltChain): number {
   for (const stage of [...built.twoPorts, built.load]) {
     const decl = stage.model.noise;
     if (stage === built.load && (!decl || decl.kind === 'passive')) continue;
-    const mats = stage.model.sections.map((s, k) => {
+    const sections = 'sections' in stage.model ? stage.model.sections : [];
+    const mats = sections.map((s, k) => {
       const m = new Float64Array(8);
       s.abcd(built.f0AtFlatNode[stage.firstSection + k], m, 0);
       return m;

@@ -2,7 +2,7 @@
  * Amplifiers as unilateral two-ports: input R ∥ C, output R ∥ C and a transconductance
  * (or a stated gain), with a noise figure or noise parameters, IIP3 and P1dB.
  */
-import type { NoiseDecl, ParamSpec, ParamValues, StageDefinition, StageModel } from '../types';
+import type { NoiseDecl, ParamSpec, ParamValues, StageDefinition, TwoPortModel } from '../types';
 import { enumParam, numParam, readParams, SpiceWriter, spiceNum } from './common';
 import { gmForStatedGain, unilateralSection } from './active-common';
 
@@ -71,7 +71,7 @@ function noiseOf(p: ReturnType<typeof readParams>): NoiseDecl {
   };
 }
 
-function buildAmplifier(params: ParamSpec[], values: ParamValues): StageModel {
+function buildAmplifier(params: ParamSpec[], values: ParamValues): TwoPortModel {
   const p = readParams(params, values);
   const [rin, cin, rout, cout] = ['rin', 'cin', 'rout', 'cout'].map((k) => p.num(k));
   const gm = p.str('gainMode') === 'gm' ? p.num('gm') : gmForStatedGain(p.num('gainDb'), rin, rout);

@@ -50,7 +50,6 @@ function rcLoad(
     build(values) {
       const p = readParams(params, values);
       return {
-        sections: [],
         impedance: rParallelC(p.num('r'), p.num('c')),
         spice: rcSpice(p.num('r'), p.num('c')),
       };
@@ -125,7 +124,6 @@ export const ENVELOPE_DETECTOR: StageDefinition = {
     const p = readParams(DETECTOR_PARAMS, values);
     const rin = p.num('rLoad') / 2;
     return {
-      sections: [],
       impedance: rParallelC(rin, p.num('c')),
       detector: { minInputPeakV: p.num('minInputPeakV') },
       spice: rcSpice(rin, p.num('c')),
@@ -151,7 +149,6 @@ export const HEADPHONE_LOW_Z: StageDefinition = {
     const r = p.num('r');
     const l = p.num('l');
     return {
-      sections: [],
       impedance: (f, out, o) => {
         out[o] = r;
         out[o + 1] = 2 * Math.PI * f * l;

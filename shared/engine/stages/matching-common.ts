@@ -3,7 +3,7 @@
  * component Q, and turning a design into the model's designedMatch and qBudget.
  */
 import { designMatch, type MatchKind } from '../design';
-import type { BuildContext, ParamSpec, ParamValues, StageModel } from '../types';
+import type { BuildContext, ParamSpec, ParamValues, TwoPortModel } from '../types';
 import {
   designFrequency,
   enumParam,
@@ -92,11 +92,11 @@ export function buildMatching(
   topology: (parts: Record<string, number>, p: ParamReader) => LadderElement[],
   componentKeys: string[],
   check?: (design: ReturnType<typeof designMatch>, p: ParamReader) => void,
-): StageModel {
+): TwoPortModel {
   const p = readParams(specs, values);
   const componentQ = Math.min(p.num('ql'), p.num('qc'));
   let parts: Record<string, number>;
-  const model: Partial<StageModel> = {};
+  const model: Partial<TwoPortModel> = {};
   if (p.str('mode') === 'design') {
     const design = designMatch(kind(p), {
       r1: p.num('r1'),

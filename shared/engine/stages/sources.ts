@@ -63,7 +63,6 @@ export const RESISTIVE_GENERATOR: StageDefinition = {
         ? p.num('emf')
         : Math.sqrt(8 * r * 1e-3 * 10 ** (p.num('powerDbm') / 10));
     return {
-      sections: [],
       emf: () => emf,
       impedance: (_f, out, o) => {
         out[o] = r;
@@ -129,7 +128,6 @@ export const SHORT_MONOPOLE: StageDefinition = {
     const c = ant.capacitance;
     const emf = Math.SQRT2 * p.num('fieldRms') * ant.effectiveHeight;
     return {
-      sections: [],
       emf: () => emf,
       impedance: (f, out, o) => {
         out[o] = ant.radiationResistance(f) + lossR;
@@ -181,7 +179,6 @@ export const MEASURED_ANTENNA: StageDefinition = {
       : parseTable(p.str('table'), 2, 'table', 'f R X');
     const emf = Math.SQRT2 * p.num('fieldRms') * p.num('effectiveHeight');
     return {
-      sections: [],
       emf: () => emf,
       impedance: (f, out, o) => interpolate(table, f, out, o),
     };

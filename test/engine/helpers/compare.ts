@@ -91,7 +91,7 @@ export function measureAgreement(
       );
     }
   }
-  const emf = deck.built.source.model.emf!;
+  const emf = deck.built.source.model.emf;
   const none = (): WorstPoint => ({
     fHz: NaN,
     where: '',
