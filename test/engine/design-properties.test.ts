@@ -87,12 +87,13 @@ describe('snapToSeries (property)', () => {
       E6: seriesValues('E6', -13, 7),
       E12: seriesValues('E12', -13, 7),
       E24: seriesValues('E24', -13, 7),
+      E48: seriesValues('E48', -13, 7),
       E96: seriesValues('E96', -13, 7),
     };
     fc.assert(
       fc.property(
         fc.double({ min: -12, max: 6.9, noNaN: true }).map((e) => 10 ** e),
-        fc.constantFrom<PreferredSeries>('E6', 'E12', 'E24', 'E96'),
+        fc.constantFrom<PreferredSeries>('E6', 'E12', 'E24', 'E48', 'E96'),
         (v, series) => {
           const s = snapToSeries(v, series);
           const list = members[series];

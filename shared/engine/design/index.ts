@@ -39,3 +39,11 @@ export function designMatch(kind: MatchKind, spec: MatchSpec): MatchDesign {
       return designTappedCapacitor(spec);
   }
 }
+export * from './chain-edit';
+export * from './complex-match';
+export * from './match-here';
+export * from './match-stages';
+export * from './snap-chain';
+export * from './coil-parts';
+export * from './tune';
+export * from './tune-pair';

@@ -1,5 +1,5 @@
 /**
- * Preferred-number series of IEC 60063 (E6, E12, E24, E96) and snapping to them.
+ * Preferred-number series of IEC 60063 (E6, E12, E24, E48, E96) and snapping to them.
  *
  * Rule: the nearest preferred value is the one with the smallest |ln(value/preferred)|
  * (nearest in log ratio, the natural measure for a geometric series); on an exact tie the
@@ -8,7 +8,10 @@
  * differently), so the tables are written out rather than generated.
  */
 
-export type PreferredSeries = 'E6' | 'E12' | 'E24' | 'E96';
+export type PreferredSeries = 'E6' | 'E12' | 'E24' | 'E48' | 'E96';
+
+/** The series offered to users, coarse to fine. */
+export const PREFERRED_SERIES: readonly PreferredSeries[] = ['E6', 'E12', 'E24', 'E48', 'E96'];
 
 /** One decade of each series, mantissas in [1, 10). */
 export const SERIES_MANTISSAS: Readonly<Record<PreferredSeries, readonly number[]>> = {
@@ -17,6 +20,12 @@ export const SERIES_MANTISSAS: Readonly<Record<PreferredSeries, readonly number[
   E24: [
     1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1, 5.6,
     6.2, 6.8, 7.5, 8.2, 9.1,
+  ],
+  // E48 is every second E96 value.
+  E48: [
+    1.0, 1.05, 1.1, 1.15, 1.21, 1.27, 1.33, 1.4, 1.47, 1.54, 1.62, 1.69, 1.78, 1.87, 1.96, 2.05,
+    2.15, 2.26, 2.37, 2.49, 2.61, 2.74, 2.87, 3.01, 3.16, 3.32, 3.48, 3.65, 3.83, 4.02, 4.22, 4.42,
+    4.64, 4.87, 5.11, 5.36, 5.62, 5.9, 6.19, 6.49, 6.81, 7.15, 7.5, 7.87, 8.25, 8.66, 9.09, 9.53,
   ],
   E96: [
     1.0, 1.02, 1.05, 1.07, 1.1, 1.13, 1.15, 1.18, 1.21, 1.24, 1.27, 1.3, 1.33, 1.37, 1.4, 1.43,
