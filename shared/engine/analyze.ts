@@ -11,6 +11,7 @@ import { analyzeResonators } from './core/resonators';
 import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivity';
 import { frequencyGrid } from './core/sweep';
 import { defaultCatalogue } from './default-catalogue';
+import { planChain, planFlags } from './planning';
 
 /** Version of the engine's methods, stored with saved results. */
 export const ENGINE_VERSION = '0.1.0';
@@ -18,12 +19,20 @@ export const ENGINE_VERSION = '0.1.0';
 export interface AnalyzeOptions extends BuildOptions {
   /** Include the sweep arrays in the result (default true). Selectivity is always computed. */
   sweep?: boolean;
+  /**
+   * Work out the receiver plan (spurs, strong signals, outside noise, converter) and its
+   * flags; 'full' adds the spur chart across the tuning range and the IF choice.
+   */
+  plan?: boolean | 'full';
   /** Stage types to accept (default: the product's stage catalogue). */
   catalogue?: readonly StageDefinition[];
 }
 
 /** Analyses an already built chain (for callers that build once and analyse many times). */
-export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {}): AnalysisResult {
+export function analyzeBuilt(
+  built: BuiltChain,
+  options: { sweep?: boolean; plan?: boolean | 'full' } = {},
+): AnalysisResult {
   const f0Hz = built.settings.f0Hz;
   const f0Na = runNodeAnalysis(built, [f0Hz]);
   const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
@@ -33,6 +42,11 @@ export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {
   const image = imageFrequency(built, findMixer(built));
   const selectivity = analyzeSelectivity(built, sweepNa, image);
   const flags = raiseFlags({ built, f0Na, resonators: findings });
+  const levels = levelsReport(built, f0Na, stages);
+  const plan = options.plan
+    ? planChain(built, { nodes, stages, selectivity, levels }, options.plan === 'full')
+    : undefined;
+  if (plan) flags.push(...planFlags(plan, built.load.id, built.settings.planning !== undefined));
   const resonators = findings.map(
     ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, ...report }) => report,
   );
@@ -43,9 +57,10 @@ export function analyzeBuilt(built: BuiltChain, options: { sweep?: boolean } = {
     stages,
     resonators,
     selectivity,
-    levels: levelsReport(built, f0Na, stages),
+    levels,
     flags,
     ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa) }),
+    ...(plan ? { plan } : {}),
   };
 }
 

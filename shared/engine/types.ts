@@ -9,6 +9,7 @@
  *   a sweep of n points is one Float64Array of length 8·n, point i at offset 8·i.
  * Voltages and currents are PEAK phasors; reports say so and add rms where users expect it.
  */
+import type { PlanReport } from './planning/plan';
 
 export type UnitKind =
   | 'ohm'
@@ -132,6 +133,17 @@ export interface StageModelCommon {
    * absent the engine derives it from the sections' `translate`.
    */
   mixer?: { loHz: number; product: 'difference' | 'sum' };
+  /**
+   * Converters (loads): a full-scale sine's power into the input resistance (W), the SNR of
+   * that sine over the Nyquist band (dB), the sample rate, and the bandwidth the processing
+   * keeps (Hz; 0 = the chain's channel bandwidth).
+   */
+  converter?: {
+    fullScaleW: number;
+    snrDb: number;
+    sampleRateHz: number;
+    processingBandwidthHz: number;
+  };
   /** Detectors: the lowest input level (PEAK volts) at which they work properly. */
   detector?: { minInputPeakV: number };
   /** Matching networks: the resistances it was designed to match (for the mismatch flag). */
@@ -247,6 +259,10 @@ export type FlagCode =
   | 'compression'
   | 'detector-underdriven'
   | 'q-budget'
+  | 'spur-response'
+  | 'blocking'
+  | 'converter-floor'
+  | 'converter-clips'
   | 'caution';
 
 export interface Flag {
@@ -387,4 +403,6 @@ export interface AnalysisResult {
   levels: LevelsReport;
   flags: Flag[];
   sweep?: SweepReport;
+  /** The receiver plan (spurs, strong signals, outside noise, converter), when asked for. */
+  plan?: PlanReport;
 }

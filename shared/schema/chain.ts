@@ -64,6 +64,40 @@ export const sweepSchema = z
   });
 export type Sweep = z.infer<typeof sweepSchema>;
 
+/**
+ * Receiver-planning inputs (all optional, with defaults): the spurious-response search, a
+ * blocker, the tone spacing for off-channel intermodulation, the LO's phase noise, the
+ * radio-noise environment at the antenna, and the strongest signal expected there.
+ */
+export const planningSchema = z.object({
+  /** Highest order m + n of mixer products searched. */
+  spurMaxOrder: z.number().int().min(1).max(9).default(5),
+  /** Rejection a spurious response must reach, dB. */
+  spurTargetDb: z.number().min(0).max(200).default(60),
+  /** Mixer suppression of each (m, n) product relative to the wanted, dB, indexed [n][m]. */
+  mixerSuppressionDb: z.array(z.array(z.number().min(0).max(200)).min(1).max(10)).min(1).max(10).optional(), // prettier-ignore
+  /** Tuning range for the spur chart and the IF choice, Hz (default: the sweep's range). */
+  tuningStartHz: positive('tuning range start').optional(),
+  tuningStopHz: positive('tuning range stop').optional(),
+  /** Candidate IFs for the IF choice, Hz (default: common filter frequencies). */
+  ifCandidatesHz: z.array(positive('candidate IF')).max(32).optional(),
+  /** A strong signal at f0 + offset with this level available at the antenna. */
+  blockerOffsetHz: finite('blocker offset').refine((v) => v !== 0, 'blocker offset must not be 0').default(100e3), // prettier-ignore
+  blockerLevelDbm: finite('blocker level').default(-30),
+  /** Two tones at f0 + spacing and f0 + 2·spacing. */
+  toneSpacingHz: positive('tone spacing').default(50e3),
+  /** LO phase noise, dBc/Hz at offsets (piecewise log-linear); empty: not stated. */
+  loPhaseNoise: z.array(z.object({ offsetHz: positive('phase-noise offset'), dbcHz: z.number().min(-250).max(0) })).max(16).default([]), // prettier-ignore
+  /** Radio-noise environment at the antenna (ITU-R P.372 man-made noise). */
+  environment: z.enum(['business', 'residential', 'rural', 'quiet-rural', 'none']).default('residential'), // prettier-ignore
+  galactic: z.boolean().default(true),
+  /** Atmospheric noise figure read off P.372 for the time and place, dB; null: none. */
+  atmosphericFaDb: z.number().min(-50).max(250).nullable().default(null),
+  /** The strongest signal expected at the antenna, dBm (converter clipping). */
+  strongestSignalDbm: finite('strongest signal').default(-20),
+});
+export type PlanningSettings = z.infer<typeof planningSchema>;
+
 export const chainSettingsSchema = z.object({
   /** Design frequency f0 in Hz (at the chain's input: RF). */
   f0Hz: positive('design frequency'),
@@ -83,6 +117,7 @@ export const chainSettingsSchema = z.object({
     matchReturnLossDb: 15,
     detuneFraction: 0.5,
   }),
+  planning: planningSchema.optional(),
 });
 export type ChainSettings = z.infer<typeof chainSettingsSchema>;
 

@@ -12,7 +12,8 @@ import { CAPACITIVE_TAP, COUPLED_COILS, IDEAL_TRANSFORMER, TAPPED_COIL } from '.
 import { ATTENUATOR_PAD, TR_SWITCH, TRANSMISSION_LINE } from './elements';
 import { IF_FILTER } from './if-filter';
 import { L_MATCH } from './l-match';
-import { ADC_INPUT, EARPHONE_HIGH_Z, ENVELOPE_DETECTOR, HEADPHONE_LOW_Z, RC_LOAD } from './loads';
+import { ADC_CONVERTER } from './converter';
+import { EARPHONE_HIGH_Z, ENVELOPE_DETECTOR, HEADPHONE_LOW_Z, RC_LOAD } from './loads';
 import { LUMPED_ELEMENT, SERIES_LC, SHUNT_LC_TANK } from './lumped';
 import { DOUBLE_L_MATCH, PI_MATCH, T_MATCH, TAPPED_C_MATCH } from './matching-networks';
 import { MEASURED_TWO_PORT } from './measured-two-port';
@@ -25,6 +26,7 @@ export { gmForStatedGain, statedGainForGm } from './active-common';
 export { mixerLoFrequency, mixerTranslate } from './mixer';
 export { shortMonopole } from './sources';
 export { padElements } from './elements';
+export { snrOfEnob } from './converter';
 
 /** Every stage type, in palette order. Types are unique (tested). */
 export const STAGE_DEFINITIONS: StageDefinition[] = [
@@ -51,7 +53,7 @@ export const STAGE_DEFINITIONS: StageDefinition[] = [
   ENVELOPE_DETECTOR,
   EARPHONE_HIGH_Z,
   HEADPHONE_LOW_Z,
-  ADC_INPUT,
+  ADC_CONVERTER,
   RC_LOAD,
   LUMPED_ELEMENT,
   ATTENUATOR_PAD,
