@@ -1,7 +1,7 @@
 /**
  * Command-line analysis of a chain file.
  *
- *   npm run analyze -- <chain.json> [--sweep] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+ *   npm run analyze -- <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
  *   npm run analyze -- --list-types [--json]
  *
  * Exit codes: 0 done; 1 wrong usage; 2 the file cannot be read or is not JSON; 3 the chain
@@ -15,14 +15,16 @@ import { ChainValidationError } from '../shared/engine/errors';
 import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
 import type { StageDefinition } from '../shared/engine/types';
 import { budgetText } from '../shared/io/budget-text';
+import { planText } from '../shared/io/plan-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
 import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, chainDocumentSchema } from '../shared/schema/chain';
 
-const USAGE = `usage: analyze <chain.json> [--sweep] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+const USAGE = `usage: analyze <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
        analyze --list-types [--json]
 
   (no option)    the budget table at f0: nodes, stages, resonators, selectivity, levels, flags
   --sweep        add the sweep (a table, or arrays with --json)
+  --plan         add the receiver plan: spurs, strong signals, outside noise, converter
   --json         the whole analysis as JSON
   --spice        an ngspice netlist of the chain
   --touchstone   Touchstone 1.1 S-parameters of the stages between source and load
@@ -42,6 +44,7 @@ class CliError extends Error {
 interface Options {
   file?: string;
   sweep: boolean;
+  plan: boolean;
   json: boolean;
   spice: boolean;
   touchstone: boolean;
@@ -52,6 +55,7 @@ interface Options {
 function parseArgs(argv: string[]): Options {
   const o: Options = {
     sweep: false,
+    plan: false,
     json: false,
     spice: false,
     touchstone: false,
@@ -61,6 +65,7 @@ function parseArgs(argv: string[]): Options {
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--sweep') o.sweep = true;
+    else if (a === '--plan') o.plan = true;
     else if (a === '--json') o.json = true;
     else if (a === '--spice') o.spice = true;
     else if (a === '--touchstone') o.touchstone = true;
@@ -175,8 +180,10 @@ function run(argv: string[]): string {
   try {
     if (o.spice) return chainToSpice(doc, { catalogue }).trimEnd();
     if (o.touchstone) return chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd();
-    const result = analyzeChain(doc, { catalogue, sweep: o.sweep });
-    return o.json ? JSON.stringify(result, null, 2) : budgetText(doc.name, result);
+    const result = analyzeChain(doc, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false });
+    if (o.json) return JSON.stringify(result, null, 2);
+    const text = budgetText(doc.name, result);
+    return result.plan ? `${text}\n\n${planText(result.plan)}` : text;
   } catch (e) {
     if (e instanceof ChainValidationError) {
       const lines = e.issues.map((i) => `  ${formatPath(i.path)}: ${i.message}`);

@@ -4,9 +4,15 @@
  * the bandwidth the processing after it keeps. The receiver plan reads these to refer the
  * converter's noise to the antenna and to find its clipping headroom.
  */
-import type { StageDefinition } from '../types';
+import type { LoadDefinition, StageDefinition } from '../types';
 import { enumParam, numParam, readParams } from './common';
-import { ADC_INPUT } from './loads';
+import { ADC_INPUT as ADC_DEFINITION } from './loads';
+
+function loadDefinition(d: StageDefinition): LoadDefinition {
+  if (d.role !== 'load') throw new Error(`${d.type} is not a load (programming error)`);
+  return d;
+}
+const ADC_INPUT = loadDefinition(ADC_DEFINITION);
 
 const byVolts = { key: 'fullScaleAs', equals: 'volts' };
 const byEnob = { key: 'noiseAs', equals: 'enob' };
@@ -51,7 +57,7 @@ export function snrOfEnob(enob: number): number {
 }
 
 /** ADC input with the converter's figures. */
-export const ADC_CONVERTER: StageDefinition = {
+export const ADC_CONVERTER: LoadDefinition = {
   ...ADC_INPUT,
   summary: 'A converter or receiver-chip input: R ∥ C, full scale, ENOB or SNR, sample rate.',
   params: [...ADC_INPUT.params, ...CONVERTER_PARAMS],
