@@ -5,6 +5,7 @@ import helmet from 'helmet';
 import { RequestContext } from '@mikro-orm/core';
 import { chainExportRouter, exportRouter } from './analysis/export-routes';
 import { analysisRouter, chainAnalysisRouter } from './analysis/routes';
+import { designRouter } from './design/routes';
 import { authRouter } from './auth/routes';
 import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './auth/session';
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
@@ -74,6 +75,7 @@ export function createApp(services: Services): Express {
   app.use('/api/chains', chainAnalysisRouter(em));
   app.use('/api/chains', chainExportRouter(em));
   app.use('/api/examples', examplesRouter(config.examplesDir));
+  app.use('/api/design', designRouter(em));
   app.use('/api', analysisRouter(em));
   app.use('/api', exportRouter(em));
   app.use('/api', apiNotFound);
