@@ -5,7 +5,11 @@ import type { AnalysisResult, MeasuredNetwork, StageTypeInfo } from '../../share
 export interface EngineApi {
   analyzeChain(
     doc: ChainDocument,
-    options: { sweep: boolean; dataFiles?: Readonly<Record<string, MeasuredNetwork>> },
+    options: {
+      sweep: boolean;
+      plan?: boolean | 'full';
+      dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
+    },
   ): AnalysisResult | Promise<AnalysisResult>;
   catalogue(): StageTypeInfo[];
   ENGINE_VERSION: string;

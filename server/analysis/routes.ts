@@ -24,11 +24,12 @@ async function analyze(
   doc: ChainDocument,
   sweep: boolean,
   workspaceId: string | undefined,
+  plan: boolean | 'full' = false,
 ) {
   const engine = await engineOr503();
   const dataFiles = await loadDataFiles(em, doc, workspaceId);
   try {
-    res.json(await engine.analyzeChain(doc, { sweep, ...(dataFiles ? { dataFiles } : {}) }));
+    res.json(await engine.analyzeChain(doc, { sweep, plan, ...(dataFiles ? { dataFiles } : {}) }));
   } catch (err) {
     throw invalidChainError(err) ?? err;
   }
@@ -45,7 +46,7 @@ export function analysisRouter(em: EntityManager): Router {
   router.post('/analysis', requireUser, async (req, res) => {
     const body = parseOr422(analysisRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-    await analyze(em, res, body.document, body.sweep, body.workspaceId);
+    await analyze(em, res, body.document, body.sweep, body.workspaceId, body.plan);
   });
   router.get('/catalogue', requireUser, async (_req, res) => {
     res.json((await engineOr503()).catalogue());
@@ -58,8 +59,10 @@ export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/analysis', chainRole(em, 'viewer'), async (req, res) => {
     const sweep = req.query.sweep === '1' || req.query.sweep === 'true';
+    const plan =
+      req.query.plan === 'full' ? 'full' : req.query.plan === '1' || req.query.plan === 'true';
     const chain = res.locals.chain!;
-    await analyze(em, res, chain.document, sweep, chain.workspace.id);
+    await analyze(em, res, chain.document, sweep, chain.workspace.id, plan);
   });
   return router;
 }

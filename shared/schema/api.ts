@@ -164,6 +164,11 @@ export const analysisRequestSchema = z.object({
   document: chainDocumentSchema,
   /** Include the frequency sweep in the answer. */
   sweep: z.boolean().default(true),
+  /**
+   * Add the receiver plan (spurs, strong signals, outside noise, converter): true for the
+   * figures, 'full' for the spur chart across the tuning range and the IF choice as well.
+   */
+  plan: z.union([z.boolean(), z.literal('full')]).default(false),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
 });
