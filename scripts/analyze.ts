@@ -17,7 +17,14 @@ import type { StageDefinition } from '../shared/engine/types';
 import { budgetText } from '../shared/io/budget-text';
 import { planText } from '../shared/io/plan-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
-import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, chainDocumentSchema } from '../shared/schema/chain';
+import {
+  CHAIN_FORMAT,
+  CHAIN_FORMAT_VERSION,
+  chainDocumentSchema,
+  type ChainDocument,
+} from '../shared/schema/chain';
+import { StageParameterError } from '../shared/engine/errors';
+import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 
 const USAGE = `usage: analyze <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
        analyze --list-types [--json]
@@ -29,7 +36,9 @@ const USAGE = `usage: analyze <chain.json> [--sweep] [--plan] [--json] [--spice]
   --spice        an ngspice netlist of the chain
   --touchstone   Touchstone 1.1 S-parameters of the stages between source and load
   --z0 <ohm>     reference resistance of the Touchstone file (default 50)
-  --list-types   the stage types with their parameters, units and defaults`;
+  --list-types   the stage types with their parameters, units and defaults
+
+${DESIGN_USAGE}`;
 
 /** A failure with its exit code and the lines to print. */
 class CliError extends Error {
@@ -50,6 +59,8 @@ interface Options {
   touchstone: boolean;
   listTypes: boolean;
   z0: number;
+  /** Design assistant options (scripts/design-cli.ts). */
+  design: Map<string, string>;
 }
 
 function parseArgs(argv: string[]): Options {
@@ -61,10 +72,18 @@ function parseArgs(argv: string[]): Options {
     touchstone: false,
     listTypes: false,
     z0: 50,
+    design: new Map(),
   };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
-    if (a === '--sweep') o.sweep = true;
+    let taken: number;
+    try {
+      taken = takeDesignOption(argv, i, o.design);
+    } catch (e) {
+      throw new CliError(1, (e as Error).message);
+    }
+    if (taken > 0) i += taken - 1;
+    else if (a === '--sweep') o.sweep = true;
     else if (a === '--plan') o.plan = true;
     else if (a === '--json') o.json = true;
     else if (a === '--spice') o.spice = true;
@@ -164,6 +183,22 @@ function listTypes(catalogue: readonly StageDefinition[], json: boolean): string
     .join('\n');
 }
 
+/** A design assistant's answer, its refusals as exit code 3 with the reason. */
+function runDesign(
+  doc: ChainDocument,
+  o: Options,
+  catalogue: readonly StageDefinition[],
+): string | null {
+  try {
+    return runDesignCli(doc, o.design, o.json, { catalogue });
+  } catch (e) {
+    if (e instanceof StageParameterError || (e instanceof Error && e.constructor === Error)) {
+      throw new CliError(3, `${o.file}: ${e.message}`);
+    }
+    throw e;
+  }
+}
+
 function run(argv: string[]): string {
   const o = parseArgs(argv);
   const catalogue = defaultCatalogue();
@@ -180,6 +215,8 @@ function run(argv: string[]): string {
   try {
     if (o.spice) return chainToSpice(doc, { catalogue }).trimEnd();
     if (o.touchstone) return chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd();
+    const designed = runDesign(doc, o, catalogue);
+    if (designed !== null) return designed;
     const result = analyzeChain(doc, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false });
     if (o.json) return JSON.stringify(result, null, 2);
     const text = budgetText(doc.name, result);

@@ -18,10 +18,11 @@ import {
 import { currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
-import { EngineUnavailableError, invalidChainError } from '../analysis/engine-errors';
-import { loadDesign, type DesignApi } from './engine';
+import { invalidChainError } from '../analysis/engine-errors';
+import * as designApi from '../../shared/engine/design';
 
-type DesignOptions = Parameters<DesignApi['matchHere']>[2];
+type DesignApi = typeof designApi;
+type DesignOptions = designApi.DesignOptions;
 
 /**
  * Parses the body, checks workspace access, loads the data files and runs `work`, mapping
@@ -35,11 +36,9 @@ async function runDesign<S extends z.ZodType<{ document: unknown; workspaceId?: 
 ): Promise<T> {
   const body = parseOr422(schema, req.body);
   if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-  const design = await loadDesign();
-  if (!design) throw new EngineUnavailableError();
   const dataFiles = await loadDataFiles(em, body.document as never, body.workspaceId);
   try {
-    return work(design, body, dataFiles ? { dataFiles } : {});
+    return work(designApi, body, dataFiles ? { dataFiles } : {});
   } catch (err) {
     throw invalidChainError(err) ?? err;
   }

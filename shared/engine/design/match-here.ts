@@ -226,7 +226,7 @@ export function matchHere(
     const parts = [m.series, m.shunt].filter((p): p is LadderPart => p !== null);
     designs.push({
       topology: 'coupled-coils',
-      title: `Coupled coils, k ${k}, tuned secondary: L1 ${m.l1.toPrecision(4)} H, L2 ${m.l2.toPrecision(4)} H`,
+      title: `Coupled coils, k ${k}, tuned secondary: ${describe(parts)}`,
       parts,
       loadedQ: q,
       extra: { l1: m.l1, l2: m.l2, k },

@@ -1,0 +1,64 @@
+/**
+ * The design options of the analysis CLI, run as a separate process on the bundle (as the
+ * CLI ships): their answers, and their refusals with exit code 3 and the reason.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { bundleCli } from '../../scripts/bench/bundle-cli';
+
+const ROOT = join(__dirname, '..', '..');
+const EXAMPLE = join(ROOT, 'examples', 'shortwave-superhet-single-tank.chain.json');
+let dir: string;
+let bundle: string;
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'cw-cli-design-'));
+  bundle = bundleCli(join(dir, 'analyze.js'));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+function cli(...args: string[]) {
+  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 60_000 });
+  return { code: p.status, out: p.stdout, err: p.stderr };
+}
+
+describe('analyze CLI, design options', () => {
+  it('tunes the preselector to 7.1 MHz and prints JSON the engine agrees with', () => {
+    const { code, out, err } = cli(
+      EXAMPLE,
+      '--tune',
+      'preselector/tank',
+      '--solve',
+      'preselector.c',
+      '--to',
+      '7.1e6',
+      '--json',
+    );
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    const r = JSON.parse(out);
+    expect(Math.abs(r.resonanceHz / 7.1e6 - 1)).toBeLessThan(1e-6);
+    // Thomson's formula for 2.2 µH (common practice): within 0.5 % of the loaded answer.
+    expect(Math.abs(r.value * (2 * Math.PI * 7.1e6) ** 2 * 2.2e-6 - 1)).toBeLessThan(5e-3);
+  });
+
+  it('prints the parts with coil turns', () => {
+    const { code, out } = cli(EXAMPLE, '--parts', 'preselector');
+    expect(code).toBe(0);
+    expect(out).toMatch(/^Inductance,2\.200e-6,H,,10\.25,/m);
+  });
+
+  it('refuses an unknown series with exit code 3 and the choices', () => {
+    const { code, err } = cli(EXAMPLE, '--snap', 'E7');
+    expect(code).toBe(3);
+    expect(err).toMatch(/E6, E12, E24, E48 or E96/);
+  });
+
+  it('refuses a value that cannot tune, naming it', () => {
+    const { code, err } = cli(EXAMPLE, '--tune', 'preselector/tank', '--solve', 'preselector.ql');
+    expect(code).toBe(3);
+    expect(err).toMatch(/no inductance or capacitance "ql"/);
+  });
+});
