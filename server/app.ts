@@ -12,6 +12,8 @@ import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/ro
 import { dataFilesRouter } from './files/routes';
 import { apiNotFound, errorHandler } from './common/error-handler';
 import { healthHandler } from './common/health';
+import { jsonBody } from './common/json-body';
+import { requestLogger } from './common/logger';
 import { rejectNulCharacters } from './common/reject-nul';
 import type { Services } from './common/services';
 import { adminRouter } from './users/admin-routes';
@@ -25,6 +27,7 @@ import { workspacesRouter } from './workspaces/routes';
 export function createApp(services: Services): Express {
   const { config, em, orm } = services;
   const app = express();
+  app.use(requestLogger(services.logger));
   // Behind a proxy, client addresses (for the sign-in limit) and HTTPS come from its headers.
   if (config.trustProxyHops > 0) app.set('trust proxy', config.trustProxyHops);
 
@@ -54,7 +57,7 @@ export function createApp(services: Services): Express {
       strictTransportSecurity: config.cookieSecure,
     }),
   );
-  app.use(express.json({ limit: config.bodyLimitBytes }), rejectNulCharacters);
+  app.use(jsonBody(config.bodyLimitBytes), rejectNulCharacters);
   // One entity manager per request, so identity maps never leak between requests.
   app.use((_req, _res, next) => RequestContext.create(orm.em, next));
 

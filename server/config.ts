@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import path from 'node:path';
+import type { LogOptions } from './common/logger';
 
 /** Where fake mail goes: an SMTP server on loopback, or an in-memory JSON transport (tests). */
 export type MailConfig = { kind: 'smtp'; host: string; port: number } | { kind: 'json' };
@@ -25,6 +26,8 @@ export interface ServerConfig {
   /** Failed sign-in attempts allowed per client address and window. */
   signInLimit: { windowMs: number; limit: number };
   mail: MailConfig;
+  /** Log level and destination (default: info and up, to standard output). */
+  log?: LogOptions;
   /** Whether the session store prunes expired sessions on a timer (off in tests: jest must exit). */
   pruneSessions: boolean;
 }

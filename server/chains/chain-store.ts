@@ -2,6 +2,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { loadEngine } from '../analysis/engine';
 import { ConflictError } from '../common/errors';
+import { lockReferencedDataFiles } from '../files/data-file-lock';
 import { loadDataFiles } from '../files/data-files';
 import type { User } from '../users/user.entity';
 import type { Workspace } from '../workspaces/workspace.entity';
@@ -72,7 +73,15 @@ export async function createChain(
     author: input.user,
     message: input.message,
   });
-  await em.flush();
+  // One transaction with the data-file locks, so a file cannot be deleted under the save.
+  await em.begin();
+  try {
+    await lockReferencedDataFiles(em, input.document);
+    await em.commit();
+  } catch (err) {
+    await em.rollback();
+    throw err;
+  }
   return chain;
 }
 
@@ -101,6 +110,7 @@ export async function saveChainVersion(
   const flagCount = await countFlags(em, input.document, chain.workspace.id);
   const next = input.expectedVersion + 1;
   await em.transactional(async (tem) => {
+    await lockReferencedDataFiles(tem, input.document);
     const updated = await tem.nativeUpdate(
       ChainSchema,
       { id: chain.id, version: input.expectedVersion },

@@ -8,8 +8,12 @@ import {
 import { z } from 'zod';
 import type { ApiErrorDto } from '../../shared/schema/api';
 import { CSRF_ERROR_CODE } from '../auth/csrf-code';
+import { isDatabaseUnavailable, loggableError, sqlState } from './db-errors';
 import { HttpError } from './errors';
 import { zodDetails } from './validate';
+
+/** Seconds a client should wait before retrying while the database is away. */
+export const RETRY_AFTER_SECONDS = 5;
 
 /** Errors body-parser raises, recognised by their `type`. */
 interface BodyParserError {
@@ -41,6 +45,9 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
       body: { error: 'malformed-json', message: 'the request body is not valid JSON' },
     };
   }
+  if (bp?.type === 'entity.shape.refused') {
+    return { status: 400, body: { error: 'body-shape', message: (err as Error).message } };
+  }
   if (bp?.type === 'entity.too.large') {
     return {
       status: 413,
@@ -68,8 +75,52 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
       body: { error: 'stale-version', message: 'someone saved this in the meantime; reload it' },
     };
   }
+  if (isDatabaseUnavailable(err)) {
+    return {
+      status: 503,
+      body: {
+        error: 'db-unavailable',
+        message: `the database cannot be reached just now; try again in ${RETRY_AFTER_SECONDS} seconds`,
+      },
+    };
+  }
+  const state = sqlState(err);
+  // Deadlock or serialisation failure between two requests: the retry will go through.
+  if (state === '40P01' || state === '40001') {
+    return {
+      status: 503,
+      body: {
+        error: 'busy',
+        message: 'the database was busy with a conflicting change; try again',
+      },
+    };
+  }
   if (err instanceof UniqueConstraintViolationException) {
     return { status: 409, body: { error: 'duplicate', message: 'that already exists' } };
+  }
+  // A foreign key: on insert or update, a row this one refers to was deleted meanwhile (a
+  // request racing a delete); on delete, other rows still refer to the one being deleted.
+  if (state === '23503') {
+    const onDelete = /update or delete on table/.test((err as Error).message);
+    return {
+      status: 409,
+      body: onDelete
+        ? { error: 'in-use', message: 'other records still refer to this; remove them first' }
+        : {
+            error: 'gone',
+            message: 'something this refers to was deleted meanwhile; reload and try again',
+          },
+    };
+  }
+  // Any other integrity rule (not null, check, exclusion): the request's data broke it.
+  if (state.startsWith('23')) {
+    return {
+      status: 409,
+      body: {
+        error: 'conflict',
+        message: `the change breaks a rule of the stored data: ${(err as Error).message.split(' - ').pop()}`,
+      },
+    };
   }
   // PostgreSQL class 22 (data exception): a value the column cannot hold, e.g. an integer
   // out of range. It is the request's fault, not the server's.
@@ -91,13 +142,23 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
   };
 }
 
-/** The one error middleware: maps typed errors, zod and body-parser errors to JSON. */
+/**
+ * The one error middleware: maps typed errors, zod, body-parser and database errors to
+ * JSON. Failures are logged through the request's logger with the error's kind and the
+ * database's message, never a request body or SQL parameters.
+ */
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const { status, body } = toDto(err);
-  // Deliberate HttpErrors (e.g. 503 engine unavailable) are answers, not failures: log the rest.
-  if (status >= 500 && !(err instanceof HttpError))
-    console.error(`[server] ${req.method} ${req.originalUrl}:`, err);
+  const log = req.log;
+  if (status === 503 && body.error === 'db-unavailable') {
+    log?.warn({ err: loggableError(err) }, 'database unavailable');
+  } else if (status >= 500 && !(err instanceof HttpError)) {
+    // Deliberate HttpErrors (e.g. 503 engine unavailable) are answers, not failures.
+    if (log) log.error({ err: loggableError(err) }, 'request failed');
+    else console.error('[server] request failed:', loggableError(err));
+  }
   if (res.headersSent) return;
+  if (status === 503) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS));
   res.status(status).json(body);
 };
 

@@ -1,8 +1,10 @@
 import { MikroORM, type EntityManager } from '@mikro-orm/postgresql';
 import nodemailer, { type Transporter } from 'nodemailer';
 import pg from 'pg';
+import type { Logger } from 'pino';
 import type { ServerConfig } from '../config';
 import { ormOptions } from '../mikro-orm.config';
+import { createLogger } from './logger';
 
 /** What the app needs from the outside world; built once by initServices, passed to createApp. */
 export interface Services {
@@ -13,6 +15,8 @@ export interface Services {
   /** Pool for the session store (kept apart from the ORM's so each can be sized alone). */
   sessionPool: pg.Pool;
   mailer: Transporter;
+  /** Structured logger (pino); requests log through its per-request child `req.log`. */
+  logger: Logger;
   /** Ends every pool and connection so the process (or jest) can exit. */
   close(): Promise<void>;
 }
@@ -33,9 +37,12 @@ export async function initServices(
       ...(connect ? {} : { connect: false, ensureDatabase: false }),
     }),
   );
+  const logger = createLogger(config.log);
   const sessionPool = new pg.Pool({ connectionString: config.databaseUrl, max: 4 });
   // An idle client losing its connection must not crash the server; the pool replaces it.
-  sessionPool.on('error', (err) => console.error('[server] session pool:', err.message));
+  sessionPool.on('error', (err) =>
+    logger.warn({ err: { message: err.message } }, 'session pool lost a connection'),
+  );
   const mailer =
     config.mail.kind === 'smtp'
       ? nodemailer.createTransport({
@@ -51,6 +58,7 @@ export async function initServices(
     em: orm.em,
     sessionPool,
     mailer,
+    logger,
     async close() {
       mailer.close();
       await sessionPool.end();

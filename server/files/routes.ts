@@ -6,6 +6,7 @@ import { ChainSchema } from '../chains/chain.entity';
 import { ConflictError, NotFoundError } from '../common/errors';
 import { access, currentUser, uuidParam, workspaceRole } from '../common/roles';
 import { parseOr422 } from '../common/validate';
+import { lockDataFileForDelete } from './data-file-lock';
 import { DataFileSchema } from './data-file.entity';
 import { dataFileKind, parseDataFile, toDataFileDto, toDataFileSummaryDto } from './data-files';
 
@@ -57,27 +58,28 @@ export function dataFilesRouter(em: EntityManager): Router {
 
   router.delete('/:wid/files/:fileId', workspaceRole(em, 'editor'), async (req, res) => {
     const workspaceId = access(res).workspace.id;
-    const file = await em.findOne(
-      DataFileSchema,
-      { id: uuidParam(req, 'fileId', 'data file'), workspace: workspaceId },
-      { exclude: ['content'] },
-    );
-    if (!file) throw new NotFoundError('no such data file in this workspace');
-    const chains = await em.find(
-      ChainSchema,
-      { workspace: workspaceId },
-      { fields: ['name', 'document'], orderBy: { name: 'asc' } },
-    );
-    const users = chains.filter((c) => refersTo(c.document, file.id));
-    if (users.length > 0) {
-      const names = users.map((c) => `"${c.name}"`).join(', ');
-      throw new ConflictError(
-        'data-file-in-use',
-        `${file.name} is used by the chain ${names}; detach it from the stages there first`,
-        { chains: users.map((c) => ({ id: c.id, name: c.name })) },
+    const fileId = uuidParam(req, 'fileId', 'data file');
+    // The check for chains using the file and the delete are one transaction that holds
+    // the file's row lock, so a chain saved meanwhile is either seen here or refused.
+    await em.transactional(async (tem) => {
+      const file = await lockDataFileForDelete(tem, fileId, workspaceId);
+      if (!file) throw new NotFoundError('no such data file in this workspace');
+      const chains = await tem.find(
+        ChainSchema,
+        { workspace: workspaceId },
+        { fields: ['name', 'document'], orderBy: { name: 'asc' } },
       );
-    }
-    await em.removeAndFlush(file);
+      const users = chains.filter((c) => refersTo(c.document, file.id));
+      if (users.length > 0) {
+        const names = users.map((c) => `"${c.name}"`).join(', ');
+        throw new ConflictError(
+          'data-file-in-use',
+          `${file.name} is used by the chain ${names}; detach it from the stages there first`,
+          { chains: users.map((c) => ({ id: c.id, name: c.name })) },
+        );
+      }
+      await tem.nativeDelete(DataFileSchema, { id: file.id });
+    });
     res.status(204).end();
   });
 

@@ -1,4 +1,4 @@
-/** GET /api/health tells whether the database answers. */
+/** GET /api/health tells whether the database answers, and nothing more to anonymous callers. */
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { initServices } from '../../server/common/services';
@@ -17,16 +17,23 @@ describe('health', () => {
     expect(res.body).toEqual({ status: 'ok', db: 'ok' });
   });
 
-  it('should answer 503 when the database does not', async () => {
+  it('should answer 503 with Retry-After, and keep the driver error in the log', async () => {
+    const logged: string[] = [];
     // Port 9 (discard) on loopback: nothing listens, so every connection is refused.
     const services = await initServices(
-      testConfig('public', { databaseUrl: 'postgresql://postgres:x@127.0.0.1:9/nothing' }),
+      testConfig('public', {
+        databaseUrl: 'postgresql://postgres:x@127.0.0.1:9/nothing',
+        log: { level: 'warn', destination: { write: (line: string) => logged.push(line) } },
+      }),
       { connect: false },
     );
     try {
       const res = await request(createApp(services)).get('/api/health');
       expect(res.status).toBe(503);
+      expect(res.headers['retry-after']).toBe('5');
       expect(res.body).toMatchObject({ status: 'degraded', db: 'unreachable' });
+      expect(JSON.stringify(res.body)).not.toMatch(/ECONNREFUSED|127\.0\.0\.1|:9\b/);
+      expect(logged.join('\n')).toMatch(/ECONNREFUSED|connect/);
     } finally {
       await services.close();
     }

@@ -40,6 +40,8 @@ export function testConfig(schema: string, overrides: Partial<ServerConfig> = {}
     signInLimit: { windowMs: 60_000, limit: 50 },
     mail: { kind: 'json' },
     pruneSessions: false,
+    // Warnings and errors reach the console, where fail-on-console.ts catches them.
+    log: { level: 'warn', destination: { write: (line: string) => console.error(line.trim()) } },
     ...overrides,
   };
 }
