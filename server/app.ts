@@ -70,7 +70,7 @@ export function createApp(services: Services): Express {
 
   app.use('/api/auth', authRouter({ em, passport, csrf, signInLimiter: signInLimiter(services) }));
   app.use('/api/me', meRouter(em));
-  app.use('/api/admin', adminRouter(em));
+  app.use('/api/admin', adminRouter(em, config.dbSchema));
   app.use('/api/workspaces', workspacesRouter(em, services.mailer));
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
   app.use('/api/workspaces', dataFilesRouter(em));

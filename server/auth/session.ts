@@ -7,6 +7,8 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { rateLimit } from 'express-rate-limit';
 import { SESSION_TABLE } from '../mikro-orm.config';
+import { ForbiddenError } from '../common/errors';
+import { PgRateLimitStore } from '../common/pg-rate-limit-store';
 import type { Services } from '../common/services';
 import { UserSchema } from '../users/user.entity';
 import { verifyPassword } from '../users/password';
@@ -56,6 +58,16 @@ export function createPassport(em: EntityManager): InstanceType<typeof Passport>
         em.findOne(UserSchema, { email: email.trim().toLowerCase() })
           .then(async (user) => {
             const ok = user ? await verifyPassword(password, user.passwordHash) : false;
+            // Said only to someone who knows the password, so it reveals no account.
+            if (ok && user!.deactivatedAt) {
+              done(
+                new ForbiddenError(
+                  'this account is deactivated; ask a site admin to reactivate it',
+                  'account-deactivated',
+                ),
+              );
+              return;
+            }
             done(null, ok ? user! : false);
           })
           .catch(done);
@@ -64,8 +76,9 @@ export function createPassport(em: EntityManager): InstanceType<typeof Passport>
   );
   passport.serializeUser((user, done) => done(null, user.id));
   passport.deserializeUser((id: string, done) => {
+    // A deactivated or deleted account's sessions end: it is signed out on its next request.
     em.findOne(UserSchema, { id })
-      .then((user) => done(null, user ?? false))
+      .then((user) => done(null, user && !user.deactivatedAt ? user : false))
       .catch(done);
   });
   return passport;
@@ -87,12 +100,16 @@ export function createCsrf(): CsrfSync {
   });
 }
 
-/** Limits failed sign-in attempts per client address; successful ones do not count. */
+/**
+ * Limits failed sign-in attempts per client address; successful ones do not count. The
+ * counters are in PostgreSQL, so the limit holds across restarts and server processes.
+ */
 export function signInLimiter(services: Services): RequestHandler {
   const { windowMs, limit } = services.config.signInLimit;
   return rateLimit({
     windowMs,
     limit,
+    store: new PgRateLimitStore(services.orm, 'signin', services.config.dbSchema),
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-7',
     legacyHeaders: false,

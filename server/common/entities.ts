@@ -1,6 +1,7 @@
 import { ChainSchema } from '../chains/chain.entity';
 import { ChainRevisionSchema } from '../chains/revision.entity';
 import { DataFileSchema } from '../files/data-file.entity';
+import { RateLimitHitSchema } from './rate-limit-hit.entity';
 import { SiteSettingSchema } from '../users/site-setting.entity';
 import { UserSchema } from '../users/user.entity';
 import { MembershipSchema } from '../workspaces/membership.entity';
@@ -15,4 +16,5 @@ export const ENTITIES = [
   ChainSchema,
   ChainRevisionSchema,
   DataFileSchema,
+  RateLimitHitSchema,
 ];

@@ -14,6 +14,14 @@ export const UserSchema = defineEntity({
     /** `scrypt$N$r$p$salt$key`, see users/password.ts. Never serialised. */
     passwordHash: p.string().length(255).hidden(),
     siteRole: p.enum([...SITE_ROLES]).default('user'),
+    /** Set by an admin: the account cannot sign in and its sessions end. Null when active. */
+    deactivatedAt: p.datetime().nullable(),
+    /**
+     * Set when an admin deleted the account: its personal data (address, name, password)
+     * is erased and it can never sign in again; the row stays so the chains and revisions
+     * it wrote keep an author ("Deleted account").
+     */
+    deletedAt: p.datetime().nullable(),
   },
 });
 export type User = InferEntity<typeof UserSchema>;

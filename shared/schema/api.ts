@@ -36,6 +36,24 @@ export const changePasswordSchema = z.object({
   newPassword: password,
 });
 export const siteSettingsSchema = z.object({ openRegistration: z.boolean() });
+/** PATCH /api/admin/users/:id: deactivate (`active: false`) or reactivate an account. */
+export const adminUserUpdateSchema = z.object({ active: z.boolean() }).strict();
+
+/** A row of the admin's account list. */
+export interface AdminUserDto extends UserDto {
+  createdAt: string;
+  /** False once an admin deactivated (or deleted) the account: it cannot sign in. */
+  active: boolean;
+  /** True once deleted: the address and name are erased, the chains it wrote stay. */
+  deleted: boolean;
+}
+/** DELETE /api/admin/users/:id: what happened to the account's workspaces. */
+export interface AccountDeletedDto {
+  /** Workspaces it was the only member of: deleted with their chains and files. */
+  deletedWorkspaces: { id: string; name: string; chainCount: number }[];
+  /** Workspaces shared with others: it left them; their chains stay, credited to "Deleted account". */
+  leftWorkspaces: { id: string; name: string; chainCount: number }[];
+}
 
 export interface UserDto {
   id: string;

@@ -221,6 +221,19 @@ const ROWS: Row[] = [
     expect: adminOnly(200),
   },
   {
+    name: 'admin deactivate account',
+    method: 'patch',
+    url: (f) => `/api/admin/users/${f.targetUserId}`,
+    body: () => ({ active: false }),
+    expect: adminOnly(200),
+  },
+  {
+    name: 'admin delete account',
+    method: 'delete',
+    url: (f) => `/api/admin/users/${f.targetUserId}`,
+    expect: adminOnly(200),
+  },
+  {
     name: 'change password (wrong current one)',
     method: 'post',
     url: () => '/api/auth/password',
@@ -362,7 +375,8 @@ beforeAll(async () => {
   for (const caller of CALLERS.filter((c) => c !== 'anonymous')) {
     clients[caller] = await signIn(ctx.app, `${caller}@matrix.test`);
   }
-});
+  // Six scrypt hashes and sign-ins: slow on a busy shared machine.
+}, 60_000);
 
 afterAll(() => ctx.close());
 
