@@ -20,6 +20,9 @@ import {
 import { fixtureChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
 
+// Calls sign in (scrypt) and analyse: give them room on a busy shared machine.
+jest.setTimeout(30_000);
+
 let ctx: TestContext;
 let admin: Client;
 let adminUser: User;

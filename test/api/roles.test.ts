@@ -349,6 +349,9 @@ const ROWS: Row[] = [
   },
 ];
 
+// Calls sign in (scrypt) and analyse: give them room on a busy shared machine.
+jest.setTimeout(30_000);
+
 let ctx: TestContext;
 let clients: Record<Caller, Client>;
 let users: Record<Exclude<Caller, 'anonymous'>, User>;
