@@ -5,7 +5,7 @@
 import type { AnalysisResult, StageDefinition } from './types';
 import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
 import { raiseFlags } from './core/flags';
-import { runNodeAnalysis } from './core/nodes';
+import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
 import { analyzeResonators } from './core/resonators';
 import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivity';
@@ -34,8 +34,9 @@ export function analyzeBuilt(
   options: { sweep?: boolean; plan?: boolean | 'full' } = {},
 ): AnalysisResult {
   const f0Hz = built.settings.f0Hz;
-  const f0Na = runNodeAnalysis(built, [f0Hz]);
-  const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+  const grid = frequencyGrid(built.settings.sweep);
+  const f0Na = runNodeAnalysis(built, [f0Hz], sharedWorkspace('f0', built, 1));
+  const sweepNa = runNodeAnalysis(built, grid, sharedWorkspace('sweep', built, grid.length));
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
   const findings = analyzeResonators(built);

@@ -62,10 +62,50 @@ export type ParamValues = Record<string, number | string | boolean>;
 
 export type Caution = 'high-voltage' | 'transmit' | 'rf-exposure';
 
-/** Writes one complex value (re, im) into out[o], out[o+1]. */
-export type ComplexFn = (f: number, out: Float64Array, o: number) => void;
+/**
+ * A complex value of frequency: `fn(f, out, o)` writes (re, im) into out[o], out[o+1].
+ * It may also carry its block form and, when it is a sum of lossy parts, the parts as data
+ * (`core/parts.ts`); the node analysis then evaluates it without a call per point.
+ */
+export interface ComplexFn {
+  (f: number, out: Float64Array, o: number): void;
+  /**
+   * Block form: the values at f[fo … fo+n−1], point k's (re, im) at out[oo + stride·k] and
+   * the slot after. Must equal the point form and allocate nothing.
+   */
+  fill?: (
+    f: Float64Array,
+    fo: number,
+    n: number,
+    out: Float64Array,
+    oo: number,
+    stride: number,
+  ) => void;
+  /** The lossy parts this value sums (see `core/parts.ts`). */
+  parts?: Float64Array;
+}
+
+/** A real value of frequency (a source's EMF), optionally with its block form. */
+export interface RealFn {
+  (f: number): number;
+  /** Block form: the values at f[fo … fo+n−1] into out[oo … oo+n−1]; allocates nothing. */
+  fill?: (f: Float64Array, fo: number, n: number, out: Float64Array, oo: number) => void;
+}
+
 /** Writes one ABCD matrix (8 slots) into out[o..o+7]. */
 export type AbcdFn = (f: number, out: Float64Array, o: number) => void;
+
+/**
+ * Block form of a section's ABCD: the matrices at f[fo … fo+n−1], point k's 8 slots at
+ * out[oo + 8·k]. Must equal the point form `abcd` and allocate nothing.
+ */
+export type AbcdFill = (
+  f: Float64Array,
+  fo: number,
+  n: number,
+  out: Float64Array,
+  oo: number,
+) => void;
 
 /**
  * One elementary two-port inside a stage. A stage is a list of sections; the nodes
@@ -74,6 +114,11 @@ export type AbcdFn = (f: number, out: Float64Array, o: number) => void;
  */
 export interface Section {
   abcd: AbcdFn;
+  /**
+   * Optional block form. Without it the node analysis calls `abcd` once per point, which
+   * costs a call and a boxed frequency each time; the common section factories give one.
+   */
+  fill?: AbcdFill;
   /** Unilateral (y12 = 0): the backward pass restarts at its input. */
   unilateral?: boolean;
   /** Frequency at the section's output for frequency f at its input (mixers). */
@@ -162,7 +207,7 @@ export interface StageModelCommon {
 /** A built source: an open-circuit EMF behind an impedance. */
 export interface SourceModel extends StageModelCommon {
   /** Open-circuit EMF (PEAK volts) at frequency f. */
-  emf: (f: number) => number;
+  emf: RealFn;
   /** Source impedance. */
   impedance: ComplexFn;
 }

@@ -7,6 +7,7 @@
 import { chainSettingsSchema, type ChainSettings } from '../../schema/chain';
 import { ChainValidationError, StageParameterError, type ChainIssue } from '../errors';
 import type {
+  AbcdFill,
   LoadModel,
   MeasuredNetwork,
   ParamSpec,
@@ -18,6 +19,7 @@ import type {
   TwoPortModel,
 } from '../types';
 import { formatQuantity } from './format';
+import { pointwiseFill } from './nodes';
 
 /** One stage of the chain after validation and building; `M` is its role's model. */
 export interface BuiltStage<M extends StageModel = StageModel> {
@@ -42,8 +44,11 @@ export interface BuiltChain {
   load: BuiltStage<LoadModel>;
   /** The stages between source and load, in order (two-port k spans user nodes k → k+1). */
   twoPorts: BuiltStage<TwoPortModel>[];
-  /** All sections of all two-ports, in order. Flat node j is the input of section j. */
-  sections: Section[];
+  /**
+   * All sections of all two-ports, in order. Flat node j is the input of section j. Each
+   * has its block form (`fill`): its own, or its point form called once per point.
+   */
+  sections: FilledSection[];
   /** For each section, the index in `twoPorts` of the stage that owns it. */
   sectionStage: Int32Array;
   /** For each user-level node (0 … twoPorts.length), its flat node. */
@@ -51,6 +56,9 @@ export interface BuiltChain {
   /** The design frequency at each flat node (translated after a mixer), Hz. */
   f0AtFlatNode: Float64Array;
 }
+
+/** A section whose block form is always there. */
+export type FilledSection = Section & { fill: AbcdFill };
 
 /** The loose shape accepted from callers (a parsed ChainDocument or one before defaults). */
 export interface ChainLike {
@@ -325,7 +333,11 @@ export function buildChain(
   // Roles were checked above (first a source, last a load, two-ports between) and each
   // model against its role, so these narrowings hold.
   const twoPorts = built.slice(1, -1).filter(isTwoPort);
-  const sections = twoPorts.flatMap((s) => s.model.sections);
+  const sections = twoPorts.flatMap((s) =>
+    s.model.sections.map((sec): FilledSection =>
+      sec.fill ? (sec as FilledSection) : { ...sec, fill: pointwiseFill(sec) },
+    ),
+  );
   const sectionStage = new Int32Array(sections.length);
   const userNodeFlat = new Int32Array(twoPorts.length + 1);
   twoPorts.forEach((s, k) => {

@@ -13,16 +13,27 @@
  * input whatever lies beyond it, and the forward pass 1/y22 at its output: the restart falls
  * out of the matrices. Each section is evaluated at the frequency at its input; `translate`
  * gives the frequency at its output (mixers).
+ *
+ * The points are taken in blocks of {@link BLOCK}: each section's matrices for a block are
+ * written by its block form (`Section.fill`, one monomorphic loop, nothing boxed) into a
+ * small scratch that stays in cache while the backward and forward passes read it. Memory
+ * therefore grows with nodes × points for the results only, not with sections × points for
+ * the matrices. With a reused workspace a run allocates nothing.
  */
+import type { AbcdFill, ComplexFn, RealFn } from '../types';
 import type { BuiltChain } from './build';
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.
 const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
+const { max } = Math;
 
 /** Lowest frequency a section is evaluated at after a mixer, Hz. */
-const MIN_NODE_HZ = 1e-3;
+export const MIN_NODE_HZ = 1e-3;
+
+/** Points per block: the sections' matrices for one block fit in the processor's cache. */
+export const BLOCK = 256;
 
 /** Results of a node analysis. Arrays are `nodes × points`, index `node·points + i`. */
 export interface NodeAnalysis {
@@ -44,14 +55,17 @@ export interface NodeAnalysis {
   vIm: Float64Array;
   /** Source EMF (PEAK volts) at each input frequency. */
   emf: Float64Array;
-  /** The ABCD of every section at every point, 8 slots each, at offset 8·(section·points + i). */
-  abcd: Float64Array;
+  /** Scratch of the run: every section's ABCD for one block of points (8 slots each). */
+  blockAbcd: Float64Array;
+  /** Scratch of the run: one block of complex values (re, im interleaved). */
+  blockPair: Float64Array;
 }
 
 /** Allocates a workspace for `points` frequencies; pass it back to reuse the arrays. */
 export function createNodeAnalysis(built: BuiltChain, points: number): NodeAnalysis {
   const nodes = built.sections.length + 1;
   const size = nodes * points;
+  const block = Math.min(points, BLOCK);
   return {
     points,
     nodes,
@@ -64,14 +78,69 @@ export function createNodeAnalysis(built: BuiltChain, points: number): NodeAnaly
     vRe: new Float64Array(size),
     vIm: new Float64Array(size),
     emf: new Float64Array(points),
-    abcd: new Float64Array(8 * built.sections.length * points),
+    blockAbcd: new Float64Array(8 * built.sections.length * block),
+    blockPair: new Float64Array(2 * block),
   };
+}
+
+/** Largest workspace (in doubles) kept between analyses; bigger ones go to the collector. */
+const KEEP_DOUBLES = 1 << 22;
+const kept = new Map<string, NodeAnalysis>();
+
+/**
+ * A workspace for one use (`key`, e.g. "sweep") inside an analysis: the one the previous
+ * analysis used for that key when its shape fits, so repeated analyses neither allocate nor
+ * zero-fill their arrays. What it holds is valid until the next call with the same key.
+ * Workspaces above 32 MiB are not kept (a one-off long sweep should not pin its memory).
+ */
+export function sharedWorkspace(key: string, built: BuiltChain, points: number): NodeAnalysis {
+  const ws = kept.get(key);
+  if (ws && fitsWorkspace(ws, built, points)) return ws;
+  const fresh = createNodeAnalysis(built, points);
+  if ((built.sections.length + 1) * points * 7 <= KEEP_DOUBLES) kept.set(key, fresh);
+  else kept.delete(key);
+  return fresh;
+}
+
+/** Whether `ws` is a workspace of the right shape for `built` over `points` frequencies. */
+export function fitsWorkspace(ws: NodeAnalysis, built: BuiltChain, points: number): boolean {
+  return (
+    ws.points === points &&
+    ws.nodes === built.sections.length + 1 &&
+    ws.blockAbcd.length === 8 * built.sections.length * Math.min(points, BLOCK)
+  );
+}
+
+/** A section's block form when it has none: its point form once per point. */
+export function pointwiseFill(section: {
+  abcd: (f: number, out: Float64Array, o: number) => void;
+}): AbcdFill {
+  const abcd = section.abcd;
+  return (f, fo, n, out, oo) => {
+    for (let k = 0; k < n; k++) abcd(f[fo + k], out, oo + 8 * k);
+  };
+}
+
+/** One-port values at f[fo … fo+n−1] into `pair` (re, im interleaved from 0). */
+function fillComplex(
+  fn: ComplexFn,
+  f: Float64Array,
+  fo: number,
+  n: number,
+  pair: Float64Array,
+): void {
+  if (fn.fill) fn.fill(f, fo, n, pair, 0, 2);
+  else for (let k = 0; k < n; k++) fn(f[fo + k], pair, 2 * k);
+}
+
+function fillReal(fn: RealFn, f: Float64Array, fo: number, n: number, out: Float64Array): void {
+  if (fn.fill) fn.fill(f, fo, n, out, fo);
+  else for (let k = 0; k < n; k++) out[fo + k] = fn(f[fo + k]);
 }
 
 /**
  * Runs the node analysis at every frequency of `freqs` (Hz at the chain's input).
- * Loops run section by section over all points so memory is read in order.
- * @param ws a workspace from {@link createNodeAnalysis} with the same point count to reuse
+ * @param ws a workspace from {@link createNodeAnalysis} to reuse (used when its shape fits)
  */
 export function runNodeAnalysis(
   built: BuiltChain,
@@ -79,148 +148,210 @@ export function runNodeAnalysis(
   ws?: NodeAnalysis,
 ): NodeAnalysis {
   const P = freqs.length;
+  const na = ws && fitsWorkspace(ws, built, P) ? ws : createNodeAnalysis(built, P);
+  const f = na.freqs;
+  for (let i = 0; i < P; i++) f[i] = freqs[i];
+  for (let i0 = 0; i0 < P; i0 += BLOCK) runBlock(built, na, i0, Math.min(BLOCK, P - i0));
+  return na;
+}
+
+/** The node analysis of points i0 … i0+n−1 (n ≤ BLOCK). */
+function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): void {
+  const P = na.points;
   const N = built.sections.length;
-  const na = ws && ws.points === P && ws.nodes === N + 1 ? ws : createNodeAnalysis(built, P);
-  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm, vRe, vIm, emf, abcd: m } = na;
+  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm, vRe, vIm, emf, blockAbcd: m, blockPair: t } = na;
   const sections = built.sections;
-  const t = new Float64Array(2);
+  const B = m.length / (8 * N || 1);
 
   // Frequencies at every node and every section's ABCD at the frequency at its input.
-  for (let i = 0; i < P; i++) {
-    na.freqs[i] = freqs[i];
-    fNode[i] = freqs[i];
-  }
+  for (let k = 0; k < n; k++) fNode[i0 + k] = na.freqs[i0 + k];
   for (let j = 0; j < N; j++) {
     const s = sections[j];
+    const at = j * P + i0;
+    s.fill(fNode, at, n, m, 8 * j * B);
     const tr = s.translate;
-    const base = j * P;
-    for (let i = 0; i < P; i++) {
-      const fj = fNode[base + i];
-      s.abcd(fj, m, 8 * (base + i));
-      // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
-      // open circuit and its matrix infinite; evaluate such a point at 1 mHz instead.
-      fNode[base + P + i] = tr ? Math.max(tr(fj), MIN_NODE_HZ) : fj;
-    }
+    // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
+    // open circuit and its matrix infinite; evaluate such a point at 1 mHz instead.
+    if (tr) for (let k = 0; k < n; k++) fNode[at + P + k] = max(tr(fNode[at + k]), MIN_NODE_HZ);
+    else fNode.copyWithin(at + P, at, at + n);
   }
 
   // Backward pass, load → source.
-  const zl = built.load.model.impedance;
-  for (let i = 0; i < P; i++) {
-    zl(fNode[N * P + i], t, 0);
-    zinRe[N * P + i] = t[0];
-    zinIm[N * P + i] = t[1];
+  fillComplex(built.load.model.impedance, fNode, N * P + i0, n, t);
+  for (let k = 0; k < n; k++) {
+    zinRe[N * P + i0 + k] = t[2 * k];
+    zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
   for (let j = N - 1; j >= 0; j--) {
-    const out = j * P;
-    for (let i = 0; i < P; i++) {
-      const o = 8 * (out + i);
-      const zr = zinRe[out + P + i];
-      const zi = zinIm[out + P + i];
-      let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-      if (finite(zr) && finite(zi)) {
-        nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-        ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-        dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-        di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-      } else {
-        nr = m[o];
-        ni = m[o + 1];
-        dr = m[o + 4];
-        di = m[o + 5];
-      }
-      const d2 = dr * dr + di * di;
-      if (d2 === 0) {
-        zinRe[out + i] = OPEN;
-        zinIm[out + i] = 0;
-      } else {
-        const inv = 1 / d2; // one division, two products
-        zinRe[out + i] = (nr * dr + ni * di) * inv;
-        zinIm[out + i] = (ni * dr - nr * di) * inv;
-      }
-    }
+    const out = j * P + i0;
+    const mj = 8 * j * B;
+    for (let k = 0; k < n; k++) backStep(m, mj + 8 * k, zinRe, zinIm, out + P + k, out + k);
   }
 
   // Forward pass, source → load, and the voltage at the source terminal.
-  const zs = built.source.model.impedance;
-  const es = built.source.model.emf;
-  for (let i = 0; i < P; i++) {
-    zs(freqs[i], t, 0);
-    const sr = t[0];
-    const si = t[1];
-    zsrcRe[i] = sr;
-    zsrcIm[i] = si;
-    const e = es(freqs[i]);
-    emf[i] = e;
-    const z0r = zinRe[i];
-    const z0i = zinIm[i];
-    if (!finite(z0r) || !finite(z0i)) {
-      vRe[i] = e;
-      vIm[i] = 0;
-    } else if (!finite(sr) || !finite(si)) {
-      vRe[i] = 0;
-      vIm[i] = 0;
-    } else {
-      // V0 = e·Zin/(Zs + Zin)
-      const dr = sr + z0r;
-      const di = si + z0i;
-      const d2 = dr * dr + di * di;
-      vRe[i] = (e * (z0r * dr + z0i * di)) / d2;
-      vIm[i] = (e * (z0i * dr - z0r * di)) / d2;
-    }
+  const source = built.source.model;
+  fillReal(source.emf, na.freqs, i0, n, emf);
+  fillComplex(source.impedance, na.freqs, i0, n, t);
+  for (let k = 0; k < n; k++) {
+    zsrcRe[i0 + k] = t[2 * k];
+    zsrcIm[i0 + k] = t[2 * k + 1];
+    sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, i0 + k, i0 + k);
   }
   for (let j = 0; j < N; j++) {
-    const at = j * P;
-    for (let i = 0; i < P; i++) {
-      const o = 8 * (at + i);
-      const sr = zsrcRe[at + i];
-      const si = zsrcIm[at + i];
-      let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-      if (finite(sr) && finite(si)) {
-        nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
-        ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
-        dr = m[o + 4] * sr - m[o + 5] * si + m[o];
-        di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
-      } else {
-        nr = m[o + 6];
-        ni = m[o + 7];
-        dr = m[o + 4];
-        di = m[o + 5];
-      }
-      const d2 = dr * dr + di * di;
-      const k = at + P + i;
-      if (d2 === 0) {
-        zsrcRe[k] = OPEN;
-        zsrcIm[k] = 0;
-      } else {
-        const inv = 1 / d2;
-        zsrcRe[k] = (nr * dr + ni * di) * inv;
-        zsrcIm[k] = (ni * dr - nr * di) * inv;
-      }
-
-      // V[j+1] = V[j]/(A + B·Y) with Y = 1/Zin[j+1] (0 when open, a short gives 0 V)
-      const ar = zinRe[k];
-      const ai = zinIm[k];
-      const vr = vRe[at + i];
-      const vi = vIm[at + i];
-      let er = m[o];
-      let ei = m[o + 1];
-      if (finite(ar) && finite(ai)) {
-        const a2 = ar * ar + ai * ai;
-        if (a2 === 0 || (vr === 0 && vi === 0)) {
-          vRe[k] = 0;
-          vIm[k] = 0;
-          continue;
-        }
-        const ia = 1 / a2;
-        const yr = ar * ia;
-        const yi = -ai * ia;
-        er += m[o + 2] * yr - m[o + 3] * yi;
-        ei += m[o + 2] * yi + m[o + 3] * yr;
-      }
-      const ie = 1 / (er * er + ei * ei);
-      vRe[k] = (vr * er + vi * ei) * ie;
-      vIm[k] = (vi * er - vr * ei) * ie;
+    const at = j * P + i0;
+    const mj = 8 * j * B;
+    for (let k = 0; k < n; k++) {
+      const o = mj + 8 * k;
+      forwardStep(m, o, zsrcRe, zsrcIm, at + k, at + P + k);
+      voltageStep(m, o, zinRe, zinIm, vRe, vIm, at + k, at + P + k);
     }
   }
-  return na;
+}
+
+/**
+ * The voltage at the source terminal (index `to`) from the EMF (`emf[e]`) and the source
+ * impedance and Zin at node 0 (index `to`): V0 = e·Zin/(Zs + Zin); an open node gives e,
+ * an open source 0 V.
+ */
+export function sourceStep(
+  emf: Float64Array,
+  zsRe: Float64Array,
+  zsIm: Float64Array,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  e: number,
+  to: number,
+): void {
+  const em = emf[e];
+  const sr = zsRe[to];
+  const si = zsIm[to];
+  const z0r = zinRe[to];
+  const z0i = zinIm[to];
+  if (!finite(z0r) || !finite(z0i)) {
+    vRe[to] = em;
+    vIm[to] = 0;
+  } else if (!finite(sr) || !finite(si)) {
+    vRe[to] = 0;
+    vIm[to] = 0;
+  } else {
+    const dr = sr + z0r;
+    const di = si + z0i;
+    const d2 = dr * dr + di * di;
+    vRe[to] = (em * (z0r * dr + z0i * di)) / d2;
+    vIm[to] = (em * (z0i * dr - z0r * di)) / d2;
+  }
+}
+
+// The three steps across one section (ABCD at m[o … o+7]), shared with the single-point
+// probes. Arguments are arrays and indices only, so calling them boxes nothing.
+
+/**
+ * Zin at the section's input (index `to`) from Zin at its output (`from`):
+ * (A·Z + B)/(C·Z + D); an open output (non-finite Z) gives A/C, a zero denominator an open.
+ */
+export function backStep(
+  m: Float64Array,
+  o: number,
+  re: Float64Array,
+  im: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const zr = re[from];
+  const zi = im[from];
+  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+  if (finite(zr) && finite(zi)) {
+    nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
+    ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
+    dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
+    di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
+  } else {
+    nr = m[o];
+    ni = m[o + 1];
+    dr = m[o + 4];
+    di = m[o + 5];
+  }
+  const d2 = dr * dr + di * di;
+  if (d2 === 0) {
+    re[to] = OPEN;
+    im[to] = 0;
+  } else {
+    const inv = 1 / d2; // one division, two products
+    re[to] = (nr * dr + ni * di) * inv;
+    im[to] = (ni * dr - nr * di) * inv;
+  }
+}
+
+/** Zsrc at the section's output (`to`) from Zsrc at its input (`from`): (D·Z + B)/(C·Z + A). */
+export function forwardStep(
+  m: Float64Array,
+  o: number,
+  re: Float64Array,
+  im: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const sr = re[from];
+  const si = im[from];
+  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+  if (finite(sr) && finite(si)) {
+    nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
+    ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
+    dr = m[o + 4] * sr - m[o + 5] * si + m[o];
+    di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
+  } else {
+    nr = m[o + 6];
+    ni = m[o + 7];
+    dr = m[o + 4];
+    di = m[o + 5];
+  }
+  const d2 = dr * dr + di * di;
+  if (d2 === 0) {
+    re[to] = OPEN;
+    im[to] = 0;
+  } else {
+    const inv = 1 / d2;
+    re[to] = (nr * dr + ni * di) * inv;
+    im[to] = (ni * dr - nr * di) * inv;
+  }
+}
+
+/**
+ * V at the section's output (`to`) from V at its input (`from`): V/(A + B·Y) with
+ * Y = 1/Zin(out) (0 when open; a shorted output or a dead input gives 0 V).
+ */
+export function voltageStep(
+  m: Float64Array,
+  o: number,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const ar = zinRe[to];
+  const ai = zinIm[to];
+  const vr = vRe[from];
+  const vi = vIm[from];
+  let er = m[o];
+  let ei = m[o + 1];
+  if (finite(ar) && finite(ai)) {
+    const a2 = ar * ar + ai * ai;
+    if (a2 === 0 || (vr === 0 && vi === 0)) {
+      vRe[to] = 0;
+      vIm[to] = 0;
+      return;
+    }
+    const ia = 1 / a2;
+    const yr = ar * ia;
+    const yi = -ai * ia;
+    er += m[o + 2] * yr - m[o + 3] * yi;
+    ei += m[o + 2] * yi + m[o + 3] * yr;
+  }
+  const ie = 1 / (er * er + ei * ei);
+  vRe[to] = (vr * er + vi * ei) * ie;
+  vIm[to] = (vi * er - vr * ei) * ie;
 }

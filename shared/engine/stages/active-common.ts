@@ -9,7 +9,8 @@
  * Rout ∥ Rout: G = gm²·Rin·Rout/4, so gm = 2·√(G/(Rin·Rout)).
  */
 import type { Section } from '../types';
-import { omega, unilateralAbcd } from './primitives';
+import { sectionFromFill } from './common';
+import { fillUnilateral } from './primitives';
 
 export interface UnilateralPorts {
   rin: number;
@@ -35,14 +36,8 @@ export function unilateralSection(
   translate?: (f: number) => number,
 ): Section {
   const { rin, cin, rout, cout, gm } = ports;
-  return {
-    unilateral: true,
-    translate,
-    abcd(f, out, o) {
-      const w = omega(f);
-      // The output admittance belongs to the output frequency: a mixer's port 2 runs at the IF.
-      const wOut = translate ? omega(translate(f)) : w;
-      unilateralAbcd(1 / rin, w * cin, 1 / rout, wOut * cout, -gm, 0, out, o);
-    },
-  };
+  return sectionFromFill(
+    (f, fo, n, out, oo) => fillUnilateral(rin, cin, rout, cout, gm, translate, f, fo, n, out, oo),
+    { unilateral: true, translate },
+  );
 }

@@ -3,15 +3,28 @@
  * section factories over impedance functions, and the SPICE line writer.
  */
 import { StageParameterError } from '../errors';
-import type { BuildContext, ComplexFn, ParamSpec, ParamValues, Section } from '../types';
 import {
-  capacitorY,
-  capacitorZ,
-  inductorY,
-  inductorZ,
-  seriesImpedanceAbcd,
-  shuntAdmittanceAbcd,
-} from './primitives';
+  invertParts,
+  part,
+  PART_C_Y,
+  PART_C_Z,
+  PART_CONST,
+  PART_L_Y,
+  PART_L_Z,
+  partsFn,
+  sumParts,
+  type Parts,
+} from '../core/parts';
+import type {
+  AbcdFill,
+  BuildContext,
+  ComplexFn,
+  ParamSpec,
+  ParamValues,
+  RealFn,
+  Section,
+} from '../types';
+import { seriesImpedanceAbcd, shuntAdmittanceAbcd } from './primitives';
 
 /** Reads values of one stage, falling back to the spec's default for a missing key. */
 export interface ParamReader {
@@ -46,30 +59,84 @@ export function designFrequency(own: number, ctx: BuildContext): number {
   return own > 0 ? own : ctx.f0Hz;
 }
 
-/** A section that is one series impedance. */
+/** A section that is one series impedance: [[1, Z], [0, 1]]. */
 export function seriesSection(z: ComplexFn): Section {
   const s = new Float64Array(2);
+  const zFill = z.fill;
   return {
     abcd(f, out, o) {
       z(f, s, 0);
       seriesImpedanceAbcd(s[0], s[1], out, o);
     },
+    ...(zFill
+      ? {
+          fill(f, fo, n, out, oo) {
+            zFill(f, fo, n, out, oo + 2, 8);
+            for (let k = 0, o = oo; k < n; k++, o += 8) {
+              out[o] = 1;
+              out[o + 1] = 0;
+              out[o + 4] = 0;
+              out[o + 5] = 0;
+              out[o + 6] = 1;
+              out[o + 7] = 0;
+            }
+          },
+        }
+      : {}),
   };
 }
 
-/** A section that is one shunt admittance. */
+/** A section that is one shunt admittance: [[1, 0], [Y, 1]]. */
 export function shuntSection(y: ComplexFn): Section {
   const s = new Float64Array(2);
+  const yFill = y.fill;
   return {
     abcd(f, out, o) {
       y(f, s, 0);
       shuntAdmittanceAbcd(s[0], s[1], out, o);
+    },
+    ...(yFill
+      ? {
+          fill(f, fo, n, out, oo) {
+            yFill(f, fo, n, out, oo + 4, 8);
+            for (let k = 0, o = oo; k < n; k++, o += 8) {
+              out[o] = 1;
+              out[o + 1] = 0;
+              out[o + 2] = 0;
+              out[o + 3] = 0;
+              out[o + 6] = 1;
+              out[o + 7] = 0;
+            }
+          },
+        }
+      : {}),
+  };
+}
+
+/**
+ * A section from its block form alone: the point form evaluates a block of one, so the
+ * two cannot disagree.
+ */
+export function sectionFromFill(
+  fill: AbcdFill,
+  extras: Omit<Section, 'abcd' | 'fill'> = {},
+): Section {
+  const fs = new Float64Array(1);
+  return {
+    ...extras,
+    fill,
+    abcd(f, out, o) {
+      fs[0] = f;
+      fill(fs, 0, 1, out, o);
     },
   };
 }
 
 /** Sum of complex functions (series impedances, or parallel admittances). */
 export function sumOf(...fns: ComplexFn[]): ComplexFn {
+  const lists = fns.map((fn) => fn.parts);
+  const parts = lists.every((p) => p !== undefined) ? sumParts(lists as Parts[]) : null;
+  if (parts) return partsFn(parts);
   const s = new Float64Array(2);
   return (f, out, o) => {
     let re = 0;
@@ -86,6 +153,7 @@ export function sumOf(...fns: ComplexFn[]): ComplexFn {
 
 /** 1/fn: impedance ↔ admittance. */
 export function reciprocalOf(fn: ComplexFn): ComplexFn {
+  if (fn.parts) return partsFn(invertParts(fn.parts));
   return (f, out, o) => {
     fn(f, out, o);
     const d = out[o] * out[o] + out[o + 1] * out[o + 1];
@@ -96,30 +164,34 @@ export function reciprocalOf(fn: ComplexFn): ComplexFn {
 
 /** Impedance of a lossy inductor (constant Q, or a fixed ESR when esr ≥ 0). */
 export function inductorZFn(l: number, q: number, esr = -1): ComplexFn {
-  return (f, out, o) => inductorZ(f, l, q, out, o, esr);
+  return partsFn(part(PART_L_Z, l, q, esr));
 }
 
 /** Admittance of a lossy inductor. */
 export function inductorYFn(l: number, q: number, esr = -1): ComplexFn {
-  return (f, out, o) => inductorY(f, l, q, out, o, esr);
+  return partsFn(part(PART_L_Y, l, q, esr));
 }
 
 /** Admittance of a lossy capacitor (constant Q). */
 export function capacitorYFn(c: number, q: number): ComplexFn {
-  return (f, out, o) => capacitorY(f, c, q, out, o);
+  return partsFn(part(PART_C_Y, c, q));
 }
 
 /** Impedance of a lossy capacitor (constant Q). */
 export function capacitorZFn(c: number, q: number): ComplexFn {
-  return (f, out, o) => capacitorZ(f, c, q, out, o);
+  return partsFn(part(PART_C_Z, c, q));
 }
 
 /** A constant complex value. */
 export function constantFn(re: number, im = 0): ComplexFn {
-  return (_f, out, o) => {
-    out[o] = re;
-    out[o + 1] = im;
-  };
+  return partsFn(part(PART_CONST, re, im));
+}
+
+/** A frequency-independent real value (a source's EMF) with its block form. */
+export function constantReal(v: number): RealFn {
+  const fn: RealFn = () => v;
+  fn.fill = (_f, _fo, n, out, oo) => out.fill(v, oo, oo + n);
+  return fn;
 }
 
 // ---------------------------------------------------------------- parameter specs

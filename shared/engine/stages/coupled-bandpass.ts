@@ -15,8 +15,9 @@ import {
   shuntSection,
   SpiceWriter,
   sumOf,
+  sectionFromFill,
 } from './common';
-import { coupledInductorsAbcd, omega } from './primitives';
+import { fillCoupledInductors } from './primitives';
 
 const PARAMS = [
   enumParam('coupling', 'Coupling', [
@@ -102,12 +103,9 @@ export const COUPLED_BANDPASS: StageDefinition = {
       };
     }
     const k = p.num('k');
-    const coils: Section = {
-      abcd(f, out, o) {
-        const r = (omega(f) * l) / ql;
-        coupledInductorsAbcd(f, l, l, k, r, r, out, o);
-      },
-    };
+    const coils: Section = sectionFromFill((f, fo, n, out, oo) =>
+      fillCoupledInductors(l, l, k, ql, ql, f, fo, n, out, oo),
+    );
     const cap = capacitorYFn(c, qc);
     return {
       sections: [shuntSection(cap), coils, shuntSection(cap)],

@@ -10,12 +10,13 @@ import {
   numParam,
   qParam,
   readParams,
+  sectionFromFill,
   seriesSection,
   shuntSection,
   SpiceWriter,
   spiceNum,
 } from './common';
-import { coupledInductorsAbcd, idealTransformerAbcd, omega, zParamsToAbcd } from './primitives';
+import { fillCoupledInductors, idealTransformerAbcd, omega, zParamsToAbcd } from './primitives';
 
 const TRANSFORMER_PARAMS = [
   numParam('n', 'Turns ratio (primary : secondary)', 'ratio', 2, {
@@ -88,12 +89,9 @@ export const COUPLED_COILS: StageDefinition = {
     const [l1, l2, k, q1, q2] = ['l1', 'l2', 'k', 'q1', 'q2'].map((key) => p.num(key));
     return {
       sections: [
-        {
-          abcd(f, out, o) {
-            const w = omega(f);
-            coupledInductorsAbcd(f, l1, l2, k, (w * l1) / q1, (w * l2) / q2, out, o);
-          },
-        },
+        sectionFromFill((f, fo, n, out, oo) =>
+          fillCoupledInductors(l1, l2, k, q1, q2, f, fo, n, out, oo),
+        ),
       ],
       noise: { kind: 'passive' },
       spice(inNode, outNode, prefix) {

@@ -203,6 +203,80 @@ export function unilateralAbcd(
 }
 
 /**
+ * Block form of {@link unilateralAbcd} for an amplifier of transconductance gm (y21 = −gm),
+ * y11 = 1/rin + jω·cin at the input frequency and y22 = 1/rout + jω'·cout at the output
+ * frequency ω' (`translate`, for mixers): points f[fo … fo+n−1] into out[oo + 8·k]. The
+ * arithmetic is written out here (the same divisions as the point form) so the loop calls
+ * nothing that boxes a number.
+ */
+export function fillUnilateral(
+  rin: number,
+  cin: number,
+  rout: number,
+  cout: number,
+  gm: number,
+  translate: ((f: number) => number) | undefined,
+  f: Float64Array,
+  fo: number,
+  n: number,
+  out: Float64Array,
+  oo: number,
+): void {
+  const g11 = 1 / rin;
+  const g22 = 1 / rout;
+  const y21r = -gm;
+  for (let k = 0; k < n; k++) {
+    const fk = f[fo + k];
+    const w = TWO_PI * fk;
+    const wOut = translate ? TWO_PI * translate(fk) : w;
+    const b11 = w * cin;
+    const b22 = wOut * cout;
+    const pr = g11 * g22 - b11 * b22;
+    const pi = g11 * b22 + b11 * g22;
+    const o = oo + 8 * k;
+    cdiv(-g22, -b22, y21r, 0, out, o);
+    cdiv(-1, 0, y21r, 0, out, o + 2);
+    cdiv(-pr, -pi, y21r, 0, out, o + 4);
+    cdiv(-g11, -b11, y21r, 0, out, o + 6);
+  }
+}
+
+/**
+ * Block form of {@link coupledInductorsAbcd} with constant-Q windings (r = ωL/Q): points
+ * f[fo … fo+n−1] into out[oo + 8·k], the arithmetic of {@link zParamsToAbcd} written out.
+ */
+export function fillCoupledInductors(
+  l1: number,
+  l2: number,
+  k: number,
+  q1: number,
+  q2: number,
+  f: Float64Array,
+  fo: number,
+  n: number,
+  out: Float64Array,
+  oo: number,
+): void {
+  const m = k * Math.sqrt(l1 * l2);
+  for (let i = 0; i < n; i++) {
+    const w = TWO_PI * f[fo + i];
+    const x1 = w * l1;
+    const x2 = w * l2;
+    const r1 = x1 / q1;
+    const r2 = x2 / q2;
+    const xm = w * m;
+    // z11 = r1 + jx1, z22 = r2 + jx2, z12 = z21 = jxm
+    const detR = r1 * r2 - x1 * x2 - (0 * 0 - xm * xm);
+    const detI = r1 * x2 + x1 * r2 - (0 * xm + xm * 0);
+    const o = oo + 8 * i;
+    cdiv(r1, x1, 0, xm, out, o);
+    cdiv(detR, detI, 0, xm, out, o + 2);
+    cinv(0, xm, out, o + 4);
+    cdiv(r2, x2, 0, xm, out, o + 6);
+  }
+}
+
+/**
  * Uniform line with real characteristic impedance z0 and propagation γl = αl + jβl
  * (nepers, radians): [[cosh γl, Z0·sinh γl], [sinh γl / Z0, cosh γl]].
  */
@@ -244,25 +318,4 @@ export function matchedThroughAbcd(
   const dr = (ir - tr) / 2;
   const di = (ii - ti) / 2;
   setAbcd(out, o, sr, si, z0 * dr, z0 * di, dr / z0, di / z0, sr, si);
-}
-
-/** out = a·b for ABCD matrices (a first, nearer port 1). `out` may alias neither input. */
-export function multiplyAbcd(
-  a: Float64Array,
-  ao: number,
-  b: Float64Array,
-  bo: number,
-  out: Float64Array,
-  o: number,
-): void {
-  for (let row = 0; row < 2; row++) {
-    for (let col = 0; col < 2; col++) {
-      const x = ao + row * 4; // a[row][0] at x, a[row][1] at x + 2
-      const y = bo + col * 2; // b[0][col] at y, b[1][col] at y + 4
-      const re = a[x] * b[y] - a[x + 1] * b[y + 1] + a[x + 2] * b[y + 4] - a[x + 3] * b[y + 5];
-      const im = a[x] * b[y + 1] + a[x + 1] * b[y] + a[x + 2] * b[y + 5] + a[x + 3] * b[y + 4];
-      out[o + row * 4 + col * 2] = re;
-      out[o + row * 4 + col * 2 + 1] = im;
-    }
-  }
 }
