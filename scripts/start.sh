@@ -18,10 +18,12 @@ ensure_node_modules
 ensure_postgres_binaries
 pg_up pg "$PG_CLUSTER_PORT"
 db_create "$DB_NAME"
-export DATABASE_URL
-DATABASE_URL="$(pg_url "$DB_NAME")"
-# For `npm run db:migrate` and friends in another terminal while this one serves.
-printf 'DATABASE_URL=%s\n' "$DATABASE_URL" >.data/dev.env
+step "Setting up the database roles (owner for migrations, application role for the server)"
+db_roles "$DB_NAME"
+# The server connects as the application role; migrations run as the owner.
+export DATABASE_URL="$APP_URL" CW_OWNER_DATABASE_URL="$OWNER_URL"
+# For `npm run db:migrate`, db:backup and friends in another terminal while this one serves.
+printf 'DATABASE_URL=%s\nCW_OWNER_DATABASE_URL=%s\n' "$DATABASE_URL" "$CW_OWNER_DATABASE_URL" >.data/dev.env
 chmod 600 .data/dev.env
 
 step "Applying migrations and demo data"
@@ -55,7 +57,9 @@ fi
 
 cat <<EOF
 
-  Chainwright is running:  http://127.0.0.1:$PORT
+  Chainwright is running in DEMO mode:  http://127.0.0.1:$PORT
+  (demo accounts with a published password, mail caught locally: never expose this to a
+  network; README.md "Production mode" says how to run it for real)
 
   Demo sign-ins (password for all three: demo-receiver-2026)
     owner@chainwright.test    owner of "Demo receivers", site admin

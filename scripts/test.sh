@@ -45,6 +45,9 @@ pg_up pg-test "$PG_TEST_PORT"
 step "Creating a fresh test database"
 db_drop "$DB_NAME"
 db_create "$DB_NAME"
+# The browser tests' server connects as the application role, as npm start's does; the API
+# tests connect as the superuser, because each test file creates a schema of its own.
+db_roles "$DB_NAME"
 export CW_TEST_DATABASE_URL
 CW_TEST_DATABASE_URL="$(pg_url "$DB_NAME")"
 printf 'CW_TEST_DATABASE_URL=%s\n' "$CW_TEST_DATABASE_URL" >.data/test.env
@@ -65,9 +68,10 @@ browser_tests() {
     printf 'jest.browser.config.js is missing: the browser tests cannot run\n' >&2
     return 1
   fi
-  DATABASE_URL="$CW_TEST_DATABASE_URL" node --import tsx scripts/db.ts migrate seed || return 1
+  DATABASE_URL="$APP_URL" CW_OWNER_DATABASE_URL="$OWNER_URL" \
+    node --import tsx scripts/db.ts migrate seed || return 1
   # Browser tests sign in often from one address: lift the failed-sign-in limit for them.
-  DATABASE_URL="$CW_TEST_DATABASE_URL" PORT="$BROWSER_PORT" CW_SIGNIN_LIMIT=100000 \
+  DATABASE_URL="$APP_URL" PORT="$BROWSER_PORT" CW_SIGNIN_LIMIT=100000 \
     start_node_ts server/main.ts
   if ! wait_for_http "http://127.0.0.1:$BROWSER_PORT/api/health"; then
     printf 'the server did not answer on port %s\n' "$BROWSER_PORT" >&2

@@ -29,7 +29,9 @@ export function createApp(services: Services): Express {
   const app = express();
   app.use(requestLogger(services.logger));
   // Behind a proxy, client addresses (for the sign-in limit) and HTTPS come from its headers.
-  if (config.trustProxyHops > 0) app.set('trust proxy', config.trustProxyHops);
+  // Only the proxies configured are trusted (addresses, else a hop count); none by default.
+  if (config.trustProxyAddresses) app.set('trust proxy', config.trustProxyAddresses);
+  else if (config.trustProxyHops > 0) app.set('trust proxy', config.trustProxyHops);
 
   app.use(
     helmet({

@@ -2,7 +2,7 @@ import type { Server } from 'node:http';
 import path from 'node:path';
 import type { SMTPServer } from 'smtp-server';
 import { createApp } from './app';
-import { configFromEnv, REPO_ROOT } from './config';
+import { ConfigError, configFromEnv, REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
 import { initServices } from './common/services';
 import { startFakeSmtp } from './mail/fake-smtp';
@@ -12,7 +12,8 @@ async function main(): Promise<void> {
   loadDevEnv();
   const config = configFromEnv();
   let smtp: SMTPServer | undefined;
-  if (config.mail.kind === 'smtp') {
+  // The mail catcher is a demo-mode helper; production sends to the relay it is given.
+  if (config.mail.kind === 'smtp' && config.mode !== 'production') {
     const mailDir = process.env.CW_MAIL_DIR || path.join(REPO_ROOT, '.data', 'mail');
     smtp = await startFakeSmtp(config.mail.port, mailDir);
     console.log(
@@ -26,7 +27,9 @@ async function main(): Promise<void> {
       err ? reject(err) : resolve(s),
     );
   });
-  console.log(`[server] Chainwright is listening on http://${config.host}:${config.port}`);
+  console.log(
+    `[server] Chainwright is listening on http://${config.host}:${config.port} in ${config.mode} mode`,
+  );
 
   let stopping = false;
   const stop = async (signal: string) => {
@@ -45,6 +48,6 @@ async function main(): Promise<void> {
 }
 
 main().catch((err: unknown) => {
-  console.error('[server] failed to start:', err);
+  console.error('[server] failed to start:', err instanceof ConfigError ? err.message : err);
   process.exit(1);
 });

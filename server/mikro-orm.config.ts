@@ -48,10 +48,13 @@ export function ormOptions(
   });
 }
 
-// The CLI (npm run db:migration:create) reads the URL npm start left in .data/dev.env.
+// The CLI (npm run db:migration:create) reads the URLs npm start left in .data/dev.env; it
+// works on the schema, so as the owner role where there is one.
 loadDevEnv();
 export default ormOptions(
-  process.env.DATABASE_URL ?? 'postgresql://postgres@127.0.0.1:54330/chainwright',
+  process.env.CW_OWNER_DATABASE_URL ??
+    process.env.DATABASE_URL ??
+    'postgresql://postgres@127.0.0.1:54330/chainwright',
   {},
   { forCli: true },
 );
