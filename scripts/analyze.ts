@@ -9,11 +9,14 @@
  * form (a stage with no SPICE form, a frequency-translating stage in a Touchstone export).
  */
 import { readFileSync } from 'node:fs';
-import { analyzeChain } from '../shared/engine/analyze';
-import { defaultCatalogue } from '../shared/engine/default-catalogue';
-import { ChainValidationError } from '../shared/engine/errors';
+import {
+  analyzeChain,
+  ChainValidationError,
+  STAGE_DEFINITIONS,
+  StageParameterError,
+  type StageDefinition,
+} from '../shared/engine';
 import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
-import type { StageDefinition } from '../shared/engine/types';
 import { budgetText } from '../shared/io/budget-text';
 import { planText } from '../shared/io/plan-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
@@ -23,7 +26,7 @@ import {
   chainDocumentSchema,
   type ChainDocument,
 } from '../shared/schema/chain';
-import { StageParameterError } from '../shared/engine/errors';
+import { writeResultJson, writeSweepTable, type Write } from './cli/stream-sweep';
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 
 const USAGE = `usage: analyze <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
@@ -199,10 +202,11 @@ function runDesign(
   }
 }
 
-function run(argv: string[]): string {
+/** Runs the CLI, writing its output through `write` (a sweep in chunks, as it is formatted). */
+function run(argv: string[], write: Write): void {
   const o = parseArgs(argv);
-  const catalogue = defaultCatalogue();
-  if (o.listTypes) return listTypes(catalogue, o.json);
+  const catalogue = STAGE_DEFINITIONS;
+  if (o.listTypes) return write(listTypes(catalogue, o.json) + '\n');
   const raw = readJson(o.file!);
   const problems = schemaIssues(raw);
   if (problems.length > 0) {
@@ -213,14 +217,20 @@ function run(argv: string[]): string {
   }
   const doc = chainDocumentSchema.parse(raw);
   try {
-    if (o.spice) return chainToSpice(doc, { catalogue }).trimEnd();
-    if (o.touchstone) return chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd();
+    if (o.spice) return write(chainToSpice(doc, { catalogue }).trimEnd() + '\n');
+    if (o.touchstone)
+      return write(chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd() + '\n');
     const designed = runDesign(doc, o, catalogue);
-    if (designed !== null) return designed;
+    if (designed !== null) return write(designed + '\n');
     const result = analyzeChain(doc, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false });
-    if (o.json) return JSON.stringify(result, null, 2);
-    const text = budgetText(doc.name, result);
-    return result.plan ? `${text}\n\n${planText(result.plan)}` : text;
+    if (o.json) return writeResultJson(result, write);
+    const { sweep, ...atF0 } = result;
+    write(budgetText(doc.name, atF0) + '\n');
+    if (result.plan) write(`\n${planText(result.plan)}\n`);
+    if (sweep) {
+      write('\nSweep\n');
+      writeSweepTable(sweep, write);
+    }
   } catch (e) {
     if (e instanceof ChainValidationError) {
       const lines = e.issues.map((i) => `  ${formatPath(i.path)}: ${i.message}`);
@@ -238,7 +248,7 @@ function run(argv: string[]): string {
 
 function main(): void {
   try {
-    process.stdout.write(run(process.argv.slice(2)) + '\n');
+    run(process.argv.slice(2), (text) => process.stdout.write(text));
   } catch (e) {
     if (e instanceof CliError) {
       (e.code === 0 ? process.stdout : process.stderr).write(e.message + '\n');

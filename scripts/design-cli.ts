@@ -15,7 +15,7 @@ import {
   type DesignOptions,
   type PreferredSeries,
 } from '../shared/engine/design';
-import { formatEngineering } from '../shared/units';
+import { formatEngineering } from '../shared/units/format';
 import type { ChainDocument } from '../shared/schema/chain';
 import type { UnitKind } from '../shared/engine/types';
 

@@ -1,6 +1,6 @@
 /**
- * Bundles the analysis CLI (scripts/analyze.ts) with esbuild into one CommonJS file, so it
- * starts with plain `node` and no TypeScript loader: `node dist/analyze.js <chain.json>`.
+ * Bundles the analysis CLI (scripts/analyze.ts) with esbuild into one minified CommonJS file,
+ * so it starts with plain `node` and no TypeScript loader: `node dist/analyze.js <chain.json>`.
  * Run directly (`npx tsx scripts/bench/bundle-cli.ts [outfile]`) or import `bundleCli`.
  */
 import { buildSync } from 'esbuild';
@@ -25,6 +25,8 @@ export function bundleCli(outfile = join(ROOT, 'dist', 'analyze.js')): string {
     target: 'node20',
     format: 'cjs',
     outfile,
+    // A smaller file parses faster, and the CLI's start-up is part of every run.
+    minify: true,
     logLevel: 'warning',
   });
   return outfile;

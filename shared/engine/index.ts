@@ -51,3 +51,12 @@ export * from './errors';
 export * from './types';
 export { catalogue, getStageDefinition } from './catalogue';
 export { STAGE_DEFINITIONS } from './stages';
+export {
+  chainToSpice,
+  chainToSpiceDeck,
+  SpiceExportError,
+  type ChainToSpiceOptions,
+  type SpiceDeck,
+} from './spice/netlist';
+export { parseRusage, parseWrdata, type SpiceTimes } from './spice/output';
+export { createProbe, probeVoltage, probeZin, probeZsrc, type Probe } from './core/probe';

@@ -1,0 +1,128 @@
+/**
+ * The whole CLI process beside ngspice, doing the same work: the CLI analyses the bench
+ * chain and writes its full sweep (step-up at every node and Zin, every point) to a file;
+ * ngspice runs the exported netlist of the same chain and writes every node's voltage at
+ * every point to its data file. Each side's exit status and output are checked before its
+ * time counts. The CLI runs as one esbuild bundle (dist/analyze.js), as it ships.
+ *
+ * Targets: at 2,001 points the CLI is no slower than `ngspice -b` on the exported netlist;
+ * at 100,000 points it is at least 3× faster than ngspice's own AC solver (the AC analysis
+ * time ngspice reports on the constant-resistor netlist) and peaks at no more than 1.5×
+ * ngspice's resident memory.
+ */
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { parseRusage } from '../../shared/engine';
+import { benchChain } from './bench-chain';
+import { bundleCli } from './bundle-cli';
+import { median } from './measure';
+import { lineCount, runProcess, type ProcessRun } from './process';
+import { mib, ms, verdict, type BenchContext, type BenchSection } from './rows';
+import { benchDecks } from './spice-decks';
+
+interface SpiceRun extends ProcessRun {
+  acMs: number;
+}
+
+function spice(
+  dir: string,
+  netlist: string,
+  dataFile: string,
+  rows: number,
+  columns: number,
+): SpiceRun {
+  writeFileSync(join(dir, 'chain.cir'), netlist);
+  const run = runProcess('ngspice', ['-b', 'chain.cir'], dir, join(dir, 'ngspice.out'));
+  if (run.status !== 0) {
+    throw new Error(`ngspice exited with status ${run.status}: ${run.stderr.slice(-500)}`);
+  }
+  const lines = lineCount(join(dir, dataFile));
+  if (lines !== rows + 1) {
+    throw new Error(`ngspice wrote ${lines - 1} data rows, expected ${rows} (columns ${columns})`);
+  }
+  const out = readFileSync(join(dir, 'ngspice.out'), 'utf8');
+  const t = parseRusage(out);
+  return { ...run, acMs: t.acS === undefined ? NaN : t.acS * 1e3 };
+}
+
+function cli(dir: string, bundle: string, chainFile: string, rows: number): ProcessRun {
+  const outFile = join(dir, 'cli.out');
+  const run = runProcess(process.execPath, [bundle, chainFile, '--sweep'], dir, outFile);
+  if (run.status !== 0) throw new Error(`the CLI exited with status ${run.status}: ${run.stderr}`);
+  // The budget table, then "Sweep", a header and one line per point.
+  const lines = lineCount(outFile);
+  if (lines < rows + 2) throw new Error(`the CLI wrote ${lines} lines for ${rows} sweep points`);
+  return run;
+}
+
+const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick));
+
+export const cliSection: BenchSection = {
+  name: 'cli',
+  run(ctx: BenchContext) {
+    const bundle = bundleCli(join(ctx.root, 'dist', 'analyze.js'));
+    const dir = mkdtempSync(join(tmpdir(), 'cw-bench-'));
+    try {
+      for (const points of [2001, 100_000]) {
+        const doc = benchChain(points);
+        const chainFile = join(dir, 'chain.json');
+        writeFileSync(chainFile, JSON.stringify(doc));
+        const decks = benchDecks(doc);
+        const reps = points > 10_000 || ctx.quick ? 1 : 5;
+        const cliRuns: ProcessRun[] = [];
+        const exported: SpiceRun[] = [];
+        const constant: SpiceRun[] = [];
+        for (let r = 0; r < reps; r++) {
+          cliRuns.push(cli(dir, bundle, chainFile, points));
+          exported.push(spice(dir, decks.exported, decks.dataFile, points, decks.columns));
+          constant.push(spice(dir, decks.constantR, decks.dataFile, points, decks.columns));
+        }
+        const cliMs = medianOf(cliRuns, (r) => r.wallMs);
+        const cliPeak = medianOf(cliRuns, (r) => r.peakBytes);
+        const exMs = medianOf(exported, (r) => r.wallMs);
+        const exAc = medianOf(exported, (r) => r.acMs);
+        const coMs = medianOf(constant, (r) => r.wallMs);
+        const coAc = medianOf(constant, (r) => r.acMs);
+        const coPeak = medianOf(constant, (r) => r.peakBytes);
+        const exPeak = medianOf(exported, (r) => r.peakBytes);
+        const n = points.toLocaleString('en-GB');
+        ctx.row(
+          `ngspice -b, exported netlist (every node written), ${n} points: whole / AC / peak`,
+          `${ms(exMs)} / ${ms(exAc)} / ${mib(exPeak)}`,
+        );
+        ctx.row(
+          `ngspice -b, constant-resistor netlist, ${n} points: whole / AC / peak`,
+          `${ms(coMs)} / ${ms(coAc)} / ${mib(coPeak)}`,
+        );
+        ctx.row(
+          `whole CLI (node dist/analyze.js --sweep, every node written), ${n} points: whole / peak`,
+          `${ms(cliMs)} / ${mib(cliPeak)}`,
+        );
+        if (points === 2001) {
+          ctx.row(
+            `CLI ÷ ngspice -b on the exported netlist, ${n} points`,
+            `${(cliMs / exMs).toFixed(2)}×`,
+            '≤ 1× (no slower)',
+            verdict(cliMs <= exMs),
+          );
+        } else {
+          ctx.row(
+            `ngspice's AC solver (constant resistors) ÷ whole CLI, ${n} points`,
+            `${(coAc / cliMs).toFixed(1)}× faster`,
+            '≥ 3× faster',
+            verdict(coAc / cliMs >= 3),
+          );
+          ctx.row(
+            `CLI peak memory ÷ ngspice's (constant resistors), ${n} points`,
+            `${(cliPeak / coPeak).toFixed(2)}×`,
+            '≤ 1.5×',
+            verdict(cliPeak / coPeak <= 1.5),
+          );
+        }
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  },
+};

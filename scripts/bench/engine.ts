@@ -1,0 +1,74 @@
+/**
+ * The engine in process, on the 12-two-port bench chain over 2,001 points with the sweep on:
+ * the node analysis (time and allocation with a reused workspace), the full analysis
+ * (`analyzeChain`: validation, build, f0, sweep, resonators, selectivity, noise, flags, the
+ * sweep arrays) and the bare cascade of the same sections, measured in alternation so both
+ * see the same load; the ratio of their medians is the figure.
+ */
+import {
+  analyzeChain,
+  buildChain,
+  createNodeAnalysis,
+  frequencyGrid,
+  runNodeAnalysis,
+  STAGE_DEFINITIONS,
+} from '../../shared/engine';
+import { bareCascade } from './bare-cascade';
+import { benchChain } from './bench-chain';
+import { allocatedBytes, median, timeMs, timings } from './measure';
+import { kib, ms, verdict, type BenchContext, type BenchSection } from './rows';
+
+const POINTS = 2001;
+/** Allocation below this per node analysis counts as none (the measurement's own noise). */
+const ALLOCATION_FREE_BYTES = 1024;
+
+export const engineSection: BenchSection = {
+  name: 'engine',
+  run(ctx: BenchContext) {
+    const catalogue = STAGE_DEFINITIONS;
+    const doc = benchChain(POINTS);
+    const built = buildChain(doc, catalogue);
+    const freqs = frequencyGrid(built.settings.sweep);
+    const size = `${built.twoPorts.length} two-ports (${built.sections.length} sections) × ${POINTS} points`;
+
+    const ws = createNodeAnalysis(built, freqs.length);
+    const node = timings(() => runNodeAnalysis(built, freqs, ws), ctx.quick ? 50 : 300);
+    ctx.row(`node analysis, ${size}`, `${ms(node.median)} (fastest ${ms(node.best)})`);
+    const nodeAlloc = allocatedBytes(() => runNodeAnalysis(built, freqs, ws));
+    const nodeBytes = nodeAlloc.heap + nodeAlloc.buffers;
+    ctx.row(
+      'allocated per node analysis (workspace reused): JS heap + buffers',
+      `${kib(nodeAlloc.heap)} + ${kib(nodeAlloc.buffers)}`,
+      `allocation-free (< ${ALLOCATION_FREE_BYTES} B)`,
+      verdict(nodeBytes < ALLOCATION_FREE_BYTES),
+    );
+
+    const bare = bareCascade(built, freqs);
+    const full = () => analyzeChain(doc, { catalogue, sweep: true });
+    for (let i = 0; i < (ctx.quick ? 3 : 10); i++) {
+      bare.run();
+      full();
+    }
+    const bareMs: number[] = [];
+    const fullMs: number[] = [];
+    for (let i = 0; i < (ctx.quick ? 15 : 60); i++) {
+      bareMs.push(timeMs(() => bare.run()));
+      fullMs.push(timeMs(full));
+    }
+    const b = median(bareMs);
+    const f = median(fullMs);
+    ctx.row(`bare typed-array ABCD cascade of the same sections, ${POINTS} points`, ms(b));
+    ctx.row(`full analysis (analyzeChain, sweep on), ${POINTS} points`, ms(f));
+    ctx.row(
+      'full analysis ÷ bare cascade (medians, measured in alternation)',
+      `${(f / b).toFixed(1)}×`,
+      '≤ 3×',
+      verdict(f / b <= 3),
+    );
+    const fullAlloc = allocatedBytes(full, ctx.quick ? 5 : 15);
+    ctx.row(
+      'allocated per full analysis: JS heap + buffers',
+      `${kib(fullAlloc.heap)} + ${kib(fullAlloc.buffers)}`,
+    );
+  },
+};

@@ -1,0 +1,41 @@
+/**
+ * The benchmark's rows and the context every section gets. A section measures, then adds
+ * rows; each row carries the 1-minute load average at the moment its figure was taken, so
+ * a figure measured on a busy machine says so.
+ */
+import { loadavg } from 'node:os';
+
+export type Verdict = 'PASS' | 'MISS' | '';
+
+export interface BenchRow {
+  figure: string;
+  value: string;
+  /** The target as text ("≤ 3×"), or "—" for a figure without one. */
+  target: string;
+  verdict: Verdict;
+  /** 1-minute load average when the figure was taken. */
+  load: number;
+}
+
+export interface BenchContext {
+  /** Fewer repetitions (for a quick look; the figures are noisier). */
+  quick: boolean;
+  /** The project folder. */
+  root: string;
+  /** Adds a row, stamped with the load average now. */
+  row(figure: string, value: string, target?: string, verdict?: Verdict): void;
+}
+
+/** A section of the benchmark: measures and adds its rows (may be async). */
+export interface BenchSection {
+  /** Short name, for `npm run bench -- --only <name>`. */
+  name: string;
+  run(ctx: BenchContext): void | Promise<void>;
+}
+
+export const verdict = (ok: boolean): Verdict => (ok ? 'PASS' : 'MISS');
+export const ms = (v: number) =>
+  Number.isFinite(v) ? `${v < 1 ? v.toFixed(3) : v < 100 ? v.toFixed(1) : v.toFixed(0)} ms` : '—';
+export const kib = (b: number) => `${(b / 1024).toFixed(1)} KiB`;
+export const mib = (b: number) => `${(b / 1024 / 1024).toFixed(0)} MiB`;
+export const loadNow = () => loadavg()[0];

@@ -1,0 +1,10 @@
+/**
+ * The benchmark's sections, in the order they run and print. A new section is a module
+ * exporting a `BenchSection` (see rows.ts) and one line below.
+ */
+import { cliSection } from './cli';
+import { editorSection } from './editor';
+import { engineSection } from './engine';
+import type { BenchSection } from './rows';
+
+export const SECTIONS: BenchSection[] = [engineSection, cliSection, editorSection];
