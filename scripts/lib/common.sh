@@ -142,6 +142,18 @@ db_roles() {
   APP_URL="postgresql://${CW_DB_APP_ROLE:-chainwright_app}:$(cat "$app_secret")@127.0.0.1:${PG_PORT}/$db"
 }
 
+# load_dev_env: fills DATABASE_URL / CW_OWNER_DATABASE_URL from .data/dev.env (written by
+# npm start) when they are not set already.
+load_dev_env() {
+  local file="$CW_REPO/.data/dev.env" key value
+  [ -f "$file" ] || return 0
+  while IFS='=' read -r key value; do
+    case "$key" in
+      DATABASE_URL | CW_OWNER_DATABASE_URL) [ -n "${!key:-}" ] || export "$key=$value" ;;
+    esac
+  done <"$file"
+}
+
 # pg_stop_dir DATA_DIR: stops the cluster in DATA_DIR (fast shutdown), if it runs.
 pg_stop_dir() {
   as_pg "$PG_BIN/pg_ctl" -D "$1" -m fast -w stop >/dev/null 2>&1 || true
