@@ -59,4 +59,3 @@ export {
   type SpiceDeck,
 } from './spice/netlist';
 export { parseRusage, parseWrdata, type SpiceTimes } from './spice/output';
-export { createProbe, probeVoltage, probeZin, probeZsrc, type Probe } from './core/probe';

@@ -1,8 +1,8 @@
 /**
- * The fast path's pieces against the plain ones they stand for: single-frequency probes
- * against a one-point node analysis (same chain, same numbers), lossy parts as data against
- * the point formulas of the primitives, and every section's block form against its point
- * form, for the product's catalogue.
+ * The fast path's pieces against the plain ones they stand for: lossy parts as data against
+ * the point formulas of the primitives, every section's block form against its point form
+ * for the product's catalogue, and the bench chain's node analysis point by point against
+ * the same analysis in blocks.
  */
 import fc from 'fast-check';
 import { buildChain } from '../../shared/engine/core/build';
@@ -17,7 +17,6 @@ import {
   PART_L_Z,
   sumParts,
 } from '../../shared/engine/core/parts';
-import { createProbe, probeVoltage, probeZin, probeZsrc } from '../../shared/engine/core/probe';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
 import {
   capacitorY,
@@ -26,45 +25,6 @@ import {
   inductorZ,
 } from '../../shared/engine/stages/primitives';
 import { benchChain } from '../../scripts/bench/bench-chain';
-import { chain, TEST_CATALOGUE } from './core-fixtures';
-
-describe('single-frequency probes', () => {
-  // A chain of the product's stages with a mixer, so translated node frequencies count too.
-  const superhet = buildChain(
-    chain(
-      [
-        { type: 't-source', values: { rs: 50 } },
-        { type: 't-tank', values: { l: 10e-6, c: 2.533e-9, rs: 2 } },
-        { type: 't-mixer', values: { lo: 1.455e6 } },
-        { type: 't-tank', values: { l: 100e-6, c: 1.01e-9, rs: 5 } },
-        { type: 't-load', values: { r: 2000 } },
-      ],
-      { f0Hz: 1e6 },
-    ),
-    TEST_CATALOGUE,
-  );
-  const bench = buildChain(benchChain(3), STAGE_DEFINITIONS);
-
-  it.each([
-    ['a superheterodyne with a mixer', superhet],
-    ['the 12-stage bench chain', bench],
-  ])('%s: Zin, Zsrc and V at every node equal a one-point node analysis', (_name, built) => {
-    const probe = createProbe(built);
-    const one = createNodeAnalysis(built, 1);
-    for (const f of [0.7e6, 1e6, 1.3e6, 7e6]) {
-      runNodeAnalysis(built, [f], one);
-      for (let k = 0; k < one.nodes; k++) {
-        probeZin(built, probe, f, k);
-        expect([probe.zinRe[k], probe.zinIm[k]]).toEqual([one.zinRe[k], one.zinIm[k]]);
-        probeZsrc(built, probe, f, k);
-        expect([probe.zsrcRe[k], probe.zsrcIm[k]]).toEqual([one.zsrcRe[k], one.zsrcIm[k]]);
-        probeVoltage(built, probe, f, k);
-        expect([probe.vRe[k], probe.vIm[k]]).toEqual([one.vRe[k], one.vIm[k]]);
-        expect(probe.fNode[k]).toBe(one.fNode[k]);
-      }
-    }
-  });
-});
 
 describe('lossy parts as data', () => {
   const point = (fn: (f: number, out: Float64Array, o: number) => void, f: number) => {
@@ -134,4 +94,28 @@ describe('block forms', () => {
       }
     },
   );
+});
+
+describe('blocks of points', () => {
+  // The product's bench chain (every stage with a block form): 600 points run in blocks give
+  // exactly what each point gives alone.
+  it('the bench chain in blocks equals the bench chain point by point', () => {
+    const built = buildChain(benchChain(600), STAGE_DEFINITIONS);
+    const f = Float64Array.from({ length: 600 }, (_, i) => 5e6 + i * 6.7e3);
+    const all = runNodeAnalysis(built, f);
+    const one = createNodeAnalysis(built, 1);
+    for (const i of [0, 255, 256, 511, 599]) {
+      runNodeAnalysis(built, [f[i]], one);
+      for (let k = 0; k < one.nodes; k++) {
+        const at = k * all.points + i;
+        expect([one.zinRe[k], one.zinIm[k], one.zsrcRe[k], one.vRe[k], one.vIm[k]]).toEqual([
+          all.zinRe[at],
+          all.zinIm[at],
+          all.zsrcRe[at],
+          all.vRe[at],
+          all.vIm[at],
+        ]);
+      }
+    }
+  });
 });
