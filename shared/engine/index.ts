@@ -1,6 +1,7 @@
 /**
- * Public API of the analysis engine (framework-free; used by the server, the CLI and the
- * client). Import from here rather than from the modules behind it.
+ * Public API of the analysis engine (framework-free; called by the server, the CLI and the
+ * benchmark; the client imports only its types). Import from here rather than from the
+ * modules behind it.
  */
 export { analyzeChain, analyzeBuilt, ENGINE_VERSION, type AnalyzeOptions } from './analyze';
 export {

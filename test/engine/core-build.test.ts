@@ -114,7 +114,7 @@ describe('buildChain validation', () => {
     expect(issue.message).toBe('Stage 2 "Measured load" (t-measured-load): table must be at most 200 characters (got 201)'); // prettier-ignore
     const doc = chain([SRC, { type: 't-measured-load' }], { f0Hz: 1e6 });
     doc.stages[1].dataFileId = 'f1';
-    // S11 = 0.5 against 50 Ω is 150 Ω (REFERENCES.md TS-1 conversion)
+    // S11 = 0.5 against 50 Ω is 150 Ω (Z = Z0·(1 + S11)/(1 − S11))
     const file = { ports: 1 as const, points: [{ f: 1e6, z0: 50, s11: { re: 0.5, im: 0 } }] };
     const built = buildChain(doc, TEST_CATALOGUE, { dataFiles: { f1: file } });
     const z = new Float64Array(2);

@@ -1,6 +1,6 @@
 /**
- * Noise and linearity cascades against REFERENCES.md cases NF-2, NF-4 (+NF-4b), IP3-1, KT-1
- * and MDS-1, and the chain-level cascade with available gains at the real impedances.
+ * Noise and linearity cascades against published cases NF-2, NF-4 (+NF-4b), IP3-1, KT-1
+ * and MDS-1 (each source named at its check), and the chain-level cascade with available gains at the real impedances.
  */
 import { analyzeChain } from '../../shared/engine/analyze';
 import { cascadeIip3, cascadeP1db } from '../../shared/engine/core/linearity';
@@ -19,7 +19,7 @@ const near = (a: number, b: number, tol: number) => expect(Math.abs(a - b)).toBe
 
 describe('cascade formulas on published cases', () => {
   it('NF-2: gains [11, −3, 7] dB, NF [25, 3, 5] dB, IIP3 [19, ∞, 3] dBm', () => {
-    // Source: MathWorks "rfchain.cumnoisefig" / "rfchain.cumiip3" documentation examples (REFERENCES.md NF-2)
+    // Source: MathWorks "rfchain.cumnoisefig" / "rfchain.cumiip3" documentation examples (NF-2)
     const nf = cascadeNoiseFigure([11, -3, 7], [25, 3, 5]);
     [25.0, 25.0011, 25.0058].forEach((v, k) => near(nf[k], v, 1e-4));
     const ip3 = cascadeIip3([11, -3, 7], [19, Infinity, 3]);
@@ -28,7 +28,7 @@ describe('cascade formulas on published cases', () => {
   });
 
   it('NF-4: two 15 dB amplifiers, NF 3 and 5 dB, OIP3 15 and 20 dBm', () => {
-    // Source: Electronics-Lab forum thread "3rd order intercept point" (REFERENCES.md NF-4)
+    // Source: Electronics-Lab forum thread "3rd order intercept point" (NF-4)
     near(cascadeNoiseFigure([15, 15], [3, 5])[1], 3.146, 1e-3);
     // IIP3 of each stage = OIP3 − G; cascade OIP3 = cascade IIP3 + 30 dB
     const iip3 = cascadeIip3([15, 15], [15 - 15, 20 - 15]);
@@ -37,14 +37,14 @@ describe('cascade formulas on published cases', () => {
   });
 
   it('NF-4b: NF 3 and 6 dB after 10 dB gain → F = 2.2934 (3.605 dB)', () => {
-    // Source: 365electric.com amplifier noise article (REFERENCES.md NF-4b)
+    // Source: 365electric.com amplifier noise article (NF-4b)
     const nf = cascadeNoiseFigure([10, 0], [3, 6])[1];
     near(Math.pow(10, nf / 10), 2.2934, 1e-4);
     near(nf, 3.605, 0.02);
   });
 
   it('IP3-1: LNA 20 dB / 0 dBm, filter −3 dB, mixer +15 dBm → −4.1 dBm', () => {
-    // Source: RF Essentials knowledge base, required IP3 per stage (REFERENCES.md IP3-1)
+    // Source: RF Essentials knowledge base, required IP3 per stage (IP3-1)
     const ip3 = cascadeIip3([20, -3, -6], [0, null, 15]);
     near(ip3[2], -4.124, 0.05);
     near(ip3[2] + 11, 6.88, 0.05);
@@ -52,7 +52,7 @@ describe('cascade formulas on published cases', () => {
   });
 
   it('KT-1: kT at 290 K = −173.975 dBm/Hz; −143.975 dBm in 1 kHz', () => {
-    // Source: "Minimum detectable signal" text (REFERENCES.md KT-1); k exact since the 2019 SI
+    // Source: "Minimum detectable signal" text (KT-1); k exact since the 2019 SI
     expect(BOLTZMANN).toBe(1.380649e-23);
     near(noiseFloorDbm(290, 1, 0), -173.975, 1e-3);
     near(10 * Math.log10(BOLTZMANN), -228.599, 1e-3);
@@ -61,7 +61,7 @@ describe('cascade formulas on published cases', () => {
   });
 
   it('MDS-1: 100 MHz bandwidth, NF 1.5 dB, SNR 10 dB → floor −92.5, MDS −82.5 dBm', () => {
-    // Source: Wikipedia "Minimum detectable signal" numerical example (REFERENCES.md MDS-1)
+    // Source: Wikipedia "Minimum detectable signal" numerical example (MDS-1)
     const floor = noiseFloorDbm(290, 100e6, 1.5);
     near(floor, -92.475, 0.05);
     near(sensitivityDbm(floor, 10), -82.475, 0.05);

@@ -1,5 +1,5 @@
 /**
- * Resonators and loaded Q against REFERENCES.md cases LQ-1 and LQ-3, a series resonator in
+ * Resonators and loaded Q against published cases LQ-1 and LQ-3 (sources at the checks), a series resonator in
  * closed form, an exact grid hit, and "no resonance".
  */
 import { analyzeChain } from '../../shared/engine/analyze';
@@ -14,7 +14,7 @@ const rel = (a: number | null, b: number, tol: number) => {
 };
 
 describe('LQ-1: parallel RLC, ω0 = 1 Mrad/s, Q0 = 10, R = 5 kΩ', () => {
-  // Source: "ESc201T: Introduction to Electronics, Assignment 4: Solutions", Q1 (REFERENCES.md LQ-1)
+  // Source: "ESc201T: Introduction to Electronics, Assignment 4: Solutions", Q1 (LQ-1)
   const f0 = 1e6 / (2 * Math.PI);
   const doc = chain(
     [
@@ -56,7 +56,7 @@ describe('LQ-1: parallel RLC, ω0 = 1 Mrad/s, Q0 = 10, R = 5 kΩ', () => {
 });
 
 describe('LQ-3: 15 µH coil with 2 Ω loss, 16.887 pF, 50 kΩ source and 50 kΩ load at 10 MHz', () => {
-  // Source: FOSSEE Scilab-TBC-Uploads 2210/CH5/EX5.20 inputs, loading chosen for the case; ngspice-confirmed (REFERENCES.md LQ-3)
+  // Source: FOSSEE Scilab-TBC-Uploads 2210/CH5/EX5.20 inputs, loading chosen for the case; ngspice-confirmed (LQ-3)
   const doc = chain(
     [
       { type: 't-source', values: { rs: 50e3 } },

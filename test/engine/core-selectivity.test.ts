@@ -1,5 +1,5 @@
 /**
- * Selectivity: image frequency and rejection (REFERENCES.md IMG-1, IMG-3), −3 dB and −60 dB
+ * Selectivity: image frequency and rejection (published examples IMG-1, IMG-3, each named at its check), −3 dB and −60 dB
  * bandwidths and shape factor of a single tank in closed form, offsets, a one-point sweep.
  */
 import { analyzeChain } from '../../shared/engine/analyze';
@@ -27,7 +27,7 @@ function superhet(f0: number, lo: number, q: number, declare: boolean, points = 
 
 describe('image frequency and rejection', () => {
   it('IMG-1: 1000 kHz, IF 455 kHz, Q = 100 → image 1910 kHz, α = 138.6 (42.84 dB)', () => {
-    // Source: mindstudy.in image-frequency rejection example (REFERENCES.md IMG-1)
+    // Source: mindstudy.in image-frequency rejection example (IMG-1)
     const res = analyzeChain(superhet(1000e3, 1455e3, 100, false), { catalogue: TEST_CATALOGUE });
     for (const node of [1, 2]) {
       const s = res.selectivity[node];
@@ -39,7 +39,7 @@ describe('image frequency and rejection', () => {
   });
 
   it('IMG-3: 600 kHz, IF 450 kHz, Q = 100 → image 1500 kHz, α = 210.0 (LO declared by the model)', () => {
-    // Source: byjus.com superheterodyne image question (REFERENCES.md IMG-3)
+    // Source: byjus.com superheterodyne image question (IMG-3)
     const res = analyzeChain(superhet(600e3, 1050e3, 100, true), { catalogue: TEST_CATALOGUE });
     const s = res.selectivity[2];
     rel(s.imageHz, 1500e3, 1e-12);

@@ -1,7 +1,7 @@
 /**
  * Match here: L-sections for complex terminations, pi/T/two-section/tapped-C/coupled-coil
- * candidates, each inserted into the chain and re-analysed there. Reference cases from
- * ../shared/checks/REFERENCES.md are named by id beside their checks.
+ * candidates, each inserted into the chain and re-analysed there. Worked cases are named
+ * by id beside their checks.
  */
 import {
   complexLSections,
@@ -121,7 +121,7 @@ describe('match here, in the chain', () => {
     expect(pi?.reason).toMatch(/above 23\.48/);
   });
 
-  it('PI-1 and T-1 values from typed impedances (REFERENCES.md, ±0.1 %)', () => {
+  it('PI-1 and T-1 values from typed impedances (worked cases, ±0.1 %)', () => {
     const doc = antennaChain();
     const r = matchHere(doc, {
       afterStageId: 'ant-c',

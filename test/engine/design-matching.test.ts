@@ -1,6 +1,6 @@
 /**
- * Matching synthesis against the worked cases of the reference list (REFERENCES.md case
- * ids given beside each check).
+ * Matching synthesis against worked cases, each case id and its source given beside its
+ * check.
  */
 import {
   designDoubleL,

@@ -144,7 +144,7 @@ describe('Touchstone reader: other parameters and versions', () => {
   });
 
   it('should read a 2.0 file with [Two-Port Data Order] 12_21 as N11 N12 N21 N22, across wrapped lines', () => {
-    // 12_21 puts N12 before N21; 21_12 is the 1.x order. REFERENCES.md TS-1 states the
+    // 12_21 puts N12 before N21; 21_12 is the 1.x order. A reference note we had (from memory) states the
     // opposite for 12_21; scikit-rf's touchstone.py ("two_port_order_legacy = '21_12' in x")
     // and the Touchstone 2.0 keyword's own name agree with this reading.
     const file = readFixture('v2-order-12_21.s2p');

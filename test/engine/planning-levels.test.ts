@@ -16,7 +16,7 @@ import {
 import type { ChainDocumentInput } from '../../shared/schema/chain';
 
 const db10 = (x: number) => 10 * Math.log10(x);
-const kT0dBmHz = db10(1.380649e-23 * 290 * 1e3); // −173.975 dBm/Hz (checks/REFERENCES.md KT-1)
+const kT0dBmHz = db10(1.380649e-23 * 290 * 1e3); // −173.975 dBm/Hz (kT0 at 290 K, k exact in the 2019 SI)
 
 describe('ITU-R P.372 outside noise', () => {
   // Rec. ITU-R P.372, Table 2 (median man-made noise, Fam = c − d·log10 f_MHz):
@@ -121,7 +121,7 @@ describe('reciprocal mixing', () => {
   });
 
   it('matches N = P_block + L(Δf) + 10·log10(B) with no selectivity ahead of the mixer', () => {
-    // ENGINE.md "Receiver planning": N_rm = P_block + L(Δf) + 10·log10(B).
+    // Reciprocal mixing (common practice): N_rm = P_block + L(Δf) + 10·log10(B).
     const doc: ChainDocumentInput = {
       name: 'mixer first',
       settings: {
@@ -187,7 +187,7 @@ describe('off-channel intermodulation, worked by hand for two stages', () => {
   });
 
   it('reduces to the in-band cascade 1/IIP3 = 1/IIP3₁ + G₁/IIP3₂ for close tones', () => {
-    // In band (no selectivity): 1/IIP3 = 1/3.162 mW + 100/0.3162 mW (checks/REFERENCES.md IP3-1 formula).
+    // In band (no selectivity): 1/IIP3 = 1/3.162 mW + 100/0.3162 mW (the cascade formula of IP3-1).
     const inBand = -db10(1 / 10 ** (5 / 10) + 100 / 10 ** (-5 / 10));
     const res = analyzeChain(doc(1), { sweep: false, plan: true });
     expect(res.plan!.intermod.effectiveIip3Dbm!).toBeCloseTo(inBand, 4);

@@ -18,7 +18,7 @@ describe('spurFrequencies: the AM broadcast superhet (1000 kHz, IF 455 kHz, LO h
   const at = (kind: string) => list.filter((s) => s.kind === kind).map((s) => s.rfHz);
 
   it('puts the image at 1910 kHz', () => {
-    // Published: image at f + 2·fIF = 1910 kHz (checks/REFERENCES.md IMG-1, a textbook
+    // Published: image at f + 2·fIF = 1910 kHz (IMG-1, a textbook
     // exercise on image-frequency rejection in an AM superhet).
     expect(at('image')).toEqual([expect.closeTo(1910e3, 3)]);
   });

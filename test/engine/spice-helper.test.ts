@@ -1,6 +1,6 @@
 /**
  * Proves the ngspice helper on hand-written netlists of reference cases whose answers are
- * published or closed-form (REFERENCES.md PI-1, T-1, TC-1, CI-1, LQ-3), before the helper
+ * published or closed-form (cases PI-1, T-1, TC-1, CI-1, LQ-3, each with its source below), before the helper
  * is trusted to check the engine. The simulator: ngspice (Debian package ngspice), run in
  * the test.
  */
@@ -19,7 +19,7 @@ function zFromSource(v: [number, number], i: [number, number]): [number, number]
 
 describe('ngspice helper on published and closed-form cases', () => {
   it('should give Zin = 1000 + j0 Ω for the PI-1 low-pass π at 10 MHz', () => {
-    // PI-1 (REFERENCES.md; decomposition after analog.intgckts.com "Pi matching",
+    // PI-1 (decomposition after analog.intgckts.com "Pi matching",
     // Rv = RH/(Q²+1) from memory): XC1 = 100 Ω, XL = 118.94 Ω, XC2 = 24.845 Ω, ±0.1 %.
     const f = 10e6;
     const w = TWO_PI * f;
@@ -46,7 +46,7 @@ describe('ngspice helper on published and closed-form cases', () => {
   });
 
   it('should give Zin = 10 + j0 Ω for the T-1 low-pass T at 100 MHz', () => {
-    // T-1 (REFERENCES.md; analog.intgckts.com "T-matching", Rv = Rs(Q²+1) from memory):
+    // T-1 (analog.intgckts.com "T-matching", Rv = Rs(Q²+1) from memory):
     // XL1 = 50 Ω, shunt 36.883 Ω, XL2 = 102.47 Ω, ±0.1 %.
     const f = 100e6;
     const w = TWO_PI * f;
@@ -71,7 +71,7 @@ describe('ngspice helper on published and closed-form cases', () => {
   });
 
   it('should give Rp = 5506.6 Ω ∥ Cp = 90.92 pF at the top of the TC-1 tapped capacitor', () => {
-    // TC-1 (REFERENCES.md, exact values COMPUTED from Y = 1/[1/(jωC1) + (RL ∥ 1/(jωC2))]), ±0.1 %.
+    // TC-1 (exact values COMPUTED from Y = 1/[1/(jωC1) + (RL ∥ 1/(jωC2))]), ±0.1 %.
     const f = 10e6;
     const netlist = [
       'TC-1 tapped capacitor 100p over 900p, 50 ohm at the tap',
@@ -91,7 +91,7 @@ describe('ngspice helper on published and closed-form cases', () => {
   });
 
   it('should give |I1| = 0.18189 A and |I2| = 0.045473 A for the CI-1 coupled coils', () => {
-    // CI-1 (REFERENCES.md): "Coupled Inductors" Example 1, PUBLISHED |I2| = 0.045473 A;
+    // CI-1: "Coupled Inductors" Example 1, PUBLISHED |I2| = 0.045473 A;
     // |I1| and Zin = j5.498 Ω COMPUTED; ±0.01 %. M = k·sqrt(L1·L2) (electronicsteacher.com).
     const k = 0.5e-3 / Math.sqrt(1e-3 * 2e-3);
     const netlist = [
@@ -115,7 +115,7 @@ describe('ngspice helper on published and closed-form cases', () => {
   });
 
   it('should give the LQ-3 loaded tank: peak 23.668 kΩ, edges 9.8029 and 10.2011 MHz, QL 25.11', () => {
-    // LQ-3 (REFERENCES.md): coil inputs PUBLISHED in FOSSEE/Scilab-TBC-Uploads 2210/CH5/EX5.20;
+    // LQ-3: coil inputs PUBLISHED in FOSSEE/Scilab-TBC-Uploads 2210/CH5/EX5.20;
     // loading chosen; results COMPUTED, ±0.1 % (±0.2 % on the band edges).
     const netlist = [
       'LQ-3 tank: 15 uH with 2 ohm, 16.887 pF, 50k source and 50k load',

@@ -4,7 +4,7 @@
  * An input at fRF and the LO at fLO give products |m·fLO ± n·fRF|. Every (m, n) with
  * m + n up to the chosen order whose product lands on the IF is a spurious response at
  *   fRF = (m·fLO + fIF)/n,  fRF = (m·fLO − fIF)/n  or  fRF = (fIF − m·fLO)/n,
- * whichever are above 0 Hz (ENGINE.md, "Receiver planning"). The wanted response is
+ * whichever are above 0 Hz (the mixer spur relation, common practice). The wanted response is
  * (1, 1) at the signal frequency; the image is the other (1, 1); the half-IF response is
  * (2, 2) half an IF from the signal; (0, 1) is the IF itself leaking through the mixer;
  * (m, 0) is a harmonic of the LO landing in the IF passband whatever the input (a birdie).

@@ -2,7 +2,7 @@
  * Strong signals away from the channel, through the chain's real selectivity: blocking
  * (which stage compresses first, and how much the wanted signal loses), off-channel
  * two-tone intermodulation (an effective IIP3 for a tone spacing), and reciprocal mixing
- * of the LO's phase noise with a blocker (ENGINE.md, "Receiver planning").
+ * of the LO's phase noise with a blocker (the usual receiver-planning budgets, common practice).
  *
  * Levels at the antenna are AVAILABLE power, dBm. A level "at a stage input" is the power
  * the stage's input really takes, P[node] = |V|²·Re(1/Zin)/2: what drives a stage into
