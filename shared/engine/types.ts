@@ -46,6 +46,12 @@ export interface ParamSpec {
   min?: number;
   exclusiveMin?: boolean;
   max?: number;
+  /**
+   * The range a practising designer expects (inclusive). A value inside the hard range but
+   * outside this one is accepted with a warning on the field and a flag: it is most likely a
+   * typing slip (a "2.2k" capacitor).
+   */
+  typical?: { min?: number; max?: number };
   options?: ParamOption[];
   /** Whether the value may carry a tolerance (Monte Carlo). */
   tolerance?: boolean;
@@ -154,7 +160,16 @@ export type ResonatorDecl =
 
 export type NoiseDecl =
   | { kind: 'passive' }
-  | { kind: 'figure'; nfDb: number }
+  | {
+      kind: 'figure';
+      nfDb: number;
+      /**
+       * Source impedance the figure was stated at, ohm (it holds only there): resistance
+       * and reactance (0 when absent).
+       */
+      ratedSourceOhm?: number;
+      ratedSourceX?: number;
+    }
   | {
       kind: 'parameters';
       fminDb: number;
@@ -220,6 +235,12 @@ export interface TwoPortModel extends StageModelCommon {
 /** A built load: a one-port impedance to ground. */
 export interface LoadModel extends StageModelCommon {
   impedance: ComplexFn;
+  /**
+   * Loads whose input impedance depends on the drive (a diode detector): the impedance when
+   * the node carries `vPeak` volts at f0. The engine solves for the level the chain delivers
+   * and uses that impedance over the whole sweep (a linearisation at the working level).
+   */
+  impedanceAtLevel?: (vPeak: number) => ComplexFn;
 }
 
 /** The model a stage of each role builds. */
@@ -308,6 +329,8 @@ export type FlagCode =
   | 'blocking'
   | 'converter-floor'
   | 'converter-clips'
+  | 'noise-mismatch'
+  | 'implausible-value'
   | 'caution';
 
 export interface Flag {
@@ -346,8 +369,21 @@ export interface NodeReport {
   /** Mismatch factor 4·Rs·Rl/|Zs+Zl|² and its loss in dB. */
   mismatch: number;
   mismatchLossDb: number;
-  returnLossDb: number;
-  vswr: number;
+  /**
+   * Return loss of Zin against the impedance looking back (|Zin − Zsrc*|/|Zin + Zsrc|), dB:
+   * the match between the two sides that are really there.
+   */
+  matchReturnLossDb: number;
+  /**
+   * Reference resistance the user chose for this node (chain-wide or for this port), ohm;
+   * null when none was chosen.
+   */
+  referenceOhm: number | null;
+  /** Return loss and VSWR of Zin against `referenceOhm`; null when no reference was chosen. */
+  returnLossDb: number | null;
+  vswr: number | null;
+  /** The node's rms voltage as dBm across `referenceOhm` (V²/R); null without a reference. */
+  referenceLevelDbm: number | null;
 }
 
 /** One stage (two-port) between node k and node k+1, at f0. */
@@ -366,6 +402,14 @@ export interface StageReport {
   transducerGainDb: number;
   noiseFigureDb: number;
   cumulativeNoiseFigureDb: number;
+  /** Effective input noise temperature Te = T0·(F − 1), K: the stage's own and cumulative. */
+  noiseTemperatureK: number;
+  cumulativeNoiseTemperatureK: number;
+  /**
+   * Noise at the stage's output as an available-noise temperature, K:
+   * G_cumulative·(T_source + Te_cumulative).
+   */
+  outputNoiseTemperatureK: number;
   cumulativeGainDb: number;
   iip3Dbm: number | null;
   cumulativeIip3Dbm: number | null;
@@ -416,6 +460,12 @@ export interface SelectivityReport {
 export interface LevelsReport {
   noiseFloorDbm: number;
   noiseFigureDb: number;
+  /** Effective input noise temperature of the whole chain, T0·(F − 1), K. */
+  noiseTemperatureK: number;
+  /** Noise temperature of the source (antenna) taken for the system figure, K. */
+  sourceNoiseTemperatureK: number;
+  /** System noise temperature referred to the antenna terminals, T_source + Te, K. */
+  systemNoiseTemperatureK: number;
   /**
    * The same noise figure by the noise-correlation-matrix method (Hillbrand and Russer), a
    * cross-check of the Friis cascade (optional).

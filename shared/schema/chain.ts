@@ -48,6 +48,11 @@ export const thresholdsSchema = z.object({
   matchReturnLossDb: z.number().min(0).max(60).default(15),
   /** A resonator is flagged when tuned off f0 by more than this fraction of its bandwidth. */
   detuneFraction: z.number().gt(0).max(10).default(0.5),
+  /**
+   * A stated noise figure is flagged when the source a stage really sees differs from the
+   * source it was rated at by more than this VSWR.
+   */
+  noiseMismatchVswr: z.number().gt(1).max(100).default(2),
 });
 export type Thresholds = z.infer<typeof thresholdsSchema>;
 
@@ -116,8 +121,24 @@ export const chainSettingsSchema = z.object({
     compressionBackoffDb: 3,
     matchReturnLossDb: 15,
     detuneFraction: 0.5,
+    noiseMismatchVswr: 2,
   }),
   planning: planningSchema.optional(),
+  /**
+   * Noise temperature of the source (the antenna's own temperature), K, for the system noise
+   * temperature; absent: the reference temperature.
+   */
+  sourceNoiseTemperatureK: positive('source noise temperature').optional(),
+  /**
+   * Reference resistance for VSWR and return loss at every node, ohm; absent: VSWR and
+   * return loss are reported only at the nodes given in `portReferences`.
+   */
+  referenceOhm: positive('reference resistance').optional(),
+  /**
+   * Reference resistance per node, ohm, keyed by the id of the stage the node follows (the
+   * source's id for the chain input). Overrides `referenceOhm`.
+   */
+  portReferences: z.record(z.string().max(64), positive('port reference resistance')).optional(),
 });
 export type ChainSettings = z.infer<typeof chainSettingsSchema>;
 

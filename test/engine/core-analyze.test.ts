@@ -36,7 +36,7 @@ describe('analyzeChain on a superheterodyne front end', () => {
       tankAt(455e3, 200e-6, 'IF tank'),
       { type: 't-load', label: 'Detector', values: { r: 100e3 } },
     ],
-    { f0Hz: 1e6, offsetsHz: [10e3], channelBandwidthHz: 5e3 },
+    { f0Hz: 1e6, offsetsHz: [10e3], channelBandwidthHz: 5e3, referenceOhm: 50 },
   );
   const res = analyzeChain(doc, opts);
 
@@ -54,6 +54,7 @@ describe('analyzeChain on a superheterodyne front end', () => {
         n.mismatch,
         n.returnLossDb,
         n.vswr,
+        n.referenceLevelDbm,
       ]) {
         expect(Number.isFinite(v)).toBe(true);
       }
@@ -108,7 +109,7 @@ describe('analyzeChain on a superheterodyne front end', () => {
 
 describe('reports at a matched termination', () => {
   it('50 Ω into 50 Ω: transducer gain 0 dB, mismatch 1, VSWR 1, return loss infinite', () => {
-    const [n] = analyzeChain(chain([{ type: 't-source' }, { type: 't-load' }], { f0Hz: 1e6 }), opts).nodes; // prettier-ignore
+    const [n] = analyzeChain(chain([{ type: 't-source' }, { type: 't-load' }], { f0Hz: 1e6, referenceOhm: 50 }), opts).nodes; // prettier-ignore
     expect(n.transducerGainDb).toBeCloseTo(0, 12);
     expect(n.mismatch).toBeCloseTo(1, 12);
     expect(n.vswr).toBeCloseTo(1, 12);

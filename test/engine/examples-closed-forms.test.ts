@@ -447,8 +447,8 @@ describe('two-metre-coupled-preselector: cable, tapped coupled pair, LNA, design
     expect(rel(node.zIn.re, zin.re)).toBeLessThan(1e-6);
     expect(Math.abs(node.zIn.im - zin.im)).toBeLessThan(1e-6 * abs(zin));
     const zs = inv(yRc(f0, num(lna, 'rout'), num(lna, 'cout')));
-    expect(node.returnLossDb).toBeCloseTo(returnLoss(zin, zs), 6);
-    expect(node.returnLossDb).toBeGreaterThan(doc.settings.thresholds.matchReturnLossDb);
+    expect(node.matchReturnLossDb).toBeCloseTo(returnLoss(zin, zs), 6);
+    expect(node.matchReturnLossDb).toBeGreaterThan(doc.settings.thresholds.matchReturnLossDb);
     expect(flagsOf(res, 'match-missed')).toEqual([]);
   });
 });
@@ -483,7 +483,7 @@ describe('sensor-868-front-end: SAW filter and an L-match that forgets, then abs
     const { zin } = match(parent.doc, f0);
     const rl = returnLoss(zin, cx(50)); // the matched SAW block looks back as exactly 50 Ω
     const node = parent.res.nodes[nodeAfter(parent.doc, 'saw')];
-    expect(node.returnLossDb).toBeCloseTo(rl, 6);
+    expect(node.matchReturnLossDb).toBeCloseTo(rl, 6);
     expect(rl).toBeLessThan(parent.doc.settings.thresholds.matchReturnLossDb);
     const [flag] = flagsOf(parent.res, 'match-missed');
     expect(flag).toMatchObject({ stageId: 'match', severity: 'warning' });
@@ -494,8 +494,8 @@ describe('sensor-868-front-end: SAW filter and an L-match that forgets, then abs
     const { zin } = match(fixed.doc, f0);
     expect(Math.abs(zin.re - 50)).toBeLessThan(5); // lossy parts move it off 50 Ω slightly
     const node = fixed.res.nodes[nodeAfter(fixed.doc, 'saw')];
-    expect(node.returnLossDb).toBeCloseTo(returnLoss(zin, cx(50)), 6);
-    expect(node.returnLossDb).toBeGreaterThan(20);
+    expect(node.matchReturnLossDb).toBeCloseTo(returnLoss(zin, cx(50)), 6);
+    expect(node.matchReturnLossDb).toBeGreaterThan(20);
     expect(flagsOf(fixed.res, 'match-missed')).toEqual([]);
     expect(fixed.res.levels.totalGainDb).toBeGreaterThan(parent.res.levels.totalGainDb);
   });
@@ -606,7 +606,7 @@ describe('marine-vhf-sdr: cable, changeover relay, series preselector, LNA, desi
     const node = res.nodes[nodeAfter(doc, 'lna')];
     expect(rel(node.zIn.re, zin.re)).toBeLessThan(1e-6);
     expect(Math.abs(node.zIn.im - zin.im)).toBeLessThan(1e-6 * abs(zin));
-    expect(node.returnLossDb).toBeGreaterThan(doc.settings.thresholds.matchReturnLossDb);
+    expect(node.matchReturnLossDb).toBeGreaterThan(doc.settings.thresholds.matchReturnLossDb);
     expect(flagsOf(res, 'match-missed')).toEqual([]);
     expect(flagsOf(res, 'q-budget')).toEqual([]);
   });

@@ -81,7 +81,9 @@ describe('the example set', () => {
 const EXPECTED_FLAGS: Record<string, string[]> = {
   'longwave-time-signal-loop': ['detector-underdriven', 'tank-overloaded'],
   'longwave-time-signal-loop-light-load': ['detector-underdriven'],
-  'sensor-868-front-end': ['match-missed'],
+  'sensor-868-front-end': ['match-missed', 'noise-mismatch'],
+  // The grid sees its tuned input off the source its 4 dB figure holds for (VSWR about 6).
+  'am-broadcast-triode-trf': ['noise-mismatch'],
 };
 
 describe.each(keys)('example %s', (key) => {

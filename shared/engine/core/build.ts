@@ -112,6 +112,15 @@ function checkValue(spec: ParamSpec, v: unknown): string | null {
     case 'number':
       if (typeof v !== 'number') return `must be a number (got ${describe(v)})`;
       if (!Number.isFinite(v)) return `must be a finite number (got ${describe(v)})`;
+      if (spec.min !== undefined && spec.max !== undefined) {
+        // Name the whole range, so the message says what would be accepted.
+        const low = spec.exclusiveMin ? !(v > spec.min) : !(v >= spec.min);
+        if (low || !(v <= spec.max)) {
+          const from = spec.exclusiveMin ? `above ${unit(spec.min)}` : `from ${unit(spec.min)}`;
+          return `must be ${from} up to ${unit(spec.max)} (got ${unit(v)})`;
+        }
+        return null;
+      }
       if (spec.min !== undefined) {
         if (spec.exclusiveMin && !(v > spec.min))
           return `must be above ${unit(spec.min)} (got ${describe(v)})`;

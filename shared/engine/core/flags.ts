@@ -2,10 +2,11 @@
  * Flags: what a designer should look at, each with the stage, a severity and one sentence
  * with the numbers behind it. Thresholds come from the chain's settings.
  */
-import type { Caution, Flag } from '../types';
-import type { BuiltChain } from './build';
+import type { Caution, Flag, ParamSpec } from '../types';
+import type { BuiltChain, BuiltStage } from './build';
 import { formatNumber as num, formatQuantity, hz } from './format';
 import type { NodeAnalysis } from './nodes';
+import { sourceVswr } from './noise';
 import { availablePower, dbm, returnLossDb, vMag } from './quantities';
 import { searchRange, type ResonatorFinding } from './resonators';
 
@@ -87,6 +88,85 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
   return flags;
 }
 
+/**
+ * A stated noise figure driven from a source other than the one it was stated at: the
+ * figure no longer holds (the real one depends on noise parameters the stage does not give).
+ */
+function noiseMismatchFlag(built: BuiltChain, f0Na: NodeAnalysis, stage: BuiltStage): Flag | null {
+  const decl = stage.model.noise;
+  if (!decl || decl.kind !== 'figure' || decl.ratedSourceOhm === undefined) return null;
+  const limit = built.settings.thresholds.noiseMismatchVswr;
+  const k = stage.firstSection * f0Na.points;
+  const zr = f0Na.zsrcRe[k];
+  const zi = f0Na.zsrcIm[k];
+  const rx = decl.ratedSourceX ?? 0;
+  const ratio = sourceVswr(decl.ratedSourceOhm, zr, zi, rx);
+  if (!(ratio > limit)) return null;
+  const seen = Number.isFinite(zr) ? formatImpedance(zr, zi) : 'an open circuit';
+  return {
+    code: 'noise-mismatch',
+    severity: 'warning',
+    stageId: stage.id,
+    message:
+      `"${stage.label}" has its ${num(decl.nfDb)} dB noise figure stated for a ` +
+      `${formatImpedance(decl.ratedSourceOhm, rx)} source but is driven from ${seen} ` +
+      `(VSWR ${Number.isFinite(ratio) ? num(ratio) : '∞'} : 1, limit ${num(limit)} : 1); its real noise figure ` +
+      'can be far higher. Give its noise parameters (Fmin, Rn, optimum source) to have it computed, or match the source to it.',
+    data: {
+      nfDb: decl.nfDb,
+      ratedSourceOhm: decl.ratedSourceOhm,
+      ratedSourceX: rx,
+      sourceRe: zr,
+      sourceIm: zi,
+      vswr: Number.isFinite(ratio) ? ratio : 'infinite',
+      limitVswr: limit,
+    },
+  };
+}
+
+/**
+ * Values inside the hard range but outside the typical one: analysed, but most likely a
+ * typing slip (a unit prefix), so the designer is asked to look.
+ */
+function outsideTypical(spec: ParamSpec, v: number): boolean {
+  const t = spec.typical;
+  return !!t && ((t.min !== undefined && v < t.min) || (t.max !== undefined && v > t.max));
+}
+
+function implausibleValueFlags(stage: BuiltStage): Flag[] {
+  const flags: Flag[] = [];
+  for (const spec of stage.definition.params) {
+    const v = stage.values[spec.key];
+    if (spec.kind !== 'number' || typeof v !== 'number' || !outsideTypical(spec, v)) continue;
+    if (spec.showWhen && stage.values[spec.showWhen.key] !== spec.showWhen.equals) continue;
+    const t = spec.typical!;
+    const range =
+      t.min !== undefined && t.max !== undefined
+        ? `${formatQuantity(t.min, spec.unit)} to ${formatQuantity(t.max, spec.unit)}`
+        : t.min !== undefined
+          ? `at least ${formatQuantity(t.min, spec.unit)}`
+          : `at most ${formatQuantity(t.max!, spec.unit)}`;
+    flags.push({
+      code: 'implausible-value',
+      severity: 'warning',
+      stageId: stage.id,
+      message: `"${stage.label}": ${spec.label} is ${formatQuantity(v, spec.unit)}, outside the typical ${range}; check the value and its unit prefix.`,
+      data: {
+        param: spec.key,
+        value: v,
+        ...(t.min !== undefined ? { typicalMin: t.min } : {}),
+        ...(t.max !== undefined ? { typicalMax: t.max } : {}),
+      },
+    });
+  }
+  return flags;
+}
+
+function formatImpedance(re: number, im: number): string {
+  if (Math.abs(im) < 1e-3 * Math.abs(re)) return formatQuantity(re, 'ohm');
+  return `${formatQuantity(re, 'ohm')} ${im < 0 ? '−' : '+'} j${formatQuantity(Math.abs(im), 'ohm')}`;
+}
+
 /** Every flag of the chain, in chain order within each kind. */
 export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
   const t = built.settings.thresholds;
@@ -96,6 +176,8 @@ export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
   for (const stage of [...built.twoPorts, built.load]) {
     const m = stage.model;
     const name = `"${stage.label}"`;
+    const noise = noiseMismatchFlag(built, f0Na, stage);
+    if (noise) flags.push(noise);
     if (m.designedMatch) {
       const rl = returnLossDb(f0Na, stage.firstSection, 0);
       if (rl < t.matchReturnLossDb) {
@@ -140,6 +222,9 @@ export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
         data: { requiredQ: m.qBudget.required, componentQ: m.qBudget.componentQ },
       });
     }
+  }
+  for (const stage of [built.source, ...built.twoPorts, built.load]) {
+    flags.push(...implausibleValueFlags(stage));
   }
   for (const stage of [built.source, ...built.twoPorts, built.load]) {
     for (const c of stage.definition.cautions ?? []) {

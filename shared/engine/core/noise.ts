@@ -65,6 +65,32 @@ export function stageNoiseFactor(
   return fmin + (decl.rn / ysRe) * (dr * dr + di * di);
 }
 
+/**
+ * Effective input noise temperature of a noise factor F: Te = T0·(F − 1), K (IEEE Std
+ * 161-1975 definition of noise temperature; the relation is the standard one, e.g. Pozar,
+ * "Microwave Engineering", §10.2).
+ */
+export function noiseTemperature(factor: number, t0 = T0_KELVIN): number {
+  return t0 * (factor - 1);
+}
+
+/** Noise factor of an effective input noise temperature: F = 1 + Te/T0. */
+export function factorOfTemperature(teK: number, t0 = T0_KELVIN): number {
+  return 1 + teK / t0;
+}
+
+/**
+ * VSWR between the rated source impedance Zr = R + jX and the source impedance Zs a stage
+ * really sees: |Γ| = |Zs − Zr| / |Zs + Zr*| (zero when they are equal; the power-wave form,
+ * K. Kurokawa, IEEE Trans. MTT 1965), VSWR = (1 + |Γ|)/(1 − |Γ|). For a real Zr this is
+ * the ordinary |Zs − R|/|Zs + R|. Infinity for a lossless source.
+ */
+export function sourceVswr(ratedOhm: number, zsRe: number, zsIm: number, ratedX = 0): number {
+  if (!Number.isFinite(zsRe) || !Number.isFinite(zsIm)) return Infinity;
+  const g = Math.hypot(zsRe - ratedOhm, zsIm - ratedX) / Math.hypot(zsRe + ratedOhm, zsIm - ratedX);
+  return g >= 1 ? Infinity : (1 + g) / (1 - g);
+}
+
 /** Thermal noise power kT·B, W. */
 export function thermalNoiseW(temperatureK: number, bandwidthHz: number): number {
   return BOLTZMANN * temperatureK * bandwidthHz;

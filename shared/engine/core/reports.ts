@@ -10,10 +10,11 @@ import type { NodeAnalysis } from './nodes';
 import {
   emfForAvailableDbm,
   friis,
-  noiseFloorDbm,
+  noiseTemperature,
   sensitivityDbm,
   sfdrDb,
   stageNoiseFactor,
+  thermalNoiseW,
 } from './noise';
 import {
   availablePower,
@@ -21,10 +22,8 @@ import {
   deliveredPower,
   mismatchFactor,
   reflectionMag,
-  returnLossDb,
   stepUp,
   vMag,
-  vswr,
 } from './quantities';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
@@ -35,12 +34,33 @@ const db10 = (r: number) => 10 * log10(r);
 const db20 = (r: number) => 20 * log10(r);
 const finiteOrNull = (x: number) => (isFiniteNumber(x) ? x : null);
 
+/**
+ * The reference resistance the user chose for user-level node n: the port's own (keyed by
+ * the id of the stage the node follows), else the chain's; null when none was chosen.
+ */
+export function nodeReference(built: BuiltChain, n: number): number | null {
+  const { portReferences, referenceOhm } = built.settings;
+  const id = n === 0 ? built.source.id : built.twoPorts[n - 1].id;
+  return portReferences?.[id] ?? referenceOhm ?? null;
+}
+
+/** Return loss (dB) and VSWR of zin against a real reference resistance. */
+function againstReference(zr: number, zi: number, ref: number) {
+  const g =
+    Number.isFinite(zr) && Number.isFinite(zi)
+      ? Math.hypot(zr - ref, zi) / Math.hypot(zr + ref, zi)
+      : 1;
+  return { returnLossDb: 0 - db20(g), vswr: g >= 1 ? Infinity : (1 + g) / (1 - g) };
+}
+
 /** Reports of every user-level node at f0. */
 export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
   const pavs = availablePower(na, 0, 0);
   return Array.from(built.userNodeFlat, (flat, n): NodeReport => {
     const k = flat * na.points;
     const v = vMag(na, flat, 0);
+    const ref = nodeReference(built, n);
+    const against = ref === null ? null : againstReference(na.zinRe[k], na.zinIm[k], ref);
     const up = stepUp(na, flat, 0);
     const p = deliveredPower(na, flat, 0);
     const pav = availablePower(na, flat, 0);
@@ -62,8 +82,11 @@ export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
       transducerGainDb: db10(p / pavs),
       mismatch: mm,
       mismatchLossDb: -db10(mm),
-      returnLossDb: returnLossDb(na, flat, 0),
-      vswr: vswr(na, flat, 0),
+      matchReturnLossDb: 0 - db20(reflectionMag(na, flat, 0)),
+      referenceOhm: ref,
+      returnLossDb: against ? against.returnLossDb : null,
+      vswr: against ? against.vswr : null,
+      referenceLevelDbm: ref === null ? null : dbm((v * v) / 2 / ref),
     };
   });
 }
@@ -82,6 +105,8 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
     return stageNoiseFactor(s.model.noise, gains[k], zr / d, -zi / d);
   });
   const cumF = friis(gains, factors);
+  const t0 = built.settings.temperatureK;
+  const tSource = built.settings.sourceNoiseTemperatureK ?? t0;
   const gainsDb = gains.map(db10);
   const iip3 = cascadeInputPoint(gainsDb, built.twoPorts.map((s) => s.model.linearity?.iip3Dbm ?? null)); // prettier-ignore
   const p1 = cascadeInputPoint(gainsDb, built.twoPorts.map((s) => s.model.linearity?.p1dbDbm ?? null)); // prettier-ignore
@@ -99,6 +124,9 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
     transducerGainDb: db10(deliveredPower(na, flats[k + 1], 0) / pav[k]),
     noiseFigureDb: db10(factors[k]),
     cumulativeNoiseFigureDb: db10(cumF[k]),
+    noiseTemperatureK: noiseTemperature(factors[k], t0),
+    cumulativeNoiseTemperatureK: noiseTemperature(cumF[k], t0),
+    outputNoiseTemperatureK: (pav[k + 1] / pav[0]) * (tSource + noiseTemperature(cumF[k], t0)),
     cumulativeGainDb: db10(pav[k + 1] / pav[0]),
     iip3Dbm: s.model.linearity?.iip3Dbm ?? null,
     cumulativeIip3Dbm: finiteOrNull(iip3[k]),
@@ -128,12 +156,19 @@ export function levelsReport(
     const g = last ? pow(10, last.cumulativeGainDb / 10) : 1;
     nf = db10(pow(10, nf / 10) + (fl - 1) / g);
   }
-  const floor = noiseFloorDbm(temperatureK, channelBandwidthHz, nf);
+  // Te = T0·(F − 1) with the chain's reference temperature as T0; the floor is k·Tsys·B,
+  // which is kT0·B·F when the source sits at T0.
+  const te = noiseTemperature(pow(10, nf / 10), temperatureK);
+  const tSource = built.settings.sourceNoiseTemperatureK ?? temperatureK;
+  const floor = dbm(thermalNoiseW(tSource + te, channelBandwidthHz));
   const sens = sensitivityDbm(floor, requiredSnrDb);
   const iip3 = last ? last.cumulativeIip3Dbm : null;
   return {
     noiseFloorDbm: floor,
     noiseFigureDb: nf,
+    noiseTemperatureK: te,
+    sourceNoiseTemperatureK: tSource,
+    systemNoiseTemperatureK: tSource + te,
     correlationNoiseFigureDb: correlationNoiseFigureDb(built),
     totalGainDb: last ? last.cumulativeGainDb : 0,
     sensitivityDbm: sens,
@@ -157,8 +192,16 @@ export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
     }
     return { index, stepUpDb, phaseDeg: phase };
   });
+  // Against the reference chosen for the chain input, else against the source's own
+  // impedance (the conjugate match the source really wants).
+  const ref = nodeReference(built, 0);
   const rl: number[] = new Array(P);
-  for (let i = 0; i < P; i++) rl[i] = 0 - db20(reflectionMag(na, 0, i));
+  for (let i = 0; i < P; i++) {
+    rl[i] =
+      ref === null
+        ? 0 - db20(reflectionMag(na, 0, i))
+        : againstReference(na.zinRe[i], na.zinIm[i], ref).returnLossDb;
+  }
   return {
     freqsHz: Array.from(na.freqs),
     nodes,

@@ -9,6 +9,7 @@ import { gmForStatedGain, unilateralSection } from './active-common';
 const byGain = { key: 'gainMode', equals: 'stated' };
 const byGm = { key: 'gainMode', equals: 'gm' };
 const byFigure = { key: 'noiseMode', equals: 'figure' };
+const byStatedSource = { key: 'nfSource', equals: 'stated' };
 const byParams = { key: 'noiseMode', equals: 'parameters' };
 const positive = { min: 0, exclusiveMin: true, tolerance: true };
 
@@ -33,6 +34,18 @@ function amplifierParams(d: {
       ['stated', 'Stated power gain'],
     ]),
     numParam('gm', 'Transconductance', 'siemens', d.gm, { ...positive, showWhen: byGm }),
+    enumParam(
+      'polarity',
+      'Phase',
+      [
+        ['inverting', 'Inverting (common emitter, source or cathode)'],
+        ['non-inverting', 'Non-inverting (common base or gate)'],
+      ],
+      {
+        showWhen: byGm,
+        help: 'A stated-gain block does not invert. The SPICE export follows the same choice.',
+      },
+    ),
     numParam('gainDb', 'Stated power gain', 'db', 20, {
       min: -40,
       max: 80,
@@ -44,6 +57,25 @@ function amplifierParams(d: {
       ['parameters', 'Noise parameters'],
     ]),
     numParam('nfDb', 'Noise figure', 'db', d.nf, { min: 0, max: 40, showWhen: byFigure }),
+    enumParam(
+      'nfSource',
+      'Noise figure stated at',
+      [
+        ['input', 'A source matched to the input'],
+        ['stated', 'A stated source resistance'],
+      ],
+      {
+        showWhen: byFigure,
+        help: 'A noise figure holds only at the source it was stated for; driven from another source the stage is flagged.',
+      },
+    ),
+    numParam('nfSourceR', 'Rated source resistance', 'ohm', 50, {
+      min: 0,
+      exclusiveMin: true,
+      max: 1e9,
+      typical: { min: 1, max: 1e7 },
+      showWhen: byStatedSource,
+    }),
     numParam('fminDb', 'Minimum noise figure', 'db', d.nf, { min: 0, max: 40, showWhen: byParams }),
     numParam('rn', 'Noise resistance Rn', 'ohm', 20, { min: 0, showWhen: byParams }),
     numParam('ropt', 'Optimum source resistance', 'ohm', 50, {
@@ -57,8 +89,25 @@ function amplifierParams(d: {
   ];
 }
 
-function noiseOf(p: ReturnType<typeof readParams>): NoiseDecl {
-  if (p.str('noiseMode') === 'figure') return { kind: 'figure', nfDb: p.num('nfDb') };
+/**
+ * The noise declaration. A figure stated "at a source equal to the input" holds for the
+ * source that matches the input (the conjugate of Rin ∥ Cin at the design frequency).
+ */
+function noiseOf(
+  p: ReturnType<typeof readParams>,
+  rin: number,
+  cin: number,
+  f0: number,
+): NoiseDecl {
+  if (p.str('noiseMode') === 'figure') {
+    if (p.str('nfSource') === 'stated') {
+      return { kind: 'figure', nfDb: p.num('nfDb'), ratedSourceOhm: p.num('nfSourceR') };
+    }
+    const g = 1 / rin;
+    const b = 2 * Math.PI * f0 * cin;
+    const d = g * g + b * b;
+    return { kind: 'figure', nfDb: p.num('nfDb'), ratedSourceOhm: g / d, ratedSourceX: b / d };
+  }
   const r = p.num('ropt');
   const x = p.num('xopt');
   const d = r * r + x * x;
@@ -71,20 +120,25 @@ function noiseOf(p: ReturnType<typeof readParams>): NoiseDecl {
   };
 }
 
-function buildAmplifier(params: ParamSpec[], values: ParamValues): TwoPortModel {
+function buildAmplifier(params: ParamSpec[], values: ParamValues, f0: number): TwoPortModel {
   const p = readParams(params, values);
   const [rin, cin, rout, cout] = ['rin', 'cin', 'rout', 'cout'].map((k) => p.num(k));
-  const gm = p.str('gainMode') === 'gm' ? p.num('gm') : gmForStatedGain(p.num('gainDb'), rin, rout);
+  const byGmMode = p.str('gainMode') === 'gm';
+  const gm = byGmMode ? p.num('gm') : gmForStatedGain(p.num('gainDb'), rin, rout);
+  const inverting = byGmMode && p.str('polarity') === 'inverting';
   return {
-    sections: [unilateralSection({ rin, cin, rout, cout, gm })],
-    noise: noiseOf(p),
+    sections: [unilateralSection({ rin, cin, rout, cout, gm, inverting })],
+    noise: noiseOf(p, rin, cin, f0),
     linearity: { iip3Dbm: p.num('iip3Dbm'), p1dbDbm: p.num('p1dbDbm') },
     spice(inNode, outNode, prefix) {
       const w = new SpiceWriter(prefix);
       w.resistor(inNode, '0', rin);
       if (cin > 0) w.capacitor(inNode, '0', cin);
-      // y21 = −gm: the source pushes gm·V(in) into the output node (inverting stage).
-      w.raw(`${w.name('G')} 0 ${outNode} ${inNode} 0 ${spiceNum(gm)}`);
+      // A G source `G n+ n- c+ c- gm` drives gm·V(c) from n+ through itself to n-.
+      // Inverting (y21 = −gm): current gm·V(in) flows out of the output node into the
+      // device, so G runs from outNode to ground. Non-inverting (y21 = +gm): reversed.
+      const [from, to] = inverting ? [outNode, '0'] : ['0', outNode];
+      w.raw(`${w.name('G')} ${from} ${to} ${inNode} 0 ${spiceNum(gm)}`);
       w.resistor(outNode, '0', rout);
       if (cout > 0) w.capacitor(outNode, '0', cout);
       return w.lines;
@@ -93,8 +147,13 @@ function buildAmplifier(params: ParamSpec[], values: ParamValues): TwoPortModel 
 }
 
 /** Preset values: typical small-signal figures of the trade (common practice, from memory). */
-function preset(key: string, label: string, v: Record<string, number>) {
-  return { key, label, values: { gainMode: 'gm', noiseMode: 'figure', ...v } };
+function preset(
+  key: string,
+  label: string,
+  v: Record<string, number>,
+  polarity: 'inverting' | 'non-inverting' = 'inverting',
+) {
+  return { key, label, values: { gainMode: 'gm', noiseMode: 'figure', polarity, ...v } };
 }
 
 const AMP_PARAMS = amplifierParams({
@@ -135,26 +194,36 @@ export const UNILATERAL_AMPLIFIER: StageDefinition = {
       iip3Dbm: 10,
       p1dbDbm: 0,
     }),
-    preset('common-base', 'Common base (bipolar, about 1 mA; typical)', {
-      rin: 26,
-      cin: 10e-12,
-      rout: 10e3,
-      cout: 3e-12,
-      gm: 0.0385,
-      nfDb: 3,
-      iip3Dbm: 5,
-      p1dbDbm: -5,
-    }),
-    preset('common-gate', 'Common gate (junction FET; typical)', {
-      rin: 83,
-      cin: 5e-12,
-      rout: 2000,
-      cout: 2e-12,
-      gm: 0.012,
-      nfDb: 3.5,
-      iip3Dbm: 15,
-      p1dbDbm: 5,
-    }),
+    preset(
+      'common-base',
+      'Common base (bipolar, about 1 mA; typical)',
+      {
+        rin: 26,
+        cin: 10e-12,
+        rout: 10e3,
+        cout: 3e-12,
+        gm: 0.0385,
+        nfDb: 3,
+        iip3Dbm: 5,
+        p1dbDbm: -5,
+      },
+      'non-inverting',
+    ),
+    preset(
+      'common-gate',
+      'Common gate (junction FET; typical)',
+      {
+        rin: 83,
+        cin: 5e-12,
+        rout: 2000,
+        cout: 2e-12,
+        gm: 0.012,
+        nfDb: 3.5,
+        iip3Dbm: 15,
+        p1dbDbm: 5,
+      },
+      'non-inverting',
+    ),
     preset('cascode', 'Cascode (bipolar pair; typical)', {
       rin: 2600,
       cin: 8e-12,
@@ -166,7 +235,7 @@ export const UNILATERAL_AMPLIFIER: StageDefinition = {
       p1dbDbm: -15,
     }),
   ],
-  build: (values) => buildAmplifier(AMP_PARAMS, values),
+  build: (values, ctx) => buildAmplifier(AMP_PARAMS, values, ctx.f0Hz),
 };
 
 const TRIODE_PARAMS = amplifierParams({
@@ -202,5 +271,5 @@ export const TRIODE_AMPLIFIER: StageDefinition = {
       p1dbDbm: 0,
     }),
   ],
-  build: (values) => buildAmplifier(TRIODE_PARAMS, values),
+  build: (values, ctx) => buildAmplifier(TRIODE_PARAMS, values, ctx.f0Hz),
 };

@@ -54,8 +54,20 @@ export function readParams(specs: ParamSpec[], values: ParamValues): ParamReader
   };
 }
 
-/** The design frequency: the stage's own `f0` when above 0, else the chain's. */
+/** Lowest own design frequency a stage accepts, Hz (0 still means "the chain's"). */
+export const MIN_DESIGN_HZ = 1e-3;
+
+/**
+ * The design frequency: the stage's own `f0` when above 0, else the chain's.
+ * @throws StageParameterError for an own f0 between 0 and 1 mHz (no part values exist there)
+ */
 export function designFrequency(own: number, ctx: BuildContext): number {
+  if (own > 0 && own < MIN_DESIGN_HZ) {
+    throw new StageParameterError(
+      'f0',
+      `the design frequency must be 0 (use the chain's) or at least 1 mHz (got ${own} Hz)`,
+    );
+  }
   return own > 0 ? own : ctx.f0Hz;
 }
 

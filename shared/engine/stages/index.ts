@@ -18,6 +18,7 @@ import { LUMPED_ELEMENT, SERIES_LC, SHUNT_LC_TANK } from './lumped';
 import { DOUBLE_L_MATCH, PI_MATCH, T_MATCH, TAPPED_C_MATCH } from './matching-networks';
 import { MEASURED_TWO_PORT } from './measured-two-port';
 import { MIXER } from './mixer';
+import { withPlausibleRanges } from './plausibility';
 import { MEASURED_ANTENNA, RESISTIVE_GENERATOR, SHORT_MONOPOLE } from './sources';
 
 export { measuredTwoPort, sToAbcd } from './measured-two-port';
@@ -28,7 +29,12 @@ export { shortMonopole } from './sources';
 export { padElements } from './elements';
 export { snrOfEnob } from './converter';
 
-/** Every stage type, in palette order. Types are unique (tested). */
+export { withPlausibleRange } from './plausibility';
+
+/**
+ * Every stage type, in palette order, each parameter with its hard and typical range
+ * (`plausibility.ts`). Types are unique (tested).
+ */
 export const STAGE_DEFINITIONS: StageDefinition[] = [
   RESISTIVE_GENERATOR,
   SHORT_MONOPOLE,
@@ -59,7 +65,7 @@ export const STAGE_DEFINITIONS: StageDefinition[] = [
   ATTENUATOR_PAD,
   TRANSMISSION_LINE,
   TR_SWITCH,
-];
+].map(withPlausibleRanges);
 
 /** The definition of a type, or undefined. */
 export function findStageDefinition(type: string): StageDefinition | undefined {

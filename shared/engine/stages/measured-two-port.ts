@@ -113,7 +113,14 @@ export const MEASURED_TWO_PORT: StageDefinition = {
     return {
       sections: [{ abcd }],
       noise:
-        p.str('noise') === 'figure' ? { kind: 'figure', nfDb: p.num('nfDb') } : { kind: 'passive' },
+        p.str('noise') === 'figure'
+          ? {
+              kind: 'figure',
+              nfDb: p.num('nfDb'),
+              // A measured figure holds at the reference impedance it was measured in.
+              ratedSourceOhm: ctx.dataFile ? ctx.dataFile.points[0].z0 : p.num('z0'),
+            }
+          : { kind: 'passive' },
     };
   },
 };

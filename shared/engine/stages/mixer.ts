@@ -115,7 +115,8 @@ export const MIXER: StageDefinition = {
     const translate = mixerTranslate(p.str('conversion'), lo);
     return {
       sections: [unilateralSection({ rin, cin: 0, rout, cout: 0, gm }, translate)],
-      noise: { kind: 'figure', nfDb: p.num('nfDb') },
+      // A stated figure holds when the mixer is driven from its own input resistance.
+      noise: { kind: 'figure', nfDb: p.num('nfDb'), ratedSourceOhm: rin },
       linearity: { iip3Dbm: p.num('iip3Dbm'), p1dbDbm: p.num('p1dbDbm') },
       // No spice: a frequency-translating stage has no single-frequency AC equivalent.
     };

@@ -39,6 +39,7 @@ const EMPTY: ChainDocument = {
       compressionBackoffDb: 3,
       matchReturnLossDb: 15,
       detuneFraction: 0.5,
+      noiseMismatchVswr: 2,
     },
   },
   stages: [],
