@@ -5,6 +5,7 @@
 import type { AnalysisResult, StageDefinition } from './types';
 import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
 import { raiseFlags } from './core/flags';
+import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
 import { analyzeResonators } from './core/resonators';
@@ -30,9 +31,10 @@ export interface AnalyzeOptions extends BuildOptions {
 
 /** Analyses an already built chain (for callers that build once and analyse many times). */
 export function analyzeBuilt(
-  built: BuiltChain,
+  builtAsGiven: BuiltChain,
   options: { sweep?: boolean; plan?: boolean | 'full' } = {},
 ): AnalysisResult {
+  const built = settleLoadLevel(builtAsGiven);
   const f0Hz = built.settings.f0Hz;
   const grid = frequencyGrid(built.settings.sweep);
   const f0Na = runNodeAnalysis(built, [f0Hz], sharedWorkspace('f0', built, 1));

@@ -17,6 +17,7 @@ export type UnitKind =
   | 'farad'
   | 'hertz'
   | 'volt'
+  | 'ampere'
   | 'volt-per-metre'
   | 'watt'
   | 'siemens'

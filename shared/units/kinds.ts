@@ -23,6 +23,7 @@ export const UNIT_KINDS: Record<UnitKind, UnitKindInfo> = {
   farad: { symbol: 'F', prefixed: true, noun: 'a capacitance (F)', si: 'F', example: '4p7' },
   hertz: { symbol: 'Hz', prefixed: true, noun: 'a frequency (Hz)', si: 'Hz', example: '77.5 kHz' },
   volt: { symbol: 'V', prefixed: true, noun: 'a voltage (V)', si: 'V', example: '10 uV' },
+  ampere: { symbol: 'A', prefixed: true, noun: 'a current (A)', si: 'A', example: '3 uA' },
   'volt-per-metre': {
     symbol: 'V/m',
     prefixed: true,

@@ -125,7 +125,7 @@ function figuresFor(
   const sweepNode = r.sweep?.nodes.find((n) => n.index === out);
   const last = r.selectivity[r.selectivity.length - 1];
   return {
-    returnLossDb: node.returnLossDb,
+    returnLossDb: node.matchReturnLossDb,
     mismatchLossDb: node.mismatchLossDb,
     totalGainDb: r.levels.totalGainDb,
     noiseFigureDb: r.levels.noiseFigureDb,
@@ -252,7 +252,7 @@ export function matchHere(
     zSource: zs,
     zLoad,
     before: {
-      returnLossDb: node.returnLossDb,
+      returnLossDb: node.matchReturnLossDb,
       totalGainDb: base.levels.totalGainDb,
       noiseFigureDb: base.levels.noiseFigureDb,
     },

@@ -3,7 +3,8 @@
  * has sections. In SPICE a load is elements from `inNode` to ground.
  */
 import type { ComplexFn, ParamSpec, StageDefinition } from '../types';
-import { numParam, readParams, SpiceWriter } from './common';
+import { enumParam, numParam, readParams, SpiceWriter } from './common';
+import { detectorInputResistance } from './diode-detector';
 
 /** R ∥ C as a ComplexFn. */
 function rParallelC(r: number, c: number): ComplexFn {
@@ -94,14 +95,40 @@ export const EARPHONE_HIGH_Z: StageDefinition = {
   ],
 };
 
+const byDiode = { key: 'inputModel', equals: 'diode' };
+
 const DETECTOR_PARAMS = [
   numParam('rLoad', 'Detector load resistance', 'ohm', 10e3, {
     min: 0,
     exclusiveMin: true,
     tolerance: true,
-    help: 'The resistor across the reservoir capacitor; the RF input resistance is about half of it.',
+    help: 'The resistor across the reservoir capacitor; at strong drive the RF input resistance is about half of it.',
   }),
   cParam(3e-12, 'Diode and wiring capacitance seen at the input.'),
+  enumParam(
+    'inputModel',
+    'Input resistance',
+    [
+      ['half-load', 'Half the load resistance (strong drive)'],
+      ['diode', 'From the diode, at the level the chain delivers'],
+    ],
+    {
+      help: 'The diode model follows the drive: n·VT/Is at low level, rising or falling toward half the load resistance at strong drive.',
+    },
+  ),
+  numParam('n', 'Diode ideality factor n', 'ratio', 1.05, {
+    min: 1,
+    max: 3,
+    showWhen: byDiode,
+    help: 'About 1.05 for a zero-bias Schottky detector diode, 1.5 to 2 for a germanium point contact (typical, from memory).',
+  }),
+  numParam('is', 'Diode saturation current Is', 'ampere', 3e-6, {
+    min: 0,
+    exclusiveMin: true,
+    typical: { min: 1e-15, max: 1e-3 },
+    showWhen: byDiode,
+    help: 'A few µA for a zero-bias Schottky detector diode (typical, from memory); a small Is makes a weak signal see a high resistance.',
+  }),
   numParam('minInputPeakV', 'Lowest working input (peak)', 'volt', 0.1, {
     min: 0,
     help: 'Below this the diode is in its square-law region and the detector works poorly.',
@@ -109,25 +136,38 @@ const DETECTOR_PARAMS = [
 ];
 
 /**
- * Diode envelope detector: RF input resistance ≈ R_load/2 (a peak detector draws its
- * charge in short pulses; the usual large-signal approximation, common practice) in
- * parallel with the diode capacitance.
+ * Diode envelope detector, its RF input resistance in parallel with the diode capacitance:
+ * - "half-load": R_load/2 (a peak detector draws its charge in short pulses; the usual
+ *   large-signal approximation, common practice);
+ * - "diode": from the diode's n and Is at the level the chain delivers (Bessel-function
+ *   analysis, see `diode-detector.ts`): n·VT/Is at low drive, toward R_load/2 at strong
+ *   drive. The engine settles the level with the chain before the analysis; SPICE has no
+ *   single small-signal form of it, so the stage writes none.
  */
 export const ENVELOPE_DETECTOR: StageDefinition = {
   type: 'envelope-detector',
   category: 'load',
   role: 'load',
   label: 'Diode envelope detector',
-  summary: 'A diode peak detector: its input resistance is about half its load resistance.',
+  summary:
+    'A diode peak detector: its input resistance is about half its load resistance, or follows the drive level.',
   params: DETECTOR_PARAMS,
-  build(values) {
+  build(values, ctx) {
     const p = readParams(DETECTOR_PARAMS, values);
+    const c = p.num('c');
+    const detector = { minInputPeakV: p.num('minInputPeakV') };
+    if (p.str('inputModel') === 'diode') {
+      const parts = {
+        rLoad: p.num('rLoad'),
+        is: p.num('is'),
+        n: p.num('n'),
+        temperatureK: ctx.temperatureK,
+      };
+      const atLevel = (vPeak: number) => rParallelC(detectorInputResistance(vPeak, parts), c);
+      return { impedance: atLevel(0), impedanceAtLevel: atLevel, detector };
+    }
     const rin = p.num('rLoad') / 2;
-    return {
-      impedance: rParallelC(rin, p.num('c')),
-      detector: { minInputPeakV: p.num('minInputPeakV') },
-      spice: rcSpice(rin, p.num('c')),
-    };
+    return { impedance: rParallelC(rin, c), detector, spice: rcSpice(rin, c) };
   },
 };
 

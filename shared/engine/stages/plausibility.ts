@@ -26,6 +26,7 @@ const UNIT_RANGES: Partial<Record<UnitKind, UnitRange>> = {
   farad: { hardMin: 0, hardMax: 1e4, typicalMin: 1e-15, typicalMax: 1e-2 },
   hertz: { hardMin: 0, hardMax: 1e12, typicalMin: 1, typicalMax: 3e11 },
   volt: { hardMin: 0, hardMax: 1e6, typicalMax: 1e3 },
+  ampere: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-18, typicalMax: 1 },
   'volt-per-metre': { hardMin: 0, hardMax: 1e6, typicalMax: 1e3 },
   metre: { hardMin: 0, hardMax: 1e6, typicalMin: 1e-5, typicalMax: 1e4 },
   siemens: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-6, typicalMax: 100 },

@@ -41,7 +41,10 @@ const GENERATOR_PARAMS = [
     showWhen: { key: 'level', equals: 'power' },
   }),
   numParam('emf', 'Open-circuit EMF (peak)', 'volt', 1e-6, {
+    // Gains are ratios of signal levels: a chain needs some signal to have any.
     min: 0,
+    exclusiveMin: true,
+    typical: { min: 1e-12, max: 1e3 },
     showWhen: { key: 'level', equals: 'emf' },
   }),
 ];
@@ -84,8 +87,42 @@ const MONOPOLE_PARAMS = [
     min: 0,
     help: 'Ground and conductor losses in series with the radiation resistance.',
   }),
-  numParam('fieldRms', 'Field strength (rms)', 'volt-per-metre', 10e-6, { min: 0 }),
+  numParam('fieldRms', 'Field strength (rms)', 'volt-per-metre', 10e-6, {
+    min: 0,
+    exclusiveMin: true,
+    typical: { min: 1e-12, max: 1e3 },
+  }),
+  enumParam(
+    'current',
+    'Current along the wire',
+    [
+      ['triangular', 'Triangular (plain whip): R = 40π²(h/λ)², effective height h/2'],
+      ['uniform', 'Uniform (top-loaded): R = 160π²(h/λ)², effective height h'],
+    ],
+    {
+      help: 'A top hat large enough to carry the current to the tip makes the current uniform: four times the radiation resistance, twice the effective height.',
+    },
+  ),
+  numParam('topHatC', 'Top-hat capacitance', 'farad', 20e-12, {
+    min: 0,
+    typical: { max: 1e-9 },
+    showWhen: { key: 'current', equals: 'uniform' },
+    help: "Capacitance of the top hat to ground; it adds to the wire's own capacitance.",
+  }),
 ];
+
+/**
+ * Radiation resistance factor and effective height of a short monopole for its current
+ * distribution (over a perfect ground, h ≪ λ; C. A. Balanis, "Antenna Theory", short and
+ * infinitesimal dipoles, halved for the monopole by image theory; from memory):
+ * - triangular (plain whip): R = 40π²(h/λ)², effective height h/2;
+ * - uniform (top-loaded): R = 160π²(h/λ)², effective height h.
+ */
+export function currentDistribution(kind: 'triangular' | 'uniform') {
+  return kind === 'uniform'
+    ? { rFactor: 160 * Math.PI ** 2, heightFactor: 1 }
+    : { rFactor: 40 * Math.PI ** 2, heightFactor: 0.5 };
+}
 
 /**
  * Short monopole over a perfect ground, height h ≪ λ, wire diameter d:
@@ -119,25 +156,30 @@ export const SHORT_MONOPOLE: StageDefinition = {
   role: 'source',
   label: 'Short whip antenna',
   summary:
-    'A vertical wire much shorter than a quarter wave: small radiation resistance, a few pF.',
+    'A vertical wire much shorter than a quarter wave, plain or top-loaded: small radiation resistance, a few pF.',
   params: MONOPOLE_PARAMS,
   build(values) {
     const p = readParams(MONOPOLE_PARAMS, values);
-    const ant = shortMonopole(p.num('height'), p.num('diameter'));
+    const height = p.num('height');
+    const ant = shortMonopole(height, p.num('diameter'));
+    const uniform = p.str('current') === 'uniform';
+    const dist = currentDistribution(uniform ? 'uniform' : 'triangular');
     const lossR = p.num('lossR');
-    const c = ant.capacitance;
-    const emf = Math.SQRT2 * p.num('fieldRms') * ant.effectiveHeight;
+    // A top hat adds its capacitance to ground to the wire's own.
+    const c = ant.capacitance + (uniform ? p.num('topHatC') : 0);
+    const emf = Math.SQRT2 * p.num('fieldRms') * dist.heightFactor * height;
+    const rRad = (f: number) => dist.rFactor * ((height * f) / SPEED_OF_LIGHT) ** 2;
     return {
       emf: () => emf,
       impedance: (f, out, o) => {
-        out[o] = ant.radiationResistance(f) + lossR;
+        out[o] = rRad(f) + lossR;
         out[o + 1] = -1 / (2 * Math.PI * f * c);
       },
       spice: (_in, outNode, prefix) =>
         emitSource(prefix, emf, (w, e) => {
           const mid = w.node();
           w.capacitor(e, mid, c);
-          const k = (40 * Math.PI ** 2 * p.num('height') ** 2) / SPEED_OF_LIGHT ** 2;
+          const k = (dist.rFactor * height ** 2) / SPEED_OF_LIGHT ** 2;
           // With no loss resistance the operating point (hertz = 0) would see 0 Ω in series
           // with C and no DC path; the 1e-12 Ω floor keeps it regular and is below the
           // radiation resistance at any frequency of interest.
@@ -160,8 +202,12 @@ const MEASURED_ANTENNA_PARAMS = [
     default: '1e6 20 -900; 2e6 22 -450; 4e6 25 -220',
     help: 'Points "f R X; f R X" (Hz, Ω, Ω), used when no data file is attached; linear in f.',
   },
-  numParam('fieldRms', 'Field strength (rms)', 'volt-per-metre', 10e-6, { min: 0 }),
-  numParam('effectiveHeight', 'Effective height', 'metre', 0.5, { min: 0 }),
+  numParam('fieldRms', 'Field strength (rms)', 'volt-per-metre', 10e-6, {
+    min: 0,
+    exclusiveMin: true,
+    typical: { min: 1e-12, max: 1e3 },
+  }),
+  numParam('effectiveHeight', 'Effective height', 'metre', 0.5, { min: 0, exclusiveMin: true }),
 ];
 
 /** Antenna from measured impedance points (one-port file or a short table). */

@@ -36,6 +36,7 @@ export interface QuantityEdit {
         [value]="draft()"
         [disabled]="disabled()"
         [attr.aria-invalid]="error() ? 'true' : null"
+        [class.unusual]="!error() && warning()"
         [attr.aria-describedby]="inputId + '-note'"
         [attr.data-param]="paramKey()"
         (input)="onInput($event)"
@@ -47,6 +48,8 @@ export interface QuantityEdit {
     <div class="note" [id]="inputId + '-note'" [attr.role]="error() ? 'alert' : null">
       @if (error(); as message) {
         <span class="cw-error-text">{{ message }}</span>
+      } @else if (warning(); as message) {
+        <span class="warning-text" role="status">⚠ {{ message }}</span>
       } @else if (help()) {
         <span class="cw-muted">{{ help() }}</span>
       }
@@ -60,6 +63,8 @@ export class QuantityFieldComponent {
   /** The stored text (what was typed last time, or the value written out). */
   readonly text = input.required<string>();
   readonly range = input<Pick<ParamSpec, 'min' | 'max' | 'exclusiveMin'>>({});
+  /** The typical range: a value outside it is accepted with a warning (a likely slip). */
+  readonly typical = input<ParamSpec['typical']>(undefined);
   readonly help = input<string | undefined>(undefined);
   readonly disabled = input(false);
   /** Parameter key, exposed as data-param for tests and for marking server refusals. */
@@ -84,6 +89,22 @@ export class QuantityFieldComponent {
   protected readonly error = computed(() => {
     const p = this.parsed();
     return p.ok ? this.externalError() : p.message;
+  });
+  protected readonly warning = computed(() => {
+    const p = this.parsed();
+    const t = this.typical();
+    if (!p.ok || Number.isNaN(p.value) || !t) return null;
+    const low = t.min !== undefined && p.value < t.min;
+    const high = t.max !== undefined && p.value > t.max;
+    if (!low && !high) return null;
+    const f = (v: number) => formatEngineering(v, this.unit(), 3);
+    const range =
+      t.min !== undefined && t.max !== undefined
+        ? `${f(t.min)} to ${f(t.max)}`
+        : t.min !== undefined
+          ? `at least ${f(t.min)}`
+          : `at most ${f(t.max!)}`;
+    return `unusual: typical is ${range}; check the unit prefix`;
   });
   protected readonly readBack = computed(() => {
     const p = this.parsed();

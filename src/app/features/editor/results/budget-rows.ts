@@ -80,6 +80,13 @@ interface RowSpec {
   csv: SeriesSpec[];
 }
 
+/** Shown where VSWR and return loss need a reference the user has not chosen. */
+const NO_REFERENCE = 'no reference set';
+
+/** A noise temperature, K, to three significant figures. */
+const kelvin = (k: number | null | undefined) =>
+  k === null || k === undefined || !Number.isFinite(k) ? NO_VALUE : `${plain(k, 1)} K`;
+
 const ofStage =
   (pick: (s: StageReport) => number | null) =>
   (p: Point): number | null =>
@@ -232,6 +239,39 @@ const NOISE: RowSpec[] = [
     ],
   },
   {
+    key: 'te-stage',
+    label: 'Stage noise temperature',
+    note: 'Te = T0·(F − 1), input',
+    display: (p) => (p.stage ? kelvin(p.stage.noiseTemperatureK) : NO_VALUE),
+    csv: [{ label: 'Stage noise temperature', unit: 'K', value: ofStage((s) => s.noiseTemperatureK) }], // prettier-ignore
+  },
+  {
+    key: 'te-cum',
+    label: 'Cumulative noise temperature',
+    note: 'input-referred, to this node',
+    display: (p) => (p.stage ? kelvin(p.stage.cumulativeNoiseTemperatureK) : NO_VALUE),
+    csv: [
+      {
+        label: 'Cumulative noise temperature',
+        unit: 'K',
+        value: ofStage((s) => s.cumulativeNoiseTemperatureK),
+      },
+    ],
+  },
+  {
+    key: 'te-out',
+    label: 'Output noise temperature',
+    note: 'G·(T source + Te) at this node',
+    display: (p) => (p.stage ? kelvin(p.stage.outputNoiseTemperatureK) : NO_VALUE),
+    csv: [
+      {
+        label: 'Output noise temperature',
+        unit: 'K',
+        value: ofStage((s) => s.outputNoiseTemperatureK),
+      },
+    ],
+  },
+  {
     key: 'iip3-stage',
     label: 'Stage IIP3',
     display: (p) => decibels(p.stage?.iip3Dbm, 'dBm'),
@@ -275,6 +315,29 @@ const LEVEL: RowSpec[] = [
     display: (p) => decibels(p.node.availableDbm, 'dBm'),
     csv: [{ label: 'Signal level, available', unit: 'dBm', value: (p) => p.node.availableDbm }],
   },
+  {
+    key: 'level-volts',
+    label: 'Signal level',
+    note: 'rms volts at the node',
+    display: (p) => `${engineering(p.node.vRms, 'volt')} rms`,
+    csv: [{ label: 'Signal level, rms volts', unit: 'V', value: (p) => p.node.vRms }],
+  },
+  {
+    key: 'level-reference',
+    label: 'Signal level',
+    note: 'dBm-equivalent across the chosen reference',
+    display: (p) =>
+      p.node.referenceOhm === null
+        ? NO_REFERENCE
+        : `${decibels(p.node.referenceLevelDbm, 'dBm')} in ${engineering(p.node.referenceOhm, 'ohm')}`,
+    csv: [
+      {
+        label: 'Signal level across the reference',
+        unit: 'dBm',
+        value: (p) => p.node.referenceLevelDbm,
+      },
+    ],
+  },
 ];
 
 const MATCH: RowSpec[] = [
@@ -287,15 +350,24 @@ const MATCH: RowSpec[] = [
   {
     key: 'return-loss',
     label: 'Return loss',
-    note: 'against Z looking back',
-    display: (p) => decibels(p.node.returnLossDb),
-    csv: [{ label: 'Return loss', unit: 'dB', value: (p) => p.node.returnLossDb }],
+    note: 'against the chosen reference',
+    display: (p) =>
+      p.node.referenceOhm === null
+        ? NO_REFERENCE
+        : `${decibels(p.node.returnLossDb)} re ${engineering(p.node.referenceOhm, 'ohm')}`,
+    csv: [{ label: 'Return loss against the reference', unit: 'dB', value: (p) => p.node.returnLossDb }], // prettier-ignore
   },
   {
     key: 'vswr',
     label: 'VSWR',
-    display: (p) => (Number.isFinite(p.node.vswr) ? `${plain(p.node.vswr)} : 1` : '∞'),
-    csv: [{ label: 'VSWR', unit: 'ratio', value: (p) => p.node.vswr }],
+    note: 'against the chosen reference',
+    display: (p) =>
+      p.node.referenceOhm === null
+        ? NO_REFERENCE
+        : Number.isFinite(p.node.vswr)
+          ? `${plain(p.node.vswr as number)} : 1`
+          : '∞',
+    csv: [{ label: 'VSWR against the reference', unit: 'ratio', value: (p) => p.node.vswr }],
   },
 ];
 

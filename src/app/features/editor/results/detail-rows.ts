@@ -127,7 +127,18 @@ export function summaryItems(result: AnalysisResult, document: ChainDocument): S
       value: decibels(l.noiseFloorDbm, 'dBm'),
       note: `in a ${bandwidth} channel at ${document.settings.temperatureK} K`,
     },
-    { key: 'nf', label: 'Noise figure', value: decibels(l.noiseFigureDb, 'dB', 2) },
+    {
+      key: 'nf',
+      label: 'Noise figure',
+      value: decibels(l.noiseFigureDb, 'dB', 2),
+      note: `Te ${plain(l.noiseTemperatureK, 1)} K`,
+    },
+    {
+      key: 'tsys',
+      label: 'System noise temperature',
+      value: `${plain(l.systemNoiseTemperatureK, 1)} K`,
+      note: `at the antenna terminals: source ${plain(l.sourceNoiseTemperatureK, 1)} K + Te`,
+    },
     { key: 'gain', label: 'Total available gain', value: decibels(l.totalGainDb) },
     {
       key: 'sensitivity',

@@ -129,7 +129,46 @@ const FIELDS: SettingField[] = [
     { min: 0, exclusiveMin: true, max: 10 },
     'as a fraction of the bandwidth',
   ),
+  threshold(
+    'noiseMismatchVswr',
+    'Noise figure off its rated source: flag beyond VSWR',
+    'ratio',
+    { min: 1, exclusiveMin: true, max: 100 },
+    'between the source a noise figure was stated for and the one the stage sees',
+  ),
 ];
+
+/** Settings that may be left empty (the engine then uses its rule, said in `empty`). */
+interface OptionalField {
+  key: 'referenceOhm' | 'sourceNoiseTemperatureK';
+  id: string;
+  label: string;
+  unit: UnitKind;
+  empty: string;
+}
+
+const OPTIONAL_FIELDS: OptionalField[] = [
+  {
+    key: 'sourceNoiseTemperatureK',
+    id: 'cw-source-temperature',
+    label: 'Source (antenna) noise temperature',
+    unit: 'kelvin',
+    empty: 'empty: the reference temperature',
+  },
+  {
+    key: 'referenceOhm',
+    id: 'cw-reference-ohm',
+    label: 'Reference for VSWR and return loss',
+    unit: 'ohm',
+    empty: 'empty: none, so VSWR and return loss are not shown; e.g. 50 Ω',
+  },
+];
+
+/** One port a reference can be set for: the node after a stage (the source for the input). */
+interface PortRow {
+  stageId: string;
+  label: string;
+}
 
 /** Name, description and the chain-wide analysis settings. */
 @Component({
@@ -145,6 +184,20 @@ export class ChainSettingsComponent {
   readonly document = input<ChainDocument | null>(null);
   protected readonly store = inject(EditorStore);
   protected readonly fields = FIELDS;
+  protected readonly optionalFields = OPTIONAL_FIELDS;
+  /** Typed text and the problem with it, per optional field or port (`port:<stage id>`). */
+  private readonly optionalTyped = signal<Record<string, { text: string; error: string | null }>>(
+    {},
+  );
+  /** Every node but the last (a load has no port after it), named by the stage before it. */
+  protected readonly ports = computed<PortRow[]>(() =>
+    this.shown()
+      .stages.slice(0, -1)
+      .map((s, i) => ({
+        stageId: s.id,
+        label: i === 0 ? `Chain input (after ${s.label || s.type})` : `After ${s.label || s.type}`,
+      })),
+  );
   protected readonly shown = computed(() => this.document() ?? this.store.doc());
   protected readonly settings = computed(() => this.shown().settings);
   /** What was typed per field with the value it gave, so undo shows the value, not stale text. */
@@ -170,6 +223,50 @@ export class ChainSettingsComponent {
     const value = field.key === 'sweep.points' ? Math.round(edit.value) : edit.value;
     this.typed.update((t) => ({ ...t, [field.key]: { text: edit.text, value } }));
     this.store.updateSettings(field.write(this.settings(), value), field.key);
+  }
+
+  private valueOf(key: string): number | undefined {
+    const s = this.settings();
+    if (key.startsWith('port:')) return s.portReferences?.[key.slice(5)];
+    return s[key as OptionalField['key']];
+  }
+
+  protected optionalText(key: string, unit: UnitKind): string {
+    const typed = this.optionalTyped()[key];
+    if (typed) return typed.text;
+    const v = this.valueOf(key);
+    return v === undefined ? '' : formatEngineering(v, unit, 6);
+  }
+
+  protected optionalError(key: string): string | null {
+    return this.optionalTyped()[key]?.error ?? null;
+  }
+
+  /** Parses an optional quantity: empty clears it, a value above 0 sets it. */
+  protected onOptional(key: string, unit: UnitKind, event: Event): void {
+    const text = (event.target as HTMLInputElement).value;
+    let value: number | undefined;
+    let error: string | null = null;
+    if (text.trim() !== '') {
+      const r = parseQuantity(text, unit);
+      if (!r.ok) error = r.message;
+      else if (!(r.value > 0)) error = 'must be above 0';
+      else value = r.value;
+    }
+    this.optionalTyped.update((t) => ({ ...t, [key]: { text, error } }));
+    if (error) return;
+    const s = this.settings();
+    let next: ChainSettings;
+    if (key.startsWith('port:')) {
+      const { [key.slice(5)]: _old, ...rest } = s.portReferences ?? {};
+      const ports = value === undefined ? rest : { ...rest, [key.slice(5)]: value };
+      const { portReferences: _p, ...others } = s;
+      next = Object.keys(ports).length > 0 ? { ...others, portReferences: ports } : others;
+    } else {
+      const { [key as OptionalField['key']]: _old, ...others } = s;
+      next = value === undefined ? others : { ...others, [key]: value };
+    }
+    this.store.updateSettings(next, key);
   }
 
   protected onScale(event: Event): void {
