@@ -63,13 +63,18 @@ export function nodeTable(result: AnalysisResult): string {
       ...nodes.map((n) => stageCell(n.index, (s) => dec(s.cumulativeNoiseFigureDb))),
     ],
     [
+      'Cumulative Te (K)',
+      ...nodes.map((n) => stageCell(n.index, (s) => dec(s.cumulativeNoiseTemperatureK, 1))),
+    ],
+    [
       'Cumulative IIP3 (dBm)',
       ...nodes.map((n) => stageCell(n.index, (s) => dec(s.cumulativeIip3Dbm))),
     ],
     ['Delivered (dBm)', ...nodes.map((n) => dec(n.deliveredDbm))],
     ['Available (dBm)', ...nodes.map((n) => dec(n.availableDbm))],
     ['Mismatch loss (dB)', ...nodes.map((n) => dec(n.mismatchLossDb))],
-    ['Return loss (dB)', ...nodes.map((n) => dec(n.returnLossDb))],
+    // Against the reference chosen for each node; a dash where none was chosen.
+    ['Return loss vs ref (dB)', ...nodes.map((n) => dec(n.returnLossDb))],
   ];
   return alignColumns(rows);
 }
@@ -135,7 +140,8 @@ function levelsTable(result: AnalysisResult): string {
   return alignColumns([
     ['Input available power', `${dec(l.inputAvailableDbm)} dBm`],
     ['Total gain', `${dec(l.totalGainDb)} dB`],
-    ['Noise figure', `${dec(l.noiseFigureDb)} dB`],
+    ['Noise figure', `${dec(l.noiseFigureDb)} dB (Te ${dec(l.noiseTemperatureK, 1)} K)`],
+    ['System noise temperature', `${dec(l.systemNoiseTemperatureK, 1)} K at the antenna`],
     ['Noise floor', `${dec(l.noiseFloorDbm)} dBm`],
     ['Sensitivity', `${dec(l.sensitivityDbm)} dBm (${qty(l.sensitivityEmfRms, 'volt')} rms EMF)`],
     ['Cascaded IIP3', l.iip3Dbm === null ? DASH : `${dec(l.iip3Dbm)} dBm`],
