@@ -66,10 +66,10 @@ export class ChainsApi {
     return this.http.get<ChainFamilyDto>(`/api/chains/${enc(chainId)}/family`, { context });
   }
 
-  /** The stored chain's analysis, with the frequency sweep. */
+  /** The stored chain's analysis, with the frequency sweep and the receiver plan's figures. */
   analysis(chainId: string, context?: HttpContext): Observable<AnalysisResult> {
     return this.http.get<AnalysisResult>(`/api/chains/${enc(chainId)}/analysis`, {
-      params: { sweep: '1' },
+      params: { sweep: '1', plan: '1' },
       context,
     });
   }

@@ -16,6 +16,7 @@ import { FlagsListComponent } from './flags-list.component';
 import { ResonanceTablesComponent } from './resonance-tables.component';
 import { ResultPlotsComponent } from './result-plots.component';
 import { SummaryPanelComponent } from './summary-panel.component';
+import { PlanViewComponent } from '../plan/plan-view.component';
 
 /**
  * The results of one analysis of the chain: budget by node, resonators and selectivity,
@@ -31,6 +32,7 @@ import { SummaryPanelComponent } from './summary-panel.component';
     ResonanceTablesComponent,
     ResultPlotsComponent,
     SummaryPanelComponent,
+    PlanViewComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './analysis-results.component.html',
