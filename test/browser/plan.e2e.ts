@@ -1,7 +1,8 @@
 /**
  * The receiver plan in the editor, against a running server with demo data: open the Plan
  * tab on the shortwave superhet, move the IF and watch the image follow, set a blocker and
- * read the desensitisation, and set a quiet rural site and read the outside-noise statement.
+ * read the desensitisation, and set a quiet rural site and read the outside-noise statement
+ * (before the IF moves away from the IF filter's centre, which breaks the chain on purpose).
  */
 import type { Browser, Page } from 'playwright-core';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
@@ -13,6 +14,21 @@ async function imageFrequency(page: Page): Promise<string> {
   const cell = page.locator('tr[data-kind="image"] td').nth(2);
   await cell.waitFor();
   return (await cell.innerText()).trim();
+}
+
+/** The page's document, typed just enough (the tests compile without DOM types). */
+type PageDoc = { document: { querySelector(s: string): { textContent: string | null } | null } };
+
+/** Waits until the first element matching `selector` has text matching `pattern`; returns it. */
+async function waitForText(page: Page, selector: string, pattern: RegExp): Promise<string> {
+  await page.waitForFunction(
+    ([sel, source]) =>
+      new RegExp(source).test(
+        ((globalThis as unknown as PageDoc).document.querySelector(sel)?.textContent ?? '').trim(),
+      ),
+    [selector, pattern.source] as const,
+  );
+  return (await page.locator(selector).first().innerText()).trim();
 }
 
 /** Types into a planning field (by its data-param) as a user would. */
@@ -54,39 +70,23 @@ describe('receiver plan', () => {
 
     // 455 kHz IF, LO above: the image is 910 kHz above 7.2 MHz.
     expect(await imageFrequency(page)).toBe('8.11 MHz');
-    await page.getByRole('button', { name: 'Save PNG' }).and(page.locator(':enabled')).first().waitFor(); // prettier-ignore
+    const plotReady = page.getByRole('button', { name: 'Save PNG' }).and(page.locator(':enabled'));
+    await plotReady.first().waitFor();
     await shot(page, 'plan-455k');
-
-    await typeInto(page, 'plan-if', '1.6 MHz');
-    await page.waitForFunction(
-      () =>
-        (globalThis as unknown as { document: { querySelector(s: string): { textContent: string } | null } }).document // prettier-ignore
-          .querySelector('tr[data-kind="image"] td:nth-of-type(3)')
-          ?.textContent?.includes('10.4 MHz') ?? false,
-    );
-    expect(await imageFrequency(page)).toBe('10.4 MHz');
-
-    await typeInto(page, 'plan-blocker-level', '-70');
-    const desense = page.locator('[data-figure="desense"] .fig-value');
-    await page.waitForFunction(
-      () =>
-        /^\d+\.\d\d dB$/.test(
-          (globalThis as unknown as { document: { querySelector(s: string): { textContent: string } | null } }).document // prettier-ignore
-            .querySelector('[data-figure="desense"] .fig-value')
-            ?.textContent?.trim() ?? '',
-        ),
-    );
-    expect(Number((await desense.innerText()).replace(' dB', ''))).toBeGreaterThanOrEqual(0);
 
     await page.locator('[data-param="plan-environment"]').click();
     await page.getByRole('option', { name: 'Quiet rural' }).click();
-    const statement = page.locator('[data-figure="outside-statement"]');
-    await page.waitForFunction(() =>
-      ((globalThis as unknown as { document: { querySelector(s: string): { textContent: string } | null } }).document // prettier-ignore
-        .querySelector('[data-figure="outside-statement"]')
-        ?.textContent ?? '').includes('quiet rural area'),
-    );
-    expect(await statement.innerText()).toMatch(/^At 7\.2 MHz in a quiet rural area the outside noise is/); // prettier-ignore
+    const statement = await waitForText(page, '[data-figure="outside-statement"]', /quiet rural/);
+    expect(statement).toMatch(/^At 7\.2 MHz in a quiet rural area the outside noise is/);
+
+    await typeInto(page, 'plan-blocker-level', '-70');
+    const desense = await waitForText(page, '[data-figure="desense"] .fig-value', /^\d+\.\d\d dB$/);
+    expect(Number(desense.replace(' dB', ''))).toBeGreaterThanOrEqual(0);
+
+    await typeInto(page, 'plan-if', '1.6 MHz');
+    await waitForText(page, 'tr[data-kind="image"] td:nth-of-type(3)', /^10\.4 MHz$/);
+    expect(await imageFrequency(page)).toBe('10.4 MHz');
+    await plotReady.first().waitFor();
     await shot(page, 'plan-1600k-quiet-rural');
   });
 });

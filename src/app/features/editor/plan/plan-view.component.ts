@@ -20,6 +20,7 @@ import {
   planningSchema,
   type ChainDocument,
   type PlanningSettings,
+  type StageInstance,
 } from '../../../../../shared/schema/chain';
 import { formatEngineering, parseQuantity } from '../../../../../shared/units';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
@@ -145,6 +146,18 @@ export class PlanViewComponent {
     link.download = csvFileName(`${this.document().name} plan`);
     link.click();
     view.setTimeout(() => view.URL.revokeObjectURL(url), 0);
+  }
+
+  /** What the IF field shows: what was typed, or the stored value written out. */
+  protected ifText(mixer: StageInstance): string {
+    const typed: string | undefined = mixer.entered?.['ifHz'];
+    const value = mixer.values['ifHz'];
+    return typed ?? (typeof value === 'number' ? formatEngineering(value, 'hertz', 6) : '');
+  }
+  /** A stage's share of the off-channel IM product, as a percentage. */
+  protected imShare(plan: PlanReport, i: number): string {
+    const share: number | undefined = plan.intermod.stages[i]?.share;
+    return share === undefined ? '—' : `${(100 * share).toFixed(0)} %`;
   }
 
   /** One planning setting changed: an undoable edit of the chain's settings. */
