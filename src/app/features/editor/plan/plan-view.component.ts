@@ -68,7 +68,6 @@ export class PlanViewComponent {
   private readonly http = inject(HttpClient);
   private readonly page = inject(DOCUMENT);
   protected readonly store = inject(EditorStore);
-  protected readonly kindLabel = KIND_LABEL;
   protected readonly sortKey = signal<SpurSortKey>('rejection');
 
   protected readonly state = toSignal(
@@ -120,6 +119,10 @@ export class PlanViewComponent {
   protected readonly profileError = signal<string | null>(null);
   protected readonly profile = computed(() => this.profileDraft() ?? profileText(this.settings().loPhaseNoise)); // prettier-ignore
 
+  protected kindText(kind: string | null): string {
+    const label: string | undefined = kind === null ? undefined : KIND_LABEL[kind];
+    return label ?? kind ?? '—';
+  }
   protected band(db: number | null): string {
     return rejectionBand(db, this.settings().spurTargetDb);
   }
