@@ -25,6 +25,7 @@ export {
   identityAbcd,
   phaseDeg,
   sToAbcd,
+  sToAbcdAt,
   type RefImpedance,
 } from './core/abcd';
 export { cabs, carg, cdiv, cinv, cmul, csqrt, isOpen } from './core/complex';

@@ -1,6 +1,6 @@
 /**
- * Resonators and loaded Q against published cases LQ-1 and LQ-3 (sources at the checks), a series resonator in
- * closed form, an exact grid hit, and "no resonance".
+ * Resonators and loaded Q against published cases LQ-1 and LQ-3 (sources at the checks), a
+ * series resonator in closed form, an exact grid hit, and "no resonance".
  */
 import { analyzeChain } from '../../shared/engine/analyze';
 import { buildChain } from '../../shared/engine/core/build';

@@ -143,55 +143,78 @@ export function abcdToS(
  * ABCD from S-parameters (power waves) for reference impedances z01, z02 (z02 defaults to
  * z01); the inverse of {@link abcdToS}. Each point solves the port voltages and currents for
  * the two unit incident waves and forms ABCD = [V1 I1]·[V2 I2]⁻¹, which needs S21 ≠ 0.
+ * Input layout `[S11, S12, S21, S22]` per point, as abcdToS writes it.
  */
 export function sToAbcd(s: Float64Array, z01: RefImpedance, z02: RefImpedance = z01): Float64Array {
+  const out = new Float64Array(s.length);
+  for (let o = 0; o < s.length; o += ABCD_SLOTS) sToAbcdAt(s, o, z01, z02, out, o);
+  return out;
+}
+
+// Scratch of sToAbcdAt: columns for a = (1,0) and a = (0,1) (V1, I1, V2, I2out), N⁻¹, [V1 I1].
+const sm = new Float64Array(16);
+const sInv = new Float64Array(8);
+const sLeft = new Float64Array(8);
+
+/**
+ * One point of {@link sToAbcd}: S at s[so … so+7] (`[S11, S12, S21, S22]`) to ABCD at
+ * out[oo … oo+7]. The one S → ABCD conversion of the engine: measured two-ports use it too.
+ * `out` may be `s` itself.
+ */
+export function sToAbcdAt(
+  s: Float64Array,
+  so: number,
+  z01: RefImpedance,
+  z02: RefImpedance,
+  out: Float64Array,
+  oo: number,
+): void {
   const [r1, x1] = refParts(z01);
   const [r2, x2] = refParts(z02);
   const q1 = Math.sqrt(r1);
   const q2 = Math.sqrt(r2);
-  const n = s.length / ABCD_SLOTS;
-  const out = new Float64Array(s.length);
-  const m = new Float64Array(16); // columns for a = (1,0) and a = (0,1): V1, I1, V2, I2out
-  const inv = new Float64Array(8);
-  const left = new Float64Array(8);
-  for (let i = 0; i < n; i++) {
-    const o = 8 * i;
-    for (let col = 0; col < 2; col++) {
-      // incident waves a1, a2 and reflected b = S·a
-      const a1 = col === 0 ? 1 : 0;
-      const a2 = col === 0 ? 0 : 1;
-      const b1r = s[o + 2 * col], b1i = s[o + 2 * col + 1]; // prettier-ignore
-      const b2r = s[o + 4 + 2 * col], b2i = s[o + 5 + 2 * col]; // prettier-ignore
-      // V = (Z0*·a + Z0·b)/√R0, I(into port) = (a − b)/√R0
-      const v1r = (r1 * a1 + r1 * b1r - x1 * b1i) / q1;
-      const v1i = (-x1 * a1 + r1 * b1i + x1 * b1r) / q1;
-      const v2r = (r2 * a2 + r2 * b2r - x2 * b2i) / q2;
-      const v2i = (-x2 * a2 + r2 * b2i + x2 * b2r) / q2;
-      const p = 8 * col;
-      m[p] = v1r;
-      m[p + 1] = v1i;
-      m[p + 2] = (a1 - b1r) / q1;
-      m[p + 3] = -b1i / q1;
-      m[p + 4] = v2r;
-      m[p + 5] = v2i;
-      // the ABCD convention takes the current out of port 2
-      m[p + 6] = -(a2 - b2r) / q2;
-      m[p + 7] = b2i / q2;
-    }
-    // N = [[V2a, V2b], [I2a, I2b]]; ABCD = [[V1a, V1b], [I1a, I1b]] · N⁻¹
-    const nAr = m[4], nAi = m[5], nBr = m[12], nBi = m[13]; // prettier-ignore
-    const nCr = m[6], nCi = m[7], nDr = m[14], nDi = m[15]; // prettier-ignore
-    const detR = nAr * nDr - nAi * nDi - (nBr * nCr - nBi * nCi);
-    const detI = nAr * nDi + nAi * nDr - (nBr * nCi + nBi * nCr);
-    // N⁻¹ = [[nD, −nB], [−nC, nA]] / det
-    cdiv(nDr, nDi, detR, detI, inv, 0);
-    cdiv(-nBr, -nBi, detR, detI, inv, 2);
-    cdiv(-nCr, -nCi, detR, detI, inv, 4);
-    cdiv(nAr, nAi, detR, detI, inv, 6);
-    left.set([m[0], m[1], m[8], m[9], m[2], m[3], m[10], m[11]]);
-    cascade(left, 0, inv, 0, out, o);
+  const m = sm;
+  for (let col = 0; col < 2; col++) {
+    // incident waves a1, a2 and reflected b = S·a
+    const a1 = col === 0 ? 1 : 0;
+    const a2 = col === 0 ? 0 : 1;
+    const b1r = s[so + 2 * col], b1i = s[so + 2 * col + 1]; // prettier-ignore
+    const b2r = s[so + 4 + 2 * col], b2i = s[so + 5 + 2 * col]; // prettier-ignore
+    // V = (Z0*·a + Z0·b)/√R0, I(into port) = (a − b)/√R0
+    const v1r = (r1 * a1 + r1 * b1r - x1 * b1i) / q1;
+    const v1i = (-x1 * a1 + r1 * b1i + x1 * b1r) / q1;
+    const v2r = (r2 * a2 + r2 * b2r - x2 * b2i) / q2;
+    const v2i = (-x2 * a2 + r2 * b2i + x2 * b2r) / q2;
+    const p = 8 * col;
+    m[p] = v1r;
+    m[p + 1] = v1i;
+    m[p + 2] = (a1 - b1r) / q1;
+    m[p + 3] = -b1i / q1;
+    m[p + 4] = v2r;
+    m[p + 5] = v2i;
+    // the ABCD convention takes the current out of port 2
+    m[p + 6] = -(a2 - b2r) / q2;
+    m[p + 7] = b2i / q2;
   }
-  return out;
+  // N = [[V2a, V2b], [I2a, I2b]]; ABCD = [[V1a, V1b], [I1a, I1b]] · N⁻¹
+  const nAr = m[4], nAi = m[5], nBr = m[12], nBi = m[13]; // prettier-ignore
+  const nCr = m[6], nCi = m[7], nDr = m[14], nDi = m[15]; // prettier-ignore
+  const detR = nAr * nDr - nAi * nDi - (nBr * nCr - nBi * nCi);
+  const detI = nAr * nDi + nAi * nDr - (nBr * nCi + nBi * nCr);
+  // N⁻¹ = [[nD, −nB], [−nC, nA]] / det
+  cdiv(nDr, nDi, detR, detI, sInv, 0);
+  cdiv(-nBr, -nBi, detR, detI, sInv, 2);
+  cdiv(-nCr, -nCi, detR, detI, sInv, 4);
+  cdiv(nAr, nAi, detR, detI, sInv, 6);
+  sLeft[0] = m[0];
+  sLeft[1] = m[1];
+  sLeft[2] = m[8];
+  sLeft[3] = m[9];
+  sLeft[4] = m[2];
+  sLeft[5] = m[3];
+  sLeft[6] = m[10];
+  sLeft[7] = m[11];
+  cascade(sLeft, 0, sInv, 0, out, oo);
 }
 
 /** Z-parameters `[z11, z12, z21, z22]` from ABCD (needs C ≠ 0, e.g. not a bare series element). */

@@ -21,7 +21,7 @@ import { MIXER } from './mixer';
 import { withPlausibleRanges } from './plausibility';
 import { MEASURED_ANTENNA, RESISTIVE_GENERATOR, SHORT_MONOPOLE } from './sources';
 
-export { measuredTwoPort, sToAbcd } from './measured-two-port';
+export { measuredTwoPort } from './measured-two-port';
 export { parseTable, interpolate } from './measured-data';
 export { gmForStatedGain, statedGainForGm } from './active-common';
 export { mixerLoFrequency, mixerTranslate } from './mixer';

@@ -6,43 +6,7 @@ import { StageParameterError } from '../errors';
 import type { AbcdFn, MeasuredNetwork, StageDefinition } from '../types';
 import { enumParam, numParam, readParams } from './common';
 import { interpolate, parseTable, sTableFromNetwork, type SampleTable } from './measured-data';
-import { cdiv, cmul } from './primitives';
-
-/**
- * Standard S → ABCD conversion for a real reference z0:
- * A = ((1+S11)(1−S22) + S12·S21)/(2·S21), B = z0·((1+S11)(1+S22) − S12·S21)/(2·S21),
- * C = ((1−S11)(1−S22) − S12·S21)/(2·S21·z0), D = ((1−S11)(1+S22) + S12·S21)/(2·S21).
- * s holds [S11re, S11im, S21re, S21im, S12re, S12im, S22re, S22im] at s[so..so+7].
- */
-export function sToAbcd(
-  s: Float64Array,
-  so: number,
-  z0: number,
-  out: Float64Array,
-  o: number,
-): void {
-  const s11r = s[so];
-  const s11i = s[so + 1];
-  const s21r = s[so + 2];
-  const s21i = s[so + 3];
-  const s12r = s[so + 4];
-  const s12i = s[so + 5];
-  const s22r = s[so + 6];
-  const s22i = s[so + 7];
-  // x = S12·S21, computed before `out` is written (s and out may be the same array).
-  const xr = s12r * s21r - s12i * s21i;
-  const xi = s12r * s21i + s12i * s21r;
-  const tr = 2 * s21r;
-  const ti = 2 * s21i;
-  cmul(1 + s11r, s11i, 1 - s22r, -s22i, out, o);
-  cdiv(out[o] + xr, out[o + 1] + xi, tr, ti, out, o);
-  cmul(1 + s11r, s11i, 1 + s22r, s22i, out, o + 2);
-  cdiv(z0 * (out[o + 2] - xr), z0 * (out[o + 3] - xi), tr, ti, out, o + 2);
-  cmul(1 - s11r, -s11i, 1 - s22r, -s22i, out, o + 4);
-  cdiv((out[o + 4] - xr) / z0, (out[o + 5] - xi) / z0, tr, ti, out, o + 4);
-  cmul(1 - s11r, -s11i, 1 + s22r, s22i, out, o + 6);
-  cdiv(out[o + 6] + xr, out[o + 7] + xi, tr, ti, out, o + 6);
-}
+import { sToAbcdAt } from '../core/abcd';
 
 /** ABCD over frequency of a measured two-port: the interface the data-file reader feeds. */
 export function measuredTwoPort(net: MeasuredNetwork): AbcdFn {
@@ -60,9 +24,16 @@ function abcdFromTable(table: SampleTable, z0: number): AbcdFn {
     }
   }
   const s = new Float64Array(8);
+  const rows = new Float64Array(8);
   return (f, out, o) => {
+    // The table holds [S11, S21, S12, S22] (the Touchstone 1.x order); the conversion
+    // reads S in row order [S11, S12, S21, S22].
     interpolate(table, f, s, 0);
-    sToAbcd(s, 0, z0, out, o);
+    rows.set(s.subarray(0, 2), 0);
+    rows.set(s.subarray(4, 6), 2);
+    rows.set(s.subarray(2, 4), 4);
+    rows.set(s.subarray(6, 8), 6);
+    sToAbcdAt(rows, 0, z0, z0, out, o);
   };
 }
 
