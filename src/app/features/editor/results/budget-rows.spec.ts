@@ -106,6 +106,20 @@ describe('budget-rows', () => {
       expect(row('p1db-cum').cells[2]).toBe('-4.2 dBm');
     });
 
+    it('should show noise temperatures beside the noise figures', () => {
+      expect(row('te-stage').cells[0]).toBe(NO_VALUE);
+      expect(row('te-out').cells[1]).toBe('290.0 K');
+    });
+
+    it('should give VSWR and return loss only against a chosen reference', () => {
+      expect(row('vswr').cells[0]).toBe('1.02 : 1');
+      expect(row('return-loss').cells[0]).toBe('40.0 dB re 50 Ω');
+      expect(row('vswr').cells[4]).toBe('no reference set');
+      expect(row('return-loss').cells[4]).toBe('no reference set');
+      expect(row('level-reference').cells[4]).toBe('no reference set');
+      expect(row('level-volts').cells[2]).toBe('1 mV rms');
+    });
+
     it('should show the frequency at each node', () => {
       expect(row('frequency').cells).toEqual(['10 MHz', '10 MHz', '10 MHz', '455 kHz', '455 kHz']);
     });

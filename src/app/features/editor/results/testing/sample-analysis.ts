@@ -63,8 +63,11 @@ function node(index: number, after: string, overrides: Partial<NodeReport>): Nod
     transducerGainDb: 0,
     mismatch: 1,
     mismatchLossDb: 0,
+    matchReturnLossDb: 40,
+    referenceOhm: 50,
     returnLossDb: 40,
     vswr: 1.02,
+    referenceLevelDbm: -50,
     ...overrides,
   };
 }
@@ -89,6 +92,9 @@ function stage(
     transducerGainDb: 0,
     noiseFigureDb: 0,
     cumulativeNoiseFigureDb: 0,
+    noiseTemperatureK: 0,
+    cumulativeNoiseTemperatureK: 0,
+    outputNoiseTemperatureK: 290,
     cumulativeGainDb: 0,
     iip3Dbm: null,
     cumulativeIip3Dbm: null,
@@ -126,6 +132,10 @@ export function sampleResult(): AnalysisResult {
       node(2, 'LNA', { vPeak: 1.41e-3, vRms: 1e-3, stepUp: 705, stepUpDb: 56.97 }),
       node(3, 'Mixer', { vPeak: 2.82e-3, vRms: 2e-3, stepUp: 1410, stepUpDb: 62.98 }),
       node(4, 'IF filter', {
+        referenceOhm: null,
+        returnLossDb: null,
+        vswr: null,
+        referenceLevelDbm: null,
         zIn: { re: 5000, im: -1200 },
         vPeak: 2.5e-3,
         vRms: 1.77e-3,
@@ -221,6 +231,9 @@ export function sampleResult(): AnalysisResult {
     levels: {
       noiseFloorDbm: -134,
       noiseFigureDb: 3.31,
+      noiseTemperatureK: 330.8,
+      sourceNoiseTemperatureK: 290,
+      systemNoiseTemperatureK: 620.8,
       totalGainDb: 22.2,
       sensitivityDbm: -120.7,
       sensitivityEmfRms: 0.41e-6,
