@@ -17,7 +17,6 @@ const dec3 = (v: number) => (Number.isFinite(v) ? v.toFixed(3) : DASH);
 
 /** Column width of every number column: wide enough for "-1.23456e+308" and the headers. */
 const WIDTH = 14;
-const right = (cell: string, width: number) => ' '.repeat(Math.max(0, width - cell.length)) + cell;
 
 /** The sweep as a table: frequency, step-up at every node (dB), and Zin. */
 export function writeSweepTable(sweep: SweepReport, write: Write): void {
@@ -27,29 +26,28 @@ export function writeSweepTable(sweep: SweepReport, write: Write): void {
     'Zin re (Ω)',
     'Zin im (Ω)',
   ];
-  const widths = header.map((h) => Math.max(WIDTH, h.length));
-  const line = (cells: string[]) =>
-    cells
-      .map((c, k) =>
-        k === 0 ? c + ' '.repeat(Math.max(0, widths[0] - c.length)) : right(c, widths[k]),
-      )
+  const w = header.map((h) => Math.max(WIDTH, h.length));
+  write(
+    header
+      .map((h, k) => (k === 0 ? h.padEnd(w[0]) : h.padStart(w[k])))
       .join('  ')
-      .trimEnd();
-  write(line(header) + '\n');
+      .trimEnd() + '\n',
+  );
   const P = sweep.freqsHz.length;
+  const nodes = sweep.nodes;
+  const zk = nodes.length + 1;
   for (let i0 = 0; i0 < P; i0 += CHUNK) {
-    const rows: string[] = [];
+    let text = '';
     for (let i = i0; i < Math.min(P, i0 + CHUNK); i++) {
-      rows.push(
-        line([
-          formatNumber(sweep.freqsHz[i], 9),
-          ...sweep.nodes.map((n) => dec3(n.stepUpDb[i])),
-          formatNumber(sweep.zIn.re[i], 6),
-          formatNumber(sweep.zIn.im[i], 6),
-        ]),
-      );
+      // One string per row, padded in place: no per-cell arrays on a 100,000-row table.
+      let row = formatNumber(sweep.freqsHz[i], 9).padEnd(w[0]);
+      for (let k = 0; k < nodes.length; k++)
+        row += '  ' + dec3(nodes[k].stepUpDb[i]).padStart(w[k + 1]);
+      row += '  ' + formatNumber(sweep.zIn.re[i], 6).padStart(w[zk]);
+      row += '  ' + formatNumber(sweep.zIn.im[i], 6).padStart(w[zk + 1]);
+      text += row + '\n';
     }
-    write(rows.join('\n') + '\n');
+    write(text);
   }
 }
 
