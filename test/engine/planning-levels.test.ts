@@ -187,7 +187,7 @@ describe('off-channel intermodulation, worked by hand for two stages', () => {
   });
 
   it('reduces to the in-band cascade 1/IIP3 = 1/IIP3₁ + G₁/IIP3₂ for close tones', () => {
-    // In band (no selectivity): 1/IIP3 = 1/3.162 mW + 100/0.3162 mW (the cascade formula of IP3-1).
+    // In band (no selectivity): 1/IIP3 = 1/3.162 mW + 100/0.3162 mW (the usual cascade formula, common practice).
     const inBand = -db10(1 / 10 ** (5 / 10) + 100 / 10 ** (-5 / 10));
     const res = analyzeChain(doc(1), { sweep: false, plan: true });
     expect(res.plan!.intermod.effectiveIip3Dbm!).toBeCloseTo(inBand, 4);

@@ -18,8 +18,9 @@ describe('spurFrequencies: the AM broadcast superhet (1000 kHz, IF 455 kHz, LO h
   const at = (kind: string) => list.filter((s) => s.kind === kind).map((s) => s.rfHz);
 
   it('puts the image at 1910 kHz', () => {
-    // Published: image at f + 2·fIF = 1910 kHz (IMG-1, a textbook
-    // exercise on image-frequency rejection in an AM superhet).
+    // Published: image at f + 2·fIF = 1910 kHz for 1000 kHz and a 455 kHz IF (a textbook
+    // exercise on image rejection in an AM superhet, worked in FOSSEE's Python companion to
+    // "Analog and Digital Communication", chapter 4).
     expect(at('image')).toEqual([expect.closeTo(1910e3, 3)]);
   });
 
