@@ -54,7 +54,8 @@ import { SessionStore } from '../../core/session/session.store';
           </ng-container>
           <ng-container matColumnDef="email">
             <th mat-header-cell *matHeaderCellDef scope="col">E-mail</th>
-            <td mat-cell *matCellDef="let u">{{ u.email }}</td>
+            <!-- A deleted account's address is erased: no placeholder address to read. -->
+            <td mat-cell *matCellDef="let u">{{ u.deleted ? '—' : u.email }}</td>
           </ng-container>
           <ng-container matColumnDef="siteRole">
             <th mat-header-cell *matHeaderCellDef scope="col">Site role</th>
