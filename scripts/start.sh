@@ -46,11 +46,16 @@ if [ ! -s .data/session-secret ]; then
   chmod 600 .data/session-secret
 fi
 
+# Production runs compiled JavaScript: the server and its analysis thread as esbuild bundles.
+step "Bundling the server (esbuild)"
+node --import tsx scripts/build-server.ts
+
 step "Starting Chainwright"
 export PORT CW_SMTP_PORT="$SMTP_PORT" CW_MAIL_DIR="$CW_REPO/.data/mail"
 export CW_SESSION_SECRET
 CW_SESSION_SECRET="$(cat .data/session-secret)"
-start_node_ts server/main.ts
+node --enable-source-maps dist/server/main.js &
+NODE_PID=$!
 if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
   die "the server did not answer on port $PORT (see its messages above)"
 fi

@@ -1,13 +1,20 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
-import express, { type Express } from 'express';
+import compression from 'compression';
+import express, { type Express, type Request, type Response } from 'express';
 import helmet from 'helmet';
 import { RequestContext } from '@mikro-orm/core';
 import { chainExportRouter, exportRouter } from './analysis/export-routes';
 import { analysisRouter, chainAnalysisRouter } from './analysis/routes';
 import { designRouter } from './design/routes';
 import { authRouter } from './auth/routes';
-import { createCsrf, createPassport, sessionMiddleware, signInLimiter } from './auth/session';
+import {
+  createCsrf,
+  createPassport,
+  rollSession,
+  sessionMiddleware,
+  signInLimiter,
+} from './auth/session';
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
 import { dataFilesRouter } from './files/routes';
 import { apiNotFound, errorHandler } from './common/error-handler';
@@ -59,16 +66,28 @@ export function createApp(services: Services): Express {
       strictTransportSecurity: config.cookieSecure,
     }),
   );
+  // Every answer compressed when the client accepts it (an analysis with its sweep to under
+  // half, the client's scripts to about a quarter); not event streams, which must not wait
+  // in a compressor's buffer.
+  app.use(compression({ filter: compressible }));
   app.use(jsonBody(config.bodyLimitBytes), rejectNulCharacters);
   // One entity manager per request, so identity maps never leak between requests.
   app.use((_req, _res, next) => RequestContext.create(orm.em, next));
 
+  // API answers are per user and per moment: no cache (the browser's or a proxy's) keeps one.
+  app.use('/api', noStore);
   // Health answers before the session store, which needs the database it is checking.
   app.get('/api/health', healthHandler(orm));
 
   const passport = createPassport(em);
   const csrf = createCsrf();
-  app.use('/api', sessionMiddleware(services), passport.session(), csrf.csrfSynchronisedProtection);
+  app.use(
+    '/api',
+    sessionMiddleware(services),
+    rollSession,
+    passport.session(),
+    csrf.csrfSynchronisedProtection,
+  );
 
   app.use('/api/auth', authRouter({ em, passport, csrf, signInLimiter: signInLimiter(services) }));
   app.use('/api/me', meRouter(em));
@@ -88,6 +107,16 @@ export function createApp(services: Services): Express {
   serveClient(app, config.clientDir);
   app.use(errorHandler);
   return app;
+}
+
+function compressible(req: Request, res: Response): boolean {
+  const type = String(res.getHeader('Content-Type') ?? '');
+  return !type.startsWith('text/event-stream') && compression.filter(req, res);
+}
+
+function noStore(_req: Request, res: Response, next: () => void): void {
+  res.setHeader('Cache-Control', 'no-store');
+  next();
 }
 
 /** The built Angular app, with every other GET answered by index.html (client-side routes). */

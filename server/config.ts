@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { LogOptions } from './common/logger';
 
@@ -54,7 +55,18 @@ export interface ServerConfig {
   pruneSessions: boolean;
 }
 
-export const REPO_ROOT = path.resolve(__dirname, '..');
+/**
+ * The repository (the folder with package.json): two levels up from the sources, one from
+ * the bundle in dist/server, so it is looked for rather than assumed.
+ */
+function findRepoRoot(from: string): string {
+  for (let dir = from; ; dir = path.dirname(dir)) {
+    if (existsSync(path.join(dir, 'package.json'))) return dir;
+    if (path.dirname(dir) === dir) return path.resolve(from, '..');
+  }
+}
+
+export const REPO_ROOT = findRepoRoot(__dirname);
 
 const intFrom = (value: string | undefined, fallback: number) => {
   const n = Number(value);

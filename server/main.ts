@@ -1,6 +1,7 @@
 import type { Server } from 'node:http';
 import path from 'node:path';
 import type { SMTPServer } from 'smtp-server';
+import { startAnalysisPool, stopAnalysisPool } from './analysis/analysis-pool';
 import { createApp } from './app';
 import { ConfigError, configFromEnv, REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
@@ -21,6 +22,8 @@ async function main(): Promise<void> {
     );
   }
   const services = await initServices(config);
+  // Analysis threads start now, not on the first request.
+  startAnalysisPool();
   const app = createApp(services);
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, (err?: Error) =>
@@ -40,6 +43,7 @@ async function main(): Promise<void> {
     server.closeAllConnections();
     await new Promise<void>((resolve) => server.close(() => resolve()));
     if (smtp) await new Promise<void>((resolve) => smtp.close(() => resolve()));
+    await stopAnalysisPool();
     await services.close();
     process.exit(0);
   };

@@ -2,12 +2,13 @@ import path from 'node:path';
 import { defineConfig, type Options } from '@mikro-orm/postgresql';
 import { Migrator } from '@mikro-orm/migrations';
 import { ENTITIES } from './common/entities';
+import { REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
 
 /** Table of the session store (connect-pg-simple); created by a migration, not by entities. */
 export const SESSION_TABLE = 'user_session';
 
-const repoRoot = path.resolve(__dirname, '..');
+const repoRoot = REPO_ROOT;
 
 /**
  * ORM options for a database URL. Also the config file the MikroORM CLI loads

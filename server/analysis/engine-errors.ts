@@ -1,17 +1,6 @@
 import { ChainValidationError, StageParameterError } from '../../shared/engine/errors';
 import { HttpError } from '../common/errors';
 
-/** 503 for routes that need a part of the engine this server could not load. */
-export class EngineUnavailableError extends HttpError {
-  constructor() {
-    super(
-      503,
-      'engine-unavailable',
-      'the analysis engine is not available on this server; see its log',
-    );
-  }
-}
-
 /**
  * The engine's refusal of a chain as a 422 `invalid-chain` with the issues as details, or
  * null when `err` is something else (a fault, passed on as it is).

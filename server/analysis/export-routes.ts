@@ -2,35 +2,13 @@ import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { exportQuerySchema, exportRequestSchema, type ExportFormat } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
-import type * as SpiceWriter from '../../shared/engine/spice/netlist';
-import type * as TouchstoneWriter from '../../shared/io/chain-touchstone';
+import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
+import { chainToTouchstone, TouchstoneExportError } from '../../shared/io/chain-touchstone';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { parseOr422 } from '../common/validate';
-import { EngineUnavailableError, invalidChainError } from './engine-errors';
-
-// Loaded on first use with non-literal specifiers, as the engine is (engine.ts): the server
-// starts, and the chain-file export works, while the writers are missing or broken.
-const SPICE_MODULE = '../../shared/engine/spice/netlist';
-const TOUCHSTONE_MODULE = '../../shared/io/chain-touchstone';
-
-interface Writers {
-  spice: typeof SpiceWriter;
-  touchstone: typeof TouchstoneWriter;
-}
-let writers: Promise<Writers | null> | undefined;
-
-function loadWriters(): Promise<Writers | null> {
-  writers ??= Promise.all([import(SPICE_MODULE), import(TOUCHSTONE_MODULE)]).then(
-    ([spice, touchstone]: [typeof SpiceWriter, typeof TouchstoneWriter]) => ({ spice, touchstone }),
-    (err: unknown) => {
-      console.warn(`[server] the export writers could not be loaded: ${String(err)}`);
-      return null;
-    },
-  );
-  return writers;
-}
+import { invalidChainError } from './engine-errors';
 
 /** A stage the asked form cannot express (a mixer in SPICE or Touchstone, an IF block in SPICE). */
 class CannotExportError extends HttpError {
@@ -73,27 +51,22 @@ async function exportFile(
       extension: 'chain.json',
     };
   }
-  const w = await loadWriters();
-  if (!w) throw new EngineUnavailableError();
   const dataFiles = await loadDataFiles(em, doc, workspaceId);
   const withFiles = dataFiles ? { dataFiles } : {};
   try {
     return format === 'spice'
       ? {
-          text: w.spice.chainToSpice(doc, withFiles),
+          text: chainToSpice(doc, withFiles),
           contentType: 'text/plain; charset=utf-8',
           extension: 'cir',
         }
       : {
-          text: w.touchstone.chainToTouchstone(doc, { z0: z0 ?? 50, ...withFiles }),
+          text: chainToTouchstone(doc, { z0: z0 ?? 50, ...withFiles }),
           contentType: 'text/plain; charset=utf-8',
           extension: 's2p',
         };
   } catch (err) {
-    if (
-      err instanceof w.spice.SpiceExportError ||
-      err instanceof w.touchstone.TouchstoneExportError
-    ) {
+    if (err instanceof SpiceExportError || err instanceof TouchstoneExportError) {
       throw new CannotExportError(err.stageId, err.message);
     }
     throw invalidChainError(err) ?? err;

@@ -1,38 +1,49 @@
 import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { z } from 'zod';
+import { catalogue } from '../../shared/engine';
 import { analysisRequestSchema } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
+import {
+  PLOTTED_TRACES,
+  sweepTracesQuerySchema,
+  type SweepTrace,
+} from '../../shared/schema/sweep-columns';
+import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
-import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { parseOr422 } from '../common/validate';
-import { loadEngine, type EngineApi } from './engine';
-import { EngineUnavailableError, invalidChainError } from './engine-errors';
-
-async function engineOr503(): Promise<EngineApi> {
-  const engine = await loadEngine();
-  if (!engine) throw new EngineUnavailableError();
-  return engine;
-}
+import { assertCanRead, loadDataFiles } from '../files/data-files';
+import { assertWithinBudget, runOnPool } from './analysis-pool';
 
 /**
- * Runs the engine with the data files the stages refer to (from `workspaceId` only) and maps
- * its validation errors to 422 with the issues as details.
+ * Runs the analysis on the thread pool with the data files the stages refer to (from
+ * `workspaceId` only) and sends the answer the thread serialised; the engine's refusal is a
+ * 422 `invalid-chain` with its issues as details.
  */
 async function analyze(
   em: EntityManager,
   res: Response,
   doc: ChainDocument,
-  sweep: boolean,
+  traces: readonly SweepTrace[],
+  nodes: readonly number[] | undefined,
   workspaceId: string | undefined,
   plan: boolean | 'full' = false,
 ) {
-  const engine = await engineOr503();
+  assertWithinBudget(doc);
   const dataFiles = await loadDataFiles(em, doc, workspaceId);
-  try {
-    res.json(await engine.analyzeChain(doc, { sweep, plan, ...(dataFiles ? { dataFiles } : {}) }));
-  } catch (err) {
-    throw invalidChainError(err) ?? err;
+  const outcome = await runOnPool({
+    document: doc,
+    ...(dataFiles ? { dataFiles } : {}),
+    want: 'answer',
+    traces,
+    ...(nodes ? { nodes } : {}),
+    plan,
+  });
+  if (outcome.kind === 'refused') {
+    throw new HttpError(422, 'invalid-chain', outcome.message, outcome.details);
   }
+  if (outcome.kind !== 'answer') throw new Error(`analysis thread answered ${outcome.kind}`);
+  res.type('application/json').send(outcome.json);
 }
 
 /**
@@ -41,28 +52,48 @@ async function analyze(
  */
 export function analysisRouter(em: EntityManager): Router {
   const router = Router();
+  // The catalogue changes only with a deploy: build its JSON once.
+  const catalogueJson = JSON.stringify(catalogue());
   // requireUser per route: this router sits at /api, where a router-wide guard would
   // answer 401 for unknown paths that deserve a 404.
   router.post('/analysis', requireUser, async (req, res) => {
     const body = parseOr422(analysisRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-    await analyze(em, res, body.document, body.sweep, body.workspaceId, body.plan);
+    const traces = body.sweep ? (body.traces ?? PLOTTED_TRACES) : [];
+    await analyze(em, res, body.document, traces, body.nodes, body.workspaceId, body.plan);
   });
-  router.get('/catalogue', requireUser, async (_req, res) => {
-    res.json((await engineOr503()).catalogue());
+  router.get('/catalogue', requireUser, (_req, res) => {
+    res.type('application/json').send(catalogueJson);
   });
   return router;
 }
 
-/** GET /api/chains/:id/analysis?sweep=1: the stored chain, for viewers and up. */
+const tracesQuery = z.object({ traces: sweepTracesQuerySchema });
+
+/**
+ * GET /api/chains/:id/analysis?sweep=1&traces=stepUp,zIn: the stored chain, for viewers
+ * and up.
+ */
 export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/analysis', chainRole(em, 'viewer'), async (req, res) => {
     const sweep = req.query.sweep === '1' || req.query.sweep === 'true';
     const plan =
       req.query.plan === 'full' ? 'full' : req.query.plan === '1' || req.query.plan === 'true';
+    const traces =
+      req.query.traces === undefined
+        ? PLOTTED_TRACES
+        : parseOr422(tracesQuery, { traces: req.query.traces }, 'query').traces;
     const chain = res.locals.chain!;
-    await analyze(em, res, chain.document, sweep, chain.workspace.id, plan);
+    await analyze(
+      em,
+      res,
+      chain.document,
+      sweep ? traces : [],
+      undefined,
+      chain.workspace.id,
+      plan,
+    );
   });
   return router;
 }

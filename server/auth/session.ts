@@ -19,7 +19,23 @@ import { CSRF_ERROR_CODE } from './csrf-code';
 export const SESSION_COOKIE = 'cw_session';
 const SESSION_DAYS = 14;
 
-/** Session middleware backed by PostgreSQL. */
+/** How long a session lasts after it was last rolled, ms. */
+export const SESSION_MS = SESSION_DAYS * 24 * 3600 * 1000;
+/** A session in use rolls forward at most once in this time, ms. */
+export const SESSION_ROLL_MS = 24 * 3600 * 1000;
+
+declare module 'express-session' {
+  interface SessionData {
+    /** When the session last rolled forward (a change, so the store writes it). */
+    rolledAt?: number;
+  }
+}
+
+/**
+ * Session middleware backed by PostgreSQL. A request writes the session row only when the
+ * session changed (sign-in, CSRF token) or rolls (see `rollSession`), not on every request:
+ * no `rolling`, and the store's touch is off.
+ */
 export function sessionMiddleware(services: Services): RequestHandler {
   const PgStore = connectPgSimple(session);
   const { config } = services;
@@ -28,11 +44,12 @@ export function sessionMiddleware(services: Services): RequestHandler {
     secret: config.sessionSecret,
     resave: false,
     saveUninitialized: false,
-    rolling: true,
+    rolling: false,
     store: new PgStore({
       pool: services.sessionPool,
       tableName: SESSION_TABLE,
       schemaName: config.dbSchema,
+      disableTouch: true,
       // Jest must be able to exit: no pruning timer in tests.
       pruneSessionInterval: config.pruneSessions ? 15 * 60 : false,
     }),
@@ -40,10 +57,25 @@ export function sessionMiddleware(services: Services): RequestHandler {
       httpOnly: true,
       sameSite: 'lax',
       secure: config.cookieSecure,
-      maxAge: SESSION_DAYS * 24 * 3600 * 1000,
+      maxAge: SESSION_MS,
     },
   });
 }
+
+/**
+ * Rolls a stored session forward (14 days from now, cookie and row) once it is a day past
+ * its last roll: a session in daily use never expires, and a busy client costs one write
+ * a day instead of one per request.
+ */
+export const rollSession: RequestHandler = (req, _res, next) => {
+  const cookie = req.session?.cookie;
+  const left = cookie?.maxAge;
+  if (cookie && typeof left === 'number' && SESSION_MS - left > SESSION_ROLL_MS) {
+    req.session.touch();
+    req.session.rolledAt = Date.now();
+  }
+  next();
+};
 
 /**
  * A passport instance of the app's own (not the module-wide singleton) with the local

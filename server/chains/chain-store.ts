@@ -1,38 +1,13 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ChainDocument } from '../../shared/schema/chain';
-import { loadEngine } from '../analysis/engine';
+import { countFlags } from '../analysis/flag-count';
 import { ConflictError } from '../common/errors';
 import { lockReferencedDataFiles } from '../files/data-file-lock';
-import { loadDataFiles } from '../files/data-files';
 import type { User } from '../users/user.entity';
 import type { Workspace } from '../workspaces/workspace.entity';
 import { ChainSchema, type Chain } from './chain.entity';
 import { CHAIN_DTO_POPULATE } from './chain.repository';
 import { ChainRevisionSchema } from './revision.entity';
-
-/**
- * Flags of severity warning or error the engine finds in `doc` (no sweep). The count is a
- * convenience for the chain list: when the engine is missing or throws, it is 0 and the
- * save goes on (the document itself was validated by the schema before).
- */
-export async function countFlags(
-  em: EntityManager,
-  doc: ChainDocument,
-  workspaceId: string,
-): Promise<number> {
-  const engine = await loadEngine();
-  if (!engine) return 0;
-  try {
-    const dataFiles = await loadDataFiles(em, doc, workspaceId);
-    const result = await engine.analyzeChain(doc, {
-      sweep: false,
-      ...(dataFiles ? { dataFiles } : {}),
-    });
-    return result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error').length;
-  } catch {
-    return 0;
-  }
-}
 
 /** The columns copied from the document, for listing, search and sort. */
 function documentColumns(doc: ChainDocument) {

@@ -20,8 +20,11 @@ export const ChainSchema = defineEntity({
     description: p.text().default(''),
     f0Hz: p.double().$type<number>().fieldName('f0_hz'),
     stageCount: p.integer(),
-    /** Flags of severity warning or error found by the engine at the last save. */
-    flagCount: p.integer().default(0),
+    /**
+     * Flags of severity warning or error found by the engine at the last save; null when the
+     * chain could not be analysed then (shown as unknown, never as no flags).
+     */
+    flagCount: p.integer().nullable(),
     document: p.json<ChainDocument>(),
     version: p.integer().default(1),
     /** Set on a variant: the chain it was copied from, kept for comparison. */

@@ -19,7 +19,7 @@ export function toChainSummaryDto(c: Chain): ChainSummaryDto {
     description: c.description,
     f0Hz: Number(c.f0Hz),
     stageCount: c.stageCount,
-    flagCount: c.flagCount,
+    flagCount: c.flagCount ?? null,
     version: c.version,
     parentId: c.parent?.id ?? null,
     createdBy: c.createdBy.displayName,

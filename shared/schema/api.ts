@@ -12,6 +12,7 @@
  */
 import { z } from 'zod';
 import { chainDocumentSchema } from './chain';
+import { sweepTracesSchema } from './sweep-columns';
 
 export const ROLES = ['owner', 'editor', 'viewer'] as const;
 export type WorkspaceRole = (typeof ROLES)[number];
@@ -141,8 +142,11 @@ export interface ChainSummaryDto {
   description: string;
   f0Hz: number;
   stageCount: number;
-  /** Flags (warning + error) found by the analysis at the last save. */
-  flagCount: number;
+  /**
+   * Flags (warning + error) found by the analysis at the last save; null when the chain
+   * could not be analysed then (unknown).
+   */
+  flagCount: number | null;
   version: number;
   parentId: string | null;
   /** Chains that name this one as their parent (set by the workspace's chain list only). */
@@ -187,6 +191,13 @@ export const analysisRequestSchema = z.object({
    * figures, 'full' for the spur chart across the tuning range and the IF choice as well.
    */
   plan: z.union([z.boolean(), z.literal('full')]).default(false),
+  /**
+   * The sweep traces to send, in columns (`shared/schema/sweep-columns.ts`); default the
+   * plotted ones: step-up at every node, input impedance and return loss.
+   */
+  traces: sweepTracesSchema.optional(),
+  /** Send the per-node sweep traces for these node indices only (default: every node). */
+  nodes: z.array(z.number().int().min(0).max(1000)).max(200).optional(),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
 });

@@ -59,7 +59,7 @@ describe('creating', () => {
   it('should count the flags the engine finds at save time', async () => {
     // The fixture's detector loads its tank hard, which the engine flags.
     const chain = await create({ name: 'Flag count' });
-    const result = await analyzeChainForTest(chain.document);
+    const result = analyzeChainForTest(chain.document);
     const expected = result!.flags.filter(
       (f) => f.severity === 'warning' || f.severity === 'error',
     ).length;

@@ -1,8 +1,9 @@
 import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { Observable } from 'rxjs';
+import { map, Observable } from 'rxjs';
 import type { z } from 'zod';
 import type { AnalysisResult } from '../../../../shared/engine/types';
+import { analysisFromDto, type AnalysisDto } from '../../../../shared/schema/sweep-columns';
 import type {
   ChainDto,
   ChainFamilyDto,
@@ -66,12 +67,17 @@ export class ChainsApi {
     return this.http.get<ChainFamilyDto>(`/api/chains/${enc(chainId)}/family`, { context });
   }
 
-  /** The stored chain's analysis, with the frequency sweep and the receiver plan's figures. */
+  /**
+   * The stored chain's analysis, with the plotted sweep traces (sent in columns) and the
+   * receiver plan's figures.
+   */
   analysis(chainId: string, context?: HttpContext): Observable<AnalysisResult> {
-    return this.http.get<AnalysisResult>(`/api/chains/${enc(chainId)}/analysis`, {
-      params: { sweep: '1', plan: '1' },
-      context,
-    });
+    return this.http
+      .get<AnalysisDto>(`/api/chains/${enc(chainId)}/analysis`, {
+        params: { sweep: '1', plan: '1' },
+        context,
+      })
+      .pipe(map(analysisFromDto));
   }
 
   revisions(chainId: string): Observable<RevisionSummaryDto[]> {

@@ -1,4 +1,14 @@
-import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DOCUMENT,
+  computed,
+  effect,
+  inject,
+  input,
+  output,
+  signal,
+} from '@angular/core';
 import { MatTabsModule } from '@angular/material/tabs';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
@@ -14,6 +24,8 @@ import {
 } from './detail-rows';
 import { FlagsListComponent } from './flags-list.component';
 import { ResonanceTablesComponent } from './resonance-tables.component';
+import { PLOTLY_LOADER } from './plotly-loader';
+import { prefetchWhenIdle } from './plot-timing';
 import { ResultPlotsComponent } from './result-plots.component';
 import { SummaryPanelComponent } from './summary-panel.component';
 import { PlanViewComponent } from '../plan/plan-view.component';
@@ -46,6 +58,20 @@ export class AnalysisResultsComponent {
   readonly selectedStageId = input<string | null>(null);
   /** Emits the id of a stage the user picked from the results. */
   readonly stageSelected = output<string>();
+
+  constructor() {
+    // The plotting library is large: once a result with a sweep shows, fetch it while the
+    // browser is idle, so the Plots tab opens straight to drawing.
+    const load = inject(PLOTLY_LOADER);
+    const view = inject(DOCUMENT).defaultView;
+    let prefetched = false;
+    effect(() => {
+      const sweep = this.result()?.sweep;
+      if (prefetched || !sweep || sweep.freqsHz.length < 2) return;
+      prefetched = true;
+      prefetchWhenIdle(load, view);
+    });
+  }
 
   /** Kept across new results so an edit does not throw the user back to the first tab. */
   protected readonly tabIndex = signal(0);

@@ -14,6 +14,7 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import type { Config } from 'plotly.js-dist-min';
 import { PLOTLY_LOADER, type PlotlyApi } from './plotly-loader';
+import { measureFirstPlot } from './plot-timing';
 import type { PlotFigure } from './plot-traces';
 
 /** Plot heights are fixed so the page does not jump while Plotly loads. */
@@ -156,7 +157,10 @@ export class ResultPlotComponent {
       const drawing = plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG);
       drawing
         .then(
-          () => this.state.set('ready'),
+          () => {
+            measureFirstPlot();
+            this.state.set('ready');
+          },
           (error: unknown) => {
             this.failureText.set(error instanceof Error ? error.message : String(error));
             this.state.set('failed');

@@ -24,6 +24,7 @@ import {
 } from './plot-traces';
 import { themePalette } from './plot-theme';
 import { ResultPlotComponent } from './result-plot.component';
+import { markPlotsOpened } from './plot-timing';
 
 /** The sweep plots: step-up at chosen nodes, input impedance, return loss and its chart. */
 @Component({
@@ -153,6 +154,8 @@ export class ResultPlotsComponent {
   });
 
   constructor() {
+    // Created when the Plots tab opens (its content is lazy): the first-plot clock starts.
+    markPlotsOpened();
     // The shell switches themes with a class on <html>; follow it.
     const view = this.page.defaultView;
     if (view && 'MutationObserver' in view) {

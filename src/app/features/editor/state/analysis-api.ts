@@ -1,8 +1,13 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
-import { Observable, shareReplay } from 'rxjs';
+import { map, Observable, shareReplay } from 'rxjs';
 import type { AnalysisResult, StageTypeInfo } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
+import {
+  analysisFromDto,
+  PLOTTED_TRACES,
+  type AnalysisDto,
+} from '../../../../../shared/schema/sweep-columns';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
 
 /** The stage catalogue and the analysis endpoint. */
@@ -18,13 +23,19 @@ export class AnalysisApi {
     return this.catalogue$;
   }
 
-  /** The editor shows a refused chain (422) in its own banner, so no snackbar for it. */
+  /**
+   * The analysis with the sweep traces the plots draw (the server sends them in columns; the
+   * node phases stay on the server). The editor shows a refused chain (422) in its own
+   * banner, so no snackbar for it.
+   */
   analyse(document: ChainDocument, workspaceId?: string): Observable<AnalysisResult> {
     // The workspace lets the server find the data files the stages refer to.
-    return this.http.post<AnalysisResult>(
-      '/api/analysis',
-      { document, sweep: true, ...(workspaceId ? { workspaceId } : {}) },
-      { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
-    );
+    return this.http
+      .post<AnalysisDto>(
+        '/api/analysis',
+        { document, sweep: true, traces: PLOTTED_TRACES, ...(workspaceId ? { workspaceId } : {}) },
+        { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
+      )
+      .pipe(map(analysisFromDto));
   }
 }

@@ -2,6 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
+import { PLOTTED_TRACES, type SweepColumnsDto } from '../../../../../shared/schema/sweep-columns';
 import { sampleDocument } from '../testing/catalogue-fixture';
 import { ANALYSIS_DEBOUNCE_MS, AnalysisRunner, EDIT_TO_RENDER_MEASURE } from './analysis-runner';
 
@@ -33,7 +34,7 @@ describe('AnalysisRunner', () => {
       jest.advanceTimersByTime(1);
       const req = http.expectOne('/api/analysis');
       expect(req.request.method).toBe('POST');
-      expect(req.request.body).toEqual({ document: doc('a'), sweep: true });
+      expect(req.request.body).toEqual({ document: doc('a'), sweep: true, traces: PLOTTED_TRACES });
       req.flush(result(1));
     });
 
@@ -41,8 +42,37 @@ describe('AnalysisRunner', () => {
       runner.request(doc('a'), 'w1');
       jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
       const req = http.expectOne('/api/analysis');
-      expect(req.request.body).toEqual({ document: doc('a'), sweep: true, workspaceId: 'w1' });
+      expect(req.request.body).toEqual({
+        document: doc('a'),
+        sweep: true,
+        traces: PLOTTED_TRACES,
+        workspaceId: 'w1',
+      });
       req.flush(result(1));
+    });
+
+    it('should read the sweep the server sends in columns into per-node series', () => {
+      const columns: SweepColumnsDto = {
+        digits: 6,
+        freqsHz: [1e6, 2e6, 3e6],
+        nodes: [0, 2],
+        stepUpDb: [
+          [0, -1, -2],
+          [3, 4.5, 6],
+        ],
+        zInRe: [50, 51, 52],
+        zInIm: [1, 0, -1],
+        returnLossDb: [20, 30, 25],
+      };
+      send('a').flush({ ...result(2e6), sweep: columns });
+      const sweep = runner.result()!.sweep!;
+      expect(sweep.freqsHz).toEqual([1e6, 2e6, 3e6]);
+      expect(sweep.nodes).toEqual([
+        { index: 0, stepUpDb: [0, -1, -2], phaseDeg: [] },
+        { index: 2, stepUpDb: [3, 4.5, 6], phaseDeg: [] },
+      ]);
+      expect(sweep.zIn).toEqual({ re: [50, 51, 52], im: [1, 0, -1] });
+      expect(sweep.returnLossDb).toEqual([20, 30, 25]);
     });
 
     it('should send only the last of several quick edits', () => {

@@ -1,0 +1,29 @@
+/**
+ * Bundles the server for a production start (`npm start` runs this, then
+ * `node dist/server/main.js`): one CommonJS file per entry, npm packages left in
+ * node_modules, source maps beside them.
+ *   dist/server/main.js             the HTTP server (server/main.ts)
+ *   dist/server/analysis-worker.js  the analysis thread the server's pool runs
+ *   dist/server/worker.js           the background worker, when server/worker.ts exists
+ * Usage: node --import tsx scripts/build-server.ts
+ */
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import { buildSync } from 'esbuild';
+import { WORKER_BUILD } from '../server/analysis/worker-build';
+
+const root = path.resolve(__dirname, '..');
+const out = path.join(root, 'dist', 'server');
+const entries: [string, string][] = [
+  ['server/main.ts', 'main.js'],
+  ['server/analysis/analysis-worker.ts', 'analysis-worker.js'],
+  ['server/worker.ts', 'worker.js'],
+];
+
+const started = Date.now();
+for (const [source, bundle] of entries) {
+  const entry = path.join(root, source);
+  if (!existsSync(entry)) continue;
+  buildSync({ ...WORKER_BUILD, entryPoints: [entry], outfile: path.join(out, bundle) });
+}
+console.log(`[build] server bundled into dist/server in ${Date.now() - started} ms`);

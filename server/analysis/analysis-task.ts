@@ -1,0 +1,33 @@
+/**
+ * What the event loop hands an analysis thread and what it gets back. Only plain data
+ * crosses: errors are turned into outcomes in the thread, because a thrown error loses its
+ * class and fields on the way back.
+ */
+import type { MeasuredNetwork } from '../../shared/engine/types';
+import type { ChainDocument } from '../../shared/schema/chain';
+import type { SweepTrace } from '../../shared/schema/sweep-columns';
+
+export interface AnalysisTask {
+  document: ChainDocument;
+  dataFiles?: Record<string, MeasuredNetwork>;
+  /**
+   * `answer`: the API's JSON answer as text (serialised in the thread, so the event loop only
+   * sends it); `flag-count`: the number of warning and error flags, for the chain list.
+   */
+  want: 'answer' | 'flag-count';
+  /** Sweep traces to include in the answer; none leaves the sweep out. */
+  traces: readonly SweepTrace[];
+  /** Limit the per-node sweep traces to these node indices. */
+  nodes?: readonly number[];
+  /** Add the receiver plan (`'full'`: with the spur chart and the IF choice). */
+  plan?: boolean | 'full';
+}
+
+export type AnalysisOutcome =
+  | { kind: 'answer'; json: string }
+  | { kind: 'flag-count'; count: number }
+  | {
+      kind: 'refused';
+      message: string;
+      details: unknown;
+    };

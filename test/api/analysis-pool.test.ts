@@ -1,0 +1,132 @@
+/**
+ * Analyses run on worker threads within two budgets: stages × sweep points (422 above it)
+ * and time (503, the thread replaced); the event loop keeps answering meanwhile.
+ */
+import {
+  analysesInFlight,
+  analysisLimits,
+  analysisThreadIds,
+  configureAnalysis,
+  stopAnalysisPool,
+} from '../../server/analysis/analysis-pool';
+import type { ChainDocumentInput } from '../../shared/schema/chain';
+import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
+import { fixtureChain } from './support/chain-fixture';
+import { createTestContext, type TestContext } from './support/test-db';
+
+let ctx: TestContext;
+let editor: Client;
+let wid: string;
+
+beforeAll(async () => {
+  ctx = await createTestContext();
+  const em = ctx.services.orm.em.fork();
+  const user = await createUser(em, 'editor@pool.test');
+  wid = (await createWorkspace(em, 'Pool', [[user, 'editor']])).id;
+  editor = await signIn(ctx.app, 'editor@pool.test');
+});
+afterEach(() => configureAnalysis());
+afterAll(async () => {
+  await stopAnalysisPool();
+  await ctx.close();
+});
+
+/** The fixture with `pads` attenuator pads before its tank, swept over `points` points. */
+function chainOf(pads: number, points: number): ChainDocumentInput {
+  const base = fixtureChain();
+  const pad = (i: number) => ({
+    id: `pad${i}`,
+    type: 'attenuator-pad',
+    label: `Pad ${i}`,
+    values: { db: 1, z0: 5000 },
+  });
+  return {
+    ...base,
+    settings: { ...base.settings, sweep: { ...base.settings.sweep, points } },
+    stages: [
+      base.stages[0],
+      ...Array.from({ length: pads }, (_, i) => pad(i)),
+      ...base.stages.slice(1),
+    ],
+  };
+}
+
+const analyse = (doc: ChainDocumentInput) =>
+  send(editor, 'post', '/api/analysis', { document: doc, sweep: true });
+
+describe('the stages × points budget', () => {
+  it('should refuse a chain above it with 422 naming the limit and the points that fit', async () => {
+    await configureAnalysis({ maxStagePoints: 100_000 });
+    const res = await analyse(chainOf(2, 20_001)); // 5 stages × 20,001 points
+    expect(res.status).toBe(422);
+    expect(res.body.error).toBe('analysis-too-large');
+    expect(res.body.message).toContain('100,000');
+    expect(res.body.message).toContain('at most 20,000 points');
+    expect(res.body.details).toEqual({
+      stages: 5,
+      points: 20_001,
+      maxStagePoints: 100_000,
+      maxPoints: 20_000,
+    });
+    // Exactly at the limit is allowed.
+    expect((await analyse(chainOf(2, 20_000))).status).toBe(200);
+  });
+
+  it('should save a chain above it with its flags unknown', async () => {
+    await configureAnalysis({ maxStagePoints: 1_000 });
+    const res = await send(editor, 'post', `/api/workspaces/${wid}/chains`, {
+      document: chainOf(0, 2_001),
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.flagCount).toBeNull();
+  });
+});
+
+describe('the time budget', () => {
+  it('should answer 503 when an analysis runs out of time, and replace its thread', async () => {
+    await configureAnalysis({ threads: 1, timeoutMs: 60_000 });
+    expect((await analyse(chainOf(0, 201))).status).toBe(200);
+    const before = analysisThreadIds();
+    expect(before).toHaveLength(1);
+
+    // The same pool (one started thread) with a budget far below a 300,000-point analysis.
+    await configureAnalysis({ threads: 1, timeoutMs: 50 }, { keepPool: true });
+    const slow = await analyse(chainOf(0, 100_001));
+    expect(slow.status).toBe(503);
+    expect(slow.body.error).toBe('analysis-timeout');
+    expect(slow.body.message).toContain('0.05 s');
+
+    await configureAnalysis({ threads: 1, timeoutMs: 60_000 }, { keepPool: true });
+    const after = await analyse(chainOf(0, 201));
+    expect(after.status).toBe(200);
+    expect(analysisThreadIds()).toHaveLength(1);
+    expect(analysisThreadIds()).not.toEqual(before);
+  });
+});
+
+describe('the event loop during a maximum-size analysis', () => {
+  it('should answer /api/health while the largest analysis the budget allows runs', async () => {
+    await configureAnalysis({ threads: 1, timeoutMs: 120_000 });
+    // Start the thread first, so the big analysis runs rather than waits for a thread.
+    expect((await analyse(chainOf(0, 201))).status).toBe(200);
+    const { maxStagePoints } = analysisLimits();
+    const pads = 7; // 10 stages
+    const points = Math.min(100_001, Math.floor(maxStagePoints / (pads + 3)));
+    let bigDone = false;
+    const big = analyse(chainOf(pads, points)).then((res) => {
+      bigDone = true;
+      return res;
+    });
+    while (analysesInFlight() === 0) await new Promise((resolve) => setImmediate(resolve));
+
+    const health = [];
+    for (let i = 0; i < 3; i++) {
+      const res = await send(editor, 'get', '/api/health');
+      health.push({ status: res.status, whileBigRan: !bigDone });
+    }
+    expect(health).toEqual(Array(3).fill({ status: 200, whileBigRan: true }));
+    const res = await big;
+    expect(res.status).toBe(200);
+    expect(res.body.sweep.freqsHz).toHaveLength(points);
+  });
+});

@@ -1,0 +1,149 @@
+/**
+ * The analysis answer on the wire: the sweep in columns with only the traces asked for,
+ * compressed, never cached; the two-metre example at 2,001 points stays under 100 KB.
+ */
+import { readFileSync } from 'node:fs';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import path from 'node:path';
+import { gunzipSync } from 'node:zlib';
+import request from 'supertest';
+import { analyzeChain } from '../../shared/engine';
+import { chainDocumentSchema, type ChainDocument } from '../../shared/schema/chain';
+import { analysisFromDto, SWEEP_DIGITS } from '../../shared/schema/sweep-columns';
+import { REPO_ROOT } from '../../server/config';
+import { createUser, PASSWORD, send, signIn, type Client } from './support/agents';
+import { createTestContext, type TestContext } from './support/test-db';
+
+let ctx: TestContext;
+let client: Client;
+let server: http.Server;
+let cookie: string;
+let csrf: string;
+
+const twoMetre: ChainDocument = chainDocumentSchema.parse(
+  JSON.parse(
+    readFileSync(
+      path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
+      'utf8',
+    ),
+  ),
+);
+
+beforeAll(async () => {
+  ctx = await createTestContext();
+  await createUser(ctx.services.orm.em.fork(), 'wire@analysis.test');
+  client = await signIn(ctx.app, 'wire@analysis.test');
+  // A raw session for the byte count (supertest undoes the compression it is checking).
+  const csrfRes = await request(ctx.app).get('/api/auth/csrf');
+  const login = await request(ctx.app)
+    .post('/api/auth/login')
+    .set('Cookie', csrfRes.headers['set-cookie'])
+    .set('x-csrf-token', csrfRes.body.token)
+    .send({ email: 'wire@analysis.test', password: PASSWORD });
+  cookie = String(login.headers['set-cookie']).split(';')[0];
+  csrf = login.body.csrfToken;
+  server = await new Promise((resolve) => {
+    const s = ctx.app.listen(0, '127.0.0.1', () => resolve(s));
+  });
+});
+afterAll(async () => {
+  await new Promise((resolve) => server.close(resolve));
+  await ctx.close();
+});
+
+/** POSTs `body` and returns the raw answer: bytes on the wire and headers. */
+function rawPost(
+  url: string,
+  body: unknown,
+): Promise<{ raw: Buffer; headers: http.IncomingHttpHeaders }> {
+  const { port } = server.address() as AddressInfo;
+  const payload = JSON.stringify(body);
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        path: url,
+        method: 'POST',
+        headers: {
+          'content-type': 'application/json',
+          'content-length': Buffer.byteLength(payload),
+          'accept-encoding': 'gzip',
+          cookie,
+          'x-csrf-token': csrf,
+        },
+      },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => resolve({ raw: Buffer.concat(chunks), headers: res.headers }));
+      },
+    );
+    req.on('error', reject);
+    req.end(payload);
+  });
+}
+
+describe('the analysis answer on the wire', () => {
+  it('should send the two-metre example at 2,001 points in at most 100 KB, gzipped, not cached', async () => {
+    expect(twoMetre.settings.sweep.points).toBe(2001);
+    const { raw, headers } = await rawPost('/api/analysis', { document: twoMetre });
+    expect(headers['content-encoding']).toBe('gzip');
+    expect(headers['cache-control']).toBe('no-store');
+    expect(raw.length).toBeLessThanOrEqual(100 * 1024);
+    const body = JSON.parse(gunzipSync(raw).toString('utf8'));
+    // The plotted traces only: step-up at every node, input impedance, return loss.
+    expect(body.sweep.phaseDeg).toBeUndefined();
+    expect(body.sweep.stepUpDb).toHaveLength(body.nodes.length);
+    expect(body.sweep.zInRe).toHaveLength(2001);
+  });
+
+  it('should carry the engine sweep to the stated significant digits', async () => {
+    const res = await send(client, 'post', '/api/analysis', {
+      document: twoMetre,
+      traces: ['stepUp', 'phase', 'zIn', 'returnLoss'],
+    });
+    expect(res.status).toBe(200);
+    const sweep = analysisFromDto(res.body).sweep!;
+    const engine = analyzeChain(twoMetre, { sweep: true }).sweep!;
+    const tol = 0.5 * 10 ** (1 - SWEEP_DIGITS);
+    const near = (got: number[], want: number[]) => {
+      expect(got).toHaveLength(want.length);
+      const worst = Math.max(...want.map((w, i) => Math.abs(got[i] - w) / Math.abs(w || 1)));
+      expect(worst).toBeLessThanOrEqual(tol);
+    };
+    near(sweep.freqsHz, engine.freqsHz);
+    near(sweep.zIn.re, engine.zIn.re);
+    near(sweep.zIn.im, engine.zIn.im);
+    near(sweep.returnLossDb, engine.returnLossDb);
+    engine.nodes.forEach((n, i) => {
+      expect(sweep.nodes[i].index).toBe(n.index);
+      near(sweep.nodes[i].stepUpDb, n.stepUpDb);
+      near(sweep.nodes[i].phaseDeg, n.phaseDeg);
+    });
+  });
+
+  it('should send only the traces and nodes asked for', async () => {
+    const res = await send(client, 'post', '/api/analysis', {
+      document: twoMetre,
+      traces: ['returnLoss', 'stepUp'],
+      nodes: [0, 2],
+    });
+    expect(res.status).toBe(200);
+    expect(Object.keys(res.body.sweep).sort()).toEqual(
+      ['digits', 'freqsHz', 'nodes', 'returnLossDb', 'stepUpDb'].sort(),
+    );
+    expect(res.body.sweep.nodes).toEqual([0, 2]);
+    expect(res.body.sweep.stepUpDb).toHaveLength(2);
+  });
+
+  it('should refuse an unknown trace with 422 naming the choices', async () => {
+    const res = await send(client, 'post', '/api/analysis', {
+      document: twoMetre,
+      traces: ['gain'],
+    });
+    expect(res.status).toBe(422);
+    expect(res.body.message).toContain('stepUp, phase, zIn, returnLoss');
+  });
+});
