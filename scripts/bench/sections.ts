@@ -2,9 +2,10 @@
  * The benchmark's sections, in the order they run and print. A new section is a module
  * exporting a `BenchSection` (see rows.ts) and one line below.
  */
+import { apiSection } from './api';
 import { cliSection } from './cli';
 import { editorSection } from './editor';
 import { engineSection } from './engine';
 import type { BenchSection } from './rows';
 
-export const SECTIONS: BenchSection[] = [engineSection, cliSection, editorSection];
+export const SECTIONS: BenchSection[] = [engineSection, cliSection, editorSection, apiSection];

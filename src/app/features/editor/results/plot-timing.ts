@@ -8,6 +8,8 @@ import type { PlotlyApi } from './plotly-loader';
 
 /** Mark set when the Plots tab opens. */
 export const PLOTS_OPEN_MARK = 'cw-plots-open';
+/** Mark set when the plotting library fetched ahead is ready. */
+export const PLOTTING_READY_MARK = 'cw-plotting-ready';
 /** Measure from the Plots tab opening to its first plot drawn. */
 export const FIRST_PLOT_MEASURE = 'cw-first-plot';
 
@@ -22,7 +24,11 @@ interface IdleWindow {
  */
 export function prefetchWhenIdle(load: () => Promise<PlotlyApi>, view: IdleWindow | null): void {
   if (!view) return;
-  const start = () => void load().catch(() => undefined);
+  const start = () =>
+    void load().then(
+      () => performance?.mark?.(PLOTTING_READY_MARK),
+      () => undefined,
+    );
   if (typeof view.requestIdleCallback === 'function') {
     view.requestIdleCallback(start, { timeout: 2000 });
   } else {

@@ -1,0 +1,249 @@
+/**
+ * The API under load, against the production bundle (dist/server/main.js) on loopback:
+ * - throughput and latency of POST /api/analysis on the two-metre example with its sweep
+ *   (2,001 points, the traces the editor asks for), paced at 200 requests/s for 60 s by
+ *   autocannon in a second process (10 s with --quick);
+ * - the answer's size on the wire (brotli or gzip, as a browser asks);
+ * - /api/health latency while the largest analysis the budget allows runs;
+ * - the first plot after opening the Plots tab, from the last browser run
+ *   (test-results/first-plot.json, written by test/browser/plots.e2e.ts).
+ * Needs the database `npm start` set up (.data/dev.env) with its demo accounts; without it
+ * the rows say "not measured".
+ */
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import http from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { median } from './measure';
+import { kib, ms, verdict, type BenchContext, type BenchSection } from './rows';
+
+const PORT = Number(process.env.CW_BENCH_API_PORT ?? 4391);
+const RATE = 200;
+const TARGET_P99_MS = 50;
+const TARGET_BYTES = 100 * 1024;
+const TARGET_HEALTH_MS = 50;
+const TARGET_FIRST_PLOT_MS = 400;
+/** The server's default stages × points budget (server/analysis/analysis-pool.ts). */
+const MAX_STAGE_POINTS = 1_000_000;
+const EDITOR = { email: 'editor@chainwright.test', password: 'demo-receiver-2026' };
+
+interface Session {
+  cookie: string;
+  csrf: string;
+}
+
+interface Answer {
+  status: number;
+  headers: http.IncomingHttpHeaders;
+  raw: Buffer;
+  ms: number;
+}
+
+function call(
+  method: string,
+  path: string,
+  body: string | undefined,
+  headers: Record<string, string>,
+): Promise<Answer> {
+  const start = performance.now();
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      { host: '127.0.0.1', port: PORT, path, method, headers, agent: false },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () =>
+          resolve({
+            status: res.statusCode ?? 0,
+            headers: res.headers,
+            raw: Buffer.concat(chunks),
+            ms: performance.now() - start,
+          }),
+        );
+      },
+    );
+    req.on('error', reject);
+    req.end(body);
+  });
+}
+
+const cookieOf = (a: Answer) => String(a.headers['set-cookie'] ?? '').split(';')[0];
+
+async function signIn(): Promise<Session> {
+  const csrf = await call('GET', '/api/auth/csrf', undefined, {});
+  const first = cookieOf(csrf);
+  const token = JSON.parse(csrf.raw.toString()).token as string;
+  const body = JSON.stringify(EDITOR);
+  const login = await call('POST', '/api/auth/login', body, {
+    'content-type': 'application/json',
+    cookie: first,
+    'x-csrf-token': token,
+  });
+  if (login.status !== 200) {
+    throw new Error(`sign-in as the demo editor failed (${login.status}); run npm start once`);
+  }
+  return { cookie: cookieOf(login), csrf: JSON.parse(login.raw.toString()).csrfToken };
+}
+
+function databaseUrl(root: string): string | undefined {
+  if (process.env.DATABASE_URL) return process.env.DATABASE_URL;
+  const file = join(root, '.data', 'dev.env');
+  if (!existsSync(file)) return undefined;
+  return /^DATABASE_URL=(.+)$/m.exec(readFileSync(file, 'utf8'))?.[1]?.trim();
+}
+
+async function startServer(root: string, url: string): Promise<ChildProcess> {
+  const build = spawnSync(process.execPath, ['--import', 'tsx', 'scripts/build-server.ts'], {
+    cwd: root,
+    encoding: 'utf8',
+  });
+  if (build.status !== 0) throw new Error(`server bundle failed: ${build.stderr}`);
+  const server = spawn(process.execPath, ['dist/server/main.js'], {
+    cwd: root,
+    env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
+    stdio: ['ignore', 'ignore', 'pipe'],
+  });
+  let stderr = '';
+  server.stderr?.on('data', (c: Buffer) => (stderr += c.toString()));
+  const end = Date.now() + 60_000;
+  while (Date.now() < end) {
+    if (server.exitCode !== null) throw new Error(`the server exited: ${stderr.slice(-500)}`);
+    const ok = await call('GET', '/api/health', undefined, {}).then(
+      (a) => a.status === 200,
+      () => false,
+    );
+    if (ok) return server;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  server.kill();
+  throw new Error('the server did not answer /api/health within 60 s');
+}
+
+interface CannonResult {
+  requests: { average: number; total: number };
+  latency: { p50: number; p99: number; max: number };
+  errors: number;
+  timeouts: number;
+  non2xx: number;
+  duration: number;
+}
+
+/** autocannon in its own process, paced at `RATE` requests/s overall. */
+function load(root: string, session: Session, bodyFile: string, seconds: number): CannonResult {
+  const cli = join(root, 'node_modules', 'autocannon', 'autocannon.js');
+  // prettier-ignore
+  const args = [
+    cli, '-j', '-d', String(seconds), '-c', '32', '-R', String(RATE), '-m', 'POST',
+    '-H', 'content-type=application/json', '-H', `cookie=${session.cookie}`,
+    '-H', `x-csrf-token=${session.csrf}`, '-H', 'accept-encoding=br, gzip',
+    '-i', bodyFile, `http://127.0.0.1:${PORT}/api/analysis`,
+  ];
+  const run = spawnSync(process.execPath, args, { encoding: 'utf8', maxBuffer: 1 << 26 });
+  if (run.status !== 0) throw new Error(`autocannon failed: ${run.stderr.slice(-500)}`);
+  return JSON.parse(run.stdout) as CannonResult;
+}
+
+/** /api/health latencies while one analysis of `doc` runs; and how that analysis ended. */
+async function healthDuringBig(session: Session, body: string) {
+  const latencies: number[] = [];
+  let done = false;
+  const big = call('POST', '/api/analysis', body, {
+    'content-type': 'application/json',
+    cookie: session.cookie,
+    'x-csrf-token': session.csrf,
+  }).finally(() => (done = true));
+  while (!done) {
+    latencies.push((await call('GET', '/api/health', undefined, {})).ms);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+  return { latencies, big: await big };
+}
+
+function firstPlotRow(ctx: BenchContext): void {
+  const file = join(ctx.root, 'test-results', 'first-plot.json');
+  const figure = 'editor: first plot after opening Plots, median (last browser run)';
+  const target = `≤ ${TARGET_FIRST_PLOT_MS} ms`;
+  if (!existsSync(file))
+    return ctx.row(figure, 'not measured (run test/browser/plots.e2e.ts)', target);
+  const data = JSON.parse(readFileSync(file, 'utf8')) as { medianMs?: number };
+  if (typeof data.medianMs !== 'number') return ctx.row(figure, 'file has no medianMs', target);
+  ctx.row(figure, ms(data.medianMs), target, verdict(data.medianMs <= TARGET_FIRST_PLOT_MS));
+}
+
+export const apiSection: BenchSection = {
+  name: 'api',
+  async run(ctx) {
+    firstPlotRow(ctx);
+    const url = databaseUrl(ctx.root);
+    if (!url) return ctx.row('API', 'not measured: no database (run npm start once)', '—');
+    const doc = JSON.parse(
+      readFileSync(join(ctx.root, 'examples', 'two-metre-coupled-preselector.chain.json'), 'utf8'),
+    );
+    const body = JSON.stringify({
+      document: doc,
+      sweep: true,
+      traces: ['stepUp', 'zIn', 'returnLoss'],
+    });
+    const dir = mkdtempSync(join(tmpdir(), 'cw-bench-api-'));
+    const bodyFile = join(dir, 'body.json');
+    writeFileSync(bodyFile, body);
+    const server = await startServer(ctx.root, url);
+    try {
+      const session = await signIn();
+      const one = await call('POST', '/api/analysis', body, {
+        'content-type': 'application/json',
+        'accept-encoding': 'br, gzip',
+        cookie: session.cookie,
+        'x-csrf-token': session.csrf,
+      });
+      if (one.status !== 200) throw new Error(`the analysis answered ${one.status}`);
+      ctx.row(
+        `API: answer on the wire, two-metre example, ${doc.settings.sweep.points} points (${one.headers['content-encoding'] ?? 'identity'})`,
+        kib(one.raw.length),
+        '≤ 100 KB',
+        verdict(one.raw.length <= TARGET_BYTES),
+      );
+
+      const seconds = ctx.quick ? 10 : 60;
+      const r = load(ctx.root, session, bodyFile, seconds);
+      const errors = r.errors + r.timeouts + r.non2xx;
+      const rate = r.requests.total / r.duration;
+      ctx.row(
+        `API: analyses/s, paced ${RATE}/s for ${seconds} s`,
+        `${rate.toFixed(0)}/s`,
+        `≥ ${RATE}/s`,
+        verdict(rate >= RATE * 0.98 && errors === 0),
+      );
+      ctx.row(
+        'API: latency p50 / p99 under that load',
+        `${ms(r.latency.p50)} / ${ms(r.latency.p99)}`,
+        `p99 ≤ ${TARGET_P99_MS} ms`,
+        verdict(r.latency.p99 <= TARGET_P99_MS),
+      );
+      ctx.row('API: errors under that load', String(errors), '0', verdict(errors === 0));
+
+      const stages = doc.stages.length;
+      const points = Math.min(100_001, Math.floor(MAX_STAGE_POINTS / stages));
+      const bigDoc = {
+        ...doc,
+        settings: { ...doc.settings, sweep: { ...doc.settings.sweep, points } },
+      };
+      const { latencies, big } = await healthDuringBig(
+        session,
+        JSON.stringify({ document: bigDoc, sweep: true }),
+      );
+      const worst = Math.max(...latencies);
+      ctx.row(
+        `API: /api/health during a ${stages} × ${points.toLocaleString('en')}-point analysis ` +
+          `(${big.status}, ${ms(big.ms)}), median / worst of ${latencies.length}`,
+        `${ms(median(latencies))} / ${ms(worst)}`,
+        `≤ ${TARGET_HEALTH_MS} ms`,
+        verdict(worst <= TARGET_HEALTH_MS),
+      );
+    } finally {
+      server.kill('SIGTERM');
+      rmSync(dir, { recursive: true, force: true });
+    }
+  },
+};
