@@ -38,6 +38,7 @@ describe('noise and levels in the editor', () => {
     await textAppears(budget, 'Cumulative noise temperature');
     await textAppears(budget, 'no reference set');
     await textAppears(page.locator('body'), 'noise figure stated for');
+    await budget.getByText('Cumulative noise temperature').scrollIntoViewIfNeeded();
     await shot(page, 'noise-01-budget-no-reference');
 
     // A 50 Ω reference for the whole chain: VSWR and return loss appear against it.
@@ -50,6 +51,8 @@ describe('noise and levels in the editor', () => {
     await reference.fill('50');
     await reference.press('Tab');
     await textAppears(budget, 're 50 Ω');
+    await reference.scrollIntoViewIfNeeded();
+    await budget.getByText('against the chosen reference').last().scrollIntoViewIfNeeded();
     await shot(page, 'noise-02-reference-50-ohm');
 
     // A capacitor typed as "2.2k" reads as 2.2 kF: accepted, with a warning on the field.
@@ -58,6 +61,11 @@ describe('noise and levels in the editor', () => {
       .filter({ has: page.locator('article[data-stage-type="unilateral-amplifier"]') })
       .first()
       .getByRole('button', { name: /^Select / })
+      .click();
+    await page
+      .getByRole('radio', { name: 'Stage' })
+      .or(page.getByRole('button', { name: 'Stage', exact: true }))
+      .first()
       .click();
     await page.locator('cw-param-panel input[data-param="cin"]').fill('2.2k');
     await textAppears(page.locator('cw-param-panel'), 'unusual: typical is');

@@ -144,13 +144,13 @@ function implausibleValueFlags(stage: BuiltStage): Flag[] {
       t.min !== undefined && t.max !== undefined
         ? `${formatQuantity(t.min, spec.unit)} to ${formatQuantity(t.max, spec.unit)}`
         : t.min !== undefined
-          ? `at least ${formatQuantity(t.min, spec.unit)}`
-          : `at most ${formatQuantity(t.max!, spec.unit)}`;
+          ? `from ${formatQuantity(t.min, spec.unit)} up`
+          : `up to ${formatQuantity(t.max!, spec.unit)}`;
     flags.push({
       code: 'implausible-value',
       severity: 'warning',
       stageId: stage.id,
-      message: `"${stage.label}": ${spec.label} is ${formatQuantity(v, spec.unit)}, outside the typical ${range}; check the value and its unit prefix.`,
+      message: `"${stage.label}": ${spec.label} is ${formatQuantity(v, spec.unit)}, outside the typical range (${range}); check the value and its unit prefix.`,
       data: {
         param: spec.key,
         value: v,
