@@ -45,5 +45,6 @@ export * from './match-here';
 export * from './match-stages';
 export * from './snap-chain';
 export * from './coil-parts';
+export * from './coil-winding';
 export * from './tune';
 export * from './tune-pair';

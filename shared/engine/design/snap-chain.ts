@@ -57,8 +57,11 @@ export interface SnapResult {
     beforeBandwidthHz: number | null;
     afterBandwidthHz: number | null;
   }[];
-  /** Step-up at the last node, before and after (at most 401 points). */
-  response: { freqsHz: number[]; beforeDb: number[]; afterDb: number[] };
+  /**
+   * Step-up before and after (at most 401 points) at the node of the first resonator with
+   * one (where snapping moves the response most visibly), else at the last node.
+   */
+  response: { node: number; freqsHz: number[]; beforeDb: number[]; afterDb: number[] };
 }
 
 export const NEAREST_RULE =
@@ -74,9 +77,8 @@ function figures(r: AnalysisResult): SnapFigures {
   };
 }
 
-function lastNodeDb(r: AnalysisResult): number[] {
-  const nodes = r.sweep?.nodes ?? [];
-  return nodes.length ? nodes[nodes.length - 1].stepUpDb : [];
+function nodeDb(r: AnalysisResult, node: number): number[] {
+  return r.sweep?.nodes.find((n) => n.index === node)?.stepUpDb ?? [];
 }
 
 function thinIndex(n: number, max: number): number[] {
@@ -133,8 +135,9 @@ export function snapChain(
   const before = analyzeChain(doc, { ...options, sweep: true });
   const after = analyzeChain(document, { ...options, sweep: true });
   const idx = thinIndex(before.sweep?.freqsHz.length ?? 0, 401);
-  const bDb = lastNodeDb(before);
-  const aDb = lastNodeDb(after);
+  const node = before.resonators.find((r) => r.node !== null)?.node ?? before.nodes.length - 1;
+  const bDb = nodeDb(before, node);
+  const aDb = nodeDb(after, node);
   return {
     series: req.series,
     rule: NEAREST_RULE,
@@ -156,6 +159,7 @@ export function snapChain(
       };
     }),
     response: {
+      node,
       freqsHz: idx.map((i) => before.sweep!.freqsHz[i]),
       beforeDb: idx.map((i) => bDb[i]),
       afterDb: idx.map((i) => aDb[i]),

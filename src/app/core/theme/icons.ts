@@ -16,6 +16,8 @@ const ICONS: Record<string, string> = {
   delete: `<path d="M4 7h16M9 7V4h6v3M6 7l1 13h10l1-13M10 11v6M14 11v6" ${STROKE}/>`,
   compare: `<rect x="3" y="5" width="7" height="14" rx="1" ${STROKE}/><rect x="14" y="5" width="7" height="14" rx="1" ${STROKE}/><path d="M5.5 10h2M16.5 14h2" ${STROKE}/>`,
   copy: `<rect x="8" y="8" width="12" height="12" rx="2" ${STROKE}/><path d="M16 8V5a1 1 0 0 0-1-1H5a1 1 0 0 0-1 1v10a1 1 0 0 0 1 1h3" ${STROKE}/>`,
+  // A branch: a variant grows from its parent.
+  variant: `<circle cx="6" cy="5" r="2" ${STROKE}/><circle cx="6" cy="19" r="2" ${STROKE}/><circle cx="18" cy="9" r="2" ${STROKE}/><path d="M6 7v10M18 11c0 4-6 3-12 6" ${STROKE}/>`,
   rename: `<path d="M4 20h4L19 9l-4-4L4 16v4zM13 7l4 4" ${STROKE}/>`,
   sun: `<circle cx="12" cy="12" r="4" ${STROKE}/><path d="M12 2v2M12 20v2M2 12h2M20 12h2M4.9 4.9l1.4 1.4M17.7 17.7l1.4 1.4M4.9 19.1l1.4-1.4M17.7 6.3l1.4-1.4" ${STROKE}/>`,
   moon: `<path d="M20 14.5A8 8 0 0 1 9.5 4a8 8 0 1 0 10.5 10.5z" ${STROKE}/>`,

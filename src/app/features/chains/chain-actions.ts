@@ -98,6 +98,20 @@ export class ChainActions {
     }
   }
 
+  /** A named copy linked to its parent: listed under it and offered for comparison. */
+  async saveAsVariant(chain: ChainSummaryDto): Promise<boolean> {
+    const answer = window.prompt('Name of the variant:', `${chain.name} (variant)`);
+    const name = answer?.trim().slice(0, 200);
+    if (!name) return false;
+    try {
+      await firstValueFrom(this.api.duplicate(chain.id, { name, asVariant: true }));
+      this.snackBar.open(`Saved as the variant “${name}”.`, 'OK', { duration: 4000 });
+      return true;
+    } catch {
+      return false;
+    }
+  }
+
   async remove(chain: ChainSummaryDto): Promise<boolean> {
     const ref = this.dialog.open<ConfirmDialogComponent, ConfirmDialogData, boolean>(
       ConfirmDialogComponent,

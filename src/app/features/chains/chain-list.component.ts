@@ -29,6 +29,7 @@ import { describeHttpError } from '../../core/http/error-message';
 import { SessionStore } from '../../core/session/session.store';
 import { compareQueryOf, inFamily } from '../compare/compare-entry';
 import { ChainActions } from './chain-actions';
+import { underParents } from './variant-order';
 
 export type ChainSortKey = 'name' | 'f0Hz' | 'stageCount' | 'flagCount' | 'updatedAt';
 const SORT_KEYS: readonly string[] = ['name', 'f0Hz', 'stageCount', 'flagCount', 'updatedAt'];
@@ -127,9 +128,11 @@ export default class ChainListComponent {
   });
   protected readonly loading = computed(() => this.state().loading);
   protected readonly failure = computed(() => this.state().failure);
+  // Variants follow their parent on the page, indented.
   protected readonly rows = computed(() =>
-    (this.list()?.items ?? []).map((chain) => ({
+    underParents(this.list()?.items ?? []).map(({ item: chain, nested }) => ({
       chain,
+      nested,
       f0: formatEngineering(chain.f0Hz, 'hertz', 4),
       comparable: inFamily(chain),
     })),
@@ -174,6 +177,11 @@ export default class ChainListComponent {
   protected async duplicate(chain: ChainSummaryDto, event: Event): Promise<void> {
     event.stopPropagation();
     if (await this.actions.duplicate(chain)) this.reload();
+  }
+
+  protected async saveAsVariant(chain: ChainSummaryDto, event: Event): Promise<void> {
+    event.stopPropagation();
+    if (await this.actions.saveAsVariant(chain)) this.reload();
   }
 
   /** Opens the comparison of the chain with the rest of its family. */

@@ -39,6 +39,7 @@ interface Loaded {
  * Variants of one chain side by side: a table of the key figures with the best value of
  * each row marked, and overlaid step-up and return-loss plots. Read only, for viewers too.
  */
+import { stageDiffRows } from './stage-diff';
 @Component({
   selector: 'cw-compare',
   imports: [
@@ -109,6 +110,10 @@ export default class CompareComponent {
     })),
   );
   protected readonly rows = computed(() => compareRows(this.variants()));
+  /** Which stages and values differ between the variants, against the first. */
+  protected readonly stageDiffs = computed(() =>
+    stageDiffRows(this.loaded().map((l) => l.chain?.document ?? null)),
+  );
   protected readonly failures = computed(() =>
     this.loaded().flatMap((l) =>
       l.failure ? [{ id: l.id, name: l.chain?.name ?? l.id, text: l.failure }] : [],

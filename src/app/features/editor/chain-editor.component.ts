@@ -5,6 +5,7 @@ import {
   effect,
   HostListener,
   inject,
+  Injector,
   input,
   signal,
   untracked,
@@ -22,6 +23,8 @@ import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { compareQueryOf, familyOf } from '../compare/compare-entry';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
+import { DesignPanelComponent } from './design/design-panel.component';
+import { saveAsVariant } from './design/save-variant';
 import { RevisionPanelComponent } from './history/revision-panel.component';
 import { GlyphComponent } from './icons/glyph.component';
 import type { LeaveAware } from './leave.guard';
@@ -39,7 +42,7 @@ import { EditorStore } from './state/editor.store';
 import { sameJson } from './state/same-document';
 import { StageStripComponent } from './strip/stage-strip.component';
 
-type SidePanel = 'stage' | 'chain' | 'history';
+type SidePanel = 'stage' | 'chain' | 'history' | 'design';
 
 /**
  * The chain editor page: palette, strip of stage cards, live analysis, the side panel
@@ -62,6 +65,7 @@ type SidePanel = 'stage' | 'chain' | 'history';
     RevisionPanelComponent,
     CautionBannerComponent,
     AnalysisResultsComponent,
+    DesignPanelComponent,
   ],
   providers: [EditorStore, AnalysisRunner, EditFeedback, ChainPersistence],
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -80,6 +84,7 @@ export default class ChainEditorComponent implements LeaveAware {
   private readonly chains = inject(ChainsApi);
   private readonly analysisApi = inject(AnalysisApi);
   private readonly title = inject(Title);
+  private readonly injector = inject(Injector);
 
   protected readonly stripListId = 'cw-stage-strip';
   protected readonly loadError = signal<string | null>(null);
@@ -196,6 +201,12 @@ export default class ChainEditorComponent implements LeaveAware {
       return;
     }
     this.exportAs('touchstone', z0);
+  }
+
+  /** A named, linked copy of what is on screen (unsaved edits included); opens it. */
+  protected async saveAsVariant(): Promise<void> {
+    const chain = this.store.chain();
+    if (chain) await saveAsVariant(this.injector, chain, this.doc());
   }
 
   protected restoreDraft(): void {

@@ -14,6 +14,7 @@ import {
   withTolerance,
   withValue,
 } from '../state/stage-factory';
+import { CoilTurnsComponent } from '../design/coil-turns.component';
 import { DATA_FILE_KIND_OF_TYPE, DataFileFieldComponent } from './data-file-field.component';
 import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
 
@@ -31,6 +32,7 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
     MatSlideToggleModule,
     MatMenuModule,
     MatButtonModule,
+    CoilTurnsComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './param-panel.component.html',
