@@ -6,6 +6,13 @@ import { apiSection } from './api';
 import { cliSection } from './cli';
 import { editorSection } from './editor';
 import { engineSection } from './engine';
+import { knobSection } from './knob';
 import type { BenchSection } from './rows';
 
-export const SECTIONS: BenchSection[] = [engineSection, cliSection, editorSection, apiSection];
+export const SECTIONS: BenchSection[] = [
+  engineSection,
+  cliSection,
+  editorSection,
+  apiSection,
+  knobSection,
+];
