@@ -3,6 +3,9 @@ import { createUser, createWorkspace, send, signIn, type Client } from './suppor
 import { fixtureChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
 
+// The assistants analyse the chain many times; a busy machine needs the room.
+jest.setTimeout(60_000);
+
 let ctx: TestContext;
 let viewer: Client;
 let outsider: Client;
