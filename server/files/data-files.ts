@@ -1,4 +1,5 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
+import { LRUCache } from 'lru-cache';
 import type { MeasuredNetwork } from '../../shared/engine/types';
 import { toMeasuredNetwork } from '../../shared/io/network-data';
 import { readTouchstone, TouchstoneError, type TouchstoneFile } from '../../shared/io/touchstone';
@@ -110,21 +111,14 @@ export async function loadDataFiles(
   if (unparsed.length > 0) {
     for (const file of await em.find(DataFileSchema, { id: { $in: unparsed } })) {
       out[file.id] = toMeasuredNetwork(parseDataFile(file.content, file.name));
-      remember(file.id, out[file.id]);
+      PARSED.set(file.id, out[file.id]);
     }
   }
   return out;
 }
 
-/** Parsed files by id, most recently used last; bounded so memory stays small. */
-const PARSED = new Map<string, MeasuredNetwork>();
-const PARSED_MAX = 64;
-
-function remember(id: string, network: MeasuredNetwork): void {
-  PARSED.delete(id);
-  PARSED.set(id, network);
-  if (PARSED.size > PARSED_MAX) PARSED.delete(PARSED.keys().next().value!);
-}
+/** Parsed files by id, least recently used dropped first; bounded so memory stays small. */
+const PARSED = new LRUCache<string, MeasuredNetwork>({ max: 64 });
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
