@@ -103,6 +103,32 @@ export const planningSchema = z.object({
 });
 export type PlanningSettings = z.infer<typeof planningSchema>;
 
+/**
+ * What the chain must achieve, judged by studies (Monte Carlo yield). Every field is optional;
+ * a target left out is not judged. Frequencies in Hz, levels in dB.
+ */
+export const chainTargetsSchema = z
+  .object({
+    /** The response's peak at the judged node must fall inside this window. */
+    centreMinHz: positive('lowest centre frequency').optional(),
+    centreMaxHz: positive('highest centre frequency').optional(),
+    /** −3 dB width at the judged node. */
+    minBandwidthHz: positive('minimum bandwidth').optional(),
+    maxBandwidthHz: positive('maximum bandwidth').optional(),
+    minGainDb: finite('minimum gain').optional(),
+    maxNoiseFigureDb: finite('maximum noise figure').optional(),
+    minImageRejectionDb: finite('minimum image rejection').optional(),
+  })
+  .refine((t) => !(t.centreMinHz && t.centreMaxHz && t.centreMaxHz < t.centreMinHz), {
+    message: 'the highest centre frequency must not be below the lowest',
+    path: ['centreMaxHz'],
+  })
+  .refine((t) => !(t.minBandwidthHz && t.maxBandwidthHz && t.maxBandwidthHz < t.minBandwidthHz), {
+    message: 'the maximum bandwidth must not be below the minimum',
+    path: ['maxBandwidthHz'],
+  });
+export type ChainTargets = z.infer<typeof chainTargetsSchema>;
+
 export const chainSettingsSchema = z.object({
   /** Design frequency f0 in Hz (at the chain's input: RF). */
   f0Hz: positive('design frequency'),
@@ -115,6 +141,8 @@ export const chainSettingsSchema = z.object({
   requiredSnrDb: finite('required SNR').default(10),
   /** Offsets from f0 (Hz) at which cumulative attenuation is reported. */
   offsetsHz: z.array(positive('offset')).max(16).default([]),
+  /** Targets for yield studies (optional). */
+  targets: chainTargetsSchema.optional(),
   thresholds: thresholdsSchema.default({
     loadingWarn: 0.5,
     loadingError: 0.2,

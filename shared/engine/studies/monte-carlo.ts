@@ -1,0 +1,120 @@
+/**
+ * Monte Carlo over the tolerances stored on a chain's stage values: each trial draws every
+ * toleranced value (uniform over ±tol, or normal with ±tol as 3σ), analyses the chain and
+ * keeps the study's figures. Trials are independent and individually seeded, so a run can be
+ * split into chunks, checkpointed and resumed with identical results.
+ */
+import type { ChainDocument } from '../../schema/chain';
+import type { MonteCarloSpec } from '../../schema/studies';
+import { analyzeChain } from '../index';
+import type { AnalysisResult, MeasuredNetwork } from '../types';
+import {
+  cloneForEdit,
+  StudySetupError,
+  tolerancedValues,
+  type ToleranceEntry,
+} from './chain-values';
+import { metricList, readMetrics, type MetricInfo } from './metrics';
+import { drawDeviation, mulberry32, trialSeed } from './random';
+
+/** One trial: its draws (in units of each value's tolerance) and its figures. */
+export interface Trial {
+  index: number;
+  /** Deviation per toleranced value: relative change = deviation × tol/100. */
+  draws: number[];
+  /** Figures in the order of the plan's metrics; null when not found. */
+  metrics: (number | null)[];
+  /** Why the trial's chain could not be analysed (a drawn value out of range), if so. */
+  error?: string;
+}
+
+/** Everything fixed before the first trial. */
+export interface MonteCarloPlan {
+  spec: MonteCarloSpec;
+  node: number;
+  tolerances: ToleranceEntry[];
+  metrics: MetricInfo[];
+  resonatorCount: number;
+  nominal: (number | null)[];
+}
+
+export interface StudyInputs {
+  doc: ChainDocument;
+  dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
+}
+
+/** The document with the spec's sweep points, ready to analyse. */
+function withPoints(doc: ChainDocument, points: number | undefined): ChainDocument {
+  const d = cloneForEdit(doc);
+  if (points !== undefined) d.settings.sweep.points = points;
+  return d;
+}
+
+function analyse(inputs: StudyInputs, doc: ChainDocument): AnalysisResult {
+  return analyzeChain(doc, { sweep: false, dataFiles: inputs.dataFiles });
+}
+
+/** Checks the spec against the chain and analyses the nominal chain once. */
+export function planMonteCarlo(inputs: StudyInputs, spec: MonteCarloSpec): MonteCarloPlan {
+  const doc = withPoints(inputs.doc, spec.points);
+  const tolerances = tolerancedValues(doc);
+  if (tolerances.length === 0) {
+    throw new StudySetupError(
+      'no stage value has a tolerance: give at least one value a ± % in the editor first',
+    );
+  }
+  const lastNode = doc.stages.length - 2;
+  const node = spec.node ?? lastNode;
+  if (node > lastNode) {
+    throw new StudySetupError(
+      `node ${node} does not exist: the chain's nodes are 0 to ${lastNode}`,
+    );
+  }
+  const nominalResult = analyse(inputs, doc);
+  const resonatorCount = nominalResult.resonators.length;
+  return {
+    spec,
+    node,
+    tolerances,
+    metrics: metricList(nominalResult, node),
+    resonatorCount,
+    nominal: readMetrics(nominalResult, node, resonatorCount),
+  };
+}
+
+/** Runs trial `index` of a plan. */
+export function runTrial(inputs: StudyInputs, plan: MonteCarloPlan, index: number): Trial {
+  const u = mulberry32(trialSeed(plan.spec.seed, index));
+  const doc = withPoints(inputs.doc, plan.spec.points);
+  const draws: number[] = [];
+  for (const t of plan.tolerances) {
+    const z = drawDeviation(u, plan.spec.distribution);
+    draws.push(z);
+    const stage = doc.stages.find((s) => s.id === t.stageId)!;
+    stage.values[t.key] = t.nominal * (1 + (z * t.tolerancePct) / 100);
+  }
+  try {
+    const result = analyse(inputs, doc);
+    return { index, draws, metrics: readMetrics(result, plan.node, plan.resonatorCount) };
+  } catch (err) {
+    const metrics = plan.metrics.map(() => null);
+    return { index, draws, metrics, error: err instanceof Error ? err.message : String(err) };
+  }
+}
+
+/** Runs trials [from, to), reporting each to `onTrial` (for progress and checkpoints). */
+export function runTrials(
+  inputs: StudyInputs,
+  plan: MonteCarloPlan,
+  from: number,
+  to: number,
+  onTrial?: (t: Trial) => void,
+): Trial[] {
+  const out: Trial[] = [];
+  for (let i = from; i < to; i++) {
+    const t = runTrial(inputs, plan, i);
+    out.push(t);
+    onTrial?.(t);
+  }
+  return out;
+}
