@@ -17,6 +17,8 @@ import {
 } from './auth/session';
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
 import { dataFilesRouter } from './files/routes';
+import { chainStudiesRouter } from './studies/routes';
+import { studyLimitsFromEnv } from './studies/limits';
 import { apiNotFound, errorHandler } from './common/error-handler';
 import { healthHandler } from './common/health';
 import { jsonBody } from './common/json-body';
@@ -98,6 +100,7 @@ export function createApp(services: Services): Express {
   app.use('/api/chains', chainsRouter(em));
   app.use('/api/chains', chainAnalysisRouter(em));
   app.use('/api/chains', chainExportRouter(em));
+  app.use('/api/chains', chainStudiesRouter(em, services.studyQueue, studyLimitsFromEnv()));
   app.use('/api/examples', examplesRouter(config.examplesDir));
   app.use('/api/design', designRouter(em));
   app.use('/api', analysisRouter(em));

@@ -2,6 +2,7 @@ import { ChainSchema } from '../chains/chain.entity';
 import { ChainRevisionSchema } from '../chains/revision.entity';
 import { DataFileSchema } from '../files/data-file.entity';
 import { RateLimitHitSchema } from './rate-limit-hit.entity';
+import { StudySchema } from '../studies/study.entity';
 import { SiteSettingSchema } from '../users/site-setting.entity';
 import { UserSchema } from '../users/user.entity';
 import { MembershipSchema } from '../workspaces/membership.entity';
@@ -17,4 +18,5 @@ export const ENTITIES = [
   ChainRevisionSchema,
   DataFileSchema,
   RateLimitHitSchema,
+  StudySchema,
 ];

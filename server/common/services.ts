@@ -5,6 +5,7 @@ import type { Logger } from 'pino';
 import type { ServerConfig } from '../config';
 import { ormOptions } from '../mikro-orm.config';
 import { createLogger } from './logger';
+import { createStudyQueue, type StudyQueue } from '../studies/queue';
 
 /** What the app needs from the outside world; built once by initServices, passed to createApp. */
 export interface Services {
@@ -17,6 +18,8 @@ export interface Services {
   mailer: Transporter;
   /** Structured logger (pino); requests log through its per-request child `req.log`. */
   logger: Logger;
+  /** The study job queue (pg-boss, started on first use; the server only sends). */
+  studyQueue: StudyQueue;
   /** Ends every pool and connection so the process (or jest) can exit. */
   close(): Promise<void>;
 }
@@ -52,6 +55,7 @@ export async function initServices(
           ignoreTLS: true,
         })
       : nodemailer.createTransport({ jsonTransport: true });
+  const studyQueue = createStudyQueue(config.databaseUrl, config.dbSchema, { maintain: false });
   return {
     config,
     orm,
@@ -59,7 +63,9 @@ export async function initServices(
     sessionPool,
     mailer,
     logger,
+    studyQueue,
     async close() {
+      await studyQueue.stop();
       mailer.close();
       await sessionPool.end();
       await orm.close(true);

@@ -139,3 +139,35 @@ export const studySpecSchema = z.discriminatedUnion('kind', [
 export type StudySpec = z.infer<typeof studySpecSchema>;
 export type StudySpecInput = z.input<typeof studySpecSchema>;
 export type StudyKind = StudySpec['kind'];
+
+export type StudyStatus = 'queued' | 'running' | 'done' | 'failed' | 'cancelled';
+
+/** A study as listed for a chain (without its result). */
+export interface StudySummaryDto {
+  id: string;
+  chainId: string;
+  /** The chain's saved version the study ran on. */
+  chainVersion: number;
+  kind: StudyKind;
+  status: StudyStatus;
+  spec: StudySpec;
+  progress: {
+    fraction: number;
+    done: number;
+    total: number;
+    interim?: Record<string, unknown>;
+  } | null;
+  error: string | null;
+  /** Runs started (above 1 when a worker stopped and another resumed it). */
+  attempts: number;
+  cancelRequested: boolean;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  createdBy: { id: string; displayName: string } | null;
+}
+
+/** A study with its result (shape by kind: see shared/engine/studies). */
+export interface StudyDto extends StudySummaryDto {
+  result: unknown;
+}

@@ -6,6 +6,7 @@ import type { WorkspaceRole } from '../../shared/schema/api';
 import { chainDocumentSchema } from '../../shared/schema/chain';
 import { createChain } from '../../server/chains/chain-store';
 import { DataFileSchema } from '../../server/files/data-file.entity';
+import { StudySchema } from '../../server/studies/study.entity';
 import { UserSchema, type User } from '../../server/users/user.entity';
 import { MembershipSchema } from '../../server/workspaces/membership.entity';
 import { WorkspaceSchema, type Workspace } from '../../server/workspaces/workspace.entity';
@@ -33,6 +34,9 @@ interface Fixture {
   targetUserId: string;
   /** A one-port data file in the workspace, used by no chain. */
   fileId: string;
+  /** A finished study and a running one of the chain. */
+  doneStudyId: string;
+  runningStudyId: string;
 }
 
 interface Row {
@@ -44,6 +48,13 @@ interface Row {
 }
 
 const doc = () => fixtureChain();
+const BAND_SPEC = {
+  kind: 'band' as const,
+  gang: [{ stageId: 'tank', key: 'c', min: 100e-12, max: 400e-12 }],
+  positions: 5,
+  mistrackFraction: 0.5,
+  points: 51,
+};
 const ONE_PORT = '# MHz S RI R 50\n0.5 0.2 -0.3\n2.0 0.1 -0.5\n';
 const readers = (ok: number): Record<Caller, number> => ({
   anonymous: 401,
@@ -303,6 +314,37 @@ const ROWS: Row[] = [
     expect: signedIn(200),
   },
   {
+    name: 'list studies',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies`,
+    expect: readers(200),
+  },
+  {
+    name: 'start a study',
+    method: 'post',
+    url: (f) => `/api/chains/${f.chainId}/studies`,
+    body: () => BAND_SPEC,
+    expect: editors(202),
+  },
+  {
+    name: 'read a study',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.doneStudyId}`,
+    expect: readers(200),
+  },
+  {
+    name: 'study progress events',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.doneStudyId}/events`,
+    expect: readers(200),
+  },
+  {
+    name: 'cancel a study',
+    method: 'post',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.runningStudyId}/cancel`,
+    expect: editors(202),
+  },
+  {
     name: 'chain export',
     method: 'get',
     url: (f) => `/api/chains/${f.chainId}/export?format=spice`,
@@ -410,6 +452,19 @@ async function freshFixture(): Promise<Fixture> {
     fMaxHz: 2e6,
     uploadedBy: owner,
   });
+  const study = (status: 'done' | 'running') =>
+    em.create(StudySchema, {
+      chain,
+      chainVersion: chain.version,
+      createdBy: owner,
+      kind: 'band',
+      status,
+      spec: BAND_SPEC,
+      document: chain.document,
+      result: status === 'done' ? { positions: [] } : null,
+    });
+  const done = study('done');
+  const running = study('running');
   await em.flush();
   return {
     wid: ws.id,
@@ -417,6 +472,8 @@ async function freshFixture(): Promise<Fixture> {
     chainVersion: chain.version,
     targetUserId: target.id,
     fileId: file.id,
+    doneStudyId: done.id,
+    runningStudyId: running.id,
   };
 }
 

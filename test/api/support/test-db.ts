@@ -85,6 +85,8 @@ export async function createTestContext(
       const c = new pg.Client({ connectionString: testDatabaseUrl() });
       await c.connect();
       await c.query(`drop schema if exists "${schema}" cascade`);
+      // The study queue's own schema (pg-boss), made when a test starts a study.
+      await c.query(`drop schema if exists "${schema}_boss" cascade`);
       await c.end();
     },
   };
