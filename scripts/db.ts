@@ -3,7 +3,8 @@
  * - roles: (as a superuser, CW_SUPERUSER_DATABASE_URL) creates the owner and application
  *   roles with the passwords in CW_DB_OWNER_PASSWORD / CW_DB_APP_PASSWORD, see db-roles.ts.
  * - migrate: applies pending migrations from migrations/ as the owner (CW_OWNER_DATABASE_URL,
- *   else DATABASE_URL), then grants the application role row access to any new table.
+ *   else DATABASE_URL), installs the study queue (pg-boss's schema), then grants the
+ *   application role row access to any new table.
  * - seed: loads the demo accounts, workspace and example chains (idempotent). Refused in
  *   production mode (NODE_ENV=production or CW_MODE=production).
  * scripts/start.sh and test.sh set the variables; without them the URLs `npm start` left in
@@ -15,6 +16,7 @@ import { serverMode } from '../server/config';
 import { ormOptions } from '../server/mikro-orm.config';
 import { loadDevEnv } from '../server/dev-env';
 import { seedDemo } from '../server/seed/seed-demo';
+import { installStudyQueue } from '../server/studies/queue';
 import { grantAppRole, setUpRoles } from './db-roles';
 
 const TASKS = ['roles', 'migrate', 'seed'];
@@ -49,6 +51,7 @@ async function run(tasks: string[]): Promise<void> {
       console.log(
         `[db] migrations: ${applied.length ? applied.map((m) => m.name).join(', ') : 'up to date'}`,
       );
+      await installStudyQueue(url);
       await grantAppRole(url);
     }
     if (tasks.includes('seed')) {

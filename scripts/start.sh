@@ -59,6 +59,12 @@ NODE_PID=$!
 if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
   die "the server did not answer on port $PORT (see its messages above)"
 fi
+# Study workers (Monte Carlo, band, optimiser) beside the server: CW_WORKERS=0 for none.
+WORKERS="${CW_WORKERS:-1}"
+if [ "$WORKERS" -gt 0 ]; then
+  step "Starting $WORKERS study worker(s)"
+  start_workers "$WORKERS"
+fi
 
 cat <<EOF
 

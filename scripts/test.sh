@@ -78,8 +78,11 @@ browser_tests() {
     stop_node
     return 1
   fi
+  # One study worker for the studies page's test.
+  DATABASE_URL="$APP_URL" start_workers 1
   local rc=0
   BASE_URL="http://127.0.0.1:$BROWSER_PORT" npx jest -c jest.browser.config.js --ci || rc=$?
+  stop_workers
   stop_node
   return $rc
 }

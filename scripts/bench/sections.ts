@@ -8,6 +8,7 @@ import { editorSection } from './editor';
 import { engineSection } from './engine';
 import { knobSection } from './knob';
 import type { BenchSection } from './rows';
+import { studiesSection } from './studies';
 
 export const SECTIONS: BenchSection[] = [
   engineSection,
@@ -15,4 +16,5 @@ export const SECTIONS: BenchSection[] = [
   editorSection,
   apiSection,
   knobSection,
+  studiesSection,
 ];

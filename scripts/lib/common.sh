@@ -196,6 +196,26 @@ stop_node() {
 }
 
 # Whether the built client is older than its sources (src/, shared/, angular.json).
+# start_workers N: starts N study workers (server/worker.ts) in the background with the
+# environment as it is; sets WORKER_PIDS. They take study jobs from the database's queue.
+WORKER_PIDS=()
+start_workers() {
+  local i
+  for ((i = 0; i < ${1:-1}; i++)); do
+    node --import tsx server/worker.ts &
+    WORKER_PIDS+=($!)
+  done
+}
+
+# stop_workers: asks every worker started here to stop (a running study goes back to the
+# queue) and waits for them.
+stop_workers() {
+  local pid
+  for pid in "${WORKER_PIDS[@]}"; do kill -TERM "$pid" 2>/dev/null || true; done
+  for pid in "${WORKER_PIDS[@]}"; do wait "$pid" 2>/dev/null || true; done
+  WORKER_PIDS=()
+}
+
 # stop_all_on_exit: on exit, Ctrl-C or TERM, stop the node server and PostgreSQL we started.
 stop_all_on_exit() {
   trap _stop_all EXIT
@@ -203,6 +223,7 @@ stop_all_on_exit() {
 }
 _stop_all() {
   trap - EXIT INT TERM
+  stop_workers
   stop_node
   pg_down
 }

@@ -61,3 +61,13 @@ export function createStudyQueue(
     },
   };
 }
+
+/**
+ * Installs pg-boss's schema and the study queue (run by `scripts/db.ts migrate` as the
+ * database owner, so the application role, which may not create tables, finds them ready).
+ */
+export async function installStudyQueue(databaseUrl: string, dbSchema?: string): Promise<void> {
+  const queue = createStudyQueue(databaseUrl, dbSchema, { maintain: false });
+  await queue.boss();
+  await queue.stop();
+}

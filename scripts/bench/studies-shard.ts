@@ -1,0 +1,23 @@
+/**
+ * One study worker's share of the benchmark's Monte Carlo run, as its own process:
+ *   node dist/studies-shard.js <points> <from> <to>
+ * Prints the trials done and the milliseconds they took (JSON).
+ */
+import { chainDocumentSchema } from '../../shared/schema/chain';
+import { monteCarloSpecSchema } from '../../shared/schema/studies';
+import { planMonteCarlo, runTrials } from '../../shared/engine/studies';
+import { benchChain } from './bench-chain';
+
+const [points, from, to] = process.argv.slice(2).map(Number);
+const doc = chainDocumentSchema.parse(benchChain(points));
+// Every reactive value of the bench chain's tuned parts at ±5 %.
+for (const s of doc.stages) {
+  const keys = Object.keys(s.values).filter((k) => ['l', 'c', 'l1', 'l2', 'cc'].includes(k));
+  if (keys.length) s.tolerances = Object.fromEntries(keys.map((k) => [k, 5]));
+}
+const spec = monteCarloSpecSchema.parse({ kind: 'monte-carlo', trials: Math.max(2, to), seed: 1 });
+const inputs = { doc };
+const plan = planMonteCarlo(inputs, spec);
+const t0 = performance.now();
+runTrials(inputs, plan, from, to);
+process.stdout.write(`${JSON.stringify({ trials: to - from, ms: performance.now() - t0 })}\n`);
