@@ -456,7 +456,8 @@ async function freshFixture(): Promise<Fixture> {
     em.create(StudySchema, {
       chain,
       chainVersion: chain.version,
-      createdBy: owner,
+      // Not a caller: the callers' own running studies count against their limit.
+      createdBy: target,
       kind: 'band',
       status,
       spec: BAND_SPEC,
