@@ -41,7 +41,7 @@ export function analyzeBuilt(
   const sweepNa = runNodeAnalysis(built, grid, sharedWorkspace('sweep', built, grid.length));
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
-  const findings = analyzeResonators(built);
+  const findings = analyzeResonators(built, sweepNa);
   const image = imageFrequency(built, findMixer(built));
   const selectivity = analyzeSelectivity(built, sweepNa, image);
   const flags = raiseFlags({ built, f0Na, resonators: findings });
@@ -51,7 +51,7 @@ export function analyzeBuilt(
     : undefined;
   if (plan) flags.push(...planFlags(plan, built.load.id, built.settings.planning !== undefined));
   const resonators = findings.map(
-    ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, ...report }) => report,
+    ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, name: _name, ...report }) => report,
   );
   return {
     engineVersion: ENGINE_VERSION,

@@ -332,6 +332,7 @@ export type FlagCode =
   | 'converter-clips'
   | 'noise-mismatch'
   | 'implausible-value'
+  | 'tank-matched'
   | 'caution';
 
 export interface Flag {
@@ -440,6 +441,19 @@ export interface ResonatorReport {
   loadingRatio: number | null;
   /** Share of the tank's damping taken by the downstream side at fr. */
   downstreamShare: number | null;
+  /**
+   * 'declared' by its stage, or 'found' from the network at a node (optional; older results
+   * hold declared resonators only).
+   */
+  origin?: 'declared' | 'found';
+  /** Ids of the stages whose parts make up a found tuned circuit (optional). */
+  partOf?: string[];
+  /**
+   * A coupled pair: where the pair's response really peaks (the voltage maximum at its
+   * output node, input frequency), Hz, and its −3 dB width there (optional).
+   */
+  pairPeakHz?: number | null;
+  pairBandwidthHz?: number | null;
 }
 
 export interface SelectivityReport {
@@ -450,7 +464,16 @@ export interface SelectivityReport {
   /** Lower and upper half-power (−3 dB) edges, Hz (optional; null when not reached). */
   bw3dbLowHz?: number | null;
   bw3dbHighHz?: number | null;
+  /**
+   * −60 dB width; null when the response does not fall through −60 dB with a margin on both
+   * sides within the sweep (see depthDb).
+   */
   bw60dbHz: number | null;
+  /**
+   * How far below the peak the response falls on its shallower side within the sweep, dB
+   * (optional): "floor at −60.0 dB" where a filter's ultimate rejection stops it there.
+   */
+  depthDb?: number | null;
   shapeFactor: number | null;
   /** Attenuation relative to the peak at each stated offset (+ and − side), dB. */
   offsets: { offsetHz: number; belowDb: number | null; aboveDb: number | null }[];

@@ -53,6 +53,11 @@ export const thresholdsSchema = z.object({
    * source it was rated at by more than this VSWR.
    */
   noiseMismatchVswr: z.number().gt(1).max(100).default(2),
+  /**
+   * A matching network or filter is flagged when the loss its parts' finite Q cause at f0
+   * exceeds this (dB).
+   */
+  qBudgetLossDb: z.number().gt(0).max(40).default(1),
 });
 export type Thresholds = z.infer<typeof thresholdsSchema>;
 
@@ -150,6 +155,7 @@ export const chainSettingsSchema = z.object({
     matchReturnLossDb: 15,
     detuneFraction: 0.5,
     noiseMismatchVswr: 2,
+    qBudgetLossDb: 1,
   }),
   planning: planningSchema.optional(),
   /**

@@ -29,7 +29,7 @@ describe('tank-overloaded', () => {
     expect(flag).toMatchObject({ severity: 'error', stageId: 's1' });
     expect(r.loadingRatio as number).toBeLessThan(0.2);
     expect(flag.message).toMatch(
-      /^Tank "Loop tank" at 77\.5 kHz: Q falls from \d+ to \d+(\.\d)? \(ratio 0\.\d+\) when "Envelope detector" is attached; bandwidth widens from \d+(\.\d+)? Hz to \d+(\.\d+)? kHz\. The downstream side takes \d+ % of the damping\.$/,
+      /^Tank "Loop tank" at 77\.5 kHz: Q falls from \d+ to \d+(\.\d)? \(ratio 0\.\d+\) when "Envelope detector" is attached; bandwidth widens from \d+(\.\d+)? Hz to \d+(\.\d+)? kHz\. The downstream side takes \d+ % of the damping\. Rule: a ratio below 0\.5 \(as shown, to two decimals\) is a warning, below 0\.2 an error; 0\.50 is a conjugate match\.$/,
     );
     expect(flag.data).toMatchObject({ loadedQ: r.loadedQ, detachedQ: r.detachedQ, loadingRatio: r.loadingRatio }); // prettier-ignore
   });
@@ -40,6 +40,37 @@ describe('tank-overloaded', () => {
     const light = run(stages(10e6), { f0Hz: f0 });
     expect(only(light.flags, 'tank-overloaded')).toEqual([]);
     expect(light.resonators[0].loadingRatio as number).toBeGreaterThan(0.9);
+  });
+});
+
+describe('a conjugately matched tank (loading ratio 0.5)', () => {
+  // A lossless tank between equal resistances: detached Q = R/(ωL), loaded Q = (R/2)/(ωL), so
+  // the ratio is 0.5 exactly (common practice); rounding either way must not flip the verdict.
+  const l = 10e-6;
+  const c = 1 / ((2 * Math.PI * 1e6) ** 2 * l);
+  const run2 = (rLoad: number) =>
+    run([{ type: 't-source', values: { rs: 5000 } }, { type: 't-tank', label: 'Tank', values: { l, c } }, { type: 't-shunt-r', label: 'Next stage', values: { r: rLoad } }, { type: 't-load', values: { mode: 'open' } }], { f0Hz: 1e6 }); // prettier-ignore
+
+  it.each([5000 * (1 - 1e-9), 5000, 5000 * (1 + 1e-9)])(
+    'is reported as matched, not overloaded, with %d Ω downstream',
+    (r) => {
+      // prettier-ignore
+      const res = run2(r);
+      expect(res.resonators[0].loadingRatio as number).toBeCloseTo(0.5, 6);
+      expect(only(res.flags, 'tank-overloaded')).toEqual([]);
+      const [flag] = only(res.flags, 'tank-matched');
+      expect(flag.severity).toBe('info');
+      expect(flag.message).toMatch(/That is a conjugate match \(ratio 0\.50\)/);
+      expect(flag.message).toMatch(
+        /Rule: a ratio below 0\.5 \(as shown, to two decimals\) is a warning/,
+      );
+    },
+  );
+
+  it('is a warning once the ratio shows 0.49', () => {
+    const res = run2(4800); // ratio 4800/9800 = 0.4898
+    expect(only(res.flags, 'tank-overloaded')[0].severity).toBe('warning');
+    expect(only(res.flags, 'tank-matched')).toEqual([]);
   });
 });
 

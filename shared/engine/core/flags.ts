@@ -8,6 +8,7 @@ import { formatNumber as num, formatQuantity, hz } from './format';
 import type { NodeAnalysis } from './nodes';
 import { sourceVswr } from './noise';
 import { availablePower, dbm, returnLossDb, vMag } from './quantities';
+import { judgedForQ, qBudget } from './q-budget';
 import { searchRange, type ResonatorFinding } from './resonators';
 
 /** The usual caution wording for each hazard a stage definition declares. */
@@ -27,21 +28,73 @@ export interface FlagInputs {
   resonators: readonly ResonatorFinding[];
 }
 
-/**
- * How a sentence names a resonator: by its stage's label, which the designer chose, plus
- * the resonator's own label where the stage has more than one (a coupled pair).
- */
-function resonatorName(built: BuiltChain, r: ResonatorFinding): string {
-  const stage = built.twoPorts.find((s) => s.id === r.stageId);
-  if (!stage) return `"${r.label}"`;
-  const own = stage.model.resonators ?? [];
-  return own.length > 1 ? `"${stage.label}" (${r.label})` : `"${stage.label}"`;
+/** A ratio as shown (two decimals): the loading rule compares what the designer reads. */
+const shown = (x: number) => Math.round(x * 100) / 100;
+
+function loadingFlags(built: BuiltChain, r: ResonatorFinding, fr: number, bw: number): Flag[] {
+  const t = built.settings.thresholds;
+  if (r.loadingRatio === null || r.detachedQ === null) return [];
+  const ratio = shown(r.loadingRatio);
+  const share = r.downstreamShare === null ? '' : ` The downstream side takes ${num(100 * r.downstreamShare, 2)} % of the damping.`; // prettier-ignore
+  const data = {
+    resonanceHz: fr,
+    detachedQ: r.detachedQ,
+    loadedQ: r.loadedQ ?? NaN,
+    loadingRatio: r.loadingRatio,
+    downstreamShare: r.downstreamShare ?? NaN,
+  };
+  const change =
+    `${r.name} at ${hz(fr)}: Q falls from ${num(r.detachedQ)} to ${num(r.loadedQ ?? NaN)} ` +
+    `(ratio ${num(ratio, 2)}) when ${r.downstreamLabel} is attached; bandwidth widens ` +
+    `from ${hz(r.detachedBandwidthHz ?? NaN)} to ${hz(bw)}.${share}`;
+  const rule = ` Rule: a ratio below ${num(t.loadingWarn, 2)} (as shown, to two decimals) is a warning, below ${num(t.loadingError, 2)} an error; 0.50 is a conjugate match.`; // prettier-ignore
+  if (ratio < t.loadingWarn) {
+    return [
+      {
+        code: 'tank-overloaded',
+        severity: ratio < t.loadingError ? 'error' : 'warning',
+        stageId: r.stageId,
+        message: change + rule,
+        data,
+      },
+    ];
+  }
+  if (ratio === 0.5) {
+    return [
+      {
+        code: 'tank-matched',
+        severity: 'info',
+        stageId: r.stageId,
+        message: `${change} That is a conjugate match (ratio 0.50): the most power reaches ${r.downstreamLabel}, at half the tank's selectivity.${rule}`,
+        data,
+      },
+    ];
+  }
+  return [];
+}
+
+function detuneFlag(
+  built: BuiltChain,
+  r: ResonatorFinding,
+  fr: number,
+  bw: number,
+  what: string,
+): Flag | null {
+  // prettier-ignore
+  const t = built.settings.thresholds;
+  const off = fr - r.f0LocalHz;
+  if (!Number.isFinite(bw) || !(Math.abs(off) > t.detuneFraction * bw)) return null;
+  return {
+    code: 'tank-detuned',
+    severity: 'warning',
+    stageId: r.stageId,
+    message: `${what} at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
+    data: { resonanceHz: fr, f0Hz: r.f0LocalHz, offsetHz: off, bandwidthHz: bw },
+  };
 }
 
 function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
-  const t = built.settings.thresholds;
   const flags: Flag[] = [];
-  const kind = `${r.kind === 'shunt' ? 'Tank' : 'Series resonator'} ${resonatorName(built, r)}`;
   if (r.resonanceHz !== null && r.loadedQ === null) return flags; // lossless: Q is unbounded
   if (r.resonanceHz === null || r.loadedQ === null) {
     const [lo, hi] = searchRange(built);
@@ -49,43 +102,69 @@ function tankFlags(built: BuiltChain, r: ResonatorFinding): Flag[] {
       code: 'no-resonance',
       severity: 'warning',
       stageId: r.stageId,
-      message: `${kind} shows no resonance between ${hz(lo)} and ${hz(hi)} near the design frequency ${hz(r.f0LocalHz)}; check its L and C values.`,
+      message: `${r.name} shows no resonance between ${hz(lo)} and ${hz(hi)} near the design frequency ${hz(r.f0LocalHz)}; check its L and C values.`,
       data: { f0Hz: r.f0LocalHz },
     });
     return flags;
   }
   const fr = r.resonanceHz;
   const bw = r.bandwidthHz ?? NaN;
-  if (r.loadingRatio !== null && r.detachedQ !== null && r.loadingRatio < t.loadingWarn) {
-    const share = r.downstreamShare === null ? '' : ` The downstream side takes ${num(100 * r.downstreamShare, 2)} % of the damping.`; // prettier-ignore
-    flags.push({
-      code: 'tank-overloaded',
-      severity: r.loadingRatio < t.loadingError ? 'error' : 'warning',
-      stageId: r.stageId,
-      message:
-        `${kind} at ${hz(fr)}: Q falls from ${num(r.detachedQ)} to ${num(r.loadedQ)} ` +
-        `(ratio ${num(r.loadingRatio, 2)}) when ${r.downstreamLabel} is attached; bandwidth widens ` +
-        `from ${hz(r.detachedBandwidthHz ?? NaN)} to ${hz(bw)}.${share}`,
-      data: {
-        resonanceHz: fr,
-        detachedQ: r.detachedQ,
-        loadedQ: r.loadedQ,
-        loadingRatio: r.loadingRatio,
-        downstreamShare: r.downstreamShare ?? NaN,
-      },
-    });
-  }
-  const off = fr - r.f0LocalHz;
-  if (Number.isFinite(bw) && Math.abs(off) > t.detuneFraction * bw) {
-    flags.push({
-      code: 'tank-detuned',
-      severity: 'warning',
-      stageId: r.stageId,
-      message: `${kind} resonates at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
-      data: { resonanceHz: fr, f0Hz: r.f0LocalHz, offsetHz: off, bandwidthHz: bw },
-    });
+  flags.push(...loadingFlags(built, r, fr, bw));
+  // A found resonance far from f0 is another mode of the chain, not a mistuned tank.
+  if (r.origin !== 'found') {
+    const d = detuneFlag(built, r, fr, bw, `${r.name} resonates`);
+    if (d) flags.push(d);
   }
   return flags;
+}
+
+/** A coupled pair judged where it really peaks (once per pair). */
+function pairFlags(built: BuiltChain, resonators: readonly ResonatorFinding[]): Flag[] {
+  const flags: Flag[] = [];
+  const seen = new Set<string>();
+  for (const r of resonators) {
+    if (r.pairPeakHz == null || r.pairBandwidthHz == null || seen.has(r.stageId)) continue;
+    seen.add(r.stageId);
+    const label = built.twoPorts.find((s) => s.id === r.stageId)?.label ?? r.stageId;
+    const d = detuneFlag(built, r, r.pairPeakHz, r.pairBandwidthHz, `Coupled pair "${label}" peaks`); // prettier-ignore
+    if (d) {
+      d.message += ' Its tanks alone resonate near the design frequency; what loads or couples them pulls the pair.'; // prettier-ignore
+      d.data = { ...d.data, pairPeakHz: r.pairPeakHz };
+      flags.push(d);
+    }
+  }
+  return flags;
+}
+
+/** The q-budget flag of a matching network or filter, and the design-Q check. */
+function qBudgetFlag(built: BuiltChain, f0Na: NodeAnalysis, stage: BuiltStage): Flag | null {
+  const m = stage.model;
+  const name = `"${stage.label}"`;
+  const limit = built.settings.thresholds.qBudgetLossDb;
+  const design = m.qBudget;
+  const designShort = !!design && design.required > design.componentQ;
+  const designText = designShort ? ` It needs a loaded Q of ${num(design.required)} but its parts have Q ${num(design.componentQ)}.` : ''; // prettier-ignore
+  const qb = judgedForQ(stage) ? qBudget(built, f0Na, stage, limit) : null;
+  if (qb && qb.lossDb > limit) {
+    const fix = qb.neededQ === null ? 'no part Q brings it under; change the design.' : `parts of Q ${num(qb.neededQ)} or better (now ${num(qb.partQ)}) would bring it under.`; // prettier-ignore
+    return {
+      code: 'q-budget',
+      severity: 'warning',
+      stageId: stage.id,
+      message: `${name} loses ${num(qb.lossDb)} dB at ${hz(built.f0AtFlatNode[stage.firstSection])} in its parts' finite Q, more than the chain's ${num(limit)} dB limit; ${fix}${designText}`,
+      data: { lossDb: qb.lossDb, limitDb: limit, partQ: qb.partQ, neededQ: qb.neededQ ?? NaN },
+    };
+  }
+  if (designShort) {
+    return {
+      code: 'q-budget',
+      severity: 'warning',
+      stageId: stage.id,
+      message: `${name} needs a loaded Q of ${num(design.required)} but its parts have Q ${num(design.componentQ)}; losses will eat the match. Use a lower-Q design or better parts.`,
+      data: { requiredQ: design.required, componentQ: design.componentQ },
+    };
+  }
+  return null;
 }
 
 /**
@@ -172,6 +251,7 @@ export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
   const t = built.settings.thresholds;
   const flags: Flag[] = [];
   for (const r of resonators) flags.push(...tankFlags(built, r));
+  flags.push(...pairFlags(built, resonators));
   // Loads take part too: a detector or converter input is often the chain's last stage.
   for (const stage of [...built.twoPorts, built.load]) {
     const m = stage.model;
@@ -213,15 +293,8 @@ export function raiseFlags({ built, f0Na, resonators }: FlagInputs): Flag[] {
         });
       }
     }
-    if (m.qBudget && m.qBudget.required > m.qBudget.componentQ) {
-      flags.push({
-        code: 'q-budget',
-        severity: 'warning',
-        stageId: stage.id,
-        message: `${name} needs a loaded Q of ${num(m.qBudget.required)} but its parts have Q ${num(m.qBudget.componentQ)}; losses will eat the match. Use a lower-Q design or better parts.`,
-        data: { requiredQ: m.qBudget.required, componentQ: m.qBudget.componentQ },
-      });
-    }
+    const qFlag = qBudgetFlag(built, f0Na, stage);
+    if (qFlag) flags.push(qFlag);
   }
   for (const stage of [built.source, ...built.twoPorts, built.load]) {
     flags.push(...implausibleValueFlags(stage));

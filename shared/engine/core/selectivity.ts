@@ -1,12 +1,14 @@
 /**
  * Cumulative selectivity at each user-level node from the step-up |V[n]|/|Es| over the
- * sweep: peak, −3 dB and −60 dB bandwidths, shape factor, attenuation at stated offsets and
- * at the image frequency of a chain with a mixer.
+ * sweep: peak, −3 dB and −60 dB bandwidths, the depth the response reaches, shape factor,
+ * attenuation at stated offsets and at the image frequency of a chain with a mixer.
  */
 import type { SelectivityReport } from '../types';
 import type { BuiltChain } from './build';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { createProbe } from './probe';
 import { stepUp } from './quantities';
+import { dbAt, gridMax, locateEdge, locatePeak, toDb } from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, log10 } = Math;
@@ -68,64 +70,22 @@ export function imageFrequency(built: BuiltChain, mixer: MixerInfo | null): numb
   return img > 0 && abs(img - mixer.fInHz) > 1e-9 * mixer.fInHz ? img : null;
 }
 
-/** Frequency where the dB curve crosses `level` between points k and k+1 (linear in dB). */
-function crossAt(f: ArrayLike<number>, db: Float64Array, k: number, level: number): number {
-  const a = db[k];
-  const b = db[k + 1];
-  return a === b ? f[k] : f[k] + ((f[k + 1] - f[k]) * (level - a)) / (b - a);
-}
-
-/** Band edges at `drop` dB below the peak around index p, or null when the curve stays above. */
-function edgesAt(
-  f: ArrayLike<number>,
-  db: Float64Array,
-  p: number,
-  peakDb: number,
-  drop: number,
-): [number, number] | null {
-  const level = peakDb - drop;
-  let lo: number | null = null;
-  for (let k = p; k > 0; k--) {
-    if (db[k - 1] < level) {
-      lo = crossAt(f, db, k - 1, level);
-      break;
-    }
-  }
-  let hi: number | null = null;
-  for (let k = p; k + 1 < db.length; k++) {
-    if (db[k + 1] < level) {
-      hi = crossAt(f, db, k, level);
-      break;
-    }
-  }
-  return lo !== null && hi !== null ? [lo, hi] : null;
-}
-
-/** Peak index with a parabolic refinement of its dB level and frequency (3-point fit). */
-function peakOf(
-  f: ArrayLike<number>,
-  db: Float64Array,
-): { k: number; fHz: number; db: number } | null {
-  let k = -1;
-  for (let i = 0; i < db.length; i++) if (isFiniteNumber(db[i]) && (k < 0 || db[i] > db[k])) k = i;
-  if (k < 0) return null;
-  if (k === 0 || k === db.length - 1) return { k, fHz: f[k], db: db[k] };
-  const a = db[k - 1];
-  const b = db[k];
-  const c = db[k + 1];
-  const den = a - 2 * b + c;
-  if (!(den < 0)) return { k, fHz: f[k], db: b };
-  const x = (0.5 * (a - c)) / den; // in (−½, ½) of a step
-  const fHz = x >= 0 ? f[k] + x * (f[k + 1] - f[k]) : f[k] + x * (f[k] - f[k - 1]);
-  return { k, fHz, db: b - 0.25 * (a - c) * x };
-}
-
-const toDb = (r: number) => 20 * log10(r);
 /** The "−3 dB" points are the half-power points, 10·log10(2) = 3.0103 dB down (common practice). */
 const HALF_POWER_DB = 10 * log10(2);
+/**
+ * A −60 dB width is stated only when the response goes on falling through −60 dB: on each
+ * side, half as far again from the peak as its −60 dB edge (in log frequency), it must be
+ * FLOOR_MARGIN_DB further down (a single tuned circuit falls 3.5 dB there). A response that
+ * levels off near −60 dB (a filter whose ultimate rejection is 60 dB) gives a width set by
+ * whatever adds the last fraction of a dB, which says nothing about selectivity; such a node
+ * states how deep it gets there instead (depthDb). Our rule.
+ */
+export const FLOOR_MARGIN_DB = 3;
 
 /**
- * Selectivity report of every user-level node.
+ * Selectivity report of every user-level node. Peaks and band edges are bracketed on the
+ * sweep and located by evaluating the chain at single frequencies (to 1e-10 relative), so
+ * they do not depend on the sweep's spacing.
  * @param sweepNa node analysis over the sweep grid
  * @param imageHz image frequency at the input (null without a mixer)
  */
@@ -141,14 +101,34 @@ export function analyzeSelectivity(
   if (imageHz !== null) exact.push(imageHz);
   const ex = runNodeAnalysis(built, exact);
   const P = sweepNa.points;
+  const f = sweepNa.freqs;
   const db = new Float64Array(P);
+  const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     const flat = built.userNodeFlat[n];
     for (let i = 0; i < P; i++) db[i] = toDb(stepUp(sweepNa, flat, i));
-    const peak = P > 0 ? peakOf(sweepNa.freqs, db) : null;
-    const e3 = peak && P > 2 ? edgesAt(sweepNa.freqs, db, peak.k, peak.db, HALF_POWER_DB) : null;
-    const e60 = peak && P > 2 ? edgesAt(sweepNa.freqs, db, peak.k, peak.db, 60) : null;
+    const k = gridMax(db);
+    const peak = k >= 0 ? locatePeak(probe, flat, f, db, k) : null;
+    let e3: [number, number] | null = null;
+    let e60: [number, number] | null = null;
+    let deepest: number | null = null;
+    if (peak && P > 2) {
+      const lo3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, -1);
+      const hi3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, 1);
+      e3 = lo3 && hi3 ? [lo3.fHz, hi3.fHz] : null;
+      const lo60 = locateEdge(probe, flat, f, db, k, peak.db - 60, -1);
+      const hi60 = locateEdge(probe, flat, f, db, k, peak.db - 60, 1);
+      if (lo60 && hi60) {
+        const fp = peak.fHz;
+        const further = Math.max(
+          dbAt(probe, flat, fp * (lo60.fHz / fp) ** 1.5),
+          dbAt(probe, flat, fp * (hi60.fHz / fp) ** 1.5),
+        );
+        if (further <= peak.db - 60 - FLOOR_MARGIN_DB) e60 = [lo60.fHz, hi60.fHz];
+        else deepest = peak.db - further;
+      }
+    }
     const bw3 = e3 ? e3[1] - e3[0] : null;
     const bw60 = e60 ? e60[1] - e60[0] : null;
     const ref = peak ? peak.db : toDb(stepUp(ex, flat, 0));
@@ -169,6 +149,7 @@ export function analyzeSelectivity(
       bw3dbLowHz: e3 ? e3[0] : null,
       bw3dbHighHz: e3 ? e3[1] : null,
       bw60dbHz: bw60,
+      depthDb: deepest !== null && isFiniteNumber(deepest) ? deepest : null,
       shapeFactor: bw3 && bw60 ? bw60 / bw3 : null,
       offsets,
       imageHz,

@@ -1,0 +1,102 @@
+/**
+ * The two tanks of a coupled pair, and where the pair really peaks.
+ *
+ * Each tank's Q comes from its own susceptance slope and the conductance at its node (see
+ * coupledExtract): the node's total susceptance carries the partner's resonance too. The first
+ * tank (partner downstream) is reported loaded by everything at its node and detached as
+ * itself plus the source; it is damped by its partner on purpose, so it gets no loading ratio.
+ * The second tank (partner upstream) is judged like any tank: with and without the stages
+ * after it.
+ *
+ * A pair pulled by its coupling or by what hangs across it does not peak where either tank
+ * alone resonates, so the pair also reports the maximum of the voltage at its output node and
+ * the −3 dB width there; the detune flag judges the pair by that.
+ */
+import type { ResonatorDecl } from '../types';
+import type { BuiltChain, BuiltStage } from './build';
+import { coupledExtract, ownResonance, resonate } from './extract-resonance';
+import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import type { Probe } from './probe';
+import { stepUp } from './quantities';
+import { gridMax, locateEdge, locatePeak, toDb } from './response-shape';
+
+const isFiniteNumber = Number.isFinite;
+const HALF_POWER_DB = 10 * Math.log10(2);
+
+type ShuntDecl = ResonatorDecl & { kind: 'shunt' };
+
+/** What a coupled tank reports (before the common fields are added). */
+export interface CoupledTankFigures {
+  flat: number;
+  /** Input frequency of the tank's resonance, Hz. */
+  fIn: number | null;
+  resonanceHz: number | null;
+  loadedQ: number | null;
+  unloadedQ: number | null;
+  detachedQ: number | null;
+  loadingRatio: number | null;
+  downstreamShare: number | null;
+  detachedFr: number | null;
+}
+
+const nn = (x: number | undefined) => (x === undefined || Number.isNaN(x) ? null : x);
+
+/** One tank of a pair. */
+export function coupledTank(
+  built: BuiltChain,
+  gridNa: NodeAnalysis,
+  stage: BuiltStage,
+  decl: ShuntDecl,
+): CoupledTankFigures {
+  const first = decl.coupledPartner === 'downstream';
+  const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
+  const grid = gridNa.freqs;
+  const f0 = built.settings.f0Hz;
+  const own = decl.ownAdmittance;
+  const att = resonate(built, grid, gridNa, coupledExtract(flat, own, true, true, false), f0);
+  const det = resonate(built, grid, gridNa, coupledExtract(flat, own, true, false, first), f0);
+  const qA = nn(att?.q);
+  const qD = nn(det?.q);
+  let share: number | null = null;
+  if (att && !first) {
+    const one = runNodeAnalysis(built, [att.fIn]);
+    const zr = one.zinRe[flat];
+    const zi = one.zinIm[flat];
+    const gDown = isFiniteNumber(zr) && isFiniteNumber(zi) ? zr / (zr * zr + zi * zi) : 0;
+    share = att.real > 0 ? gDown / att.real : null;
+  }
+  return {
+    flat,
+    fIn: att ? att.fIn : null,
+    resonanceHz: att ? att.fr : null,
+    loadedQ: qA,
+    unloadedQ: att ? ownResonance(own, att.fr) : null,
+    detachedQ: qD,
+    detachedFr: det ? det.fr : null,
+    loadingRatio: !first && qA && qD ? qA / qD : null,
+    downstreamShare: share,
+  };
+}
+
+/**
+ * Where a pair peaks: the highest point of the voltage at its output node over the grid,
+ * located by single-frequency evaluations, and its −3 dB width there (input Hz).
+ */
+export function pairPeak(
+  built: BuiltChain,
+  gridNa: NodeAnalysis,
+  probe: Probe,
+  stage: BuiltStage,
+): { peakHz: number; bandwidthHz: number | null } | null {
+  const flat = stage.firstSection + stage.sectionCount;
+  const P = gridNa.points;
+  const db = new Float64Array(P);
+  for (let i = 0; i < P; i++) db[i] = toDb(stepUp(gridNa, flat, i));
+  const k = gridMax(db);
+  if (k < 0) return null;
+  const peak = locatePeak(probe, flat, gridNa.freqs, db, k);
+  const level = peak.db - HALF_POWER_DB;
+  const lo = locateEdge(probe, flat, gridNa.freqs, db, k, level, -1);
+  const hi = locateEdge(probe, flat, gridNa.freqs, db, k, level, 1);
+  return { peakHz: peak.fHz, bandwidthHz: lo && hi ? hi.fHz - lo.fHz : null };
+}

@@ -1,0 +1,201 @@
+/**
+ * Resonances measured through a probed quantity over a grid: the machinery behind the
+ * declared resonators whose Q is not the plain node admittance's (a series resonator's loop
+ * impedance, one tank of a coupled pair) and behind unloaded Q.
+ *
+ * The probed quantity at grid point i is written as (real part, imaginary part, the node's own
+ * frequency); its resonance is the rising zero of the imaginary part nearest the target,
+ * bracketed on the grid and refined by bisection with single-frequency evaluations; Q =
+ * (ωr/2·real)·d(imag)/dω by central difference.
+ */
+import type { ComplexFn } from '../types';
+import type { BuiltChain } from './build';
+import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { logGrid } from './sweep';
+
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { PI, abs, log } = Math;
+const isFiniteNumber = Number.isFinite;
+
+/** Grid points of the search for a resonator's own (unloaded) resonance. */
+const OWN_POINTS = 4001;
+/** Relative step of the central difference for dB/dω. */
+const DIFF_STEP = 1e-6;
+
+/** Writes (real part, imaginary part, local frequency) of the probed quantity at point i. */
+export type Extract = (na: NodeAnalysis, i: number, out: Float64Array) => void;
+
+/**
+ * Index k of the rising zero crossing (v[k] < 0 ≤ v[k+1]) whose interpolated frequency is
+ * nearest `target`, or −1 when there is none. With `local` (the node's own frequency at each
+ * point, which falls as the input rises behind a mixer whose LO is above the signal), "rising"
+ * means rising with the local frequency.
+ */
+export function nearestRisingCrossing(
+  f: ArrayLike<number>,
+  v: ArrayLike<number>,
+  target: number,
+  local?: ArrayLike<number>,
+): number {
+  let best = -1;
+  let bestDist = Infinity;
+  for (let k = 0; k + 1 < f.length; k++) {
+    const s = orientation(local, k);
+    const a = s * v[k];
+    const b = s * v[k + 1];
+    if (!(a < 0 && b >= 0) || !isFiniteNumber(a) || !isFiniteNumber(b)) continue;
+    const fc = f[k] + ((f[k + 1] - f[k]) * -a) / (b - a);
+    const d = abs(log(fc / target));
+    if (d < bestDist) {
+      bestDist = d;
+      best = k;
+    }
+  }
+  return best;
+}
+
+/** +1 when the local frequency rises from point k to k+1 (or none is given), else −1. */
+function orientation(local: ArrayLike<number> | undefined, k: number): number {
+  return !local || local[k + 1] >= local[k] ? 1 : -1;
+}
+
+/** Refines a bracketed rising zero of `g` on [lo, hi] by bisection to machine precision. */
+export function bisectRising(g: (f: number) => number, lo: number, hi: number): number {
+  if (g(hi) === 0) return hi;
+  for (let it = 0; it < 200 && hi - lo > 4 * Number.EPSILON * hi; it++) {
+    const mid = 0.5 * (lo + hi);
+    const v = g(mid);
+    if (v === 0) return mid;
+    if (v < 0) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+export interface Resonance {
+  fIn: number;
+  fr: number;
+  real: number;
+  q: number;
+}
+
+/** Finds the resonance of one probed quantity and its Q. */
+export function resonate(
+  built: BuiltChain,
+  grid: Float64Array,
+  gridNa: NodeAnalysis,
+  extract: Extract,
+  target: number,
+): Resonance | null {
+  const out = new Float64Array(3);
+  const im = new Float64Array(grid.length);
+  const local = new Float64Array(grid.length);
+  for (let i = 0; i < grid.length; i++) {
+    extract(gridNa, i, out);
+    im[i] = out[1];
+    local[i] = out[2];
+  }
+  const k = nearestRisingCrossing(grid, im, target, local);
+  if (k < 0) return null;
+  const sign = orientation(local, k);
+  const one = createNodeAnalysis(built, 1);
+  const f1 = new Float64Array(1);
+  const probe = (f: number) => {
+    f1[0] = f;
+    runNodeAnalysis(built, f1, one);
+    extract(one, 0, out);
+    return sign * out[1];
+  };
+  const fIn = bisectRising(probe, grid[k], grid[k + 1]);
+  probe(fIn);
+  const real = out[0];
+  const fr = out[2];
+  const two = runNodeAnalysis(built, [fIn * (1 - DIFF_STEP), fIn * (1 + DIFF_STEP)]);
+  extract(two, 0, out);
+  const imLo = out[1];
+  const fLo = out[2];
+  extract(two, 1, out);
+  const slope = (out[1] - imLo) / (2 * PI * (out[2] - fLo)); // d(im)/dω at the node
+  const q = ((2 * PI * fr) / (2 * real)) * slope;
+  return { fIn, fr, real, q: isFiniteNumber(q) && q > 0 ? q : NaN };
+}
+
+/** Resonance and Q of a resonator's own element (unloaded), searched around `near`. */
+export function ownResonance(fn: ComplexFn, near: number): number | null {
+  const grid = logGrid(near / 3, near * 3, OWN_POINTS);
+  const v = new Float64Array(grid.length);
+  const out = new Float64Array(2);
+  const imAt = (f: number) => {
+    fn(f, out, 0);
+    return out[1];
+  };
+  for (let i = 0; i < grid.length; i++) v[i] = imAt(grid[i]);
+  const k = nearestRisingCrossing(grid, v, near);
+  if (k < 0) return null;
+  const fr = bisectRising(imAt, grid[k], grid[k + 1]);
+  fn(fr, out, 0);
+  const real = out[0];
+  const h = fr * DIFF_STEP;
+  const slope = (imAt(fr + h) - imAt(fr - h)) / (2 * PI * 2 * h);
+  const q = ((2 * PI * fr) / (2 * real)) * slope;
+  return isFiniteNumber(q) && q > 0 ? q : null;
+}
+
+function addInverse(re: number, im: number, out: Float64Array, o: number): void {
+  if (!isFiniteNumber(re) || !isFiniteNumber(im)) return; // an open side adds nothing
+  const d = re * re + im * im;
+  out[o] += d === 0 ? Infinity : re / d;
+  out[o + 1] += d === 0 ? 0 : -im / d;
+}
+
+export function shuntExtract(node: number, downstream: boolean): Extract {
+  return (na, i, out) => {
+    const k = node * na.points + i;
+    out[0] = 0;
+    out[1] = 0;
+    addInverse(na.zsrcRe[k], na.zsrcIm[k], out, 0);
+    if (downstream) addInverse(na.zinRe[k], na.zinIm[k], out, 0);
+    out[2] = na.fNode[k];
+  };
+}
+
+/**
+ * One tank of a coupled pair, probed at the stage boundary on the tank's far side from its
+ * partner (electrically the tank's own node): real part = the conductance there (source,
+ * and downstream when `downstream`; `ownToo` adds the tank's own when the probed side does
+ * not already hold it), imaginary part = the tank's OWN susceptance, so Q = (ωr/2G)·dB/dω
+ * uses the energy the tank itself stores, not the pair's split response.
+ */
+export function coupledExtract(
+  node: number,
+  own: ComplexFn,
+  withSource: boolean,
+  downstream: boolean,
+  ownToo: boolean,
+): Extract {
+  const y = new Float64Array(2);
+  return (na, i, out) => {
+    const k = node * na.points + i;
+    out[0] = 0;
+    out[1] = 0;
+    if (withSource) addInverse(na.zsrcRe[k], na.zsrcIm[k], out, 0);
+    if (downstream) addInverse(na.zinRe[k], na.zinIm[k], out, 0);
+    const f = na.fNode[k];
+    own(f, y, 0);
+    if (ownToo) out[0] += y[0];
+    out[1] = y[1];
+    out[2] = f;
+  };
+}
+
+export function seriesExtract(built: BuiltChain, section: number): Extract {
+  const m = new Float64Array(8);
+  return (na, i, out) => {
+    const kIn = section * na.points + i;
+    const kOut = kIn + na.points;
+    built.sections[section].abcd(na.fNode[kIn], m, 0);
+    out[0] = na.zsrcRe[kIn] + m[2] + na.zinRe[kOut];
+    out[1] = na.zsrcIm[kIn] + m[3] + na.zinIm[kOut];
+    out[2] = na.fNode[kIn];
+  };
+}

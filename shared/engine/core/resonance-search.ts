@@ -1,0 +1,210 @@
+/**
+ * Finding parallel resonances at a node of the node analysis and measuring their Q.
+ *
+ * At a node the total admittance Y(f) = 1/Zsrc + 1/Zin = G + jB holds everything attached to
+ * it. Where B rises through zero there is a parallel resonance (a falling crossing is a pole
+ * of B: a series resonance elsewhere). The grid only brackets a crossing; the frequency is
+ * then solved for with single-frequency evaluations (probe.ts). Loaded Q = (ωr/2G)·dB/dω at ωr,
+ * the derivative by a central difference. Searches run over the input frequency (what the
+ * sweep varies); "rising" means rising with the node's own frequency, which falls as the input
+ * rises behind a mixer whose LO is above the signal.
+ */
+import type { BuiltChain } from './build';
+import type { NodeAnalysis } from './nodes';
+import type { Probe } from './probe';
+import { solveBracketed } from './refine';
+import { logGrid } from './sweep';
+
+const { PI, abs, max, min } = Math;
+const isFiniteNumber = Number.isFinite;
+
+/** Grid points of the bracketing search when the sweep cannot be reused. */
+export const SEARCH_POINTS = 4001;
+/** Fewest sweep points in the search range for the sweep itself to bracket resonances. */
+const MIN_REUSED_POINTS = 1001;
+/** Relative step of the central difference for dB/dω. */
+const DIFF_STEP = 1e-6;
+
+/**
+ * The input-frequency range searched for resonances: the sweep span widened to include f0;
+ * a sweep narrower than 0.1 % (such as a one-point sweep) searches f0/2 … 2·f0 instead.
+ */
+export function searchRange(built: BuiltChain): [number, number] {
+  const { f0Hz, sweep } = built.settings;
+  const lo = min(sweep.startHz, f0Hz);
+  const hi = max(sweep.stopHz, f0Hz);
+  return hi / lo < 1.001 ? [f0Hz / 2, f0Hz * 2] : [lo, hi];
+}
+
+/**
+ * The grid that brackets resonances: the sweep already computed when it spans the search
+ * range with enough points (no second node analysis), else a log grid of SEARCH_POINTS.
+ */
+export function bracketingGrid(
+  built: BuiltChain,
+  sweepNa: NodeAnalysis | null,
+  analyse: (freqs: Float64Array) => NodeAnalysis,
+): NodeAnalysis {
+  const [lo, hi] = searchRange(built);
+  if (sweepNa && sweepNa.points >= MIN_REUSED_POINTS) {
+    const f = sweepNa.freqs;
+    if (f[0] <= lo && f[sweepNa.points - 1] >= hi) return sweepNa;
+  }
+  return analyse(logGrid(lo, hi, SEARCH_POINTS));
+}
+
+/** A rising crossing of B bracketed on the grid between points k and k+1. */
+export interface Bracket {
+  k: number;
+  /** +1 when the node's frequency rises with the input there, −1 when it falls. */
+  sign: number;
+}
+
+/** B at `node`, grid point i (an open side adds nothing, as in addInverse). */
+function susceptanceAt(na: NodeAnalysis, node: number, i: number): number {
+  const k = node * na.points + i;
+  let b = 0;
+  const sr = na.zsrcRe[k];
+  const si = na.zsrcIm[k];
+  if (isFiniteNumber(sr) && isFiniteNumber(si)) {
+    const d = sr * sr + si * si;
+    b += d === 0 ? 0 : -si / d;
+  }
+  const zr = na.zinRe[k];
+  const zi = na.zinIm[k];
+  if (isFiniteNumber(zr) && isFiniteNumber(zi)) {
+    const d = zr * zr + zi * zi;
+    b += d === 0 ? 0 : -zi / d;
+  }
+  return b;
+}
+
+/** Every rising crossing of B at a node over the grid, in frequency order. */
+export function risingCrossings(na: NodeAnalysis, node: number): Bracket[] {
+  const out: Bracket[] = [];
+  const fl = na.fNode;
+  const base = node * na.points;
+  let prev = susceptanceAt(na, node, 0);
+  for (let i = 0; i + 1 < na.points; i++) {
+    const next = susceptanceAt(na, node, i + 1);
+    const sign = fl[base + i + 1] >= fl[base + i] ? 1 : -1;
+    const a = sign * prev;
+    const b = sign * next;
+    if (a < 0 && b >= 0 && isFiniteNumber(a) && isFiniteNumber(b)) out.push({ k: i, sign });
+    prev = next;
+  }
+  return out;
+}
+
+/** A resonance located and measured at one node. */
+export interface NodeResonance {
+  /** Input frequency of the resonance, Hz. */
+  fIn: number;
+  /** Resonance at the node's own frequency, Hz. */
+  fr: number;
+  /** Conductance at the node at fr, S. */
+  g: number;
+  /** Loaded Q (NaN when not finite and positive). */
+  q: number;
+  sign: number;
+}
+
+/** Writes the admittance that a measurement looks at (attached or cut open) after probe.at. */
+export type AdmittanceOf = (probe: Probe, node: number, out: Float64Array) => void;
+
+export const attached: AdmittanceOf = (p, node, out) => p.nodeAdmittance(node, out);
+export const cutAt =
+  (cut: number): AdmittanceOf =>
+  (p, node, out) =>
+    p.cutAdmittance(node, cut, out);
+
+/**
+ * Solves B = 0 on a bracket [lo, hi] (input Hz) and measures Q there.
+ * @param sign orientation of the node's frequency against the input (see Bracket)
+ */
+export function resonanceIn(
+  probe: Probe,
+  node: number,
+  lo: number,
+  hi: number,
+  sign: number,
+  y: AdmittanceOf,
+  scratch: Float64Array,
+): NodeResonance | null {
+  const bAt = (f: number) => {
+    probe.at(f, node);
+    y(probe, node, scratch);
+    return sign * scratch[1];
+  };
+  const fIn = solveBracketed(bAt, lo, hi);
+  if (!isFiniteNumber(fIn)) return null;
+  return measureAt(probe, node, fIn, sign, y, scratch);
+}
+
+/** Q = (ωr/2G)·dB/dω at input frequency fIn (the node's own ω). */
+export function measureAt(
+  probe: Probe,
+  node: number,
+  fIn: number,
+  sign: number,
+  y: AdmittanceOf,
+  scratch: Float64Array,
+): NodeResonance {
+  probe.at(fIn, node);
+  y(probe, node, scratch);
+  const g = scratch[0];
+  const fr = probe.fNode[node];
+  probe.at(fIn * (1 - DIFF_STEP), node);
+  y(probe, node, scratch);
+  const bLo = scratch[1];
+  const fLo = probe.fNode[node];
+  probe.at(fIn * (1 + DIFF_STEP), node);
+  y(probe, node, scratch);
+  const slope = (scratch[1] - bLo) / (2 * PI * (probe.fNode[node] - fLo));
+  const q = ((2 * PI * fr) / (2 * g)) * slope;
+  return { fIn, fr, g, q: isFiniteNumber(q) && q > 0 ? q : NaN, sign };
+}
+
+/**
+ * The rising zero of B nearest `near` (input Hz) without a grid: steps outward from `near`
+ * geometrically up to a factor `span` each way until B changes sign, then solves. Used for a
+ * detached tank, whose resonance sits close to the attached one.
+ */
+export function resonanceNear(
+  probe: Probe,
+  node: number,
+  near: number,
+  sign: number,
+  y: AdmittanceOf,
+  scratch: Float64Array,
+  span = 2,
+): NodeResonance | null {
+  const bAt = (f: number) => {
+    probe.at(f, node);
+    y(probe, node, scratch);
+    return sign * scratch[1];
+  };
+  const b0 = bAt(near);
+  if (!isFiniteNumber(b0)) return null;
+  if (b0 === 0) return measureAt(probe, node, near, sign, y, scratch);
+  // B rises through the zero: below it B < 0, so look upward from a negative value.
+  const up = b0 < 0;
+  let prevF = near;
+  let prevB = b0;
+  for (let step = 1e-4; ; step *= 2) {
+    const ratio = 1 + min(step, span - 1);
+    const f = up ? near * ratio : near / ratio;
+    const b = bAt(f);
+    if (isFiniteNumber(b) && (up ? b >= 0 : b < 0)) {
+      const [lo, hi, blo, bhi] = up ? [prevF, f, prevB, b] : [f, prevF, b, prevB];
+      const fIn = solveBracketed(bAt, lo, hi, undefined, blo, bhi);
+      return isFiniteNumber(fIn) ? measureAt(probe, node, fIn, sign, y, scratch) : null;
+    }
+    if (!isFiniteNumber(b) || ratio >= span) return null;
+    prevF = f;
+    prevB = b;
+  }
+}
+
+/** |a/b − 1|, for "the same frequency". */
+export const relDiff = (a: number, b: number) => abs(a / b - 1);

@@ -1,0 +1,48 @@
+/**
+ * The single-frequency probe against the node analysis it stands in for: the same impedances
+ * and step-up at every node, behind amplifiers and a mixer too (it must agree to rounding, as
+ * it is the same formulas evaluated for one point).
+ */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
+import { buildChain } from '../../shared/engine/core/build';
+import { runNodeAnalysis } from '../../shared/engine/core/nodes';
+import { createProbe } from '../../shared/engine/core/probe';
+import { stepUp } from '../../shared/engine/core/quantities';
+import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import { chainDocumentSchema } from '../../shared/schema/chain';
+
+const file = path.join(__dirname, '..', '..', 'examples', 'shortwave-superhet-single-tank.chain.json'); // prettier-ignore
+const built = buildChain(
+  chainDocumentSchema.parse(JSON.parse(readFileSync(file, 'utf8'))),
+  STAGE_DEFINITIONS,
+);
+const close = (a: number, b: number) => Math.abs(a - b) <= 1e-12 * Math.max(Math.abs(a), Math.abs(b), 1e-300); // prettier-ignore
+
+/** |z1 − z2| / |z2|. */
+const sameZ = (ar: number, ai: number, br: number, bi: number) =>
+  Math.hypot(ar - br, ai - bi) / Math.hypot(br, bi);
+
+describe('probe', () => {
+  const probe = createProbe(built);
+  it.each([6.1e6, 7.2e6, 7.2031e6, 8.11e6])('agrees with the node analysis at %d Hz', (f) => {
+    const na = runNodeAnalysis(built, [f]);
+    for (let n = 0; n < na.nodes; n++) {
+      expect(close(probe.at(f, n, true), stepUp(na, n, 0))).toBe(true);
+      expect(sameZ(probe.zsrcRe[n], probe.zsrcIm[n], na.zsrcRe[n], na.zsrcIm[n])).toBeLessThan(1e-12); // prettier-ignore
+      // Before an amplifier the probe starts from an open circuit, which gives the same
+      // impedance as the load would up to the rounding of A·D − B·C = 0.
+      expect(sameZ(probe.zinRe[n], probe.zinIm[n], na.zinRe[n], na.zinIm[n])).toBeLessThan(1e-9); // prettier-ignore
+      expect(probe.fNode[n]).toBe(na.fNode[n]);
+    }
+  });
+
+  it('cut open at the node itself leaves only the source side', () => {
+    const out = new Float64Array(2);
+    probe.at(7.2e6, 2);
+    probe.cutAdmittance(2, 2, out);
+    const d = probe.zsrcRe[2] ** 2 + probe.zsrcIm[2] ** 2;
+    expect(close(out[0], probe.zsrcRe[2] / d)).toBe(true);
+    expect(close(out[1], -probe.zsrcIm[2] / d)).toBe(true);
+  });
+});
