@@ -10,7 +10,7 @@
  * needed: every part-Q parameter raised to at least q, the stage rebuilt and the chain
  * evaluated at f0, with q solved for (log-space bisection to 1 %).
  */
-import type { ParamValues } from '../types';
+import type { ParamValues, TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { deliveredPower } from './quantities';
@@ -42,18 +42,24 @@ function partQKeys(stage: BuiltStage): string[] {
  * dissipates most of the little power it takes on purpose, and its loading is what the
  * loading flag judges.
  */
-export function judgedForQ(stage: BuiltStage): boolean {
+export function judgedForQ(stage: BuiltStage): stage is BuiltStage<TwoPortModel> {
   const cat = stage.definition.category;
   return (
+    'sections' in stage.model &&
     (cat === 'matching' || (cat === 'filter' && stage.sectionCount > 1)) &&
     stage.sectionCount > 0 &&
-    stage.model.sections.every((s) => !s.unilateral && !s.translate) &&
+    (stage.model as TwoPortModel).sections.every((s) => !s.unilateral && !s.translate) &&
     partQKeys(stage).length > 0
   );
 }
 
 /** Power out of the stage at f0 with its part Q raised to at least q (Infinity: as built). */
-function powerOut(built: BuiltChain, stage: BuiltStage, keys: string[], q: number): number {
+function powerOut(
+  built: BuiltChain,
+  stage: BuiltStage<TwoPortModel>,
+  keys: string[],
+  q: number,
+): number {
   let b: BuiltChain | null = built;
   if (Number.isFinite(q)) {
     const values = { ...stage.values };
@@ -65,17 +71,22 @@ function powerOut(built: BuiltChain, stage: BuiltStage, keys: string[], q: numbe
 }
 
 /** The chain with one stage rebuilt from other values (same section count), or null. */
-function withValues(built: BuiltChain, stage: BuiltStage, values: ParamValues): BuiltChain | null {
-  let sections;
+function withValues(
+  built: BuiltChain,
+  stage: BuiltStage<TwoPortModel>,
+  values: ParamValues,
+): BuiltChain | null {
+  let model;
   try {
-    sections = stage.definition.build(values, {
+    model = stage.definition.build(values, {
       f0Hz: built.f0AtFlatNode[stage.firstSection],
       temperatureK: built.settings.temperatureK,
-    }).sections;
+    });
   } catch {
     return null; // values the stage cannot take: no figure rather than a wrong one
   }
-  if (sections.length !== stage.sectionCount) return null;
+  if (!('sections' in model) || model.sections.length !== stage.sectionCount) return null;
+  const sections = model.sections;
   const all = built.sections.slice();
   for (let j = 0; j < sections.length; j++) all[stage.firstSection + j] = sections[j];
   return { ...built, sections: all };
@@ -89,7 +100,7 @@ function withValues(built: BuiltChain, stage: BuiltStage, values: ParamValues): 
 export function qBudget(
   built: BuiltChain,
   f0Na: NodeAnalysis,
-  stage: BuiltStage,
+  stage: BuiltStage<TwoPortModel>,
   limitDb: number,
 ): QBudget | null {
   const keys = partQKeys(stage);

@@ -2,6 +2,7 @@
  * Where tuned circuits can be in a built chain, from its sections alone: which flat nodes are
  * one electrical node, which nodes a passive path joins, and where a tuned circuit ends.
  */
+import type { TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 
 /** Facts about the sections of a chain, worked out once per analysis. */
@@ -48,7 +49,7 @@ export function groupEnd(topo: Topology, first: number): number {
 }
 
 /** A stage whose sections are all passive and bilateral (no gain, no frequency change). */
-function isPassive(stage: BuiltStage): boolean {
+function isPassive(stage: BuiltStage<TwoPortModel>): boolean {
   return stage.model.sections.every((s) => !s.unilateral && !s.translate);
 }
 

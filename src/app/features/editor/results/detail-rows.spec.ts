@@ -30,8 +30,14 @@ describe('detail-rows', () => {
   });
 
   describe('loadingState', () => {
+    it('should judge the ratio as shown (two decimals): 0.50 either side of rounding is a match', () => {
+      expect(loadingState(0.5, thresholds)).toBe('matched');
+      expect(loadingState(0.4999999, thresholds)).toBe('matched');
+      expect(loadingState(0.5000001, thresholds)).toBe('matched');
+      expect(loadingState(0.51, thresholds)).toBe('fine');
+    });
+
     it('should judge the ratio against the chain thresholds, edges included', () => {
-      expect(loadingState(0.5, thresholds)).toBe('fine');
       expect(loadingState(0.49, thresholds)).toBe('warning');
       expect(loadingState(0.2, thresholds)).toBe('warning');
       expect(loadingState(0.19, thresholds)).toBe('error');
@@ -57,6 +63,20 @@ describe('detail-rows', () => {
       });
     });
 
+    it('should say whether a stage declared the resonator or the analysis found it, and of what', () => {
+      expect(rows[0].origin).toBe('declared');
+      const found = sampleResult();
+      found.resonators[0] = { ...found.resonators[0], origin: 'found', partOf: ['tank', 'lna'] };
+      expect(resonatorRows(found, document)[0].origin).toBe('found: Preselector + LNA');
+    });
+
+    it('should show where a coupled pair peaks, and nothing for a single tank', () => {
+      expect(rows[0].pairPeak).toBe('');
+      const pair = sampleResult();
+      pair.resonators[0] = { ...pair.resonators[0], pairPeakHz: 9.87e6 };
+      expect(resonatorRows(pair, document)[0].pairPeak).toBe('9.87 MHz');
+    });
+
     it('should say when there is no resonance in the sweep', () => {
       expect(rows[1].resonance).toBe('none in sweep');
       expect(rows[1].loadedQ).toBe(NO_VALUE);
@@ -77,6 +97,12 @@ describe('detail-rows', () => {
         image: '10.91 MHz',
         imageRejection: '24.5 dB',
       });
+    });
+
+    it('should state the floor where the response levels off near −60 dB', () => {
+      const floor = sampleResult();
+      floor.selectivity[1] = { ...floor.selectivity[1], bw60dbHz: null, depthDb: 60.04 };
+      expect(selectivityRows(floor)[1].bw60).toBe('floor at −60.0 dB');
     });
 
     it('should say when the −60 dB points lie beyond the sweep', () => {

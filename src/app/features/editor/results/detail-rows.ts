@@ -7,7 +7,7 @@ import type { AnalysisResult, Flag, Severity } from '../../../../../shared/engin
 import { NO_VALUE, decibels, engineering, percent, plain } from './format-quantity';
 
 /** How hard a tank is loaded, judged against the chain's own thresholds. */
-export type LoadingState = 'fine' | 'warning' | 'error' | 'unknown';
+export type LoadingState = 'fine' | 'matched' | 'warning' | 'error' | 'unknown';
 
 export interface ResonatorRow {
   key: string;
@@ -16,6 +16,10 @@ export interface ResonatorRow {
   resonator: string;
   kind: string;
   node: string;
+  /** Declared by its stage, or found in the network (and made of which stages). */
+  origin: string;
+  /** Where a coupled pair really peaks (blank for a single tuned circuit). */
+  pairPeak: string;
   resonance: string;
   loadedQ: string;
   unloadedQ: string;
@@ -62,11 +66,22 @@ export function stageLabel(document: ChainDocument, stageId: string): string {
   return stage.label.trim() || stage.type;
 }
 
+/**
+ * The engine's loading rule: the ratio as shown (two decimals) below the warning level is a
+ * warning, below the error level an error; 0.50 is a conjugate match.
+ */
 export function loadingState(ratio: number | null, thresholds: Thresholds): LoadingState {
   if (ratio === null || Number.isNaN(ratio)) return 'unknown';
-  if (ratio < thresholds.loadingError) return 'error';
-  if (ratio < thresholds.loadingWarn) return 'warning';
-  return 'fine';
+  const shown = Math.round(ratio * 100) / 100;
+  if (shown < thresholds.loadingError) return 'error';
+  if (shown < thresholds.loadingWarn) return 'warning';
+  return shown === 0.5 ? 'matched' : 'fine';
+}
+
+function originOf(r: AnalysisResult['resonators'][number], document: ChainDocument): string {
+  if (r.origin !== 'found') return 'declared';
+  const parts = (r.partOf ?? [r.stageId]).map((id) => stageLabel(document, id));
+  return `found: ${parts.join(' + ')}`;
 }
 
 export function resonatorRows(result: AnalysisResult, document: ChainDocument): ResonatorRow[] {
@@ -78,6 +93,8 @@ export function resonatorRows(result: AnalysisResult, document: ChainDocument): 
     resonator: r.label,
     kind: r.kind === 'shunt' ? 'Shunt tank' : 'Series',
     node: r.node === null ? 'inside stage' : `Node ${r.node}`,
+    origin: originOf(r, document),
+    pairPeak: r.pairPeakHz == null ? '' : engineering(r.pairPeakHz, 'hertz', 4),
     resonance: r.resonanceHz === null ? 'none in sweep' : engineering(r.resonanceHz, 'hertz', 4),
     loadedQ: plain(r.loadedQ, 1),
     unloadedQ: plain(r.unloadedQ, 1),
@@ -94,6 +111,13 @@ export function offsetHeadings(document: ChainDocument): string[] {
   return document.settings.offsetsHz.map((hz) => `±${engineering(hz, 'hertz')}`);
 }
 
+/** The −60 dB width, or why there is none: a floor the response levels off at, or the sweep. */
+function bw60Text(s: AnalysisResult['selectivity'][number]): string {
+  if (s.bw60dbHz !== null) return engineering(s.bw60dbHz, 'hertz');
+  if (s.depthDb != null) return `floor at −${s.depthDb.toFixed(1)} dB`;
+  return 'beyond sweep';
+}
+
 export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
   return result.selectivity.map((s) => {
     const node = result.nodes.find((n) => n.index === s.node);
@@ -103,7 +127,7 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
       peak: engineering(s.peakHz, 'hertz', 4),
       peakStepUp: decibels(s.peakStepUpDb),
       bw3: engineering(s.bw3dbHz, 'hertz'),
-      bw60: s.bw60dbHz === null ? 'beyond sweep' : engineering(s.bw60dbHz, 'hertz'),
+      bw60: bw60Text(s),
       shapeFactor: plain(s.shapeFactor, 2),
       offsets: s.offsets.map((o) =>
         o.belowDb === null && o.aboveDb === null

@@ -4,6 +4,7 @@ import type { LoadingState, ResonatorRow, SelectivityRow } from './detail-rows';
 
 const LOADING_TEXT: Record<LoadingState, string> = {
   fine: 'light',
+  matched: 'matched',
   warning: 'heavy',
   error: 'severe',
   unknown: '',
@@ -21,10 +22,13 @@ const RESONATOR_COLUMNS = [
   'loadingRatio',
   'downstreamShare',
 ];
+/** Shown only when a coupled pair is in the chain. */
+const PAIR_COLUMN = 'pairPeak';
 
 /**
  * Every resonator's Q and bandwidth with and without the downstream side attached (the
- * "does the next stage load the tank?" question), and the cumulative selectivity per node.
+ * "does the next stage load the tank?" question), whether its stage declared it or the
+ * analysis found it in the network, and the cumulative selectivity per node.
  */
 @Component({
   selector: 'cw-resonance-tables',
@@ -41,7 +45,11 @@ export class ResonanceTablesComponent {
   readonly selectedStageId = input<string | null>(null);
   readonly stageSelected = output<string>();
 
-  protected readonly resonatorColumns = RESONATOR_COLUMNS;
+  protected readonly resonatorColumns = computed(() =>
+    this.resonators().some((r) => r.pairPeak !== '')
+      ? [...RESONATOR_COLUMNS.slice(0, 3), PAIR_COLUMN, ...RESONATOR_COLUMNS.slice(3)]
+      : RESONATOR_COLUMNS,
+  );
   protected readonly offsetColumns = computed(() =>
     this.offsetHeadings().map((heading, i) => ({ id: `offset${i}`, heading, index: i })),
   );

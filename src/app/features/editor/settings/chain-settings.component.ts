@@ -136,6 +136,13 @@ const FIELDS: SettingField[] = [
     { min: 1, exclusiveMin: true, max: 100 },
     'between the source a noise figure was stated for and the one the stage sees',
   ),
+  threshold(
+    'qBudgetLossDb',
+    'Part-Q loss: flag beyond',
+    'db',
+    { min: 0, exclusiveMin: true, max: 40 },
+    'in a matching network or filter at f0',
+  ),
 ];
 
 /** Settings that may be left empty (the engine then uses its rule, said in `empty`). */

@@ -40,6 +40,7 @@ const EMPTY: ChainDocument = {
       matchReturnLossDb: 15,
       detuneFraction: 0.5,
       noiseMismatchVswr: 2,
+      qBudgetLossDb: 1,
     },
   },
   stages: [],

@@ -128,6 +128,7 @@ export function sampleDocument(): ChainDocument {
         compressionBackoffDb: 3,
         matchReturnLossDb: 15,
         detuneFraction: 0.5,
+        qBudgetLossDb: 1,
       },
     },
     stages: [stage('src', SOURCE), stage('tank', TANK), stage('amp', AMP), stage('load', LOAD)],
