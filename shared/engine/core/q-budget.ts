@@ -12,7 +12,7 @@
  */
 import type { ParamValues, TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { pointwiseFill, runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { deliveredPower } from './quantities';
 
 const { log10, sqrt } = Math;
@@ -88,7 +88,10 @@ function withValues(
   if (!('sections' in model) || model.sections.length !== stage.sectionCount) return null;
   const sections = model.sections;
   const all = built.sections.slice();
-  for (let j = 0; j < sections.length; j++) all[stage.firstSection + j] = sections[j];
+  for (let j = 0; j < sections.length; j++) {
+    const sec = sections[j];
+    all[stage.firstSection + j] = sec.fill ? { ...sec, fill: sec.fill } : { ...sec, fill: pointwiseFill(sec) }; // prettier-ignore
+  }
   return { ...built, sections: all };
 }
 
