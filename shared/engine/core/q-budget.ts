@@ -28,10 +28,19 @@ export interface QBudget {
   partQ: number;
 }
 
-/** Keys of a stage's part-Q parameters (the catalogue's Q parameters, up to 1e12). */
+/**
+ * Keys of a stage's part-Q parameters: the catalogue's Q parameters (ratio, up to 1e12, the
+ * unloaded Q of a part), not a design's loaded Q.
+ */
 function partQKeys(stage: BuiltStage): string[] {
   return stage.definition.params
-    .filter((p) => p.kind === 'number' && p.unit === 'ratio' && p.max === LOSSLESS_Q)
+    .filter(
+      (p) =>
+        p.kind === 'number' &&
+        p.unit === 'ratio' &&
+        p.max === LOSSLESS_Q &&
+        (p.help ?? '').startsWith('Unloaded Q'),
+    )
     .map((p) => p.key);
 }
 
