@@ -58,6 +58,11 @@ export const appRoutes: Routes = [
         canDeactivate: [editorLeaveGuard],
       },
       {
+        path: 'chains/:chainId/studies',
+        title: 'Studies · Chainwright',
+        loadComponent: () => import('./features/studies/studies.component'),
+      },
+      {
         path: 'compare',
         title: 'Compare variants · Chainwright',
         loadComponent: () => import('./features/compare/compare.component'),
