@@ -3,6 +3,9 @@ const tsJest = ['ts-jest', { tsconfig: 'tsconfig.server.json', diagnostics: { wa
 
 /** @type {import('jest').Config} */
 module.exports = {
+  // API tests set up a PostgreSQL schema and migrations in beforeAll; on a loaded 2-core
+  // machine that can take longer than jest's default 5 s for a hook.
+  testTimeout: 30000,
   projects: [
     {
       displayName: 'engine',
