@@ -288,6 +288,10 @@ export default class StudiesComponent {
   }
 
   protected fmt(v: number | null | undefined, digits = 4): string {
-    return v === null || v === undefined ? '—' : Number(v.toPrecision(digits)).toLocaleString('en');
+    if (v === null || v === undefined) return '—';
+    // Component values (pF, µH) would round to 0 as grouped decimals: show them as 2.16e-10.
+    const a = Math.abs(v);
+    if (a !== 0 && (a < 1e-3 || a >= 1e12)) return v.toPrecision(digits);
+    return Number(v.toPrecision(digits)).toLocaleString('en', { maximumFractionDigits: 6 });
   }
 }
