@@ -25,6 +25,7 @@ export function histogramFigure(title: string, unit: string, h: HistogramLike): 
   };
 }
 
+// SVG scatter, not WebGL: the app must draw on machines without a GPU.
 export function scatterFigure(
   xLabel: string,
   yLabel: string,
@@ -53,7 +54,7 @@ export function scatterFigure(
     : [{ ...pick(null), name: 'trials', color: '#2f6f62' }];
   return {
     data: sets.map((s) => ({
-      type: 'scattergl',
+      type: 'scatter',
       mode: 'markers',
       x: s.x,
       y: s.y,
