@@ -28,6 +28,13 @@ import type { Services } from './common/services';
 import { adminRouter } from './users/admin-routes';
 import { meRouter } from './users/me-routes';
 import { workspacesRouter } from './workspaces/routes';
+import { invitationsRouter, workspaceInvitationsRouter } from './workspaces/invitation-routes';
+import { activityRouter } from './activity/routes';
+import { revisionDiffRouter } from './activity/revision-diff';
+import { commentsRouter } from './comments/routes';
+import { mailAdminRouter } from './mail/admin-routes';
+import { presenceRouter } from './presence/routes';
+import { chainSharingRouter, sharedRouter } from './sharing/routes';
 
 /**
  * Builds the Express app (API under /api, the built client for everything else) without
@@ -82,7 +89,7 @@ export function createApp(services: Services): Express {
   app.get('/api/health', healthHandler(orm));
 
   const passport = createPassport(em);
-  const csrf = createCsrf();
+  const csrf = createCsrf(config.sessionSecret, config.cookieSecure);
   app.use(
     '/api',
     sessionMiddleware(services),
@@ -91,16 +98,28 @@ export function createApp(services: Services): Express {
     csrf.csrfSynchronisedProtection,
   );
 
-  app.use('/api/auth', authRouter({ em, passport, csrf, signInLimiter: signInLimiter(services) }));
+  app.use(
+    '/api/auth',
+    authRouter({ services, passport, csrf, signInLimiter: signInLimiter(services) }),
+  );
   app.use('/api/me', meRouter(em));
   app.use('/api/admin', adminRouter(em, config.dbSchema));
-  app.use('/api/workspaces', workspacesRouter(em, services.mailer));
+  app.use('/api/workspaces', workspacesRouter(em));
+  app.use('/api/admin', mailAdminRouter(services));
+  app.use('/api/workspaces', workspaceInvitationsRouter(services));
+  app.use('/api/workspaces', activityRouter(em));
+  app.use('/api/invitations', invitationsRouter(services, csrf));
+  app.use('/api/shared', sharedRouter(services));
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
   app.use('/api/workspaces', dataFilesRouter(em));
   app.use('/api/chains', chainsRouter(em));
   app.use('/api/chains', chainAnalysisRouter(em));
   app.use('/api/chains', chainExportRouter(em));
   app.use('/api/chains', chainStudiesRouter(em, services.studyQueue, studyLimitsFromEnv()));
+  app.use('/api/chains', chainSharingRouter(services));
+  app.use('/api/chains', commentsRouter(services));
+  app.use('/api/chains', revisionDiffRouter(em));
+  app.use('/api/chains', presenceRouter(services));
   app.use('/api/examples', examplesRouter(config.examplesDir));
   app.use('/api/design', designRouter(em));
   app.use('/api', analysisRouter(em));

@@ -4,7 +4,15 @@ import path from 'node:path';
 import type { LogOptions } from './common/logger';
 
 /** Where fake mail goes: an SMTP server on loopback, or an in-memory JSON transport (tests). */
-export type MailConfig = { kind: 'smtp'; host: string; port: number } | { kind: 'json' };
+export type MailConfig =
+  | {
+      kind: 'smtp';
+      host: string;
+      port: number;
+      /** Where the local mail catcher writes what it caught (the admin's mailbox page reads it). */
+      dir?: string;
+    }
+  | { kind: 'json' };
 
 /**
  * `demo` (what `npm start` runs: demo accounts, the mail catcher, plain http on loopback) or
@@ -51,6 +59,11 @@ export interface ServerConfig {
   mail: MailConfig;
   /** Log level and destination (default: info and up, to standard output). */
   log?: LogOptions;
+  /**
+   * The address people reach the app at, without a trailing slash: links in mail are built
+   * from it (CW_PUBLIC_URL; default the local address the server listens on).
+   */
+  publicUrl?: string;
   /** Whether the session store prunes expired sessions on a timer (off in tests: jest must exit). */
   pruneSessions: boolean;
 }
@@ -102,7 +115,12 @@ function mailFrom(env: NodeJS.ProcessEnv, mode: ServerMode): MailConfig {
       : { kind: 'json' };
   }
   return env.CW_SMTP_PORT
-    ? { kind: 'smtp', host: '127.0.0.1', port: intFrom(env.CW_SMTP_PORT, 2530) }
+    ? {
+        kind: 'smtp',
+        host: '127.0.0.1',
+        port: intFrom(env.CW_SMTP_PORT, 2530),
+        dir: env.CW_MAIL_DIR || path.join(REPO_ROOT, '.data', 'mail'),
+      }
     : { kind: 'json' };
 }
 
@@ -143,6 +161,12 @@ export function configFromEnv(env: NodeJS.ProcessEnv = process.env): ServerConfi
       limit: intFrom(env.CW_SIGNIN_LIMIT, 10),
     },
     mail: mailFrom(env, mode),
+    publicUrl: env.CW_PUBLIC_URL?.replace(/\/+$/, '') || undefined,
     pruneSessions: true,
   };
+}
+
+/** The base of absolute links in mail: CW_PUBLIC_URL, else the local listening address. */
+export function publicBaseUrl(config: Pick<ServerConfig, 'publicUrl' | 'host' | 'port'>): string {
+  return config.publicUrl ?? `http://${config.host}:${config.port}`;
 }

@@ -15,7 +15,7 @@ async function main(): Promise<void> {
   let smtp: SMTPServer | undefined;
   // The mail catcher is a demo-mode helper; production sends to the relay it is given.
   if (config.mail.kind === 'smtp' && config.mode !== 'production') {
-    const mailDir = process.env.CW_MAIL_DIR || path.join(REPO_ROOT, '.data', 'mail');
+    const mailDir = config.mail.dir ?? path.join(REPO_ROOT, '.data', 'mail');
     smtp = await startFakeSmtp(config.mail.port, mailDir);
     console.log(
       `[server] mail is caught on 127.0.0.1:${config.mail.port} and written to ${mailDir}`,
@@ -25,6 +25,13 @@ async function main(): Promise<void> {
   // Analysis threads start now, not on the first request.
   startAnalysisPool();
   const app = createApp(services);
+  // Mail that could not be sent is retried from the outbox table while the server runs.
+  const retryMail = setInterval(() => {
+    services.mail
+      .retryDue(services.em)
+      .catch((err: Error) => console.error('[server] mail retry failed:', err.message));
+  }, 60_000);
+  retryMail.unref();
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, (err?: Error) =>
       err ? reject(err) : resolve(s),
@@ -38,6 +45,7 @@ async function main(): Promise<void> {
   const stop = async (signal: string) => {
     if (stopping) return;
     stopping = true;
+    clearInterval(retryMail);
     console.log(`[server] ${signal}: stopping`);
     // Keep-alive connections would hold close() open; a browser tab should not block Ctrl-C.
     server.closeAllConnections();

@@ -73,7 +73,7 @@ async function exportFile(
   }
 }
 
-async function sendExport(
+export async function sendExport(
   em: EntityManager,
   res: Response,
   doc: ChainDocument,

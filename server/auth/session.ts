@@ -11,7 +11,8 @@ import { ForbiddenError } from '../common/errors';
 import { PgRateLimitStore } from '../common/pg-rate-limit-store';
 import type { Services } from '../common/services';
 import { UserSchema } from '../users/user.entity';
-import { verifyPassword } from '../users/password';
+import { hashPassword, verifyPassword } from '../users/password';
+import { readAnonToken, storeAnonToken } from './anon-csrf';
 import '../common/request-types';
 import { CSRF_ERROR_CODE } from './csrf-code';
 
@@ -62,6 +63,11 @@ export function sessionMiddleware(services: Services): RequestHandler {
   });
 }
 
+// Checked against when no account has the address, so an unknown address takes as long
+// as a wrong password (the answer time tells nothing about who has an account).
+let dummyHash: Promise<string> | undefined;
+const dummyPasswordHash = () => (dummyHash ??= hashPassword('no-account-has-this-password'));
+
 /**
  * Rolls a stored session forward (14 days from now, cookie and row) once it is a day past
  * its last roll: a session in daily use never expires, and a busy client costs one write
@@ -89,7 +95,9 @@ export function createPassport(em: EntityManager): InstanceType<typeof Passport>
       (email, password, done) => {
         em.findOne(UserSchema, { email: email.trim().toLowerCase() })
           .then(async (user) => {
-            const ok = user ? await verifyPassword(password, user.passwordHash) : false;
+            const ok = user
+              ? await verifyPassword(password, user.passwordHash)
+              : (await verifyPassword(password, await dummyPasswordHash())) && false;
             // Said only to someone who knows the password, so it reveals no account.
             if (ok && user!.deactivatedAt) {
               done(
@@ -116,9 +124,17 @@ export function createPassport(em: EntityManager): InstanceType<typeof Passport>
   return passport;
 }
 
-/** Synchroniser-token CSRF protection: the token lives in the session, the client sends it in `x-csrf-token`. */
-export function createCsrf(): CsrfSync {
+/**
+ * Synchroniser-token CSRF protection: the client sends the token in `x-csrf-token`. A
+ * signed-in user's token lives in the session; a visitor's in a signed cookie (anon-csrf.ts).
+ */
+export function createCsrf(secret: string, secureCookie = false): CsrfSync {
   return csrfSync({
+    getTokenFromState: (req) => (req.user ? req.session.csrfToken : readAnonToken(req, secret)),
+    storeTokenInState: (req, token) => {
+      if (req.user) req.session.csrfToken = token;
+      else storeAnonToken(req, token, secret, secureCookie);
+    },
     getTokenFromRequest: (req) => {
       const header = req.headers['x-csrf-token'];
       return typeof header === 'string' ? header : undefined;

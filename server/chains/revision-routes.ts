@@ -7,6 +7,7 @@ import { parseOr422 } from '../common/validate';
 import { saveChainVersion } from './chain-store';
 import { toChainDto, toRevisionDto, toRevisionSummaryDto } from './dto';
 import { ChainRevisionSchema } from './revision.entity';
+import { chainChanged } from '../activity/chain-events';
 
 /** Reads a revision number from the path; anything but a positive integer names nothing. */
 function versionParam(raw: unknown): number {
@@ -58,6 +59,7 @@ export function revisionRoutes(em: EntityManager): Router {
       user: currentUser(req),
       message: `Restored revision ${revision.version}`,
     });
+    await chainChanged(em, { chain: saved, user: currentUser(req), kind: 'chain-restored' });
     res.json(toChainDto(saved, access(res).role));
   });
 

@@ -17,6 +17,7 @@ import { toChainDto, toChainSummaryDto } from './dto';
 import { chainFamily } from './family';
 import { readExample, readExamples, toExampleDto } from './examples';
 import { revisionRoutes } from './revision-routes';
+import { chainChanged } from '../activity/chain-events';
 
 /** /api/workspaces/:wid/chains: list (search, page, sort) and create. */
 export function workspaceChainsRouter(em: EntityManager, examplesDir: string): Router {
@@ -58,6 +59,7 @@ export function workspaceChainsRouter(em: EntityManager, examplesDir: string): R
       user: currentUser(req),
       message: message ?? 'Created',
     });
+    await chainChanged(em, { chain, user: currentUser(req), kind: 'chain-created' });
     res.status(201).json(toChainDto(chain, role));
   });
 
@@ -99,11 +101,15 @@ export function chainsRouter(em: EntityManager): Router {
       user: currentUser(req),
       message: body.message ?? '',
     });
+    await chainChanged(em, { chain: saved, user: currentUser(req), kind: 'chain-saved' });
     res.json(toChainDto(saved, access(res).role));
   });
 
-  router.delete('/:id', chainRole(em, 'editor'), async (_req, res) => {
-    await em.remove(res.locals.chain!).flush();
+  router.delete('/:id', chainRole(em, 'editor'), async (req, res) => {
+    const chain = res.locals.chain!;
+    const workspaceId = chain.workspace.id;
+    await em.remove(chain).flush();
+    await chainChanged(em, { chain, user: currentUser(req), kind: 'chain-deleted', workspaceId });
     res.status(204).end();
   });
 
@@ -119,6 +125,7 @@ export function chainsRouter(em: EntityManager): Router {
       message: `${body.asVariant ? 'Variant' : 'Copy'} of "${source.name}" version ${source.version}`,
       parent: body.asVariant ? source : null,
     });
+    await chainChanged(em, { chain: copy, user: currentUser(req), kind: 'chain-created' });
     res.status(201).json(toChainDto(copy, access(res).role));
   });
 

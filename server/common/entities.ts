@@ -1,4 +1,11 @@
+import { ActivitySchema } from '../activity/activity.entity';
+import { PasswordResetSchema, PendingRegistrationSchema } from '../auth/account-token.entity';
 import { ChainSchema } from '../chains/chain.entity';
+import { CommentSchema } from '../comments/comment.entity';
+import { OutboxMessageSchema } from '../mail/outbox.entity';
+import { PresenceSchema } from '../presence/presence.entity';
+import { ShareLinkSchema } from '../sharing/share-link.entity';
+import { InvitationSchema } from '../workspaces/invitation.entity';
 import { ChainRevisionSchema } from '../chains/revision.entity';
 import { DataFileSchema } from '../files/data-file.entity';
 import { RateLimitHitSchema } from './rate-limit-hit.entity';
@@ -19,4 +26,12 @@ export const ENTITIES = [
   DataFileSchema,
   RateLimitHitSchema,
   StudySchema,
+  InvitationSchema,
+  PasswordResetSchema,
+  PendingRegistrationSchema,
+  OutboxMessageSchema,
+  ShareLinkSchema,
+  CommentSchema,
+  ActivitySchema,
+  PresenceSchema,
 ];

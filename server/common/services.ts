@@ -6,6 +6,8 @@ import type { ServerConfig } from '../config';
 import { ormOptions } from '../mikro-orm.config';
 import { createLogger } from './logger';
 import { createStudyQueue, type StudyQueue } from '../studies/queue';
+import { MailOutbox } from '../mail/outbox';
+import { EventHub } from '../presence/event-hub';
 
 /** What the app needs from the outside world; built once by initServices, passed to createApp. */
 export interface Services {
@@ -20,6 +22,10 @@ export interface Services {
   logger: Logger;
   /** The study job queue (pg-boss, started on first use; the server only sends). */
   studyQueue: StudyQueue;
+  /** Sends mail through the outbox table (kept and retried when the transport fails). */
+  mail: MailOutbox;
+  /** Chain events (presence, saves, comments) between server processes. */
+  events: EventHub;
   /** Ends every pool and connection so the process (or jest) can exit. */
   close(): Promise<void>;
 }
@@ -56,6 +62,7 @@ export async function initServices(
         })
       : nodemailer.createTransport({ jsonTransport: true });
   const studyQueue = createStudyQueue(config.databaseUrl, config.dbSchema, { maintain: false });
+  const events = new EventHub(config.databaseUrl, config.dbSchema);
   return {
     config,
     orm,
@@ -64,7 +71,10 @@ export async function initServices(
     mailer,
     logger,
     studyQueue,
+    mail: new MailOutbox(mailer),
+    events,
     async close() {
+      await events.close();
       await studyQueue.stop();
       mailer.close();
       await sessionPool.end();

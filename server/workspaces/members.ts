@@ -1,7 +1,9 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { MemberDto, WorkspaceRole } from '../../shared/schema/api';
-import { ConflictError } from '../common/errors';
-import type { Membership } from './membership.entity';
+import { LockMode } from '@mikro-orm/core';
+import { ConflictError, NotFoundError } from '../common/errors';
+import { MembershipSchema, type Membership } from './membership.entity';
+import { WorkspaceSchema } from './workspace.entity';
 import { membershipsOf } from './membership.repository';
 
 /** The public view of a membership. */
@@ -10,20 +12,38 @@ export function toMemberDto(m: Membership): MemberDto {
 }
 
 /**
- * Refuses (409) to take the owner role away from the last owner of a workspace: a
- * workspace without an owner could never manage its members again.
+ * Changes a member's role, or removes them (`newRole` null), refusing (409) to take the
+ * owner role away from the last owner: a workspace without an owner could never manage its
+ * members again. The check and the write share one transaction holding a lock on the
+ * workspace row, so two owners demoting each other at once cannot both succeed.
  */
-export async function assertNotLastOwner(
+export async function changeMembership(
   em: EntityManager,
-  membership: Membership,
+  workspaceId: string,
+  userId: string,
   newRole: WorkspaceRole | null,
-) {
-  if (membership.role !== 'owner' || newRole === 'owner') return;
-  const owners = await membershipsOf(em).countOwners(membership.workspace.id);
-  if (owners <= 1) {
-    throw new ConflictError(
-      'last-owner',
-      'a workspace needs at least one owner: make someone else owner before removing or demoting this one',
+): Promise<Membership> {
+  return em.transactional(async (tem) => {
+    await tem.findOneOrFail(WorkspaceSchema, workspaceId, {
+      lockMode: LockMode.PESSIMISTIC_WRITE,
+    });
+    const membership = await tem.findOne(
+      MembershipSchema,
+      { workspace: workspaceId, user: userId },
+      { populate: ['user'], refresh: true },
     );
-  }
+    if (!membership) throw new NotFoundError('no such member in this workspace');
+    if (membership.role === 'owner' && newRole !== 'owner') {
+      const owners = await membershipsOf(tem).countOwners(workspaceId);
+      if (owners <= 1) {
+        throw new ConflictError(
+          'last-owner',
+          'a workspace needs at least one owner: make someone else owner before removing or demoting this one',
+        );
+      }
+    }
+    if (newRole) membership.role = newRole;
+    else tem.remove(membership);
+    return membership;
+  });
 }

@@ -1,24 +1,19 @@
 import { Router } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import type { Transporter } from 'nodemailer';
-import {
-  addMemberSchema,
-  changeRoleSchema,
-  workspaceNameSchema,
-  type WorkspaceDto,
-} from '../../shared/schema/api';
-import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '../common/errors';
+import { changeRoleSchema, workspaceNameSchema, type WorkspaceDto } from '../../shared/schema/api';
+import { ForbiddenError } from '../common/errors';
 import { access, currentUser, requireUser, uuidParam, workspaceRole } from '../common/roles';
 import { parseOr422 } from '../common/validate';
-import { sendMemberAddedMail } from '../mail/notices';
-import { UserSchema } from '../users/user.entity';
-import { assertNotLastOwner, toMemberDto } from './members';
+import { changeMembership, toMemberDto } from './members';
 import { MembershipSchema } from './membership.entity';
 import { membershipsOf } from './membership.repository';
 import { WorkspaceSchema } from './workspace.entity';
 
-/** /api/workspaces: the caller's workspaces, renaming, and members. Chains are in chains/routes.ts. */
-export function workspacesRouter(em: EntityManager, mailer: Transporter): Router {
+/**
+ * /api/workspaces: the caller's workspaces, renaming, and members. New members come by
+ * invitation (invitation-routes.ts); chains are in chains/routes.ts.
+ */
+export function workspacesRouter(em: EntityManager): Router {
   const router = Router();
   router.use(requireUser);
 
@@ -55,48 +50,11 @@ export function workspacesRouter(em: EntityManager, mailer: Transporter): Router
     res.json(members.map(toMemberDto));
   });
 
-  router.post('/:wid/members', workspaceRole(em, 'owner'), async (req, res) => {
-    const body = parseOr422(addMemberSchema, req.body);
-    const { workspace } = access(res);
-    const user = await em.findOne(UserSchema, { email: body.email });
-    if (!user) {
-      throw new ValidationError('no account has this e-mail address; ask them to register first', [
-        { path: 'email', message: 'no account has this e-mail address' },
-      ]);
-    }
-    if (await membershipsOf(em).findFor(user.id, workspace.id)) {
-      throw new ConflictError(
-        'already-member',
-        `${user.email} is already a member; change their role instead`,
-      );
-    }
-    const membership = em.create(MembershipSchema, { user, workspace, role: body.role });
-    await em.flush();
-    await sendMemberAddedMail(mailer, {
-      to: user,
-      by: currentUser(req),
-      workspace,
-      role: body.role,
-    });
-    res.status(201).json(toMemberDto(membership));
-  });
-
-  const findMember = async (wid: string, uid: string) => {
-    const membership = await em.findOne(
-      MembershipSchema,
-      { workspace: wid, user: uid },
-      { populate: ['user'] },
-    );
-    if (!membership) throw new NotFoundError('no such member in this workspace');
-    return membership;
-  };
-
   router.patch('/:wid/members/:uid', workspaceRole(em, 'owner'), async (req, res) => {
     const { role } = parseOr422(changeRoleSchema, req.body);
-    const membership = await findMember(access(res).workspace.id, uuidParam(req, 'uid', 'member'));
-    await assertNotLastOwner(em, membership, role);
-    membership.role = role;
-    await em.flush();
+    const wid = access(res).workspace.id;
+    const uid = uuidParam(req, 'uid', 'member');
+    const membership = await changeMembership(em, wid, uid, role);
     res.json(toMemberDto(membership));
   });
 
@@ -110,9 +68,7 @@ export function workspacesRouter(em: EntityManager, mailer: Transporter): Router
         'role-too-low',
       );
     }
-    const membership = await findMember(workspace.id, uid);
-    await assertNotLastOwner(em, membership, null);
-    await em.remove(membership).flush();
+    await changeMembership(em, workspace.id, uid, null);
     res.status(204).end();
   });
 

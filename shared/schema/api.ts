@@ -359,3 +359,213 @@ export const partsRequestSchema = z.object({
     ])
     .optional(),
 });
+// ------------------------------------------------------------------ mail
+/** Whether a mail an action caused went out; a failure keeps the action and retries the mail. */
+export interface MailOutcomeDto {
+  sent: boolean;
+  /** The message's row in the outbox (for the admin's retry). */
+  outboxId: string;
+  /** Set when it did not go: what happened and what happens next. */
+  message?: string;
+}
+/** GET /api/admin/mailbox: the local mail catcher's messages (development only). */
+export interface CaughtMailSummaryDto {
+  id: string;
+  to: string;
+  subject: string;
+  date: string;
+}
+export interface CaughtMailDto extends CaughtMailSummaryDto {
+  from: string;
+  text: string;
+  html: string | null;
+}
+/** GET /api/admin/outbox: messages that have not gone out (yet). */
+export interface OutboxMessageDto {
+  id: string;
+  recipient: string;
+  subject: string;
+  state: 'pending' | 'sent' | 'failed';
+  attempts: number;
+  lastError: string | null;
+  nextAttemptAt: string | null;
+  createdAt: string;
+}
+
+// ------------------------------------------------------------------ invitations, passwords
+export const invitationSchema = z.object({ email, role: z.enum(ROLES) });
+/** An invitation as its workspace's owners see it. */
+export interface InvitationDto {
+  id: string;
+  email: string;
+  role: WorkspaceRole;
+  invitedBy: string;
+  createdAt: string;
+  expiresAt: string;
+  /** Set on the answer to POST: whether the invitation mail went out. */
+  mail?: MailOutcomeDto;
+}
+/** GET /api/invitations/:token: what the link offers, for the person holding it. */
+export interface InvitationPreviewDto {
+  workspaceName: string;
+  role: WorkspaceRole;
+  email: string;
+  invitedBy: string;
+  expiresAt: string;
+  /** Whether accepting needs a new account (name and password) or the existing one's password. */
+  hasAccount: boolean;
+}
+/** POST /api/invitations/:token/accept: nothing when signed in as the invited address. */
+export const acceptInvitationSchema = z.object({
+  displayName: z.string().trim().min(1, 'enter a display name').max(80).optional(),
+  password: z.string().min(1).max(200).optional(),
+});
+export interface AcceptedInvitationDto extends SignedInDto {
+  workspaceId: string;
+  role: WorkspaceRole;
+}
+export const passwordResetRequestSchema = z.object({ email });
+export const passwordResetSchema = z.object({ password });
+/** POST /api/auth/register answers 202 with this when the address must be confirmed first. */
+export interface RegistrationPendingDto {
+  pending: true;
+  message: string;
+}
+
+// ------------------------------------------------------------------ sharing
+export const createShareLinkSchema = z.object({
+  /** Days until the link stops working; none: until revoked. */
+  expiresInDays: z.number().int().min(1).max(365).optional(),
+});
+export interface ShareLinkDto {
+  id: string;
+  /** The full link; only the answer to POST carries it (the server keeps a hash). */
+  url?: string;
+  createdBy: string;
+  createdAt: string;
+  expiresAt: string | null;
+}
+/** GET /api/shared/:token: a chain for someone without an account, read-only. */
+export interface SharedChainDto {
+  name: string;
+  description: string;
+  version: number;
+  updatedAt: string;
+  workspaceName: string;
+  document: z.infer<typeof chainDocumentSchema>;
+  /** The engine's analysis with the sweep, or null when the engine refused the chain. */
+  analysis: unknown;
+  analysisError?: string;
+}
+export const sendChainSchema = z.object({
+  email,
+  note: z.string().trim().max(2000).default(''),
+});
+
+// ------------------------------------------------------------------ comments, activity
+export const commentSchema = z.object({
+  body: z
+    .string()
+    .trim()
+    .min(1, 'write something')
+    .max(4000, 'a comment can have at most 4000 characters'),
+  /** A stage of the chain; none: a comment on the whole chain. */
+  stageId: z.string().min(1).max(64).optional(),
+});
+export const editCommentSchema = z.object({ body: commentSchema.shape.body });
+export interface CommentDto {
+  id: string;
+  chainId: string;
+  stageId: string | null;
+  body: string;
+  authorId: string;
+  author: string;
+  createdAt: string;
+  editedAt: string | null;
+  /** Members mentioned by address who were told by mail (POST only). */
+  notified?: string[];
+}
+export const ACTIVITY_KINDS = [
+  'chain-created',
+  'chain-saved',
+  'chain-restored',
+  'chain-deleted',
+  'chain-shared',
+  'chain-sent',
+  'comment-added',
+  'member-invited',
+  'member-joined',
+] as const;
+export type ActivityKind = (typeof ACTIVITY_KINDS)[number];
+export interface ActivityDto {
+  id: string;
+  kind: ActivityKind;
+  actor: string;
+  summary: string;
+  chainId: string | null;
+  /** An app path to what it is about (open with the app's router). */
+  link: string | null;
+  createdAt: string;
+}
+
+// ------------------------------------------------------------------ revision diff
+export const diffQuerySchema = z.object({
+  from: z.coerce.number().int().min(1),
+  to: z.coerce.number().int().min(1),
+});
+export interface ValueChangeDto {
+  stageId: string;
+  stageLabel: string;
+  key: string;
+  label: string;
+  unit: string;
+  before: number | string | boolean | null;
+  after: number | string | boolean | null;
+  /** The values in engineering notation with their units, e.g. "22.0 uH". */
+  beforeText: string;
+  afterText: string;
+}
+export interface StageRefDto {
+  id: string;
+  type: string;
+  label: string;
+  position: number;
+}
+export interface KeyFigureDto {
+  key: string;
+  label: string;
+  unit: string;
+  before: number | null;
+  after: number | null;
+  beforeText: string;
+  afterText: string;
+}
+export interface RevisionDiffDto {
+  from: number;
+  to: number;
+  added: StageRefDto[];
+  removed: StageRefDto[];
+  moved: (StageRefDto & { from: number })[];
+  values: ValueChangeDto[];
+  settings: { key: string; before: string; after: string }[];
+  figures: KeyFigureDto[];
+}
+
+// ------------------------------------------------------------------ presence
+/** Someone with a chain open (server-sent event "presence" carries the list). */
+export interface PresentUserDto {
+  userId: string;
+  displayName: string;
+}
+/** Server-sent event "saved": someone stored a new version. */
+export interface ChainSavedEventDto {
+  chainId: string;
+  version: number;
+  by: string;
+  byUserId: string;
+}
+/** Server-sent event "comments": the chain's comments changed. */
+export interface CommentsChangedEventDto {
+  chainId: string;
+  by: string;
+}
