@@ -1,5 +1,4 @@
 import { Router, type Response } from 'express';
-import type { EntityManager } from '@mikro-orm/postgresql';
 import { commentSchema, editCommentSchema, type CommentDto } from '../../shared/schema/api';
 import { recordActivity } from '../activity/record';
 import { ForbiddenError, NotFoundError, ValidationError } from '../common/errors';
