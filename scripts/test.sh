@@ -71,8 +71,11 @@ browser_tests() {
   DATABASE_URL="$APP_URL" CW_OWNER_DATABASE_URL="$OWNER_URL" \
     node --import tsx scripts/db.ts migrate seed || return 1
   # Browser tests sign in often from one address: lift the failed-sign-in limit for them.
+  # Mail goes to the local catcher; the tests read what it caught from CW_MAIL_DIR.
+  export CW_MAIL_DIR="$CW_REPO/.data/mail-test"
+  rm -rf "$CW_MAIL_DIR"
   DATABASE_URL="$APP_URL" PORT="$BROWSER_PORT" CW_SIGNIN_LIMIT=100000 \
-    start_node_ts server/main.ts
+    CW_SMTP_PORT="${CW_SMTP_TEST_PORT:-2531}" start_node_ts server/main.ts
   if ! wait_for_http "http://127.0.0.1:$BROWSER_PORT/api/health"; then
     printf 'the server did not answer on port %s\n' "$BROWSER_PORT" >&2
     stop_node

@@ -90,6 +90,11 @@ export class EventHub {
     for (const listener of this.listeners.get(event.chainId) ?? []) listener(event);
   }
 
+  /** Whether close() was called (the process is stopping; late failures are expected). */
+  get isClosed(): boolean {
+    return this.closed;
+  }
+
   async close(): Promise<void> {
     this.closed = true;
     this.listeners.clear();

@@ -94,7 +94,9 @@ export function presenceRouter(services: Services): Router {
       leave
         .nativeDelete(PresenceSchema, { id: streamId })
         .then(() => publishChainEvent(leave, { type: 'presence', chainId }))
-        .catch((err: Error) => console.error('[server] presence end failed:', err.message));
+        .catch((err: Error) => {
+          if (!events.isClosed) console.error('[server] presence end failed:', err.message);
+        });
     });
   });
 

@@ -24,6 +24,31 @@ export const appRoutes: Routes = [
     loadComponent: () => import('./features/auth/register.component'),
   },
   {
+    path: 'forgot-password',
+    title: 'New password · Chainwright',
+    loadComponent: () => import('./features/account-links/forgot-password.component'),
+  },
+  {
+    path: 'reset-password/:token',
+    title: 'New password · Chainwright',
+    loadComponent: () => import('./features/account-links/reset-password.component'),
+  },
+  {
+    path: 'confirm/:token',
+    title: 'Confirm your address · Chainwright',
+    loadComponent: () => import('./features/account-links/confirm-address.component'),
+  },
+  {
+    path: 'invitation/:token',
+    title: 'Invitation · Chainwright',
+    loadComponent: () => import('./features/invitations/accept-invitation.component'),
+  },
+  {
+    path: 'shared/:token',
+    title: 'Shared chain · Chainwright',
+    loadComponent: () => import('./features/share/shared-chain.component'),
+  },
+  {
     path: 'welcome',
     title: 'Welcome · Chainwright',
     canActivate: [signedInGuard],
@@ -40,6 +65,12 @@ export const appRoutes: Routes = [
     title: 'Site administration · Chainwright',
     canActivate: [adminGuard],
     loadComponent: () => import('./features/admin/admin.component'),
+  },
+  {
+    path: 'admin/mail',
+    title: 'Development mailbox · Chainwright',
+    canActivate: [adminGuard],
+    loadComponent: () => import('./features/mailbox/mailbox.component'),
   },
   {
     path: 'w/:workspaceId',
@@ -66,6 +97,11 @@ export const appRoutes: Routes = [
         path: 'compare',
         title: 'Compare variants · Chainwright',
         loadComponent: () => import('./features/compare/compare.component'),
+      },
+      {
+        path: 'activity',
+        title: 'Activity · Chainwright',
+        loadComponent: () => import('./features/activity/activity.component'),
       },
       {
         path: 'members',

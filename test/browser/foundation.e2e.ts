@@ -3,6 +3,7 @@
  * signing out; then the demo viewer, who must see no edit controls.
  */
 import type { Browser } from 'playwright-core';
+import { mailedLink } from './mail';
 import {
   DEMO,
   launchBrowser,
@@ -59,6 +60,11 @@ describe('client foundation', () => {
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill(password);
     await page.getByRole('button', { name: 'Create account' }).click();
+
+    // The address is confirmed by mail before the account exists.
+    await page.getByTestId('registration-pending').waitFor();
+    await page.goto(await mailedLink(email, '/confirm/'));
+    await page.getByRole('button', { name: 'Confirm and sign in' }).click();
 
     // A brand-new account has no workspace yet (unless the server gives one).
     await page.waitForURL(/\/(welcome|w\/[^/]+\/chains)$/);
@@ -159,8 +165,8 @@ describe('client foundation', () => {
       .click();
     await page.getByRole('menuitem', { name: 'Members' }).click();
     await page.waitForURL(/\/members$/);
-    await expectVisible(page.getByText('Only owners of this workspace can add'));
-    expect(await page.getByRole('button', { name: 'Add member' }).count()).toBe(0);
+    await expectVisible(page.getByText('Only owners of this workspace can invite'));
+    expect(await page.getByRole('button', { name: 'Send invitation' }).count()).toBe(0);
     await shot(page, 'foundation-10-viewer-members');
   });
 
@@ -210,7 +216,7 @@ describe('client foundation', () => {
     const menu = page.getByRole('button', { name: /Olga Owner|Owner/ }).first();
     await menu.click();
     await page.getByRole('menuitem', { name: 'Members' }).click();
-    await expectVisible(page.getByRole('button', { name: 'Add member' }));
+    await expectVisible(page.getByRole('button', { name: 'Send invitation' }));
     await expectVisible(page.getByRole('cell', { name: DEMO.viewer }));
     await shot(page, 'foundation-12-owner-members');
 

@@ -7,6 +7,7 @@ import type {
   loginSchema,
   MeDto,
   registerSchema,
+  RegistrationPendingDto,
   SignedInDto,
 } from '../../../../shared/schema/api';
 
@@ -19,8 +20,14 @@ export type ChangePasswordBody = z.input<typeof changePasswordSchema>;
 export class AuthApi {
   private readonly http = inject(HttpClient);
 
-  register(body: RegisterBody, context?: HttpContext): Observable<SignedInDto> {
-    return this.http.post<SignedInDto>('/api/auth/register', body, { context });
+  /** Signs the first account of a site in at once; later ones wait for their address (202). */
+  register(
+    body: RegisterBody,
+    context?: HttpContext,
+  ): Observable<SignedInDto | RegistrationPendingDto> {
+    return this.http.post<SignedInDto | RegistrationPendingDto>('/api/auth/register', body, {
+      context,
+    });
   }
 
   login(body: LoginBody, context?: HttpContext): Observable<SignedInDto> {

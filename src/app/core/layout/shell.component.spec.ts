@@ -47,13 +47,15 @@ describe('ShellComponent', () => {
   describe('account menu', () => {
     it('should offer site administration to an admin only', async () => {
       await render(me('admin'));
-      expect(await menuItems()).toContain('Site administration');
+      const items = await menuItems();
+      expect(items).toContain('Site administration');
+      expect(items).toContain('Development mailbox');
     });
 
     it('should not offer site administration to other users', async () => {
       await render(me('user'));
       const items = await menuItems();
-      expect(items).toEqual(['Account', 'Members', 'Sign out']);
+      expect(items).toEqual(['Account', 'Members', 'Activity', 'Sign out']);
     });
 
     it('should sign out, forget the session and go to sign-in', async () => {

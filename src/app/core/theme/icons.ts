@@ -31,6 +31,8 @@ const ICONS: Record<string, string> = {
   more: `<circle cx="12" cy="5" r="1.6" fill="currentColor"/><circle cx="12" cy="12" r="1.6" fill="currentColor"/><circle cx="12" cy="19" r="1.6" fill="currentColor"/>`,
   key: `<circle cx="8" cy="15" r="4" ${STROKE}/><path d="M11 12l9-9M16 7l3 3M14 9l2 2" ${STROKE}/>`,
   workspace: `<rect x="3" y="4" width="18" height="14" rx="2" ${STROKE}/><path d="M8 21h8M3 9h18" ${STROKE}/>`,
+  activity: `<path d="M3 12h4l2-6 4 12 2-6h6" ${STROKE}/>`,
+  mail: `<rect x="3" y="5" width="18" height="14" rx="2" ${STROKE}/><path d="M3 7l9 6 9-6" ${STROKE}/>`,
   caution: `<path d="M12 3l10 18H2z" ${STROKE}/><path d="M12 10v5M12 18v.01" ${STROKE}/>`,
 };
 

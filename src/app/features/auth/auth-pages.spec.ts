@@ -91,6 +91,27 @@ describe('sign-in and registration pages', () => {
       expect(fixture.nativeElement.querySelector('form')).toBeNull();
     });
 
+    it('should ask to confirm the address by mail when the server answers 202', async () => {
+      const fixture = TestBed.createComponent(RegisterComponent);
+      http.expectOne('/api/auth/registration').flush({ openRegistration: true });
+      await fixture.whenStable();
+      type(fixture, 'input[autocomplete="name"]', 'Ada');
+      type(fixture, 'input[type="email"]', 'ada@example.org');
+      type(fixture, 'input[type="password"]', 'long-enough-password');
+      await submit(fixture);
+      http
+        .expectOne('/api/auth/register')
+        .flush(
+          { pending: true, message: 'check your mail: open the link we sent' },
+          { status: 202, statusText: 'Accepted' },
+        );
+      await settle();
+      await fixture.whenStable();
+      expect(text(fixture)).toContain('Check your mail: open the link we sent.');
+      expect(fixture.nativeElement.querySelector('form')).toBeNull();
+      http.expectNone('/api/me');
+    });
+
     it('should switch to the closed message when the server refuses the account', async () => {
       const fixture = TestBed.createComponent(RegisterComponent);
       http.expectOne('/api/auth/registration').flush({ openRegistration: true });

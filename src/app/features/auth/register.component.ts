@@ -9,7 +9,7 @@ import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { registerSchema } from '../../../../shared/schema/api';
 import { AuthApi } from '../../core/api/auth.api';
-import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
+import { controlMessage, sentence, zodValidator } from '../../core/forms/zod-validator';
 import { apiErrorBody, describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { SessionStore } from '../../core/session/session.store';
@@ -38,7 +38,10 @@ export function isRegistrationClosed(error: unknown): boolean {
       <mat-card appearance="outlined" class="cw-auth-card">
         <mat-card-content>
           <h1>Create an account</h1>
-          @if (closed()) {
+          @if (pending(); as text) {
+            <p role="status" data-testid="registration-pending">{{ text }}</p>
+            <p><a routerLink="/sign-in">Back to sign in</a></p>
+          } @else if (closed()) {
             <p class="cw-form-error" role="alert">
               Registration is closed on this site. Ask a site administrator or a workspace owner to
               set up an account for you.
@@ -64,7 +67,7 @@ export function isRegistrationClosed(error: unknown): boolean {
                   type="password"
                   autocomplete="new-password"
                 />
-                <mat-hint>At least 10 characters.</mat-hint>
+                <mat-hint>At least 10 characters; a few unusual words make a strong one.</mat-hint>
                 <mat-error>{{ message(form.controls.password) }}</mat-error>
               </mat-form-field>
               @if (failure(); as text) {
@@ -104,6 +107,8 @@ export default class RegisterComponent {
   protected readonly busy = signal(false);
   protected readonly failure = signal('');
   protected readonly closed = signal(false);
+  /** Set when the address must be confirmed by mail before the account exists. */
+  protected readonly pending = signal('');
   protected readonly message = controlMessage;
 
   constructor() {
@@ -123,6 +128,10 @@ export default class RegisterComponent {
     try {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [403, 409, 422, 429]);
       const answer = await firstValueFrom(this.auth.register(this.form.getRawValue(), context));
+      if ('pending' in answer) {
+        this.pending.set(sentence(answer.message));
+        return;
+      }
       await this.session.startSession(answer);
       await this.router.navigateByUrl('/');
     } catch (error) {

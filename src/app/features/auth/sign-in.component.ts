@@ -54,6 +54,7 @@ import { safeReturnUrl } from './return-url';
             }
             <div class="cw-actions">
               <button mat-flat-button type="submit" [disabled]="busy()">Sign in</button>
+              <a routerLink="/forgot-password">Forgot your password?</a>
               @if (registrationOpen()) {
                 <a routerLink="/register">Create an account</a>
               }

@@ -11,6 +11,8 @@ import {
   untracked,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -21,7 +23,14 @@ import type { StageTypeInfo } from '../../../../shared/engine/types';
 import type { ExportFormat, RevisionDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
+import { SessionStore } from '../../core/session/session.store';
+import { CommentsPanelComponent } from '../comments/comments-panel.component';
 import { compareQueryOf, familyOf } from '../compare/compare-entry';
+import { RevisionDiffComponent } from '../diff/revision-diff.component';
+import { CollabStore } from '../presence/collab.store';
+import { PresenceBarComponent } from '../presence/presence-bar.component';
+import { SavedNoticeComponent } from '../presence/saved-notice.component';
+import { ShareDialogComponent, type ShareDialogData } from '../share/share-dialog.component';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
 import { DesignPanelComponent } from './design/design-panel.component';
 import { saveAsVariant } from './design/save-variant';
@@ -42,7 +51,7 @@ import { EditorStore } from './state/editor.store';
 import { sameJson } from './state/same-document';
 import { StageStripComponent } from './strip/stage-strip.component';
 
-type SidePanel = 'stage' | 'chain' | 'history' | 'design';
+type SidePanel = 'stage' | 'chain' | 'history' | 'design' | 'comments' | 'changes';
 
 /**
  * The chain editor page: palette, strip of stage cards, live analysis, the side panel
@@ -54,6 +63,7 @@ type SidePanel = 'stage' | 'chain' | 'history' | 'design';
   imports: [
     MatButtonModule,
     MatButtonToggleModule,
+    MatIconModule,
     MatMenuModule,
     MatProgressBarModule,
     RouterLink,
@@ -66,8 +76,12 @@ type SidePanel = 'stage' | 'chain' | 'history' | 'design';
     CautionBannerComponent,
     AnalysisResultsComponent,
     DesignPanelComponent,
+    PresenceBarComponent,
+    SavedNoticeComponent,
+    CommentsPanelComponent,
+    RevisionDiffComponent,
   ],
-  providers: [EditorStore, AnalysisRunner, EditFeedback, ChainPersistence],
+  providers: [EditorStore, AnalysisRunner, EditFeedback, ChainPersistence, CollabStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './chain-editor.component.html',
   styleUrl: './chain-editor.component.scss',
@@ -85,6 +99,9 @@ export default class ChainEditorComponent implements LeaveAware {
   private readonly analysisApi = inject(AnalysisApi);
   private readonly title = inject(Title);
   private readonly injector = inject(Injector);
+  private readonly dialog = inject(MatDialog);
+  protected readonly session = inject(SessionStore);
+  protected readonly collab = inject(CollabStore);
 
   protected readonly stripListId = 'cw-stage-strip';
   protected readonly loadError = signal<string | null>(null);
@@ -128,6 +145,20 @@ export default class ChainEditorComponent implements LeaveAware {
       if (!this.store.chain() || !name) return;
       this.title.setTitle(`${this.hasUnsavedEdits() ? '• ' : ''}${name} · Chainwright`);
     });
+    // Colleagues on the same chain: presence, their saves and comments, live.
+    effect(() => {
+      const id = this.store.chain()?.id;
+      if (id) untracked(() => this.collab.start(id, () => this.store.chain()?.version ?? 0));
+    });
+    // A card's comment count opens the comments on that stage.
+    effect(() => {
+      const request = this.collab.commentsRequest();
+      if (!request) return;
+      untracked(() => {
+        if (request.stageId) this.store.select(request.stageId);
+        this.panel.set('comments');
+      });
+    });
     effect(() => {
       const chain = this.store.chain();
       const doc = this.doc();
@@ -170,6 +201,15 @@ export default class ChainEditorComponent implements LeaveAware {
   protected insertFromPalette(type: StageTypeInfo): void {
     this.feedback.report(this.store.insertType(type));
     this.panel.set('stage');
+  }
+
+  protected share(): void {
+    const chain = this.store.chain();
+    if (!chain) return;
+    this.dialog.open<ShareDialogComponent, ShareDialogData>(ShareDialogComponent, {
+      data: { chainId: chain.id, chainName: chain.name, canManageLinks: !this.store.readOnly() },
+      width: '560px',
+    });
   }
 
   protected onSaveMessage(event: Event): void {

@@ -2,7 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
-import type { MemberDto, WorkspaceRole } from '../../../../shared/schema/api';
+import type { InvitationDto, MemberDto, WorkspaceRole } from '../../../../shared/schema/api';
 import { CsrfTokenStore } from '../../core/http/csrf-token.store';
 import { SessionStore } from '../../core/session/session.store';
 import { provideAppIcons } from '../../core/theme/icons';
@@ -23,24 +23,53 @@ describe('MembersComponent', () => {
 
   it('should give a viewer or editor no way to change the list', async () => {
     await setUp('editor');
-    expect(el.textContent).toContain('Only owners of this workspace can add or remove members');
+    expect(el.textContent).toContain('Only owners of this workspace can invite or remove members');
     expect(el.querySelector('mat-select')).toBeNull();
     expect(el.querySelector('button[aria-label^="Remove"]')).toBeNull();
     expect(el.querySelector('form')).toBeNull();
   });
 
-  it('should let an owner add a member by e-mail with a role', async () => {
+  it('should let an owner invite by e-mail with a role, and list the invitation', async () => {
     await setUp('owner');
     const email = el.querySelector<HTMLInputElement>('form input[type="email"]')!;
     email.value = 'linus@example.org';
     email.dispatchEvent(new Event('input'));
     el.querySelector('form')!.dispatchEvent(new Event('submit'));
     await fixture.whenStable();
-    const add = http.expectOne({ method: 'POST', url: '/api/workspaces/w1/members' });
-    expect(add.request.body).toEqual({ email: 'linus@example.org', role: 'editor' });
-    add.flush({ userId: 'u3', email: 'linus@example.org', displayName: 'Linus', role: 'editor' });
+    const invite = http.expectOne({ method: 'POST', url: '/api/workspaces/w1/invitations' });
+    expect(invite.request.body).toEqual({ email: 'linus@example.org', role: 'editor' });
+    invite.flush({ ...INVITATION, mail: { sent: true, outboxId: 'm1' } });
     await settle();
-    http.expectOne('/api/workspaces/w1/members').flush([...MEMBERS]);
+    http.expectOne('/api/workspaces/w1/invitations').flush([INVITATION]);
+    await settle();
+    await fixture.whenStable();
+    expect(el.textContent).toContain('Invitation sent to linus@example.org.');
+    expect(el.querySelector('ul[aria-label="Open invitations"]')?.textContent).toContain(
+      'linus@example.org',
+    );
+  });
+
+  it('should say when the invitation mail did not go, keeping the invitation', async () => {
+    await setUp('owner');
+    const email = el.querySelector<HTMLInputElement>('form input[type="email"]')!;
+    email.value = 'linus@example.org';
+    email.dispatchEvent(new Event('input'));
+    el.querySelector('form')!.dispatchEvent(new Event('submit'));
+    await fixture.whenStable();
+    http.expectOne({ method: 'POST', url: '/api/workspaces/w1/invitations' }).flush({
+      ...INVITATION,
+      mail: {
+        sent: false,
+        outboxId: 'm1',
+        message:
+          'the mail to linus@example.org could not be sent yet (timeout); it is kept and retried automatically',
+      },
+    });
+    await settle();
+    http.expectOne('/api/workspaces/w1/invitations').flush([INVITATION]);
+    await settle();
+    await fixture.whenStable();
+    expect(el.textContent).toContain('it is kept and retried automatically');
   });
 
   it("should refuse a malformed address with the schema's message", async () => {
@@ -51,7 +80,7 @@ describe('MembersComponent', () => {
     el.querySelector('form')!.dispatchEvent(new Event('submit'));
     await fixture.whenStable();
     expect(el.textContent).toContain('Enter a valid e-mail address.');
-    http.expectNone({ method: 'POST', url: '/api/workspaces/w1/members' });
+    http.expectNone({ method: 'POST', url: '/api/workspaces/w1/invitations' });
   });
 
   // Helpers
@@ -79,10 +108,20 @@ describe('MembersComponent', () => {
     el = fixture.nativeElement;
     await fixture.whenStable();
     http.expectOne('/api/workspaces/w1/members').flush([...MEMBERS]);
+    if (role === 'owner') http.expectOne('/api/workspaces/w1/invitations').flush([]);
     await settle();
     await fixture.whenStable();
   }
 });
+
+const INVITATION: InvitationDto = {
+  id: 'i1',
+  email: 'linus@example.org',
+  role: 'editor',
+  invitedBy: 'Ada',
+  createdAt: '2026-12-02T05:00:00.000Z',
+  expiresAt: '2026-12-09T05:00:00.000Z',
+};
 
 const MEMBERS: MemberDto[] = [
   { userId: 'u1', email: 'ada@example.org', displayName: 'Ada', role: 'owner' },

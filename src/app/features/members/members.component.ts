@@ -1,6 +1,4 @@
-import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -11,24 +9,22 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { firstValueFrom } from 'rxjs';
-import { addMemberSchema, MemberDto, ROLES, WorkspaceRole } from '../../../../shared/schema/api';
+import { MemberDto, ROLES, WorkspaceRole } from '../../../../shared/schema/api';
 import { WorkspacesApi } from '../../core/api/workspaces.api';
 import {
   ConfirmDialogComponent,
   ConfirmDialogData,
 } from '../../core/dialogs/confirm-dialog.component';
 import { NameDialogComponent, NameDialogData } from '../../core/dialogs/name-dialog.component';
-import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
-import { describeHttpError } from '../../core/http/error-message';
-import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { ROLE_LABELS } from '../../core/session/roles';
 import { SessionStore } from '../../core/session/session.store';
+import { InvitationsPanelComponent } from '../invitations/invitations-panel.component';
 
 /** The workspace's members. Everyone can read the list; only owners change it. */
 @Component({
   selector: 'cw-members',
   imports: [
-    ReactiveFormsModule,
+    InvitationsPanelComponent,
     MatTableModule,
     MatFormFieldModule,
     MatInputModule,
@@ -52,18 +48,7 @@ export default class MembersComponent {
 
   protected readonly roles = ROLES;
   protected readonly roleLabels = ROLE_LABELS;
-  protected readonly message = controlMessage;
   protected readonly members = signal<MemberDto[]>([]);
-  protected readonly addFailure = signal('');
-  protected readonly busy = signal(false);
-
-  protected readonly addForm = new FormGroup({
-    email: new FormControl('', {
-      nonNullable: true,
-      validators: [zodValidator(addMemberSchema.shape.email)],
-    }),
-    role: new FormControl<WorkspaceRole>('editor', { nonNullable: true }),
-  });
 
   constructor() {
     effect(() => void this.load(this.workspaceId()));
@@ -85,25 +70,6 @@ export default class MembersComponent {
       this.members.set(await firstValueFrom(this.api.members(workspaceId)));
     } catch {
       this.members.set([]);
-    }
-  }
-
-  protected async add(): Promise<void> {
-    this.addForm.markAllAsTouched();
-    if (this.addForm.invalid || this.busy()) return;
-    this.busy.set(true);
-    this.addFailure.set('');
-    const { email, role } = this.addForm.getRawValue();
-    try {
-      // Unknown address (404), already a member (409), bad field (422): said beside the form.
-      const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404, 409, 422]);
-      await firstValueFrom(this.api.addMember(this.workspaceId(), email, role, context));
-      this.addForm.reset({ email: '', role });
-      await this.load(this.workspaceId());
-    } catch (error) {
-      this.addFailure.set(describeHttpError(error));
-    } finally {
-      this.busy.set(false);
     }
   }
 

@@ -1,9 +1,10 @@
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import type { ChainIssue } from '../../../../../shared/engine/errors';
 import type { Flag, StageTypeInfo } from '../../../../../shared/engine/types';
 import type { StageInstance } from '../../../../../shared/schema/chain';
 import { GlyphComponent } from '../icons/glyph.component';
 import { StageSymbolComponent } from '../icons/stage-symbol.component';
+import { CollabStore } from '../../presence/collab.store';
 import { keyValues } from '../state/stage-factory';
 
 const SEVERITY_WORD = { error: 'Error', warning: 'Warning', info: 'Note' } as const;
@@ -33,6 +34,15 @@ export class StageCardComponent {
   readonly removed = output<void>();
 
   protected readonly severityWord = SEVERITY_WORD;
+  /** Colleagues' comments (absent where no editor provides them, e.g. in tests of the strip). */
+  protected readonly collab = inject(CollabStore, { optional: true });
+  protected readonly commentCount = computed(
+    () => this.collab?.countByStage().get(this.stage().id) ?? 0,
+  );
+  protected readonly commentWords = computed(() => {
+    const n = this.commentCount();
+    return n === 0 ? 'Comment on this stage' : `${n} comment${n === 1 ? '' : 's'} on this stage`;
+  });
   protected readonly isTwoPort = computed(() => (this.type()?.role ?? 'two-port') === 'two-port');
   protected readonly values = computed(() => {
     const type = this.type();

@@ -1,0 +1,169 @@
+import { HttpContext } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { Title } from '@angular/platform-browser';
+import { firstValueFrom } from 'rxjs';
+import type { AnalysisResult } from '../../../../shared/engine/types';
+import type { SharedChainDto } from '../../../../shared/schema/api';
+import { formatEngineering } from '../../../../shared/units/format';
+import { ColleaguesApi } from '../../core/api/colleagues.api';
+import { describeHttpError } from '../../core/http/error-message';
+import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
+
+/**
+ * A chain opened through a read-only link, without signing in: its stages, budget, flags
+ * and plots, and its exports. Nothing here can change the chain.
+ */
+@Component({
+  selector: 'cw-shared-chain',
+  imports: [MatButtonModule, AnalysisResultsComponent],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    @if (failure(); as text) {
+      <section class="cw-page" role="alert">
+        <h1>This link does not open a chain</h1>
+        <p>{{ text }}</p>
+      </section>
+    } @else if (shared(); as s) {
+      <header class="bar">
+        <div>
+          <p class="ribbon" data-testid="shared-ribbon">
+            Read-only link · from the workspace “{{ s.workspaceName }}” · version {{ s.version }},
+            saved {{ s.updatedAt.slice(0, 10) }}
+          </p>
+          <h1>{{ s.name }}</h1>
+          @if (s.description) {
+            <p class="cw-muted">{{ s.description }}</p>
+          }
+        </div>
+        <span class="cw-spacer"></span>
+        <nav class="exports" aria-label="Exports">
+          <a mat-stroked-button [href]="exportUrl('json')" download>Chain file</a>
+          <a mat-stroked-button [href]="exportUrl('spice')" download>SPICE netlist</a>
+          <a mat-stroked-button [href]="exportUrl('touchstone')" download>Touchstone</a>
+        </nav>
+      </header>
+      <p class="caution" role="note">
+        Figures are from a model. Before building anything that transmits, carries high voltage or
+        exposes people to RF, check it against local codes and licensed practice.
+      </p>
+      <ol class="stages" aria-label="Stages from source to load">
+        @for (st of s.document.stages; track st.id; let i = $index) {
+          <li>
+            <span class="n">{{ i + 1 }}</span>
+            <span class="label">{{ st.label || st.type }}</span>
+            <span class="cw-muted">{{ st.type }}</span>
+          </li>
+        }
+      </ol>
+      <p class="cw-muted">Design frequency {{ f0(s) }}.</p>
+      @if (s.analysisError) {
+        <p class="cw-error-text" role="alert">Not analysed: {{ s.analysisError }}</p>
+      }
+      <main class="results">
+        <cw-analysis-results
+          [result]="analysis()"
+          [document]="s.document"
+          [selectedStageId]="selected()"
+          (stageSelected)="selected.set($event)"
+        />
+      </main>
+    } @else {
+      <p class="cw-page cw-muted">Opening the shared chain…</p>
+    }
+  `,
+  styles: `
+    .bar {
+      display: flex;
+      gap: 16px;
+      align-items: flex-start;
+      flex-wrap: wrap;
+      padding: 16px 24px 0;
+    }
+    h1 {
+      margin: 0;
+      font: var(--mat-sys-headline-small);
+    }
+    .ribbon {
+      display: inline-block;
+      margin: 0 0 6px;
+      padding: 2px 10px;
+      border-radius: 12px;
+      background: var(--mat-sys-tertiary-container);
+      color: var(--mat-sys-on-tertiary-container);
+      font-size: 13px;
+    }
+    .exports {
+      display: flex;
+      gap: 8px;
+      flex-wrap: wrap;
+    }
+    .caution {
+      margin: 12px 24px;
+      font-size: 13px;
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .stages {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      list-style: none;
+      margin: 0 24px;
+      padding: 0;
+    }
+    .stages li {
+      display: flex;
+      gap: 6px;
+      align-items: baseline;
+      padding: 6px 10px;
+      border: 1px solid var(--mat-sys-outline-variant);
+      border-radius: 8px;
+    }
+    .n {
+      font-weight: 700;
+      color: var(--mat-sys-primary);
+    }
+    p.cw-muted {
+      margin: 8px 24px;
+    }
+    .results {
+      padding: 0 24px 24px;
+    }
+  `,
+})
+export default class SharedChainComponent {
+  private readonly api = inject(ColleaguesApi);
+  private readonly title = inject(Title);
+  /** From the route. */
+  readonly token = input.required<string>();
+
+  protected readonly shared = signal<SharedChainDto | null>(null);
+  protected readonly analysis = signal<AnalysisResult | null>(null);
+  protected readonly failure = signal('');
+  protected readonly selected = signal<string | null>(null);
+
+  constructor() {
+    effect(() => void this.load(this.token()));
+  }
+
+  protected exportUrl(format: string): string {
+    return `/api/shared/${encodeURIComponent(this.token())}/export?format=${format}`;
+  }
+
+  protected f0(s: SharedChainDto): string {
+    return formatEngineering(s.document.settings.f0Hz, 'hertz');
+  }
+
+  private async load(token: string): Promise<void> {
+    try {
+      const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
+      const shared = await firstValueFrom(this.api.shared(token, context));
+      this.shared.set(shared);
+      this.analysis.set((shared.analysis as AnalysisResult | null) ?? null);
+      this.title.setTitle(`${shared.name} (read only) · Chainwright`);
+    } catch (error) {
+      this.failure.set(describeHttpError(error));
+    }
+  }
+}
