@@ -197,7 +197,8 @@ describe('studies run by worker processes', () => {
   });
 
   it('resumes a study from its checkpoint after its worker is killed (SIGKILL)', async () => {
-    const created = await send(editor, 'post', url(), mc(400, 11));
+    // Enough trials that the run outlasts the wait for a checkpoint on a quiet machine too.
+    const created = await send(editor, 'post', url(), mc(4000, 11));
     const sid = created.body.id;
     // Wait for a checkpoint (written every 2 s) to be in the database.
     await waitFor(sid, (s) => s.status === 'running' && (s.progress?.done ?? 0) > 40);
@@ -214,11 +215,11 @@ describe('studies run by worker processes', () => {
     expect(Number(resumed.progress!.interim?.resumedFrom)).toBeLessThanOrEqual(atKill);
     const done = await waitFor(sid, (s) => s.status === 'done');
     const result = done.result as { trials: number; rows: { metrics: (number | null)[] }[] };
-    expect(result.trials).toBe(400);
+    expect(result.trials).toBe(4000);
     // Trials after the resume are the same as an unbroken run would give.
-    const plan = planMonteCarlo({ doc: DOC }, monteCarloSpecSchema.parse(mc(400, 11)));
-    expect(result.rows[399].metrics[0]).toBeCloseTo(
-      runTrial({ doc: DOC }, plan, 399).metrics[0]!,
+    const plan = planMonteCarlo({ doc: DOC }, monteCarloSpecSchema.parse(mc(4000, 11)));
+    expect(result.rows[3999].metrics[0]).toBeCloseTo(
+      runTrial({ doc: DOC }, plan, 3999).metrics[0]!,
       0,
     );
   });

@@ -85,6 +85,8 @@ const EXPECTED_FLAGS: Record<string, string[]> = {
   // The grid sees its tuned input off the source its 4 dB figure holds for (VSWR about 6).
   'am-broadcast-triode-trf': ['noise-mismatch'],
   'shortwave-superhet-coupled-pair': ['q-budget'],
+  // Unmatched on purpose (the match is the study): the 1 kΩ preamplifier sees 10 Ω − j2.35 kΩ.
+  'short-whip-1mhz-match-study': ['noise-mismatch'],
 };
 
 describe.each(keys)('example %s', (key) => {
