@@ -153,9 +153,21 @@ describe('cookies and proxies in production', () => {
 
   it('should set no session cookie when an untrusted hop claims HTTPS', async () => {
     const app = await proxyApp({ cookieSecure: true, trustProxyAddresses: '192.0.2.10' });
-    const res = await request(app).get('/api/auth/csrf').set('x-forwarded-proto', 'https');
+    const https = { 'x-forwarded-proto': 'https' };
+    // A signed-out visitor's CSRF token is a cookie of its own, not a session.
+    const csrf = await request(app).get('/api/auth/csrf').set(https);
+    expect(csrf.status).toBe(200);
+    expect(cookiesOf(csrf)).not.toContain('cw_session=');
+    // Signing in through the untrusted hop: the request is not HTTPS, so no Secure session
+    // cookie may be sent over it.
+    const res = await request(app)
+      .post('/api/auth/login')
+      .set(https)
+      .set('cookie', cookiesOf(csrf))
+      .set('x-csrf-token', csrf.body.token)
+      .send({ email: 'prod@mode.test', password: PASSWORD });
     expect(res.status).toBe(200);
-    expect(cookiesOf(res)).toBe('');
+    expect(cookiesOf(res)).not.toContain('cw_session=');
   });
 
   it('should not let a forged client address buy fresh sign-in attempts', async () => {
