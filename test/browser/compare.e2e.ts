@@ -60,7 +60,7 @@ describe('compare variants', () => {
     await page.waitForURL(/\/compare\?chains=/);
 
     // One column per variant, named after the chains.
-    const heads = page.locator('table.grid thead th.variant');
+    const heads = page.locator('table[aria-label="Key figures of each variant"] thead th.variant');
     await page.locator('tr[data-row="image"] td').first().waitFor();
     expect((await heads.allInnerTexts()).map((t) => t.split('\n')[0].trim())).toEqual([
       SINGLE,

@@ -170,7 +170,7 @@ describe('chain editor', () => {
       await other.context.close();
     }
     await typeParam(page, 'l', '27 uH', '= 27 µH');
-    await page.getByRole('button', { name: 'Save' }).click();
+    await page.getByRole('button', { name: 'Save', exact: true }).click();
     const conflict = page.locator('mat-dialog-container');
     await expectText(conflict, 'Someone saved this chain first');
     await snap(page, 'editor-09-conflict');
