@@ -13,18 +13,32 @@ import {
   uniqueSuffix,
   type WatchedPage,
 } from './harness';
+import { mailedLink } from './mail';
 
-/** Registers an account through the API (registration is open in the demo data). */
+/**
+ * Registers an account through the API (registration is open in the demo data) and
+ * confirms the address from the mailed link, as the account exists only once confirmed.
+ */
 async function registerThroughApi(email: string, displayName: string, password: string) {
   const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
   const cookie = (csrf.headers.get('set-cookie') ?? '').split(';')[0];
   const { token } = (await csrf.json()) as { token: string };
+  const headers = { 'content-type': 'application/json', 'x-csrf-token': token, cookie };
   const res = await fetch(`${BASE_URL}/api/auth/register`, {
     method: 'POST',
-    headers: { 'content-type': 'application/json', 'x-csrf-token': token, cookie },
+    headers,
     body: JSON.stringify({ email, displayName, password }),
   });
-  if (res.status !== 201) throw new Error(`register: ${res.status} ${await res.text()}`);
+  if (res.status !== 202) throw new Error(`register: ${res.status} ${await res.text()}`);
+  const link = await mailedLink(email, '/confirm/');
+  const confirmToken = link.slice(link.lastIndexOf('/') + 1);
+  const confirmed = await fetch(`${BASE_URL}/api/auth/confirm/${confirmToken}`, {
+    method: 'POST',
+    headers,
+  });
+  if (confirmed.status !== 201) {
+    throw new Error(`confirm: ${confirmed.status} ${await confirmed.text()}`);
+  }
 }
 
 async function signInStatus(email: string, password: string): Promise<number> {
