@@ -22,6 +22,8 @@ import type { UnitKind } from '../shared/engine/types';
 export const DESIGN_USAGE = `design assistants (print their answer instead of the budget; --json for JSON):
   --tune <stage>[/<resonator>] --solve <stage>.<value> [--to <Hz>]
                  solve one L or C so the resonator resonates at --to (default f0)
+  --peak-at <node> --solve <stage>.<value> [--to <Hz>]
+                 solve one L or C so the pass-band peak at the node sits at --to
   --tune-pair <stage> --bandwidth <Hz> [--to <Hz>] [--kq <k·Q>]
                  a two-tank coupled bandpass for centre, −3 dB width and shape (1 = critical)
   --match-after <stage> [--q <Q>] [--k <k>] [--parasitic <F>]
@@ -35,6 +37,7 @@ const WITH_VALUE = new Set([
   '--tune',
   '--solve',
   '--to',
+  '--peak-at',
   '--tune-pair',
   '--bandwidth',
   '--kq',
@@ -86,24 +89,26 @@ export function runDesignCli(
   const out = (value: unknown, text: () => string) =>
     json ? JSON.stringify(value, null, 2) : text();
   const target = num(opts, '--to', 'a frequency in Hz') ?? doc.settings.f0Hz;
-  if (opts.has('--tune')) {
-    const [stageId, label] = opts.get('--tune')!.split('/');
+  if (opts.has('--tune') || opts.has('--peak-at')) {
+    const [stageId, label] = (opts.get('--tune') ?? '').split('/');
+    const peakNode = num(opts, '--peak-at', 'a node number');
     const solve = opts.get('--solve');
     if (!solve || !solve.includes('.')) throw new Error('--tune needs --solve <stage>.<value>');
     const [elStage, key] = solve.split('.');
     const r = tuneResonator(
       doc,
       {
-        resonator: { stageId, label: label ?? 'tank' },
+        ...(stageId ? { resonator: { stageId, label: label ?? 'tank' } } : {}),
         element: { stageId: elStage, key },
         targetHz: target,
+        ...(peakNode === undefined ? {} : { peakNode }),
       },
       options,
     );
     return out(r, () =>
       [
         `${solve}: ${f(r.previousValue, r.unit === 'henry' ? 'henry' : 'farad')} → ${f(r.value, r.unit === 'henry' ? 'henry' : 'farad')}`,
-        `resonance ${f(r.resonanceHz, 'hertz')} (target ${f(target, 'hertz')}, off by ${r.relativeError.toExponential(1)})`,
+        `${r.target === 'peak' ? `peak at node ${r.peakNode}` : 'resonance'} ${f(r.resonanceHz, 'hertz')} (target ${f(target, 'hertz')}, off by ${r.relativeError.toExponential(1)})`,
         `loaded Q ${r.loadedQ?.toFixed(1) ?? '—'}, −3 dB width ${f(r.bandwidthHz, 'hertz')}`,
       ].join('\n'),
     );

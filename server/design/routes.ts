@@ -59,7 +59,12 @@ export function designRouter(em: EntityManager): Router {
       await runDesign(em, req, tuneRequestSchema, (d, b, o) =>
         d.tuneResonator(
           b.document,
-          { resonator: b.resonator, element: b.element, targetHz: b.targetHz },
+          {
+            resonator: b.resonator,
+            element: b.element,
+            targetHz: b.targetHz,
+            peakNode: b.peakNode,
+          },
           o,
         ),
       ),

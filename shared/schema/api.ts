@@ -296,13 +296,22 @@ const resonatorRef = z.object({
 /** POST /api/design/tune/candidates: the values that can tune a resonator. */
 export const tuneCandidatesRequestSchema = z.object({ ...designBase, resonator: resonatorRef });
 
-/** POST /api/design/tune: solve one value so a resonator sits at the target. */
-export const tuneRequestSchema = z.object({
-  ...designBase,
-  resonator: resonatorRef,
-  element: z.object({ stageId: idText('element.stageId'), key: idText('element.key') }),
-  targetHz: hz('targetHz'),
-});
+/**
+ * POST /api/design/tune: solve one value so a resonator sits at the target, or (with
+ * `peakNode`) the pass-band peak at that node.
+ */
+export const tuneRequestSchema = z
+  .object({
+    ...designBase,
+    resonator: resonatorRef.optional(),
+    element: z.object({ stageId: idText('element.stageId'), key: idText('element.key') }),
+    targetHz: hz('targetHz'),
+    peakNode: z.number().int('peakNode must be a whole node number').min(0).max(1000).optional(),
+  })
+  .refine((b) => b.resonator !== undefined || b.peakNode !== undefined, {
+    message: 'name a resonator to tune, or a node (peakNode) whose pass-band peak to tune',
+    path: ['resonator'],
+  });
 
 /** POST /api/design/tune-pair: a coupled bandpass for centre, bandwidth and shape. */
 export const tunePairRequestSchema = z.object({

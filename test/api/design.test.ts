@@ -42,6 +42,22 @@ describe('design routes', () => {
     expect(Math.abs(res.body.value / thomson - 1)).toBeLessThan(0.03);
   });
 
+  it('tunes the pass-band peak at the last node, and asks for a resonator or a node when neither is named', async () => {
+    const body = {
+      document: fixtureChain(),
+      element: { stageId: 'tank', key: 'c' },
+      targetHz: 1.1e6,
+    };
+    const nodes = fixtureChain().stages.length - 2; // two-ports between source and load
+    const res = await send(viewer, 'post', '/api/design/tune', { ...body, peakNode: nodes });
+    expect(res.status).toBe(200);
+    expect(res.body.target).toBe('peak');
+    expect(Math.abs(res.body.resonanceHz / 1.1e6 - 1)).toBeLessThan(1e-6);
+    const none = await send(viewer, 'post', '/api/design/tune', body);
+    expect(none.status).toBe(422);
+    expect(JSON.stringify(none.body)).toMatch(/peakNode/);
+  });
+
   it('lists tune candidates of the tank', async () => {
     const res = await send(viewer, 'post', '/api/design/tune/candidates', {
       document: fixtureChain(),

@@ -87,6 +87,88 @@ describe('tune to f0', () => {
   });
 });
 
+describe('tune to f0 on found resonators and on a pass-band peak', () => {
+  const crystal = example('crystal-set-coupled-coils');
+  const peakAt = (doc: ChainDoc, node: number) =>
+    analyzeChain(doc, { sweep: false }).selectivity.find((s) => s.node === node)!.peakHz!;
+
+  it('lands the crystal set’s found secondary (coupler + tuning capacitor) on 1.2 MHz, to 1e-6', () => {
+    const secondary = analyzeChain(crystal, { sweep: false }).resonators.find(
+      (r) => r.origin === 'found' && r.partOf?.includes('tuning'),
+    )!;
+    const r = tuneResonator(crystal, {
+      resonator: { stageId: secondary.stageId, label: secondary.label },
+      element: { stageId: 'tuning', key: 'c' },
+      targetHz: 1.2e6,
+    });
+    expect(r.target).toBe('resonance');
+    expect(r.relativeError).toBeLessThan(1e-6);
+    const again = analyzeChain(withValue(crystal, 'tuning', 'c', r.value), { sweep: false });
+    const found = again.resonators.find((x) => x.label === secondary.label)!;
+    expect(Math.abs(found.resonanceHz! / 1.2e6 - 1)).toBeLessThan(1e-6);
+    // Thomson's formula with the 12 µH secondary alone gives 1.466 nF; the coupled primary
+    // and the antenna pull the tuned secondary, so only the order of magnitude is shared.
+    expect(r.value / thomsonC(1.2e6, 12e-6)).toBeGreaterThan(0.5);
+    expect(r.value / thomsonC(1.2e6, 12e-6)).toBeLessThan(2);
+  });
+
+  it('puts the crystal set’s pass-band peak at the detector (node 3) on 1.2 MHz, to 1e-6', () => {
+    const r = tuneResonator(crystal, {
+      element: { stageId: 'tuning', key: 'c' },
+      targetHz: 1.2e6,
+      peakNode: 3,
+    });
+    expect(r.target).toBe('peak');
+    expect(r.peakNode).toBe(3);
+    // The analysis's own selectivity report (a different search: sweep bracket, then golden
+    // section) finds the peak where the solve put it.
+    const tuned = withValue(crystal, 'tuning', 'c', r.value);
+    expect(Math.abs(peakAt({ ...tuned, settings: { ...tuned.settings, f0Hz: 1.2e6 } }, 3) / 1.2e6 - 1)).toBeLessThan(1e-6); // prettier-ignore
+    expect(r.bandwidthHz).toBeGreaterThan(5e3);
+    expect(r.loadedQ).toBeCloseTo(1.2e6 / r.bandwidthHz!, 6);
+  });
+
+  it('puts the shortwave preselector’s peak after the link (node 3) on 7.0 MHz, to 1e-6', () => {
+    const single = example('shortwave-superhet-single-tank');
+    const r = tuneResonator(single, {
+      element: { stageId: 'preselector', key: 'c' },
+      targetHz: 7.0e6,
+      peakNode: 3,
+    });
+    expect(r.relativeError).toBeLessThan(1e-6);
+    const tuned = withValue(single, 'preselector', 'c', r.value);
+    expect(Math.abs(peakAt(tuned, 3) / 7.0e6 - 1)).toBeLessThan(1e-6);
+    // A lightly loaded single tank peaks at its resonance: within 0.5 % of Thomson's C.
+    expect(Math.abs(r.value / thomsonC(7.0e6, 2.2e-6) - 1)).toBeLessThan(5e-3);
+  });
+
+  it('puts a coupled pair’s peak at its output (node 2) on 7.2 MHz, to 1e-6', () => {
+    const pair = example('shortwave-superhet-coupled-pair');
+    const r = tuneResonator(pair, {
+      element: { stageId: 'preselector', key: 'c' },
+      targetHz: 7.2e6,
+      peakNode: 2,
+    });
+    expect(r.relativeError).toBeLessThan(1e-6);
+    const tuned = withValue(pair, 'preselector', 'c', r.value);
+    expect(Math.abs(peakAt(tuned, 2) / 7.2e6 - 1)).toBeLessThan(1e-6);
+    // The pair's peak sits below its tanks' resonance in this example (26 kHz at the start),
+    // so tuning the peak leaves the tanks' resonance above 7.2 MHz.
+    const tank = findResonator(tuned, { stageId: 'preselector', label: 'first tank' })!;
+    expect(tank.resonanceHz!).toBeGreaterThan(7.2e6);
+  });
+
+  it('refuses a node that does not exist, naming the nodes there are', () => {
+    expect(() =>
+      tuneResonator(crystal, {
+        element: { stageId: 'tuning', key: 'c' },
+        targetHz: 1e6,
+        peakNode: 9,
+      }),
+    ).toThrow(/node 9 does not exist: this chain's nodes are 0 … 3/);
+  });
+});
+
 describe('tune the pair', () => {
   it('F(1) = √2 (critical coupling) and F grows with over-coupling', () => {
     expect(pairBandwidthFactor(1)).toBeCloseTo(Math.SQRT2, 12);

@@ -44,6 +44,13 @@ describe('analyze CLI, design options', () => {
     expect(Math.abs(r.value * (2 * Math.PI * 7.1e6) ** 2 * 2.2e-6 - 1)).toBeLessThan(5e-3);
   });
 
+  it('puts the pass-band peak at node 3 on 7.1 MHz with --peak-at', () => {
+    const { code, out, err } = cli(EXAMPLE, '--peak-at', '3', '--solve', 'preselector.c', '--to', '7.1e6'); // prettier-ignore
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    expect(out).toMatch(/^preselector\.c: .* → .*\npeak at node 3 7\.1\d* MHz/m);
+  });
+
   it('prints the parts with coil turns', () => {
     const { code, out } = cli(EXAMPLE, '--parts', 'preselector');
     expect(code).toBe(0);

@@ -1,15 +1,18 @@
 /**
  * Tune to f0: solve one inductance or capacitance so that a resonator of the chain (declared
- * by a stage or found in the network) resonates at the target, by root finding on the whole
- * chain, so coupling, loading and parasitics all count.
+ * by a stage or found in the network) resonates at the target, or so that the pass-band peak
+ * of the response at a chosen node sits there, by root finding on the whole chain, so
+ * coupling, loading and parasitics all count.
  *
- * The unknown is x = ln(value) and the residual g(x) = ln(fr/target). For an LC resonance
+ * The unknown is x = ln(value) and the residual g(x) = ln(fr/target) (fr: the resonance or
+ * the peak). For an LC resonance
  * fr ∝ value^(−1/2), which gives the first step; after that a secant step is taken, kept
  * inside the bracket once the residual has changed sign (bisection when the secant step
  * leaves it). The answer is the chain's own resonance, not the closed form.
  */
 import { analyzeResonators } from '../core/resonators';
 import { StageParameterError } from '../errors';
+import { passbandPeak } from './passband-peak';
 import type { ParamSpec, ResonatorReport } from '../types';
 import {
   buildDoc,
@@ -35,10 +38,16 @@ export interface ElementRef {
 }
 
 export interface TuneRequest {
-  resonator: ResonatorRef;
+  /** The resonator to put on the target (required unless `peakNode` is given). */
+  resonator?: ResonatorRef;
   element: ElementRef;
   targetHz: number;
-  /** Relative accuracy of the resonance (default 1e-9). */
+  /**
+   * Put the pass-band peak of |V|/|Es| at this user-level node on the target instead of the
+   * resonator's resonance.
+   */
+  peakNode?: number;
+  /** Relative accuracy of the resonance (default 1e-9; 1e-8 for a peak). */
   tolerance?: number;
 }
 
@@ -48,10 +57,17 @@ export interface TuneResult {
   value: number;
   unit: 'henry' | 'farad';
   targetHz: number;
+  /** What was put on the target: a resonator's resonance or the pass-band peak at a node. */
+  target: 'resonance' | 'peak';
+  /** The node whose peak was tuned (target 'peak'). */
+  peakNode?: number;
+  /** The resonance, or the peak, after the solve. */
   resonanceHz: number;
   /** |fr − target|/target after the solve. */
   relativeError: number;
+  /** The resonator's loaded Q; for a peak without a resonator, peak ÷ −3 dB width. */
   loadedQ: number | null;
+  /** The resonator's −3 dB width; for a peak, the −3 dB width at its node. */
   bandwidthHz: number | null;
   iterations: number;
 }
@@ -131,6 +147,34 @@ function elementSpec(doc: ChainDoc, ref: ElementRef, options: DesignOptions) {
   return { stage, spec };
 }
 
+/** What the solve moves: the resonance or the peak after a change, with its Q and width. */
+interface Tracked {
+  hz: number | null;
+  loadedQ: number | null;
+  bandwidthHz: number | null;
+}
+
+/** The quantity a request tunes, measured on a document. */
+function trackerFor(req: TuneRequest, options: DesignOptions): (doc: ChainDoc) => Tracked {
+  if (req.peakNode !== undefined) {
+    const node = req.peakNode;
+    return (doc) => {
+      const sweep = doc.settings.sweep;
+      const peak = passbandPeak(buildDoc(doc, options), node, sweep.startHz, sweep.stopHz);
+      const bw = peak?.bandwidthHz ?? null;
+      return { hz: peak?.peakHz ?? null, bandwidthHz: bw, loadedQ: peak && bw ? peak.peakHz / bw : null }; // prettier-ignore
+    };
+  }
+  const ref = req.resonator;
+  if (!ref) {
+    throw new StageParameterError('resonator', 'name a resonator to tune, or a node whose peak to tune'); // prettier-ignore
+  }
+  return (doc) => {
+    const r = findResonator(doc, ref, options);
+    return { hz: r?.resonanceHz ?? null, loadedQ: r?.loadedQ ?? null, bandwidthHz: r?.bandwidthHz ?? null }; // prettier-ignore
+  };
+}
+
 /** A search range that holds the target: the chain's sweep widened to target ÷ 1.5 … × 1.5. */
 function widenedSearch(doc: ChainDoc, targetHz: number): ChainDoc {
   const s = doc.settings.sweep;
@@ -160,7 +204,13 @@ export function tuneResonator(
   if (!(targetHz > 0) || !Number.isFinite(targetHz)) {
     throw new StageParameterError('targetHz', `the target must be above 0 Hz (got ${targetHz})`);
   }
-  const tol = req.tolerance ?? 1e-9;
+  const peak = req.peakNode !== undefined;
+  // A peak is located by golden section on a flat top: about 1e-10 relative, so 1e-8.
+  const tol = req.tolerance ?? (peak ? 1e-8 : 1e-9);
+  const track = trackerFor(req, options);
+  const what = peak
+    ? `the peak at node ${req.peakNode}`
+    : `the resonator "${req.resonator?.label}"`;
   const { stage, spec } = elementSpec(doc, req.element, options);
   const start = numberValue(stage, spec);
   const base = widenedSearch(doc, targetHz);
@@ -169,16 +219,15 @@ export function tuneResonator(
   let evaluations = 0;
   const residual = (x: number): number | null => {
     evaluations++;
-    const value = Math.exp(x);
-    const r = findResonator(withValue(base, stage.id, spec.key, value), req.resonator, options);
-    return r?.resonanceHz ? Math.log(r.resonanceHz / targetHz) : null;
+    const hz = track(withValue(base, stage.id, spec.key, Math.exp(x))).hz;
+    return hz ? Math.log(hz / targetHz) : null;
   };
   let x0 = Math.log(start);
   let g0 = residual(x0);
   if (g0 === null) {
     throw new StageParameterError(
       'resonator',
-      `the resonator "${req.resonator.label}" has no resonance near ${targetHz} Hz with the present values`,
+      `${what} is not found near ${targetHz} Hz with the present values`,
     );
   }
   let bracket: [number, number] | null = null; // [x with g > 0, x with g < 0]
@@ -205,13 +254,13 @@ export function tuneResonator(
     x1 = next;
   }
   const value = Math.exp(x0);
-  const final = findResonator(withValue(doc, stage.id, spec.key, value), req.resonator, options);
-  const resonanceHz = final?.resonanceHz ?? NaN;
+  const final = track(withValue(peak ? base : doc, stage.id, spec.key, value));
+  const resonanceHz = final.hz ?? NaN;
   const relativeError = Math.abs(resonanceHz - targetHz) / targetHz;
   if (!(relativeError < Math.max(tol * 100, 1e-6))) {
     throw new StageParameterError(
       'element',
-      `${spec.label} of stage "${stage.id}" cannot bring "${req.resonator.label}" to ` +
+      `${spec.label} of stage "${stage.id}" cannot bring ${what} to ` +
         `${targetHz} Hz within its range (${lo} … ${hi}); choose another element to solve`,
     );
   }
@@ -221,10 +270,12 @@ export function tuneResonator(
     value,
     unit: spec.unit,
     targetHz,
+    target: peak ? 'peak' : 'resonance',
+    ...(peak ? { peakNode: req.peakNode } : {}),
     resonanceHz,
     relativeError,
-    loadedQ: final?.loadedQ ?? null,
-    bandwidthHz: final?.bandwidthHz ?? null,
+    loadedQ: final.loadedQ,
+    bandwidthHz: final.bandwidthHz,
     iterations: evaluations,
   };
 }

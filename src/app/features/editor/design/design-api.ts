@@ -31,7 +31,12 @@ export class DesignApi {
 
   tune(
     document: ChainDocument,
-    body: { resonator: ResonatorRef; element: { stageId: string; key: string }; targetHz: number },
+    body: {
+      resonator: ResonatorRef;
+      element: { stageId: string; key: string };
+      targetHz: number;
+      peakNode?: number;
+    },
     workspaceId?: string,
   ) {
     return this.post<TuneResult>('tune', { document, workspaceId, ...body });

@@ -56,6 +56,15 @@ export class DesignPanelComponent {
   protected readonly candidates = signal<TuneCandidate[]>([]);
   protected readonly elementIndex = signal(0);
   protected readonly tuned = signal<TuneResult | null>(null);
+  /** Null: the resonator's resonance goes on the target; a node: the pass-band peak there. */
+  protected readonly tunePeakNode = signal<number | null>(null);
+  /** Nodes whose peak can be tuned: node n is the output of stage n (0: the source's). */
+  protected readonly peakNodes = computed(() =>
+    (this.runner.result()?.selectivity ?? []).map((s) => ({
+      node: s.node,
+      after: this.store.doc().stages[s.node]?.label || this.store.doc().stages[s.node]?.type,
+    })),
+  );
 
   // ---------------------------------------------------------------- match here
   protected readonly afterStageId = signal<string | null>(null);
@@ -135,6 +144,7 @@ export class DesignPanelComponent {
       this.error.set(`Target frequency: ${parsed.message}`);
       return;
     }
+    const peakNode = this.tunePeakNode();
     const result = await this.run('tune', () =>
       firstValueFrom(
         this.api.tune(
@@ -143,6 +153,7 @@ export class DesignPanelComponent {
             resonator: { stageId: r.stageId, label: r.label },
             element: { stageId: el.stageId, key: el.key },
             targetHz: parsed.value,
+            ...(peakNode === null ? {} : { peakNode }),
           },
           this.workspaceId(),
         ),
