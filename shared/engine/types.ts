@@ -280,6 +280,20 @@ export interface SParamPoint {
 export interface MeasuredNetwork {
   ports: 1 | 2;
   points: SParamPoint[];
+  /** Two-port noise parameters (e.g. a Touchstone file's noise block), ascending frequency. */
+  noise?: MeasuredNoisePoint[];
+}
+
+/** Noise parameters of a measured two-port at one frequency. */
+export interface MeasuredNoisePoint {
+  fHz: number;
+  nfMinDb: number;
+  /** Optimum source reflection coefficient against `z0`. */
+  gammaOpt: ComplexJson;
+  /** Equivalent noise resistance, ohm. */
+  rnOhm: number;
+  /** Reference resistance of `gammaOpt`, ohm. */
+  z0: number;
 }
 
 /** What a stage type is, apart from how it builds (also what clients receive). */

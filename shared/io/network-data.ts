@@ -10,6 +10,20 @@
  */
 import type { MeasuredNetwork, SParamPoint } from '../engine/types';
 
+/**
+ * Two-port noise parameters at one frequency, as Touchstone files give them: minimum noise
+ * figure, the optimum source reflection coefficient against the data's reference `z0`,
+ * and the equivalent noise resistance in ohms.
+ */
+export interface NoisePoint {
+  fHz: number;
+  nfMinDb: number;
+  /** Optimum source reflection coefficient (against the data's reference `z0`). */
+  gammaOpt: { re: number; im: number };
+  /** Equivalent noise resistance, ohm (de-normalised). */
+  rnOhm: number;
+}
+
 /** S-parameters over frequency with one real reference resistance for every port. */
 export interface NetworkData {
   ports: 1 | 2;
@@ -19,6 +33,8 @@ export interface NetworkData {
   s: Float64Array;
   /** Reference resistance of every port, ohm. */
   z0: number;
+  /** Two-port noise parameters in ascending frequency, when the data has them. */
+  noise?: NoisePoint[];
 }
 
 /** Number of float64 slots per frequency point in `NetworkData.s`. */
@@ -40,6 +56,9 @@ export function toMeasuredNetwork(data: NetworkData): MeasuredNetwork {
       point.s22 = c(3);
     }
     points.push(point);
+  }
+  if (data.noise && data.noise.length > 0) {
+    return { ports: data.ports, points, noise: data.noise.map((n) => ({ ...n, z0: data.z0 })) };
   }
   return { ports: data.ports, points };
 }
@@ -82,6 +101,43 @@ export function normalisedToS(
   const inv = new Float64Array(8);
   invert2(p, inv);
   multiply2(n, inv, out, o);
+}
+
+/**
+ * Renormalises two-port S given against real references r1 (port 1) and r2 (port 2) to one
+ * real reference r, written into `out[o..]`. With power waves a = (V + R·I)/(2√R) and
+ * b = (V − R·I)/(2√R) (K. Kurokawa, "Power Waves and the Scattering Matrix", IEEE Trans.
+ * MTT-13, 1965), port i's new waves are a' = pᵢ·a + qᵢ·b and b' = qᵢ·a + pᵢ·b with
+ * pᵢ = (Rᵢ + R)/(2√(Rᵢ·R)), qᵢ = (Rᵢ − R)/(2√(Rᵢ·R)), so S' = (Q + P·S)(P + Q·S)⁻¹.
+ * @returns false when P + Q·S is singular (no S exists at the new reference)
+ */
+export function renormaliseTwoPort(
+  s: Matrix2,
+  r1: number,
+  r2: number,
+  r: number,
+  out: Float64Array,
+  o: number,
+): boolean {
+  const p = [(r1 + r) / (2 * Math.sqrt(r1 * r)), (r2 + r) / (2 * Math.sqrt(r2 * r))];
+  const q = [(r1 - r) / (2 * Math.sqrt(r1 * r)), (r2 - r) / (2 * Math.sqrt(r2 * r))];
+  const n = new Float64Array(8);
+  const m = new Float64Array(8);
+  for (let i = 0; i < 2; i++) {
+    for (let j = 0; j < 2; j++) {
+      const k = 4 * i + 2 * j;
+      const diag = i === j ? 1 : 0;
+      n[k] = q[i] * diag + p[i] * s[k];
+      n[k + 1] = p[i] * s[k + 1];
+      m[k] = p[i] * diag + q[i] * s[k];
+      m[k + 1] = q[i] * s[k + 1];
+    }
+  }
+  const inv = new Float64Array(8);
+  invert2(m, inv);
+  if (!inv.every(Number.isFinite)) return false;
+  multiply2(n, inv, out, o);
+  return true;
 }
 
 /** Impedance seen into a one-port of reflection s against real z0: z0·(1 + s)/(1 − s). */

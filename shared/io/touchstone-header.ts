@@ -61,9 +61,17 @@ export function readKeyword(state: ParseState, line: string): void {
       }
       state.section = 'network';
       return;
+    case 'number of noise frequencies': {
+      const n = Number(arg);
+      if (!Number.isInteger(n) || n < 1) {
+        fail(state, '[Number of Noise Frequencies] needs a count above 0');
+      }
+      state.expectedNoiseFrequencies = n;
+      return;
+    }
     case 'noise data':
-    case 'number of noise frequencies':
-      if (keyword === 'noise data') state.section = 'noise';
+      if (state.ports !== 2) fail(state, '[Noise Data] belongs to two-port files only');
+      state.section = 'noise';
       return;
     case 'begin information':
       state.section = 'information';
@@ -76,15 +84,48 @@ export function readKeyword(state: ParseState, line: string): void {
   }
 }
 
+/**
+ * `[Reference]`: one resistance per port, on the keyword's line or on the lines after it
+ * (2.0: the values "may span multiple lines"). It must follow `[Number of Ports]`.
+ */
 function readReference(state: ParseState, arg: string): void {
-  const values = arg.split(/\s+/).filter(Boolean).map(Number);
-  if (values.length === 0 || values.some((v) => !(v > 0))) {
-    fail(state, '[Reference] needs positive resistances on the same line');
+  if (state.ports === undefined) {
+    fail(state, '[Reference] must come after [Number of Ports]; move it below that keyword');
   }
-  if (values.some((v) => v !== values[0])) {
-    fail(state, '[Reference] gives ports different resistances; renormalise to one reference');
+  state.portReferences = [];
+  state.referenceLine = state.lineNo;
+  addReferenceValues(state, arg);
+}
+
+/** Adds `[Reference]` values from `text`; ends the keyword once every port has one. */
+export function addReferenceValues(state: ParseState, text: string): void {
+  const tokens = text.split(/\s+/).filter(Boolean);
+  for (const t of tokens) {
+    const v = Number(t);
+    if (!(v > 0) || !Number.isFinite(v)) {
+      fail(state, `[Reference] value "${t}" is not a resistance above 0 ohm`);
+    }
+    state.portReferences.push(v);
   }
-  state.reference = values[0];
+  const ports = state.ports ?? 1;
+  if (state.portReferences.length > ports) {
+    fail(
+      state,
+      `[Reference] gives ${state.portReferences.length} values for ${ports} port(s); give one per port`,
+    );
+  }
+  if (state.portReferences.length === ports) {
+    state.referenceLine = 0;
+    settleReferences(state);
+  }
+}
+
+/** One reference for every port when they agree; otherwise keep the per-port list. */
+export function settleReferences(state: ParseState): void {
+  const refs = state.portReferences;
+  if (refs.length === 0) return;
+  state.reference = refs[0];
+  if (refs.every((r) => r === refs[0])) state.portReferences = [];
 }
 
 /** Reads the option line; only the first one counts. */
@@ -104,12 +145,17 @@ export function readOptionLine(state: ParseState, line: string): void {
       if (!(r > 0)) fail(state, `R must be followed by a resistance above 0 ohm; ${OPTION_HELP}`);
       state.reference = r;
       i++;
-      // 1.1 per-port syntax "R 50 50": accept extra equal values, refuse different ones.
+      // Per-port syntax "R 50 75" (Version 1.1 of the 2.1 specification): one per port.
+      const refs = [r];
       while (i + 1 < tokens.length && isNumber(tokens[i + 1])) {
-        if (Number(tokens[i + 1]) !== r) {
-          fail(state, 'the option line gives ports different references; use one R');
-        }
+        const next = Number(tokens[i + 1]);
+        if (!(next > 0)) fail(state, `R values must be above 0 ohm, not ${tokens[i + 1]}`);
+        refs.push(next);
         i++;
+      }
+      if (refs.length > 1 && state.portReferences.length === 0) {
+        state.portReferences = refs;
+        settleReferences(state);
       }
     } else if (t === 'H' || t === 'G') {
       fail(state, `${t}-parameters are not read; export S-parameters instead`);

@@ -2,15 +2,9 @@
  * The Touchstone reader's parse state and its error type (see `touchstone.ts`).
  */
 
-/** One point of two-port noise parameters as the file gives them. */
-export interface NoisePoint {
-  fHz: number;
-  nfMinDb: number;
-  /** Optimum source reflection coefficient (against the file's reference). */
-  gammaOpt: { re: number; im: number };
-  /** Equivalent noise resistance, ohm (de-normalised). */
-  rnOhm: number;
-}
+import type { NoisePoint } from './network-data';
+
+export type { NoisePoint } from './network-data';
 
 /** A Touchstone file that cannot be read as written. */
 export class TouchstoneError extends Error {
@@ -38,6 +32,14 @@ export interface ParseState {
   parameter: 'S' | 'Y' | 'Z';
   format: Format;
   reference: number;
+  /**
+   * Per-port references from `[Reference]` (or a 1.1-style "R 50 75" option line); empty
+   * when every port uses `reference`. Data given against them is renormalised to port 1's.
+   */
+  portReferences: number[];
+  /** Line of a `[Reference]` whose values continue on the following lines, else 0. */
+  referenceLine: number;
+  expectedNoiseFrequencies: number | undefined;
   /** Whether two-port columns come N11 N21 N12 N22 (1.x and `21_12`). */
   order21First: boolean;
   /** Whether `[Two-Port Data Order]` was given (2.x two-ports must give it). */

@@ -1,26 +1,37 @@
 /**
- * Touchstone reader for one- and two-port files (`.s1p`, `.s2p`).
+ * Touchstone reader for one- and two-port files (`.s1p`, `.s2p`, `.ts`).
  *
- * Follows the Touchstone® File Format Specification Rev 1.1 (EIA/IBIS Open Forum), with the
- * simple parts of Version 2.0/2.1: `[Version]`, `[Number of Ports]`, `[Two-Port Data Order]`
- * (`21_12` = N11 N21 N12 N22, the 1.x order; `12_21` = N11 N12 N21 N22), `[Number of
- * Frequencies]`, a single-valued `[Reference]`, `[Matrix Format] Full`, `[Network Data]`,
- * `[Noise Data]`, `[Begin/End Information]` (skipped) and `[End]`.
+ * Follows the Touchstone® File Format Specification Rev 1.1 (EIA/IBIS Open Forum) and
+ * Version 2.0 (IBIS Open Forum, ratified 24 April 2009) for one and two ports: `[Version]`,
+ * `[Number of Ports]`, `[Two-Port Data Order]`, `[Number of Frequencies]`, `[Number of
+ * Noise Frequencies]`, `[Reference]` per port (on its line or the lines after it),
+ * `[Matrix Format] Full`, `[Network Data]`, `[Noise Data]`, `[Begin/End Information]`
+ * (skipped) and `[End]`. Mixed-mode data and Lower/Upper matrices are refused by name.
  *
- * What 1.1 says and this reader does:
+ * `[Two-Port Data Order]`: `21_12` means the columns run N11 N21 N12 N22 (the order of
+ * every 1.x two-port file) and `12_21` means N11 N12 N21 N22. Version 2.0, section
+ * "[Two-Port Data Order]" (p. 8 of the 2009 edition) defines the two arguments this way,
+ * and its own two-port H-parameter example labels the columns "freq magH11 angH11 magH21
+ * angH21 magH12 angH12 magH22 angH22" under `[Two-Port Data Order] 21_12`. (Some secondary
+ * write-ups swap the two; the specification's example settles it.)
+ *
+ * What the specifications say and this reader does:
  * - the option line `# <unit> <parameter> <format> R <n>` may give its fields in any order and
  *   omit any of them; the defaults are GHz, S, MA, R 50; only the first option line counts;
  * - everything is case-insensitive; `!` starts a comment that runs to the end of the line;
  * - DB is 20·log10|x| with the angle in degrees, MA is magnitude and degrees, RI is re, im;
  * - Y and Z data in 1.x files are normalised to R (in 2.x files they are in siemens / ohm);
- * - a two-port point is one line: frequency then N11 N21 N12 N22 (two numbers each);
- * - in a 1.x two-port file the noise parameters start where the frequency stops increasing.
+ * - a 1.x two-port point is one line; a 2.x point may continue over several lines;
+ * - in a 1.x two-port file the noise parameters start where the frequency stops increasing
+ *   (f, NFmin dB, |Γopt|, ∠Γopt, Rn normalised to R); in 2.x they follow `[Noise Data]`
+ *   with Rn in ohms;
+ * - ports with different references (`[Reference] 50 75`) are renormalised to port 1's.
  *
  * Output is the canonical `NetworkData` (Hz, S re/im, one real reference). Every error is a
  * `TouchstoneError` naming the file and line and saying what to change.
  */
-import { normalisedToS, sStride, type NetworkData } from './network-data';
-import { readKeyword, readOptionLine } from './touchstone-header';
+import { normalisedToS, renormaliseTwoPort, sStride, type NetworkData } from './network-data';
+import { addReferenceValues, readKeyword, readOptionLine } from './touchstone-header';
 import {
   fail,
   portsFromName,
@@ -71,6 +82,9 @@ export function readTouchstone(
     parameter: 'S',
     format: 'MA',
     reference: 50,
+    portReferences: [],
+    referenceLine: 0,
+    expectedNoiseFrequencies: undefined,
     order21First: true,
     orderGiven: false,
     section: 'header',
@@ -98,6 +112,16 @@ function readLine(state: ParseState, raw: string): void {
   if (state.section === 'information') {
     if (/^\[end information\]/i.test(line)) state.section = 'header';
     return;
+  }
+  if (state.referenceLine > 0) {
+    if (line.startsWith('[') || line.startsWith('#')) {
+      fail(
+        state,
+        `[Reference] gives fewer values than the file has ports; give one per port`,
+        state.referenceLine,
+      );
+    }
+    return addReferenceValues(state, line);
   }
   if (line.startsWith('[')) return readKeyword(state, line);
   if (line.startsWith('#')) return readOptionLine(state, line);
@@ -174,6 +198,13 @@ function addToPending(state: ParseState, numbers: number[]): void {
 
 function addPoint(state: ParseState, numbers: number[], line: number = state.lineNo): void {
   const ports = state.ports ?? 1;
+  if (state.portReferences.length > 0 && state.portReferences.length !== ports) {
+    fail(
+      state,
+      `${state.portReferences.length} reference resistances for ${ports} port(s); give one per port`,
+      line,
+    );
+  }
   const f = numbers[0] * state.freqScale;
   const last = state.freqs[state.freqs.length - 1];
   if (!(f >= 0)) fail(state, 'a frequency must not be negative', line);
@@ -194,6 +225,15 @@ function addPoint(state: ParseState, numbers: number[], line: number = state.lin
     ports === 2 && state.order21First ? [0, 1, 4, 5, 2, 3, 6, 7].map((i) => pairs[i]) : pairs;
   state.freqs.push(f);
   if (state.parameter === 'S') {
+    if (ports === 2 && state.portReferences.length > 0) {
+      const [r1, r2] = state.portReferences;
+      const out = new Float64Array(8);
+      if (!renormaliseTwoPort(m, r1, r2, state.reference, out, 0)) {
+        fail(state, `the point cannot be renormalised from ${r1}/${r2} ohm to one reference`, line);
+      }
+      state.values.push(...out);
+      return;
+    }
     state.values.push(...m);
     return;
   }
@@ -208,6 +248,9 @@ function addPoint(state: ParseState, numbers: number[], line: number = state.lin
     s,
     0,
   );
+  if (!s.every(Number.isFinite)) {
+    fail(state, `the ${state.parameter}-parameters of this point have no S-parameters`, line);
+  }
   state.values.push(...s);
 }
 
@@ -228,13 +271,18 @@ function readNoise(state: ParseState, numbers: number[]): void {
   const f = numbers[0] * state.freqScale;
   const last = state.noise[state.noise.length - 1];
   if (last && !(f > last.fHz)) fail(state, 'noise frequencies must increase');
+  if (!(f >= 0)) fail(state, 'a noise frequency must not be negative');
+  if (!(numbers[2] >= 0)) fail(state, 'the magnitude of Γopt must not be negative');
+  if (!(numbers[4] >= 0)) fail(state, 'the noise resistance Rn must not be negative');
   const rad = (numbers[3] * Math.PI) / 180;
   state.noise.push({
     fHz: f,
     nfMinDb: numbers[1],
     gammaOpt: { re: numbers[2] * Math.cos(rad), im: numbers[2] * Math.sin(rad) },
-    // Rn is normalised to R (1.1); read 2.x files the same way (from memory).
-    rnOhm: numbers[4] * state.reference,
+    // Rn: normalised to the reference in 1.x files, in ohms in 2.x files. The 2.0
+    // specification gives the same device both ways in its noise examples (Rn 0.38 and 0.40
+    // in the 1.0 file, 19 and 20 in the 2.0 file, reference 50 ohm).
+    rnOhm: state.version === '1.1' ? numbers[4] * state.reference : numbers[4],
   });
 }
 
@@ -251,6 +299,20 @@ function finish(state: ParseState): TouchstoneFile {
       undefined,
       `[Number of Frequencies] says ${state.expectedFrequencies} but the file has ` +
         `${state.freqs.length} points; correct the count`,
+    );
+  }
+  if (state.referenceLine > 0) {
+    fail(state, '[Reference] gives fewer values than the file has ports', state.referenceLine);
+  }
+  if (
+    state.expectedNoiseFrequencies !== undefined &&
+    state.expectedNoiseFrequencies !== state.noise.length
+  ) {
+    throw new TouchstoneError(
+      state.fileName,
+      undefined,
+      `[Number of Noise Frequencies] says ${state.expectedNoiseFrequencies} but the file has ` +
+        `${state.noise.length} noise points; correct the count`,
     );
   }
   const ports = state.ports ?? 1;

@@ -144,9 +144,9 @@ describe('Touchstone reader: other parameters and versions', () => {
   });
 
   it('should read a 2.0 file with [Two-Port Data Order] 12_21 as N11 N12 N21 N22, across wrapped lines', () => {
-    // 12_21 puts N12 before N21; 21_12 is the 1.x order. A reference note we had (from memory) states the
-    // opposite for 12_21; scikit-rf's touchstone.py ("two_port_order_legacy = '21_12' in x")
-    // and the Touchstone 2.0 keyword's own name agree with this reading.
+    // 12_21 puts N12 before N21; 21_12 is the 1.x order. Touchstone File Format Specification
+    // Version 2.0 (IBIS Open Forum, 2009), [Two-Port Data Order]: its two-port example labels
+    // the columns "freq magH11 angH11 magH21 angH21 magH12 angH12 magH22 angH22" under 21_12.
     const file = readFixture('v2-order-12_21.s2p');
     expect(file.version).toBe('2.0');
     expect(sAt(file, 0, 1)[0]).toBeCloseTo(0.2, 12); // S12
@@ -224,7 +224,18 @@ describe('Touchstone reader: malformed files', () => {
       'x.s2p',
       'needs [Two-Port Data Order]',
     ],
-    ['mixed references', '# MHz S MA R 50 75\n', 'x.s2p', 'different references'],
+    [
+      'too few references',
+      '[Version] 2.0\n# Hz S RI R 50\n[Number of Ports] 2\n[Reference] 50\n[Network Data]\n',
+      'x.s2p',
+      '[Reference] gives fewer values',
+    ],
+    [
+      'too many references',
+      '[Version] 2.0\n# Hz S RI R 50\n[Number of Ports] 1\n[Reference] 50 75\n',
+      'x.s1p',
+      '[Reference] gives 2 values for 1 port',
+    ],
   ])('should refuse %s with a message that says what to fix', (_what, text, name, expected) => {
     const msg = messageOf(() => readTouchstone(text, name));
     expect(msg.startsWith(name)).toBe(true);

@@ -1,9 +1,17 @@
 /**
  * Measured two-port: S-parameters (from an attached two-port data file, or a short text
- * table) interpolated linearly in frequency and turned into ABCD.
+ * table) interpolated linearly in frequency and turned into ABCD. Its noise is its loss
+ * (passive), a stated figure, or the data file's own noise parameters, which the engine
+ * evaluates at the source impedance the stage really sees.
  */
 import { StageParameterError } from '../errors';
-import type { AbcdFn, MeasuredNetwork, StageDefinition } from '../types';
+import type {
+  AbcdFn,
+  MeasuredNetwork,
+  MeasuredNoisePoint,
+  NoiseDecl,
+  StageDefinition,
+} from '../types';
 import { enumParam, numParam, readParams } from './common';
 import { interpolate, parseTable, sTableFromNetwork, type SampleTable } from './measured-data';
 import { sToAbcdAt } from '../core/abcd';
@@ -49,10 +57,20 @@ const PARAMS = [
       'S22re S22im; ..." (Hz, linear).',
   },
   numParam('z0', 'Reference impedance of the table', 'ohm', 50, { min: 0, exclusiveMin: true }),
-  enumParam('noise', 'Noise', [
-    ['passive', 'Passive (noise from its loss)'],
-    ['figure', 'Stated noise figure (active device)'],
-  ]),
+  enumParam(
+    'noise',
+    'Noise',
+    [
+      ['passive', 'Passive (noise from its loss)'],
+      ['figure', 'Stated noise figure (active device)'],
+      ['file', 'Noise parameters from the data file (active device)'],
+    ],
+    {
+      help:
+        'A data file with a noise block (NFmin, optimum source reflection, Rn) gives the noise ' +
+        'figure at the source impedance the stage really sees, not only at the optimum.',
+    },
+  ),
   numParam('nfDb', 'Noise figure', 'db', 3, {
     min: 0,
     max: 40,
@@ -83,15 +101,72 @@ export const MEASURED_TWO_PORT: StageDefinition = {
         );
     return {
       sections: [{ abcd }],
-      noise:
-        p.str('noise') === 'figure'
-          ? {
-              kind: 'figure',
-              nfDb: p.num('nfDb'),
-              // A measured figure holds at the reference impedance it was measured in.
-              ratedSourceOhm: ctx.dataFile ? ctx.dataFile.points[0].z0 : p.num('z0'),
-            }
-          : { kind: 'passive' },
+      noise: noiseOf(p.str('noise'), p.num('nfDb'), p.num('z0'), ctx),
     };
   },
 };
+
+function noiseOf(
+  mode: string,
+  nfDb: number,
+  tableZ0: number,
+  ctx: { f0Hz: number; dataFile?: MeasuredNetwork },
+): NoiseDecl {
+  if (mode === 'figure') {
+    // A measured figure holds at the reference impedance it was measured in.
+    return {
+      kind: 'figure',
+      nfDb,
+      ratedSourceOhm: ctx.dataFile ? ctx.dataFile.points[0].z0 : tableZ0,
+    };
+  }
+  if (mode !== 'file') return { kind: 'passive' };
+  const noise = ctx.dataFile?.noise;
+  if (!noise || noise.length === 0) {
+    throw new StageParameterError(
+      'noise',
+      ctx.dataFile
+        ? 'the attached data file has no noise parameters; attach one with a noise block or choose a stated noise figure'
+        : 'noise parameters come from a two-port data file; attach one or choose a stated noise figure',
+    );
+  }
+  return noiseParametersAt(noise, ctx.f0Hz);
+}
+
+/**
+ * The engine's noise-parameter declaration at f (linear interpolation of NFmin in dB, Γopt
+ * re/im and Rn between the file's noise frequencies; the end values held outside them).
+ * Yopt = 1/Zopt with Zopt = z0·(1 + Γopt)/(1 − Γopt).
+ */
+export function noiseParametersAt(noise: readonly MeasuredNoisePoint[], f: number): NoiseDecl {
+  const table: SampleTable = {
+    f: Float64Array.from(noise, (n) => n.fHz),
+    width: 4,
+    values: Float64Array.from(
+      noise.flatMap((n) => [n.nfMinDb, n.gammaOpt.re, n.gammaOpt.im, n.rnOhm]),
+    ),
+  };
+  const v = new Float64Array(4);
+  interpolate(table, f, v, 0);
+  const [fminDb, gr, gi, rn] = v;
+  const z0 = noise[0].z0;
+  // Yopt = (1 − Γ)/(z0·(1 + Γ))
+  const nr = 1 - gr;
+  const ni = -gi;
+  const dr = z0 * (1 + gr);
+  const di = z0 * gi;
+  const d = dr * dr + di * di;
+  if (!(d > 0)) {
+    throw new StageParameterError(
+      'noise',
+      'the file gives Γopt = −1 (a short), which no source can present',
+    );
+  }
+  return {
+    kind: 'parameters',
+    fminDb,
+    rn,
+    yoptRe: (nr * dr + ni * di) / d,
+    yoptIm: (ni * dr - nr * di) / d,
+  };
+}
