@@ -4,7 +4,7 @@
  */
 import type { AnalysisResult, StageDefinition } from './types';
 import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
-import { raiseFlags } from './core/flags';
+import { CAUTION_TEXT, raiseFlags } from './core/flags';
 import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
@@ -64,6 +64,10 @@ export function analyzeBuilt(
     flags,
     ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa) }),
     ...(plan ? { plan } : {}),
+    ...(built.mode ? { mode: built.mode } : {}),
+    ...(built.chainCautions
+      ? { cautions: built.chainCautions.map((caution) => ({ caution, message: `This chain ${CAUTION_TEXT[caution]}` })) } // prettier-ignore
+      : {}),
   };
 }
 

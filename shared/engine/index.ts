@@ -11,6 +11,7 @@ export {
   type BuiltChain,
   type BuiltStage,
   type ChainLike,
+  type ModeRef,
 } from './core/build';
 export { runNodeAnalysis, createNodeAnalysis, type NodeAnalysis } from './core/nodes';
 export * as quantities from './core/quantities';
@@ -49,6 +50,16 @@ export { analyzeSelectivity, findMixer, imageFrequency, type MixerInfo } from '.
 export { raiseFlags, CAUTION_TEXT } from './core/flags';
 export { formatQuantity, formatNumber } from './core/format';
 export { validateChain } from './validate';
+export {
+  analyseModes,
+  chainInMode,
+  hasModes,
+  modeIds,
+  modeValidationIssues,
+  modeView,
+  readModes,
+  type ModeAnalysis,
+} from './modes';
 export * from './errors';
 export * from './types';
 export { catalogue, getStageDefinition } from './catalogue';

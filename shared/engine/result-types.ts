@@ -26,7 +26,11 @@ export type FlagCode =
   | 'noise-mismatch'
   | 'implausible-value'
   | 'tank-matched'
-  | 'caution';
+  | 'caution'
+  | 'trap-missed'
+  | 'harmonics-high'
+  | 'receiver-overdriven'
+  | 'part-stress';
 
 export interface Flag {
   code: FlagCode;
@@ -217,4 +221,11 @@ export interface AnalysisResult {
   sweep?: SweepReport;
   /** The receiver plan (spurs, strong signals, outside noise, converter), when asked for. */
   plan?: PlanReport;
+  /** The mode analysed, when the chain has modes. */
+  mode?: { id: string; name: string; kind: 'receive' | 'transmit' | 'state' };
+  /**
+   * Cautions about the chain as a whole (a chain with a transmit mode carries the `transmit`
+   * caution in every mode), each with its text.
+   */
+  cautions?: { caution: 'high-voltage' | 'transmit' | 'rf-exposure'; message: string }[];
 }

@@ -6,6 +6,8 @@ import { ChainValidationError, type ChainIssue } from './errors';
 import type { StageDefinition } from './types';
 import { buildChain, type BuildOptions, type ChainLike } from './core/build';
 import { defaultCatalogue } from './default-catalogue';
+import { hasModes } from './modes/apply-mode';
+import { modeValidationIssues } from './modes';
 
 /** Every problem of a chain; empty when it can be analysed. */
 export function validateChain(
@@ -13,6 +15,9 @@ export function validateChain(
   catalogue?: readonly StageDefinition[],
   options: BuildOptions = {},
 ): ChainIssue[] {
+  // A chain with modes is valid when each mode is (unless one mode is asked for).
+  if (hasModes(doc) && options.mode === undefined)
+    return modeValidationIssues(doc, catalogue ?? defaultCatalogue(), options);
   try {
     buildChain(doc, catalogue ?? defaultCatalogue(), options);
     return [];

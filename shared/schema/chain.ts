@@ -134,6 +134,29 @@ export const chainTargetsSchema = z
   });
 export type ChainTargets = z.infer<typeof chainTargetsSchema>;
 
+/**
+ * Limits for a transmit mode's analysis (all optional: a figure without its limit is reported
+ * but not flagged). Ratings are per stage id: the largest peak voltage across and rms current
+ * through any of its parts.
+ */
+export const transmitSettingsSchema = z.object({
+  /** Attenuation the output network must give at 2·f0 and 3·f0, relative to f0, dB. */
+  minHarmonicAttenuationDb: z.number().min(0).max(200).optional(),
+  /** The most transmit power allowed to reach the receiver's input, dBm. */
+  maxReceiverInputDbm: z.number().min(-200).max(100).optional(),
+  /** Part ratings by stage id. */
+  ratings: z
+    .record(
+      z.string().max(64),
+      z.object({
+        maxPeakVolts: positive('rated peak voltage').optional(),
+        maxRmsAmps: positive('rated rms current').optional(),
+      }),
+    )
+    .optional(),
+});
+export type TransmitSettings = z.infer<typeof transmitSettingsSchema>;
+
 export const chainSettingsSchema = z.object({
   /** Design frequency f0 in Hz (at the chain's input: RF). */
   f0Hz: positive('design frequency'),
@@ -173,18 +196,84 @@ export const chainSettingsSchema = z.object({
    * source's id for the chain input). Overrides `referenceOhm`.
    */
   portReferences: z.record(z.string().max(64), positive('port reference resistance')).optional(),
+  /** Limits for the transmit analysis of a transmit mode (optional). */
+  transmit: transmitSettingsSchema.optional(),
 });
 export type ChainSettings = z.infer<typeof chainSettingsSchema>;
 
-export const chainDocumentSchema = z.object({
-  format: z.literal(CHAIN_FORMAT).default(CHAIN_FORMAT),
-  formatVersion: z.literal(CHAIN_FORMAT_VERSION).default(CHAIN_FORMAT_VERSION),
-  name: z.string().trim().min(1, 'a chain needs a name').max(200),
-  description: z.string().max(5000).default(''),
-  settings: chainSettingsSchema,
-  /** Ordered from the source (first) to the load (last). */
-  stages: z.array(stageInstanceSchema).min(2, 'a chain needs at least a source and a load').max(64),
+/** What a mode is for: receiving, transmitting, or one state of a switched chain (a band). */
+export const MODE_KINDS = ['receive', 'transmit', 'state'] as const;
+export type ModeKind = (typeof MODE_KINDS)[number];
+
+/**
+ * One operating state of a chain (receive, transmit, band 2…). A mode overrides stage values
+ * (a switch's state, a capacitor), leaves stages out, or names the stages of its own path in
+ * order (the transmit path runs from a power-amplifier source to the antenna's load). A
+ * chain without modes has one implicit mode: the chain as written.
+ */
+export const modeSchema = z.object({
+  /** Stable id (a slug: lower-case letters, digits and dashes). */
+  id: z
+    .string()
+    .min(1, 'a mode needs an id')
+    .max(40)
+    .regex(/^[a-z0-9][a-z0-9-]*$/, 'a mode id uses lower-case letters, digits and dashes only'),
+  name: z.string().trim().min(1, 'a mode needs a name').max(80),
+  kind: z.enum(MODE_KINDS).default('state'),
+  /** Parameter values this mode sets, by stage id and parameter key (SI, like stage values). */
+  values: z.record(z.string().max(64), z.record(z.string().max(64), paramValueSchema)).optional(),
+  /** Stages left out in this mode, by id. */
+  bypass: z.array(z.string().max(64)).max(64).optional(),
+  /** The stages of this mode in order, by id (first a source, last a load); absent: all. */
+  path: z.array(z.string().max(64)).min(2, 'a mode path needs at least a source and a load').max(64).optional(), // prettier-ignore
 });
+export type Mode = z.infer<typeof modeSchema>;
+export type ModeInput = z.input<typeof modeSchema>;
+
+/** Stage ids the modes name must exist, and mode ids must be unique (roles: engine). */
+function checkModeReferences(
+  doc: { stages: { id: string }[]; modes?: Mode[] },
+  ctx: z.RefinementCtx,
+): void {
+  if (!doc.modes) return;
+  const stageIds = new Set(doc.stages.map((s) => s.id));
+  const seen = new Set<string>();
+  doc.modes.forEach((m, i) => {
+    if (seen.has(m.id))
+      ctx.addIssue({ code: 'custom', path: ['modes', i, 'id'], message: `Mode id "${m.id}" is used twice; give each mode its own id` }); // prettier-ignore
+    seen.add(m.id);
+    const unknown = (id: string, path: (string | number)[]) => {
+      if (!stageIds.has(id))
+        ctx.addIssue({ code: 'custom', path: ['modes', i, ...path], message: `Mode "${m.name}" names stage "${id}", which is not in the chain; use the id of one of its stages` }); // prettier-ignore
+    };
+    Object.keys(m.values ?? {}).forEach((id) => unknown(id, ['values', id]));
+    (m.bypass ?? []).forEach((id, k) => unknown(id, ['bypass', k]));
+    (m.path ?? []).forEach((id, k) => unknown(id, ['path', k]));
+    const inPath = new Set<string>();
+    (m.path ?? []).forEach((id, k) => {
+      if (inPath.has(id))
+        ctx.addIssue({ code: 'custom', path: ['modes', i, 'path', k], message: `Mode "${m.name}" lists stage "${id}" twice in its path; a stage appears once` }); // prettier-ignore
+      inPath.add(id);
+    });
+  });
+}
+
+export const chainDocumentSchema = z
+  .object({
+    format: z.literal(CHAIN_FORMAT).default(CHAIN_FORMAT),
+    formatVersion: z.literal(CHAIN_FORMAT_VERSION).default(CHAIN_FORMAT_VERSION),
+    name: z.string().trim().min(1, 'a chain needs a name').max(200),
+    description: z.string().max(5000).default(''),
+    settings: chainSettingsSchema,
+    /** Ordered from the source (first) to the load (last). */
+    stages: z
+      .array(stageInstanceSchema)
+      .min(2, 'a chain needs at least a source and a load')
+      .max(64),
+    /** Operating modes (optional); the first is the one analysed when none is named. */
+    modes: z.array(modeSchema).max(16).optional(),
+  })
+  .superRefine(checkModeReferences);
 export type ChainDocument = z.infer<typeof chainDocumentSchema>;
 /** The document as written by hand or sent by a client, before defaults are filled. */
 export type ChainDocumentInput = z.input<typeof chainDocumentSchema>;

@@ -4,10 +4,11 @@
  * model built, and the sections of all two-ports laid out flat with maps back to stages and
  * user-level nodes (stage boundaries).
  */
-import { chainSettingsSchema, type ChainSettings } from '../../schema/chain';
+import { chainSettingsSchema, type ChainSettings, type ModeKind } from '../../schema/chain';
 import { ChainValidationError, StageParameterError, type ChainIssue } from '../errors';
 import type {
   AbcdFill,
+  Caution,
   LoadModel,
   MeasuredNetwork,
   ParamSpec,
@@ -18,6 +19,7 @@ import type {
   StageModel,
   TwoPortModel,
 } from '../types';
+import { hasModes, issueInDocument, modeView, readModes } from '../modes/apply-mode';
 import { formatQuantity } from './format';
 import { pointwiseFill } from './nodes';
 
@@ -55,6 +57,17 @@ export interface BuiltChain {
   userNodeFlat: Int32Array;
   /** The design frequency at each flat node (translated after a mixer), Hz. */
   f0AtFlatNode: Float64Array;
+  /** The mode this chain was built in, when the document has modes. */
+  mode?: ModeRef;
+  /** Cautions of the whole chain (every mode of a chain that has a transmit mode). */
+  chainCautions?: Caution[];
+}
+
+/** Which mode a result is of. */
+export interface ModeRef {
+  id: string;
+  name: string;
+  kind: ModeKind;
 }
 
 /** A section whose block form is always there. */
@@ -64,6 +77,8 @@ export type FilledSection = Section & { fill: AbcdFill };
 export interface ChainLike {
   settings?: unknown;
   stages?: unknown;
+  /** Operating modes (see `modes/`). */
+  modes?: unknown;
 }
 
 interface StageLike {
@@ -82,6 +97,11 @@ export interface BuildOptions {
    * own parameters).
    */
   dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
+  /**
+   * The mode to build (see `modes/`); absent: the first mode of a chain that has modes, or
+   * the chain as written.
+   */
+  mode?: string;
 }
 
 /** "Stage 3 "Detector" (diode-detector)" — how messages name a stage. */
@@ -223,6 +243,31 @@ export function buildChain(
   doc: ChainLike,
   catalogue: readonly StageDefinition[],
   options: BuildOptions = {},
+): BuiltChain {
+  if (doc && typeof doc === 'object' && (hasModes(doc) || options.mode !== undefined)) {
+    const view = modeView(doc, options.mode, catalogue);
+    try {
+      const built = buildAsWritten(view.doc, catalogue, options);
+      if (!view.mode) return built;
+      const { mode } = view;
+      const transmits = readModes(doc).modes.some((m) => m.kind === 'transmit');
+      return {
+        ...built,
+        mode: { id: mode.id, name: mode.name, kind: mode.kind },
+        ...(transmits ? { chainCautions: ['transmit', 'rf-exposure'] as Caution[] } : {}),
+      };
+    } catch (e) {
+      if (!(e instanceof ChainValidationError)) throw e;
+      throw new ChainValidationError(e.issues.map((i) => issueInDocument(view, i)));
+    }
+  }
+  return buildAsWritten(doc, catalogue, options);
+}
+
+function buildAsWritten(
+  doc: ChainLike,
+  catalogue: readonly StageDefinition[],
+  options: BuildOptions,
 ): BuiltChain {
   if (!doc || typeof doc !== 'object') {
     throw new ChainValidationError([
