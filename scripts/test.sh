@@ -60,7 +60,10 @@ run_step "Format (prettier --check .)" npx prettier --check . --log-level warn
 run_step "Lint (eslint .)" npx eslint . --max-warnings 0
 run_step "Type-check server, shared, scripts, tests" npx tsc --noEmit -p tsconfig.server.json
 run_step "Type-check client" npx tsc --noEmit -p tsconfig.app.json
-run_step "Unit and API tests (jest: engine, server, client)" npx jest --ci
+JEST_RESULTS=.data/jest-results.json
+rm -f "$JEST_RESULTS"
+run_step "Unit and API tests (jest: engine, server, client)" \
+  npx jest --ci --json --outputFile="$JEST_RESULTS"
 run_step "Client build (ng build)" npx ng build
 
 browser_tests() {
@@ -93,6 +96,10 @@ run_step "Browser tests (server on :$BROWSER_PORT, jest -c jest.browser.config.j
 
 # ---------------------------------------------------------------- report
 if [ ${#FAILED[@]} -gt 0 ]; then
+  # The end of the log is what a CI summary shows: name the failed unit and API tests there.
+  if printf '%s\n' "${FAILED[@]}" | grep -q '^Unit and API tests'; then
+    node scripts/lib/jest-failures.cjs "$JEST_RESULTS"
+  fi
   printf '\nnpm test FAILED in %d step(s):\n' "${#FAILED[@]}"
   printf '  - %s\n' "${FAILED[@]}"
   exit 1
