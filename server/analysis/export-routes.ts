@@ -4,6 +4,7 @@ import { exportQuerySchema, exportRequestSchema, type ExportFormat } from '../..
 import type { ChainDocument } from '../../shared/schema/chain';
 import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
 import { chainToTouchstone, TouchstoneExportError } from '../../shared/io/chain-touchstone';
+import { exportFileName } from '../../shared/io/export-name';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
@@ -21,18 +22,8 @@ interface ExportFile {
   text: string;
   contentType: string;
   extension: string;
-}
-
-/** The file name stem: the chain's name in lower-case letters, digits and dashes. */
-export function exportSlug(chainName: string): string {
-  const slug = chainName
-    .normalize('NFKD')
-    .replace(/[^A-Za-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .toLowerCase()
-    .slice(0, 80)
-    .replace(/-+$/, '');
-  return slug || 'chain';
+  /** The reference impedance the file's figures are given against, for its name. */
+  referenceOhm?: number;
 }
 
 async function exportFile(
@@ -64,6 +55,7 @@ async function exportFile(
           text: chainToTouchstone(doc, { z0: z0 ?? 50, ...withFiles }),
           contentType: 'text/plain; charset=utf-8',
           extension: 's2p',
+          referenceOhm: z0 ?? 50,
         };
   } catch (err) {
     if (err instanceof SpiceExportError || err instanceof TouchstoneExportError) {
@@ -82,11 +74,15 @@ export async function sendExport(
   workspaceId: string | undefined,
 ): Promise<void> {
   const file = await exportFile(em, doc, format, z0, workspaceId);
-  const name = `${exportSlug(doc.name)}.${file.extension}`;
+  const name = exportFileName({
+    chainName: doc.name,
+    referenceOhm: file.referenceOhm,
+    extension: file.extension,
+  });
   res
     .status(200)
     .set('Content-Type', file.contentType)
-    // The slug is plain ASCII, so the quoted form needs no escaping.
+    // The name is plain ASCII without quotes, so the quoted form needs no escaping.
     .set('Content-Disposition', `attachment; filename="${name}"`)
     .set('Cache-Control', 'no-store')
     .send(file.text);

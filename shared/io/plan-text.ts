@@ -68,9 +68,3 @@ export function planText(plan: PlanReport): string {
   lines.push('', alignColumns(planFigureRows(plan)), '', plan.externalNoise.statement);
   return lines.join('\n');
 }
-
-/** CSV of rows (RFC 4180 quoting). */
-export function toCsv(rows: string[][]): string {
-  const cell = (v: string) => (/[",\n]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v);
-  return rows.map((r) => r.map(cell).join(',')).join('\r\n') + '\r\n';
-}

@@ -84,7 +84,7 @@ describe('POST /api/export', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/^(text\/plain|application\/octet-stream)/);
     expect(res.headers['content-disposition']).toBe(
-      'attachment; filename="test-tank-into-a-detector.s2p"',
+      'attachment; filename="test-tank-into-a-detector_50ohm.s2p"',
     );
     const firstNonComment = res.text.split('\n').find((l) => !l.startsWith('!'));
     expect(firstNonComment).toBe('# HZ S RI R 50');
@@ -207,7 +207,9 @@ describe('GET /api/chains/:id/export', () => {
 
     const s2p = await send(viewer, 'get', `/api/chains/${chainId}/export?format=touchstone&z0=300`);
     expect(s2p.status).toBe(200);
-    expect(s2p.headers['content-disposition']).toBe('attachment; filename="stored-tank.s2p"');
+    expect(s2p.headers['content-disposition']).toBe(
+      'attachment; filename="stored-tank_300ohm.s2p"',
+    );
     expect(s2p.text.split('\n')).toContain('# HZ S RI R 300');
   });
 

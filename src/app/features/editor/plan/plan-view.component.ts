@@ -29,7 +29,10 @@ import { themePalette } from '../results/plot-theme';
 import { ResultPlotComponent } from '../results/result-plot.component';
 import { EditorStore } from '../state/editor.store';
 import { csvFileName } from '../results/budget-csv';
-import { planFigureRows, spurRows, toCsv } from '../../../../../shared/io/plan-text';
+import { planFigureRows, spurRows } from '../../../../../shared/io/plan-text';
+import { csvFromRows } from '../../../../../shared/io/csv-writer';
+import { chainReferenceOhm } from '../../../../../shared/io/export-name';
+import { saveCsv } from '../../report/csv-download';
 import {
   KIND_LABEL,
   parseProfile,
@@ -139,16 +142,10 @@ export class PlanViewComponent {
   /** Downloads the plan as CSV: the spur table, then the figures (UTF-8 with a byte-order mark). */
   protected downloadCsv(): void {
     const plan = this.plan();
-    const view = this.page.defaultView;
-    if (!plan || !view) return;
-    const csv = toCsv([...spurRows(plan), [], ...planFigureRows(plan)]);
-    const blob = new Blob(['\uFEFF', csv], { type: 'text/csv;charset=utf-8' });
-    const url = view.URL.createObjectURL(blob);
-    const link = this.page.createElement('a');
-    link.href = url;
-    link.download = csvFileName(`${this.document().name} plan`);
-    link.click();
-    view.setTimeout(() => view.URL.revokeObjectURL(url), 0);
+    if (!plan) return;
+    const doc = this.document();
+    const name = csvFileName(doc.name, 'plan', chainReferenceOhm(doc.settings));
+    saveCsv(this.page, name, [csvFromRows(spurRows(plan)), csvFromRows(planFigureRows(plan))]);
   }
 
   /** What the IF field shows: what was typed, or the stored value written out. */

@@ -126,7 +126,7 @@ describe('AnalysisResultsComponent', () => {
       const clicked = jest.spyOn(HTMLAnchorElement.prototype, 'click').mockImplementation(function (
         this: HTMLAnchorElement,
       ) {
-        expect(this.download).toBe('ten-metre-first-try-budget.csv');
+        expect(this.download).toBe('ten-metre-first-try_50ohm_budget.csv');
       });
       buttonNamed('Download CSV').click();
       await fixture.whenStable();
@@ -241,7 +241,7 @@ describe('AnalysisResultsComponent', () => {
       await fixture.whenStable();
       buttonNamed('Save PNG').click();
       expect(plotly.downloads).toEqual([
-        expect.objectContaining({ filename: 'ten-metre-first-try-step-up', format: 'png' }),
+        expect.objectContaining({ filename: 'ten-metre-first-try_50ohm_step-up', format: 'png' }),
       ]);
       // Drawn from the figure with a system font, so the picture's text fits its layout.
       const root = plotly.downloads[0].root as { layout: { font: { family: string } } };

@@ -12,6 +12,16 @@ import {
 import { MatTabsModule } from '@angular/material/tabs';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
+import type { CsvTable } from '../../../../../shared/io/csv-writer';
+import { chainReferenceOhm } from '../../../../../shared/io/export-name';
+import {
+  flagsCsv,
+  levelsCsv,
+  resonatorsCsv,
+  selectivityCsv,
+} from '../../../../../shared/io/result-csv';
+import { CsvButtonComponent } from '../../report/csv-button.component';
+import { csvFileName } from './budget-csv';
 import { budgetTable, nodeOfStage } from './budget-rows';
 import { BudgetTableComponent } from './budget-table.component';
 import {
@@ -45,6 +55,7 @@ import { PlanViewComponent } from '../plan/plan-view.component';
     ResultPlotsComponent,
     SummaryPanelComponent,
     PlanViewComponent,
+    CsvButtonComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './analysis-results.component.html',
@@ -75,6 +86,27 @@ export class AnalysisResultsComponent {
 
   /** Kept across new results so an edit does not throw the user back to the first tab. */
   protected readonly tabIndex = signal(0);
+
+  /** The reference impedance the exported figures are named with. */
+  protected readonly referenceOhm = computed(() => chainReferenceOhm(this.document().settings));
+
+  /** A CSV file's name for one of the tables. */
+  protected csvName(content: string): string {
+    return csvFileName(this.document().name, content, this.referenceOhm());
+  }
+
+  /** Builders of each table's CSV, run when its button is pressed. */
+  protected readonly csv = {
+    resonators: () => this.tablesOf((r, d) => resonatorsCsv(r, d)),
+    selectivity: () => this.tablesOf((r) => selectivityCsv(r)),
+    flags: () => this.tablesOf((r, d) => flagsCsv(r, d)),
+    levels: () => this.tablesOf((r, d) => levelsCsv(r, d)),
+  };
+
+  private tablesOf(build: (r: AnalysisResult, d: ChainDocument) => CsvTable): CsvTable[] {
+    const result = this.result();
+    return result ? [build(result, this.document())] : [];
+  }
 
   protected readonly budget = computed(() => {
     const result = this.result();

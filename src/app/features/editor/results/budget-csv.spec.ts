@@ -1,28 +1,8 @@
-import { budgetCsv, csvField, csvFileName, csvNumber } from './budget-csv';
+import { budgetCsv, csvFileName } from './budget-csv';
 import { budgetTable } from './budget-rows';
 import { sampleDocument, sampleResult } from './testing/sample-analysis';
 
 describe('budget-csv', () => {
-  describe('fields', () => {
-    it('should leave plain text alone', () => {
-      expect(csvField('Return loss')).toBe('Return loss');
-    });
-
-    it('should quote commas, quotes and line breaks, doubling inner quotes', () => {
-      expect(csvField('Z looking in, R')).toBe('"Z looking in, R"');
-      expect(csvField('the "first" try')).toBe('"the ""first"" try"');
-      expect(csvField('two\nlines')).toBe('"two\nlines"');
-    });
-
-    it('should write numbers without float noise and missing values as empty', () => {
-      expect(csvNumber(0.1 + 0.2)).toBe('0.3');
-      expect(csvNumber(1e-5)).toBe('0.00001');
-      expect(csvNumber(null)).toBe('');
-      expect(csvNumber(Number.NaN)).toBe('');
-      expect(csvNumber(Number.POSITIVE_INFINITY)).toBe('Infinity');
-    });
-  });
-
   describe('budgetCsv', () => {
     const csv = budgetCsv(budgetTable(sampleResult(), sampleDocument()));
     const lines = csv.split('\r\n');
@@ -63,12 +43,14 @@ describe('budget-csv', () => {
   });
 
   describe('csvFileName', () => {
-    it('should reduce the chain name to a safe file name', () => {
-      expect(csvFileName('Ten metre, "first" try')).toBe('ten-metre-first-try-budget.csv');
+    it('should name the file after the chain, its reference impedance and the table', () => {
+      expect(csvFileName('Ten metre, "first" try', 'budget', 50)).toBe(
+        'ten-metre-first-try_50ohm_budget.csv',
+      );
     });
 
     it('should fall back when nothing usable is left', () => {
-      expect(csvFileName('***')).toBe('chain-budget.csv');
+      expect(csvFileName('***')).toBe('chain_budget.csv');
     });
   });
 });

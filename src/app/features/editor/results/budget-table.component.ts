@@ -12,6 +12,7 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatTableModule } from '@angular/material/table';
 import type { BudgetColumn, BudgetLine, BudgetRow, BudgetTable } from './budget-rows';
+import { saveCsv } from '../../report/csv-download';
 import { budgetCsv, csvFileName } from './budget-csv';
 
 /**
@@ -31,6 +32,8 @@ export class BudgetTableComponent {
   readonly selectedNode = input<number | null>(null);
   /** Chain name, for the CSV file name. */
   readonly chainName = input.required<string>();
+  /** Reference impedance of the chain's figures, Ω, for the CSV file name. */
+  readonly referenceOhm = input(50);
   /** Emits the id of the stage whose column header was activated. */
   readonly columnSelected = output<string>();
 
@@ -68,17 +71,8 @@ export class BudgetTableComponent {
   }
 
   protected downloadCsv(): void {
-    const view = this.page.defaultView;
-    if (!view) return;
-    // A byte-order mark tells spreadsheet programs the file is UTF-8 (Ω, µ in the labels).
-    const blob = new Blob(['\uFEFF', budgetCsv(this.table())], { type: 'text/csv;charset=utf-8' });
-    const url = view.URL.createObjectURL(blob);
-    const link = this.page.createElement('a');
-    link.href = url;
-    link.download = csvFileName(this.chainName());
-    link.click();
-    // Revoke after the click has been handled, or some browsers cancel the download.
-    view.setTimeout(() => view.URL.revokeObjectURL(url), 0);
-    this.noticeText.set(`Saved ${link.download}.`);
+    const name = csvFileName(this.chainName(), 'budget', this.referenceOhm());
+    saveCsv(this.page, name, budgetCsv(this.table()));
+    this.noticeText.set(`Saved ${name}.`);
   }
 }

@@ -12,7 +12,7 @@ import {
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
-import { csvFileName } from './budget-csv';
+import { chainReferenceOhm, exportFileName } from '../../../../../shared/io/export-name';
 import {
   type PlotContext,
   defaultPlotNodes,
@@ -51,25 +51,25 @@ import { markPlotsOpened } from './plot-timing';
           [figure]="stepUp"
           label="Voltage step-up versus frequency"
           hint="◇ marks each node's −3 dB points. Step-up is |V| relative to the source EMF."
-          [fileName]="fileStem() + '-step-up'"
+          [fileName]="fileStem() + '_step-up'"
         />
         <cw-result-plot
           [figure]="shown.impedance"
           label="Input impedance, magnitude and phase"
           hint="The impedance the source sees: |Z| on the left scale, phase on the right."
-          [fileName]="fileStem() + '-input-impedance'"
+          [fileName]="fileStem() + '_input-impedance'"
         />
         <cw-result-plot
           [figure]="shown.returnLoss"
           label="Return loss at the input"
           hint="Against the conjugate of the source impedance; the dotted line is the chain's match target."
-          [fileName]="fileStem() + '-return-loss'"
+          [fileName]="fileStem() + '_return-loss'"
         />
         <cw-result-plot
           [figure]="shown.chart"
           label="Input impedance chart"
           hint="Normalised to the source resistance at f0; ○ marks f0."
-          [fileName]="fileStem() + '-impedance-chart'"
+          [fileName]="fileStem() + '_impedance-chart'"
         />
       </div>
     } @else {
@@ -114,9 +114,16 @@ export class ResultPlotsComponent {
     computation: () => defaultPlotNodes(this.result()),
   });
 
-  protected readonly fileStem = computed(() =>
-    csvFileName(this.document().name).replace(/-budget\.csv$/, ''),
-  );
+  /** File names of the plot images: chain, reference impedance, then the plot. */
+  protected readonly fileStem = computed(() => {
+    const doc = this.document();
+    const name = exportFileName({
+      chainName: doc.name,
+      referenceOhm: chainReferenceOhm(doc.settings),
+      extension: 'x',
+    });
+    return name.slice(0, -'.x'.length);
+  });
 
   private readonly nodeNames = computed(
     () => new Map(this.result().nodes.map((n) => [n.index, `Node ${n.index} · ${n.after}`])),
