@@ -5,7 +5,7 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ChainDocument } from '../../shared/schema/chain';
 import type { StudySpec } from '../../shared/schema/studies';
-import { estimateWork, readValue, StudySetupError } from '../../shared/engine/studies';
+import { bandGang, estimateWork, readValue, StudySetupError } from '../../shared/engine/studies';
 import type { Chain } from '../chains/chain.entity';
 import { ConflictError, HttpError, NotFoundError } from '../common/errors';
 import type { User } from '../users/user.entity';
@@ -35,7 +35,7 @@ export class StudySpecError extends HttpError {
 /** Cheap checks of a spec against the chain (the engine's full checks run in the worker). */
 function checkRefs(doc: ChainDocument, spec: StudySpec): void {
   try {
-    if (spec.kind === 'band') spec.gang.forEach((m) => readValue(doc, m));
+    if (spec.kind === 'band') bandGang(doc, spec).forEach((m) => readValue(doc, m));
     if (spec.kind === 'optimiser') spec.variables.forEach((v) => readValue(doc, v));
     if (
       spec.kind === 'monte-carlo' &&

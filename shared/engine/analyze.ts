@@ -13,6 +13,7 @@ import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivit
 import { frequencyGrid } from './core/sweep';
 import { defaultCatalogue } from './default-catalogue';
 import { planChain, planFlags } from './planning';
+import { gangTuningOf, type GangTuning } from './planning/spur-chart-gang';
 
 /** Version of the engine's methods, stored with saved results. */
 export const ENGINE_VERSION = '0.1.0';
@@ -32,7 +33,7 @@ export interface AnalyzeOptions extends BuildOptions {
 /** Analyses an already built chain (for callers that build once and analyse many times). */
 export function analyzeBuilt(
   builtAsGiven: BuiltChain,
-  options: { sweep?: boolean; plan?: boolean | 'full' } = {},
+  options: { sweep?: boolean; plan?: boolean | 'full'; tuning?: GangTuning | null } = {},
 ): AnalysisResult {
   const built = settleLoadLevel(builtAsGiven);
   const f0Hz = built.settings.f0Hz;
@@ -47,7 +48,7 @@ export function analyzeBuilt(
   const flags = raiseFlags({ built, f0Na, resonators: findings });
   const levels = levelsReport(built, f0Na, stages);
   const plan = options.plan
-    ? planChain(built, { nodes, stages, selectivity, levels }, options.plan === 'full')
+    ? planChain(built, { nodes, stages, selectivity, levels, tuning: options.tuning }, options.plan === 'full') // prettier-ignore
     : undefined;
   if (plan) flags.push(...planFlags(plan, built.load.id, built.settings.planning !== undefined));
   const resonators = findings.map(
@@ -76,5 +77,12 @@ export function analyzeBuilt(
  * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
  */
 export function analyzeChain(doc: ChainLike, options: AnalyzeOptions = {}): AnalysisResult {
-  return analyzeBuilt(buildChain(doc, options.catalogue ?? defaultCatalogue(), options), options);
+  const catalogue = options.catalogue ?? defaultCatalogue();
+  const built = buildChain(doc, catalogue, options);
+  // The full plan charts spurs as the chain really tunes, by its marked gang (if any).
+  const tuning =
+    options.plan === 'full' && built.settings.variables?.length
+      ? gangTuningOf(doc as never, (d) => buildChain(d as ChainLike, catalogue, options))
+      : null;
+  return analyzeBuilt(built, { ...options, tuning });
 }

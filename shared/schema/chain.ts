@@ -157,6 +157,28 @@ export const transmitSettingsSchema = z.object({
 });
 export type TransmitSettings = z.infer<typeof transmitSettingsSchema>;
 
+/**
+ * A value marked variable on the chain: a capacitor or inductor turned between `min` and
+ * `max` (a tuning capacitor, a variometer). Marks with the same `gang` turn together on one
+ * dial, linearly in value (a straight-line capacitance gang); absent means "main". Band
+ * studies and the receiver plan's spur chart tune the chain by them.
+ */
+export const variableMarkSchema = z
+  .object({
+    stageId: z.string().min(1).max(64),
+    key: z.string().min(1).max(64),
+    min: positive('the variable value’s minimum'),
+    max: positive('the variable value’s maximum'),
+    gang: z.string().trim().min(1).max(40).optional(),
+  })
+  .refine((m) => m.max > m.min, {
+    message: 'the maximum must be above the minimum',
+    path: ['max'],
+  });
+export type VariableMark = z.infer<typeof variableMarkSchema>;
+/** The gang a mark without a `gang` belongs to. */
+export const MAIN_GANG = 'main';
+
 export const chainSettingsSchema = z.object({
   /** Design frequency f0 in Hz (at the chain's input: RF). */
   f0Hz: positive('design frequency'),
@@ -171,6 +193,8 @@ export const chainSettingsSchema = z.object({
   offsetsHz: z.array(positive('offset')).max(16).default([]),
   /** Targets for yield studies (optional). */
   targets: chainTargetsSchema.optional(),
+  /** Values marked variable (tuning capacitors and their gangs), optional. */
+  variables: z.array(variableMarkSchema).max(32).optional(),
   thresholds: thresholdsSchema.default({
     loadingWarn: 0.5,
     loadingError: 0.2,

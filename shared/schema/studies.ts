@@ -66,7 +66,12 @@ export type OscillatorTank = z.infer<typeof oscillatorTankSchema>;
 
 export const bandSpecSchema = z.object({
   kind: z.literal('band'),
-  gang: z.array(gangMemberSchema).min(1).max(8),
+  /**
+   * The members to turn. Absent: the chain's own variable marks (`settings.variables`) of
+   * `gangGroup` (default: the first gang marked); given, they override the marks.
+   */
+  gang: z.array(gangMemberSchema).min(1).max(8).optional(),
+  gangGroup: z.string().trim().min(1).max(40).optional(),
   positions: z.number().int().min(2).max(MAX_DIAL_POSITIONS),
   oscillator: oscillatorTankSchema.optional(),
   /** A ganged circuit off the dial by more than this fraction of its bandwidth is flagged. */

@@ -2,6 +2,8 @@
  * Mixer spurious responses: where they fall (the frequency arithmetic, checked against an
  * independent brute-force search of the products) and how the chain rejects them.
  */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { analyzeChain } from '../../shared/engine';
 import {
   DEFAULT_MIXER_SUPPRESSION_DB,
@@ -148,5 +150,52 @@ describe('spur responses through the chain', () => {
     const choice = analyzeChain(doc, { sweep: false, plan: 'full' }).plan!.ifChoice;
     expect(choice.map((c) => c.ifHz)).toEqual([10.7e6, 455e3]);
     expect(choice[0].worstRejectionDb!).toBeGreaterThan(choice[1].worstRejectionDb!);
+  });
+});
+
+describe('spur chart tuned by the chain’s marked gang', () => {
+  // The shortwave example's preselector (2.2 µH) with its capacitor marked variable from
+  // 120 pF to 300 pF: Thomson's formula puts that at about 6.2 … 9.8 MHz.
+  const base = JSON.parse(
+    readFileSync(
+      join(__dirname, '../../examples/shortwave-superhet-single-tank.chain.json'),
+      'utf8',
+    ),
+  ) as ChainDocumentInput;
+  const gang = { stageId: 'preselector', key: 'c', min: 120e-12, max: 300e-12 };
+  const marked = { ...base, settings: { ...base.settings, variables: [gang] } };
+  const MIXER_NODE = 4; // the mixer's input: after link-in, preselector, link-out and RF amplifier
+  const chart = analyzeChain(marked, { sweep: false, plan: 'full' }).plan!.spurChart!;
+
+  it('says on the chart that the gang tuned it, and covers the gang’s travel', () => {
+    expect(chart.tuning).toBe('gang');
+    expect(chart.note).toMatch(/tuned by the chain's gang \(preselector\.c 120 pF…300 pF\)/);
+    expect(chart.dialHz).toHaveLength(21);
+    const thomson = (c: number) => 1 / (2 * Math.PI * Math.sqrt(2.2e-6 * c));
+    expect(chart.dialHz[0] / thomson(300e-12)).toBeCloseTo(1, 2);
+    expect(chart.dialHz[20] / thomson(120e-12)).toBeCloseTo(1, 2);
+    const plain = analyzeChain(base, { sweep: false, plan: 'full' }).plan!.spurChart!;
+    expect(plain.tuning).toBe('constant-q');
+    expect(plain.note).toMatch(/constant Q/);
+  });
+
+  it('judges each position through the chain as tuned there (image rejection re-analysed)', () => {
+    const image = chart.lines.find((l) => l.kind === 'image')!;
+    const sup = suppressionDb(DEFAULT_MIXER_SUPPRESSION_DB, image.m, image.n);
+    for (const k of [0, 7, 14, 20]) {
+      // Position k (ascending frequency) is the gang at dial 1 − k/20 (largest C first).
+      const c = gang.min + (1 - k / 20) * (gang.max - gang.min);
+      const f = chart.dialHz[k];
+      const doc = {
+        ...base,
+        settings: { ...base.settings, f0Hz: f, sweep: { startHz: f / 1.5, stopHz: f * 1.5, points: 801, scale: 'log' as const } }, // prettier-ignore
+        stages: base.stages.map((s) => (s.id === 'preselector' ? { ...s, values: { ...s.values, c } } : s)), // prettier-ignore
+      };
+      const sel = analyzeChain(doc, { sweep: false }).selectivity[MIXER_NODE];
+      // The analysis's own peak search agrees with the chart's dial frequency…
+      expect(Math.abs(sel.peakHz! / f - 1)).toBeLessThan(1e-6);
+      // …and its image rejection at the mixer input is the chart's, less the suppression.
+      expect(image.rejectionDb[k]! - sup).toBeCloseTo(sel.imageRejectionDb!, 2);
+    }
   });
 });

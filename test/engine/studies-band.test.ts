@@ -104,3 +104,44 @@ describe('band study without an oscillator', () => {
     expect(() => runBandStudy({ doc }, spec)).toThrow(/no stage "nowhere"/);
   });
 });
+
+describe('band study from the chain’s own variable marks', () => {
+  const marked = (variables: unknown) => {
+    const doc = singleTank({ l: 10e-6, c: 100e-12, points: 101 });
+    return { ...doc, settings: { ...doc.settings, variables } } as typeof doc;
+  };
+
+  it('turns the gang marked on the chain exactly as the same gang listed in the study', () => {
+    const gang = [{ stageId: 'tank', key: 'c', min: 50e-12, max: 200e-12 }];
+    const fromMarks = runBandStudy(
+      { doc: marked(gang) },
+      bandSpecSchema.parse({ kind: 'band', positions: 5 }),
+    );
+    const listed = runBandStudy(
+      { doc: singleTank({ l: 10e-6, c: 100e-12, points: 101 }) },
+      bandSpecSchema.parse({ kind: 'band', gang, positions: 5 }),
+    );
+    expect(fromMarks.positions.map((p) => p.dialHz)).toEqual(listed.positions.map((p) => p.dialHz));
+    // Thomson's formula at each end of the marked range (common practice).
+    expect(fromMarks.positions[0].dialHz * 2 * Math.PI * Math.sqrt(10e-6 * 50e-12)).toBeCloseTo(1, 8); // prettier-ignore
+  });
+
+  it('picks a named gang group, and a study’s own gang overrides the marks', () => {
+    const doc = marked([
+      { stageId: 'tank', key: 'c', min: 50e-12, max: 200e-12 },
+      { stageId: 'tank', key: 'c', min: 90e-12, max: 110e-12, gang: 'bandspread' },
+    ]);
+    const spread = runBandStudy({ doc }, bandSpecSchema.parse({ kind: 'band', positions: 3, gangGroup: 'bandspread' })); // prettier-ignore
+    const c = (p: { dial: number }) => 90e-12 + p.dial * 20e-12;
+    spread.positions.forEach((p) => expect(p.dialHz * 2 * Math.PI * Math.sqrt(10e-6 * c(p))).toBeCloseTo(1, 8)); // prettier-ignore
+    const own = runBandStudy({ doc }, bandSpecSchema.parse({ kind: 'band', positions: 3, gang: [{ stageId: 'tank', key: 'c', min: 150e-12, max: 160e-12 }] })); // prettier-ignore
+    expect(own.positions[0].dialHz * 2 * Math.PI * Math.sqrt(10e-6 * 150e-12)).toBeCloseTo(1, 8);
+  });
+
+  it('says how to mark a gang when the chain has none and the study lists none', () => {
+    const doc = singleTank({ l: 10e-6, c: 100e-12, points: 101 });
+    expect(() =>
+      runBandStudy({ doc }, bandSpecSchema.parse({ kind: 'band', positions: 3 })),
+    ).toThrow(/no variable value: mark a tuning capacitor/);
+  });
+});

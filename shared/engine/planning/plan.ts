@@ -5,13 +5,14 @@
  * impedances and through the real selectivity ahead of each stage.
  */
 import type { BuiltChain } from '../core/build';
-import { findMixer } from '../core/selectivity';
+import { findMixer, type MixerInfo } from '../core/selectivity';
 import { T0_KELVIN, friis, noiseFloorDbm, sfdrDb } from '../core/noise';
 import type { LevelsReport, NodeReport, SelectivityReport, StageReport } from '../types';
 import { planningSchema, type PlanningSettings } from '../../schema/chain';
 import { converterReport, type ConverterReport } from './converter';
 import { externalNoise, type ExternalNoiseFigures } from './external-noise';
 import { DEFAULT_MIXER_SUPPRESSION_DB } from './spur-frequencies';
+import { spurChartByGang, type GangTuning } from './spur-chart-gang';
 import { rankIfs, spurChart, spurResponses, type IfCandidate, type SpurChart, type SpurOptions, type SpurResponse } from './spurs'; // prettier-ignore
 import {
   blocking,
@@ -65,6 +66,8 @@ export interface PlanContext {
   stages: StageReport[];
   selectivity: SelectivityReport[];
   levels: LevelsReport;
+  /** The chain's marked gang, to chart spurs as the chain really tunes (optional). */
+  tuning?: GangTuning | null;
 }
 
 const fmtMHz = (f: number) => `${Number((f / 1e6).toPrecision(4))} MHz`;
@@ -115,7 +118,8 @@ export function planChain(built: BuiltChain, ctx: PlanContext, full = false): Pl
       ? { stageId: mixer.stageId, loHz: mixer.loHz, ifHz: mixer.ifHz, ifBandwidthHz }
       : null,
     spurs: mixer ? spurResponses(built, mixer, opts) : [],
-    spurChart: full && direct && mixer ? spurChart(built, mixer, opts, range, 41) : null,
+    spurChart:
+      full && direct && mixer ? chartOf(built, mixer, mixerNode, opts, range, ctx.tuning) : null,
     ifChoice: full && direct && mixer ? rankIfs(built, mixer, opts, range, s.ifCandidatesHz) : [],
     blocking: { ...block, reciprocalMixingDbm: rm?.noiseAtAntennaDbm ?? null, desensitisationDb },
     intermod: { ...im, sfdrDb: im.effectiveIip3Dbm === null ? null : sfdrDb(im.effectiveIip3Dbm, floorDbm), bySpacing }, // prettier-ignore
@@ -123,6 +127,24 @@ export function planChain(built: BuiltChain, ctx: PlanContext, full = false): Pl
     externalNoise: outsideNoise(f0Hz, s, ctx.levels, channelBandwidthHz, temperatureK),
     converter: converterOf(built, ctx, s),
   };
+}
+
+/** The spur chart: by the chain's marked gang when it has one, else at constant Q. */
+function chartOf(
+  built: BuiltChain,
+  mixer: MixerInfo,
+  mixerNode: number,
+  opts: SpurOptions,
+  range: [number, number],
+  tuning: GangTuning | null | undefined,
+): SpurChart {
+  if (!tuning) return spurChart(built, mixer, opts, range, 41);
+  const { startHz, stopHz } = built.settings.sweep;
+  const search: [number, number] = [
+    Math.min(startHz, range[0]) / 2,
+    Math.max(stopHz, range[1]) * 2,
+  ];
+  return spurChartByGang(mixer, mixerNode, opts, tuning, search);
 }
 
 /**

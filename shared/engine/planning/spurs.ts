@@ -100,15 +100,73 @@ export interface SpurChart {
   /** 'above' when the LO sits above the signal. */
   loSide: 'above' | 'below';
   lines: SpurChartLine[];
+  /**
+   * How the preselector follows the dial: 'gang' — the chain's own variable values turned
+   * (its marked gang), each position analysed as tuned; 'constant-q' — assumed to track the
+   * dial at the design frequency's Q.
+   */
+  tuning: 'gang' | 'constant-q';
   /** The assumption behind the rejection figures. */
   note: string;
+}
+
+/** One dial position's responses, waiting for their selectivity. */
+export interface ChartPosition {
+  k: number;
+  dialHz: number;
+  rfHz: number[];
+  slots: { line: SpurChartLine; sup: number }[];
+}
+
+/**
+ * The spurious-response lines across the dial positions (LO on the mixer's side, IF fixed),
+ * with each position's responses listed for the caller to judge through its selectivity.
+ */
+export function chartLines(
+  mixer: MixerInfo,
+  opts: SpurOptions,
+  dialHz: readonly number[],
+  above: boolean,
+): { lines: SpurChartLine[]; positions: ChartPosition[] } {
+  const n = dialHz.length;
+  const byKey = new Map<string, SpurChartLine>();
+  const positions: ChartPosition[] = [];
+  for (let k = 0; k < n; k++) {
+    const f = dialHz[k];
+    const lo = above ? f + mixer.ifHz : f - mixer.ifHz;
+    if (!(lo > 0)) continue;
+    const pos: ChartPosition = { k, dialHz: f, rfHz: [], slots: [] };
+    for (const s of spurFrequencies(f, lo, mixer.ifHz, opts.ifBandwidthHz, opts.maxOrder)) {
+      if (s.kind === 'wanted' || s.rfHz === null) continue;
+      const key = `${s.m}/${s.n}/${Math.sign(s.rfHz - f)}/${s.kind}`;
+      let line = byKey.get(key);
+      if (!line) {
+        line = { m: s.m, n: s.n, kind: s.kind, rfHz: new Array<number>(n).fill(NaN), rejectionDb: new Array<number | null>(n).fill(null) }; // prettier-ignore
+        byKey.set(key, line);
+      }
+      line.rfHz[k] = s.rfHz;
+      pos.rfHz.push(s.rfHz);
+      pos.slots.push({ line, sup: suppressionDb(opts.suppressionDb, s.m, s.n) });
+    }
+    positions.push(pos);
+  }
+  return { lines: [...byKey.values()], positions };
+}
+
+/** Writes a position's rejections: selectivity (dB, per response) plus suppression. */
+export function judgePosition(pos: ChartPosition, selectivityDb: readonly number[]): void {
+  pos.slots.forEach(({ line, sup }, i) => {
+    const v = selectivityDb[i];
+    line.rejectionDb[pos.k] = v !== undefined && Number.isFinite(v) ? v + sup : null;
+  });
 }
 
 /**
  * Spurious responses across a tuning range with the LO following the dial
  * (fLO = f ± fIF on the mixer's side), the IF fixed. The chain's preselector is taken to
  * track the dial with a constant Q, so the selectivity at a response is the design
- * frequency's response shape at the same frequency ratio (stated in the chart's note).
+ * frequency's response shape at the same frequency ratio (stated in the chart's note). A
+ * chain with a marked gang is charted by spurChartByGang instead.
  */
 export function spurChart(
   built: BuiltChain,
@@ -121,35 +179,20 @@ export function spurChart(
   const above = mixer.loHz > mixer.fInHz;
   const n = Math.max(2, Math.min(201, Math.round(positions)));
   const dialHz = Array.from({ length: n }, (_, i) => rangeHz[0] + ((rangeHz[1] - rangeHz[0]) * i) / (n - 1)); // prettier-ignore
-  const byKey = new Map<string, SpurChartLine>();
-  const scaled: number[] = [];
-  const slots: { line: SpurChartLine; k: number; sup: number }[] = [];
-  for (let k = 0; k < n; k++) {
-    const f = dialHz[k];
-    const lo = above ? f + mixer.ifHz : f - mixer.ifHz;
-    if (!(lo > 0)) continue;
-    for (const s of spurFrequencies(f, lo, mixer.ifHz, opts.ifBandwidthHz, opts.maxOrder)) {
-      if (s.kind === 'wanted' || s.rfHz === null) continue;
-      const key = `${s.m}/${s.n}/${Math.sign(s.rfHz - f)}/${s.kind}`;
-      let line = byKey.get(key);
-      if (!line) {
-        line = { m: s.m, n: s.n, kind: s.kind, rfHz: new Array<number>(n).fill(NaN), rejectionDb: new Array<number | null>(n).fill(null) }; // prettier-ignore
-        byKey.set(key, line);
-      }
-      line.rfHz[k] = s.rfHz;
-      scaled.push((f0 * s.rfHz) / f);
-      slots.push({ line, k, sup: suppressionDb(opts.suppressionDb, s.m, s.n) });
-    }
-  }
+  const chart = chartLines(mixer, opts, dialHz, above);
+  // One node analysis for every response: each scaled to f0 by its position's dial ratio.
+  const scaled = chart.positions.flatMap((p) => p.rfHz.map((rf) => (f0 * rf) / p.dialHz));
   const sel = mixer.product === 'difference' ? selectivityAhead(built, mixer, f0, scaled) : [];
-  slots.forEach(({ line, k, sup }, i) => {
-    const v = sel[i];
-    line.rejectionDb[k] = v !== undefined && Number.isFinite(v) ? v + sup : null;
-  });
+  let at = 0;
+  for (const p of chart.positions) {
+    judgePosition(p, sel.slice(at, at + p.rfHz.length));
+    at += p.rfHz.length;
+  }
   return {
     dialHz,
     loSide: above ? 'above' : 'below',
-    lines: [...byKey.values()],
+    lines: chart.lines,
+    tuning: 'constant-q',
     note: 'Preselector taken to track the dial at constant Q: each response is attenuated as the design frequency\'s response is at the same frequency ratio.', // prettier-ignore
   };
 }

@@ -9,8 +9,9 @@
  * flagged where it is off by more than a fraction of its own bandwidth.
  */
 import type { ChainDocument } from '../../schema/chain';
-import type { BandSpec, OscillatorTank } from '../../schema/studies';
+import type { BandSpec, GangMember, OscillatorTank } from '../../schema/studies';
 import { analyzeChain } from '../index';
+import { gangMembers } from '../gang';
 import type { AnalysisResult } from '../types';
 import { cloneForEdit, readValue, StudySetupError, writeValue } from './chain-values';
 import type { StudyInputs } from './monte-carlo';
@@ -84,9 +85,26 @@ function findDownMixer(doc: ChainDocument): MixerSetting | null {
   return null;
 }
 
+/**
+ * The gang a band study turns: the spec's own members, or else the chain's variable marks of
+ * the spec's gang group (the first gang marked by default).
+ */
+export function bandGang(doc: ChainDocument, spec: BandSpec): GangMember[] {
+  if (spec.gang) return spec.gang;
+  const marked = gangMembers(doc, spec.gangGroup);
+  if (marked.length === 0) {
+    throw new StudySetupError(
+      spec.gangGroup
+        ? `the chain has no variable value in gang "${spec.gangGroup}": mark one in the editor, or list the gang in the study`
+        : 'the chain has no variable value: mark a tuning capacitor (or inductor) as variable in the editor, or list the gang in the study',
+    );
+  }
+  return marked;
+}
+
 /** Checks the spec against the chain (members exist, ranges make sense). */
 export function checkBandSpec(inputs: StudyInputs, spec: BandSpec): void {
-  for (const m of spec.gang) {
+  for (const m of bandGang(inputs.doc, spec)) {
     readValue(inputs.doc, m);
     if (!(m.max > m.min)) {
       throw new StudySetupError(
@@ -120,16 +138,17 @@ export function runBandStudy(
   onPosition?: (done: number, total: number, p: BandPosition) => void,
 ): BandResult {
   checkBandSpec(inputs, spec);
+  const gang = bandGang(inputs.doc, spec);
   const mixer = spec.oscillator ? findDownMixer(inputs.doc) : null;
-  const gangStages = new Set(spec.gang.map((m) => m.stageId));
-  const first = spec.gang[0];
+  const gangStages = new Set(gang.map((m) => m.stageId));
+  const first = gang[0];
   let circuits: BandCircuit[] | null = null;
   let guessHz = inputs.doc.settings.f0Hz;
   const positions: BandPosition[] = [];
   for (let k = 0; k < spec.positions; k++) {
     const dial = k / (spec.positions - 1);
     const doc = cloneForEdit(inputs.doc);
-    for (const m of spec.gang) writeValue(doc, m, m.min + dial * (m.max - m.min));
+    for (const m of gang) writeValue(doc, m, m.min + dial * (m.max - m.min));
     let loHz: number | null = null;
     let dialHz: number;
     let result: AnalysisResult;
