@@ -235,4 +235,17 @@ describe('studies run by worker processes', () => {
     const failed = await waitFor(created.body.id, (s) => s.status === 'failed');
     expect(failed.error).toMatch(/worker running this study stopped \(killed or crashed\)/);
   });
+
+  it('fails a study that runs past its time budget, with a message saying what to ask for', async () => {
+    for (const w of workers.splice(0)) await w.stop('SIGTERM');
+    workers.push(startWorker(ctx.schema, { CW_STUDY_BUDGET_S: '1' }));
+    const created = await send(editor, 'post', url(), mc(5000, 7));
+    const failed = await waitFor(created.body.id, (s) => s.status === 'failed', 60_000);
+    expect(failed.error).toMatch(
+      /ran past its time budget of 1 s: ask for fewer trials, positions, iterations or sweep points/,
+    );
+    // It stopped there: nothing near the 5,000 trials was run, and no result is kept.
+    expect(failed.progress?.done ?? 0).toBeLessThan(5000);
+    expect(failed.result).toBeNull();
+  });
 });
