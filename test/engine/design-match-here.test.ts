@@ -166,3 +166,32 @@ describe('match here, in the chain', () => {
     );
   });
 });
+
+describe('match here with lossy parts: the figures are the lossy chain’s', () => {
+  /** LN-1's terminations in a chain: a 75 Ω generator into a 1 kΩ load at 1 MHz. */
+  const resistive = (): ChainDoc => ({
+    settings: { f0Hz: 1e6, sweep: { startHz: 0.8e6, stopHz: 1.25e6, points: 201, scale: 'lin' } },
+    stages: [
+      { id: 'src', type: 'resistive-generator', values: { r: 75, level: 'emf', emf: 0.01 } },
+      { id: 'load', type: 'rc-load', values: { r: 1000, c: 0 } },
+    ],
+  });
+
+  it('a coil of Q 100 in the low-pass L-section costs 10·log10(1 + QL/Qu) ≈ 0.150 dB of gain', () => {
+    const lowPass = (r: ReturnType<typeof matchHere>) =>
+      r.candidates.find((c) => c.topology === 'l-section' && c.parts[0].part === 'L')!;
+    const ideal = lowPass(matchHere(resistive(), { afterStageId: 'src', partsQ: { ql: 1e12, qc: 1e12 } })); // prettier-ignore
+    const lossy = lowPass(matchHere(resistive(), { afterStageId: 'src', partsQ: { ql: 100, qc: 1e12 } })); // prettier-ignore
+    // Synthesis is lossless either way (same parts, LN-1's Q of 3.512)…
+    expect(lossy.parts).toEqual(ideal.parts);
+    expect(lossy.loadedQ).toBeCloseTo(3.512, 3);
+    // …but the lossy candidate was inserted with its coil's Q and the chain analysed again:
+    // the series coil's loss resistance X/Qu takes 1/(1 + QL/Qu) of the power (common
+    // practice for one lossy element in an L-network; mismatch from it adds ~0.001 dB).
+    const expected = 10 * Math.log10(1 + 3.512 / 100);
+    const drop = ideal.figures!.totalGainDb - lossy.figures!.totalGainDb;
+    expect(Math.abs(drop - expected)).toBeLessThan(0.01);
+    expect(lossy.stages.some((s) => s.values.ql === 100)).toBe(true);
+    expect(ideal.figures!.returnLossDb).toBeGreaterThan(30);
+  });
+});
