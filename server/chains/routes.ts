@@ -3,6 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import {
   createChainSchema,
   duplicateChainSchema,
+  importChainSchema,
   listChainsQuerySchema,
   updateChainSchema,
   type ChainListDto,
@@ -18,6 +19,7 @@ import { chainFamily } from './family';
 import { readExample, readExamples, toExampleDto } from './examples';
 import { revisionRoutes } from './revision-routes';
 import { chainChanged } from '../activity/chain-events';
+import { importChain } from './import';
 
 /** /api/workspaces/:wid/chains: list (search, page, sort) and create. */
 export function workspaceChainsRouter(em: EntityManager, examplesDir: string): Router {
@@ -61,6 +63,12 @@ export function workspaceChainsRouter(em: EntityManager, examplesDir: string): R
     });
     await chainChanged(em, { chain, user: currentUser(req), kind: 'chain-created' });
     res.status(201).json(toChainDto(chain, role));
+  });
+
+  router.post('/:wid/chains/import', workspaceRole(em, 'editor'), async (req, res) => {
+    const body = parseOr422(importChainSchema, req.body);
+    const { workspace, role } = access(res);
+    res.status(201).json(await importChain(em, { workspace, role, user: currentUser(req), body }));
   });
 
   return router;

@@ -43,6 +43,7 @@ export function readKeyword(state: ParseState, line: string): void {
       if (!Number.isInteger(n) || n < 1)
         fail(state, `[Number of Frequencies] needs a count above 0`);
       state.expectedFrequencies = n;
+      state.expectedFrequenciesLine = state.lineNo;
       return;
     }
     case 'reference':
@@ -67,6 +68,7 @@ export function readKeyword(state: ParseState, line: string): void {
         fail(state, '[Number of Noise Frequencies] needs a count above 0');
       }
       state.expectedNoiseFrequencies = n;
+      state.expectedNoiseFrequenciesLine = state.lineNo;
       return;
     }
     case 'noise data':
@@ -142,14 +144,18 @@ export function readOptionLine(state: ParseState, line: string): void {
     else if (t === 'DB' || t === 'MA' || t === 'RI') state.format = t;
     else if (t === 'R') {
       const r = Number(tokens[i + 1]);
-      if (!(r > 0)) fail(state, `R must be followed by a resistance above 0 ohm; ${OPTION_HELP}`);
+      if (!(r > 0) || !Number.isFinite(r)) {
+        fail(state, `R must be followed by a resistance above 0 ohm; ${OPTION_HELP}`);
+      }
       state.reference = r;
       i++;
       // Per-port syntax "R 50 75" (Version 1.1 of the 2.1 specification): one per port.
       const refs = [r];
       while (i + 1 < tokens.length && isNumber(tokens[i + 1])) {
         const next = Number(tokens[i + 1]);
-        if (!(next > 0)) fail(state, `R values must be above 0 ohm, not ${tokens[i + 1]}`);
+        if (!(next > 0) || !Number.isFinite(next)) {
+          fail(state, `R values must be finite and above 0 ohm, not ${tokens[i + 1]}`);
+        }
         refs.push(next);
         i++;
       }

@@ -40,6 +40,9 @@ export interface ParseState {
   /** Line of a `[Reference]` whose values continue on the following lines, else 0. */
   referenceLine: number;
   expectedNoiseFrequencies: number | undefined;
+  /** Lines of `[Number of Frequencies]` and `[Number of Noise Frequencies]`, for messages. */
+  expectedFrequenciesLine: number;
+  expectedNoiseFrequenciesLine: number;
   /** Whether two-port columns come N11 N21 N12 N22 (1.x and `21_12`). */
   order21First: boolean;
   /** Whether `[Two-Port Data Order]` was given (2.x two-ports must give it). */

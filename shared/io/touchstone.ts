@@ -85,6 +85,8 @@ export function readTouchstone(
     portReferences: [],
     referenceLine: 0,
     expectedNoiseFrequencies: undefined,
+    expectedFrequenciesLine: 0,
+    expectedNoiseFrequenciesLine: 0,
     order21First: true,
     orderGiven: false,
     section: 'header',
@@ -208,6 +210,7 @@ function addPoint(state: ParseState, numbers: number[], line: number = state.lin
   const f = numbers[0] * state.freqScale;
   const last = state.freqs[state.freqs.length - 1];
   if (!(f >= 0)) fail(state, 'a frequency must not be negative', line);
+  if (!Number.isFinite(f)) fail(state, `the frequency ${numbers[0]} is too large`, line);
   if (last !== undefined && !(f > last)) {
     fail(
       state,
@@ -219,6 +222,9 @@ function addPoint(state: ParseState, numbers: number[], line: number = state.lin
   const pairs: number[] = [];
   for (let k = 1; k < numbers.length; k += 2) {
     pairs.push(...toRectangular(state.format, numbers[k], numbers[k + 1]));
+  }
+  if (!pairs.every(Number.isFinite)) {
+    fail(state, 'a value is too large to represent; check the format (DB, MA or RI)', line);
   }
   // Columns in file order → row-major S11 S12 S21 S22.
   const m =
@@ -271,7 +277,9 @@ function readNoise(state: ParseState, numbers: number[]): void {
   const f = numbers[0] * state.freqScale;
   const last = state.noise[state.noise.length - 1];
   if (last && !(f > last.fHz)) fail(state, 'noise frequencies must increase');
-  if (!(f >= 0)) fail(state, 'a noise frequency must not be negative');
+  if (!(f >= 0) || !Number.isFinite(f)) {
+    fail(state, 'a noise frequency must be a finite number not below 0');
+  }
   if (!(numbers[2] >= 0)) fail(state, 'the magnitude of Γopt must not be negative');
   if (!(numbers[4] >= 0)) fail(state, 'the noise resistance Rn must not be negative');
   const rad = (numbers[3] * Math.PI) / 180;
@@ -291,14 +299,15 @@ function finish(state: ParseState): TouchstoneFile {
     fail(state, 'the last frequency point is incomplete', state.pendingLine);
   }
   if (state.freqs.length === 0) {
-    throw new TouchstoneError(state.fileName, undefined, 'no data points found');
+    // The whole file was read without a point: point at its last line.
+    fail(state, 'no data points found; a data line starts with its frequency');
   }
   if (state.expectedFrequencies !== undefined && state.expectedFrequencies !== state.freqs.length) {
-    throw new TouchstoneError(
-      state.fileName,
-      undefined,
+    fail(
+      state,
       `[Number of Frequencies] says ${state.expectedFrequencies} but the file has ` +
         `${state.freqs.length} points; correct the count`,
+      state.expectedFrequenciesLine,
     );
   }
   if (state.referenceLine > 0) {
@@ -308,11 +317,11 @@ function finish(state: ParseState): TouchstoneFile {
     state.expectedNoiseFrequencies !== undefined &&
     state.expectedNoiseFrequencies !== state.noise.length
   ) {
-    throw new TouchstoneError(
-      state.fileName,
-      undefined,
+    fail(
+      state,
       `[Number of Noise Frequencies] says ${state.expectedNoiseFrequencies} but the file has ` +
         `${state.noise.length} noise points; correct the count`,
+      state.expectedNoiseFrequenciesLine,
     );
   }
   const ports = state.ports ?? 1;

@@ -97,6 +97,18 @@ export interface MemberDto {
 }
 
 // ------------------------------------------------------------------ chains
+/**
+ * Body of POST /api/workspaces/:wid/chains/import: an exported chain file's text. The server
+ * parses it so a malformed file is refused with its line and column (422), a file over the
+ * size limit with 413.
+ */
+export const importChainSchema = z.object({
+  text: z.string({ error: 'send the chain file\'s content as "text"' }),
+  /** The file's name, for messages and the revision note. */
+  fileName: z.string().max(200).optional(),
+});
+export type ImportChainBody = z.infer<typeof importChainSchema>;
+
 export const createChainSchema = z
   .object({
     document: chainDocumentSchema.optional(),
@@ -163,6 +175,13 @@ export interface ChainListDto {
   page: number;
   pageSize: number;
 }
+/** Answer of a chain import: the new chain, and stages whose data file stayed behind. */
+export interface ChainImportDto {
+  chain: ChainDto;
+  /** Stages that referred to a data file this workspace does not hold (now detached). */
+  detachedDataFiles: { stageId: string; label: string }[];
+}
+
 export interface ChainDto extends ChainSummaryDto {
   document: z.infer<typeof chainDocumentSchema>;
   /** The caller's role in the chain's workspace. */

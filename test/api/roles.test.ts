@@ -320,6 +320,13 @@ const ROWS: Row[] = [
     expect: editors(201),
   },
   {
+    name: 'import chain file',
+    method: 'post',
+    url: (f) => `/api/workspaces/${f.wid}/chains/import`,
+    body: () => ({ text: JSON.stringify(doc()), fileName: 'imported.chain.json' }),
+    expect: editors(201),
+  },
+  {
     name: 'create chain from example',
     method: 'post',
     url: (f) => `/api/workspaces/${f.wid}/chains`,
