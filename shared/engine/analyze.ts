@@ -52,7 +52,8 @@ export function analyzeBuilt(
     : undefined;
   if (plan) flags.push(...planFlags(plan, built.load.id, built.settings.planning !== undefined));
   const resonators = findings.map(
-    ({ flat: _flat, f0LocalHz: _f0, downstreamLabel: _down, name: _name, ...report }) => report,
+    ({ flat: _flat, fIn: _fIn, f0LocalHz: _f0, downstreamLabel: _down, name: _name, ...report }) =>
+      report,
   );
   return {
     engineVersion: ENGINE_VERSION,

@@ -102,7 +102,18 @@ export interface BuildOptions {
    * the chain as written.
    */
   mode?: string;
+  /**
+   * A chain built before from a document that differs at most in some stage values (a
+   * study's drawn chain and its nominal): its parsed settings, when the settings are the
+   * same, and the model of every stage whose type, values and design frequency are the same
+   * are taken over instead of built again. Values are still checked. Models are immutable
+   * once built, so sharing them is safe.
+   */
+  like?: BuiltChain;
 }
+
+/** The settings each built chain was parsed from (as JSON), for `BuildOptions.like`. */
+const settingsSource = new WeakMap<ChainSettings, string>();
 
 /** "Stage 3 "Detector" (diode-detector)" — how messages name a stage. */
 export function stageName(index: number, label: string, type: string): string {
@@ -229,6 +240,39 @@ function checkModel(role: StageDefinition['role'], m: StageModel): string | null
   return null;
 }
 
+/**
+ * The model of stage `index` of `like` when it was built from the same type, values and
+ * design frequency at its input (so building it again would give the same model), else null.
+ */
+function sameStage(
+  like: BuiltChain,
+  index: number,
+  id: string,
+  def: StageDefinition,
+  values: ParamValues,
+  f0: number,
+): StageModel | null {
+  const prev =
+    index === 0
+      ? like.source
+      : like.load.index === index
+        ? like.load
+        : like.twoPorts.find((s) => s.index === index);
+  if (!prev || prev.id !== id || prev.definition !== def) return null;
+  if (like.f0AtFlatNode[prev.firstSection] !== f0) return null;
+  for (const spec of def.params) if (prev.values[spec.key] !== values[spec.key]) return null;
+  return prev.model;
+}
+
+/** The settings as JSON for comparing ('' when they cannot be written as JSON). */
+function settingsJson(raw: unknown): string {
+  try {
+    return JSON.stringify(raw) ?? '';
+  } catch {
+    return '';
+  }
+}
+
 function isTwoPort(s: BuiltStage): s is BuiltStage<TwoPortModel> {
   return s.definition.role === 'two-port';
 }
@@ -274,7 +318,13 @@ function buildAsWritten(
       { path: [], message: 'A chain must be an object with "settings" and "stages"' },
     ]);
   }
-  const { settings, issues } = settingsIssues(doc.settings);
+  const like = options.like;
+  const rawSettings = settingsJson(doc.settings);
+  const { settings, issues } =
+    like && rawSettings !== '' && rawSettings === settingsSource.get(like.settings)
+      ? { settings: like.settings, issues: [] as ChainIssue[] }
+      : settingsIssues(doc.settings);
+  if (settings) settingsSource.set(settings, rawSettings);
   const byType = new Map(catalogue.map((d) => [d.type, d]));
   const stagesRaw = doc.stages;
   if (!Array.isArray(stagesRaw) || stagesRaw.length < 2) {
@@ -334,12 +384,19 @@ function buildAsWritten(
       });
       return;
     }
+    // A stage built before from the same inputs is taken over (see BuildOptions.like).
+    const same =
+      like && !fileId && like.settings.temperatureK === settings.temperatureK
+        ? sameStage(like, index, st.id as string, def, values, f0)
+        : null;
     try {
-      model = def.build(values, {
-        f0Hz: f0,
-        temperatureK: settings.temperatureK,
-        ...(dataFile ? { dataFile } : {}),
-      });
+      model =
+        same ??
+        def.build(values, {
+          f0Hz: f0,
+          temperatureK: settings.temperatureK,
+          ...(dataFile ? { dataFile } : {}),
+        });
     } catch (e) {
       const param = e instanceof StageParameterError ? e.param : undefined;
       issues.push({

@@ -11,6 +11,8 @@
 import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
 import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
+import type { Probe } from './probe';
+import { solveBracketed } from './refine';
 import { logGrid } from './sweep';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
@@ -97,27 +99,102 @@ export function resonate(
   }
   const k = nearestRisingCrossing(grid, im, target, local);
   if (k < 0) return null;
-  const sign = orientation(local, k);
+  return refineResonance(nodePointEval(built), extract, grid[k], grid[k + 1], orientation(local, k)); // prettier-ignore
+}
+
+/** The chain at one input frequency, as a node analysis whose point 0 an Extract reads. */
+export type PointEval = (f: number) => NodeAnalysis;
+
+/** A PointEval by a one-point node analysis of the whole chain (its workspace reused). */
+export function nodePointEval(built: BuiltChain): PointEval {
   const one = createNodeAnalysis(built, 1);
   const f1 = new Float64Array(1);
-  const probe = (f: number) => {
+  return (f) => {
     f1[0] = f;
-    runNodeAnalysis(built, f1, one);
-    extract(one, 0, out);
+    return runNodeAnalysis(built, f1, one);
+  };
+}
+
+/**
+ * A PointEval by a probe evaluated for `node` (probe.ts): cheaper than a node analysis, it
+ * fills Zsrc at nodes 0…node and Zin from there up to the first amplifier. Enough for an
+ * Extract that reads those only (coupledExtract at `node`, seriesExtract of section node−1).
+ */
+export function probePointEval(probe: Probe, node: number): PointEval {
+  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm } = probe;
+  const view = { points: 1, nodes: probe.nodes, fNode, zinRe, zinIm, zsrcRe, zsrcIm };
+  return (f) => {
+    probe.at(f, node);
+    return view as NodeAnalysis;
+  };
+}
+
+/**
+ * The resonance of a probed quantity on a bracket [lo, hi] (input Hz) where sign × its
+ * imaginary part rises through zero, located to 1e-10 relative (Illinois, refine.ts: a
+ * handful of single-frequency evaluations where bisection to machine precision took ~50),
+ * and its Q.
+ */
+export function refineResonance(
+  evalAt: PointEval,
+  extract: Extract,
+  lo: number,
+  hi: number,
+  sign: number,
+): Resonance | null {
+  const out = new Float64Array(3);
+  const g = (f: number) => {
+    extract(evalAt(f), 0, out);
     return sign * out[1];
   };
-  const fIn = bisectRising(probe, grid[k], grid[k + 1]);
-  probe(fIn);
+  const fIn = solveBracketed(g, lo, hi);
+  if (!isFiniteNumber(fIn)) return null;
+  g(fIn);
   const real = out[0];
   const fr = out[2];
-  const two = runNodeAnalysis(built, [fIn * (1 - DIFF_STEP), fIn * (1 + DIFF_STEP)]);
-  extract(two, 0, out);
+  extract(evalAt(fIn * (1 - DIFF_STEP)), 0, out);
   const imLo = out[1];
   const fLo = out[2];
-  extract(two, 1, out);
+  extract(evalAt(fIn * (1 + DIFF_STEP)), 0, out);
   const slope = (out[1] - imLo) / (2 * PI * (out[2] - fLo)); // d(im)/dω at the node
   const q = ((2 * PI * fr) / (2 * real)) * slope;
   return { fIn, fr, real, q: isFiniteNumber(q) && q > 0 ? q : NaN };
+}
+
+/**
+ * The rising zero of a probed quantity nearest `near` (input Hz) without a grid: steps
+ * outward geometrically up to a factor `span` each way until sign × its imaginary part
+ * changes sign, then refines as {@link refineResonance}. What a study uses to follow a
+ * resonance it already knows from the nominal chain.
+ */
+export function resonateNear(
+  evalAt: PointEval,
+  extract: Extract,
+  near: number,
+  sign: number,
+  span = 2,
+): Resonance | null {
+  const out = new Float64Array(3);
+  const g = (f: number) => {
+    extract(evalAt(f), 0, out);
+    return sign * out[1];
+  };
+  const g0 = g(near);
+  if (!isFiniteNumber(g0)) return null;
+  const up = g0 < 0; // below the zero the quantity is negative: look upward
+  let prev = near;
+  for (let step = 1e-4; ; step *= 2) {
+    const ratio = 1 + Math.min(step, span - 1);
+    const f = up ? near * ratio : near / ratio;
+    const v = g(f);
+    if (isFiniteNumber(v) && (up ? v >= 0 : v < 0)) {
+      return up
+        ? refineResonance(evalAt, extract, prev, f, sign)
+        : refineResonance(evalAt, extract, f, prev, sign);
+    }
+    if (!isFiniteNumber(v) || ratio >= span) return null;
+    prev = f;
+  }
 }
 
 /** Resonance and Q of a resonator's own element (unloaded), searched around `near`. */

@@ -6,14 +6,15 @@
  *
  * A probe evaluates only what the node asked about needs: the backward pass starts at the
  * first unilateral section at or after the node (whatever lies beyond it cannot change the
- * impedance there), and the forward pass stops at the node.
+ * impedance there), and the forward pass stops at the node (a voltage needs no forward pass).
+ * The steps across a section are the node analysis's own functions (nodes.ts), called with
+ * arrays and indices only, so nothing is boxed or allocated per call.
  */
 import type { BuiltChain } from './build';
+import { backStep, forwardStep, MIN_NODE_HZ, sourceStep, voltageStep } from './nodes';
 
 const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
-/** Lowest frequency a section is evaluated at after a mixer, Hz (as in the node analysis). */
-const MIN_NODE_HZ = 1e-3;
 
 /** A reusable single-frequency evaluator of one built chain. */
 export interface Probe {
@@ -28,8 +29,8 @@ export interface Probe {
   readonly zsrcIm: Float64Array;
   /**
    * Evaluates the chain at input frequency f for node `node`: Zin at nodes node…(first
-   * unilateral section after it), Zsrc at nodes 0…node. With `voltage`, also Zin at every
-   * node before it and returns |V[node]|/|Es| (NaN otherwise).
+   * unilateral section after it), Zsrc at nodes 0…node. With `voltage`, Zin at every node
+   * up to there and the voltage instead of Zsrc: returns |V[node]|/|Es| (NaN otherwise).
    */
   at(f: number, node: number, voltage?: boolean): number;
   /** The total admittance at `node` (source and load sides) after `at`: writes G, B. */
@@ -67,61 +68,10 @@ export function createProbe(built: BuiltChain): Probe {
   const zs = built.source.model.impedance!;
   const es = built.source.model.emf!;
 
-  /** Zin[j] from Zin[j+1] through section j (ABCD already in m). */
-  function backward(j: number): void {
-    const o = 8 * j;
-    const zr = zinRe[j + 1];
-    const zi = zinIm[j + 1];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (finite(zr) && finite(zi)) {
-      nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-      ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-      dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-      di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-    } else {
-      nr = m[o];
-      ni = m[o + 1];
-      dr = m[o + 4];
-      di = m[o + 5];
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      zinRe[j] = OPEN;
-      zinIm[j] = 0;
-    } else {
-      const inv = 1 / d2;
-      zinRe[j] = (nr * dr + ni * di) * inv;
-      zinIm[j] = (ni * dr - nr * di) * inv;
-    }
-  }
-
-  /** Zsrc[j+1] from Zsrc[j] through section j. */
-  function forward(j: number): void {
-    const o = 8 * j;
-    const sr = zsrcRe[j];
-    const si = zsrcIm[j];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (finite(sr) && finite(si)) {
-      nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
-      ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
-      dr = m[o + 4] * sr - m[o + 5] * si + m[o];
-      di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
-    } else {
-      nr = m[o + 6];
-      ni = m[o + 7];
-      dr = m[o + 4];
-      di = m[o + 5];
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      zsrcRe[j + 1] = OPEN;
-      zsrcIm[j + 1] = 0;
-    } else {
-      const inv = 1 / d2;
-      zsrcRe[j + 1] = (nr * dr + ni * di) * inv;
-      zsrcIm[j + 1] = (ni * dr - nr * di) * inv;
-    }
-  }
+  // Voltages for stepUpTo, and the source EMF as a one-slot array for sourceStep.
+  const vRe = new Float64Array(N + 1);
+  const vIm = new Float64Array(N + 1);
+  const emf = new Float64Array(1);
 
   function at(f: number, node: number, voltage = false): number {
     const last = stopAt[node];
@@ -142,56 +92,22 @@ export function createProbe(built: BuiltChain): Probe {
       zinIm[end] = 0;
     }
     const from = voltage ? 0 : node;
-    for (let j = end - 1; j >= from; j--) backward(j);
+    for (let j = end - 1; j >= from; j--) backStep(m, 8 * j, zinRe, zinIm, j + 1, j);
     zs(f, t, 0);
     zsrcRe[0] = t[0];
     zsrcIm[0] = t[1];
-    for (let j = 0; j < node; j++) forward(j);
-    if (!voltage) return NaN;
-    return stepUpTo(f, node);
+    if (voltage) return stepUpTo(f, node);
+    for (let j = 0; j < node; j++) forwardStep(m, 8 * j, zsrcRe, zsrcIm, j, j + 1);
+    return NaN;
   }
 
-  /** |V[node]|/|Es| from the voltage divider at node 0 and V[j+1] = V[j]/(A + B/Zin[j+1]). */
+  /** |V[node]|/|Es| from the voltage divider at node 0 and the voltage steps (nodes.ts). */
   function stepUpTo(f: number, node: number): number {
     const e = es(f);
-    const z0r = zinRe[0];
-    const z0i = zinIm[0];
-    const sr = zsrcRe[0];
-    const si = zsrcIm[0];
-    let vr: number, vi: number; // prettier-ignore
-    if (!finite(z0r) || !finite(z0i)) {
-      vr = e;
-      vi = 0;
-    } else if (!finite(sr) || !finite(si)) {
-      return 0;
-    } else {
-      const dr = sr + z0r;
-      const di = si + z0i;
-      const d2 = dr * dr + di * di;
-      vr = (e * (z0r * dr + z0i * di)) / d2;
-      vi = (e * (z0i * dr - z0r * di)) / d2;
-    }
-    for (let j = 0; j < node; j++) {
-      const o = 8 * j;
-      const ar = zinRe[j + 1];
-      const ai = zinIm[j + 1];
-      let er = m[o];
-      let ei = m[o + 1];
-      if (finite(ar) && finite(ai)) {
-        const a2 = ar * ar + ai * ai;
-        if (a2 === 0 || (vr === 0 && vi === 0)) return 0;
-        const ia = 1 / a2;
-        const yr = ar * ia;
-        const yi = -ai * ia;
-        er += m[o + 2] * yr - m[o + 3] * yi;
-        ei += m[o + 2] * yi + m[o + 3] * yr;
-      }
-      const ie = 1 / (er * er + ei * ei);
-      const nr = (vr * er + vi * ei) * ie;
-      vi = (vi * er - vr * ei) * ie;
-      vr = nr;
-    }
-    return Math.hypot(vr, vi) / Math.abs(e);
+    emf[0] = e;
+    sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, 0, 0);
+    for (let j = 0; j < node; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1);
+    return Math.hypot(vRe[node], vIm[node]) / Math.abs(e);
   }
 
   function nodeAdmittance(node: number, out: Float64Array): void {
@@ -211,32 +127,8 @@ export function createProbe(built: BuiltChain): Probe {
     if (cut <= node) return;
     cutRe[cut] = OPEN;
     cutIm[cut] = 0;
-    for (let j = cut - 1; j >= node; j--) {
-      const o = 8 * j;
-      // Open at the cut: Zin = A/C, then the usual bilinear step.
-      const zr = cutRe[j + 1];
-      const zi = cutIm[j + 1];
-      let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-      if (finite(zr) && finite(zi)) {
-        nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-        ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-        dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-        di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-      } else {
-        nr = m[o];
-        ni = m[o + 1];
-        dr = m[o + 4];
-        di = m[o + 5];
-      }
-      const d2 = dr * dr + di * di;
-      if (d2 === 0) {
-        cutRe[j] = OPEN;
-        cutIm[j] = 0;
-      } else {
-        cutRe[j] = (nr * dr + ni * di) / d2;
-        cutIm[j] = (ni * dr - nr * di) / d2;
-      }
-    }
+    // Open at the cut: Zin = A/C, then the usual bilinear step.
+    for (let j = cut - 1; j >= node; j--) backStep(m, 8 * j, cutRe, cutIm, j + 1, j);
     addInverse(cutRe[node], cutIm[node], out);
   }
 

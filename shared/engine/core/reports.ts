@@ -136,6 +136,28 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
   }));
 }
 
+/**
+ * Noise figure (dB) of the whole chain at f0 by the Friis cascade of the stage reports; a
+ * load that declares its own noise (a converter or receiver input) ends the cascade.
+ */
+export function chainNoiseFigureDb(
+  built: BuiltChain,
+  na: NodeAnalysis,
+  stages: readonly StageReport[],
+): number {
+  const last = stages[stages.length - 1];
+  const nf = last ? last.cumulativeNoiseFigureDb : 0;
+  const loadNoise = built.load.model.noise;
+  if (!loadNoise || loadNoise.kind === 'passive') return nf;
+  const j = built.sections.length * na.points;
+  const zr = na.zsrcRe[j];
+  const zi = na.zsrcIm[j];
+  const d = zr * zr + zi * zi;
+  const fl = stageNoiseFactor(loadNoise, 1, zr / d, -zi / d);
+  const g = last ? pow(10, last.cumulativeGainDb / 10) : 1;
+  return db10(pow(10, nf / 10) + (fl - 1) / g);
+}
+
 /** Signal and noise levels of the whole chain. */
 export function levelsReport(
   built: BuiltChain,
@@ -144,18 +166,7 @@ export function levelsReport(
 ): LevelsReport {
   const { temperatureK, channelBandwidthHz, requiredSnrDb } = built.settings;
   const last = stages[stages.length - 1];
-  let nf = last ? last.cumulativeNoiseFigureDb : 0;
-  // A load that declares its own noise (a converter or receiver input) ends the cascade.
-  const loadNoise = built.load.model.noise;
-  if (loadNoise && loadNoise.kind !== 'passive') {
-    const j = built.sections.length * na.points;
-    const zr = na.zsrcRe[j];
-    const zi = na.zsrcIm[j];
-    const d = zr * zr + zi * zi;
-    const fl = stageNoiseFactor(loadNoise, 1, zr / d, -zi / d);
-    const g = last ? pow(10, last.cumulativeGainDb / 10) : 1;
-    nf = db10(pow(10, nf / 10) + (fl - 1) / g);
-  }
+  const nf = chainNoiseFigureDb(built, na, stages);
   // Te = T0·(F − 1) with the chain's reference temperature as T0; the floor is k·Tsys·B,
   // which is kT0·B·F when the source sits at T0.
   const te = noiseTemperature(pow(10, nf / 10), temperatureK);

@@ -60,38 +60,66 @@ export interface Bracket {
   sign: number;
 }
 
-/** B at `node`, grid point i (an open side adds nothing, as in addInverse). */
-function susceptanceAt(na: NodeAnalysis, node: number, i: number): number {
+/**
+ * Susceptance at or below this fraction of the conductance is rounding, not a tuned circuit:
+ * a node between matched resistive blocks (an IF filter block between its terminations) has
+ * B = 0 up to rounding, whose sign flips from point to point. A real crossing, even of a
+ * circuit with a loaded Q of 0.001, moves B far more than this between grid points. Our rule.
+ */
+const ROUNDING_B = 1e-9;
+
+/** G and B at `node`, grid point i, into out[0], out[1] (an open side adds nothing). */
+function admittanceAt(na: NodeAnalysis, node: number, i: number, out: Float64Array): void {
   const k = node * na.points + i;
+  let g = 0;
   let b = 0;
   const sr = na.zsrcRe[k];
   const si = na.zsrcIm[k];
   if (isFiniteNumber(sr) && isFiniteNumber(si)) {
     const d = sr * sr + si * si;
-    b += d === 0 ? 0 : -si / d;
+    if (d !== 0) {
+      g += sr / d;
+      b -= si / d;
+    }
   }
   const zr = na.zinRe[k];
   const zi = na.zinIm[k];
   if (isFiniteNumber(zr) && isFiniteNumber(zi)) {
     const d = zr * zr + zi * zi;
-    b += d === 0 ? 0 : -zi / d;
+    if (d !== 0) {
+      g += zr / d;
+      b -= zi / d;
+    }
   }
-  return b;
+  out[0] = g;
+  out[1] = b;
 }
 
-/** Every rising crossing of B at a node over the grid, in frequency order. */
+/**
+ * Every rising crossing of B at a node over the grid, in frequency order. Brackets where B
+ * is rounding at both ends (see ROUNDING_B) are left out.
+ */
 export function risingCrossings(na: NodeAnalysis, node: number): Bracket[] {
   const out: Bracket[] = [];
   const fl = na.fNode;
   const base = node * na.points;
-  let prev = susceptanceAt(na, node, 0);
+  const y = new Float64Array(2);
+  admittanceAt(na, node, 0, y);
+  let prevG = y[0];
+  let prev = y[1];
   for (let i = 0; i + 1 < na.points; i++) {
-    const next = susceptanceAt(na, node, i + 1);
+    admittanceAt(na, node, i + 1, y);
+    const nextG = y[0];
+    const next = y[1];
     const sign = fl[base + i + 1] >= fl[base + i] ? 1 : -1;
     const a = sign * prev;
     const b = sign * next;
-    if (a < 0 && b >= 0 && isFiniteNumber(a) && isFiniteNumber(b)) out.push({ k: i, sign });
+    if (a < 0 && b >= 0 && isFiniteNumber(a) && isFiniteNumber(b)) {
+      const rounding = abs(a) <= ROUNDING_B * abs(prevG) && abs(b) <= ROUNDING_B * abs(nextG);
+      if (!rounding) out.push({ k: i, sign });
+    }
     prev = next;
+    prevG = nextG;
   }
   return out;
 }

@@ -48,6 +48,8 @@ export const MIN_DETACHED_Q = 2;
 export interface ResonatorFinding extends ResonatorReport {
   /** Flat node (shunt) or flat index of the section (series). */
   flat: number;
+  /** Input frequency of the resonance, Hz (null when not found): where a study re-locates it. */
+  fIn: number | null;
   /** Design frequency at the resonator's node, Hz. */
   f0LocalHz: number;
   /** Label of what the tank's downstream side begins with. */
@@ -144,6 +146,7 @@ function declaredShunt(
     origin: 'declared' as const,
     node: userNodeOf(built, topo, flat),
     flat,
+    fIn: att ? att.fIn : null,
     f0LocalHz: built.f0AtFlatNode[flat],
     name,
   };
@@ -195,6 +198,7 @@ function declaredSeries(
     loadingRatio: null,
     downstreamShare: null,
     flat: section,
+    fIn: res ? res.fIn : null,
     f0LocalHz: built.f0AtFlatNode[min(section, built.f0AtFlatNode.length - 1)],
     downstreamLabel: downstreamOf(built, section + 1),
     name,
@@ -241,6 +245,7 @@ function declaredPair(
       pairPeakHz: peakLocal,
       pairBandwidthHz: peak ? peak.bandwidthHz : null,
       flat: fig.flat,
+      fIn: fig.fIn,
       f0LocalHz: built.f0AtFlatNode[fig.flat],
       downstreamLabel: first ? 'its coupled partner' : downstreamOf(built, fig.flat),
       name: `Tank "${stage.label}" (${decl.label})`,
@@ -301,7 +306,7 @@ function foundResonances(ctx: Context, claimed: Set<number>): ResonatorFinding[]
 /** The report of a found parallel resonance. */
 function foundTank(ctx: Context, { node, fig: all }: Candidate): ResonatorFinding {
   const { built, topo } = ctx;
-  const { fIn: _f, cut, ...fig } = all;
+  const { cut, ...fig } = all;
   const stage = owningStage(built, topo, node);
   const partOf = [stage.id];
   for (let j = node; j < cut; j++) {

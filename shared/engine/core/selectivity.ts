@@ -88,11 +88,14 @@ export const FLOOR_MARGIN_DB = 3;
  * they do not depend on the sweep's spacing.
  * @param sweepNa node analysis over the sweep grid
  * @param imageHz image frequency at the input (null without a mixer)
+ * @param only the one user-level node to report (a study's judged node) without its −60 dB
+ *   width and depth (null there), else every node in full
  */
 export function analyzeSelectivity(
   built: BuiltChain,
   sweepNa: NodeAnalysis,
   imageHz: number | null,
+  only?: number,
 ): SelectivityReport[] {
   const { f0Hz, offsetsHz } = built.settings;
   // Exact points: f0, each offset below and above, and the image.
@@ -106,6 +109,7 @@ export function analyzeSelectivity(
   const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
   for (let n = 0; n < built.userNodeFlat.length; n++) {
+    if (only !== undefined && n !== only) continue;
     const flat = built.userNodeFlat[n];
     for (let i = 0; i < P; i++) db[i] = toDb(stepUp(sweepNa, flat, i));
     const k = gridMax(db);
@@ -117,8 +121,9 @@ export function analyzeSelectivity(
       const lo3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, -1);
       const hi3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, 1);
       e3 = lo3 && hi3 ? [lo3.fHz, hi3.fHz] : null;
-      const lo60 = locateEdge(probe, flat, f, db, k, peak.db - 60, -1);
-      const hi60 = locateEdge(probe, flat, f, db, k, peak.db - 60, 1);
+      const deep = only === undefined;
+      const lo60 = deep ? locateEdge(probe, flat, f, db, k, peak.db - 60, -1) : null;
+      const hi60 = deep ? locateEdge(probe, flat, f, db, k, peak.db - 60, 1) : null;
       if (lo60 && hi60) {
         const fp = peak.fHz;
         const further = Math.max(

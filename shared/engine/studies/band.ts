@@ -7,14 +7,34 @@
  * - without one, the dial reads the resonance of the first member's tuned circuit.
  * Each tuned circuit's resonance is compared with the dial frequency (tracking error) and
  * flagged where it is off by more than a fraction of its own bandwidth.
+ *
+ * The first position is analysed in full (its tuned circuits found on a grid); from there each
+ * circuit is followed from where it was at the position before (trial.ts), which gives the
+ * same figures without searching the whole chain again at every position. A position where a
+ * circuit cannot be followed is analysed in full.
  */
 import type { ChainDocument } from '../../schema/chain';
 import type { BandSpec, GangMember, OscillatorTank } from '../../schema/studies';
+import { buildChain, type BuiltChain } from '../core/build';
+import { settleLoadLevel } from '../core/load-level';
+import { runNodeAnalysis } from '../core/nodes';
+import { analyzeResonators } from '../core/resonators';
+import { frequencyGrid } from '../core/sweep';
+import { defaultCatalogue } from '../default-catalogue';
 import { analyzeChain } from '../index';
 import { gangMembers } from '../gang';
 import type { AnalysisResult } from '../types';
 import { cloneForEdit, readValue, StudySetupError, writeValue } from './chain-values';
 import type { StudyInputs } from './monte-carlo';
+import {
+  followResonators,
+  judgedFigures,
+  movedTracker,
+  trialTracker,
+  type FollowedResonator,
+  type JudgedFigures,
+  type TrialTracker,
+} from './trial';
 
 export interface BandCircuit {
   stageId: string;
@@ -119,6 +139,11 @@ export function checkBandSpec(inputs: StudyInputs, spec: BandSpec): void {
   }
 }
 
+function setDial(doc: ChainDocument, fHz: number, points: number, span: number): void {
+  doc.settings.f0Hz = fHz;
+  doc.settings.sweep = { startHz: fHz / span, stopHz: fHz * span, points, scale: 'lin' };
+}
+
 function analyseAt(
   inputs: StudyInputs,
   doc: ChainDocument,
@@ -126,9 +151,45 @@ function analyseAt(
   points: number,
   span = 1.25,
 ): AnalysisResult {
-  doc.settings.f0Hz = fHz;
-  doc.settings.sweep = { startHz: fHz / span, stopHz: fHz * span, points, scale: 'lin' };
+  setDial(doc, fHz, points, span);
   return analyzeChain(doc, { sweep: false, dataFiles: inputs.dataFiles });
+}
+
+/** The chain at dial frequency fHz, built (like `like`) with its load level settled. */
+function builtAt(
+  inputs: StudyInputs,
+  doc: ChainDocument,
+  fHz: number,
+  points: number,
+  like?: BuiltChain,
+): { chain: BuiltChain; settled: BuiltChain } {
+  setDial(doc, fHz, points, 1.25);
+  const chain = buildChain(doc, defaultCatalogue(), { dataFiles: inputs.dataFiles, like });
+  return { chain, settled: settleLoadLevel(chain) };
+}
+
+/** Figures per circuit and at the last node, however a position was worked out. */
+interface PositionFigures {
+  circuits: Pick<FollowedResonator, 'resonanceHz' | 'loadedQ'>[];
+  judged: JudgedFigures;
+}
+
+/** A position's figures from a full analysis (circuits matched by stage, in order). */
+function fromResult(result: AnalysisResult, circuits: BandCircuit[]): PositionFigures {
+  const last = result.selectivity[result.selectivity.length - 1];
+  return {
+    circuits: circuits.map((c, i) => {
+      const r = result.resonators.filter((x) => x.stageId === c.stageId)[countBefore(circuits, i)];
+      return { resonanceHz: fin(r?.resonanceHz), loadedQ: fin(r?.loadedQ) };
+    }),
+    judged: {
+      peakHz: fin(last?.peakHz),
+      bw3dbHz: fin(last?.bw3dbHz),
+      imageRejectionDb: fin(last?.imageRejectionDb),
+      gainDb: fin(result.levels.totalGainDb),
+      noiseFigureDb: fin(result.levels.noiseFigureDb),
+    },
+  };
 }
 
 /** Runs the band study; `onPosition` reports each finished position (progress). */
@@ -142,7 +203,9 @@ export function runBandStudy(
   const mixer = spec.oscillator ? findDownMixer(inputs.doc) : null;
   const gangStages = new Set(gang.map((m) => m.stageId));
   const first = gang[0];
+  const lastNode = inputs.doc.stages.length - 2;
   let circuits: BandCircuit[] | null = null;
+  let tracker: TrialTracker | null = null;
   let guessHz = inputs.doc.settings.f0Hz;
   const positions: BandPosition[] = [];
   for (let k = 0; k < spec.positions; k++) {
@@ -150,8 +213,8 @@ export function runBandStudy(
     const doc = cloneForEdit(inputs.doc);
     for (const m of gang) writeValue(doc, m, m.min + dial * (m.max - m.min));
     let loHz: number | null = null;
-    let dialHz: number;
-    let result: AnalysisResult;
+    let dialHz: number | null = null;
+    let figures: PositionFigures | null = null;
     if (spec.oscillator && mixer) {
       const osc = spec.oscillator;
       const section =
@@ -166,26 +229,48 @@ export function runBandStudy(
       const mix = doc.stages.find((s) => s.id === mixer.stageId)!;
       mix.values.loSource = 'frequency';
       mix.values.loHz = loHz;
-      result = analyseAt(inputs, doc, dialHz, spec.points);
-    } else {
-      // The dial reads the first member's circuit: search for it well around the last reading.
-      const probe = analyseAt(inputs, doc, guessHz, spec.points, 4);
-      const ref = probe.resonators.find((r) => r.stageId === first.stageId);
-      if (!ref || ref.resonanceHz === null) {
-        throw new StudySetupError(
-          `at dial ${dial.toFixed(2)} the tuned circuit of "${first.stageId}" has no resonance in reach: check the gang's range`,
-        );
+    } else if (tracker && circuits) {
+      // The dial reads the first member's circuit, followed from where it was.
+      const ref = circuits.findIndex((c) => c.stageId === first.stageId);
+      if (ref >= 0) {
+        const { settled } = builtAt(inputs, doc, guessHz, spec.points, tracker.nominal);
+        const one = { ...tracker, follow: [tracker.follow[ref]] };
+        dialHz = followResonators(settled, one)[0].resonanceHz;
       }
-      dialHz = ref.resonanceHz;
-      result = analyseAt(inputs, doc, dialHz, spec.points);
     }
-    guessHz = dialHz;
-    circuits ??= result.resonators.map((r) => ({
-      stageId: r.stageId,
-      label: r.label,
-      ganged: gangStages.has(r.stageId),
-    }));
-    const pos = readPosition(result, circuits, dial, dialHz, loHz, spec.mistrackFraction);
+    if (tracker && circuits && dialHz !== null) {
+      const { settled } = builtAt(inputs, doc, dialHz, spec.points, tracker.nominal);
+      const followed = followResonators(settled, tracker);
+      if (followed.every((r) => r.resonanceHz !== null)) {
+        figures = { circuits: followed, judged: judgedFigures(settled, lastNode) };
+        tracker = movedTracker(tracker, followed);
+      }
+    }
+    if (!figures) {
+      // In full: the first position, and any position where a circuit could not be followed.
+      if (!(spec.oscillator && mixer)) {
+        // The dial reads the first member's circuit: search for it well around the last reading.
+        const probe = analyseAt(inputs, doc, guessHz, spec.points, 4);
+        const ref = probe.resonators.find((r) => r.stageId === first.stageId);
+        if (!ref || ref.resonanceHz === null) {
+          throw new StudySetupError(
+            `at dial ${dial.toFixed(2)} the tuned circuit of "${first.stageId}" has no resonance in reach: check the gang's range`,
+          );
+        }
+        dialHz = ref.resonanceHz;
+      }
+      const at = dialHz!;
+      const result = analyseAt(inputs, doc, at, spec.points);
+      circuits ??= result.resonators.map((r) => ({
+        stageId: r.stageId,
+        label: r.label,
+        ganged: gangStages.has(r.stageId),
+      }));
+      figures = fromResult(result, circuits);
+      tracker = positionTracker(inputs, doc, at, spec.points, lastNode, circuits);
+    }
+    guessHz = dialHz!;
+    const pos = readPosition(figures, circuits!, dial, dialHz!, loHz, spec.mistrackFraction);
     positions.push(pos);
     onPosition?.(k + 1, spec.positions, pos);
   }
@@ -203,32 +288,51 @@ export function runBandStudy(
   };
 }
 
+/**
+ * The tracker of a position analysed in full: the study's circuits (matched by stage, in
+ * order, as fromResult reads them) where the full analysis finds them.
+ */
+function positionTracker(
+  inputs: StudyInputs,
+  doc: ChainDocument,
+  dialHz: number,
+  points: number,
+  lastNode: number,
+  circuits: BandCircuit[],
+): TrialTracker {
+  const { chain, settled } = builtAt(inputs, doc, dialHz, points);
+  const findings = analyzeResonators(settled, runNodeAnalysis(settled, frequencyGrid(settled.settings.sweep))); // prettier-ignore
+  const matched = circuits.map(
+    (c, i) => findings.filter((x) => x.stageId === c.stageId)[countBefore(circuits, i)],
+  );
+  return trialTracker(chain, matched, lastNode);
+}
+
 function readPosition(
-  result: AnalysisResult,
+  figures: PositionFigures,
   circuits: BandCircuit[],
   dial: number,
   dialHz: number,
   loHz: number | null,
   fraction: number,
 ): BandPosition {
+  const { judged } = figures;
   const pos: BandPosition = {
     dial, dialHz, loHz, resonanceHz: [], trackingErrorHz: [], loadedQ: [], bandwidthHz: [], mistracked: [],
-    gainDb: fin(result.levels.totalGainDb),
-    noiseFigureDb: fin(result.levels.noiseFigureDb),
-    imageRejectionDb: null,
-    bandwidth3dbHz: null,
+    gainDb: judged.gainDb,
+    noiseFigureDb: judged.noiseFigureDb,
+    imageRejectionDb: judged.imageRejectionDb,
+    bandwidth3dbHz: judged.bw3dbHz,
   }; // prettier-ignore
-  const last = result.selectivity[result.selectivity.length - 1];
-  pos.imageRejectionDb = fin(last?.imageRejectionDb);
-  pos.bandwidth3dbHz = fin(last?.bw3dbHz);
   circuits.forEach((c, i) => {
-    const r = result.resonators.filter((x) => x.stageId === c.stageId)[countBefore(circuits, i)];
+    const r = figures.circuits[i];
     const fr = fin(r?.resonanceHz);
-    const bw = fin(r?.bandwidthHz);
+    const q = fin(r?.loadedQ);
+    const bw = fr !== null && q ? fr / q : null;
     const err = fr === null ? null : fr - dialHz;
     pos.resonanceHz.push(fr);
     pos.trackingErrorHz.push(err);
-    pos.loadedQ.push(fin(r?.loadedQ));
+    pos.loadedQ.push(q);
     pos.bandwidthHz.push(bw);
     pos.mistracked.push(
       c.ganged && (err === null || (bw !== null && Math.abs(err) > fraction * bw)),

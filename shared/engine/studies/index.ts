@@ -11,3 +11,4 @@ export * from './optimiser';
 export * from './statistics';
 export * from './random';
 export * from './work';
+export * from './trial';

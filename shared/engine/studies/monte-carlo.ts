@@ -7,6 +7,12 @@
 import type { ChainDocument } from '../../schema/chain';
 import type { MonteCarloSpec } from '../../schema/studies';
 import { analyzeChain } from '../index';
+import { buildChain } from '../core/build';
+import { settleLoadLevel } from '../core/load-level';
+import { runNodeAnalysis } from '../core/nodes';
+import { analyzeResonators } from '../core/resonators';
+import { frequencyGrid } from '../core/sweep';
+import { defaultCatalogue } from '../default-catalogue';
 import type { AnalysisResult, MeasuredNetwork } from '../types';
 import {
   cloneForEdit,
@@ -16,6 +22,7 @@ import {
 } from './chain-values';
 import { metricList, readMetrics, type MetricInfo } from './metrics';
 import { drawDeviation, mulberry32, trialSeed } from './random';
+import { trialMetrics, trialTracker, type TrialTracker } from './trial';
 
 /** One trial: its draws (in units of each value's tolerance) and its figures. */
 export interface Trial {
@@ -36,6 +43,8 @@ export interface MonteCarloPlan {
   metrics: MetricInfo[];
   resonatorCount: number;
   nominal: (number | null)[];
+  /** The nominal resonators a trial follows (see trial.ts). */
+  tracker: TrialTracker;
 }
 
 export interface StudyInputs {
@@ -79,7 +88,16 @@ export function planMonteCarlo(inputs: StudyInputs, spec: MonteCarloSpec): Monte
     metrics: metricList(nominalResult, node),
     resonatorCount,
     nominal: readMetrics(nominalResult, node, resonatorCount),
+    tracker: nominalTracker(inputs, doc, node),
   };
+}
+
+/** The resonators of the nominal chain (as the full analysis finds them) for trials to follow. */
+function nominalTracker(inputs: StudyInputs, doc: ChainDocument, node: number): TrialTracker {
+  const nominal = buildChain(doc, defaultCatalogue(), { dataFiles: inputs.dataFiles });
+  const built = settleLoadLevel(nominal);
+  const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+  return trialTracker(nominal, analyzeResonators(built, sweepNa), node);
 }
 
 /** Runs trial `index` of a plan. */
@@ -94,8 +112,7 @@ export function runTrial(inputs: StudyInputs, plan: MonteCarloPlan, index: numbe
     stage.values[t.key] = t.nominal * (1 + (z * t.tolerancePct) / 100);
   }
   try {
-    const result = analyse(inputs, doc);
-    return { index, draws, metrics: readMetrics(result, plan.node, plan.resonatorCount) };
+    return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
   } catch (err) {
     const metrics = plan.metrics.map(() => null);
     return { index, draws, metrics, error: err instanceof Error ? err.message : String(err) };
