@@ -160,8 +160,8 @@ export async function stopAnalysisPool(): Promise<void> {
 }
 
 /** Throws AnalysisTooLargeError when `doc` is over the stages × points budget. */
-export function assertWithinBudget(doc: ChainDocument): void {
-  const stages = doc.stages.length;
+export function assertWithinBudget(doc: ChainDocument, runs = 1): void {
+  const stages = doc.stages.length * runs;
   const points = doc.settings.sweep.points;
   if (stages * points > limits.maxStagePoints) {
     throw new AnalysisTooLargeError(stages, points, limits.maxStagePoints);

@@ -21,6 +21,10 @@ export interface AnalysisTask {
   nodes?: readonly number[];
   /** Add the receiver plan (`'full'`: with the spur chart and the IF choice). */
   plan?: boolean | 'full';
+  /** The mode to analyse (absent: the first mode, or the chain as written without modes). */
+  mode?: string;
+  /** Analyse every mode; the answer is a `ModesAnalysisDto`. */
+  allModes?: boolean;
 }
 
 export type AnalysisOutcome =

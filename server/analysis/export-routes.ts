@@ -1,7 +1,8 @@
 import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { exportQuerySchema, exportRequestSchema, type ExportFormat } from '../../shared/schema/api';
-import type { ChainDocument } from '../../shared/schema/chain';
+import type { ChainDocument, Mode } from '../../shared/schema/chain';
+import { chainInMode } from '../../shared/engine';
 import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
 import { chainToTouchstone, TouchstoneExportError } from '../../shared/io/chain-touchstone';
 import { exportFileName } from '../../shared/io/export-name';
@@ -26,37 +27,79 @@ interface ExportFile {
   referenceOhm?: number;
 }
 
+/**
+ * The mode an export is of: the one asked for, else (for the engine's formats) the first
+ * mode, which is what the engine builds when none is named. The whole chain file of a chain
+ * with modes is of no one mode.
+ */
+function modeOfExport(
+  doc: ChainDocument,
+  format: ExportFormat,
+  modeId: string | undefined,
+): Mode | undefined {
+  const modes = doc.modes ?? [];
+  if (modeId === undefined) return format === 'json' ? undefined : modes[0];
+  const mode = modes.find((m) => m.id === modeId);
+  if (!mode) {
+    const known = modes.map((m) => `"${m.id}"`).join(', ');
+    throw new HttpError(
+      422,
+      'unknown-mode',
+      known
+        ? `this chain has no mode "${modeId}"; its modes are ${known}`
+        : `this chain has no modes, so it cannot be exported in mode "${modeId}"; leave mode out`,
+      [{ path: ['mode'], message: `no mode "${modeId}"` }],
+    );
+  }
+  return mode;
+}
+
+/** The line naming the mode at the top of a netlist or Touchstone file. */
+function modeLine(comment: '*' | '!', mode: Mode): string {
+  return `${comment} Mode "${mode.name.replace(/[\r\n]+/g, ' ')}" (${mode.kind}, id ${mode.id})`;
+}
+
 async function exportFile(
   em: EntityManager,
   doc: ChainDocument,
   format: ExportFormat,
   z0: number | undefined,
   workspaceId: string | undefined,
+  mode: Mode | undefined,
 ): Promise<ExportFile> {
-  if (format === 'json') {
-    // The chain file needs no engine: it is the document as the schema accepts it, so a
-    // chain the engine refuses can still be taken elsewhere and fixed.
-    return {
-      text: JSON.stringify(doc, null, 2) + '\n',
-      contentType: 'application/json; charset=utf-8',
-      extension: 'chain.json',
-    };
-  }
-  const dataFiles = await loadDataFiles(em, doc, workspaceId);
+  const dataFiles = format === 'json' && !mode ? undefined : await loadDataFiles(em, doc, workspaceId); // prettier-ignore
   const withFiles = dataFiles ? { dataFiles } : {};
   try {
-    return format === 'spice'
-      ? {
-          text: chainToSpice(doc, withFiles),
-          contentType: 'text/plain; charset=utf-8',
-          extension: 'cir',
-        }
-      : {
-          text: chainToTouchstone(doc, { z0: z0 ?? 50, ...withFiles }),
-          contentType: 'text/plain; charset=utf-8',
-          extension: 's2p',
-          referenceOhm: z0 ?? 50,
-        };
+    // In a mode, the chain as that mode makes it: its path, its values, nothing left out.
+    const flat: ChainDocument = mode ? chainInMode(doc, mode.id, withFiles) : doc;
+    if (format === 'json') {
+      // Without a mode the chain file needs no engine: it is the document as the schema
+      // accepts it, so a chain the engine refuses can still be taken elsewhere and fixed.
+      const text = mode
+        ? { ...flat, description: `Mode "${mode.name}" (${mode.kind}) of the chain "${doc.name}". ${doc.description}`.trim() } // prettier-ignore
+        : doc;
+      return {
+        text: JSON.stringify(text, null, 2) + '\n',
+        contentType: 'application/json; charset=utf-8',
+        extension: 'chain.json',
+      };
+    }
+    if (format === 'spice') {
+      // The first line of a netlist is its title; the mode goes in the comment below it.
+      const [title, ...rest] = chainToSpice(flat, withFiles).split('\n');
+      return {
+        text: [title, ...(mode ? [modeLine('*', mode)] : []), ...rest].join('\n'),
+        contentType: 'text/plain; charset=utf-8',
+        extension: 'cir',
+      };
+    }
+    const touchstone = chainToTouchstone(flat, { z0: z0 ?? 50, ...withFiles });
+    return {
+      text: mode ? `${modeLine('!', mode)}\n${touchstone}` : touchstone,
+      contentType: 'text/plain; charset=utf-8',
+      extension: 's2p',
+      referenceOhm: z0 ?? 50,
+    };
   } catch (err) {
     if (err instanceof SpiceExportError || err instanceof TouchstoneExportError) {
       throw new CannotExportError(err.stageId, err.message);
@@ -72,10 +115,14 @@ export async function sendExport(
   format: ExportFormat,
   z0: number | undefined,
   workspaceId: string | undefined,
+  modeId?: string,
 ): Promise<void> {
-  const file = await exportFile(em, doc, format, z0, workspaceId);
+  const mode = modeOfExport(doc, format, modeId);
+  const file = await exportFile(em, doc, format, z0, workspaceId, mode);
+  // A mode's file carries its id: "transceiver_transmit_50ohm.s2p" beside "…_receive_…".
   const name = exportFileName({
     chainName: doc.name,
+    mode: mode?.id ?? null,
     referenceOhm: file.referenceOhm,
     extension: file.extension,
   });
@@ -94,18 +141,18 @@ export function exportRouter(em: EntityManager): Router {
   router.post('/export', requireUser, async (req, res) => {
     const body = parseOr422(exportRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-    await sendExport(em, res, body.document, body.format, body.z0, body.workspaceId);
+    await sendExport(em, res, body.document, body.format, body.z0, body.workspaceId, body.mode);
   });
   return router;
 }
 
-/** GET /api/chains/:id/export?format=…&z0=…: the stored chain, for viewers and up. */
+/** GET /api/chains/:id/export?format=…&z0=…&mode=…: the stored chain, for viewers and up. */
 export function chainExportRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/export', chainRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(exportQuerySchema, req.query, 'query');
     const chain = res.locals.chain!;
-    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id);
+    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id, query.mode); // prettier-ignore
   });
   return router;
 }

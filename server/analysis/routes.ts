@@ -28,8 +28,10 @@ async function analyze(
   nodes: readonly number[] | undefined,
   workspaceId: string | undefined,
   plan: boolean | 'full' = false,
+  modes: { mode?: string; allModes?: boolean } = {},
 ) {
-  assertWithinBudget(doc);
+  // Every mode is a whole analysis of its own.
+  assertWithinBudget(doc, modes.allModes ? Math.max(1, doc.modes?.length ?? 0) : 1);
   const dataFiles = await loadDataFiles(em, doc, workspaceId);
   const outcome = await runOnPool({
     document: doc,
@@ -38,6 +40,7 @@ async function analyze(
     traces,
     ...(nodes ? { nodes } : {}),
     plan,
+    ...(modes.allModes ? { allModes: true } : modes.mode ? { mode: modes.mode } : {}),
   });
   if (outcome.kind === 'refused') {
     throw new HttpError(422, 'invalid-chain', outcome.message, outcome.details);
@@ -60,7 +63,10 @@ export function analysisRouter(em: EntityManager): Router {
     const body = parseOr422(analysisRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
     const traces = body.sweep ? (body.traces ?? PLOTTED_TRACES) : [];
-    await analyze(em, res, body.document, traces, body.nodes, body.workspaceId, body.plan);
+    await analyze(em, res, body.document, traces, body.nodes, body.workspaceId, body.plan, {
+      ...(body.mode ? { mode: body.mode } : {}),
+      allModes: body.allModes,
+    });
   });
   router.get('/catalogue', requireUser, (_req, res) => {
     res.type('application/json').send(catalogueJson);
@@ -69,10 +75,14 @@ export function analysisRouter(em: EntityManager): Router {
 }
 
 const tracesQuery = z.object({ traces: sweepTracesQuerySchema });
+const modesQuery = z.object({
+  mode: analysisRequestSchema.shape.mode,
+  modes: z.literal('all', { error: 'modes takes only "all" (every mode\'s analysis)' }).optional(),
+});
 
 /**
- * GET /api/chains/:id/analysis?sweep=1&traces=stepUp,zIn: the stored chain, for viewers
- * and up.
+ * GET /api/chains/:id/analysis?sweep=1&traces=stepUp,zIn&mode=transmit (or &modes=all): the
+ * stored chain, for viewers and up.
  */
 export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
@@ -84,6 +94,7 @@ export function chainAnalysisRouter(em: EntityManager): Router {
       req.query.traces === undefined
         ? PLOTTED_TRACES
         : parseOr422(tracesQuery, { traces: req.query.traces }, 'query').traces;
+    const query = parseOr422(modesQuery, { mode: req.query.mode, modes: req.query.modes }, 'query'); // prettier-ignore
     const chain = res.locals.chain!;
     await analyze(
       em,
@@ -93,6 +104,7 @@ export function chainAnalysisRouter(em: EntityManager): Router {
       undefined,
       chain.workspace.id,
       plan,
+      { ...(query.mode ? { mode: query.mode } : {}), allModes: query.modes === 'all' },
     );
   });
   return router;

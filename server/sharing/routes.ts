@@ -7,7 +7,8 @@ import {
   type ShareLinkDto,
 } from '../../shared/schema/api';
 import { recordActivity } from '../activity/record';
-import { analyzeChain } from '../../shared/engine';
+import { analyseModes, analyzeChain, ChainValidationError } from '../../shared/engine';
+import type { SharedModeDto } from '../../shared/schema/api';
 import { invalidChainError } from '../analysis/engine-errors';
 import { sendExport } from '../analysis/export-routes';
 import { looksLikeToken, hashToken, newToken, tokenMatches } from '../auth/tokens';
@@ -147,6 +148,21 @@ export function sharedRouter(services: Services): Router {
       if (!known) throw err;
       analysisError = known.message;
     }
+    // A chain with modes: each mode's analysis too (the first is also `analysis`).
+    const modes: SharedModeDto[] = [];
+    if (analysis && chain.document.modes?.length) {
+      const byId = new Map(chain.document.modes.map((m) => [m.id, m]));
+      for (const entry of analyseModes(chain.document, { sweep: true, ...(dataFiles ? { dataFiles } : {}) })) { // prettier-ignore
+        const mode = byId.get(entry.modeId ?? '');
+        if (!mode) continue;
+        const head = { id: mode.id, name: mode.name, kind: mode.kind };
+        modes.push(
+          entry.ok
+            ? { ...head, analysis: entry.result }
+            : { ...head, analysis: null, analysisError: new ChainValidationError(entry.issues).message }, // prettier-ignore
+        );
+      }
+    }
     const body: SharedChainDto = {
       name: chain.name,
       description: chain.description,
@@ -156,6 +172,7 @@ export function sharedRouter(services: Services): Router {
       document: chain.document,
       analysis,
       ...(analysisError ? { analysisError } : {}),
+      ...(modes.length ? { modes } : {}),
     };
     res.set('Cache-Control', 'no-store').json(body);
   });
@@ -163,7 +180,7 @@ export function sharedRouter(services: Services): Router {
   router.get('/:token/export', async (req, res) => {
     const chain = (await linkOf(req)).chain;
     const query = parseOr422(exportQuerySchema, req.query, 'query');
-    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id);
+    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id, query.mode); // prettier-ignore
   });
 
   return router;

@@ -12,7 +12,7 @@
  */
 import { z } from 'zod';
 import { chainDocumentSchema } from './chain';
-import { sweepTracesSchema } from './sweep-columns';
+import { sweepTracesSchema, type AnalysisDto } from './sweep-columns';
 
 export const ROLES = ['owner', 'editor', 'viewer'] as const;
 export type WorkspaceRole = (typeof ROLES)[number];
@@ -201,6 +201,12 @@ export interface RevisionDto extends RevisionSummaryDto {
 }
 
 // ------------------------------------------------------------------ analysis
+/** A mode's id as the API takes it (the chain document's mode ids are slugs). */
+const modeIdField = z
+  .string({ error: 'mode must be the id of one of the chain\'s modes' })
+  .min(1, 'mode must be the id of one of the chain\'s modes')
+  .max(40, 'mode must be the id of one of the chain\'s modes (at most 40 characters)');
+
 export const analysisRequestSchema = z.object({
   document: chainDocumentSchema,
   /** Include the frequency sweep in the answer. */
@@ -219,7 +225,27 @@ export const analysisRequestSchema = z.object({
   nodes: z.array(z.number().int().min(0).max(1000)).max(200).optional(),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
+  /** Analyse the chain in this mode (absent: its first mode, or as written without modes). */
+  mode: modeIdField.optional(),
+  /** Analyse every mode: the answer is a `ModesAnalysisDto` (`mode` is then ignored). */
+  allModes: z.boolean().default(false),
 });
+
+/** One mode's analysis in an every-mode answer: its result, or why it was refused. */
+export type ModeAnalysisDto = {
+  /** null: a chain without modes, analysed as written. */
+  id: string | null;
+  name: string;
+  kind: 'receive' | 'transmit' | 'state';
+} & (
+  | { ok: true; result: AnalysisDto }
+  | { ok: false; message: string; issues: unknown[] }
+);
+
+/** POST /api/analysis with `allModes`, GET /api/chains/:id/analysis?modes=all. */
+export interface ModesAnalysisDto {
+  modes: ModeAnalysisDto[];
+}
 
 // ------------------------------------------------------------------ data files
 /** The kinds of data file: one-port and two-port Touchstone. */
@@ -272,6 +298,8 @@ export const exportRequestSchema = z.object({
   z0: z.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
+  /** Export the chain in this mode (named in the file name and header; absent: first mode). */
+  mode: modeIdField.optional(),
 });
 export type ExportRequest = z.input<typeof exportRequestSchema>;
 
@@ -279,6 +307,7 @@ export type ExportRequest = z.input<typeof exportRequestSchema>;
 export const exportQuerySchema = z.object({
   format: exportFormat,
   z0: z.coerce.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+  mode: modeIdField.optional(),
 });
 
 export interface ExampleDto {
@@ -482,6 +511,17 @@ export interface SharedChainDto {
   workspaceName: string;
   document: z.infer<typeof chainDocumentSchema>;
   /** The engine's analysis with the sweep, or null when the engine refused the chain. */
+  analysis: unknown;
+  analysisError?: string;
+  /** A chain with modes: each mode's analysis (`analysis` above is the first mode's). */
+  modes?: SharedModeDto[];
+}
+
+/** One mode of a shared chain and its analysis (null, with the reason, when refused). */
+export interface SharedModeDto {
+  id: string;
+  name: string;
+  kind: 'receive' | 'transmit' | 'state';
   analysis: unknown;
   analysisError?: string;
 }

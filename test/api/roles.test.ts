@@ -426,6 +426,12 @@ const ROWS: Row[] = [
     expect: readers(200),
   },
   {
+    name: 'chain analysis of every mode',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/analysis?modes=all`,
+    expect: readers(200),
+  },
+  {
     name: 'analysis',
     method: 'post',
     url: () => '/api/analysis',

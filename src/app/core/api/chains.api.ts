@@ -71,10 +71,11 @@ export class ChainsApi {
    * The stored chain's analysis, with the plotted sweep traces (sent in columns) and the
    * receiver plan's figures.
    */
-  analysis(chainId: string, context?: HttpContext): Observable<AnalysisResult> {
+  /** The stored chain's analysis, in `mode` when given (else its first mode, if it has modes). */
+  analysis(chainId: string, context?: HttpContext, mode?: string): Observable<AnalysisResult> {
     return this.http
       .get<AnalysisDto>(`/api/chains/${enc(chainId)}/analysis`, {
-        params: { sweep: '1', plan: '1' },
+        params: { sweep: '1', plan: '1', ...(mode ? { mode } : {}) },
         context,
       })
       .pipe(map(analysisFromDto));

@@ -25,11 +25,15 @@ import { themePalette } from '../editor/results/plot-theme';
 import { ResultPlotComponent } from '../editor/results/result-plot.component';
 import { compareRows, type CompareVariant } from './compare-rows';
 import { returnLossOverlay, stepUpOverlay } from './compare-traces';
-import { parseChainIds, MAX_COMPARED } from './compare-ids';
+import { entryKey, parseChainIds, parseEntry, MAX_COMPARED } from './compare-ids';
+import { documentForResults, findMode } from '../editor/modes/mode-edits';
 
-/** One loaded variant: the chain and its analysis, or why either failed. */
+/** One loaded variant (a chain, or one mode of it): the chain and its analysis, or why either failed. */
 interface Loaded {
+  /** The column's key: the chain id, or `<chain id>:<mode id>`. */
   id: string;
+  chainId: string;
+  modeId: string | null;
   chain: ChainDto | null;
   result: AnalysisResult | null;
   failure: string;
@@ -105,18 +109,38 @@ export default class CompareComponent {
   protected readonly variants = computed((): CompareVariant[] =>
     this.loaded().map((l) => ({
       id: l.id,
-      name: l.chain?.name ?? 'Chain not found',
+      name: columnName(l),
       result: l.result,
     })),
   );
+  protected readonly anyMode = computed(() => this.ids().some((id) => parseEntry(id).modeId));
+  /** What the picker offers: each family member, and each mode of the chains shown. */
+  protected readonly choices = computed(() => {
+    const shown = new Map(this.loaded().map((l) => [l.chainId, l.chain]));
+    return this.family().flatMap((member) => {
+      const modes = shown.get(member.id)?.document.modes ?? [];
+      return [
+        { key: member.id, name: member.name, mode: false },
+        ...modes.map((m) => ({
+          key: entryKey({ chainId: member.id, modeId: m.id }),
+          name: `${member.name} · ${m.name}`,
+          mode: true,
+        })),
+      ];
+    });
+  });
   protected readonly rows = computed(() => compareRows(this.variants()));
   /** Which stages and values differ between the variants, against the first. */
   protected readonly stageDiffs = computed(() =>
-    stageDiffRows(this.loaded().map((l) => l.chain?.document ?? null)),
+    stageDiffRows(
+      this.loaded().map((l) =>
+        l.chain ? documentForResults(l.chain.document, findMode(l.chain.document, l.modeId)) : null,
+      ),
+    ),
   );
   protected readonly failures = computed(() =>
     this.loaded().flatMap((l) =>
-      l.failure ? [{ id: l.id, name: l.chain?.name ?? l.id, text: l.failure }] : [],
+      l.failure ? [{ id: l.id, name: l.chain ? columnName(l) : l.id, text: l.failure }] : [],
     ),
   );
   protected readonly rootName = computed(() => this.family()[0]?.name ?? '');
@@ -158,11 +182,15 @@ export default class CompareComponent {
     return ids.includes(id) ? ids.length === 1 : ids.length >= MAX_COMPARED;
   }
 
-  /** The picker's choice, in family order so columns stay in a stable order. */
+  /** The picker's choice, in the picker's order so columns stay in a stable order. */
   protected choose(selected: string[]): void {
-    const order = this.family().map((c) => c.id);
-    const sorted = [...selected].sort((a, b) => order.indexOf(a) - order.indexOf(b));
-    this.show(sorted);
+    const order = this.choices().map((c) => c.key);
+    const rank = (key: string) => (order.includes(key) ? order.indexOf(key) : order.length);
+    this.show([...selected].sort((a, b) => rank(a) - rank(b)));
+  }
+
+  protected chainOf(key: string): string {
+    return parseEntry(key).chainId;
   }
 
   protected remove(id: string): void {
@@ -176,22 +204,44 @@ export default class CompareComponent {
   }
 
   private load(id: string) {
+    const { chainId, modeId } = parseEntry(id);
     return forkJoin({
-      chain: this.api.get(id),
+      chain: this.api.get(chainId),
       // A chain the engine refuses (422) is shown in place, not in a snackbar.
       result: this.api
-        .analysis(id, new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]))
+        .analysis(chainId, new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]), modeId ?? undefined)
         .pipe(catchError(() => of(null))),
     }).pipe(
       map(({ chain, result }): Loaded => ({
         id,
+        chainId,
+        modeId,
         chain,
         result,
-        failure: result ? '' : 'the engine could not analyse this chain',
+        failure: result
+          ? ''
+          : modeId
+            ? `the engine could not analyse this chain in the mode "${modeId}"`
+            : 'the engine could not analyse this chain',
       })),
       catchError((error: unknown) =>
-        of<Loaded>({ id, chain: null, result: null, failure: describeHttpError(error) }),
+        of<Loaded>({
+          id,
+          chainId,
+          modeId,
+          chain: null,
+          result: null,
+          failure: describeHttpError(error),
+        }),
       ),
     );
   }
+}
+
+/** A column's heading: the chain's name, and the mode's when the column is one mode. */
+function columnName(l: Loaded): string {
+  if (!l.chain) return 'Chain not found';
+  if (!l.modeId) return l.chain.name;
+  const mode = findMode(l.chain.document, l.modeId);
+  return `${l.chain.name} · ${mode?.name ?? `no mode “${l.modeId}”`}`;
 }

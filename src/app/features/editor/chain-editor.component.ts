@@ -32,6 +32,8 @@ import { PresenceBarComponent } from '../presence/presence-bar.component';
 import { SavedNoticeComponent } from '../presence/saved-notice.component';
 import { ShareDialogComponent, type ShareDialogData } from '../share/share-dialog.component';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
+import { documentForResults, hasTransmitMode, withModes } from './modes/mode-edits';
+import { ModeBarComponent } from './modes/mode-bar.component';
 import { DesignPanelComponent } from './design/design-panel.component';
 import { saveAsVariant } from './design/save-variant';
 import { RevisionPanelComponent } from './history/revision-panel.component';
@@ -74,6 +76,7 @@ type SidePanel = 'stage' | 'chain' | 'history' | 'design' | 'comments' | 'change
     ChainSettingsComponent,
     RevisionPanelComponent,
     CautionBannerComponent,
+    ModeBarComponent,
     AnalysisResultsComponent,
     DesignPanelComponent,
     PresenceBarComponent,
@@ -121,6 +124,17 @@ export default class ChainEditorComponent implements LeaveAware {
   /** The document on screen: a revision being looked at, or the one being edited. */
   protected readonly shownDoc = computed(() => this.viewing()?.document ?? this.doc());
   protected readonly locked = computed(() => this.store.readOnly() || this.viewing() !== null);
+  /** The mode on screen: the selected one, except on an old revision (shown as written). */
+  protected readonly modeShown = computed(() => (this.viewing() ? null : this.store.mode()));
+  /** The stages the strip shows: in the mode on screen, with its values. */
+  protected readonly stripStages = computed(() =>
+    this.viewing() ? this.shownDoc().stages : this.store.stagesInMode(),
+  );
+  /** What the results are read against: the mode's stages in its order. */
+  protected readonly resultsDoc = computed(() =>
+    documentForResults(this.shownDoc(), this.modeShown()),
+  );
+  protected readonly transmitMode = computed(() => hasTransmitMode(this.shownDoc()));
   protected readonly chainTypes = computed(() => {
     const catalogue = this.store.catalogue();
     return this.shownDoc()
@@ -133,11 +147,18 @@ export default class ChainEditorComponent implements LeaveAware {
       const id = this.chainId();
       untracked(() => void this.loadChain(id));
     });
-    // Every change of what is on screen is analysed; unsaved edits also go to the draft.
+    // Every change of what is on screen (the document or the mode) is analysed; the chain
+    // as written is sent without its modes. Unsaved edits also go to the draft.
     effect(() => {
       const doc = this.shownDoc();
+      const mode = this.modeShown();
       const chain = this.store.chain();
-      if (chain) untracked(() => this.runner.request(doc, chain.workspaceId));
+      if (!chain) return;
+      untracked(() =>
+        mode
+          ? this.runner.request(doc, chain.workspaceId, mode.id)
+          : this.runner.request(withModes(doc, []), chain.workspaceId),
+      );
     });
     // The tab says which chain it holds, and whether it has unsaved edits.
     effect(() => {
@@ -220,12 +241,18 @@ export default class ChainEditorComponent implements LeaveAware {
     if (await this.persistence.save(this.saveMessage())) this.saveMessage.set('');
   }
 
-  /** Exports what is on screen: the edited chain with unsaved edits, or the revision viewed. */
+  /**
+   * Exports what is on screen: the edited chain with unsaved edits, or the revision viewed,
+   * in the mode shown (the chain as written is sent without its modes).
+   */
   protected exportAs(format: ExportFormat, z0?: number): void {
     const workspaceId = this.store.chain()?.workspaceId;
-    void this.exporter.download(this.shownDoc(), format, {
+    const mode = this.modeShown();
+    const doc = mode || format === 'json' ? this.shownDoc() : withModes(this.shownDoc(), []);
+    void this.exporter.download(doc, format, {
       workspaceId,
       ...(z0 === undefined ? {} : { z0 }),
+      ...(mode ? { mode: mode.id } : {}),
     });
   }
 

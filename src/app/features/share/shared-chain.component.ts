@@ -1,6 +1,15 @@
 import { HttpContext } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
+import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { Title } from '@angular/platform-browser';
 import { firstValueFrom } from 'rxjs';
 import type { AnalysisResult } from '../../../../shared/engine/types';
@@ -9,6 +18,8 @@ import { formatEngineering } from '../../../../shared/units/format';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { CautionBannerComponent } from '../editor/cautions/caution-banner.component';
+import { documentForResults, hasTransmitMode } from '../editor/modes/mode-edits';
 import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
 
 /**
@@ -17,7 +28,12 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
  */
 @Component({
   selector: 'cw-shared-chain',
-  imports: [MatButtonModule, AnalysisResultsComponent],
+  imports: [
+    MatButtonModule,
+    MatButtonToggleModule,
+    AnalysisResultsComponent,
+    CautionBannerComponent,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     @if (failure(); as text) {
@@ -39,7 +55,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
         </div>
         <span class="cw-spacer"></span>
         <nav class="exports" aria-label="Exports">
-          <a mat-stroked-button [href]="exportUrl('json')" download>Chain file</a>
+          <a mat-stroked-button [href]="exportUrl('json', false)" download>Chain file</a>
           <a mat-stroked-button [href]="exportUrl('spice')" download>SPICE netlist</a>
           <a mat-stroked-button [href]="exportUrl('touchstone')" download>Touchstone</a>
         </nav>
@@ -48,8 +64,27 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
         Figures are from a model. Before building anything that transmits, carries high voltage or
         exposes people to RF, check it against local codes and licensed practice.
       </p>
+      <cw-caution-banner class="cautions" [types]="[]" [transmit]="transmit()" />
+      @if (s.modes?.length) {
+        <div class="modes">
+          <span id="cw-shared-mode">Mode</span>
+          <mat-button-toggle-group
+            aria-labelledby="cw-shared-mode"
+            data-testid="mode-selector"
+            hideSingleSelectionIndicator
+            [value]="modeId()"
+            (change)="chooseMode($event.value)"
+          >
+            @for (m of s.modes; track m.id) {
+              <mat-button-toggle [value]="m.id" [attr.data-mode-id]="m.id">{{
+                m.name
+              }}</mat-button-toggle>
+            }
+          </mat-button-toggle-group>
+        </div>
+      }
       <ol class="stages" aria-label="Stages from source to load">
-        @for (st of s.document.stages; track st.id; let i = $index) {
+        @for (st of shownDoc()?.stages ?? []; track st.id; let i = $index) {
           <li>
             <span class="n">{{ i + 1 }}</span>
             <span class="label">{{ st.label || st.type }}</span>
@@ -58,13 +93,13 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
         }
       </ol>
       <p class="cw-muted">Design frequency {{ f0(s) }}.</p>
-      @if (s.analysisError) {
-        <p class="cw-error-text" role="alert">Not analysed: {{ s.analysisError }}</p>
+      @if (analysisError()) {
+        <p class="cw-error-text" role="alert">Not analysed: {{ analysisError() }}</p>
       }
       <main class="results">
         <cw-analysis-results
           [result]="analysis()"
-          [document]="s.document"
+          [document]="shownDoc()!"
           [selectedStageId]="selected()"
           (stageSelected)="selected.set($event)"
         />
@@ -98,6 +133,13 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
       display: flex;
       gap: 8px;
       flex-wrap: wrap;
+    }
+    .cautions,
+    .modes {
+      display: flex;
+      align-items: center;
+      gap: 8px;
+      margin: 0 24px 8px;
     }
     .caution {
       margin: 12px 24px;
@@ -139,16 +181,48 @@ export default class SharedChainComponent {
   readonly token = input.required<string>();
 
   protected readonly shared = signal<SharedChainDto | null>(null);
-  protected readonly analysis = signal<AnalysisResult | null>(null);
   protected readonly failure = signal('');
   protected readonly selected = signal<string | null>(null);
+  /** The mode shown, for a chain with modes (the first until another is chosen). */
+  protected readonly modeId = signal<string | null>(null);
+  private readonly modeShown = computed(() => {
+    const modes = this.shared()?.modes ?? [];
+    return modes.find((m) => m.id === this.modeId()) ?? modes[0] ?? null;
+  });
+  protected readonly analysis = computed(() => {
+    const s = this.shared();
+    const mode = this.modeShown();
+    return ((mode ? mode.analysis : s?.analysis) as AnalysisResult | null) ?? null;
+  });
+  protected readonly analysisError = computed(() =>
+    this.modeShown() ? this.modeShown()?.analysisError : this.shared()?.analysisError,
+  );
+  /** The stages of the mode shown, in its order, with its values. */
+  protected readonly shownDoc = computed(() => {
+    const s = this.shared();
+    if (!s) return null;
+    const id = this.modeShown()?.id;
+    return documentForResults(s.document, s.document.modes?.find((m) => m.id === id) ?? null);
+  });
+  protected readonly transmit = computed(() => {
+    const s = this.shared();
+    return s ? hasTransmitMode(s.document) : false;
+  });
 
   constructor() {
     effect(() => void this.load(this.token()));
   }
 
-  protected exportUrl(format: string): string {
-    return `/api/shared/${encodeURIComponent(this.token())}/export?format=${format}`;
+  /** An export of the mode shown (the chain file without `inMode`: the whole chain). */
+  protected exportUrl(format: string, inMode = true): string {
+    const mode = inMode ? this.modeShown()?.id : undefined;
+    const modePart = mode ? `&mode=${encodeURIComponent(mode)}` : '';
+    return `/api/shared/${encodeURIComponent(this.token())}/export?format=${format}${modePart}`;
+  }
+
+  protected chooseMode(id: string): void {
+    this.modeId.set(id);
+    this.selected.set(null);
   }
 
   protected f0(s: SharedChainDto): string {
@@ -160,7 +234,6 @@ export default class SharedChainComponent {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
       const shared = await firstValueFrom(this.api.shared(token, context));
       this.shared.set(shared);
-      this.analysis.set((shared.analysis as AnalysisResult | null) ?? null);
       this.title.setTitle(`${shared.name} (read only) · Chainwright`);
     } catch (error) {
       this.failure.set(describeHttpError(error));

@@ -22,11 +22,19 @@ describe('CautionBannerComponent', () => {
     expect(host.textContent).toContain('needs a licence');
   });
 
+  it('should show the transmit caution for a chain with a transmit mode', async () => {
+    const host = await render([TANK], true);
+    expect(cautions(host)).toEqual(['transmit', 'rf-exposure']);
+    expect(host.textContent).toContain('harmful interference');
+    expect(host.textContent).toContain('Defer to your local codes and to licensed practice');
+  });
+
   // Helpers
 
-  async function render(types: StageTypeInfo[]): Promise<HTMLElement> {
+  async function render(types: StageTypeInfo[], transmit = false): Promise<HTMLElement> {
     const fixture = TestBed.createComponent(CautionBannerComponent);
     fixture.componentRef.setInput('types', types);
+    fixture.componentRef.setInput('transmit', transmit);
     await fixture.whenStable();
     return fixture.nativeElement as HTMLElement;
   }

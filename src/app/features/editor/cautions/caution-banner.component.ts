@@ -1,19 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import type { Caution, StageTypeInfo } from '../../../../../shared/engine/types';
-
-const WORDING: Record<Caution, string> = {
-  transmit:
-    'This chain has a transmit path. Transmitting needs a licence for the band and power used, and must respect local rules on frequencies, power and spurious emissions.',
-  'rf-exposure':
-    'RF exposure limits apply near transmitting antennas: keep people at the distances your local exposure rules require.',
-  'high-voltage':
-    'Tube stages run at plate voltages that can kill. Work on them only with the supply off and the capacitors discharged, and follow your local electrical safety rules.',
-};
+import type { StageTypeInfo } from '../../../../../shared/engine/types';
+import { CAUTION_DEFER, CAUTION_WORDING, cautionsOf } from './caution-words';
 
 /**
- * Safety notes for the stage types in the chain that declare cautions. A transmit path
- * also brings the RF exposure note. Figures here are design estimates; local codes and
- * licensed practice have the last word.
+ * Safety notes for the stage types in the chain that declare cautions, and for a chain with
+ * a transmit mode. A transmit path also brings the RF exposure note (`caution-words.ts`).
+ * Figures here are design estimates; local codes and licensed practice have the last word.
  */
 @Component({
   selector: 'cw-caution-banner',
@@ -38,10 +30,7 @@ const WORDING: Record<Caution, string> = {
               <li [attr.data-caution]="c">{{ wording[c] }}</li>
             }
           </ul>
-          <p class="defer">
-            Chainwright gives design estimates only. Defer to your local codes and to licensed
-            practice.
-          </p>
+          <p class="defer">{{ defer }}</p>
         </div>
       </aside>
     }
@@ -74,12 +63,9 @@ const WORDING: Record<Caution, string> = {
 export class CautionBannerComponent {
   /** Types of the stages in the chain. */
   readonly types = input.required<StageTypeInfo[]>();
-  protected readonly wording = WORDING;
-  protected readonly cautions = computed(() => {
-    const found = new Set<Caution>();
-    for (const t of this.types()) for (const c of t.cautions ?? []) found.add(c);
-    if (found.has('transmit')) found.add('rf-exposure');
-    const order: Caution[] = ['transmit', 'rf-exposure', 'high-voltage'];
-    return order.filter((c) => found.has(c));
-  });
+  /** Whether the chain has a transmit mode (the transmit caution then shows in every mode). */
+  readonly transmit = input(false);
+  protected readonly wording = CAUTION_WORDING;
+  protected readonly defer = CAUTION_DEFER;
+  protected readonly cautions = computed(() => cautionsOf(this.types(), this.transmit()));
 }

@@ -14,6 +14,8 @@ import {
   withTolerance,
   withValue,
 } from '../state/stage-factory';
+import { overriddenKeys } from '../modes/mode-edits';
+import { OverrideMarkComponent } from '../modes/override-mark.component';
 import { CoilTurnsComponent } from '../design/coil-turns.component';
 import { DATA_FILE_KIND_OF_TYPE, DataFileFieldComponent } from './data-file-field.component';
 import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
@@ -33,6 +35,7 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
     MatMenuModule,
     MatButtonModule,
     CoilTurnsComponent,
+    OverrideMarkComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './param-panel.component.html',
@@ -48,9 +51,14 @@ export class ParamPanelComponent {
   private readonly runner = inject(AnalysisRunner);
 
   protected readonly stage = computed(() => {
-    const doc = this.document() ?? this.store.doc();
-    return doc.stages.find((s) => s.id === this.store.selectedId()) ?? null;
+    // In a mode, the form shows (and edits) that mode's values.
+    const stages = this.document()?.stages ?? this.store.stagesInMode();
+    return stages.find((s) => s.id === this.store.selectedId()) ?? null;
   });
+  /** Keys the selected mode sets on this stage (marked, each with a way back to the chain's value). */
+  protected readonly overridden = computed(() =>
+    this.document() ? new Set<string>() : overriddenKeys(this.store.mode(), this.stage()?.id ?? ''),
+  );
   protected readonly type = computed(() => {
     const stage = this.stage();
     return stage ? (this.store.catalogue().get(stage.type) ?? null) : null;

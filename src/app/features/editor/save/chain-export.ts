@@ -59,7 +59,7 @@ export class ChainExport {
   async download(
     document: ChainDocument,
     format: ExportFormat,
-    options: { z0?: number; workspaceId?: string } = {},
+    options: { z0?: number; workspaceId?: string; mode?: string } = {},
   ): Promise<string | null> {
     if (this.running()) return null;
     this.running.set(format);
@@ -67,6 +67,8 @@ export class ChainExport {
     if (options.z0 !== undefined) body.z0 = options.z0;
     // The workspace lets the server find the data files the stages refer to.
     if (options.workspaceId) body.workspaceId = options.workspaceId;
+    // A mode's export: the chain as that mode makes it, the mode named in file and header.
+    if (options.mode) body.mode = options.mode;
     try {
       const answer = await firstValueFrom(
         this.http.post('/api/export', body, {

@@ -26,14 +26,26 @@ export class AnalysisApi {
   /**
    * The analysis with the sweep traces the plots draw (the server sends them in columns; the
    * node phases stay on the server). The editor shows a refused chain (422) in its own
-   * banner, so no snackbar for it.
+   * banner, so no snackbar for it. Without `mode`, send a document without modes to get
+   * the chain as written.
    */
-  analyse(document: ChainDocument, workspaceId?: string): Observable<AnalysisResult> {
-    // The workspace lets the server find the data files the stages refer to.
+  analyse(
+    document: ChainDocument,
+    workspaceId?: string,
+    mode?: string,
+  ): Observable<AnalysisResult> {
+    // The workspace lets the server find the data files the stages refer to; the server
+    // applies the mode named (its values, the stages it leaves out, its path).
     return this.http
       .post<AnalysisDto>(
         '/api/analysis',
-        { document, sweep: true, traces: PLOTTED_TRACES, ...(workspaceId ? { workspaceId } : {}) },
+        {
+          document,
+          sweep: true,
+          traces: PLOTTED_TRACES,
+          ...(workspaceId ? { workspaceId } : {}),
+          ...(mode ? { mode } : {}),
+        },
         { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
       )
       .pipe(map(analysisFromDto));

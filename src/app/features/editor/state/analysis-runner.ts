@@ -28,6 +28,8 @@ interface Edit {
   at: number;
   /** The workspace whose data files the stages may refer to. */
   workspaceId?: string;
+  /** The mode to analyse (absent: the document as sent). */
+  mode?: string;
 }
 
 type Outcome =
@@ -66,7 +68,7 @@ export class AnalysisRunner {
         tap(() => this.pendingState.set(true)),
         debounceTime(ANALYSIS_DEBOUNCE_MS),
         switchMap((edit) =>
-          this.api.analyse(edit.doc, edit.workspaceId).pipe(
+          this.api.analyse(edit.doc, edit.workspaceId, edit.mode).pipe(
             map((result): Outcome => ({ kind: 'result', result, editedAt: edit.at })),
             catchError((error: unknown) => of(toOutcome(error))),
           ),
@@ -76,9 +78,9 @@ export class AnalysisRunner {
     inject(DestroyRef).onDestroy(() => subscription.unsubscribe());
   }
 
-  /** Queues `doc` for analysis; call on every change of the document. */
-  request(doc: ChainDocument, workspaceId?: string): void {
-    this.edits.next({ doc, at: markEdit(), workspaceId });
+  /** Queues `doc` for analysis (in `mode`); call on every change of the document or mode. */
+  request(doc: ChainDocument, workspaceId?: string, mode?: string): void {
+    this.edits.next({ doc, at: markEdit(), workspaceId, ...(mode ? { mode } : {}) });
   }
 
   private land(outcome: Outcome): void {

@@ -83,6 +83,62 @@ describe('EditorStore', () => {
     });
   });
 
+  describe('modes', () => {
+    beforeEach(() => store.load(chainDto('editor')));
+
+    it("should write edits in a mode as that mode's values, each one undo step", () => {
+      expect(store.addMode('Band 2', 'state')).toEqual({ ok: true });
+      expect(store.mode()?.id).toBe('band-2');
+      const tank = store.stagesInMode()[1];
+      store.updateStage(
+        { ...tank, values: { ...tank.values, c: 1e-9 }, entered: { c: '1 n' } },
+        'c',
+      );
+      store.updateStage(
+        { ...tank, values: { ...tank.values, c: 2e-9 }, entered: { c: '2 n' } },
+        'c',
+      );
+      // The chain's own value stays; the mode has the new one, shown with the text typed.
+      expect(store.doc().stages[1].values['c']).toBe(tank.values['c']);
+      expect(store.doc().modes![0].values).toEqual({ tank: { c: 2e-9 } });
+      expect(store.stagesInMode()[1].entered?.['c']).toBe('2 n');
+      // Keystrokes in one field coalesce: one undo goes back to before the override.
+      store.undo();
+      expect(store.doc().modes![0].values).toBeUndefined();
+      store.undo();
+      expect(store.doc().modes).toBeUndefined();
+    });
+
+    it("should keep the label the chain's own while a mode is shown", () => {
+      store.addMode('tx', 'transmit');
+      const tank = store.stagesInMode()[1];
+      store.updateStage({ ...tank, label: 'Trap' }, 'label');
+      expect(store.doc().stages[1].label).toBe('Trap');
+      expect(store.doc().modes![0].values).toBeUndefined();
+    });
+
+    it('should clear an override, leave a stage out, and forget a removed stage', () => {
+      store.addMode('rx', 'receive');
+      const amp = store.stagesInMode()[2];
+      store.updateStage({ ...amp, values: { ...amp.values, gain: 3 } });
+      store.clearOverride('amp', 'gain');
+      expect(store.mode()?.values).toBeUndefined();
+      store.setLeftOut('tank', true);
+      expect(store.mode()?.bypass).toEqual(['tank']);
+      expect(store.remove('tank').ok).toBe(true);
+      expect(store.mode()?.bypass).toBeUndefined();
+    });
+
+    it('should show the chain as written after the mode shown is deleted', () => {
+      store.addMode('rx', 'receive');
+      store.deleteMode('rx');
+      expect(store.mode()).toBeNull();
+      expect(store.doc().modes).toBeUndefined();
+      store.undo();
+      expect(store.modes().map((m) => m.id)).toEqual(['rx']);
+    });
+  });
+
   describe('viewers', () => {
     beforeEach(() => store.load(chainDto('viewer')));
 

@@ -6,6 +6,21 @@ import type {
   ChainSettings,
   StageInstance,
 } from '../../../../../shared/schema/chain';
+import {
+  addMode,
+  clearOverride,
+  deleteMode,
+  findMode,
+  forgetStage,
+  modesOf,
+  setBypass,
+  setOverride,
+  stageInMode,
+  typedKey,
+  type TypedText,
+  updateMode,
+} from '../modes/mode-edits';
+import type { ModeKind } from '../modes/mode-types';
 import { HistoryStore } from './chain-history.store';
 import { sameJson } from './same-document';
 import { createStage, newStageId } from './stage-factory';
@@ -58,6 +73,9 @@ export class EditorStore {
   private readonly savedState = signal<ChainDocument | null>(null);
   private readonly catalogueState = signal<ReadonlyMap<string, StageTypeInfo>>(new Map());
   private readonly selectedState = signal<string | null>(null);
+  private readonly modeState = signal<string | null>(null);
+  /** Text typed for mode overrides in this session (the document keeps only the values). */
+  private readonly typedState = signal<ReadonlyMap<string, TypedText>>(new Map());
 
   readonly doc = this.history.present;
   readonly chain = this.chainState.asReadonly();
@@ -71,8 +89,17 @@ export class EditorStore {
     const saved = this.savedState();
     return saved !== null && !sameJson(saved, this.doc());
   });
+  readonly modes = computed(() => modesOf(this.doc()));
+  /** The mode being looked at and edited; null: the chain as written. */
+  readonly mode = computed(() => findMode(this.doc(), this.modeState()));
+  /** The stages as the selected mode sets them (overrides on top; none left out here). */
+  readonly stagesInMode = computed(() => {
+    const mode = this.mode();
+    const typed = this.typedState();
+    return mode ? this.doc().stages.map((s) => stageInMode(s, mode, typed)) : this.doc().stages;
+  });
   readonly selectedStage = computed(
-    () => this.doc().stages.find((s) => s.id === this.selectedState()) ?? null,
+    () => this.stagesInMode().find((s) => s.id === this.selectedState()) ?? null,
   );
   readonly selectedType = computed(() => {
     const stage = this.selectedStage();
@@ -103,6 +130,46 @@ export class EditorStore {
 
   select(stageId: string | null): void {
     this.selectedState.set(stageId);
+  }
+
+  /** Shows and edits mode `modeId` (null: the chain as written). */
+  selectMode(modeId: string | null): void {
+    this.modeState.set(modeId);
+  }
+
+  /** A new mode with no overrides, selected at once; one undo step. */
+  addMode(name: string, kind: ModeKind): EditOutcome {
+    if (this.readOnly()) return { ok: false, reason: 'You can view this chain but not change it.' };
+    if (!name.trim()) return { ok: false, reason: 'Give the mode a name, e.g. "transmit".' };
+    const { doc, id } = addMode(this.doc(), name, kind);
+    this.history.commit(doc);
+    this.modeState.set(id);
+    return { ok: true };
+  }
+
+  updateMode(modeId: string, change: { name?: string; kind?: ModeKind }): void {
+    if (!this.readOnly()) this.history.commit(updateMode(this.doc(), modeId, change));
+  }
+
+  /** Deletes a mode with its overrides (undo brings it back); shows the chain as written. */
+  deleteMode(modeId: string): void {
+    if (this.readOnly()) return;
+    this.history.commit(deleteMode(this.doc(), modeId));
+    if (this.modeState() === modeId) this.modeState.set(null);
+  }
+
+  /** Drops the selected mode's override of `key` on a stage: the chain's value applies. */
+  clearOverride(stageId: string, key: string): void {
+    const mode = this.mode();
+    if (mode && !this.readOnly())
+      this.history.commit(clearOverride(this.doc(), mode.id, stageId, key));
+  }
+
+  /** Leaves a stage out of the selected mode, or puts it back. */
+  setLeftOut(stageId: string, leftOut: boolean): void {
+    const mode = this.mode();
+    if (mode && !this.readOnly())
+      this.history.commit(setBypass(this.doc(), mode.id, stageId, leftOut));
   }
 
   undo(): boolean {
@@ -138,7 +205,9 @@ export class EditorStore {
   remove(stageId: string): EditOutcome {
     const stages = this.doc().stages;
     const index = stages.findIndex((s) => s.id === stageId);
-    const outcome = this.applyOrder(removeStage(stages, this.roleOf, index));
+    const outcome = this.applyOrder(removeStage(stages, this.roleOf, index), (doc) =>
+      forgetStage(doc, stageId),
+    );
     if (outcome.ok && this.selectedState() === stageId) {
       this.selectedState.set(this.doc().stages[Math.max(0, index - 1)]?.id ?? null);
     }
@@ -154,11 +223,33 @@ export class EditorStore {
     return outcome;
   }
 
-  /** Replaces one stage (a field edit); consecutive edits of one field are one undo step. */
+  /**
+   * Replaces one stage (a field edit); consecutive edits of one field are one undo step.
+   * With a mode selected, changed values become that mode's overrides (their typed text is
+   * remembered for the field); the label, tolerances and data file stay the chain's own.
+   */
   updateStage(next: StageInstance, coalesceKey?: string): void {
     if (this.readOnly()) return;
-    const stages = this.doc().stages.map((s) => (s.id === next.id ? next : s));
-    this.history.commit({ ...this.doc(), stages }, coalesceKey && `${next.id}:${coalesceKey}`);
+    const mode = this.mode();
+    const base = this.doc().stages.find((s) => s.id === next.id);
+    let doc = this.doc();
+    if (mode && base) {
+      const shown = stageInMode(base, mode, this.typedState());
+      const typed = new Map(this.typedState());
+      for (const [key, value] of Object.entries(next.values)) {
+        if (value === shown.values[key] && next.entered?.[key] === shown.entered?.[key]) continue;
+        doc = setOverride(doc, mode.id, next.id, key, value);
+        const text = next.entered?.[key];
+        if (text === undefined) typed.delete(typedKey(mode.id, next.id, key));
+        else typed.set(typedKey(mode.id, next.id, key), { text, value });
+      }
+      this.typedState.set(typed);
+      next = { ...next, values: base.values };
+      if (base.entered) next.entered = base.entered;
+      else delete next.entered;
+    }
+    const stages = doc.stages.map((s) => (s.id === next.id ? next : s));
+    this.history.commit({ ...doc, stages }, coalesceKey && `${next.id}:${coalesceKey}`);
   }
 
   updateSettings(settings: ChainSettings, coalesceKey?: string): void {
@@ -176,10 +267,13 @@ export class EditorStore {
     this.history.commit(document);
   }
 
-  private applyOrder(change: OrderChange): EditOutcome {
+  private applyOrder(
+    change: OrderChange,
+    tidy: (doc: ChainDocument) => ChainDocument = (doc) => doc,
+  ): EditOutcome {
     if (this.readOnly()) return { ok: false, reason: 'You can view this chain but not change it.' };
     if (!change.ok) return change;
-    this.history.commit({ ...this.doc(), stages: change.stages });
+    this.history.commit(tidy({ ...this.doc(), stages: change.stages }));
     if (change.note === 'replaced-source')
       return { ok: true, message: 'The new source replaced the old one.' };
     if (change.note === 'replaced-load')

@@ -26,12 +26,18 @@ export class StageCardComponent {
   readonly readOnly = input(false);
   readonly canMoveLeft = input(false);
   readonly canMoveRight = input(false);
+  /** The mode shown (null: the chain as written), what it sets here, and whether it leaves this out. */
+  readonly modeName = input<string | null>(null);
+  readonly overriddenCount = input(0);
+  readonly leftOut = input<'bypass' | 'path' | null>(null);
 
   readonly picked = output<void>();
   readonly moveLeft = output<void>();
   readonly moveRight = output<void>();
   readonly duplicated = output<void>();
   readonly removed = output<void>();
+  /** Leave this stage out of the mode shown, or put it back. */
+  readonly leaveOut = output<boolean>();
 
   protected readonly severityWord = SEVERITY_WORD;
   /** Colleagues' comments (absent where no editor provides them, e.g. in tests of the strip). */

@@ -6,6 +6,7 @@ import type { StageInstance } from '../../../../../shared/schema/chain';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditFeedback } from '../state/edit-feedback';
 import { EditorStore } from '../state/editor.store';
+import { leftOutBy, overriddenKeys } from '../modes/mode-edits';
 import { StageCardComponent } from './stage-card.component';
 
 /**
@@ -52,6 +53,10 @@ import { StageCardComponent } from './stage-card.component';
             [readOnly]="readOnly()"
             [canMoveLeft]="movable(stage) && i > 1"
             [canMoveRight]="movable(stage) && i < stages().length - 2"
+            [modeName]="modeShown()?.name ?? null"
+            [overriddenCount]="overriddenCount(stage.id)"
+            [leftOut]="leftOutOf(stage.id)"
+            (leaveOut)="store.setLeftOut(stage.id, $event)"
             (picked)="store.select(stage.id)"
             (moveLeft)="feedback.report(store.moveBy(stage.id, -1))"
             (moveRight)="feedback.report(store.moveBy(stage.id, 1))"
@@ -111,6 +116,8 @@ export class StageStripComponent {
   readonly stages = input.required<StageInstance[]>();
   /** Viewers, and anyone looking at an old revision, cannot change the strip. */
   readonly readOnly = input(false);
+  /** Whether the cards mark the selected mode's values (not for an old revision). */
+  readonly showModes = input(true);
 
   protected readonly store = inject(EditorStore);
   protected readonly feedback = inject(EditFeedback);
@@ -125,6 +132,17 @@ export class StageStripComponent {
       (i: ChainIssue) => i.stageId ?? '',
     ),
   );
+
+  /** The mode whose marks the cards show: the selected one, unless a revision is shown. */
+  protected readonly modeShown = computed(() => (this.showModes() ? this.store.mode() : null));
+
+  protected overriddenCount(stageId: string): number {
+    return overriddenKeys(this.modeShown(), stageId).size;
+  }
+
+  protected leftOutOf(stageId: string): 'bypass' | 'path' | null {
+    return leftOutBy(this.modeShown(), stageId);
+  }
 
   protected typeOf(stage: StageInstance): StageTypeInfo | null {
     return this.store.catalogue().get(stage.type) ?? null;
