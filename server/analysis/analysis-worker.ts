@@ -67,9 +67,7 @@ export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
       ...(task.mode ? { mode: task.mode } : {}),
     });
     if (task.want === 'flag-count') {
-      const count = result.flags.filter(
-        (f) => f.severity === 'warning' || f.severity === 'error',
-      );
+      const count = result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error');
       return { kind: 'flag-count', count: count.length };
     }
     return { kind: 'answer', json: JSON.stringify(toDto(result, task)) };

@@ -152,7 +152,11 @@ export function sharedRouter(services: Services): Router {
     const modes: SharedModeDto[] = [];
     if (analysis && chain.document.modes?.length) {
       const byId = new Map(chain.document.modes.map((m) => [m.id, m]));
-      for (const entry of analyseModes(chain.document, { sweep: true, ...(dataFiles ? { dataFiles } : {}) })) { // prettier-ignore
+      for (const entry of analyseModes(chain.document, {
+        sweep: true,
+        ...(dataFiles ? { dataFiles } : {}),
+      })) {
+        // prettier-ignore
         const mode = byId.get(entry.modeId ?? '');
         if (!mode) continue;
         const head = { id: mode.id, name: mode.name, kind: mode.kind };

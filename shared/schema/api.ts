@@ -203,9 +203,9 @@ export interface RevisionDto extends RevisionSummaryDto {
 // ------------------------------------------------------------------ analysis
 /** A mode's id as the API takes it (the chain document's mode ids are slugs). */
 const modeIdField = z
-  .string({ error: 'mode must be the id of one of the chain\'s modes' })
-  .min(1, 'mode must be the id of one of the chain\'s modes')
-  .max(40, 'mode must be the id of one of the chain\'s modes (at most 40 characters)');
+  .string({ error: "mode must be the id of one of the chain's modes" })
+  .min(1, "mode must be the id of one of the chain's modes")
+  .max(40, "mode must be the id of one of the chain's modes (at most 40 characters)");
 
 export const analysisRequestSchema = z.object({
   document: chainDocumentSchema,
@@ -237,10 +237,7 @@ export type ModeAnalysisDto = {
   id: string | null;
   name: string;
   kind: 'receive' | 'transmit' | 'state';
-} & (
-  | { ok: true; result: AnalysisDto }
-  | { ok: false; message: string; issues: unknown[] }
-);
+} & ({ ok: true; result: AnalysisDto } | { ok: false; message: string; issues: unknown[] });
 
 /** POST /api/analysis with `allModes`, GET /api/chains/:id/analysis?modes=all. */
 export interface ModesAnalysisDto {

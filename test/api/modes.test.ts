@@ -92,12 +92,12 @@ describe('analysis in a mode', () => {
     for (const entry of res.body.modes) {
       const expected = analyzeChain(doc, { sweep: false, mode: entry.id });
       expect(entry.result.flags).toEqual(expected.flags);
-      expect(entry.result.sweep.frequencies).toHaveLength(doc.settings.sweep.points);
+      expect(entry.result.sweep.freqsHz).toHaveLength(doc.settings.sweep.points);
     }
     // A chain tuned an octave down peaks an octave down: its step-up at 0.5 MHz beats the
     // tuned chain's there (the sweep runs 0.5–2 MHz, log, so 0.5 MHz is the first point).
-    const lastNodeAtStart = (entry: { result: { sweep: { nodes: { stepUp: number[] }[] } } }) =>
-      entry.result.sweep.nodes.at(-1)!.stepUp[0];
+    const lastNodeAtStart = (entry: { result: { sweep: { stepUpDb: number[][] } } }) =>
+      entry.result.sweep.stepUpDb.at(-1)![0];
     expect(lastNodeAtStart(res.body.modes[1])).toBeGreaterThan(lastNodeAtStart(res.body.modes[0]));
   });
 

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
 
 /** Above a field the selected mode sets: says so, and offers the chain's own value back. */
 @Component({
@@ -12,7 +12,7 @@ import { ChangeDetectionStrategy, Component, input, output } from '@angular/core
         <button
           type="button"
           class="clear"
-          [attr.aria-label]="'Use the chain\\'s own ' + label() + ' in ' + modeName()"
+          [attr.aria-label]="clearLabel()"
           (click)="cleared.emit()"
         >
           Use the chain’s value
@@ -52,4 +52,7 @@ export class OverrideMarkComponent {
   readonly label = input.required<string>();
   readonly readOnly = input(false);
   readonly cleared = output<void>();
+  protected readonly clearLabel = computed(
+    () => `Use the chain’s own ${this.label()} in ${this.modeName()}`,
+  );
 }
