@@ -14,6 +14,7 @@ import { frequencyGrid } from './core/sweep';
 import { defaultCatalogue } from './default-catalogue';
 import { planChain, planFlags } from './planning';
 import { gangTuningOf, type GangTuning } from './planning/spur-chart-gang';
+import { analyseTransmit, isTrapResonance, judgeTraps, trapFlags } from './transmit';
 
 /** Version of the engine's methods, stored with saved results. */
 export const ENGINE_VERSION = '0.1.0';
@@ -42,7 +43,10 @@ export function analyzeBuilt(
   const sweepNa = runNodeAnalysis(built, grid, sharedWorkspace('sweep', built, grid.length));
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
-  const findings = analyzeResonators(built, sweepNa);
+  // A branch to ground is judged as a trap; the resonances it alone makes are not tanks.
+  const findings = analyzeResonators(built, sweepNa).filter((r) => !isTrapResonance(built, r));
+  const traps = judgeTraps(built, f0Na);
+  const transmit = built.mode?.kind === 'transmit' ? analyseTransmit(built, f0Na) : undefined;
   const image = imageFrequency(built, findMixer(built));
   const selectivity = analyzeSelectivity(built, sweepNa, image);
   const flags = raiseFlags({ built, f0Na, resonators: findings });
@@ -51,6 +55,7 @@ export function analyzeBuilt(
     ? planChain(built, { nodes, stages, selectivity, levels, tuning: options.tuning }, options.plan === 'full') // prettier-ignore
     : undefined;
   if (plan) flags.push(...planFlags(plan, built.load.id, built.settings.planning !== undefined));
+  flags.push(...trapFlags(traps), ...(transmit?.flags ?? []));
   const resonators = findings.map(
     ({ flat: _flat, fIn: _fIn, f0LocalHz: _f0, downstreamLabel: _down, name: _name, ...report }) =>
       report,
@@ -67,6 +72,8 @@ export function analyzeBuilt(
     ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa) }),
     ...(plan ? { plan } : {}),
     ...(built.mode ? { mode: built.mode } : {}),
+    ...(traps.length > 0 ? { traps } : {}),
+    ...(transmit ? { transmit: transmit.report } : {}),
     ...(built.chainCautions
       ? { cautions: built.chainCautions.map((caution) => ({ caution, message: `This chain ${CAUTION_TEXT[caution]}` })) } // prettier-ignore
       : {}),

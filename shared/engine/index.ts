@@ -54,6 +54,7 @@ export {
   analyseModes,
   chainInMode,
   hasModes,
+  insertStagesAfter,
   modeIds,
   modeValidationIssues,
   modeView,

@@ -3,6 +3,7 @@
  * resonators, selectivity, levels, flags, sweep). Re-exported by `types.ts`.
  */
 import type { PlanReport } from './planning/plan';
+import type { TransmitReport, TrapReport } from './transmit';
 
 export interface ComplexJson {
   re: number;
@@ -228,4 +229,8 @@ export interface AnalysisResult {
    * caution in every mode), each with its text.
    */
   cautions?: { caution: 'high-voltage' | 'transmit' | 'rf-exposure'; message: string }[];
+  /** Branches to ground judged at f0 (present when the chain has any). */
+  traps?: TrapReport[];
+  /** The transmit analysis (present in a transmit mode). */
+  transmit?: TransmitReport;
 }

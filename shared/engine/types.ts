@@ -212,12 +212,32 @@ export interface StageModelCommon {
   /** Matching networks: loaded Q the design needs versus what its parts have. */
   qBudget?: { required: number; componentQ: number };
   /**
+   * A branch to ground meant to block (present a high impedance) or pass (a low one) at f0:
+   * it is judged as such, against `ratio` times the impedance it shunts, not as a tank.
+   */
+  trap?: { intent: 'high' | 'low'; ratio: number; impedance: ComplexFn };
+  /**
+   * Parts hidden inside one section (a branch to ground): the voltage across and current
+   * through each, for a PEAK voltage (vRe, vIm) at the stage's input, at frequency f.
+   */
+  innerParts?: (f: number, vRe: number, vIm: number) => PartStress[];
+  /**
    * SPICE (ngspice) lines for the stage between nodes `inNode` and `outNode`
    * (ground is `0`). Element names must start with `prefix`. Undefined when SPICE
    * cannot express the stage. Sources write a voltage source named `${prefix}V`;
    * loads write only elements from `inNode` to ground.
    */
   spice?: (inNode: string, outNode: string, prefix: string) => string[];
+}
+
+/** One part's stress: PEAK volts across it, PEAK amperes through it, watts it takes. */
+export interface PartStress {
+  label: string;
+  vPeak: number;
+  iPeak: number;
+  powerW: number;
+  /** The part stands for the receiver's input (its power is what reaches the receiver). */
+  receiverInput?: boolean;
 }
 
 /** A built source: an open-circuit EMF behind an impedance. */

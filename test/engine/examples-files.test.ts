@@ -20,6 +20,7 @@ const TOP_LEVEL = [
   'description',
   'settings',
   'stages',
+  'modes',
   'variantOf',
 ];
 

@@ -5,6 +5,8 @@
  * designer reads (return loss, gain, noise figure, selectivity) is the chain's own answer.
  */
 import { analyzeChain } from '../analyze';
+import { defaultCatalogue } from '../default-catalogue';
+import { hasModes, modeView } from '../modes/apply-mode';
 import { StageParameterError } from '../errors';
 import type { ComplexJson } from '../types';
 import type { ChainDoc, DesignOptions, StageDoc } from './chain-edit';
@@ -153,6 +155,11 @@ export function matchHere(
   req: MatchHereRequest,
   options: DesignOptions = {},
 ): MatchHereResult {
+  if (hasModes(doc) || options.mode !== undefined) {
+    // Design in the mode's own chain (its path, its values); insert with insertStagesAfter.
+    const view = modeView(doc, options.mode, options.catalogue ?? defaultCatalogue());
+    return matchHere(view.doc as ChainDoc, req, { ...options, mode: undefined });
+  }
   const at = doc.stages.findIndex((s) => s.id === req.afterStageId);
   if (at < 0 || at >= doc.stages.length - 1) {
     throw new StageParameterError(

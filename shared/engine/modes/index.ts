@@ -10,6 +10,7 @@ import type { AnalysisResult } from '../types';
 import { buildChain, type BuildOptions, type ChainLike } from '../core/build';
 import { modeView, readModes } from './apply-mode';
 
+export { insertStagesAfter } from './edit';
 export {
   hasModes,
   issueInDocument,

@@ -1,12 +1,15 @@
 /**
  * Distributed and resistive elements: attenuator pad, transmission line, T/R switch.
  */
+import { StageParameterError } from '../errors';
 import type { StageDefinition } from '../types';
 import { enumParam, numParam, readParams, SpiceWriter, spiceNum } from './common';
 import { ladderSections, ladderSpice, type LadderElement } from './ladder';
 import { setAbcd, transmissionLineAbcd } from './primitives';
 
 const SPEED_OF_LIGHT = 299_792_458;
+/** Most loss a line may have at f0, dB: more leaves no signal to analyse. */
+const MAX_LINE_LOSS_DB = 250;
 /** dB per neper, 20·log10(e). */
 const DB_PER_NEPER = 20 / Math.LN10;
 
@@ -80,11 +83,15 @@ export const TRANSMISSION_LINE: StageDefinition = {
   label: 'Transmission line',
   summary: 'A length of cable or line: transforms impedance along its length and adds loss.',
   params: LINE_PARAMS,
-  build(values) {
+  build(values, ctx) {
     const p = readParams(LINE_PARAMS, values);
     const [z0, len, vf, loss, ref] = ['z0', 'length', 'vf', 'lossDbPerM', 'refHz'].map((k) =>
       p.num(k),
     );
+    const lossAtF0 = loss * Math.sqrt(ctx.f0Hz / ref) * len;
+    // Past this no figure of the chain is a number any more (the signal underflows).
+    if (lossAtF0 > MAX_LINE_LOSS_DB)
+      throw new StageParameterError('lossDbPerM', `the line would lose ${Math.round(lossAtF0)} dB at f0 (${loss} dB/m at ${ref} Hz, scaled with √f, over ${len} m); check the loss and its reference frequency`); // prettier-ignore
     const alphaRef = loss / DB_PER_NEPER; // Np/m at ref
     const delay = len / (vf * SPEED_OF_LIGHT);
     return {

@@ -18,6 +18,9 @@ import { LUMPED_ELEMENT, SERIES_LC, SHUNT_LC_TANK } from './lumped';
 import { DOUBLE_L_MATCH, PI_MATCH, T_MATCH, TAPPED_C_MATCH } from './matching-networks';
 import { MEASURED_TWO_PORT } from './measured-two-port';
 import { MIXER } from './mixer';
+import { POWER_AMPLIFIER } from './power-amplifier';
+import { RF_SWITCH } from './rf-switch';
+import { SHUNT_BRANCH } from './shunt-branch';
 import { withPlausibleRanges } from './plausibility';
 import { MEASURED_ANTENNA, RESISTIVE_GENERATOR, SHORT_MONOPOLE } from './sources';
 
@@ -28,6 +31,9 @@ export { mixerLoFrequency, mixerTranslate } from './mixer';
 export { shortMonopole } from './sources';
 export { padElements } from './elements';
 export { snrOfEnob } from './converter';
+export { paLoadLine } from './power-amplifier';
+export { offCapacitanceForIsolation } from './rf-switch';
+export { parseBranch, branchVectors } from './branch-parts';
 
 export { withPlausibleRange } from './plausibility';
 
@@ -39,6 +45,7 @@ export const STAGE_DEFINITIONS: StageDefinition[] = [
   RESISTIVE_GENERATOR,
   SHORT_MONOPOLE,
   MEASURED_ANTENNA,
+  POWER_AMPLIFIER,
   IDEAL_TRANSFORMER,
   COUPLED_COILS,
   TAPPED_COIL,
@@ -65,6 +72,8 @@ export const STAGE_DEFINITIONS: StageDefinition[] = [
   ATTENUATOR_PAD,
   TRANSMISSION_LINE,
   TR_SWITCH,
+  RF_SWITCH,
+  SHUNT_BRANCH,
 ].map(withPlausibleRanges);
 
 /** The definition of a type, or undefined. */
