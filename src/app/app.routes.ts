@@ -49,6 +49,11 @@ export const appRoutes: Routes = [
     loadComponent: () => import('./features/share/shared-chain.component'),
   },
   {
+    path: 'shared/:token/report',
+    title: 'Report · Chainwright',
+    loadComponent: () => import('./features/report/report-page.component'),
+  },
+  {
     path: 'welcome',
     title: 'Welcome · Chainwright',
     canActivate: [signedInGuard],
@@ -87,6 +92,11 @@ export const appRoutes: Routes = [
         title: 'Chain · Chainwright',
         loadComponent: () => import('./features/editor/chain-editor.component'),
         canDeactivate: [editorLeaveGuard],
+      },
+      {
+        path: 'chains/:chainId/report',
+        title: 'Report · Chainwright',
+        loadComponent: () => import('./features/report/report-page.component'),
       },
       {
         path: 'chains/:chainId/studies',

@@ -11,6 +11,7 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { Title } from '@angular/platform-browser';
+import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { AnalysisResult } from '../../../../shared/engine/types';
 import type { SharedChainDto } from '../../../../shared/schema/api';
@@ -31,6 +32,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
   imports: [
     MatButtonModule,
     MatButtonToggleModule,
+    RouterLink,
     AnalysisResultsComponent,
     CautionBannerComponent,
   ],
@@ -55,6 +57,12 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
         </div>
         <span class="cw-spacer"></span>
         <nav class="exports" aria-label="Exports">
+          <a
+            mat-stroked-button
+            data-testid="open-report"
+            [routerLink]="['/shared', token(), 'report']"
+            >Report</a
+          >
           <a mat-stroked-button [href]="exportUrl('json', false)" download>Chain file</a>
           <a mat-stroked-button [href]="exportUrl('spice')" download>SPICE netlist</a>
           <a mat-stroked-button [href]="exportUrl('touchstone')" download>Touchstone</a>

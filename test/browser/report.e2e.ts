@@ -1,0 +1,181 @@
+/**
+ * The printable report end to end: from the editor's Report button (a new tab) on the
+ * long-wave loop example, whose detector loads its tank so it has flags, printed to PDF
+ * by Chromium in A4 and in Letter; the PDF's text is read back with poppler's pdftotext
+ * and its page size with pdfinfo (Debian's poppler-utils, installed by scripts/test.sh).
+ * The PDF must hold the chain's name, every flag sentence of an analysis asked of the API
+ * on its own, and a budget figure. Then the same report from a read-only link, signed
+ * out, and the flags table downloaded as CSV under its export name.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import type { AnalysisResult } from '../../shared/engine/types';
+import type { ChainDto } from '../../shared/schema/api';
+import { formatEngineering } from '../../shared/units/format';
+import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+
+const CHAIN = 'Long-wave time signal, ferrite loop into a diode detector';
+const STEM = 'long-wave-time-signal-ferrite-loop-into-a-diode-detector';
+const OUT = join(process.cwd(), 'test-results');
+
+/** Calls the API as the signed-in user of `page` (session cookie and its CSRF token). */
+async function api<T>(page: Page, method: 'get' | 'post', url: string, data?: unknown): Promise<T> {
+  const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
+  const res = await page.request.fetch(url, { method, data, headers: { 'x-csrf-token': token } });
+  if (!res.ok()) throw new Error(`${method} ${url}: ${res.status()} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
+/** Text of a PDF as poppler reads it, with runs of white space made single spaces. */
+function pdfText(file: string): string {
+  const run = spawnSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' });
+  if (run.status !== 0) throw new Error(`pdftotext failed: ${run.stderr || run.error}`);
+  return flat(run.stdout);
+}
+
+/** The first page's size in points, from pdfinfo. */
+function pdfPageSize(file: string): { width: number; height: number } {
+  const run = spawnSync('pdfinfo', [file], { encoding: 'utf8' });
+  const match = /Page size:\s+([\d.]+) x ([\d.]+) pts/.exec(run.stdout);
+  if (!match) throw new Error(`pdfinfo gave no page size: ${run.stdout}${run.stderr}`);
+  return { width: Number(match[1]), height: Number(match[2]) };
+}
+
+/** NFKC too: it folds ligatures, and the micro sign µ into the Greek μ the PDF font maps. */
+const flat = (text: string) => text.normalize('NFKC').replace(/\s+/g, ' ').trim();
+
+/** Waits until the report's plots are drawn (or it has none), so the PDF holds them. */
+async function reportReady(page: Page): Promise<void> {
+  await page.locator('article.sheet[data-plots="ready"]').waitFor({ timeout: 60000 });
+}
+
+async function printPdf(page: Page, name: string): Promise<string> {
+  mkdirSync(OUT, { recursive: true });
+  const file = join(OUT, `${name}.pdf`);
+  // The page's own @page rule sets the paper, as the browser's print dialog would take it.
+  writeFileSync(file, await page.pdf({ preferCSSPageSize: true, printBackground: true }));
+  return file;
+}
+
+describe('printable report', () => {
+  let browser: Browser;
+  let watched: WatchedPage;
+  let chain: ChainDto;
+  let analysis: AnalysisResult;
+  let reportUrl: string;
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+    watched = await openPage(browser);
+  });
+  afterAll(async () => {
+    await watched?.context.close();
+    await browser?.close();
+  });
+
+  it('should open from the editor in a new tab and print to an A4 PDF with every flag', async () => {
+    const { page, context } = watched;
+    await signIn(page, DEMO.editor, DEMO.password);
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.getByRole('link', { name: CHAIN }).first().click();
+    await page.waitForURL(/\/chains\/[^/]+$/);
+    const chainId = page.url().split('/').pop()!;
+
+    // The analysis the report must show, asked of the API on its own.
+    chain = await api<ChainDto>(page, 'get', `/api/chains/${chainId}`);
+    analysis = await api<AnalysisResult>(page, 'post', '/api/analysis', {
+      document: chain.document,
+      sweep: true,
+      workspaceId: chain.workspaceId,
+    });
+    expect(analysis.flags.length).toBeGreaterThan(0);
+
+    const [tab] = await Promise.all([
+      context.waitForEvent('page'),
+      page.getByTestId('open-report').click(),
+    ]);
+    await tab.waitForURL(/\/chains\/[^/]+\/report$/);
+    reportUrl = tab.url();
+    await reportReady(tab);
+    await tab.getByRole('radio', { name: 'A4' }).click();
+    expect(await tab.title()).toBe(`${STEM}_50ohm_report`);
+    await expect(tab.getByRole('heading', { level: 1 }).textContent()).resolves.toBe(CHAIN);
+    await shot(tab, 'report-01-a4');
+
+    const file = await printPdf(tab, 'report-a4');
+    const size = pdfPageSize(file);
+    // A4 is 210 × 297 mm = 595.28 × 841.89 pt (ISO 216).
+    expect(size.width).toBeCloseTo(595.28, 0);
+    expect(size.height).toBeCloseTo(841.89, 0);
+    const text = pdfText(file);
+    expect(text).toContain(CHAIN);
+    for (const flag of analysis.flags) expect(text).toContain(flat(flag.message));
+    // A budget figure: the rms voltage at the detector's input node, as the budget writes it.
+    const last = analysis.nodes[analysis.nodes.length - 1];
+    expect(text).toContain(flat(`${formatEngineering(last.vRms, 'volt')} rms`));
+    expect(text).toContain('Cautions');
+    expect(text).toContain('licensed practice');
+    await tab.close();
+  });
+
+  it('should print on Letter when Letter is chosen, and remember the choice', async () => {
+    const tab = await watched.context.newPage();
+    await tab.goto(reportUrl);
+    await reportReady(tab);
+    await tab.getByRole('radio', { name: 'Letter' }).click();
+    await shot(tab, 'report-02-letter');
+    const file = await printPdf(tab, 'report-letter');
+    // US Letter is 8.5 × 11 in = 612 × 792 pt.
+    expect(pdfPageSize(file)).toEqual({ width: 612, height: 792 });
+    expect(pdfText(file)).toContain(CHAIN);
+
+    await tab.reload();
+    await reportReady(tab);
+    await expect(
+      tab.getByRole('radio', { name: 'Letter' }).getAttribute('aria-checked'),
+    ).resolves.toBe('true');
+    await tab.getByRole('radio', { name: 'A4' }).click();
+    await tab.close();
+  });
+
+  it('should download the flags as CSV named after the chain and its reference', async () => {
+    const { page } = watched;
+    await page.getByRole('tab', { name: /^Flags/ }).click();
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      page.getByRole('button', { name: 'Download CSV: flags' }).click(),
+    ]);
+    expect(download.suggestedFilename()).toBe(`${STEM}_50ohm_flags.csv`);
+    const csv = readFileSync((await download.path())!, 'utf8');
+    expect(csv.split('\r\n')[0]).toBe('\uFEFFSeverity,Stage,Code,Message');
+    for (const flag of analysis.flags) expect(csv).toContain(flag.message.replace(/"/g, '""'));
+  });
+
+  it('should print the same report from a read-only link, signed out', async () => {
+    const link = await api<{ url: string }>(
+      watched.page,
+      'post',
+      `/api/chains/${chain.id}/share-links`,
+      {},
+    );
+    const token = new URL(link.url).pathname.split('/').pop()!;
+    const visitor = await openPage(browser);
+    try {
+      await visitor.page.goto(`/shared/${token}`);
+      await visitor.page.getByTestId('open-report').click();
+      await visitor.page.waitForURL(/\/shared\/[^/]+\/report$/);
+      await reportReady(visitor.page);
+      await shot(visitor.page, 'report-03-shared');
+      const text = pdfText(await printPdf(visitor.page, 'report-shared'));
+      expect(text).toContain(CHAIN);
+      expect(text).toContain('read-only link');
+      for (const flag of analysis.flags) expect(text).toContain(flat(flag.message));
+      expect(visitor.problems).toEqual([]);
+    } finally {
+      await visitor.context.close();
+    }
+    expect(watched.problems).toEqual([]);
+  });
+});
