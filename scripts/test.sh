@@ -37,6 +37,8 @@ missing=()
 # Fonts too: without recommended packages Chromium would have none to lay text out with.
 command -v chromium >/dev/null || missing+=(chromium fonts-liberation fonts-dejavu-core)
 command -v ngspice >/dev/null || missing+=(ngspice)
+# The report's browser test reads the printed PDF back with poppler's pdftotext and pdfinfo.
+command -v pdftotext >/dev/null || missing+=(poppler-utils)
 if [ ${#missing[@]} -gt 0 ]; then
   step "Installing ${missing[*]} from Debian"
   apt_install "${missing[@]}"
