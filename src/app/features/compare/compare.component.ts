@@ -27,6 +27,9 @@ import { compareRows, type CompareVariant } from './compare-rows';
 import { returnLossOverlay, stepUpOverlay } from './compare-traces';
 import { entryKey, parseChainIds, parseEntry, MAX_COMPARED } from './compare-ids';
 import { documentForResults, findMode } from '../editor/modes/mode-edits';
+import { compareFiguresCsv, stageDiffCsv } from './compare-csv';
+import { chainReferenceOhm, exportFileName } from '../../../../shared/io/export-name';
+import { CsvButtonComponent } from '../report/csv-button.component';
 
 /** One loaded variant (a chain, or one mode of it): the chain and its analysis, or why either failed. */
 interface Loaded {
@@ -53,6 +56,7 @@ import { stageDiffRows } from './stage-diff';
     MatSelectModule,
     MatProgressBarModule,
     ResultPlotComponent,
+    CsvButtonComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './compare.component.html',
@@ -159,6 +163,21 @@ export default class CompareComponent {
   protected readonly returnLossPlot = computed(() =>
     returnLossOverlay(this.variants(), this.plotOptions()),
   );
+  /** CSV of the key figures and of the differing stages, run when a button is pressed. */
+  protected readonly csv = {
+    figures: () => [compareFiguresCsv(this.variants(), this.rows())],
+    stages: () => [stageDiffCsv(this.variants(), this.stageDiffs())],
+  };
+  protected csvName(content: string): string {
+    const first = this.loaded().find((l) => l.chain)?.chain;
+    return exportFileName({
+      chainName: this.rootName() || first?.name || 'chain',
+      referenceOhm: first ? chainReferenceOhm(first.document.settings) : undefined,
+      content,
+      extension: 'csv',
+    });
+  }
+
   protected readonly fileStem = computed(() =>
     (this.rootName() || 'chain')
       .toLowerCase()
