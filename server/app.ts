@@ -17,6 +17,7 @@ import {
 } from './auth/session';
 import { chainsRouter, examplesRouter, workspaceChainsRouter } from './chains/routes';
 import { dataFilesRouter } from './files/routes';
+import { partsRouter } from './parts/routes';
 import { chainStudiesRouter } from './studies/routes';
 import { studyLimitsFromEnv } from './studies/limits';
 import { apiNotFound, errorHandler } from './common/error-handler';
@@ -112,6 +113,7 @@ export function createApp(services: Services): Express {
   app.use('/api/shared', sharedRouter(services));
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
   app.use('/api/workspaces', dataFilesRouter(em));
+  app.use('/api/workspaces', partsRouter(em));
   app.use('/api/chains', chainsRouter(em));
   app.use('/api/chains', chainAnalysisRouter(em));
   app.use('/api/chains', chainExportRouter(em));

@@ -8,6 +8,7 @@ import { ShareLinkSchema } from '../sharing/share-link.entity';
 import { InvitationSchema } from '../workspaces/invitation.entity';
 import { ChainRevisionSchema } from '../chains/revision.entity';
 import { DataFileSchema } from '../files/data-file.entity';
+import { PartSchema } from '../parts/part.entity';
 import { RateLimitHitSchema } from './rate-limit-hit.entity';
 import { StudySchema } from '../studies/study.entity';
 import { SiteSettingSchema } from '../users/site-setting.entity';
@@ -24,6 +25,7 @@ export const ENTITIES = [
   ChainSchema,
   ChainRevisionSchema,
   DataFileSchema,
+  PartSchema,
   RateLimitHitSchema,
   StudySchema,
   InvitationSchema,

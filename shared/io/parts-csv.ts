@@ -122,6 +122,19 @@ export function readPartsCsv(text: string, mapping?: ColumnMapping): PartsCsv {
   return { headers, mapping: map, parts };
 }
 
+/**
+ * The header line alone and the mapping it suggests, so a preview can offer the columns
+ * even when a row further down cannot be read yet.
+ * @throws PartsCsvError when the text has no readable header line
+ */
+export function readPartsHeaders(text: string): { headers: string[]; mapping: ColumnMapping } {
+  const head = text.replace(/^\uFEFF/, '').slice(0, 64 * 1024);
+  const firstRows = splitRows(head.split(/\r\n|\r|\n/).find((l) => l.trim() !== '') ?? '');
+  if (firstRows.length === 0) throw new PartsCsvError(1, 'the list is empty; its first line names the columns'); // prettier-ignore
+  const headers = firstRows[0].cells.map((h) => h.trim());
+  return { headers, mapping: guessMapping(headers) };
+}
+
 function checkMapping(map: ColumnMapping, headers: string[], line: number): void {
   for (const [field, col] of Object.entries(map)) {
     if (col === undefined) continue;

@@ -20,6 +20,17 @@ const positive = (what: string) => finite(what).refine((v) => v > 0, `${what} mu
 
 export const paramValueSchema = z.union([z.number(), z.string().max(200), z.boolean()]);
 
+/** A stage value taken from a part in the workspace's parts bin. */
+export const partRefSchema = z.object({
+  partId: z.string().max(64),
+  partNumber: z.string().max(100).default(''),
+  /** The part's Q and the frequency it holds at, and its tolerance, as picked. */
+  q: z.number().positive().optional(),
+  qFreqHz: z.number().positive().optional(),
+  tolerancePct: z.number().min(0).max(100).optional(),
+});
+export type PartRef = z.infer<typeof partRefSchema>;
+
 export const stageInstanceSchema = z.object({
   /** Stable id within the chain (used by flags, comments and the editor). */
   id: z.string().min(1).max(64),
@@ -34,6 +45,11 @@ export const stageInstanceSchema = z.object({
   tolerances: z.record(z.string(), z.number().min(0).max(100)).optional(),
   /** Id of an attached data file (Touchstone, parts list), when the type takes one. */
   dataFileId: z.string().max(64).optional(),
+  /**
+   * Values picked from the workspace's parts bin, per value key: which part, and the Q and
+   * tolerance it brought (copied into the stage's Q value and `tolerances` when picked).
+   */
+  parts: z.record(z.string(), partRefSchema).optional(),
 });
 export type StageInstance = z.infer<typeof stageInstanceSchema>;
 

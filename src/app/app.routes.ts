@@ -114,6 +114,11 @@ export const appRoutes: Routes = [
         loadComponent: () => import('./features/activity/activity.component'),
       },
       {
+        path: 'parts',
+        title: 'Parts bin · Chainwright',
+        loadComponent: () => import('./features/parts/parts-bin.component'),
+      },
+      {
         path: 'members',
         title: 'Members · Chainwright',
         loadComponent: () => import('./features/members/members.component'),

@@ -8,6 +8,7 @@ import { createChain } from '../../server/chains/chain-store';
 import { newToken } from '../../server/auth/tokens';
 import { CommentSchema } from '../../server/comments/comment.entity';
 import { DataFileSchema } from '../../server/files/data-file.entity';
+import { PartSchema } from '../../server/parts/part.entity';
 import { StudySchema } from '../../server/studies/study.entity';
 import { ShareLinkSchema } from '../../server/sharing/share-link.entity';
 import { InvitationSchema } from '../../server/workspaces/invitation.entity';
@@ -38,6 +39,8 @@ interface Fixture {
   targetUserId: string;
   /** A one-port data file in the workspace, used by no chain. */
   fileId: string;
+  /** A capacitor in the workspace's parts bin. */
+  partId: string;
   /** A finished study and a running one of the chain. */
   doneStudyId: string;
   runningStudyId: string;
@@ -70,6 +73,7 @@ const BAND_SPEC = {
   points: 51,
 };
 const ONE_PORT = '# MHz S RI R 50\n0.5 0.2 -0.3\n2.0 0.1 -0.5\n';
+const PARTS_CSV = 'Part number,Value,Q,Q at,Tolerance\nL-10U,10 uH,70,2 MHz,10\n';
 const readers = (ok: number): Record<Caller, number> => ({
   anonymous: 401,
   viewer: ok,
@@ -557,6 +561,32 @@ const ROWS: Row[] = [
     expect: editors(204),
   },
   {
+    name: 'list parts',
+    method: 'get',
+    url: (f) => `/api/workspaces/${f.wid}/parts`,
+    expect: readers(200),
+  },
+  {
+    name: 'preview parts list',
+    method: 'post',
+    url: (f) => `/api/workspaces/${f.wid}/parts/preview`,
+    body: () => ({ text: PARTS_CSV }),
+    expect: editors(200),
+  },
+  {
+    name: 'import parts list',
+    method: 'post',
+    url: (f) => `/api/workspaces/${f.wid}/parts/import`,
+    body: () => ({ text: PARTS_CSV }),
+    expect: editors(201),
+  },
+  {
+    name: 'delete part',
+    method: 'delete',
+    url: (f) => `/api/workspaces/${f.wid}/parts/${f.partId}`,
+    expect: editors(204),
+  },
+  {
     name: 'export',
     method: 'post',
     url: () => '/api/export',
@@ -622,6 +652,18 @@ async function freshFixture(): Promise<Fixture> {
     fMaxHz: 2e6,
     uploadedBy: owner,
   });
+  const part = em.create(PartSchema, {
+    workspace: ws,
+    partNumber: 'C-100P',
+    kind: 'capacitor',
+    value: 100e-12,
+    q: 500,
+    qFreqHz: 10e6,
+    tolerancePct: 5,
+    notes: '',
+    sourceLine: 2,
+    uploadedBy: owner,
+  });
   const study = (status: 'done' | 'running') =>
     em.create(StudySchema, {
       chain,
@@ -660,6 +702,7 @@ async function freshFixture(): Promise<Fixture> {
     chainVersion: chain.version,
     targetUserId: target.id,
     fileId: file.id,
+    partId: part.id,
     doneStudyId: done.id,
     runningStudyId: running.id,
     invitationId: invitation.id,

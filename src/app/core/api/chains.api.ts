@@ -6,6 +6,7 @@ import type { AnalysisResult } from '../../../../shared/engine/types';
 import { analysisFromDto, type AnalysisDto } from '../../../../shared/schema/sweep-columns';
 import type {
   ChainDto,
+  ChainImportDto,
   ChainFamilyDto,
   ChainListDto,
   createChainSchema,
@@ -40,6 +41,20 @@ export class ChainsApi {
     return this.http.post<ChainDto>(`/api/workspaces/${enc(workspaceId)}/chains`, body, {
       context,
     });
+  }
+
+  /** Imports an exported chain file's text; refusals (413/422) name the line or field. */
+  importFile(
+    workspaceId: string,
+    text: string,
+    fileName: string,
+    context?: HttpContext,
+  ): Observable<ChainImportDto> {
+    return this.http.post<ChainImportDto>(
+      `/api/workspaces/${enc(workspaceId)}/chains/import`,
+      { text, fileName },
+      { context },
+    );
   }
 
   get(chainId: string, context?: HttpContext): Observable<ChainDto> {

@@ -1,4 +1,5 @@
 import { DatePipe } from '@angular/common';
+import { HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
@@ -26,6 +27,7 @@ import type { ChainListDto, ChainSummaryDto } from '../../../../shared/schema/ap
 import { formatEngineering } from '../../../../shared/units/format';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
+import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { SessionStore } from '../../core/session/session.store';
 import { compareQueryOf, inFamily } from '../compare/compare-entry';
 import { ChainActions } from './chain-actions';
@@ -163,6 +165,32 @@ export default class ChainListComponent {
 
   protected open(chain: ChainSummaryDto): void {
     void this.router.navigate(['/w', chain.workspaceId, 'chains', chain.id]);
+  }
+
+  /** Why the last chain file was refused (its line and column or field), or ''. */
+  protected readonly importRefusal = signal('');
+
+  /** Imports an exported `.chain.json` and opens the new chain. */
+  protected async importFile(event: Event): Promise<void> {
+    const inputEl = event.target as HTMLInputElement;
+    const file = inputEl.files?.[0];
+    inputEl.value = '';
+    if (!file) return;
+    this.importRefusal.set('');
+    try {
+      const text = await file.text();
+      const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [413, 422]);
+      const done = await firstValueFrom(
+        this.api.importFile(this.workspaceId(), text, file.name, context),
+      );
+      void this.router.navigate(['/w', done.chain.workspaceId, 'chains', done.chain.id]);
+    } catch (err) {
+      const message =
+        err instanceof HttpErrorResponse && typeof err.error?.message === 'string'
+          ? (err.error.message as string)
+          : describeHttpError(err);
+      this.importRefusal.set(`The chain file was not imported: ${message}`);
+    }
   }
 
   protected async create(): Promise<void> {

@@ -87,7 +87,7 @@ describe('DataFileFieldComponent', () => {
     const input = (fixture.nativeElement as HTMLElement).querySelector<HTMLInputElement>(
       'input[type=file]',
     )!;
-    expect(input.accept).toBe('.s1p,.s2p');
+    expect(input.accept).toBe('.s1p,.s2p,.ts'); // .ts: a Touchstone 2.0 file
     expect(input.hidden).toBe(true);
   });
 

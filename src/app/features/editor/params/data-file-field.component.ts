@@ -57,7 +57,7 @@ const UPLOAD = '__upload';
     <input
       #fileInput
       type="file"
-      accept=".s1p,.s2p"
+      accept=".s1p,.s2p,.ts"
       hidden
       data-testid="data-file-input"
       (change)="onFile($event)"

@@ -19,6 +19,9 @@ import { OverrideMarkComponent } from '../modes/override-mark.component';
 import { CoilTurnsComponent } from '../design/coil-turns.component';
 import { DATA_FILE_KIND_OF_TYPE, DataFileFieldComponent } from './data-file-field.component';
 import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
+import type { PartDto } from '../../../../../shared/schema/api';
+import { PartPickComponent } from '../../parts/part-pick.component';
+import { withoutPart, withPart } from '../../parts/with-part';
 
 /**
  * The form for the selected stage, built from its type's parameter schema: unit-aware
@@ -36,6 +39,7 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
     MatButtonModule,
     CoilTurnsComponent,
     OverrideMarkComponent,
+    PartPickComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './param-panel.component.html',
@@ -101,7 +105,14 @@ export class ParamPanelComponent {
   }
 
   protected onNumber(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
-    this.store.updateStage(withValue(stage, spec.key, edit.value, edit.text), spec.key);
+    // A typed value is no longer the bin's part.
+    const own = withoutPart(stage, spec.key);
+    this.store.updateStage(withValue(own, spec.key, edit.value, edit.text), spec.key);
+  }
+
+  /** Takes a part from the bin: its value, and its Q and tolerance with it. */
+  protected onPart(stage: StageInstance, spec: ParamSpec, part: PartDto): void {
+    this.store.updateStage(withPart(stage, spec, this.type()?.params ?? [], part));
   }
 
   protected onTolerance(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
