@@ -264,6 +264,13 @@ export const modeSchema = z.object({
   values: z.record(z.string().max(64), z.record(z.string().max(64), paramValueSchema)).optional(),
   /** Stages left out in this mode, by id. */
   bypass: z.array(z.string().max(64)).max(64).optional(),
+  /**
+   * Settings this mode changes: its own design frequency and sweep (a band of a band-switched
+   * receiver). Absent: the chain's.
+   */
+  settings: z
+    .object({ f0Hz: positive('design frequency').optional(), sweep: sweepSchema.optional() })
+    .optional(),
   /** The stages of this mode in order, by id (first a source, last a load); absent: all. */
   path: z.array(z.string().max(64)).min(2, 'a mode path needs at least a source and a load').max(64).optional(), // prettier-ignore
 });

@@ -124,7 +124,12 @@ export function modeView<D extends ModalChainLike>(
         : undefined;
     return { ...st, values, ...(entered ? { entered } : {}) };
   });
-  return { doc: { ...rest, stages: modeStages }, mode, modeIndex, documentIndex };
+  const own = mode.settings;
+  const settings =
+    own && doc.settings && typeof doc.settings === 'object'
+      ? { ...(doc.settings as Record<string, unknown>), ...own }
+      : doc.settings;
+  return { doc: { ...rest, settings, stages: modeStages }, mode, modeIndex, documentIndex };
 }
 
 /** Every reference problem of the modes (all modes, not only the one analysed). */
