@@ -4,6 +4,7 @@
  */
 import type { AnalysisResult, StageDefinition } from './types';
 import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
+import { assertFiniteFigures } from './core/finite-figures';
 import { CAUTION_TEXT, raiseFlags } from './core/flags';
 import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
@@ -31,7 +32,10 @@ export interface AnalyzeOptions extends BuildOptions {
   catalogue?: readonly StageDefinition[];
 }
 
-/** Analyses an already built chain (for callers that build once and analyse many times). */
+/**
+ * Analyses an already built chain (for callers that build once and analyse many times).
+ * @throws ChainValidationError when a figure every chain has is not finite (finite-figures.ts)
+ */
 export function analyzeBuilt(
   builtAsGiven: BuiltChain,
   options: { sweep?: boolean; plan?: boolean | 'full'; tuning?: GangTuning | null } = {},
@@ -60,7 +64,7 @@ export function analyzeBuilt(
     ({ flat: _flat, fIn: _fIn, f0LocalHz: _f0, downstreamLabel: _down, name: _name, ...report }) =>
       report,
   );
-  return {
+  const result: AnalysisResult = {
     engineVersion: ENGINE_VERSION,
     f0Hz,
     nodes,
@@ -78,6 +82,8 @@ export function analyzeBuilt(
       ? { cautions: built.chainCautions.map((caution) => ({ caution, message: `This chain ${CAUTION_TEXT[caution]}` })) } // prettier-ignore
       : {}),
   };
+  assertFiniteFigures(built, result);
+  return result;
 }
 
 /**

@@ -278,6 +278,12 @@ export type StageModel = ModelOfRole[StageRole];
 export interface BuildContext {
   /** Design frequency of the chain at the stage's input (translated after a mixer). */
   f0Hz: number;
+  /**
+   * Highest frequency at the stage's input that the analysis may evaluate (the sweep and the
+   * resonance searches, translated like f0), Hz; an upper bound. Optional: builders that
+   * compute something which grows with frequency check it here (a lossy line's loss).
+   */
+  fMaxHz?: number;
   temperatureK: number;
   /**
    * The stage's attached data file, parsed (measured antenna: one-port; measured two-port:

@@ -32,6 +32,9 @@ describe('formatEngineering', () => {
       [1e-4, 'volt-per-metre', '100 µV/m'],
       [3.1831e-9, 'farad', '3.18 nF'],
       [2e-16, 'farad', '0.2 fF'],
+      [1e99, 'farad', '1e99 F'],
+      [5e-324, 'ohm', '5e-324 Ω'],
+      [-2e15, 'ohm', '-2e15 Ω'],
     ])('should write %p %s as "%s"', (value, kind, text) => {
       expect(formatEngineering(value, kind)).toBe(text);
     });

@@ -30,6 +30,11 @@ export function formatEngineering(value: number, unitKind: UnitKind, digits = 3)
   if (Number.isNaN(value)) return '—';
   if (!Number.isFinite(value)) return join(value > 0 ? '∞' : '-∞', info.symbol);
   if (!info.prefixed) return join(roundSignificant(value, digits), info.symbol);
+  // Far outside the prefixes (a 1e99 F slip, a 5e-324 Ω value): plain exponent form, not
+  // "1e87 TF".
+  const magnitude = Math.abs(value);
+  if (magnitude !== 0 && (magnitude < 1e-18 || magnitude >= 1e15))
+    return join(roundSignificant(value, digits), info.symbol);
   const [mantissa, prefix] = scaleToPrefix(value, digits);
   return join(roundSignificant(mantissa, digits), prefix + info.symbol);
 }

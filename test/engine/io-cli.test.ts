@@ -135,7 +135,7 @@ describe('analyze CLI', () => {
     const lines = err.trimEnd().split('\n');
     expect(lines[0]).toMatch(/invalid-values\.json: 2 problem\(s\) in the chain:$/);
     expect(lines[1]).toMatch(
-      /^ {2}stages\[0\]\.values\.r: Stage 1 .*\(resistive-generator\): source resistance must be above 0/,
+      /^ {2}stages\[0\]\.values\.r: Stage 1 .*\(resistive-generator\): source resistance must be from 1 µΩ up to 1 TΩ/,
     );
     expect(lines[2]).toMatch(
       /^ {2}stages\[1\]\.values\.l: Stage 2 .*\(shunt-lc-tank\): inductance must be a number/,

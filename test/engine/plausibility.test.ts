@@ -40,7 +40,34 @@ describe('hard and typical ranges of every parameter', () => {
     expect(error).toBeInstanceOf(ChainValidationError);
     const [issue] = (error as ChainValidationError).issues;
     expect(issue).toMatchObject({ stageId: 't', param: 'c', path: ['stages', 1, 'values', 'c'] });
-    expect(issue.message).toMatch(/^Stage 2 "Tank" \(shunt-lc-tank\): capacitance must be above 0 F up to 10 kF/); // prettier-ignore
+    expect(issue.message).toMatch(/^Stage 2 "Tank" \(shunt-lc-tank\): capacitance must be from 0\.1 fF up to 10 kF \(got 1e99 F\)/); // prettier-ignore
+  });
+
+  it('a value just above 0 is refused at the unit floor: 5e-324 Ω is no resistor', () => {
+    const doc = tank(1e-9);
+    doc.stages[0].values = { r: 5e-324 } as never;
+    let error: unknown;
+    try {
+      analyzeChain(doc);
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(ChainValidationError);
+    const [issue] = (error as ChainValidationError).issues;
+    expect(issue).toMatchObject({ stageId: 'g', param: 'r' });
+    expect(issue.message).toMatch(/source resistance must be from 1 µΩ up to 1 TΩ \(got 5e-324 Ω\)/); // prettier-ignore
+  });
+
+  it.each(
+    STAGE_DEFINITIONS.flatMap((d) =>
+      d.params
+        .filter((p) => p.kind === 'number' && p.min !== undefined && p.min > 0 && p.min < 1e-3)
+        .map((p) => [`${d.type}.${p.key}`, p] as const),
+    ),
+  )('%s: a floor below its typical range and its default', (_k, p) => {
+    expect(p.exclusiveMin).not.toBe(true);
+    expect(p.min!).toBeLessThanOrEqual(p.typical?.min ?? (p.default as number));
+    expect(p.min!).toBeLessThanOrEqual(p.default as number);
   });
 
   it('a 2.2 kF "capacitor" (typed 2.2k) is analysed with a warning naming the typical range', () => {

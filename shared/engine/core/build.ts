@@ -73,6 +73,9 @@ export interface ModeRef {
 /** A section whose block form is always there. */
 export type FilledSection = Section & { fill: AbcdFill };
 
+/** Lowest input frequency behind a mixer that the bound of the evaluated range considers. */
+const MIN_TRANSLATED_HZ = 1e-3;
+
 /** The loose shape accepted from callers (a parsed ChainDocument or one before defaults). */
 export interface ChainLike {
   settings?: unknown;
@@ -366,8 +369,12 @@ function buildAsWritten(
   });
   if (issues.length > 0 || !settings) throw new ChainValidationError(issues);
 
-  // Build in order, carrying the design frequency through frequency-translating sections.
+  // Build in order, carrying the design frequency through frequency-translating sections,
+  // and an upper bound of the frequencies evaluated: the searches look up to twice the wider
+  // of the sweep and the 2·f0 search range (a detached tank within a factor 2 of its loaded
+  // resonance). Behind a mixer |f − LO| or f + LO peaks at an end of the input range.
   let f0 = settings.f0Hz;
+  let fMax = 2 * Math.max(settings.sweep.stopHz, 2 * settings.f0Hz);
   const built: BuiltStage[] = [];
   const f0Flat: number[] = [];
   let flat = 0;
@@ -386,7 +393,10 @@ function buildAsWritten(
     }
     // A stage built before from the same inputs is taken over (see BuildOptions.like).
     const same =
-      like && !fileId && like.settings.temperatureK === settings.temperatureK
+      like &&
+      !fileId &&
+      like.settings.temperatureK === settings.temperatureK &&
+      like.settings.sweep.stopHz === settings.sweep.stopHz // the same fMaxHz
         ? sameStage(like, index, st.id as string, def, values, f0)
         : null;
     try {
@@ -394,6 +404,7 @@ function buildAsWritten(
         same ??
         def.build(values, {
           f0Hz: f0,
+          fMaxHz: fMax,
           temperatureK: settings.temperatureK,
           ...(dataFile ? { dataFile } : {}),
         });
@@ -434,7 +445,10 @@ function buildAsWritten(
     for (let k = 0; k < count; k++) {
       f0Flat.push(f0);
       const tr = sections[k].translate;
-      if (tr) f0 = tr(f0);
+      if (tr) {
+        f0 = tr(f0);
+        fMax = Math.max(tr(MIN_TRANSLATED_HZ), tr(fMax));
+      }
     }
     flat += count;
   });

@@ -2,16 +2,23 @@
  * Distributed and resistive elements: attenuator pad, transmission line, T/R switch.
  */
 import { StageParameterError } from '../errors';
+import { formatNumber, formatQuantity } from '../core/format';
 import type { StageDefinition } from '../types';
 import { enumParam, numParam, readParams, SpiceWriter, spiceNum } from './common';
 import { ladderSections, ladderSpice, type LadderElement } from './ladder';
 import { setAbcd, transmissionLineAbcd } from './primitives';
 
 const SPEED_OF_LIGHT = 299_792_458;
-/** Most loss a line may have at f0, dB: more leaves no signal to analyse. */
-const MAX_LINE_LOSS_DB = 250;
 /** dB per neper, 20·log10(e). */
 const DB_PER_NEPER = 20 / Math.LN10;
+/**
+ * Most loss along one line the analysis takes, dB (our rule). cosh(γl) grows as e^(αl): at
+ * 1,000 dB (115 Np) the line's ABCD entries are about 1e50, and their products in the
+ * impedance transforms stay inside double precision for every impedance the ranges allow;
+ * well beyond it they overflow and every figure downstream turns into "not a number". No
+ * cable worth modelling loses that much in a receiver.
+ */
+export const MAX_LINE_LOSS_DB = 1000;
 
 /**
  * Resistive pad of `db` loss matched to z0 at both ports (K = 10^(dB/20)):
@@ -88,10 +95,19 @@ export const TRANSMISSION_LINE: StageDefinition = {
     const [z0, len, vf, loss, ref] = ['z0', 'length', 'vf', 'lossDbPerM', 'refHz'].map((k) =>
       p.num(k),
     );
-    const lossAtF0 = loss * Math.sqrt(ctx.f0Hz / ref) * len;
-    // Past this no figure of the chain is a number any more (the signal underflows).
-    if (lossAtF0 > MAX_LINE_LOSS_DB)
-      throw new StageParameterError('lossDbPerM', `the line would lose ${Math.round(lossAtF0)} dB at f0 (${loss} dB/m at ${ref} Hz, scaled with √f, over ${len} m); check the loss and its reference frequency`); // prettier-ignore
+    // The loss grows with √f: refuse a line whose loss at the highest frequency the analysis
+    // evaluates would pass the limit (300 dB/m stated at 1 Hz is 9.5 MdB at 1 GHz).
+    const top = ctx.fMaxHz ?? ctx.f0Hz;
+    const lossAtTop = loss * Math.sqrt(top / ref) * len;
+    if (lossAtTop > MAX_LINE_LOSS_DB) {
+      throw new StageParameterError(
+        'lossDbPerM',
+        `the line would lose ${formatNumber(lossAtTop)} dB at ${formatQuantity(top, 'hertz')} ` +
+          `(${formatNumber(loss)} dB/m at ${formatQuantity(ref, 'hertz')}, scaled with √f, ` +
+          `over ${formatQuantity(len, 'metre')}), more than the ${MAX_LINE_LOSS_DB} dB the ` +
+          `analysis takes; check the loss per metre and its reference frequency`,
+      );
+    }
     const alphaRef = loss / DB_PER_NEPER; // Np/m at ref
     const delay = len / (vf * SPEED_OF_LIGHT);
     return {

@@ -8,6 +8,13 @@
  * The typical ranges are common practice for receiver front ends from VLF to microwave,
  * deliberately wide: they catch unit-prefix slips (a "2.2k" capacitor is 2.2 kF, not
  * 2.2 nF) rather than unusual designs.
+ *
+ * A parameter that must be above 0 gets a positive floor instead: "above 0" lets through
+ * 5e-324 Ω, which is no resistor and makes powers and impedances underflow to 0 and their
+ * decibels to −∞. The floors (our rule) sit below the typical lower bound of each unit (a
+ * tenth of a femtofarad, a femtohenry, a microohm), below any part a designer builds with,
+ * and high enough that the products and quotients the analysis forms stay well inside
+ * double precision.
  */
 import type { ParamSpec, StageDefinition, UnitKind } from '../types';
 
@@ -18,25 +25,27 @@ interface UnitRange {
   /** Typical bounds; the lower one applies only to parameters that must be above 0. */
   typicalMin?: number;
   typicalMax?: number;
+  /** Smallest value of a parameter that must be above 0 (it replaces "above 0"). */
+  floor?: number;
 }
 
 const UNIT_RANGES: Partial<Record<UnitKind, UnitRange>> = {
-  ohm: { hardMin: -1e12, hardMax: 1e12, typicalMin: 1e-3, typicalMax: 1e8 },
-  henry: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-10, typicalMax: 10 },
-  farad: { hardMin: 0, hardMax: 1e4, typicalMin: 1e-15, typicalMax: 1e-2 },
-  hertz: { hardMin: 0, hardMax: 1e12, typicalMin: 1, typicalMax: 3e11 },
-  volt: { hardMin: 0, hardMax: 1e6, typicalMax: 1e3 },
-  ampere: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-18, typicalMax: 1 },
-  'volt-per-metre': { hardMin: 0, hardMax: 1e6, typicalMax: 1e3 },
-  metre: { hardMin: 0, hardMax: 1e6, typicalMin: 1e-5, typicalMax: 1e4 },
-  siemens: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-6, typicalMax: 100 },
-  ratio: { hardMin: 0, hardMax: 1e12 },
-  db: { hardMin: -300, hardMax: 300 },
+  ohm: { hardMin: -1e12, hardMax: 1e12, typicalMin: 1e-3, typicalMax: 1e8, floor: 1e-6 },
+  henry: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-10, typicalMax: 10, floor: 1e-15 },
+  farad: { hardMin: 0, hardMax: 1e4, typicalMin: 1e-15, typicalMax: 1e-2, floor: 1e-16 },
+  hertz: { hardMin: 0, hardMax: 1e12, typicalMin: 1, typicalMax: 3e11, floor: 1e-3 },
+  volt: { hardMin: 0, hardMax: 1e6, typicalMax: 1e3, floor: 1e-15 },
+  ampere: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-18, typicalMax: 1, floor: 1e-21 },
+  'volt-per-metre': { hardMin: 0, hardMax: 1e6, typicalMax: 1e3, floor: 1e-15 },
+  metre: { hardMin: 0, hardMax: 1e6, typicalMin: 1e-5, typicalMax: 1e4, floor: 1e-9 },
+  siemens: { hardMin: 0, hardMax: 1e3, typicalMin: 1e-6, typicalMax: 100, floor: 1e-12 },
+  ratio: { hardMin: 0, hardMax: 1e12, floor: 1e-6 },
+  db: { hardMin: -300, hardMax: 300, floor: 1e-6 },
   dbm: { hardMin: -300, hardMax: 100 },
-  kelvin: { hardMin: 0, hardMax: 1e6, typicalMax: 1e4 },
+  kelvin: { hardMin: 0, hardMax: 1e6, typicalMax: 1e4, floor: 1e-3 },
   degree: { hardMin: -360, hardMax: 360 },
-  percent: { hardMin: 0, hardMax: 100 },
-  none: { hardMin: -1e12, hardMax: 1e12 },
+  percent: { hardMin: 0, hardMax: 100, floor: 1e-6 },
+  none: { hardMin: -1e12, hardMax: 1e12, floor: 1e-12 },
 };
 
 /** A numeric spec with its hard range and typical range filled from its unit. */
@@ -52,7 +61,14 @@ export function withPlausibleRange(spec: ParamSpec): ParamSpec {
     ...(u.typicalMax !== undefined && u.typicalMax < max ? { max: u.typicalMax } : {}),
   };
   const hasTypical = typical.min !== undefined || typical.max !== undefined;
-  return { ...spec, min, max, ...(hasTypical ? { typical } : {}) };
+  const floored = strictlyPositive && u.floor !== undefined && u.floor < max;
+  return {
+    ...spec,
+    min: floored ? u.floor : min,
+    max,
+    ...(floored ? { exclusiveMin: false } : {}),
+    ...(hasTypical ? { typical } : {}),
+  };
 }
 
 /** The definition with every numeric parameter given its ranges. */
