@@ -34,6 +34,7 @@ import { ShareDialogComponent, type ShareDialogData } from '../share/share-dialo
 import { CautionBannerComponent } from './cautions/caution-banner.component';
 import { documentForResults, hasTransmitMode, withModes } from './modes/mode-edits';
 import { ModeBarComponent } from './modes/mode-bar.component';
+import { TransmitPanelComponent } from './modes/transmit-panel.component';
 import { DesignPanelComponent } from './design/design-panel.component';
 import { saveAsVariant } from './design/save-variant';
 import { RevisionPanelComponent } from './history/revision-panel.component';
@@ -77,6 +78,7 @@ type SidePanel = 'stage' | 'chain' | 'history' | 'design' | 'comments' | 'change
     RevisionPanelComponent,
     CautionBannerComponent,
     ModeBarComponent,
+    TransmitPanelComponent,
     AnalysisResultsComponent,
     DesignPanelComponent,
     PresenceBarComponent,
@@ -135,6 +137,9 @@ export default class ChainEditorComponent implements LeaveAware {
     documentForResults(this.shownDoc(), this.modeShown()),
   );
   protected readonly transmitMode = computed(() => hasTransmitMode(this.shownDoc()));
+  protected readonly stageLabels = computed(
+    () => new Map(this.shownDoc().stages.map((s) => [s.id, s.label || s.type])),
+  );
   protected readonly chainTypes = computed(() => {
     const catalogue = this.store.catalogue();
     return this.shownDoc()

@@ -21,6 +21,7 @@ import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { CautionBannerComponent } from '../editor/cautions/caution-banner.component';
 import { documentForResults, hasTransmitMode } from '../editor/modes/mode-edits';
+import { TransmitPanelComponent } from '../editor/modes/transmit-panel.component';
 import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
 
 /**
@@ -35,6 +36,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
     RouterLink,
     AnalysisResultsComponent,
     CautionBannerComponent,
+    TransmitPanelComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -111,6 +113,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
           [selectedStageId]="selected()"
           (stageSelected)="selected.set($event)"
         />
+        <cw-transmit-panel [result]="analysis()" [labels]="stageLabels()" />
       </main>
     } @else {
       <p class="cw-page cw-muted">Opening the shared chain…</p>
@@ -212,6 +215,9 @@ export default class SharedChainComponent {
     const id = this.modeShown()?.id;
     return documentForResults(s.document, s.document.modes?.find((m) => m.id === id) ?? null);
   });
+  protected readonly stageLabels = computed(
+    () => new Map((this.shownDoc()?.stages ?? []).map((st) => [st.id, st.label || st.type])),
+  );
   protected readonly transmit = computed(() => {
     const s = this.shared();
     return s ? hasTransmitMode(s.document) : false;

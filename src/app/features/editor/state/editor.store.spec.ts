@@ -129,6 +129,21 @@ describe('EditorStore', () => {
       expect(store.mode()?.bypass).toBeUndefined();
     });
 
+    it('should open a chain with modes in its first mode', () => {
+      const chain = chainDto('editor');
+      chain.document = {
+        ...chain.document,
+        modes: [
+          { id: 'rx', name: 'Receive', kind: 'receive' },
+          { id: 'tx', name: 'Transmit', kind: 'transmit', bypass: ['tank'] },
+        ],
+      };
+      store.load(chain);
+      expect(store.mode()?.id).toBe('rx');
+      store.selectMode(null);
+      expect(store.mode()).toBeNull();
+    });
+
     it('should show the chain as written after the mode shown is deleted', () => {
       store.addMode('rx', 'receive');
       store.deleteMode('rx');

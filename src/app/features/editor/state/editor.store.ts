@@ -117,6 +117,9 @@ export class EditorStore {
     this.chainState.set(chain);
     this.savedState.set(chain.document);
     this.history.reset(document);
+    // A chain with modes opens in its first mode (the one the server analyses by default;
+    // a chain whose modes take different paths may not be analysable as written).
+    if (!findMode(document, this.modeState())) this.modeState.set(document.modes?.[0]?.id ?? null);
     if (!document.stages.some((s) => s.id === this.selectedState())) {
       this.selectedState.set(document.stages[0]?.id ?? null);
     }
