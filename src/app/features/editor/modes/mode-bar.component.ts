@@ -85,8 +85,8 @@ const AS_WRITTEN = '';
     </div>
     @if (!store.mode() && store.modes().length > 0 && !readOnly()) {
       <p class="hint" data-testid="mode-hint">
-        Showing the chain as written. Values you change here apply to every mode that does not
-        set its own.
+        Showing the chain as written. Values you change here apply to every mode that does not set
+        its own.
       </p>
     }
     @if (store.mode(); as mode) {

@@ -77,6 +77,16 @@ describe('mode edits', () => {
     expect(leftOutBy(pathMode, 'tank')).toBe('path');
   });
 
+  it('should take a stage off a mode path and put it back in chain order', () => {
+    let { doc } = addMode(sampleDocument(), 'p', 'transmit');
+    doc = { ...doc, modes: [{ ...doc.modes![0], path: ['src', 'amp', 'load'] }] };
+    const off = setBypass(doc, 'p', 'amp', true);
+    expect(findMode(off, 'p')!.path).toEqual(['src', 'load']);
+    expect(findMode(off, 'p')!.bypass).toBeUndefined();
+    const back = setBypass(setBypass(off, 'p', 'tank', false), 'p', 'amp', false);
+    expect(findMode(back, 'p')!.path).toEqual(['src', 'tank', 'amp', 'load']);
+  });
+
   it('should forget a deleted stage in every mode', () => {
     let { doc } = addMode(sampleDocument(), 'a', 'state');
     doc = setBypass(setOverride(doc, 'a', 'amp', 'gain', 3), 'a', 'amp', true);

@@ -122,7 +122,10 @@ export function clearOverride(
   return replaceMode(doc, tidy({ ...mode, values: { ...mode.values, [stageId]: stageValues } }));
 }
 
-/** Leaves stage `stageId` out of mode `modeId` (or puts it back). */
+/**
+ * Leaves stage `stageId` out of mode `modeId` (or puts it back). A mode with its own path
+ * takes the stage off the path, or puts it back where the chain has it.
+ */
 export function setBypass(
   doc: ChainDocument,
   modeId: string,
@@ -132,6 +135,12 @@ export function setBypass(
   const mode = findMode(doc, modeId);
   if (!mode) return doc;
   const others = (mode.bypass ?? []).filter((id) => id !== stageId);
+  if (mode.path) {
+    const onPath = new Set(mode.path.filter((id) => id !== stageId));
+    if (!leftOut) onPath.add(stageId);
+    const path = doc.stages.map((s) => s.id).filter((id) => onPath.has(id));
+    return replaceMode(doc, tidy({ ...mode, bypass: others, path }));
+  }
   return replaceMode(doc, tidy({ ...mode, bypass: leftOut ? [...others, stageId] : others }));
 }
 

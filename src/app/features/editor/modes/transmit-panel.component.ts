@@ -1,11 +1,6 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
-import {
-  decibels,
-  engineering,
-  impedancePolar,
-  times,
-} from '../results/format-quantity';
+import { decibels, engineering, impedancePolar, times } from '../results/format-quantity';
 
 type Transmit = NonNullable<AnalysisResult['transmit']>;
 type Trap = NonNullable<AnalysisResult['traps']>[number];
@@ -32,7 +27,9 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
         <dl class="figures">
           <div data-key="delivered">
             <dt>Into the antenna</dt>
-            <dd class="cw-num">{{ f(tx.deliveredW, 'watt') }} ({{ db(tx.deliveredDbm, 'dBm') }})</dd>
+            <dd class="cw-num">
+              {{ f(tx.deliveredW, 'watt') }} ({{ db(tx.deliveredDbm, 'dBm') }})
+            </dd>
           </div>
           <div data-key="available">
             <dt>Amplifier's target</dt>
@@ -74,7 +71,9 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
                   <td class="cw-num">{{ f(h.fHz, 'hertz', 5) }}</td>
                   <td class="cw-num">{{ db(h.attenuationDb) }}</td>
                   <td class="cw-num">{{ h.limitDb === null ? '—' : db(h.limitDb) }}</td>
-                  <td><span class="verdict" [class]="word(h.ok).cls">{{ word(h.ok).text }}</span></td>
+                  <td>
+                    <span class="verdict" [class]="word(h.ok).cls">{{ word(h.ok).text }}</span>
+                  </td>
                 </tr>
               }
             </tbody>
@@ -98,15 +97,17 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
                   <td class="cw-num">{{ f(p.vPeak, 'volt') }}</td>
                   <td class="cw-num">{{ f(p.iRms, 'ampere') }}</td>
                   <td class="cw-num">{{ f(p.powerW, 'watt') }}</td>
-                  <td><span class="verdict" [class]="word(p.ok).cls">{{ word(p.ok).text }}</span></td>
+                  <td>
+                    <span class="verdict" [class]="word(p.ok).cls">{{ word(p.ok).text }}</span>
+                  </td>
                 </tr>
               }
             </tbody>
           </table>
         }
         <p class="note">
-          Figures at the amplifier's target power, voltages peak. Transmitting needs a licence
-          and must meet local rules; see the caution above.
+          Figures at the amplifier's target power, voltages peak. Transmitting needs a licence and
+          must meet local rules; see the caution above.
         </p>
       </section>
     }
