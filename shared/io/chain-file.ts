@@ -103,7 +103,9 @@ function parseJson(text: string, fileName: string): unknown {
     const found = jsonErrorOffset(text);
     const offset = found >= 0 ? found : text.length;
     const { line, column } = lineColumn(text, offset);
-    const reason = message.replace(/\s*in JSON at position \d+.*$/s, '').replace(/,\s*".*$/s, '');
+    const reason = message
+      .replace(/\s*in JSON at position \d+.*$/s, '')
+      .replace(/,\s*(\.\.\.)?".*$/s, '');
     throw new ChainFileError(
       'not-json',
       `${fileName}, line ${line}, column ${column}: not valid JSON (${reason}); ` +
