@@ -8,6 +8,7 @@ import { toMeasuredNetwork, type NetworkData } from '../../shared/io/network-dat
 import { writeTouchstone } from '../../shared/io/touchstone-writer';
 import { noiseParametersAt } from '../../shared/engine/stages/measured-two-port';
 import { stageNoiseFactor } from '../../shared/engine/core/noise';
+import { analyzeChain } from '../../shared/engine';
 
 /** S value k (row-major S11 S12 S21 S22) at point i of a two-port. */
 const sAt = (file: { s: Float64Array }, i: number, k: number): [number, number] => [
@@ -242,5 +243,42 @@ describe('measured amplifier noise at the source it really sees', () => {
     if (!zs)
       expect(got).toBeCloseTo(10 ** 0.12, 10); // Fmin at the optimum source
     else expect(got).toBeGreaterThan(10 ** 0.12);
+  });
+
+  it('gives a chain the amplifier noise figure at the source it really sees (75 + j25 ohm)', () => {
+    // A 75 + j25 Ω generator straight into the file's amplifier at 150 MHz.
+    const doc = {
+      name: 'noise at the real source',
+      settings: {
+        f0Hz: 150e6,
+        sweep: { startHz: 100e6, stopHz: 200e6, points: 11, scale: 'lin' as const },
+      },
+      stages: [
+        { id: 'src', type: 'resistive-generator', values: { r: 75 } },
+        {
+          id: 'x',
+          type: 'lumped-element',
+          values: {
+            position: 'series',
+            element: 'inductor',
+            l: 25 / (2 * Math.PI * 150e6),
+            ql: 1e12,
+          },
+        },
+        { id: 'amp', type: 'measured-two-port', values: { noise: 'file' }, dataFileId: 'amp' },
+        { id: 'load', type: 'rc-load', values: {} },
+      ],
+    };
+    const result = analyzeChain(doc, { dataFiles: { amp: measured } });
+    const stage = result.stages.find((s) => s.id === 'amp')!;
+    const g1 = file.noise[0].gammaOpt;
+    const g2 = file.noise[1].gammaOpt;
+    const gOpt: C = [(g1.re + g2.re) / 2, (g1.im + g2.im) / 2];
+    const gS = div([75 - 50, 25], [75 + 50, 25]);
+    const want = 10 * Math.log10(pozarNoiseFactor(1.2, 21 / 50, gOpt, gS));
+    expect(stage.noiseFigureDb).toBeCloseTo(want, 3);
+    // Without the file's noise block the same stage is refused by name, not guessed.
+    const bare = toMeasuredNetwork({ ...file, noise: [] });
+    expect(() => analyzeChain(doc, { dataFiles: { amp: bare } })).toThrow(/no noise parameters/);
   });
 });
