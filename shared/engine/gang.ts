@@ -6,7 +6,6 @@
  */
 import { MAIN_GANG, type VariableMark } from '../schema/chain';
 import { formatEngineering } from '../units/format';
-import { defaultCatalogue } from './default-catalogue';
 import type { UnitKind } from './types';
 
 /** A gang's member: the value it turns and its range. */
@@ -49,18 +48,17 @@ export function gangValues(members: readonly GangMemberRef[], dial: number) {
   return members.map((m) => ({ stageId: m.stageId, key: m.key, value: m.min + dial * (m.max - m.min) })); // prettier-ignore
 }
 
-/** How a chart or study names the gang it turned, e.g. `preselector.c 50 pF…400 pF`. */
+/**
+ * How a chart or study names the gang it turned, e.g. `preselector.c 50 pF…400 pF`;
+ * `unitOf` gives each member's unit (from the stage catalogue).
+ */
 export function describeGang(
-  doc: { stages: readonly { id: string; type: string }[] },
   members: readonly GangMemberRef[],
+  unitOf: (m: GangMemberRef) => UnitKind,
 ): string {
   return members
     .map((m) => {
-      const type = doc.stages.find((s) => s.id === m.stageId)?.type;
-      const spec = defaultCatalogue()
-        .find((d) => d.type === type)
-        ?.params.find((p) => p.key === m.key);
-      const unit: UnitKind = spec?.kind === 'number' ? spec.unit : 'none';
+      const unit = unitOf(m);
       return `${m.stageId}.${m.key} ${formatEngineering(m.min, unit)}…${formatEngineering(m.max, unit)}`; // prettier-ignore
     })
     .join(', ');

@@ -1,10 +1,12 @@
 /**
- * Studies end to end, against a running server with demo data and a study worker: from the
- * editor's Studies button, a Monte Carlo run whose progress bar moves and which is cancelled,
- * another whose histograms and yield are read, a band study, and the optimiser whose result
- * is saved as a variant.
+ * Studies end to end, against a running server with demo data and a study worker: the yield
+ * targets typed into the editor's Chain panel and the preselector's capacitor marked variable
+ * in its Stage panel; from the editor's Studies button, a Monte Carlo run whose progress bar
+ * moves and which is cancelled, another whose histograms and yield are read, a band study
+ * that turns the chain's marked gang with nothing typed on the studies page, and the
+ * optimiser with two values and two weighted goals whose result is saved as a variant.
  */
-import type { Browser, Page } from 'playwright-core';
+import type { Browser, Locator, Page } from 'playwright-core';
 import {
   DEMO,
   launchBrowser,
@@ -15,7 +17,7 @@ import {
   type WatchedPage,
 } from './harness';
 
-/** A chain of the test's own from the shortwave example, with targets and a short sweep. */
+/** A chain of the test's own from the shortwave example, with tolerances and a short sweep. */
 async function makeChain(page: Page, wid: string): Promise<string> {
   const csrf = (await (await page.request.get('/api/auth/csrf')).json()).token as string;
   const headers = { 'x-csrf-token': csrf };
@@ -27,7 +29,6 @@ async function makeChain(page: Page, wid: string): Promise<string> {
   const chain = await created.json();
   const doc = chain.document;
   doc.settings.sweep = { startHz: 6e6, stopHz: 9e6, points: 201, scale: 'lin' };
-  doc.settings.targets = { centreMinHz: 7.1e6, centreMaxHz: 7.3e6, maxNoiseFigureDb: 5 };
   const tank = doc.stages.find((s: { id: string }) => s.id === 'preselector');
   tank.tolerances = { c: 3, l: 2 };
   const saved = await page.request.put(`/api/chains/${chain.id}`, {
@@ -36,6 +37,12 @@ async function makeChain(page: Page, wid: string): Promise<string> {
   });
   expect(saved.status()).toBe(200);
   return chain.id;
+}
+
+/** Types into a field that reads its value on change (blur). */
+async function change(field: Locator, text: string): Promise<void> {
+  await field.fill(text);
+  await field.press('Tab');
 }
 
 const run = (page: Page, kind: string) =>
@@ -77,6 +84,32 @@ describe('studies', () => {
     const wid = /\/w\/([^/]+)\//.exec(page.url())![1];
     const chainId = await makeChain(page, wid);
     await page.goto(`/w/${wid}/chains/${chainId}`);
+
+    // The preselector's capacitor marked variable, 150 … 330 pF, in its Stage panel.
+    await page.getByRole('button', { name: 'Select Preselector tank' }).click();
+    const mark = page.locator('[data-variable="c"]');
+    await mark.getByTestId('variable-toggle').check();
+    await change(mark.getByTestId('variable-min'), '150 pF');
+    await change(mark.getByTestId('variable-max'), '330 pF');
+    await shot(page, 'studies-editor-variable-mark');
+    // The yield targets, typed into the Chain panel.
+    await page
+      .locator('mat-button-toggle', { hasText: /^Chain$/ })
+      .locator('button')
+      .click();
+    await page.getByTestId('targets-form').locator('summary').click();
+    await change(page.locator('input[data-target="centreMinHz"]'), '7.1 MHz');
+    await change(page.locator('input[data-target="centreMaxHz"]'), '7.3 MHz');
+    await change(page.locator('input[data-target="maxNoiseFigureDb"]'), '5 dB');
+    await shot(page, 'studies-editor-targets');
+    const saved = page.waitForResponse((r) => r.url().endsWith(`/api/chains/${chainId}`) && r.request().method() === 'PUT'); // prettier-ignore
+    await page.getByRole('button', { name: 'Save', exact: true }).click();
+    const put = await saved;
+    expect(put.status()).toBe(200);
+    const stored = (await put.json()).document.settings;
+    expect(stored.targets).toEqual({ centreMinHz: 7.1e6, centreMaxHz: 7.3e6, maxNoiseFigureDb: 5 });
+    expect(stored.variables).toEqual([{ stageId: 'preselector', key: 'c', min: 150e-12, max: 330e-12 }]); // prettier-ignore
+
     await page.getByTestId('open-studies').click();
     await page.waitForURL(/\/studies$/);
 
@@ -139,11 +172,11 @@ describe('studies', () => {
     expect(await page.getByTestId('mc-figure').locator('option').count()).toBeGreaterThan(5);
     await shot(page, 'studies-mc-result');
 
-    // The band study.
+    // The band study turns the gang marked on the chain: nothing to type but the positions.
     await page.getByRole('tab', { name: 'Band tracking' }).click();
-    await page.getByTestId('band-stage').selectOption('preselector');
-    await page.getByTestId('band-min').fill('150');
-    await page.getByTestId('band-max').fill('330');
+    expect(await page.getByTestId('band-source').locator('option:checked').innerText()).toMatch(
+      /marked on the chain: main \(preselector\.c 150 pF…330 pF\)/,
+    );
     await page.getByTestId('band-positions').fill('11');
     await page.getByTestId('run-band').click();
     await waitDone(page, 'band');
@@ -153,23 +186,42 @@ describe('studies', () => {
     );
     await shot(page, 'studies-band-result');
 
-    // The optimiser, and its result kept as a variant.
+    // The optimiser: the tank's C and L, a resonance goal and a weighted noise-figure goal;
+    // its result kept as a variant.
     await page.getByRole('tab', { name: 'Optimiser' }).click();
-    await page.getByTestId('opt-stage').selectOption('preselector');
-    await page.getByTestId('opt-min').fill('1e-10');
-    await page.getByTestId('opt-max').fill('5e-10');
-    await page.getByTestId('opt-goal-stage').selectOption('preselector');
-    await page.getByTestId('opt-target').fill('7.3');
+    const vars = page.getByTestId('opt-variable');
+    await vars.nth(0).getByTestId('opt-stage').selectOption('preselector');
+    await vars.nth(0).getByTestId('opt-key').selectOption('c');
+    await vars.nth(0).getByTestId('opt-min').fill('100 pF');
+    await vars.nth(0).getByTestId('opt-max').fill('500 pF');
+    await page.getByTestId('opt-add-variable').click();
+    await vars.nth(1).getByTestId('opt-stage').selectOption('preselector');
+    await vars.nth(1).getByTestId('opt-key').selectOption('l');
+    await vars.nth(1).getByTestId('opt-min').fill('2 uH');
+    await vars.nth(1).getByTestId('opt-max').fill('2.4 uH');
+    const goals = page.getByTestId('opt-goal');
+    await goals.nth(0).getByTestId('opt-goal-stage').selectOption('preselector');
+    await goals.nth(0).getByTestId('opt-target').fill('7.3 MHz');
+    await goals.nth(0).getByTestId('opt-goal-weight').fill('10');
+    await page.getByTestId('opt-add-goal').click();
+    await goals.nth(1).getByTestId('opt-goal-kind').selectOption('noise-figure');
+    await goals.nth(1).getByTestId('opt-goal-db').fill('10');
+    await shot(page, 'studies-optimiser-form');
     await page.getByTestId('run-opt').click();
     await waitDone(page, 'optimiser');
     await run(page, 'optimiser').getByTestId('open-study').click();
+    expect(await page.getByTestId('opt-goal-row').count()).toBe(2);
+    expect(await page.getByTestId('opt-after').count()).toBe(2);
     const after = Number(
       (await page.getByTestId('opt-after').first().innerText()).replace(/,/g, ''),
     );
-    // 2.2 µH resonating at 7.3 MHz: C = 1/((2π·7.3 MHz)²·2.2 µH) ≈ 216 pF, less what the
-    // stages around it add; the optimiser lands close to it.
-    expect(after).toBeGreaterThan(180e-12);
-    expect(after).toBeLessThan(222e-12);
+    const afterL = Number((await page.getByTestId('opt-after').nth(1).innerText()).replace(/,/g, '')); // prettier-ignore
+    expect(afterL).toBeGreaterThanOrEqual(2e-6);
+    expect(afterL).toBeLessThanOrEqual(2.4e-6);
+    // Resonating at 7.3 MHz: L·C = 1/(2π·7.3 MHz)² ≈ 4.75e-16 (Thomson, common practice),
+    // less what the stages around the tank add; the optimiser lands close to it.
+    expect(after * afterL).toBeGreaterThan(4.0e-16);
+    expect(after * afterL).toBeLessThan(4.9e-16);
     await shot(page, 'studies-optimiser-result');
     await page.getByTestId('save-variant').click();
     await page.waitForURL(

@@ -9,6 +9,7 @@
  */
 import type { VariableMark } from '../../schema/chain';
 import type { BuiltChain } from '../core/build';
+import { defaultCatalogue } from '../default-catalogue';
 import { describeGang, gangMembers, gangValues } from '../gang';
 import { findMixer, type MixerInfo } from '../core/selectivity';
 import { passbandPeak } from '../design/passband-peak';
@@ -81,7 +82,13 @@ export function gangTuningOf(
   const members = gangMembers(doc, undefined);
   if (members.length === 0) return null;
   return {
-    description: describeGang(doc, members),
+    description: describeGang(members, (m) => {
+      const type = doc.stages.find((s) => s.id === m.stageId)?.type;
+      const spec = defaultCatalogue()
+        .find((d) => d.type === type)
+        ?.params.find((p) => p.key === m.key);
+      return spec?.kind === 'number' ? spec.unit : 'none';
+    }),
     rebuild(dial) {
       const values = gangValues(members, dial);
       const stages = doc.stages.map((s) => {

@@ -22,13 +22,15 @@ import type {
 } from '../../../../shared/engine/studies';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
-import { ResultPlotComponent } from '../editor/results/result-plot.component';
+import { BandFormComponent } from './forms/band-form.component';
+import { MonteCarloFormComponent } from './forms/monte-carlo-form.component';
+import { OptimiserFormComponent } from './forms/optimiser-form.component';
+import { BandResultComponent } from './results/band-result.component';
+import { MonteCarloResultComponent } from './results/monte-carlo-result.component';
+import { OptimiserResultComponent } from './results/optimiser-result.component';
 import { StudiesApi } from './studies.api';
-import { histogramFigure, scatterFigure, trackingFigure } from './study-plots';
 
 const FINISHED = ['done', 'failed', 'cancelled'];
-const num = (e: Event) => Number((e.target as HTMLInputElement).value);
-const text = (e: Event) => (e.target as HTMLInputElement | HTMLSelectElement).value;
 
 /**
  * Studies of a saved chain: Monte Carlo yield from the stage tolerances, tuning across a band
@@ -37,7 +39,18 @@ const text = (e: Event) => (e.target as HTMLInputElement | HTMLSelectElement).va
  */
 @Component({
   selector: 'cw-studies',
-  imports: [RouterLink, MatButtonModule, MatProgressBarModule, MatTabsModule, ResultPlotComponent],
+  imports: [
+    RouterLink,
+    MatButtonModule,
+    MatProgressBarModule,
+    MatTabsModule,
+    MonteCarloFormComponent,
+    BandFormComponent,
+    OptimiserFormComponent,
+    MonteCarloResultComponent,
+    BandResultComponent,
+    OptimiserResultComponent,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './studies.component.html',
   styleUrl: './studies.component.scss',
@@ -56,54 +69,8 @@ export default class StudiesComponent {
   protected readonly studies = signal<StudySummaryDto[]>([]);
   protected readonly selected = signal<StudyDto | null>(null);
   protected readonly message = signal('');
-  protected readonly num = num;
-  protected readonly text = text;
 
-  // Monte Carlo form
-  protected readonly distribution = signal<'uniform' | 'normal'>('normal');
-  protected readonly trials = signal(1000);
-  protected readonly seed = signal(1);
-  protected readonly figureIndex = signal(0);
-  protected readonly scatterX = signal(0);
-  protected readonly scatterY = signal(1);
-  // Band form (capacitances in pF, inductance in µH)
-  protected readonly gangStage = signal('');
-  protected readonly gangKey = signal('c');
-  protected readonly gangMinPf = signal(20);
-  protected readonly gangMaxPf = signal(400);
-  protected readonly positions = signal(41);
-  protected readonly oscillator = signal(false);
-  protected readonly oscLUh = signal(100);
-  protected readonly oscTrimPf = signal(10);
-  protected readonly oscPadPf = signal(0);
-  // Optimiser form
-  protected readonly varStage = signal('');
-  protected readonly varKey = signal('c');
-  protected readonly varMin = signal(1e-12);
-  protected readonly varMax = signal(1e-9);
-  protected readonly goalStage = signal('');
-  protected readonly goalMHz = signal(1);
   protected readonly saving = signal(false);
-
-  protected readonly tolerances = computed(() =>
-    (this.chain()?.document.stages ?? []).flatMap((s) =>
-      Object.entries(s.tolerances ?? {})
-        .filter(([, t]) => t > 0)
-        .map(([k, t]) => `${s.label || s.id} ${k} ±${t} %`),
-    ),
-  );
-  /** Stages with a numeric capacitance or inductance, for the gang and the optimiser. */
-  protected readonly tunable = computed(() =>
-    (this.chain()?.document.stages ?? [])
-      .map((s) => ({
-        id: s.id,
-        label: s.label || s.id,
-        keys: Object.keys(s.values).filter(
-          (k) => typeof s.values[k] === 'number' && /^(c|l|cc|l1|l2|c1|c2)$/.test(k),
-        ),
-      }))
-      .filter((s) => s.keys.length > 0),
-  );
 
   protected readonly mc = computed(() =>
     this.selected()?.kind === 'monte-carlo'
@@ -119,57 +86,10 @@ export default class StudiesComponent {
       : null,
   );
 
-  protected readonly histogram = computed(() => {
-    const r = this.mc();
-    const f = r?.figures[this.figureIndex()];
-    return f
-      ? histogramFigure(
-          f.label,
-          f.unit === 'hertz' ? 'Hz' : f.unit === 'db' ? 'dB' : '',
-          f.histogram,
-        )
-      : null;
-  });
-  protected readonly scatter = computed(() => {
-    const r = this.mc();
-    if (!r) return null;
-    const [i, j] = [this.scatterX(), this.scatterY()];
-    return scatterFigure(
-      r.figures[i]?.label ?? '',
-      r.figures[j]?.label ?? '',
-      r.rows.map((row) => row.metrics[i]),
-      r.rows.map((row) => row.metrics[j]),
-      r.rows.map((row) => row.pass),
-    );
-  });
-  protected readonly tracking = computed(() => {
-    const r = this.band();
-    if (!r) return null;
-    return trackingFigure({
-      dialsHz: r.positions.map((p) => p.dialHz),
-      circuits: r.circuits.map((c, i) => ({
-        label: c.label,
-        errorsHz: r.positions.map((p) => p.trackingErrorHz[i]),
-        resonancesHz: r.positions.map((p) => p.resonanceHz[i]),
-      })),
-    });
-  });
-
   constructor() {
     effect(() => {
       const id = this.chainId();
-      this.chains.get(id).subscribe((c) => {
-        this.chain.set(c);
-        const first = this.tunable()[0];
-        if (first) {
-          this.gangStage.set(first.id);
-          this.varStage.set(first.id);
-          this.goalStage.set(first.id);
-          this.gangKey.set(first.keys.includes('c') ? 'c' : first.keys[0]);
-          this.varKey.set(first.keys.includes('c') ? 'c' : first.keys[0]);
-        }
-        this.goalMHz.set(c.document.settings.f0Hz / 1e6);
-      });
+      this.chains.get(id).subscribe((c) => this.chain.set(c));
       this.refresh();
     });
     this.destroyRef.onDestroy(() => this.follows.forEach((s) => s.unsubscribe()));
@@ -207,50 +127,6 @@ export default class StudiesComponent {
     });
   }
 
-  protected runMonteCarlo(): void {
-    this.run({
-      kind: 'monte-carlo',
-      distribution: this.distribution(),
-      trials: this.trials(),
-      seed: this.seed(),
-    });
-  }
-
-  protected runBand(): void {
-    const pf = 1e-12;
-    this.run({
-      kind: 'band',
-      gang: [
-        {
-          stageId: this.gangStage(),
-          key: this.gangKey(),
-          min: this.gangMinPf() * pf,
-          max: this.gangMaxPf() * pf,
-        },
-      ],
-      positions: this.positions(),
-      ...(this.oscillator()
-        ? {
-            oscillator: {
-              l: this.oscLUh() * 1e-6,
-              trimmer: this.oscTrimPf() * pf,
-              padder: this.oscPadPf() * pf,
-            },
-          }
-        : {}),
-    });
-  }
-
-  protected runOptimiser(): void {
-    this.run({
-      kind: 'optimiser',
-      variables: [
-        { stageId: this.varStage(), key: this.varKey(), min: this.varMin(), max: this.varMax() },
-      ],
-      goals: [{ kind: 'resonance', stageId: this.goalStage(), targetHz: this.goalMHz() * 1e6 }],
-    });
-  }
-
   protected cancel(s: StudySummaryDto): void {
     this.api.cancel(this.chainId(), s.id).subscribe({
       next: (c) => this.studies.update((list) => list.map((x) => (x.id === c.id ? c : x))),
@@ -259,10 +135,7 @@ export default class StudiesComponent {
   }
 
   protected open(s: StudySummaryDto): void {
-    this.api.get(this.chainId(), s.id).subscribe((full) => {
-      this.figureIndex.set(0);
-      this.selected.set(full);
-    });
+    this.api.get(this.chainId(), s.id).subscribe((full) => this.selected.set(full));
   }
 
   protected saveVariant(): void {
@@ -281,17 +154,5 @@ export default class StudiesComponent {
 
   protected kindLabel(kind: string): string {
     return kind === 'monte-carlo' ? 'Monte Carlo' : kind === 'band' ? 'Band tracking' : 'Optimiser';
-  }
-
-  protected pct(v: number | null | undefined): string {
-    return v === null || v === undefined ? '—' : `${(v * 100).toFixed(1)} %`;
-  }
-
-  protected fmt(v: number | null | undefined, digits = 4): string {
-    if (v === null || v === undefined) return '—';
-    // Component values (pF, µH) would round to 0 as grouped decimals: show them as 2.16e-10.
-    const a = Math.abs(v);
-    if (a !== 0 && (a < 1e-3 || a >= 1e12)) return v.toPrecision(digits);
-    return Number(v.toPrecision(digits)).toLocaleString('en', { maximumFractionDigits: 6 });
   }
 }

@@ -20,6 +20,7 @@ describe('ParamPanelComponent', () => {
       expect(labels()).toEqual([
         'Label',
         'Inductance',
+        'Variable (tuned across a band)',
         '± %',
         'Capacitance',
         'Entry',
@@ -110,6 +111,35 @@ describe('ParamPanelComponent', () => {
     it('should set a tolerance in percent', async () => {
       await type('l:tolerance', '5 %');
       expect(tank().tolerances).toEqual({ l: 5 });
+    });
+
+    it('should mark a value variable on the chain with its range and gang, and unmark it', async () => {
+      await type('l', '10 uH');
+      const toggle = () =>
+        host().querySelector<HTMLInputElement>(
+          '[data-variable="l"] [data-testid="variable-toggle"]',
+        )!;
+      toggle().click();
+      await fixture.whenStable();
+      const [mark] = store.doc().settings.variables!;
+      expect(mark).toMatchObject({ stageId: 'tank', key: 'l' });
+      // The range offered starts at a third to three times the value now.
+      expect(mark.min).toBeCloseTo(10e-6 / 3, 15);
+      expect(mark.max).toBeCloseTo(30e-6, 15);
+      const max = host().querySelector<HTMLInputElement>('[data-testid="variable-max"]')!;
+      max.value = '1 nH';
+      max.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+      expect(host().textContent).toContain('the maximum must be above the minimum');
+      expect(store.doc().settings.variables![0].max).toBeCloseTo(30e-6, 15);
+      const gang = host().querySelector<HTMLInputElement>('[data-testid="variable-gang"]')!;
+      gang.value = 'bandspread';
+      gang.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+      expect(store.doc().settings.variables![0].gang).toBe('bandspread');
+      toggle().click();
+      await fixture.whenStable();
+      expect(store.doc().settings.variables).toBeUndefined();
     });
 
     it('should rename the stage from the label field', async () => {

@@ -22,6 +22,7 @@ import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.comp
 import type { PartDto } from '../../../../../shared/schema/api';
 import { PartPickComponent } from '../../parts/part-pick.component';
 import { withoutPart, withPart } from '../../parts/with-part';
+import { VariableMarkComponent } from './variable-mark.component';
 
 /**
  * The form for the selected stage, built from its type's parameter schema: unit-aware
@@ -40,6 +41,7 @@ import { withoutPart, withPart } from '../../parts/with-part';
     CoilTurnsComponent,
     OverrideMarkComponent,
     PartPickComponent,
+    VariableMarkComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './param-panel.component.html',

@@ -51,6 +51,33 @@ describe('ChainSettingsComponent', () => {
     });
   });
 
+  describe('yield targets', () => {
+    async function change(key: string, text: string): Promise<void> {
+      const el = host().querySelector<HTMLInputElement>(`input[data-target="${key}"]`)!;
+      el.value = text;
+      el.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+    }
+
+    it('should store each target from text with a unit, and drop an emptied one', async () => {
+      await change('centreMinHz', '7.1 MHz');
+      await change('centreMaxHz', '7.3 MHz');
+      await change('maxNoiseFigureDb', '5 dB');
+      expect(store.doc().settings.targets).toEqual({ centreMinHz: 7.1e6, centreMaxHz: 7.3e6, maxNoiseFigureDb: 5 }); // prettier-ignore
+      await change('maxNoiseFigureDb', '');
+      await change('centreMinHz', '');
+      await change('centreMaxHz', '');
+      expect(store.doc().settings.targets).toBeUndefined();
+    });
+
+    it('should refuse a maximum below its minimum, saying so, and keep what was there', async () => {
+      await change('minBandwidthHz', '300 kHz');
+      await change('maxBandwidthHz', '200 kHz');
+      expect(host().textContent).toContain('the maximum bandwidth must not be below the minimum');
+      expect(store.doc().settings.targets).toEqual({ minBandwidthHz: 300e3 });
+    });
+  });
+
   // Helpers
 
   function host(): HTMLElement {

@@ -4,6 +4,7 @@ import type { ChainDocument, ChainSettings, Thresholds } from '../../../../../sh
 import { formatEngineering, parseQuantity } from '../../../../../shared/units';
 import { QuantityFieldComponent, type QuantityEdit } from '../params/quantity-field.component';
 import { EditorStore } from '../state/editor.store';
+import { ChainTargetsComponent } from './chain-targets.component';
 
 type Range = Pick<ParamSpec, 'min' | 'max' | 'exclusiveMin'>;
 
@@ -180,7 +181,7 @@ interface PortRow {
 /** Name, description and the chain-wide analysis settings. */
 @Component({
   selector: 'cw-chain-settings',
-  imports: [QuantityFieldComponent],
+  imports: [QuantityFieldComponent, ChainTargetsComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './chain-settings.component.html',
   styleUrl: '../params/field.scss',

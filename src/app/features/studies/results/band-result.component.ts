@@ -1,0 +1,46 @@
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import type { BandResult } from '../../../../../shared/engine/studies';
+import { ResultPlotComponent } from '../../editor/results/result-plot.component';
+import { trackingFigure } from '../study-plots';
+import { fmt } from './study-format';
+
+/** A band study: how many positions mistrack, the worst error, and tracking against the dial. */
+@Component({
+  selector: 'cw-band-result',
+  imports: [ResultPlotComponent],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  styleUrl: './result.scss',
+  template: `
+    @let r = result();
+    <section class="result" data-testid="band-result">
+      <h2>Band tracking: {{ r.positions.length }} dial positions</h2>
+      <p data-testid="band-summary">
+        {{ r.mistrackedPositions }} position(s) where a ganged circuit is off the dial by more than
+        {{ r.mistrackFraction }} of its bandwidth; worst tracking error
+        {{ fmt(r.worstTrackingErrorHz) }} Hz.
+      </p>
+      <cw-result-plot
+        [figure]="tracking()"
+        label="Tracking against the dial"
+        hint="Solid: tracking error; dotted: resonance"
+        fileName="band-tracking"
+      />
+    </section>
+  `,
+})
+export class BandResultComponent {
+  readonly result = input.required<BandResult>();
+
+  protected readonly fmt = fmt;
+  protected readonly tracking = computed(() => {
+    const r = this.result();
+    return trackingFigure({
+      dialsHz: r.positions.map((p) => p.dialHz),
+      circuits: r.circuits.map((c, i) => ({
+        label: c.label,
+        errorsHz: r.positions.map((p) => p.trackingErrorHz[i]),
+        resonancesHz: r.positions.map((p) => p.resonanceHz[i]),
+      })),
+    });
+  });
+}

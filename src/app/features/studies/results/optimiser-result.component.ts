@@ -1,0 +1,67 @@
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import type { OptimiserResult } from '../../../../../shared/engine/studies';
+import { fmt } from './study-format';
+
+/** An optimiser run: each value and each goal before and after, and "save as a variant". */
+@Component({
+  selector: 'cw-optimiser-result',
+  imports: [MatButtonModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  styleUrl: './result.scss',
+  template: `
+    @let r = result();
+    <section class="result" data-testid="opt-result">
+      <h2>Optimiser: {{ r.iterations }} iterations, {{ r.evaluations }} analyses</h2>
+      <table class="runs" data-testid="opt-compare">
+        <thead>
+          <tr>
+            <th>Value or goal</th>
+            <th>Before</th>
+            <th>After</th>
+          </tr>
+        </thead>
+        <tbody>
+          @for (v of r.variables; track v.stageId + v.key) {
+            <tr>
+              <td>
+                {{ v.stageId }} {{ v.key }}
+                <span class="cw-muted">({{ fmt(v.min) }} … {{ fmt(v.max) }})</span>
+              </td>
+              <td>{{ fmt(v.before, 6) }}</td>
+              <td data-testid="opt-after">{{ fmt(v.after, 6) }}</td>
+            </tr>
+          }
+          @for (g of r.after.goals; track $index; let i = $index) {
+            <tr data-testid="opt-goal-row">
+              <td>{{ g.label }}</td>
+              <td>{{ fmt(r.before.goals[i].value, 6) }}</td>
+              <td>{{ fmt(g.value, 6) }}</td>
+            </tr>
+          }
+          <tr>
+            <td>Cost (weighted sum of squared goal misses)</td>
+            <td>{{ fmt(r.before.cost) }}</td>
+            <td data-testid="opt-cost-after">{{ fmt(r.after.cost) }}</td>
+          </tr>
+        </tbody>
+      </table>
+      <button
+        mat-flat-button
+        type="button"
+        data-testid="save-variant"
+        [disabled]="saving()"
+        (click)="save.emit()"
+      >
+        Save as a variant
+      </button>
+    </section>
+  `,
+})
+export class OptimiserResultComponent {
+  readonly result = input.required<OptimiserResult>();
+  readonly saving = input(false);
+  readonly save = output<void>();
+
+  protected readonly fmt = fmt;
+}
