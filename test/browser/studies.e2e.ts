@@ -101,6 +101,7 @@ describe('studies', () => {
     await change(page.locator('input[data-target="centreMinHz"]'), '7.1 MHz');
     await change(page.locator('input[data-target="centreMaxHz"]'), '7.3 MHz');
     await change(page.locator('input[data-target="maxNoiseFigureDb"]'), '5 dB');
+    await page.getByTestId('targets-form').scrollIntoViewIfNeeded();
     await shot(page, 'studies-editor-targets');
     const saved = page.waitForResponse((r) => r.url().endsWith(`/api/chains/${chainId}`) && r.request().method() === 'PUT'); // prettier-ignore
     await page.getByRole('button', { name: 'Save', exact: true }).click();
@@ -210,6 +211,7 @@ describe('studies', () => {
     await page.getByTestId('run-opt').click();
     await waitDone(page, 'optimiser');
     await run(page, 'optimiser').getByTestId('open-study').click();
+    await page.getByTestId('opt-result').waitFor();
     expect(await page.getByTestId('opt-goal-row').count()).toBe(2);
     expect(await page.getByTestId('opt-after').count()).toBe(2);
     const after = Number(
