@@ -103,6 +103,10 @@ describe('modes of a chain', () => {
       page.locator('[data-stage-id="pa-match"] [data-testid="card-mode-note"]').innerText(),
     ).resolves.toContain('Not on the path of “Receive”');
     await shot(page, 'modes-receive');
+    // The new stage types get their forms from the catalogue: the branch to ground's parts.
+    await page.locator('[data-stage-id="tx-idle"] button.pick').click();
+    await page.locator('cw-param-panel h2').filter({ hasText: 'Branch to ground' }).waitFor();
+    await shot(page, 'modes-branch-form');
 
     // Transmit: the figures change, and the transmit figures appear.
     await modeButton(page, 'transmit').click();
@@ -169,6 +173,8 @@ describe('modes of a chain', () => {
     await expect(page.locator('h1').innerText()).resolves.toBe('Compare modes and variants');
     // The modes differ in their stages: the comparison lists what differs.
     await page.getByTestId('stage-diff').waitFor();
+    // Nothing on the way was refused (a mode's column is read as its chain).
+    await expect(page.locator('simple-snack-bar').count()).resolves.toBe(0);
     await shot(page, 'modes-compare');
   });
 

@@ -135,4 +135,34 @@ describe('CompareComponent', () => {
     expect(cells.some((c) => c.classList.contains('best'))).toBe(false);
     expect(el.querySelector('[role="alert"]')!.textContent).toContain('Pair');
   });
+
+  it('should compare two modes of one chain, each analysed in its mode', async () => {
+    // Answer the first selection, then show two modes of chain "a".
+    await answer();
+    fixture.componentRef.setInput('chains', 'a:rx,a:tx');
+    fixture.detectChanges();
+    await fixture.whenStable();
+    const modal = chainDto('a', 'Transceiver');
+    modal.document = {
+      ...modal.document,
+      modes: [
+        { id: 'rx', name: 'Receive', kind: 'receive' },
+        { id: 'tx', name: 'Transmit', kind: 'transmit' },
+      ],
+    };
+    // The family is the chain's (already read for "a"), never asked for "a:rx".
+    http.expectNone((r) => r.url.includes('a:rx'));
+    for (const request of http.match('/api/chains/a')) request.flush(modal);
+    const analyses = http.match((r) => r.url === '/api/chains/a/analysis');
+    expect(analyses.map((r) => r.request.params.get('mode'))).toEqual(['rx', 'tx']);
+    analyses[0].flush(withImageRejection(10));
+    analyses[1].flush(withImageRejection(20));
+    await fixture.whenStable();
+    fixture.detectChanges();
+    const heads = [...el.querySelectorAll('th.variant a')].map((a) => a.textContent!.trim());
+    expect(heads).toEqual(['Transceiver · Receive', 'Transceiver · Transmit']);
+    expect(el.querySelector('h1')!.textContent).toContain('Compare modes and variants');
+    // Each column links to the chain itself.
+    expect(el.querySelector('th.variant a')!.getAttribute('href')).toBe('/w/w1/chains/a');
+  });
 });

@@ -79,7 +79,7 @@ export default class CompareComponent {
 
   /** The family of the first chain named: what the picker offers. */
   protected readonly family = toSignal(
-    toObservable(computed(() => this.ids()[0] ?? null)).pipe(
+    toObservable(computed(() => (this.ids()[0] ? parseEntry(this.ids()[0]).chainId : null))).pipe(
       switchMap((id) =>
         id
           ? this.api.family(id).pipe(catchError(() => of<ChainSummaryDto[]>([])))
