@@ -1,7 +1,8 @@
 /**
  * Command-line analysis of a chain file.
  *
- *   npm run analyze -- <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+ *   npm run analyze -- <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+ *   npm run analyze -- <chain.json> --list-modes [--json]
  *   npm run analyze -- --list-types [--json]
  *
  * Exit codes: 0 done; 1 wrong usage; 2 the file cannot be read or is not JSON; 3 the chain
@@ -12,6 +13,8 @@ import { readFileSync } from 'node:fs';
 import {
   analyzeChain,
   ChainValidationError,
+  hasModes,
+  modeView,
   STAGE_DEFINITIONS,
   StageParameterError,
   type StageDefinition,
@@ -28,11 +31,15 @@ import {
 } from '../shared/schema/chain';
 import { writeResultJson, writeSweepTable, type Write } from './cli/stream-sweep';
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
+import { modeReportText, modesText } from './cli/mode-text';
 
-const USAGE = `usage: analyze <chain.json> [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+       analyze <chain.json> --list-modes [--json]
        analyze --list-types [--json]
 
   (no option)    the budget table at f0: nodes, stages, resonators, selectivity, levels, flags
+  --mode <id>    analyse (or export) the chain in this mode (default: its first mode)
+  --list-modes   the chain's modes: id, kind (receive, transmit, state) and name
   --sweep        add the sweep (a table, or arrays with --json)
   --plan         add the receiver plan: spurs, strong signals, outside noise, converter
   --json         the whole analysis as JSON
@@ -61,6 +68,8 @@ interface Options {
   spice: boolean;
   touchstone: boolean;
   listTypes: boolean;
+  listModes: boolean;
+  mode?: string;
   z0: number;
   /** Design assistant options (scripts/design-cli.ts). */
   design: Map<string, string>;
@@ -74,6 +83,7 @@ function parseArgs(argv: string[]): Options {
     spice: false,
     touchstone: false,
     listTypes: false,
+    listModes: false,
     z0: 50,
     design: new Map(),
   };
@@ -92,7 +102,12 @@ function parseArgs(argv: string[]): Options {
     else if (a === '--spice') o.spice = true;
     else if (a === '--touchstone') o.touchstone = true;
     else if (a === '--list-types') o.listTypes = true;
-    else if (a === '--z0') {
+    else if (a === '--list-modes') o.listModes = true;
+    else if (a === '--mode') {
+      o.mode = argv[++i];
+      if (!o.mode || o.mode.startsWith('-'))
+        throw new CliError(1, "--mode needs the id of one of the chain's modes (see --list-modes)");
+    } else if (a === '--z0') {
       o.z0 = Number(argv[++i]);
       if (!(o.z0 > 0))
         throw new CliError(1, `--z0 needs a resistance above 0 ohm (got ${argv[i]})`);
@@ -215,17 +230,27 @@ function run(argv: string[], write: Write): void {
       `${o.file}: ${problems.length} problem(s) in the chain:\n${problems.map((p) => `  ${p}`).join('\n')}`,
     );
   }
-  const doc = chainDocumentSchema.parse(raw);
+  const full = chainDocumentSchema.parse(raw);
+  if (o.listModes) {
+    const modes = full.modes ?? [];
+    return write((o.json ? JSON.stringify(modes, null, 2) : modesText(modes)) + '\n');
+  }
   try {
+    // Every output below is of the chain in one mode (a chain without modes: as written).
+    const inMode = hasModes(full) || o.mode !== undefined;
+    const view = inMode ? modeView(full, o.mode, catalogue) : undefined;
+    const doc = view ? ({ ...view.doc, name: `${full.name} — ${view.mode?.name}` } as ChainDocument) : full; // prettier-ignore
     if (o.spice) return write(chainToSpice(doc, { catalogue }).trimEnd() + '\n');
     if (o.touchstone)
       return write(chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd() + '\n');
     const designed = runDesign(doc, o, catalogue);
     if (designed !== null) return write(designed + '\n');
-    const result = analyzeChain(doc, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false });
+    const result = analyzeChain(full, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false, mode: o.mode }); // prettier-ignore
     if (o.json) return writeResultJson(result, write);
     const { sweep, ...atF0 } = result;
     write(budgetText(doc.name, atF0) + '\n');
+    const modeLines = modeReportText(result);
+    if (modeLines) write(`\n${modeLines}\n`);
     if (result.plan) write(`\n${planText(result.plan)}\n`);
     if (sweep) {
       write('\nSweep\n');

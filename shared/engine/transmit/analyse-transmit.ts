@@ -84,7 +84,7 @@ function sectionStress(built: BuiltChain, na: NodeAnalysis): PartStressReport[] 
       const [ir0, ii0] = onwardCurrent(na, j);
       const [ir1, ii1] = onwardCurrent(na, j + 1);
       if (stage.model.innerParts && stage.sectionCount === 1) {
-        for (const p of stage.model.innerParts(built.f0AtFlatNode[j], vr0, vi0)) push(stage.id, p); // prettier-ignore
+        for (const p of stage.model.innerParts(built.f0AtFlatNode[j], vr0, vi0)) push(stage.id, { ...p, label: `${stage.label}, ${p.label}` }); // prettier-ignore
         continue;
       }
       built.sections[j].abcd(built.f0AtFlatNode[j], m, 0);
