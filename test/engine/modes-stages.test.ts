@@ -95,6 +95,18 @@ describe('branch to ground', () => {
     expect(analyzeChain(shortOk, { sweep: false }).traps?.[0].ok).toBe(true);
   });
 
+  it('a resonance a branch meant to block takes part in is judged as the trap, not as a tank', () => {
+    const hiZ = (intent: string) =>
+      chain([{ id: 'lx', type: 'lumped-element', values: { position: 'shunt', element: 'inductor', l } }, branch({ parts: `shunt C ${c}`, end: 'open', intent })], f0, gen(20e3), load(20e3)); // prettier-ignore
+    // Judged as nothing in particular, the L and the branch's C are a tank the network shows.
+    const plain = analyzeChain(hiZ('none'), { sweep: true });
+    expect(plain.resonators.map((x) => [x.origin, x.partOf])).toEqual([['found', ['lx', 'br']]]);
+    // Meant to block, the branch is judged by its own impedance (a bare C here: it misses).
+    const judged = analyzeChain(hiZ('block'), { sweep: true });
+    expect(judged.resonators).toEqual([]);
+    expect(judged.flags.map((x) => x.code)).toEqual(['trap-missed']);
+  });
+
   it('a shorted quarter-wave line is an open at f0 (Z = jZ0·tan βl)', () => {
     const len = 299_792_458 / f0 / 4; // vf 1
     const doc = chain([branch({ parts: `series line 50 ${len} 1`, end: 'ground', intent: 'block' })], f0); // prettier-ignore
