@@ -19,6 +19,7 @@ import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from '.
 const CHAIN = 'Long-wave time signal, ferrite loop into a diode detector';
 const STEM = 'long-wave-time-signal-ferrite-loop-into-a-diode-detector';
 const OUT = join(process.cwd(), 'test-results');
+const TRANSCEIVER = '433.92 MHz low-power transceiver';
 
 /** Calls the API as the signed-in user of `page` (session cookie and its CSRF token). */
 async function api<T>(page: Page, method: 'get' | 'post', url: string, data?: unknown): Promise<T> {
@@ -151,6 +152,21 @@ describe('printable report', () => {
     const csv = readFileSync((await download.path())!, 'utf8');
     expect(csv.split('\r\n')[0]).toBe('\uFEFFSeverity,Stage,Code,Message');
     for (const flag of analysis.flags) expect(csv).toContain(flag.message.replace(/"/g, '""'));
+  });
+
+  it('should report the mode asked for, with the transmit caution of a chain that transmits', async () => {
+    const { page } = watched;
+    await page.goto('/');
+    await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    const href = await page.getByRole('link', { name: TRANSCEIVER }).first().getAttribute('href');
+    await page.goto(`${href}/report?mode=transmit`);
+    await reportReady(page);
+    await expect(page.getByTestId('report-mode').textContent()).resolves.toContain('Transmit');
+    await shot(page, 'report-04-transmit-mode');
+    const text = pdfText(await printPdf(page, 'report-transmit'));
+    expect(text).toContain('Transmit');
+    expect(text).toMatch(/licence/);
+    expect(text).toMatch(/RF exposure/);
   });
 
   it('should print the same report from a read-only link, signed out', async () => {

@@ -168,9 +168,9 @@ export function reportCautions(
   doc: ChainDocument,
   result: AnalysisResult | null,
   types: ReadonlyMap<string, StageTypeInfo>,
+  transmitMode = (doc.modes ?? []).some((m) => m.kind === 'transmit'),
 ): ReportCaution[] {
   const stageTypes = doc.stages.flatMap((s) => types.get(s.type) ?? []);
-  const transmitMode = (doc.modes ?? []).some((m) => m.kind === 'transmit');
   const stated = result?.cautions ?? [];
   const keys = new Set<Caution>([...cautionsOf(stageTypes, transmitMode), ...stated.map((a) => a.caution)]); // prettier-ignore
   const out: ReportCaution[] = cautionsOf(
@@ -181,10 +181,16 @@ export function reportCautions(
   return out;
 }
 
+/**
+ * The report of `doc` as the results read it (for a mode: its stages, values and order).
+ * `transmitMode` says whether the whole chain has a transmit mode, which a mode's own
+ * document no longer shows; its caution then applies in every mode.
+ */
 export function reportModel(
   doc: ChainDocument,
   result: AnalysisResult | null,
   types: ReadonlyMap<string, StageTypeInfo>,
+  transmitMode?: boolean,
 ): ReportModel {
   const budget = result ? budgetTable(result, doc) : null;
   return {
@@ -198,6 +204,6 @@ export function reportModel(
     offsetHeadings: offsetHeadings(doc),
     flags: result ? flagItems(result, doc) : [],
     summary: result ? summaryItems(result, doc) : [],
-    cautions: reportCautions(doc, result, types),
+    cautions: reportCautions(doc, result, types, transmitMode),
   };
 }

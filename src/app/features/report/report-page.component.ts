@@ -26,6 +26,7 @@ import { SessionStore } from '../../core/session/session.store';
 import { StageSymbolComponent } from '../editor/icons/stage-symbol.component';
 import { PLOTLY_LOADER } from '../editor/results/plotly-loader';
 import { AnalysisApi } from '../editor/state/analysis-api';
+import { documentForResults, findMode, hasTransmitMode, modesOf } from '../editor/modes/mode-edits';
 import { type ReportPlot, drawReportPlots, reportPlotSpecs } from './report-plots';
 import { reportModel } from './report-model';
 import { PAGE_SIZES, PageSizeStore, type PageSize } from './page-size';
@@ -39,6 +40,11 @@ interface ReportSource {
   /** Where it came from, in words ("workspace “Bench”", "read-only link"). */
   origin: string;
   document: ChainDocument;
+  /** What the results read against: the mode's stages, values and order, or the chain's. */
+  resultsDocument: ChainDocument;
+  /** The mode reported, or null for the chain as written. */
+  modeId: string | null;
+  modeName: string | null;
   analysis: AnalysisResult | null;
   analysisError: string | null;
 }
@@ -64,6 +70,8 @@ export default class ReportPageComponent {
   readonly chainId = input<string>();
   /** …or a read-only link. */
   readonly token = input<string>();
+  /** From the query: the mode to report (`?mode=ID`); none: the chain as written. */
+  readonly mode = input<string>();
 
   private readonly chains = inject(ChainsApi);
   private readonly colleagues = inject(ColleaguesApi);
@@ -85,7 +93,19 @@ export default class ReportPageComponent {
 
   protected readonly model = computed(() => {
     const s = this.source();
-    return s ? reportModel(s.document, s.analysis, this.types()) : null;
+    return s
+      ? reportModel(s.resultsDocument, s.analysis, this.types(), hasTransmitMode(s.document))
+      : null;
+  });
+
+  /** The mode line of the report's head. */
+  protected readonly modeText = computed(() => {
+    const s = this.source();
+    if (!s) return '';
+    if (s.modeName) return s.modeName;
+    return modesOf(s.document).length > 0
+      ? 'the chain as written (no mode applied)'
+      : 'the chain as written (no modes)';
   });
 
   /** Back to where the report was opened from. */
@@ -102,7 +122,8 @@ export default class ReportPageComponent {
     if (!s || !m) return 'report';
     return exportFileName({
       chainName: s.name,
-      mode: m.mode,
+      // The mode's id, as the other exports name it.
+      mode: s.modeId,
       referenceOhm: m.referenceOhm,
       content: 'report',
       extension: 'pdf',
@@ -110,7 +131,7 @@ export default class ReportPageComponent {
   });
 
   constructor() {
-    effect(() => void this.load(this.token(), this.chainId(), this.workspaceId()));
+    effect(() => void this.load(this.token(), this.chainId(), this.workspaceId(), this.mode()));
     effect(() => {
       if (this.source()) this.title.setTitle(this.fileTitle());
     });
@@ -128,13 +149,18 @@ export default class ReportPageComponent {
     this.page.defaultView?.print();
   }
 
-  private async load(token?: string, chainId?: string, workspaceId?: string): Promise<void> {
+  private async load(
+    token?: string,
+    chainId?: string,
+    workspaceId?: string,
+    modeId?: string,
+  ): Promise<void> {
     this.failure.set('');
     try {
       const source = token
-        ? await this.fromLink(token)
+        ? await this.fromLink(token, modeId)
         : chainId
-          ? await this.fromWorkspace(chainId, workspaceId)
+          ? await this.fromWorkspace(chainId, workspaceId, modeId)
           : null;
       if (!source) return;
       this.source.set(source);
@@ -144,11 +170,14 @@ export default class ReportPageComponent {
     }
   }
 
-  private async fromLink(token: string): Promise<ReportSource> {
+  private async fromLink(token: string, modeId?: string): Promise<ReportSource> {
     const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
     const shared = await firstValueFrom(this.colleagues.shared(token, context));
     // The catalogue is for signed-in readers; a signed-out one gets the values as typed.
     if (this.session.signedIn()) await this.loadTypes();
+    // A chain with modes: the mode asked for, else the first, as the share page shows it.
+    const modes = shared.modes ?? [];
+    const shown = modes.find((m) => m.id === modeId) ?? modes[0] ?? null;
     return {
       name: shared.name,
       description: shared.description,
@@ -156,17 +185,35 @@ export default class ReportPageComponent {
       updatedAt: shared.updatedAt,
       origin: `read-only link from the workspace “${shared.workspaceName}”`,
       document: shared.document,
-      analysis: (shared.analysis as AnalysisResult | null) ?? null,
-      analysisError: shared.analysisError ?? null,
+      resultsDocument: documentForResults(
+        shared.document,
+        shown ? findMode(shared.document, shown.id) : null,
+      ),
+      modeId: shown?.id ?? null,
+      modeName: shown?.name ?? null,
+      analysis: ((shown ? shown.analysis : shared.analysis) as AnalysisResult | null) ?? null,
+      analysisError: (shown ? shown.analysisError : shared.analysisError) ?? null,
     };
   }
 
-  private async fromWorkspace(chainId: string, workspaceId?: string): Promise<ReportSource> {
+  private async fromWorkspace(
+    chainId: string,
+    workspaceId?: string,
+    modeId?: string,
+  ): Promise<ReportSource> {
     const [chain] = await Promise.all([firstValueFrom(this.chains.get(chainId)), this.loadTypes()]);
+    const mode = modeId ? findMode(chain.document, modeId) : null;
+    if (modeId && !mode) throw new Error(`This chain has no mode "${modeId}".`);
+    // As the editor does: the chain as written is the document without its modes.
+    const resultsDocument = documentForResults(chain.document, mode);
     let analysis: AnalysisResult | null = null;
     let analysisError: string | null = null;
     try {
-      analysis = await firstValueFrom(this.analysisApi.analyse(chain.document, workspaceId));
+      analysis = await firstValueFrom(
+        mode
+          ? this.analysisApi.analyse(chain.document, workspaceId, mode.id)
+          : this.analysisApi.analyse(resultsDocument, workspaceId),
+      );
     } catch (error) {
       analysisError = describeHttpError(error);
     }
@@ -178,6 +225,9 @@ export default class ReportPageComponent {
       updatedAt: chain.updatedAt,
       origin: workspace ? `workspace “${workspace.workspaceName}”` : 'workspace',
       document: chain.document,
+      resultsDocument,
+      modeId: mode?.id ?? null,
+      modeName: mode?.name ?? null,
       analysis,
       analysisError,
     };

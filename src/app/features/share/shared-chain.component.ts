@@ -63,6 +63,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
             mat-stroked-button
             data-testid="open-report"
             [routerLink]="['/shared', token(), 'report']"
+            [queryParams]="modeShown() ? { mode: modeShown()!.id } : {}"
             >Report</a
           >
           <a mat-stroked-button [href]="exportUrl('json', false)" download>Chain file</a>
@@ -196,7 +197,7 @@ export default class SharedChainComponent {
   protected readonly selected = signal<string | null>(null);
   /** The mode shown, for a chain with modes (the first until another is chosen). */
   protected readonly modeId = signal<string | null>(null);
-  private readonly modeShown = computed(() => {
+  protected readonly modeShown = computed(() => {
     const modes = this.shared()?.modes ?? [];
     return modes.find((m) => m.id === this.modeId()) ?? modes[0] ?? null;
   });

@@ -28,6 +28,7 @@ import { OptimiserFormComponent } from './forms/optimiser-form.component';
 import { BandResultComponent } from './results/band-result.component';
 import { MonteCarloResultComponent } from './results/monte-carlo-result.component';
 import { OptimiserResultComponent } from './results/optimiser-result.component';
+import { chainReferenceOhm, exportFileName } from '../../../../shared/io/export-name';
 import { StudiesApi } from './studies.api';
 
 const FINISHED = ['done', 'failed', 'cancelled'];
@@ -66,6 +67,16 @@ export default class StudiesComponent {
   private readonly follows = new Map<string, Subscription>();
 
   protected readonly chain = signal<ChainDto | null>(null);
+  /** Names a study CSV after the chain and its reference impedance. */
+  protected readonly csvName = (content: string): string => {
+    const c = this.chain();
+    return exportFileName({
+      chainName: c?.name ?? 'chain',
+      referenceOhm: c ? chainReferenceOhm(c.document.settings) : undefined,
+      content,
+      extension: 'csv',
+    });
+  };
   protected readonly studies = signal<StudySummaryDto[]>([]);
   protected readonly selected = signal<StudyDto | null>(null);
   protected readonly message = signal('');

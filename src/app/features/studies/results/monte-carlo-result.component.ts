@@ -1,4 +1,10 @@
 import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
+import {
+  monteCarloFiguresCsv,
+  monteCarloSensitivityCsv,
+  monteCarloTrialsCsv,
+} from '../../../../../shared/io/study-csv';
+import { CsvButtonComponent } from '../../report/csv-button.component';
 import type { MonteCarloResult } from '../../../../../shared/engine/studies';
 import { ResultPlotComponent } from '../../editor/results/result-plot.component';
 import { numberOf } from '../forms/tunable';
@@ -8,7 +14,7 @@ import { pct } from './study-format';
 /** A Monte Carlo run: yield against the chain's targets, histograms, scatter, sensitivity. */
 @Component({
   selector: 'cw-monte-carlo-result',
-  imports: [ResultPlotComponent],
+  imports: [ResultPlotComponent, CsvButtonComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   styleUrl: './result.scss',
   template: `
@@ -18,6 +24,26 @@ import { pct } from './study-format';
         Monte Carlo: {{ r.trials }} trials,
         {{ r.distribution === 'normal' ? 'normal (± % as 3σ)' : 'uniform' }}, seed {{ r.seed }}
       </h2>
+      <div class="csv-row">
+        <cw-csv-button
+          what="Monte Carlo figures"
+          label="Figures CSV"
+          [tables]="csv.figures"
+          [fileName]="csvName()('monte-carlo-figures')"
+        />
+        <cw-csv-button
+          what="every Monte Carlo trial"
+          label="Trials CSV"
+          [tables]="csv.trials"
+          [fileName]="csvName()('monte-carlo-trials')"
+        />
+        <cw-csv-button
+          what="what drives the losses"
+          label="Sensitivity CSV"
+          [tables]="csv.sensitivity"
+          [fileName]="csvName()('monte-carlo-sensitivity')"
+        />
+      </div>
       @if (r.yield; as y) {
         <p class="yield" data-testid="mc-yield">
           Yield: <strong>{{ pct(y.fraction) }}</strong> ({{ y.passed }} of {{ r.trials }} meet every
@@ -103,6 +129,14 @@ import { pct } from './study-format';
 })
 export class MonteCarloResultComponent {
   readonly result = input.required<MonteCarloResult>();
+  /** Names a CSV file from what it holds (chain, reference impedance, table). */
+  readonly csvName = input<(content: string) => string>((content) => `${content}.csv`);
+  /** The run's tables as CSV, built when a button is pressed. */
+  protected readonly csv = {
+    figures: () => [monteCarloFiguresCsv(this.result())],
+    trials: () => [monteCarloTrialsCsv(this.result())],
+    sensitivity: () => [monteCarloSensitivityCsv(this.result())],
+  };
 
   protected readonly pct = pct;
   protected readonly num = numberOf;

@@ -1,4 +1,6 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { optimiserCsv } from '../../../../../shared/io/study-csv';
+import { CsvButtonComponent } from '../../report/csv-button.component';
 import { MatButtonModule } from '@angular/material/button';
 import type { OptimiserResult } from '../../../../../shared/engine/studies';
 import { fmt } from './study-format';
@@ -6,13 +8,18 @@ import { fmt } from './study-format';
 /** An optimiser run: each value and each goal before and after, and "save as a variant". */
 @Component({
   selector: 'cw-optimiser-result',
-  imports: [MatButtonModule],
+  imports: [MatButtonModule, CsvButtonComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   styleUrl: './result.scss',
   template: `
     @let r = result();
     <section class="result" data-testid="opt-result">
       <h2>Optimiser: {{ r.iterations }} iterations, {{ r.evaluations }} analyses</h2>
+      <cw-csv-button
+        what="optimiser values and goals"
+        [tables]="csv"
+        [fileName]="csvName()('optimiser')"
+      />
       <table class="runs" data-testid="opt-compare">
         <thead>
           <tr>
@@ -60,6 +67,10 @@ import { fmt } from './study-format';
 })
 export class OptimiserResultComponent {
   readonly result = input.required<OptimiserResult>();
+  /** Names a CSV file from what it holds (chain, reference impedance, table). */
+  readonly csvName = input<(content: string) => string>((content) => `${content}.csv`);
+  /** The values and goals before and after as CSV, built when the button is pressed. */
+  protected readonly csv = () => [optimiserCsv(this.result())];
   readonly saving = input(false);
   readonly save = output<void>();
 
