@@ -84,6 +84,13 @@ describe('design tools', () => {
     await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(true);
     await page.getByRole('button', { name: 'Undo' }).click();
     await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(false);
+
+    // The pass-band peak after the link (node 3) on 7.0 MHz instead of the resonance.
+    await page.getByTestId('tune-what').selectOption('3');
+    await page.getByTestId('tune-target').fill('7 MHz');
+    await page.getByTestId('tune-solve').click();
+    await page.getByText(/Peaks at 7 MHz at node 3/).waitFor();
+    await shot(page, 'design-01b-tune-peak');
   });
 
   it('turns the tank capacitor with the knob while the live response follows', async () => {
@@ -95,6 +102,9 @@ describe('design tools', () => {
     await page.getByTestId('knob-section').locator('summary').click();
     await page.getByTestId('knob-param').selectOption('c');
     const slider = page.getByTestId('knob-slider');
+    const headline = (label: string) =>
+      page.locator('.headline-item', { hasText: label }).locator('.headline-value').innerText();
+    const gainBefore = await headline('Total available gain');
     // Turn through 150 positions, 10 ms apart, as a dragged slider sends them (a count, not a
     // duration: a busy page delays its own timers).
     const sent = await slider.evaluate(
@@ -133,6 +143,11 @@ describe('design tools', () => {
       JSON.stringify({ updatesPerSecond: rate, measuredAt: new Date().toISOString() }) + '\n',
     );
     expect(rate).toBeGreaterThan(0);
+    // The main key figures follow the turned value before it is released (the worker's
+    // live figures laid over the server's result).
+    const gainTurning = await headline('Total available gain');
+    process.stdout.write(`knob: total available gain ${gainBefore} before, ${gainTurning} while turning\n`); // prettier-ignore
+    expect(gainTurning).not.toBe(gainBefore);
     await shot(page, 'design-02-knob');
     // Release: one undoable edit.
     await slider.dispatchEvent('change');

@@ -122,7 +122,8 @@ export default class ChainEditorComponent implements LeaveAware {
 
   protected readonly doc = this.store.doc;
   protected readonly selectedId = this.store.selectedId;
-  protected readonly analysis = this.runner.result;
+  /** The server's analysis, with a turning knob's live sweep and figures laid over it. */
+  protected readonly analysis = this.runner.shown;
   /** The document on screen: a revision being looked at, or the one being edited. */
   protected readonly shownDoc = computed(() => this.viewing()?.document ?? this.doc());
   protected readonly locked = computed(() => this.store.readOnly() || this.viewing() !== null);

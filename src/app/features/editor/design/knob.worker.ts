@@ -1,14 +1,22 @@
 /// <reference lib="webworker" />
 /**
  * The engine in a Web Worker, for the value knob. While a value turns only what the live
- * view shows is computed: the chain is built and its node analysis run over the sweep
- * (thinned to at most 401 points) and at f0 — no resonance search, noise or flags, which the
- * server's full analysis supplies once the value is released. The saved result stays the
- * server's; this answer is only for the live view.
+ * views show is computed: the chain is built and its node analysis run over the sweep
+ * (thinned to at most 401 points) and at f0, giving the sweep the main plots draw and the
+ * f0 figures (gain, noise figure, sensitivity) — no resonance search, selectivity or flags,
+ * which the server's full analysis supplies once the value is released (nor the detector's
+ * drive-level settling). The saved result stays the server's; this answer is only for the
+ * live views.
  */
 import { buildChain } from '../../../../../shared/engine/core/build';
 import { runNodeAnalysis } from '../../../../../shared/engine/core/nodes';
 import { stepUp } from '../../../../../shared/engine/core/quantities';
+import {
+  levelsReport,
+  nodeReports,
+  stageReports,
+  sweepReport,
+} from '../../../../../shared/engine/core/reports';
 import { frequencyGrid } from '../../../../../shared/engine/core/sweep';
 import { defaultCatalogue } from '../../../../../shared/engine/default-catalogue';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
@@ -41,6 +49,13 @@ addEventListener('message', ({ data }: MessageEvent<KnobQuestion>) => {
     const lo = edge(-1);
     const hi = edge(1);
     const atF0 = runNodeAnalysis(built, [doc.settings.f0Hz]);
+    const stages = stageReports(built, atF0);
+    const live = {
+      sweep: sweepReport(built, na),
+      nodes: nodeReports(built, atF0),
+      stages,
+      levels: levelsReport(built, atF0, stages),
+    };
     const answer: KnobAnswer = {
       id: data.id,
       ok: true,
@@ -49,6 +64,7 @@ addEventListener('message', ({ data }: MessageEvent<KnobQuestion>) => {
       peakHz: db.length ? freqs[peak] : null,
       bw3dbHz: lo !== null && hi !== null ? hi - lo : null,
       stepUpAtF0Db: 20 * Math.log10(stepUp(atF0, flat, 0)),
+      live,
       ms: performance.now() - started,
     };
     postMessage(answer);

@@ -10,6 +10,7 @@ import {
 import type { ParamSpec } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { formatEngineering } from '../../../../../shared/units';
+import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
 import { visibleParams, withValue } from '../state/stage-factory';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
@@ -36,6 +37,7 @@ export class ValueKnobComponent {
   readonly readOnly = input(false);
 
   protected readonly store = inject(EditorStore);
+  private readonly runner = inject(AnalysisRunner);
   private worker: Worker | null = null;
   private nextId = 0;
   private busy = false;
@@ -171,6 +173,8 @@ export class ValueKnobComponent {
       this.busy = false;
       if (data.ok) {
         this.live.set(data);
+        // The main plots and key figures follow too, until the server answers the release.
+        if (this.base() !== null) this.runner.showLive(data.live);
         this.failure.set(null);
         this.countAnswer();
       } else {

@@ -155,6 +155,31 @@ describe('AnalysisRunner', () => {
     });
   });
 
+  describe('a turning knob’s live figures', () => {
+    it('should lay them over the server’s result until the next server answer replaces them', () => {
+      runner.request(doc('a'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      http.expectOne('/api/analysis').flush(result(1));
+      const server = runner.result()!;
+      const sweep = { freqsHz: [1e6], nodes: [] } as unknown as NonNullable<
+        AnalysisResult['sweep']
+      >;
+      runner.showLive({ sweep, nodes: [], stages: [], levels: { ...server.levels, totalGainDb: 7 } }); // prettier-ignore
+      expect(runner.turning()).toBe(true);
+      expect(runner.shown()!.levels.totalGainDb).toBe(7);
+      expect(runner.shown()!.sweep).toBe(sweep);
+      expect(runner.shown()!.resonators).toBe(server.resonators);
+      expect(runner.result()!.levels.totalGainDb).toBe(20);
+      // The released value goes to the server; its answer is what is shown (and saved).
+      runner.request(doc('b'));
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      http.expectOne('/api/analysis').flush(result(2));
+      expect(runner.turning()).toBe(false);
+      expect(runner.shown()!.levels.totalGainDb).toBe(20);
+      expect(runner.shown()!.f0Hz).toBe(2);
+    });
+  });
+
   describe('edit-to-render measure', () => {
     it('should measure from the edit that was analysed, not from a later one', () => {
       const timeline = fakeTimeline();

@@ -1,10 +1,19 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { afterNextRender, DestroyRef, inject, Injectable, Injector, signal } from '@angular/core';
+import {
+  afterNextRender,
+  computed,
+  DestroyRef,
+  inject,
+  Injectable,
+  Injector,
+  signal,
+} from '@angular/core';
 import { catchError, debounceTime, map, of, Subject, switchMap, tap } from 'rxjs';
 import type { ChainIssue } from '../../../../../shared/engine/errors';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { describeHttpError } from '../../../core/http/error-message';
+import type { LiveAnalysis } from '../design/knob-messages';
 import { AnalysisApi } from './analysis-api';
 
 /**
@@ -53,8 +62,20 @@ export class AnalysisRunner {
   private readonly refusalState = signal<AnalysisRefusal | null>(null);
   private readonly failureState = signal<string | null>(null);
 
-  /** The latest analysis of a valid chain. */
+  /** The latest analysis of a valid chain (the server's). */
   readonly result = this.resultState.asReadonly();
+  private readonly liveState = signal<LiveAnalysis | null>(null);
+  /**
+   * What the results panel shows: the server's analysis, with the sweep and f0 figures of a
+   * value being turned laid over it until the server's answer for the released value lands.
+   */
+  readonly shown = computed<AnalysisResult | null>(() => {
+    const result = this.resultState();
+    const live = this.liveState();
+    return result && live ? { ...result, ...live } : result;
+  });
+  /** Whether `shown` carries a turning value's live figures. */
+  readonly turning = computed(() => this.liveState() !== null);
   /** Whether an edit is waiting for its analysis. */
   readonly pending = this.pendingState.asReadonly();
   /** The server refused the latest document (422). */
@@ -83,8 +104,15 @@ export class AnalysisRunner {
     this.edits.next({ doc, at: markEdit(), workspaceId, ...(mode ? { mode } : {}) });
   }
 
+  /** Lays a turning value's live figures over the result (null: show the server's alone). */
+  showLive(live: LiveAnalysis | null): void {
+    this.liveState.set(live);
+  }
+
   private land(outcome: Outcome): void {
     this.pendingState.set(false);
+    // The server's answer replaces any live figures: the saved result stays the server's.
+    this.liveState.set(null);
     if (outcome.kind === 'result') {
       this.resultState.set(outcome.result);
       this.refusalState.set(null);
