@@ -130,6 +130,10 @@ describe('exchange formats in the browser', () => {
     await textAppears(bin, 'BIN-9');
     await textAppears(bin, '150 pF');
     await shot(page, 'formats-03-parts-bin');
+    // The bin on a phone: the table scrolls sideways inside its frame, the page does not.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await shot(page, 'formats-03b-parts-bin-phone');
+    await page.setViewportSize({ width: 1440, height: 900 });
 
     // 2. A broken chain file is refused with its line; a good one opens as a new chain.
     await page.goto(`/w/${wid}/chains`);

@@ -99,7 +99,8 @@ export class DataFileFieldComponent {
   protected readonly hint = computed(() =>
     this.kind() === 's1p'
       ? 'A one-port file (.s1p) of the antenna impedance; it replaces the table.'
-      : 'A two-port file (.s2p) of the measured S-parameters; it replaces the table.',
+      : 'A two-port file (.s2p, or a Touchstone 2.0 .ts) of the measured S-parameters, with ' +
+        'noise parameters if it has them; it replaces the table.',
   );
 
   constructor() {
