@@ -138,6 +138,9 @@ export default class ChainEditorComponent implements LeaveAware {
     documentForResults(this.shownDoc(), this.modeShown()),
   );
   protected readonly transmitMode = computed(() => hasTransmitMode(this.shownDoc()));
+  protected readonly stageLabels = computed(
+    () => new Map(this.shownDoc().stages.map((s) => [s.id, s.label || s.type])),
+  );
   protected readonly chainTypes = computed(() => {
     const catalogue = this.store.catalogue();
     return this.shownDoc()

@@ -114,7 +114,7 @@ import { AnalysisResultsComponent } from '../editor/results/analysis-results.com
           [selectedStageId]="selected()"
           (stageSelected)="selected.set($event)"
         />
-        <cw-transmit-panel [result]="analysis()" />
+        <cw-transmit-panel [result]="analysis()" [labels]="stageLabels()" />
       </main>
     } @else {
       <p class="cw-page cw-muted">Opening the shared chain…</p>
@@ -216,6 +216,9 @@ export default class SharedChainComponent {
     const id = this.modeShown()?.id;
     return documentForResults(s.document, s.document.modes?.find((m) => m.id === id) ?? null);
   });
+  protected readonly stageLabels = computed(
+    () => new Map((this.shownDoc()?.stages ?? []).map((st) => [st.id, st.label || st.type])),
+  );
   protected readonly transmit = computed(() => {
     const s = this.shared();
     return s ? hasTransmitMode(s.document) : false;

@@ -93,7 +93,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
             <tbody>
               @for (p of tx.parts; track $index) {
                 <tr [attr.data-stage-id]="p.stageId">
-                  <th scope="row">{{ p.label }}</th>
+                  <th scope="row">{{ partName(p.stageId, p.label) }}</th>
                   <td class="cw-num">{{ f(p.vPeak, 'volt') }}</td>
                   <td class="cw-num">{{ f(p.iRms, 'ampere') }}</td>
                   <td class="cw-num">{{ f(p.powerW, 'watt') }}</td>
@@ -209,6 +209,8 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
 })
 export class TransmitPanelComponent {
   readonly result = input<AnalysisResult | null>(null);
+  /** Stage labels by id, to name the stage of a part whose own label does not. */
+  readonly labels = input<ReadonlyMap<string, string>>(new Map());
 
   protected readonly transmit = computed((): Transmit | null => this.result()?.transmit ?? null);
   protected readonly traps = computed((): Trap[] => this.result()?.traps ?? []);
@@ -218,4 +220,9 @@ export class TransmitPanelComponent {
   protected readonly x = times;
   protected readonly z = impedancePolar;
   protected readonly word = verdict;
+
+  protected partName(stageId: string, label: string): string {
+    const stage = this.labels().get(stageId);
+    return stage && !label.startsWith(stage) ? `${stage} · ${label}` : label;
+  }
 }
