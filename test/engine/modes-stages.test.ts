@@ -10,7 +10,8 @@
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { analyzeChain, ChainValidationError } from '../../shared/engine';
+import { analyzeChain, ChainValidationError, insertStagesAfter } from '../../shared/engine';
+import { matchHere } from '../../shared/engine/design/match-here';
 import { offCapacitanceForIsolation } from '../../shared/engine/stages';
 
 const TWO_PI = 2 * Math.PI;
@@ -138,6 +139,42 @@ describe('power amplifier', () => {
     expect(r.nodes[0].deliveredW).toBeCloseTo(0.5, 9);
     expect(r.nodes[0].vPeak).toBeCloseTo(11, 9);
     expect(r.flags.filter((x) => x.code === 'caution').map((x) => x.data?.caution)).toEqual(['transmit', 'rf-exposure']); // prettier-ignore
+  });
+});
+
+describe('power amplifier, match here in a transmit mode', () => {
+  it("designs the L-section from the amplifier's load line to the antenna, in the mode's path", () => {
+    const f0 = 433.92e6;
+    const w = TWO_PI * f0;
+    const pa = { id: 'pa', type: 'power-amplifier', values: { powerW: 0.1, supplyV: 3 } };
+    const rxLoad = { id: 'rx-load', type: 'rc-load', values: { r: 200, c: 0 } };
+    const doc = {
+      ...chain([], f0, gen(), rxLoad),
+      stages: [gen(), rxLoad, pa, { id: 'ant', type: 'rc-load', values: { r: 50, c: 0 } }],
+      modes: [
+        { id: 'receive', name: 'Receive', kind: 'receive' as const, path: ['gen', 'rx-load'] },
+        { id: 'transmit', name: 'Transmit', kind: 'transmit' as const, path: ['pa', 'ant'] },
+      ],
+    };
+    const res = matchHere(doc, { afterStageId: 'pa' }, { mode: 'transmit' });
+    expect(res.zSource.re).toBeCloseTo(45, 9); // 3²/(2·0.1)
+    expect(res.zLoad.re).toBeCloseTo(50, 9);
+    // Low-pass L from 45 Ω up to 50 Ω: Q = √(50/45 − 1), series X = 45·Q, shunt X = 50/Q.
+    const q = Math.sqrt(50 / 45 - 1);
+    const lowPass = res.candidates.find(
+      (c) => c.topology === 'l-section' && c.parts[0].place === 'series' && c.parts[0].part === 'L',
+    );
+    expect(lowPass?.parts[0].value).toBeCloseTo((45 * q) / w, 18);
+    expect(lowPass?.parts[1]).toMatchObject({ place: 'shunt', part: 'C' });
+    expect(lowPass?.parts[1].value).toBeCloseTo(q / (50 * w), 20);
+    expect(lowPass?.figures?.returnLossDb).toBeGreaterThan(30);
+    // Inserted after the amplifier, the new stages join the transmit path only.
+    const withMatch = insertStagesAfter(doc, 'pa', lowPass!.stages);
+    const ids = lowPass!.stages.map((s) => s.id);
+    expect(withMatch.modes?.[1].path).toEqual(['pa', ...ids, 'ant']);
+    expect(withMatch.modes?.[0].path).toEqual(['gen', 'rx-load']);
+    const tx = analyzeChain(withMatch, { mode: 'transmit', sweep: false }).transmit;
+    expect(tx?.deliveredW).toBeGreaterThan(0.099);
   });
 });
 

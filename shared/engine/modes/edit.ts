@@ -3,21 +3,21 @@
  * join the modes that use that stage (a mode's path takes them right after it; a mode that
  * leaves that stage out leaves them out too).
  */
-import type { ChainDocument, Mode } from '../../schema/chain';
+import type { Mode } from '../../schema/chain';
 
 /**
  * The document with `stages` inserted after stage `afterStageId` (the input is untouched).
  * @throws Error when there is no such stage (a programming error of the caller)
  */
-export function insertStagesAfter<D extends Pick<ChainDocument, 'stages'> & { modes?: Mode[] }>(
-  doc: D,
-  afterStageId: string,
-  stages: D['stages'],
-): D {
+export function insertStagesAfter<
+  S extends { id: string },
+  M extends Pick<Mode, 'path' | 'bypass'>,
+  D extends { stages: S[]; modes?: M[] },
+>(doc: D, afterStageId: string, stages: S[]): D {
   const at = doc.stages.findIndex((s) => s.id === afterStageId);
   if (at < 0) throw new Error(`there is no stage "${afterStageId}" in this chain`);
   const ids = stages.map((s) => s.id);
-  const modes = doc.modes?.map((m): Mode => {
+  const modes = doc.modes?.map((m): M => {
     if (m.path) {
       const k = m.path.indexOf(afterStageId);
       return k < 0 ? m : { ...m, path: [...m.path.slice(0, k + 1), ...ids, ...m.path.slice(k + 1)] }; // prettier-ignore
