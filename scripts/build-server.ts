@@ -4,7 +4,8 @@
  * node_modules, source maps beside them.
  *   dist/server/main.js             the HTTP server (server/main.ts)
  *   dist/server/analysis-worker.js  the analysis thread the server's pool runs
- *   dist/server/worker.js           the background worker, when server/worker.ts exists
+ *   dist/server/worker.js           the study worker (server/worker.ts)
+ *   dist/server/study-thread.js     the thread the study worker runs each study in
  * Usage: node --import tsx scripts/build-server.ts
  */
 import { existsSync } from 'node:fs';
@@ -18,6 +19,7 @@ const entries: [string, string][] = [
   ['server/main.ts', 'main.js'],
   ['server/analysis/analysis-worker.ts', 'analysis-worker.js'],
   ['server/worker.ts', 'worker.js'],
+  ['server/studies/study-thread.ts', 'study-thread.js'],
 ];
 
 const started = Date.now();

@@ -63,7 +63,7 @@ fi
 WORKERS="${CW_WORKERS:-1}"
 if [ "$WORKERS" -gt 0 ]; then
   step "Starting $WORKERS study worker(s)"
-  start_workers "$WORKERS"
+  start_workers "$WORKERS" bundled
 fi
 
 cat <<EOF

@@ -196,13 +196,19 @@ stop_node() {
 }
 
 # Whether the built client is older than its sources (src/, shared/, angular.json).
-# start_workers N: starts N study workers (server/worker.ts) in the background with the
-# environment as it is; sets WORKER_PIDS. They take study jobs from the database's queue.
+# start_workers N [bundled]: starts N study workers in the background with the environment
+# as it is; sets WORKER_PIDS. They take study jobs from the database's queue. With
+# `bundled`, the esbuild bundle dist/server/worker.js (scripts/build-server.ts, as npm start
+# runs the server), else server/worker.ts through tsx.
 WORKER_PIDS=()
 start_workers() {
   local i
   for ((i = 0; i < ${1:-1}; i++)); do
-    node --import tsx server/worker.ts &
+    if [ "${2:-}" = bundled ]; then
+      node --enable-source-maps dist/server/worker.js &
+    else
+      node --import tsx server/worker.ts &
+    fi
     WORKER_PIDS+=($!)
   done
 }

@@ -3,8 +3,8 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import { diffQuerySchema, type RevisionDiffDto } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { diffChains, keyFigures, type FigureSource } from '../../shared/diff/chain-diff';
-import { analyzeChain, catalogue as stageCatalogue } from '../../shared/engine';
-import { invalidChainError } from '../analysis/engine-errors';
+import { catalogue as stageCatalogue } from '../../shared/engine';
+import { runOnPool, withinBudget } from '../analysis/analysis-pool';
 import { ChainRevisionSchema } from '../chains/revision.entity';
 import { NotFoundError } from '../common/errors';
 import { chainRole, loadedChain } from '../common/roles';
@@ -29,24 +29,27 @@ export function revisionDiffRouter(em: EntityManager): Router {
     const before = docOf(q.from);
     const after = docOf(q.to);
     const catalogue = stageCatalogue();
+    // Each revision is analysed on the thread pool under the analysis budgets. A revision the
+    // engine refuses, or one over the stages × points budget, still diffs: its figures show
+    // as missing.
     const analyze = async (doc: ChainDocument): Promise<FigureSource | null> => {
+      if (!withinBudget(doc)) return null;
       const dataFiles = await loadDataFiles(em, doc, chain.workspace.id).catch(() => undefined);
-      try {
-        return (await analyzeChain(doc, {
-          sweep: false,
-          ...(dataFiles ? { dataFiles } : {}),
-        })) as FigureSource;
-      } catch (err) {
-        // A revision the engine refuses still diffs; its figures show as missing.
-        if (invalidChainError(err)) return null;
-        throw err;
-      }
+      const outcome = await runOnPool({
+        document: doc,
+        ...(dataFiles ? { dataFiles } : {}),
+        want: 'result',
+        traces: [],
+      });
+      if (outcome.kind === 'refused') return null;
+      if (outcome.kind !== 'json') throw new Error(`analysis thread answered ${outcome.kind}`);
+      return JSON.parse(outcome.json) as FigureSource;
     };
     const body: RevisionDiffDto = {
       from: q.from,
       to: q.to,
       ...diffChains(before, after, (type) => catalogue.find((t) => t.type === type)?.params ?? []),
-      figures: keyFigures(await analyze(before), await analyze(after)),
+      figures: keyFigures(...(await Promise.all([analyze(before), analyze(after)]))),
     };
     res.json(body);
   });

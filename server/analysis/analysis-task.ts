@@ -6,15 +6,23 @@
 import type { MeasuredNetwork } from '../../shared/engine/types';
 import type { ChainDocument } from '../../shared/schema/chain';
 import type { SweepTrace } from '../../shared/schema/sweep-columns';
+import type { DesignOp } from '../design/design-ops';
 
 export interface AnalysisTask {
   document: ChainDocument;
   dataFiles?: Record<string, MeasuredNetwork>;
   /**
    * `answer`: the API's JSON answer as text (serialised in the thread, so the event loop only
-   * sends it); `flag-count`: the number of warning and error flags, for the chain list.
+   * sends it); `flag-count`: the number of warning and error flags, for the chain list;
+   * `result`: the engine's whole result as JSON text (with the sweep arrays when `traces` is
+   * not empty), for a shared link and a revision diff; `design`: design operation `op` on
+   * `request` (the parsed body), its answer as JSON text.
    */
-  want: 'answer' | 'flag-count';
+  want: 'answer' | 'flag-count' | 'result' | 'design';
+  /** The design operation (`want: 'design'`). */
+  op?: DesignOp;
+  /** The parsed request body of the design operation, without its document (sent once, above). */
+  request?: unknown;
   /** Sweep traces to include in the answer; none leaves the sweep out. */
   traces: readonly SweepTrace[];
   /** Limit the per-node sweep traces to these node indices. */
@@ -30,8 +38,11 @@ export interface AnalysisTask {
 export type AnalysisOutcome =
   | { kind: 'answer'; json: string }
   | { kind: 'flag-count'; count: number }
+  | { kind: 'json'; json: string }
   | {
       kind: 'refused';
+      /** The API's error code (default `invalid-chain`). */
+      code?: string;
       message: string;
       details: unknown;
     };

@@ -1,6 +1,7 @@
 /**
  * The analysis thread (run by the piscina pool in ./analysis-pool.ts): the engine's whole
- * analysis, the sweep put into columns and the answer serialised, off the event loop.
+ * analysis, the sweep put into columns and the answer serialised, and the design assistants,
+ * off the event loop.
  */
 import {
   analyseModes,
@@ -11,6 +12,7 @@ import {
 } from '../../shared/engine';
 import type { ModeAnalysisDto, ModesAnalysisDto } from '../../shared/schema/api';
 import { sweepToColumns, type AnalysisDto } from '../../shared/schema/sweep-columns';
+import { runDesignOp } from '../design/design-ops';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
 
 function refusal(err: unknown): Extract<AnalysisOutcome, { kind: 'refused' }> | null {
@@ -51,7 +53,40 @@ function allModes(task: AnalysisTask, options: Parameters<typeof analyzeChain>[1
   return JSON.stringify(answer);
 }
 
+function runDesign(task: AnalysisTask): AnalysisOutcome {
+  try {
+    // The document travels once, beside the rest of the request.
+    const request = { ...(task.request as object), document: task.document };
+    const answer = runDesignOp(task.op!, request, task.dataFiles ? { dataFiles: task.dataFiles } : {}); // prettier-ignore
+    return { kind: 'json', json: JSON.stringify(answer) };
+  } catch (err) {
+    const refused = refusal(err);
+    if (refused) return refused;
+    // The assistants' own checks of what they were asked (a coil form, a value to snap).
+    if (err instanceof RangeError) {
+      return { kind: 'refused', code: 'design-refused', message: err.message, details: [] };
+    }
+    throw err;
+  }
+}
+
+function runWhole(task: AnalysisTask): AnalysisOutcome {
+  try {
+    const result = analyzeChain(task.document, {
+      sweep: task.traces.length > 0,
+      ...(task.dataFiles ? { dataFiles: task.dataFiles } : {}),
+    });
+    return { kind: 'json', json: JSON.stringify(result) };
+  } catch (err) {
+    const refused = refusal(err);
+    if (refused) return refused;
+    throw err;
+  }
+}
+
 export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
+  if (task.want === 'design') return runDesign(task);
+  if (task.want === 'result') return runWhole(task);
   const sweep = task.want === 'answer' && task.traces.length > 0;
   const options = {
     sweep,

@@ -3,10 +3,16 @@
  * preferred series, parts with coil turns) on a chain document the client sends, with the
  * data files of `workspaceId`. Any signed-in user; with a workspace, a member of it. They
  * change nothing stored: the client applies an answer as an edit of its own.
+ *
+ * Each runs on the analysis thread pool (server/analysis/analysis-pool.ts) under the same
+ * budgets as an analysis: a chain over the stages × points budget is refused with 422 before
+ * any work, and one that runs out of time is stopped with 503; the event loop only parses,
+ * authorises and sends.
  */
-import { Router, type Request } from 'express';
+import { Router, type Request, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { z } from 'zod';
+import type { ChainDocument } from '../../shared/schema/chain';
 import {
   matchHereRequestSchema,
   partsRequestSchema,
@@ -15,93 +21,59 @@ import {
   tunePairRequestSchema,
   tuneRequestSchema,
 } from '../../shared/schema/api';
+import { assertWithinBudget, runOnPool } from '../analysis/analysis-pool';
+import { HttpError } from '../common/errors';
 import { currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
-import { invalidChainError } from '../analysis/engine-errors';
-import * as designApi from '../../shared/engine/design';
-
-type DesignApi = typeof designApi;
-type DesignOptions = designApi.DesignOptions;
+import type { DesignOp } from './design-ops';
 
 /**
- * Parses the body, checks workspace access, loads the data files and runs `work`, mapping
- * the engine's refusals (ChainValidationError, StageParameterError) to 422.
+ * Parses the body, checks workspace access and the budget, loads the data files, runs
+ * design operation `op` on the pool and sends its answer; the engine's refusal of the chain
+ * (a ChainValidationError or StageParameterError in the thread) is a 422 `invalid-chain`.
  */
-async function runDesign<S extends z.ZodType<{ document: unknown; workspaceId?: string }>, T>(
+async function runDesign(
   em: EntityManager,
   req: Request,
-  schema: S,
-  work: (design: DesignApi, body: z.infer<S>, options: DesignOptions) => T,
-): Promise<T> {
+  res: Response,
+  schema: z.ZodType<{ document: ChainDocument; workspaceId?: string }>,
+  op: DesignOp,
+): Promise<void> {
   const body = parseOr422(schema, req.body);
   if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-  const dataFiles = await loadDataFiles(em, body.document as never, body.workspaceId);
-  try {
-    return work(designApi, body, dataFiles ? { dataFiles } : {});
-  } catch (err) {
-    throw invalidChainError(err) ?? err;
+  assertWithinBudget(body.document);
+  const dataFiles = await loadDataFiles(em, body.document, body.workspaceId);
+  const { document, ...request } = body;
+  const outcome = await runOnPool({
+    document,
+    ...(dataFiles ? { dataFiles } : {}),
+    want: 'design',
+    op,
+    request,
+    traces: [],
+  });
+  if (outcome.kind === 'refused') {
+    throw new HttpError(422, outcome.code ?? 'invalid-chain', outcome.message, outcome.details);
   }
+  if (outcome.kind !== 'json') throw new Error(`design thread answered ${outcome.kind}`);
+  res.type('application/json').send(outcome.json);
 }
 
 export function designRouter(em: EntityManager): Router {
   const router = Router();
   router.use(requireUser);
-  router.post('/tune/candidates', async (req, res) => {
-    res.json(
-      await runDesign(em, req, tuneCandidatesRequestSchema, (d, b, o) =>
-        d.tuneCandidates(b.document, b.resonator, o),
-      ),
-    );
-  });
-  router.post('/tune', async (req, res) => {
-    res.json(
-      await runDesign(em, req, tuneRequestSchema, (d, b, o) =>
-        d.tuneResonator(
-          b.document,
-          {
-            resonator: b.resonator,
-            element: b.element,
-            targetHz: b.targetHz,
-            peakNode: b.peakNode,
-          },
-          o,
-        ),
-      ),
-    );
-  });
-  router.post('/tune-pair', async (req, res) => {
-    res.json(
-      await runDesign(em, req, tunePairRequestSchema, (d, b, o) => {
-        const { document: _doc, workspaceId: _w, ...request } = b;
-        return d.tunePair(b.document, request, o);
-      }),
-    );
-  });
-  router.post('/match-here', async (req, res) => {
-    res.json(
-      await runDesign(em, req, matchHereRequestSchema, (d, b, o) => {
-        const { document: _doc, workspaceId: _w, ...request } = b;
-        return d.matchHere(b.document, request, o);
-      }),
-    );
-  });
-  router.post('/snap', async (req, res) => {
-    res.json(
-      await runDesign(em, req, snapRequestSchema, (d, b, o) =>
-        d.snapChain(b.document, { series: b.series, stageId: b.stageId }, o),
-      ),
-    );
-  });
-  router.post('/parts', async (req, res) => {
-    res.json(
-      await runDesign(em, req, partsRequestSchema, (d, b, o) => {
-        const stage = d.stageOf(b.document, b.stageId);
-        const form = b.coilForm ?? d.DEFAULT_COIL_FORM;
-        const rows = d.stageParts(stage, form, o);
-        return { stageId: stage.id, rows, csv: d.stagePartsCsv(stage, rows, form) };
-      }),
-    );
-  });
+  const routes: [string, z.ZodType<{ document: ChainDocument; workspaceId?: string }>, DesignOp][] =
+    [
+      ['/tune/candidates', tuneCandidatesRequestSchema, 'tune/candidates'],
+      ['/tune', tuneRequestSchema, 'tune'],
+      ['/tune-pair', tunePairRequestSchema, 'tune-pair'],
+      ['/match-here', matchHereRequestSchema, 'match-here'],
+      ['/snap', snapRequestSchema, 'snap'],
+      ['/parts', partsRequestSchema, 'parts'],
+    ];
+  for (const [path, schema, op] of routes) {
+    router.post(path, (req, res) => runDesign(em, req, res, schema, op));
+  }
   return router;
 }

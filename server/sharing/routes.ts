@@ -6,10 +6,16 @@ import {
   type SharedChainDto,
   type ShareLinkDto,
 } from '../../shared/schema/api';
+import { PLOTTED_TRACES } from '../../shared/schema/sweep-columns';
 import { recordActivity } from '../activity/record';
-import { analyseModes, analyzeChain, ChainValidationError } from '../../shared/engine';
+import { analyseModes, ChainValidationError } from '../../shared/engine';
 import type { SharedModeDto } from '../../shared/schema/api';
-import { invalidChainError } from '../analysis/engine-errors';
+import {
+  AnalysisTooLargeError,
+  analysisLimits,
+  runOnPool,
+  withinBudget,
+} from '../analysis/analysis-pool';
 import { sendExport } from '../analysis/export-routes';
 import { looksLikeToken, hashToken, newToken, tokenMatches } from '../auth/tokens';
 import { NotFoundError } from '../common/errors';
@@ -136,21 +142,31 @@ export function sharedRouter(services: Services): Router {
   router.get('/:token', async (req, res) => {
     const chain = (await linkOf(req)).chain;
     const dataFiles = await loadDataFiles(em, chain.document, chain.workspace.id);
-    let analysis: unknown = null;
+    // The analysis runs on the thread pool under the analysis budgets; a chain over them or
+    // one the engine refuses is still shown, with the reason in place of its figures.
+    let analysisJson = 'null';
     let analysisError: string | undefined;
-    try {
-      analysis = await analyzeChain(chain.document, {
-        sweep: true,
+    if (!withinBudget(chain.document)) {
+      analysisError = new AnalysisTooLargeError(
+        chain.document.stages.length,
+        chain.document.settings.sweep.points,
+        analysisLimits().maxStagePoints,
+      ).message;
+    } else {
+      const outcome = await runOnPool({
+        document: chain.document,
         ...(dataFiles ? { dataFiles } : {}),
+        want: 'result',
+        traces: PLOTTED_TRACES, // any: the whole sweep comes with the result
       });
-    } catch (err) {
-      const known = invalidChainError(err);
-      if (!known) throw err;
-      analysisError = known.message;
+      if (outcome.kind === 'refused') analysisError = outcome.message;
+      else if (outcome.kind === 'json') analysisJson = outcome.json;
+      else throw new Error(`analysis thread answered ${outcome.kind}`);
     }
-    // A chain with modes: each mode's analysis too (the first is also `analysis`).
+    // A chain with modes: each mode's analysis too (the first is also `analysis`). These
+    // still run here, on the event loop, within the same stages × points budget.
     const modes: SharedModeDto[] = [];
-    if (analysis && chain.document.modes?.length) {
+    if (analysisJson !== 'null' && chain.document.modes?.length) {
       const byId = new Map(chain.document.modes.map((m) => [m.id, m]));
       for (const entry of analyseModes(chain.document, {
         sweep: true,
@@ -167,18 +183,22 @@ export function sharedRouter(services: Services): Router {
         );
       }
     }
-    const body: SharedChainDto = {
+    const body: Omit<SharedChainDto, 'analysis'> = {
       name: chain.name,
       description: chain.description,
       version: chain.version,
       updatedAt: chain.updatedAt.toISOString(),
       workspaceName: chain.workspace.name,
       document: chain.document,
-      analysis,
       ...(analysisError ? { analysisError } : {}),
       ...(modes.length ? { modes } : {}),
     };
-    res.set('Cache-Control', 'no-store').json(body);
+    // The thread serialised the analysis: put it in as text rather than parse it back.
+    const rest = JSON.stringify(body);
+    res
+      .set('Cache-Control', 'no-store')
+      .type('application/json')
+      .send(`{"analysis":${analysisJson},${rest.slice(1)}`);
   });
 
   router.get('/:token/export', async (req, res) => {
