@@ -52,6 +52,37 @@ async function reportReady(page: Page): Promise<void> {
   await page.locator('article.sheet[data-plots="ready"]').waitFor({ timeout: 60000 });
 }
 
+/**
+ * Serious and critical accessibility violations axe-core finds on the page at `url`. The
+ * app's CSP refuses injected scripts, so axe runs in a context of its own that bypasses it.
+ */
+async function seriousAxeViolations(browser: Browser, url: string): Promise<string[]> {
+  const context = await browser.newContext({ bypassCSP: true });
+  try {
+    const page = await context.newPage();
+    await page.goto(url);
+    await reportReady(page);
+    await page.addScriptTag({ path: require.resolve('axe-core/axe.min.js') });
+    const found = await page.evaluate(async () => {
+      const axe = (globalThis as unknown as { axe: AxeRunner }).axe;
+      const result = await axe.run();
+      return result.violations
+        .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+        .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+    });
+    return found;
+  } finally {
+    await context.close();
+  }
+}
+
+/** The part of axe-core's API the check uses (the tests compile without DOM types). */
+interface AxeRunner {
+  run(): Promise<{
+    violations: { id: string; impact?: string | null; nodes: { target: string[] }[] }[];
+  }>;
+}
+
 async function printPdf(page: Page, name: string): Promise<string> {
   mkdirSync(OUT, { recursive: true });
   const file = join(OUT, `${name}.pdf`);
@@ -185,6 +216,7 @@ describe('printable report', () => {
       await visitor.page.waitForURL(/\/shared\/[^/]+\/report$/);
       await reportReady(visitor.page);
       await shot(visitor.page, 'report-03-shared');
+      expect(await seriousAxeViolations(browser, visitor.page.url())).toEqual([]);
       const text = pdfText(await printPdf(visitor.page, 'report-shared'));
       expect(text).toContain(CHAIN);
       expect(text).toContain('read-only link');
