@@ -21,6 +21,15 @@ import type { BuiltChain, BuiltStage } from './build';
 import { coupledTank, pairPeak } from './coupled-pair';
 import { ownResonance, resonate, seriesExtract } from './extract-resonance';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import {
+  locateSeries,
+  risingLoopCrossings,
+  seriesFigures,
+  seriesSections,
+  unloadedProbe,
+  unloadedShuntQ,
+  type SeriesFigures,
+} from './found-series';
 import { createProbe, type Probe } from './probe';
 import {
   attached,
@@ -183,6 +192,7 @@ function declaredSeries(
       ? resonate(built, gridNa.freqs, gridNa, seriesExtract(built, section), built.settings.f0Hz)
       : null;
   const q = nn(res?.q);
+  if (res && q) ctx.claims.push({ segment: ctx.topo.segment[section], fr: res.fr, bw: res.fr / q });
   return {
     stageId: stage.id,
     label: decl.label,
@@ -295,12 +305,85 @@ function foundResonances(ctx: Context, claimed: Set<number>): ResonatorFinding[]
   // Highest impedance first: the node where the tuned circuit's voltage is.
   candidates.sort((a, b) => a.res.g - b.res.g);
   const out: ResonatorFinding[] = [];
+  let unloaded: Probe | null = null;
   for (const c of candidates) {
     if (ctx.claims.some((k) => sameMode(k, c.claim))) continue;
     ctx.claims.push(c.claim);
+    unloaded ??= unloadedProbe(built, false);
+    c.fig.unloadedQ = unloadedShuntQ(unloaded, c.node, c.fig.cut, c.res);
     out.push(foundTank(ctx, c));
   }
   return out;
+}
+
+/** A series resonance found in a through path, measured, before views of one mode merge. */
+interface SeriesCandidate {
+  node: number;
+  res: NodeResonance;
+  fig: SeriesFigures;
+  claim: Claim;
+}
+
+/**
+ * Series resonances in the through paths (found-series.ts) that no declared or parallel
+ * resonator covers: at the first section of each run of series sections, the loop's rising
+ * zero of reactance, kept when the tuned circuit detached (downstream shorted) still has a Q
+ * of at least MIN_DETACHED_Q. Series sections owned by a matching network or a filter are
+ * left to that stage, as for parallel ones.
+ */
+function foundSeries(ctx: Context): ResonatorFinding[] {
+  const { built, topo, gridNa, probe } = ctx;
+  const series = seriesSections(built);
+  const candidates: SeriesCandidate[] = [];
+  let unloaded: Probe | null = null;
+  for (let n = 0; n < series.length; n++) {
+    if (!series[n] || (n > 0 && series[n - 1])) continue;
+    const category = built.twoPorts[topo.stageOf[n]].definition.category;
+    if (category === 'matching' || category === 'filter') continue;
+    for (const b of risingLoopCrossings(gridNa, n)) {
+      const res = locateSeries(gridNa, probe, n, b);
+      if (!res || !(res.q > 0) || !(res.g > 0)) continue;
+      unloaded ??= unloadedProbe(built, true);
+      const fig = seriesFigures(built, series, probe, unloaded, n, res);
+      if (!(fig.detachedQ !== null && fig.detachedQ >= MIN_DETACHED_Q)) continue;
+      candidates.push({ node: n, res, fig, claim: { segment: topo.segment[n], fr: res.fr, bw: res.fr / res.q } }); // prettier-ignore
+    }
+  }
+  // Lowest loop resistance first: the view where the most current flows.
+  candidates.sort((a, b) => a.res.g - b.res.g);
+  const out: ResonatorFinding[] = [];
+  for (const c of candidates) {
+    if (ctx.claims.some((k) => sameMode(k, c.claim))) continue;
+    ctx.claims.push(c.claim);
+    out.push(foundLoop(ctx, c));
+  }
+  return out;
+}
+
+/** The report of a found series resonance. */
+function foundLoop(ctx: Context, { node, fig: all }: SeriesCandidate): ResonatorFinding {
+  const { built, topo } = ctx;
+  const { cut, ...fig } = all;
+  const stage = built.twoPorts[topo.stageOf[node]];
+  const partOf = [stage.id];
+  for (let j = node; j < cut; j++) {
+    const id = built.twoPorts[topo.stageOf[j]].id;
+    if (!partOf.includes(id)) partOf.push(id);
+  }
+  const labels = partOf.map((id) => `"${built.twoPorts.find((s) => s.id === id)?.label ?? id}"`); // prettier-ignore
+  return {
+    stageId: stage.id,
+    label: `series tuned circuit in "${stage.label}"`,
+    kind: 'series',
+    origin: 'found',
+    partOf,
+    node: null,
+    ...fig,
+    flat: node,
+    f0LocalHz: built.f0AtFlatNode[node],
+    downstreamLabel: downstreamOf(built, cut),
+    name: `Series tuned circuit in the through path (${labels.join(' with ')})`,
+  };
 }
 
 /** The report of a found parallel resonance. */
@@ -359,5 +442,6 @@ export function analyzeResonators(
     }
   }
   const found = foundResonances(ctx, claimed);
-  return [...declared, ...found].sort((a, b) => a.flat - b.flat);
+  const loops = foundSeries(ctx);
+  return [...declared, ...found, ...loops].sort((a, b) => a.flat - b.flat);
 }

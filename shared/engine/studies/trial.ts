@@ -30,6 +30,7 @@ import { attached, resonanceNear } from '../core/resonance-search';
 import type { ResonatorFinding } from '../core/resonators';
 import { analyzeSelectivity, findMixer, imageFrequency } from '../core/selectivity';
 import { shuntFigures } from '../core/shunt-tank';
+import { loopAt, seriesFigures, seriesSections } from '../core/found-series';
 import { frequencyGrid } from '../core/sweep';
 import { chainTopology } from '../core/topology';
 import { defaultCatalogue } from '../default-catalogue';
@@ -46,7 +47,9 @@ type Follow =
   /** One tank of a declared coupled pair. */
   | { how: 'coupled'; stageId: string; label: string; fIn: number; sign: number }
   /** A declared series resonator. */
-  | { how: 'series'; stageId: string; label: string; fIn: number; sign: number };
+  | { how: 'series'; stageId: string; label: string; fIn: number; sign: number }
+  /** A found series resonance: the loop at the first section of its series run, `flat`. */
+  | { how: 'loop'; flat: number; fIn: number; sign: number };
 
 /** What a trial follows, fixed from the nominal analysis. */
 export interface TrialTracker {
@@ -81,6 +84,9 @@ export function trialTracker(
   const follow = findings.map((r): Follow => {
     if (!r || r.fIn === null || !Number.isFinite(r.fIn)) return { how: 'none' };
     const fIn = r.fIn;
+    if (r.kind === 'series' && r.origin === 'found') {
+      return { how: 'loop', flat: r.flat, fIn, sign: orientationAt(probe, r.flat, fIn) };
+    }
     if (r.kind === 'series') {
       const sign = orientationAt(probe, r.flat, fIn);
       return { how: 'series', stageId: r.stageId, label: r.label, fIn, sign };
@@ -136,6 +142,13 @@ function followed(
       const att = resonanceNear(probe, f.flat, f.fIn, f.sign, attached, scratch);
       if (!att) return NOT_FOUND;
       const fig = shuntFigures(built, topo, probe, f.flat, att, null);
+      return found(att.fIn, att.fr, fig.loadedQ, fig.loadingRatio);
+    }
+    case 'loop': {
+      const scratch = new Float64Array(2);
+      const att = resonanceNear(probe, f.flat, f.fIn, f.sign, loopAt, scratch);
+      if (!att) return NOT_FOUND;
+      const fig = seriesFigures(built, seriesSections(built), probe, null, f.flat, att);
       return found(att.fIn, att.fr, fig.loadedQ, fig.loadingRatio);
     }
     case 'series': {
