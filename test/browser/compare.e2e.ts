@@ -118,7 +118,8 @@ describe('compare variants', () => {
     const { page } = watched;
     await signIn(page, DEMO.viewer, DEMO.password);
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
-    await page.getByRole('button', { name: `Compare ${PAIR} with its variants` }).click();
+    await page.getByRole('button', { name: `Actions for ${PAIR}` }).click();
+    await page.getByRole('menuitem', { name: 'Compare with its variants' }).click();
     await page.waitForURL(/\/compare\?chains=/);
     await page.locator('tr[data-row="image"] td').nth(1).waitFor();
     const image = await imageRow(page);

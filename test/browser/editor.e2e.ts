@@ -48,8 +48,8 @@ describe('chain editor', () => {
     await page.getByRole('button', { name: 'New chain' }).click();
     const dialog = page.locator('mat-dialog-container');
     await dialog.getByLabel('Name').fill(name);
+    // Create opens the new chain in the editor.
     await dialog.getByRole('button', { name: 'Create' }).click();
-    await page.getByRole('link', { name }).click();
     await page.waitForURL(/\/chains\/[^/]+$/);
     await expect(cards(page)).toHaveCountEventually(2);
     await snap(page, 'editor-01-new-chain');

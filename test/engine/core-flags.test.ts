@@ -86,7 +86,7 @@ describe('tank-detuned', () => {
     );
     const [flag] = only(res.flags, 'tank-detuned');
     expect(flag.severity).toBe('warning');
-    expect(flag.message).toMatch(/resonates at 1\.05 MHz, 50 kHz above the design frequency 1 MHz: 4\.8 of its 10\.5 kHz bandwidth/); // prettier-ignore
+    expect(flag.message).toMatch(/resonates at 1\.05 MHz, 50 kHz above the design frequency 1 MHz: 4\.8 bandwidths away \(its bandwidth is 10\.5 kHz; limit 0\.\d+ bandwidths\)/); // prettier-ignore
   });
 });
 

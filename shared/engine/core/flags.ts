@@ -88,7 +88,7 @@ function detuneFlag(
     code: 'tank-detuned',
     severity: 'warning',
     stageId: r.stageId,
-    message: `${what} at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} of its ${hz(bw)} bandwidth (limit ${num(t.detuneFraction, 2)}).`,
+    message: `${what} at ${hz(fr)}, ${hz(Math.abs(off))} ${off > 0 ? 'above' : 'below'} the design frequency ${hz(r.f0LocalHz)}: ${num(Math.abs(off) / bw, 2)} bandwidths away (its bandwidth is ${hz(bw)}; limit ${num(t.detuneFraction, 2)} bandwidths).`,
     data: { resonanceHz: fr, f0Hz: r.f0LocalHz, offsetHz: off, bandwidthHz: bw },
   };
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DOCUMENT, computed, inject } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDividerModule } from '@angular/material/divider';
@@ -11,9 +11,11 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { NavigationEnd, Router, RouterLink, RouterOutlet } from '@angular/router';
 import { filter, firstValueFrom, map } from 'rxjs';
 import { AuthApi } from '../api/auth.api';
+import { NumberFormatStore } from '../format/number-format';
 import { LoadingTracker } from '../http/loading.interceptor';
 import { SessionStore } from '../session/session.store';
 import { ThemeStore } from '../theme/theme.store';
+import { SkipLinks, focusById } from './skip-links';
 import { WorkspaceActions } from './workspace-actions';
 
 /** The frame around every page: toolbar, progress bar, and the routed page. */
@@ -42,6 +44,10 @@ export class ShellComponent {
   private readonly auth = inject(AuthApi);
   private readonly router = inject(Router);
   private readonly workspaces = inject(WorkspaceActions);
+  private readonly page = inject(DOCUMENT);
+  protected readonly skipLinks = inject(SkipLinks);
+  /** Created with the frame, so the user's number format applies on every page. */
+  private readonly numberFormat = inject(NumberFormatStore);
 
   private readonly url = toSignal(
     this.router.events.pipe(
@@ -57,6 +63,10 @@ export class ShellComponent {
     const id = this.session.homeWorkspaceId();
     return id ? ['/w', id, 'chains'] : ['/'];
   });
+
+  protected skipTo(event: Event, targetId: string): void {
+    if (focusById(this.page, targetId)) event.preventDefault();
+  }
 
   protected openWorkspace(workspaceId: string): void {
     void this.router.navigate(['/w', workspaceId, 'chains']);

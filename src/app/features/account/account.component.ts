@@ -14,8 +14,9 @@ import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { ROLE_LABELS } from '../../core/session/roles';
 import { SessionStore } from '../../core/session/session.store';
+import { NumberFormatCardComponent } from './number-format-card.component';
 
-/** Who the user is, their workspaces, and a password change. */
+/** Who the user is, their workspaces, a password change, and how figures are written. */
 @Component({
   selector: 'cw-account',
   imports: [
@@ -24,6 +25,7 @@ import { SessionStore } from '../../core/session/session.store';
     MatFormFieldModule,
     MatInputModule,
     MatButtonModule,
+    NumberFormatCardComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './account.component.html',

@@ -31,6 +31,10 @@ import { safeReturnUrl } from './return-url';
     <section class="cw-page-narrow">
       <mat-card appearance="outlined" class="cw-auth-card">
         <mat-card-content>
+          <p class="cw-pitch" data-testid="product-sentence">
+            Chainwright follows a signal through a radio receiver front end, stage by stage, and
+            shows where impedance, voltage step-up, loaded Q, noise and linearity go wrong.
+          </p>
           <h1>Sign in</h1>
           <p class="cw-muted">Open your workspaces and chains.</p>
           <form [formGroup]="form" (ngSubmit)="submit()" novalidate>

@@ -47,10 +47,8 @@ export class ChainActions {
               message: 'New chain from an example',
             }),
       );
-      this.snackBar
-        .open(`Created “${created.name}”.`, 'Open', { duration: 6000 })
-        .onAction()
-        .subscribe(() => void this.router.navigate(['/w', workspaceId, 'chains', created.id]));
+      // A new chain is made to be worked on: open it in the editor at once.
+      await this.router.navigate(['/w', workspaceId, 'chains', created.id]);
       return created;
     } catch (error) {
       // A catalogue without the needed types is our own message; HTTP errors were shown.

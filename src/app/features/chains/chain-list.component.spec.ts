@@ -105,7 +105,9 @@ describe('ChainListComponent', () => {
       expectList(http).flush(page([chain({ name: 'Tank' })]));
       await fixture.whenStable();
       expect(el.querySelector('.cw-new-chain')).not.toBeNull();
-      expect(el.querySelector('[aria-label="Delete Tank"]')).not.toBeNull();
+      el.querySelector<HTMLElement>('[aria-label="Actions for Tank"]')!.click();
+      await fixture.whenStable();
+      expect(menuItems()).toEqual(['Rename', 'Save as variant', 'Duplicate', 'Delete']);
     });
 
     it('should show a viewer no edit controls at all', async () => {
@@ -129,10 +131,13 @@ describe('ChainListComponent', () => {
         ]),
       );
       await fixture.whenStable();
-      expect(el.querySelectorAll('button[aria-label^="Compare"]').length).toBe(2);
-      expect(el.querySelector('[aria-label="Compare Alone with its variants"]')).toBeNull();
-      expect(el.querySelectorAll('button[aria-label^="Delete"]').length).toBe(0);
-      el.querySelector<HTMLElement>('[aria-label="Compare Variant with its variants"]')!.click();
+      // Only rows of a family get a menu, and a viewer's menu offers nothing that edits.
+      expect(el.querySelectorAll('button[aria-label^="Actions for"]').length).toBe(2);
+      expect(el.querySelector('[aria-label="Actions for Alone"]')).toBeNull();
+      el.querySelector<HTMLElement>('[aria-label="Actions for Variant"]')!.click();
+      await fixture.whenStable();
+      expect(menuItems()).toEqual(['Compare with its variants']);
+      menuItem('Compare with its variants').click();
       http
         .expectOne('/api/chains/v/family')
         .flush([chain({ id: 'p' }), chain({ id: 'v', parentId: 'p' })]);
@@ -144,6 +149,18 @@ describe('ChainListComponent', () => {
   });
 
   // Helpers
+  function menuItems(): string[] {
+    return [...document.querySelectorAll('.cdk-overlay-container [mat-menu-item]')].map((b) =>
+      b.textContent!.trim(),
+    );
+  }
+
+  function menuItem(text: string): HTMLElement {
+    return [
+      ...document.querySelectorAll<HTMLElement>('.cdk-overlay-container [mat-menu-item]'),
+    ].find((b) => b.textContent!.trim() === text)!;
+  }
+
   async function setUp(role: WorkspaceRole): Promise<void> {
     TestBed.configureTestingModule({
       providers: [

@@ -7,6 +7,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
+import { MatMenuModule } from '@angular/material/menu';
 import { MatPaginatorModule, PageEvent } from '@angular/material/paginator';
 import { MatSortModule, Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
@@ -24,7 +25,6 @@ import {
   tap,
 } from 'rxjs';
 import type { ChainListDto, ChainSummaryDto } from '../../../../shared/schema/api';
-import { formatEngineering } from '../../../../shared/units/format';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
@@ -32,6 +32,7 @@ import { SessionStore } from '../../core/session/session.store';
 import { compareQueryOf, inFamily } from '../compare/compare-entry';
 import { ChainActions } from './chain-actions';
 import { underParents } from './variant-order';
+import { engineering } from '../editor/results/format-quantity';
 
 export type ChainSortKey = 'name' | 'f0Hz' | 'stageCount' | 'flagCount' | 'updatedAt';
 const SORT_KEYS: readonly string[] = ['name', 'f0Hz', 'stageCount', 'flagCount', 'updatedAt'];
@@ -60,6 +61,7 @@ interface ListState {
     MatButtonModule,
     MatIconModule,
     MatTooltipModule,
+    MatMenuModule,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './chain-list.component.html',
@@ -135,7 +137,7 @@ export default class ChainListComponent {
     underParents(this.list()?.items ?? []).map(({ item: chain, nested }) => ({
       chain,
       nested,
-      f0: formatEngineering(chain.f0Hz, 'hertz', 4),
+      f0: engineering(chain.f0Hz, 'hertz'),
       comparable: inFamily(chain),
     })),
   );

@@ -55,7 +55,7 @@ const flagsOf = (r: AnalysisResult, severity: 'warning' | 'error') =>
 
 const dbText = (v: number | null) => decibels(v);
 const dbmText = (v: number | null) => decibels(v, 'dBm');
-const hzText = (v: number | null) => engineering(v, 'hertz', 4);
+const hzText = (v: number | null) => engineering(v, 'hertz');
 const countText = (v: number | null) => (v === null ? NO_VALUE : String(v));
 
 const ROWS: RowSpec[] = [

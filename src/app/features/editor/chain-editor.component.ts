@@ -1,15 +1,21 @@
+import { NgTemplateOutlet } from '@angular/common';
 import {
   ChangeDetectionStrategy,
   Component,
   computed,
+  DestroyRef,
   effect,
   HostListener,
   inject,
   Injector,
   input,
   signal,
+  TemplateRef,
   untracked,
+  viewChild,
+  ViewContainerRef,
 } from '@angular/core';
+import { MatBottomSheet, type MatBottomSheetRef } from '@angular/material/bottom-sheet';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
@@ -23,6 +29,8 @@ import type { StageTypeInfo } from '../../../../shared/engine/types';
 import type { ExportFormat, RevisionDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
+import { ScreenSize } from '../../core/layout/screen-size';
+import { SkipLinks } from '../../core/layout/skip-links';
 import { SessionStore } from '../../core/session/session.store';
 import { CommentsPanelComponent } from '../comments/comments-panel.component';
 import { compareQueryOf, familyOf } from '../compare/compare-entry';
@@ -56,14 +64,28 @@ import { StageStripComponent } from './strip/stage-strip.component';
 
 type SidePanel = 'stage' | 'chain' | 'history' | 'design' | 'comments' | 'changes';
 
+const PANEL_CHOICES: { value: SidePanel; label: string }[] = [
+  { value: 'stage', label: 'Stage' },
+  { value: 'chain', label: 'Chain' },
+  { value: 'history', label: 'History' },
+  { value: 'design', label: 'Design' },
+  { value: 'changes', label: 'Changes' },
+  { value: 'comments', label: 'Comments' },
+];
+
 /**
  * The chain editor page: palette, strip of stage cards, live analysis, the side panel
  * (stage values, chain settings, revisions) and saving. Viewers get the same page with
  * every control that changes the chain disabled.
+ *
+ * Three layouts: a desktop has palette, centre and side panel side by side; a tablet keeps
+ * the side panel and opens the palette as a sheet; a phone shows the strip and the results
+ * full width, and opens the palette and every panel as a sheet.
  */
 @Component({
   selector: 'cw-chain-editor',
   imports: [
+    NgTemplateOutlet,
     MatButtonModule,
     MatButtonToggleModule,
     MatIconModule,
@@ -107,6 +129,18 @@ export default class ChainEditorComponent implements LeaveAware {
   private readonly dialog = inject(MatDialog);
   protected readonly session = inject(SessionStore);
   protected readonly collab = inject(CollabStore);
+  protected readonly screen = inject(ScreenSize);
+  private readonly bottomSheet = inject(MatBottomSheet);
+  private readonly viewContainer = inject(ViewContainerRef);
+  private readonly skipLinks = inject(SkipLinks);
+
+  private readonly panelSheet = viewChild<TemplateRef<unknown>>('panelSheet');
+  private readonly paletteSheet = viewChild<TemplateRef<unknown>>('paletteSheet');
+  private sheetRef: MatBottomSheetRef<unknown> | null = null;
+  protected readonly panelChoices = PANEL_CHOICES;
+  protected readonly layoutName = computed(() =>
+    this.screen.phone() ? 'phone' : this.screen.tablet() ? 'tablet' : 'desktop',
+  );
 
   protected readonly stripListId = 'cw-stage-strip';
   protected readonly loadError = signal<string | null>(null);
@@ -149,6 +183,18 @@ export default class ChainEditorComponent implements LeaveAware {
   });
 
   constructor() {
+    this.skipLinks.set([
+      { label: 'Skip to the stages', targetId: 'cw-strip' },
+      { label: 'Skip to the results', targetId: 'cw-results' },
+    ]);
+    inject(DestroyRef).onDestroy(() => {
+      this.skipLinks.clear();
+      this.closeSheet();
+    });
+    // A sheet belongs to the phone and tablet layouts; a wider window shows it in place.
+    effect(() => {
+      if (this.screen.desktop()) untracked(() => this.closeSheet());
+    });
     effect(() => {
       const id = this.chainId();
       untracked(() => void this.loadChain(id));
@@ -220,14 +266,51 @@ export default class ChainEditorComponent implements LeaveAware {
     }
   }
 
+  /** A stage picked on the strip or in a table: its values show, whatever panel was open. */
   protected select(stageId: string): void {
     this.store.select(stageId);
     this.panel.set('stage');
   }
 
+  /** A card picked on the strip; on a phone its values open as a sheet. */
+  protected pickStage(stageId: string): void {
+    this.select(stageId);
+    if (this.screen.phone()) this.openPanelSheet('stage');
+  }
+
   protected insertFromPalette(type: StageTypeInfo): void {
     this.feedback.report(this.store.insertType(type));
     this.panel.set('stage');
+  }
+
+  protected openPanelSheet(panel: SidePanel): void {
+    this.panel.set(panel);
+    this.openSheet(this.panelSheet(), 'Side panel');
+  }
+
+  protected openPaletteSheet(): void {
+    this.openSheet(this.paletteSheet(), 'Stage types');
+  }
+
+  protected closeSheet(): void {
+    this.sheetRef?.dismiss();
+    this.sheetRef = null;
+  }
+
+  /** Material's sheet traps focus inside and gives it back to the opener when it closes. */
+  private openSheet(template: TemplateRef<unknown> | undefined, label: string): void {
+    if (!template) return;
+    this.closeSheet();
+    const ref = this.bottomSheet.open(template, {
+      viewContainerRef: this.viewContainer,
+      ariaLabel: label,
+      panelClass: 'cw-editor-sheet',
+      restoreFocus: true,
+    });
+    this.sheetRef = ref;
+    ref.afterDismissed().subscribe(() => {
+      if (this.sheetRef === ref) this.sheetRef = null;
+    });
   }
 
   protected share(): void {

@@ -1,6 +1,14 @@
 import { HttpContext } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  effect,
+  inject,
+  input,
+  signal,
+  viewChild,
+} from '@angular/core';
+import { FormControl, FormGroup, FormGroupDirective, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -125,6 +133,8 @@ export class InvitationsPanelComponent {
   protected readonly busy = signal(false);
   protected readonly notice = signal('');
   protected readonly failure = signal('');
+  /** The form's directive: resetting through it also clears its "submitted" state. */
+  private readonly formDirective = viewChild(FormGroupDirective);
   protected readonly form = new FormGroup({
     email: new FormControl('', {
       nonNullable: true,
@@ -163,7 +173,12 @@ export class InvitationsPanelComponent {
           ? sentence(answer.mail.message ?? 'the mail could not be sent yet; it is retried')
           : `Invitation sent to ${answer.email}.`,
       );
-      this.form.reset({ email: '', role });
+      // Through the directive: a plain reset leaves the form "submitted", and Material then
+      // shows the emptied address field in red as if the user had left it wrong.
+      const next = { email: '', role };
+      const directive = this.formDirective();
+      if (directive) directive.resetForm(next);
+      else this.form.reset(next);
       await this.load(this.workspaceId());
     } catch (error) {
       this.failure.set(describeHttpError(error));

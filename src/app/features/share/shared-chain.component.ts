@@ -15,7 +15,6 @@ import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import type { AnalysisResult } from '../../../../shared/engine/types';
 import type { SharedChainDto } from '../../../../shared/schema/api';
-import { formatEngineering } from '../../../../shared/units/format';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
@@ -23,6 +22,7 @@ import { CautionBannerComponent } from '../editor/cautions/caution-banner.compon
 import { documentForResults, hasTransmitMode } from '../editor/modes/mode-edits';
 import { TransmitPanelComponent } from '../editor/modes/transmit-panel.component';
 import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
+import { engineering } from '../editor/results/format-quantity';
 
 /**
  * A chain opened through a read-only link, without signing in: its stages, budget, flags
@@ -241,7 +241,7 @@ export default class SharedChainComponent {
   }
 
   protected f0(s: SharedChainDto): string {
-    return formatEngineering(s.document.settings.f0Hz, 'hertz');
+    return engineering(s.document.settings.f0Hz, 'hertz');
   }
 
   private async load(token: string): Promise<void> {

@@ -11,7 +11,7 @@ import type {
 } from '../../../../../shared/engine/design';
 import type { UnitKind } from '../../../../../shared/engine/types';
 import type { ChainDocument, StageInstance } from '../../../../../shared/schema/chain';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
 import { describeHttpError } from '../../../core/http/error-message';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
@@ -20,6 +20,7 @@ import { CoilPartsComponent } from './coil-parts.component';
 import { DesignApi } from './design-api';
 import { ValueKnobComponent } from './value-knob.component';
 import { SparkPlotComponent } from './spark-plot.component';
+import { engineering } from '../results/format-quantity';
 
 const SERIES: PreferredSeries[] = ['E6', 'E12', 'E24', 'E48', 'E96'];
 
@@ -83,11 +84,11 @@ export class DesignPanelComponent {
   protected readonly snapped = signal<SnapResult | null>(null);
 
   protected fmt(v: number | null | undefined, unit: UnitKind): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '—' : formatEngineering(v, unit);
+    return v === null || v === undefined || !Number.isFinite(v) ? '—' : engineering(v, unit);
   }
 
   protected partText(p: { part: 'L' | 'C'; place: string; value: number }): string {
-    return `${p.place} ${p.part} ${formatEngineering(p.value, p.part === 'L' ? 'henry' : 'farad')}`;
+    return `${p.place} ${p.part} ${engineering(p.value, p.part === 'L' ? 'henry' : 'farad')}`;
   }
 
   protected inputValue(event: Event): string {

@@ -9,12 +9,12 @@ import {
 } from '@angular/core';
 import type { ParamSpec } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
-import { formatEngineering } from '../../../../../shared/units';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
 import { visibleParams, withValue } from '../state/stage-factory';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
 import { SparkPlotComponent } from './spark-plot.component';
+import { engineering } from '../results/format-quantity';
 
 /** Slider half-range in ln(value): coarse ×/÷ 2, fine ±10 %. */
 const SPAN = { coarse: Math.log(2), fine: Math.log(1.1) };
@@ -82,11 +82,11 @@ export class ValueKnobComponent {
 
   protected fmt(v: number | null | undefined): string {
     const spec = this.spec();
-    return v === null || v === undefined || !spec ? '—' : formatEngineering(v, spec.unit);
+    return v === null || v === undefined || !spec ? '—' : engineering(v, spec.unit);
   }
 
   protected fmtHz(v: number | null | undefined): string {
-    return v === null || v === undefined ? '—' : formatEngineering(v, 'hertz');
+    return v === null || v === undefined ? '—' : engineering(v, 'hertz');
   }
 
   protected choose(event: Event): void {

@@ -42,6 +42,7 @@ import {
   spurChartFigure,
   type SpurSortKey,
 } from './plan-figures';
+import { engineering } from '../results/format-quantity';
 
 type PlanState = { status: 'loading' } | { status: 'ready'; plan: PlanReport } | { status: 'failed'; message: string }; // prettier-ignore
 
@@ -130,7 +131,7 @@ export class PlanViewComponent {
     return rejectionBand(db, this.settings().spurTargetDb);
   }
   protected hz(v: number | null | undefined): string {
-    return v === null || v === undefined ? 'any input' : formatEngineering(v, 'hertz', 4);
+    return v === null || v === undefined ? 'any input' : engineering(v, 'hertz');
   }
   protected db(v: number | null | undefined, places = 1): string {
     return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(places).replace('-', '−'); // prettier-ignore

@@ -425,7 +425,7 @@ export function budgetTable(result: AnalysisResult, document: ChainDocument): Bu
     key: 'frequency',
     label: 'Frequency at node',
     note: 'at f0, after any mixer',
-    cells: columns.map((c) => engineering(c.frequencyHz, 'hertz', 4)),
+    cells: columns.map((c) => engineering(c.frequencyHz, 'hertz')),
     csv: [{ label: 'Frequency at node', unit: 'Hz', values: columns.map((c) => c.frequencyHz) }],
   };
   const lines: BudgetLine[] = [frequencyRow];

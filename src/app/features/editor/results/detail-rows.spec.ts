@@ -54,9 +54,9 @@ describe('detail-rows', () => {
         resonance: '10.02 MHz',
         loadedQ: '25.0',
         unloadedQ: '180.0',
-        bandwidth: '401 kHz',
+        bandwidth: '400.8 kHz',
         detachedQ: '90.0',
-        detachedBandwidth: '111 kHz',
+        detachedBandwidth: '111.3 kHz',
         loadingRatio: '0.28',
         downstreamShare: '72 %',
         loading: 'warning',
@@ -121,7 +121,7 @@ describe('detail-rows', () => {
     const item = (key: string) => items.find((i) => i.key === key);
 
     it('should give the sensitivity as source EMF in rms with the peak beside it', () => {
-      expect(item('sensitivity-emf')).toMatchObject({ value: '410 nV rms', note: '580 nV peak' });
+      expect(item('sensitivity-emf')).toMatchObject({ value: '410 nV rms', note: '579.8 nV peak' });
     });
 
     it('should state the channel the noise floor is measured in', () => {

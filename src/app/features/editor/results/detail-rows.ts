@@ -94,8 +94,8 @@ export function resonatorRows(result: AnalysisResult, document: ChainDocument): 
     kind: r.kind === 'shunt' ? 'Shunt tank' : 'Series',
     node: r.node === null ? 'inside stage' : `Node ${r.node}`,
     origin: originOf(r, document),
-    pairPeak: r.pairPeakHz == null ? '' : engineering(r.pairPeakHz, 'hertz', 4),
-    resonance: r.resonanceHz === null ? 'none in sweep' : engineering(r.resonanceHz, 'hertz', 4),
+    pairPeak: r.pairPeakHz == null ? '' : engineering(r.pairPeakHz, 'hertz'),
+    resonance: r.resonanceHz === null ? 'none in sweep' : engineering(r.resonanceHz, 'hertz'),
     loadedQ: plain(r.loadedQ, 1),
     unloadedQ: plain(r.unloadedQ, 1),
     bandwidth: engineering(r.bandwidthHz, 'hertz'),
@@ -124,7 +124,7 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
     return {
       node: s.node,
       after: node?.after ?? '',
-      peak: engineering(s.peakHz, 'hertz', 4),
+      peak: engineering(s.peakHz, 'hertz'),
       peakStepUp: decibels(s.peakStepUpDb),
       bw3: engineering(s.bw3dbHz, 'hertz'),
       bw60: bw60Text(s),
@@ -134,7 +134,7 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
           ? NO_VALUE
           : `${decibels(o.belowDb)} / ${decibels(o.aboveDb)}`,
       ),
-      image: engineering(s.imageHz, 'hertz', 4),
+      image: engineering(s.imageHz, 'hertz'),
       imageRejection: decibels(s.imageRejectionDb),
     };
   });

@@ -1,3 +1,4 @@
+import { applySignificantFigures } from '../../../core/format/number-format';
 import {
   NO_VALUE,
   decibels,
@@ -24,6 +25,27 @@ describe('format-quantity', () => {
       expect(engineering(10e-6, 'volt')).toBe('10 µV');
       expect(engineering(2400, 'ohm')).toBe('2.4 kΩ');
     });
+
+    it("should write the user's number of significant figures, 4 unless chosen", () => {
+      expect(engineering(54_551.2, 'hertz')).toBe('54.55 kHz');
+      expect(engineering(28_700.4, 'hertz')).toBe('28.7 kHz');
+      applySignificantFigures(3);
+      try {
+        expect(engineering(54_551.2, 'hertz')).toBe('54.6 kHz');
+        expect(times(7.0466)).toBe('×7.05');
+      } finally {
+        applySignificantFigures(4);
+      }
+    });
+
+    it('should keep the figure count inside 2 to 8', () => {
+      applySignificantFigures(40);
+      try {
+        expect(engineering(1 / 3, 'volt')).toBe('333.33333 mV');
+      } finally {
+        applySignificantFigures(4);
+      }
+    });
   });
 
   describe('decibels', () => {
@@ -45,7 +67,9 @@ describe('format-quantity', () => {
   describe('ratios', () => {
     it('should show step-up as a multiplier without milli prefixes', () => {
       expect(times(7.05)).toBe('×7.05');
-      expect(times(0.05)).toBe('×0.0500');
+      expect(times(0.05)).toBe('×0.05');
+      expect(times(7.04961)).toBe('×7.05');
+      expect(times(7.04661)).toBe('×7.047');
       expect(times(1410.4)).toBe('×1410');
       expect(times(2.5e7)).toBe('×2.5e+7');
     });

@@ -5,6 +5,7 @@
  */
 import type { UnitKind } from '../../../../../shared/engine/types';
 import { formatEngineering } from '../../../../../shared/units';
+import { significantFigures } from '../../../core/format/number-format';
 
 /** Shown wherever the engine has no value (no resonance in the sweep, no linearity data). */
 export const NO_VALUE = '—';
@@ -16,8 +17,14 @@ function isMissing(value: number | null | undefined): value is null | undefined 
 /**
  * `value` with an engineering prefix and the kind's symbol, as the editor writes values
  * (e.g. `engineering(22e-6, 'henry')` → "22 µH"), and "—" when the engine has no value.
+ * The one formatter for figures on screen: it writes the user's chosen number of
+ * significant figures (`significantFigures`, default 4) unless a caller needs another.
  */
-export function engineering(value: number | null | undefined, kind: UnitKind, digits = 3): string {
+export function engineering(
+  value: number | null | undefined,
+  kind: UnitKind,
+  digits = significantFigures(),
+): string {
   if (isMissing(value)) return NO_VALUE;
   return formatEngineering(value, kind, digits);
 }
@@ -39,18 +46,16 @@ export function plain(value: number | null | undefined, decimals = 2): string {
 }
 
 /**
- * A voltage ratio as a multiplier, e.g. "×12.5", "×0.0500" or "×1410". Milli and kilo
- * prefixes on a bare ratio read badly, so large ratios are written out and only ratios
+ * A voltage ratio as a multiplier, e.g. "×12.5", "×0.05" or "×1410", to the user's number
+ * of significant figures (trailing zeros dropped, as `engineering` drops them). Milli and
+ * kilo prefixes on a bare ratio read badly, so large ratios are written out and only ratios
  * past a million or below a thousandth use exponent form.
  */
-export function times(value: number | null | undefined, digits = 3): string {
+export function times(value: number | null | undefined, digits = significantFigures()): string {
   if (isMissing(value)) return NO_VALUE;
   const magnitude = Math.abs(value);
-  if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e3)) {
-    return `×${value.toPrecision(digits)}`;
-  }
   const rounded = Number(value.toPrecision(digits));
-  if (magnitude >= 1e3 && magnitude < 1e6) return `×${rounded}`;
+  if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e6)) return `×${rounded}`;
   return `×${rounded.toExponential()}`;
 }
 
@@ -68,7 +73,10 @@ export function degrees(value: number, decimals = 1): string {
 }
 
 /** A complex impedance in rectangular form, e.g. "2.4 kΩ + j150 Ω". */
-export function impedanceRect(z: { re: number; im: number }, digits = 3): string {
+export function impedanceRect(
+  z: { re: number; im: number },
+  digits = significantFigures(),
+): string {
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
   // A part a billion times smaller than the whole is rounding left over from the cascade
   // (e.g. "1.5 kΩ + j0.83 fΩ"); show it as the zero it is.
@@ -80,7 +88,10 @@ export function impedanceRect(z: { re: number; im: number }, digits = 3): string
 }
 
 /** A complex impedance in polar form, e.g. "51.4 Ω ∠13.5°". */
-export function impedancePolar(z: { re: number; im: number }, digits = 3): string {
+export function impedancePolar(
+  z: { re: number; im: number },
+  digits = significantFigures(),
+): string {
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
   const magnitude = Math.hypot(z.re, z.im);
   const angle = (Math.atan2(z.im, z.re) * 180) / Math.PI;

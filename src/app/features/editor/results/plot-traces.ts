@@ -5,6 +5,7 @@
  */
 import type { Annotation, Data, Layout, LayoutAxis, Shape } from 'plotly.js-dist-min';
 import type { AnalysisResult, SweepReport } from '../../../../../shared/engine/types';
+import { logAxisTicks } from './plot-axes';
 import { engineering } from './format-quantity';
 import type { PlotPalette } from './plot-theme';
 
@@ -74,12 +75,14 @@ export function defaultPlotNodes(result: AnalysisResult): number[] {
 }
 
 function frequencyAxis(ctx: PlotContext): Partial<LayoutAxis> {
+  const log = ctx.scale === 'log';
+  // On a log axis the ticks are ours ("100 kHz", "1 MHz"); a linear one uses Plotly's SI form.
+  const ticks = log ? logAxisTicks(ctx.sweep.freqsHz, 'hertz') : null;
   return {
     ...axisStyle(ctx.palette),
-    type: ctx.scale === 'log' ? 'log' : 'linear',
+    type: log ? 'log' : 'linear',
     title: { text: 'Frequency at the chain input' },
-    ticksuffix: 'Hz',
-    exponentformat: 'SI',
+    ...(ticks ?? { ticksuffix: 'Hz', exponentformat: 'SI' }),
     hoverformat: '.4s',
   };
 }
@@ -143,7 +146,7 @@ export function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotatio
           x: ctx.scale === 'log' ? Math.log10(m.hz) : m.hz,
           y: 1,
           yanchor: 'bottom',
-          text: `${m.label} ${engineering(m.hz, 'hertz', 4)}`,
+          text: `${m.label} ${engineering(m.hz, 'hertz')}`,
           showarrow: false,
           font: { color: ctx.palette.marker, size: 11 },
         }) as Annotation,
@@ -240,6 +243,8 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
         type: 'log',
         title: { text: '|Z| (Ω)' },
         exponentformat: 'SI',
+        // "1 kΩ, 10 kΩ, 100 kΩ", as the tables write impedances.
+        ...(logAxisTicks(magnitude, 'ohm') ?? {}),
       },
       yaxis2: {
         ...axisStyle(ctx.palette),
@@ -354,7 +359,7 @@ export function impedanceChartFigure(ctx: PlotContext, referenceOhm: number): Pl
         textposition: 'top right',
         textfont: { color: ctx.palette.marker },
         marker: { color: ctx.palette.marker, size: 9, symbol: 'circle-open', line: { width: 2 } },
-        hovertemplate: `f0 ${engineering(ctx.f0Hz, 'hertz', 4)}<extra></extra>`,
+        hovertemplate: `f0 ${engineering(ctx.f0Hz, 'hertz')}<extra></extra>`,
       } as Data,
     ],
     layout: {

@@ -1,5 +1,11 @@
-import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { MatTableModule } from '@angular/material/table';
+import { ColumnChoiceStore } from '../../../core/tables/column-choice';
+import {
+  ColumnMenuComponent,
+  type ChoosableColumn,
+} from '../../../core/tables/column-menu.component';
+import { ScrollFrameComponent } from '../../../core/tables/scroll-frame.component';
 import type { LoadingState, ResonatorRow, SelectivityRow } from './detail-rows';
 
 const LOADING_TEXT: Record<LoadingState, string> = {
@@ -25,6 +31,29 @@ const RESONATOR_COLUMNS = [
 /** Shown only when a coupled pair is in the chain. */
 const PAIR_COLUMN = 'pairPeak';
 
+/** Headings of the columns the user may hide, in the menu's words (the label column stays). */
+const RESONATOR_LABELS: Record<string, string> = {
+  resonator: 'Resonator',
+  resonance: 'Resonant frequency',
+  pairPeak: 'Pair peaks at',
+  loadedQ: 'Loaded Q',
+  unloadedQ: 'Unloaded Q',
+  bandwidth: 'Bandwidth',
+  detachedQ: 'Q detached',
+  detachedBandwidth: 'Bandwidth detached',
+  loadingRatio: 'Loading ratio',
+  downstreamShare: 'Downstream share',
+};
+const SELECTIVITY_LABELS: Record<string, string> = {
+  peak: 'Peak at',
+  peakStepUp: 'Peak step-up',
+  bw3: '−3 dB width',
+  bw60: '−60 dB width',
+  shapeFactor: 'Shape factor',
+  image: 'Image at',
+  imageRejection: 'Image rejection',
+};
+
 /**
  * Every resonator's Q and bandwidth with and without the downstream side attached (the
  * "does the next stage load the tank?" question), whether its stage declared it or the
@@ -32,7 +61,7 @@ const PAIR_COLUMN = 'pairPeak';
  */
 @Component({
   selector: 'cw-resonance-tables',
-  imports: [MatTableModule],
+  imports: [MatTableModule, ColumnMenuComponent, ScrollFrameComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './resonance-tables.component.html',
   styleUrl: './resonance-tables.component.scss',
@@ -45,15 +74,31 @@ export class ResonanceTablesComponent {
   readonly selectedStageId = input<string | null>(null);
   readonly stageSelected = output<string>();
 
-  protected readonly resonatorColumns = computed(() =>
+  private readonly choices = inject(ColumnChoiceStore);
+  protected readonly resonatorTable = 'resonators';
+  protected readonly selectivityTable = 'selectivity';
+  protected readonly hiddenResonatorColumns = this.choices.hidden(this.resonatorTable);
+  protected readonly hiddenSelectivityColumns = this.choices.hidden(this.selectivityTable);
+
+  /** Every column this chain has, before the user's choice. */
+  private readonly allResonatorColumns = computed(() =>
     this.resonators().some((r) => r.pairPeak !== '')
       ? [...RESONATOR_COLUMNS.slice(0, 3), PAIR_COLUMN, ...RESONATOR_COLUMNS.slice(3)]
       : RESONATOR_COLUMNS,
   );
+  protected readonly resonatorChoices = computed<ChoosableColumn[]>(() =>
+    this.allResonatorColumns()
+      .slice(1)
+      .map((id) => ({ id, label: RESONATOR_LABELS[id] ?? id })),
+  );
+  protected readonly resonatorColumns = computed(() => {
+    const hidden = this.hiddenResonatorColumns();
+    return this.allResonatorColumns().filter((id) => !hidden.has(id));
+  });
   protected readonly offsetColumns = computed(() =>
     this.offsetHeadings().map((heading, i) => ({ id: `offset${i}`, heading, index: i })),
   );
-  protected readonly selectivityColumns = computed(() => [
+  private readonly allSelectivityColumns = computed(() => [
     'node',
     'peak',
     'peakStepUp',
@@ -64,6 +109,24 @@ export class ResonanceTablesComponent {
     'image',
     'imageRejection',
   ]);
+  protected readonly selectivityChoices = computed<ChoosableColumn[]>(() => {
+    const offsets = new Map(this.offsetColumns().map((c) => [c.id, `At ${c.heading}`]));
+    return this.allSelectivityColumns()
+      .slice(1)
+      .map((id) => ({ id, label: SELECTIVITY_LABELS[id] ?? offsets.get(id) ?? id }));
+  });
+  protected readonly selectivityColumns = computed(() => {
+    const hidden = this.hiddenSelectivityColumns();
+    return this.allSelectivityColumns().filter((id) => !hidden.has(id));
+  });
+
+  protected choose(table: string, id: string, show: boolean): void {
+    this.choices.setHidden(table, id, !show);
+  }
+
+  protected showAll(table: string): void {
+    this.choices.showAll(table);
+  }
 
   protected loadingText(state: LoadingState): string {
     return LOADING_TEXT[state];

@@ -13,6 +13,7 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { chainReferenceOhm, exportFileName } from '../../../../../shared/io/export-name';
+import { smithReferenceOhm } from '../../../core/format/number-format';
 import {
   type PlotContext,
   defaultPlotNodes,
@@ -156,7 +157,9 @@ export class ResultPlotsComponent {
     return {
       impedance: impedanceFigure(ctx),
       returnLoss: returnLossFigure(ctx, this.document().settings.thresholds.matchReturnLossDb),
-      chart: impedanceChartFigure(ctx, this.result().nodes[0]?.zSrc.re ?? 50),
+      // Normalised to the reference the user chose (Account, default 50 Ω), not the source's
+      // resistance: a 10 MΩ loop would crowd the whole sweep into one corner of the chart.
+      chart: impedanceChartFigure(ctx, smithReferenceOhm()),
     };
   });
 

@@ -52,12 +52,27 @@ describe('stage factory', () => {
       expect(displayText(stage('t', TANK, { l: 4.7e-6 }), TANK.params[0])).toBe('4.7 µH');
     });
 
-    it('should summarise the first shown values for the card', () => {
-      expect(keyValues(stage('t', TANK, { l: 22e-6, c: 100e-12 }), TANK)).toEqual([
+    it('should give the card the parts first, with full labels, and leave out the entry switch', () => {
+      const values = keyValues(stage('t', TANK, { l: 22e-6, c: 100e-12 }), TANK);
+      expect(values.map((v) => `${v.label} ${v.value}`)).toEqual([
         'Inductance 22 µH',
         'Capacitance 100 pF',
-        'Entry By values',
       ]);
+    });
+
+    it('should never shorten a long label', () => {
+      const long = {
+        ...TANK,
+        params: [
+          { ...TANK.params[0], label: 'Turns ratio (primary : secondary)', unit: 'ratio' as const },
+        ],
+      };
+      expect(keyValues(stage('t', long, { l: 0.25 }), long)[0]).toEqual({
+        key: 'l',
+        label: 'Turns ratio (primary : secondary)',
+        value: '0.25',
+        numeric: true,
+      });
     });
   });
 

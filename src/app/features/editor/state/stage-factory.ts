@@ -2,6 +2,7 @@
 import type { ParamSpec, ParamValues, StageTypeInfo } from '../../../../../shared/engine/types';
 import type { StageInstance } from '../../../../../shared/schema/chain';
 import { formatEngineering } from '../../../../../shared/units';
+import { significantFigures } from '../../../core/format/number-format';
 
 /** A short id, unique within a chain (the document limits ids to 64 characters). */
 export function newStageId(): string {
@@ -42,23 +43,38 @@ export function displayText(stage: StageInstance, spec: ParamSpec): string {
   return typeof v === 'number' ? formatEngineering(v, spec.unit, 6) : String(v);
 }
 
-/** A few "label value" pairs for the stage card: the first shown numeric parameters. */
-export function keyValues(stage: StageInstance, type: StageTypeInfo, count = 3): string[] {
-  return visibleParams(stage, type)
-    .filter((p) => p.kind === 'number' || p.kind === 'enum')
-    .slice(0, count)
-    .map((p) => {
-      const v = valueOf(stage, p);
-      const text =
-        typeof v === 'number'
-          ? formatEngineering(v, p.unit)
-          : (p.options?.find((o) => o.value === v)?.label ?? String(v));
-      return `${shortLabel(p.label)} ${text}`;
-    });
+/** One value a stage card shows: the parameter's full label and its value with units. */
+export interface CardValue {
+  key: string;
+  label: string;
+  value: string;
+  /** A number with its unit (kept on one line), not the words of a choice. */
+  numeric: boolean;
 }
 
-function shortLabel(label: string): string {
-  return label.length > 18 ? `${label.slice(0, 17)}…` : label;
+/** Parts come first on a card: they are what a stage is built from. */
+const PART_UNITS = new Set(['henry', 'farad']);
+
+/**
+ * The values that define a stage, for its card: the shown component values (inductances,
+ * capacitances) first, then the other numbers and choices in catalogue order. The switch
+ * that says how values are entered (`mode`) is left out: it is a way of entering, not a
+ * value of the stage. Labels are given in full; the card wraps them.
+ */
+export function keyValues(stage: StageInstance, type: StageTypeInfo, count = 4): CardValue[] {
+  const candidates = visibleParams(stage, type).filter(
+    (p) => (p.kind === 'number' || p.kind === 'enum') && p.key !== 'mode',
+  );
+  const parts = candidates.filter((p) => PART_UNITS.has(p.unit));
+  const rest = candidates.filter((p) => !PART_UNITS.has(p.unit));
+  return [...parts, ...rest].slice(0, count).map((p) => {
+    const v = valueOf(stage, p);
+    const value =
+      typeof v === 'number'
+        ? formatEngineering(v, p.unit, significantFigures())
+        : (p.options?.find((o) => o.value === v)?.label ?? String(v));
+    return { key: p.key, label: p.label, value, numeric: typeof v === 'number' };
+  });
 }
 
 /** A stage with one parameter set; `entered` keeps the typed text, or loses it for non-text. */

@@ -1,5 +1,15 @@
 import { CdkDrag, CdkDragDrop, CdkDropList } from '@angular/cdk/drag-drop';
-import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
+import {
+  afterNextRender,
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  ElementRef,
+  inject,
+  Injector,
+  input,
+  output,
+} from '@angular/core';
 import type { ChainIssue } from '../../../../../shared/engine/errors';
 import type { Flag, StageTypeInfo } from '../../../../../shared/engine/types';
 import type { StageInstance } from '../../../../../shared/schema/chain';
@@ -12,7 +22,8 @@ import { StageCardComponent } from './stage-card.component';
 /**
  * The chain as a horizontal strip of cards. Cards reorder by drag; palette types drop in
  * at any position. Keyboard: Alt+←/→ moves the focused card's stage, Delete removes it,
- * Ctrl+D duplicates it.
+ * Ctrl+D duplicates it. After a move, a removal or a duplicate, focus stays on a card (the
+ * moved one, the one before the removed one, the copy) so the keyboard user keeps their place.
  */
 @Component({
   selector: 'cw-stage-strip',
@@ -38,6 +49,7 @@ import { StageCardComponent } from './stage-card.component';
           [cdkDragDisabled]="readOnly() || !movable(stage)"
           role="listitem"
           tabindex="0"
+          [attr.data-slot-id]="stage.id"
           [attr.aria-label]="'Stage ' + (i + 1) + ': ' + (stage.label || stage.type)"
           [attr.aria-keyshortcuts]="
             readOnly() ? null : 'Alt+ArrowLeft Alt+ArrowRight Delete Control+D'
@@ -57,11 +69,11 @@ import { StageCardComponent } from './stage-card.component';
             [overriddenCount]="overriddenCount(stage.id)"
             [leftOut]="leftOutOf(stage.id)"
             (leaveOut)="store.setLeftOut(stage.id, $event)"
-            (picked)="store.select(stage.id)"
-            (moveLeft)="feedback.report(store.moveBy(stage.id, -1))"
-            (moveRight)="feedback.report(store.moveBy(stage.id, 1))"
-            (duplicated)="feedback.report(store.duplicate(stage.id))"
-            (removed)="feedback.report(store.remove(stage.id))"
+            (picked)="pick(stage.id)"
+            (moveLeft)="moveBy(stage.id, -1)"
+            (moveRight)="moveBy(stage.id, 1)"
+            (duplicated)="duplicate(stage.id)"
+            (removed)="remove(stage.id)"
           />
           @if (!last) {
             <span class="wire" aria-hidden="true"></span>
@@ -73,8 +85,16 @@ import { StageCardComponent } from './stage-card.component';
   styles: `
     :host {
       display: block;
+      /* Positioned, so nothing absolutely placed inside escapes the scroll box. */
+      position: relative;
       overflow-x: auto;
       padding: 8px 4px 12px;
+      /* Sideways scrolling on a touch screen stays in the strip, not the page. */
+      overscroll-behavior-x: contain;
+      scroll-snap-type: x proximity;
+    }
+    .slot {
+      scroll-snap-align: start;
     }
     .strip {
       display: flex;
@@ -97,7 +117,7 @@ import { StageCardComponent } from './stage-card.component';
     }
     /* A palette type over the strip shows where its card will land, at card size. */
     :host ::ng-deep .strip .placeholder {
-      width: 172px;
+      width: 180px;
       height: 150px;
       margin-right: 18px;
       box-sizing: border-box;
@@ -118,10 +138,14 @@ export class StageStripComponent {
   readonly readOnly = input(false);
   /** Whether the cards mark the selected mode's values (not for an old revision). */
   readonly showModes = input(true);
+  /** A card was picked (clicked or tapped): the page shows its values. */
+  readonly stagePicked = output<string>();
 
   protected readonly store = inject(EditorStore);
   protected readonly feedback = inject(EditFeedback);
   private readonly runner = inject(AnalysisRunner);
+  private readonly host = inject<ElementRef<HTMLElement>>(ElementRef);
+  private readonly injector = inject(Injector);
 
   protected readonly flagsByStage = computed(() =>
     groupBy(this.runner.result()?.flags ?? [], (f: Flag) => f.stageId),
@@ -169,14 +193,54 @@ export class StageStripComponent {
     if (this.readOnly()) return;
     if (event.altKey && (event.key === 'ArrowLeft' || event.key === 'ArrowRight')) {
       event.preventDefault();
-      this.feedback.report(this.store.moveBy(stage.id, event.key === 'ArrowLeft' ? -1 : 1));
+      this.moveBy(stage.id, event.key === 'ArrowLeft' ? -1 : 1);
     } else if (event.key === 'Delete') {
       event.preventDefault();
-      this.feedback.report(this.store.remove(stage.id));
+      this.remove(stage.id);
     } else if ((event.ctrlKey || event.metaKey) && event.key.toLowerCase() === 'd') {
       event.preventDefault();
-      this.feedback.report(this.store.duplicate(stage.id));
+      this.duplicate(stage.id);
     }
+  }
+
+  protected pick(stageId: string): void {
+    this.store.select(stageId);
+    this.stagePicked.emit(stageId);
+  }
+
+  protected moveBy(stageId: string, delta: number): void {
+    const outcome = this.store.moveBy(stageId, delta);
+    this.feedback.report(outcome);
+    // The moved card's element is re-inserted in the list, which drops its focus.
+    this.focusAfterRender(stageId);
+  }
+
+  protected remove(stageId: string): void {
+    const stages = this.stages();
+    const index = stages.findIndex((s) => s.id === stageId);
+    const outcome = this.store.remove(stageId);
+    this.feedback.report(outcome);
+    if (!outcome.ok) return;
+    // The card before the removed one (the source at worst) takes the focus.
+    this.focusAfterRender(stages[Math.max(0, index - 1)]?.id ?? null);
+  }
+
+  protected duplicate(stageId: string): void {
+    const outcome = this.store.duplicate(stageId);
+    this.feedback.report(outcome);
+    this.focusAfterRender(outcome.ok ? this.store.selectedId() : stageId);
+  }
+
+  private focusAfterRender(stageId: string | null): void {
+    if (stageId === null) return;
+    afterNextRender(
+      () => {
+        const slots = this.host.nativeElement.querySelectorAll<HTMLElement>('[data-slot-id]');
+        const slot = Array.from(slots).find((el) => el.dataset['slotId'] === stageId);
+        slot?.focus();
+      },
+      { injector: this.injector },
+    );
   }
 }
 

@@ -1,0 +1,38 @@
+import { logAxisTicks } from './plot-axes';
+
+describe('log axis ticks', () => {
+  it('should tick a wide impedance span by decades with prefixes and the unit', () => {
+    const ticks = logAxisTicks([800, 5e3, 2e4, 3.3e5], 'ohm')!;
+    expect(ticks.tickmode).toBe('array');
+    expect(ticks.ticktext).toEqual(['1 kΩ', '10 kΩ', '100 kΩ']);
+    expect(ticks.tickvals).toEqual([1e3, 1e4, 1e5]);
+  });
+
+  it('should add 2 and 5 steps when the span is a couple of decades', () => {
+    const ticks = logAxisTicks([1.5e6, 40e6], 'hertz')!;
+    expect(ticks.ticktext).toEqual(['2 MHz', '5 MHz', '10 MHz', '20 MHz']);
+  });
+
+  it('should write small values with sub-unit prefixes', () => {
+    const ticks = logAxisTicks([0.8e-6, 2.1e-6], 'henry')!;
+    expect(ticks.ticktext).toEqual(['1 µH', '2 µH']);
+  });
+
+  it('should skip zero, negative and non-finite values, and give up on none', () => {
+    expect(logAxisTicks([0, -5, NaN, Infinity], 'ohm')).toBeNull();
+    expect(logAxisTicks([0, 10, 1000], 'ohm')!.ticktext).toEqual([
+      '10 Ω',
+      '20 Ω',
+      '50 Ω',
+      '100 Ω',
+      '200 Ω',
+      '500 Ω',
+      '1 kΩ',
+    ]);
+  });
+
+  it('should label both ends of a span narrower than one step', () => {
+    const ticks = logAxisTicks([52, 58], 'ohm')!;
+    expect(ticks.ticktext).toEqual(['52 Ω', '58 Ω']);
+  });
+});

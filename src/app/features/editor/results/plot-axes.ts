@@ -1,0 +1,56 @@
+/**
+ * Axis ticks written the way the tables write values: engineering prefixes and the unit
+ * ("1 kΩ", "10 kΩ", "100 kΩ"), not raw numbers or Plotly's own exponent forms. Plotly takes
+ * them as an array of tick positions with their text (`tickmode: 'array'`).
+ */
+import type { UnitKind } from '../../../../../shared/engine/types';
+import { engineering } from './format-quantity';
+
+export interface AxisTicks {
+  tickmode: 'array';
+  tickvals: number[];
+  ticktext: string[];
+}
+
+/** Mantissas per decade: every decade always; 2 and 5 too when few decades are shown. */
+function mantissas(decades: number): number[] {
+  if (decades <= 1) return [1, 2, 3, 5, 7];
+  if (decades <= 3) return [1, 2, 5];
+  return [1];
+}
+
+/**
+ * Ticks for a log axis spanning the positive finite `values`: 1-2-5 steps, or decades when
+ * the span is wide, each labelled with a prefix and the unit. Empty when no value is usable
+ * (Plotly then chooses its own).
+ */
+export function logAxisTicks(values: ArrayLike<number>, kind: UnitKind): AxisTicks | null {
+  let low = Infinity;
+  let high = -Infinity;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (Number.isFinite(v) && v > 0) {
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+    }
+  }
+  if (!(low <= high)) return null;
+  const first = Math.floor(Math.log10(low));
+  const last = Math.ceil(Math.log10(high));
+  const steps = mantissas(Math.max(1, last - first));
+  const tickvals: number[] = [];
+  for (let d = first; d <= last; d++) {
+    for (const m of steps) {
+      // Rounded to 12 figures so 3 × 10⁻⁶ does not print as 2.9999999 µ.
+      const v = Number((m * 10 ** d).toPrecision(12));
+      if (v >= low / 1.0001 && v <= high * 1.0001) tickvals.push(v);
+    }
+  }
+  // A span inside one step still needs two labels to be read.
+  if (tickvals.length < 2) tickvals.splice(0, tickvals.length, low, high);
+  return {
+    tickmode: 'array',
+    tickvals,
+    ticktext: tickvals.map((v) => engineering(v, kind, 3)),
+  };
+}
