@@ -117,6 +117,11 @@ export interface StageReport {
   cumulativeP1dbDbm: number | null;
   /** Signal level at the stage input, dBm available. */
   inputLevelDbm: number;
+  /**
+   * A matching network entered by design: the part values the design chose (SI), keyed
+   * like the stage's value parameters (optional; absent for every other stage).
+   */
+  designedValues?: Record<string, number>;
 }
 
 export interface ResonatorReport {

@@ -222,6 +222,11 @@ export interface StageModelCommon {
    */
   innerParts?: (f: number, vRe: number, vIm: number) => PartStress[];
   /**
+   * Matching networks entered "by design": the part values the design chose (SI), keyed
+   * like the stage's own value parameters (`l`, `c`, …), so a card can show them.
+   */
+  designedValues?: Record<string, number>;
+  /**
    * SPICE (ngspice) lines for the stage between nodes `inNode` and `outNode`
    * (ground is `0`). Element names must start with `prefix`. Undefined when SPICE
    * cannot express the stage. Sources write a voltage source named `${prefix}V`;

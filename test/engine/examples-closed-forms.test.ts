@@ -476,8 +476,19 @@ describe('sensor-868-front-end: SAW filter and an L-match that forgets, then abs
     const vth = div(zl, add(zs, zc, zl));
     const zth = inv(add(inv(add(zs, zc)), inv(zl)));
     const ga = (abs(vth) ** 2 / zth.re) * zs.re; // Pav,out / Pav,in
-    return { zin, zth, ga };
+    return { zin, zth, ga, c, l };
   }
+
+  it('reports the parts its design chose (Q = √(R2/R1 − 1), X_C = Q·R1, X_L = R2/Q), for the card', () => {
+    for (const { doc, res } of [parent, fixed]) {
+      const { c, l } = match(doc, f0);
+      const report = res.stages.find((s) => s.id === 'match')!;
+      expect(rel(report.designedValues!.c, c)).toBeLessThan(1e-9);
+      expect(rel(report.designedValues!.l, l)).toBeLessThan(1e-9);
+    }
+    // Only the designed stage carries them.
+    expect(parent.res.stages.filter((s) => s.designedValues).map((s) => s.id)).toEqual(['match']);
+  });
 
   it('misses the match when the 1.2 pF is left out, and says so with the return loss', () => {
     const { zin } = match(parent.doc, f0);

@@ -133,6 +133,7 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
     p1dbDbm: s.model.linearity?.p1dbDbm ?? null,
     cumulativeP1dbDbm: finiteOrNull(p1[k]),
     inputLevelDbm: dbm(pav[k]),
+    ...(s.model.designedValues ? { designedValues: { ...s.model.designedValues } } : {}),
   }));
 }
 

@@ -108,6 +108,7 @@ export function buildMatching(
     check?.(design, p);
     parts = design.values;
     model.designedMatch = { r1: p.num('r1'), r2: p.num('r2') };
+    model.designedValues = Object.fromEntries(componentKeys.map((k) => [k, parts[k]]));
     model.qBudget = { required: design.q, componentQ };
   } else {
     parts = Object.fromEntries(componentKeys.map((k) => [k, p.num(k)]));

@@ -60,6 +60,24 @@ describe('stage factory', () => {
       ]);
     });
 
+    it('should lead with the parts a design chose when the stage is entered by design', () => {
+      // As the matching networks do: the part values are inputs in values mode only.
+      const whenValues = { key: 'mode', equals: 'values' };
+      const matching = {
+        ...TANK,
+        params: TANK.params.map((p) =>
+          p.key === 'l' || p.key === 'c' ? { ...p, showWhen: whenValues } : p,
+        ),
+      };
+      const designedTank = stage('t', matching, { mode: 'design', q: 30 });
+      const values = keyValues(designedTank, matching, 4, { l: 4.7e-6, c: 220e-12 });
+      expect(values.map((v) => `${v.label} ${v.value}`)).toEqual([
+        'Inductance (designed) 4.7 µH',
+        'Capacitance (designed) 220 pF',
+        'Loaded Q 30',
+      ]);
+    });
+
     it('should never shorten a long label', () => {
       const long = {
         ...TANK,

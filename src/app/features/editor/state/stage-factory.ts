@@ -61,20 +61,38 @@ const PART_UNITS = new Set(['henry', 'farad']);
  * that says how values are entered (`mode`) is left out: it is a way of entering, not a
  * value of the stage. Labels are given in full; the card wraps them.
  */
-export function keyValues(stage: StageInstance, type: StageTypeInfo, count = 4): CardValue[] {
+export function keyValues(
+  stage: StageInstance,
+  type: StageTypeInfo,
+  count = 4,
+  designed?: Record<string, number>,
+): CardValue[] {
+  // A network entered by design: the parts the design chose lead, from the analysis.
+  const designedParts: CardValue[] = type.params
+    .filter((p) => designed?.[p.key] !== undefined && !isParamShown(stage, p, type.params))
+    .map((p) => ({
+      key: p.key,
+      label: `${p.label} (designed)`,
+      value: formatEngineering(designed![p.key], p.unit, significantFigures()),
+      numeric: true,
+    }));
   const candidates = visibleParams(stage, type).filter(
     (p) => (p.kind === 'number' || p.kind === 'enum') && p.key !== 'mode',
   );
   const parts = candidates.filter((p) => PART_UNITS.has(p.unit));
   const rest = candidates.filter((p) => !PART_UNITS.has(p.unit));
-  return [...parts, ...rest].slice(0, count).map((p) => {
-    const v = valueOf(stage, p);
-    const value =
-      typeof v === 'number'
-        ? formatEngineering(v, p.unit, significantFigures())
-        : (p.options?.find((o) => o.value === v)?.label ?? String(v));
-    return { key: p.key, label: p.label, value, numeric: typeof v === 'number' };
-  });
+  const entered = [...parts, ...rest].slice(0, Math.max(0, count - designedParts.length));
+  return [
+    ...designedParts,
+    ...entered.map((p) => {
+      const v = valueOf(stage, p);
+      const value =
+        typeof v === 'number'
+          ? formatEngineering(v, p.unit, significantFigures())
+          : (p.options?.find((o) => o.value === v)?.label ?? String(v));
+      return { key: p.key, label: p.label, value, numeric: typeof v === 'number' };
+    }),
+  ];
 }
 
 /** A stage with one parameter set; `entered` keeps the typed text, or loses it for non-text. */

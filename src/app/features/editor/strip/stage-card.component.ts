@@ -30,6 +30,8 @@ export class StageCardComponent {
   readonly modeName = input<string | null>(null);
   readonly overriddenCount = input(0);
   readonly leftOut = input<'bypass' | 'path' | null>(null);
+  /** Part values a design chose (from the analysis), for a network entered by design. */
+  readonly designed = input<Record<string, number> | undefined>(undefined);
 
   readonly picked = output<void>();
   readonly moveLeft = output<void>();
@@ -52,7 +54,7 @@ export class StageCardComponent {
   protected readonly isTwoPort = computed(() => (this.type()?.role ?? 'two-port') === 'two-port');
   protected readonly values = computed(() => {
     const type = this.type();
-    return type ? keyValues(this.stage(), type) : [];
+    return type ? keyValues(this.stage(), type, 4, this.designed()) : [];
   });
   protected readonly title = computed(
     () => this.stage().label || this.type()?.label || this.stage().type,

@@ -61,6 +61,7 @@ import { StageCardComponent } from './stage-card.component';
             [type]="typeOf(stage)"
             [flags]="flagsByStage().get(stage.id) ?? []"
             [issues]="issuesByStage().get(stage.id) ?? []"
+            [designed]="designedByStage().get(stage.id)"
             [selected]="stage.id === store.selectedId()"
             [readOnly]="readOnly()"
             [canMoveLeft]="movable(stage) && i > 1"
@@ -149,6 +150,14 @@ export class StageStripComponent {
 
   protected readonly flagsByStage = computed(() =>
     groupBy(this.runner.result()?.flags ?? [], (f: Flag) => f.stageId),
+  );
+  protected readonly designedByStage = computed(
+    () =>
+      new Map(
+        (this.runner.result()?.stages ?? []).flatMap((s) =>
+          s.designedValues ? [[s.id, s.designedValues] as const] : [],
+        ),
+      ),
   );
   protected readonly issuesByStage = computed(() =>
     groupBy(
