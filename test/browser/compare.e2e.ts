@@ -82,7 +82,7 @@ describe('compare variants', () => {
 
     // Both plots are drawn with one trace per variant.
     for (const label of ['Voltage step-up at the last node', 'Input return loss']) {
-      const plot = page.locator(`[role="img"][aria-label^="${label}"]`);
+      const plot = page.locator(`[role="group"][aria-label^="${label}"]`);
       await plot.locator('.main-svg').first().waitFor();
       expect(await plot.locator('.scatterlayer .trace').count()).toBe(2);
     }

@@ -12,6 +12,7 @@ import { describeAxe, horizontalOverflow, seriousAxeViolations } from './helpers
 
 const LOADING_DEMO = 'Long-wave time signal, ferrite loop into a diode detector';
 const LIGHT_LOAD = 'Long-wave time signal, ferrite loop into a lightly loading detector';
+const DESIGNED_MATCH = '868 MHz sensor-network receiver, SAW filter and L-match to the LNA';
 
 const WIDTHS = [
   { name: 'desktop', width: 1440, height: 900 },
@@ -98,6 +99,9 @@ describe('every screen at three widths', () => {
       // Not exact: a variant's link starts with an arrow under its parent.
       .getByRole('link', { name: LIGHT_LOAD })
       .getAttribute('href');
+    const matchHref = await page
+      .getByRole('link', { name: DESIGNED_MATCH, exact: true })
+      .getAttribute('href');
     expect(demoHref).toBeTruthy();
     expect(lightHref).toBeTruthy();
 
@@ -178,6 +182,21 @@ describe('every screen at three widths', () => {
       await page.keyboard.press('Escape');
     }
 
+    // An L-match entered by design shows the L and C its design chose, in full, on its card.
+    await page.goto(matchHref!);
+    const match = page.locator('cw-stage-card', {
+      has: page.locator('[data-stage-type="l-match"]'),
+    });
+    await match.locator('[data-param="l"]').waitFor();
+    expect(await match.locator('[data-param="l"]').innerText()).toMatch(
+      /^Inductance \(designed\)\s+[\d.]+ nH$/,
+    );
+    expect(await match.locator('[data-param="c"]').innerText()).toMatch(
+      /^Capacitance \(designed\)\s+[\d.]+ pF$/,
+    );
+    await check('editor, designed L-match');
+    await snap('10b-editor-designed-match');
+
     // Compare the example with its lightly loaded sibling.
     const workspace = demoHref!.split('/')[2];
     const ids = [demoHref!, lightHref!].map((href) => href.split('/').pop()).join(',');
@@ -196,6 +215,11 @@ describe('every screen at three widths', () => {
 
     await page.goto('/account');
     await page.getByRole('heading', { name: 'Number format' }).waitFor();
+    const figures = page.getByTestId('significant-figures');
+    expect(await figures.inputValue()).toBe('4');
+    expect(await page.locator('cw-number-format-card .example').innerText()).toContain('7.235 MHz');
+    await figures.selectOption('3');
+    expect(await page.locator('cw-number-format-card .example').innerText()).toContain('7.23 MHz');
     await check('account');
     await snap('13-account');
 

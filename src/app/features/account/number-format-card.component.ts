@@ -32,11 +32,11 @@ import { engineering } from '../editor/results/format-quantity';
           <select
             matNativeControl
             data-testid="significant-figures"
-            [value]="format.figures()"
             (change)="chooseFigures($event)"
           >
+            <!-- Selected per option: a value bound on the select lands before its options. -->
             @for (n of figureChoices; track n) {
-              <option [value]="n">{{ n }}</option>
+              <option [value]="n" [selected]="n === format.figures()">{{ n }}</option>
             }
           </select>
         </mat-form-field>
@@ -67,6 +67,10 @@ import { engineering } from '../editor/results/format-quantity';
     </mat-card>
   `,
   styles: `
+    h2[mat-card-title] {
+      font: var(--mat-sys-title-medium);
+      margin: 0;
+    }
     mat-form-field {
       width: 100%;
     }

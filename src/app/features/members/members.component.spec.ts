@@ -47,6 +47,10 @@ describe('MembersComponent', () => {
     expect(el.querySelector('ul[aria-label="Open invitations"]')?.textContent).toContain(
       'linus@example.org',
     );
+    // The emptied address field is ready for the next one, not shown in red as a mistake.
+    expect(email.value).toBe('');
+    expect(el.querySelector('form mat-error')).toBeNull();
+    expect(el.querySelector('form .mat-form-field-invalid')).toBeNull();
   });
 
   it('should say when the invitation mail did not go, keeping the invitation', async () => {

@@ -43,7 +43,7 @@ const PLOT_CONFIG: Partial<Config> = {
       <div
         #canvas
         class="canvas"
-        role="img"
+        role="group"
         [attr.aria-label]="label()"
         [style.height.px]="height"
       ></div>

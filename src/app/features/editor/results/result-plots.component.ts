@@ -14,6 +14,7 @@ import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { chainReferenceOhm, exportFileName } from '../../../../../shared/io/export-name';
 import { smithReferenceOhm } from '../../../core/format/number-format';
+import { engineering } from './format-quantity';
 import {
   type PlotContext,
   defaultPlotNodes,
@@ -69,7 +70,7 @@ import { markPlotsOpened } from './plot-timing';
         <cw-result-plot
           [figure]="shown.chart"
           label="Input impedance chart"
-          hint="Normalised to the source resistance at f0; ○ marks f0."
+          [hint]="chartHint()"
           [fileName]="fileStem() + '_impedance-chart'"
         />
       </div>
@@ -150,6 +151,11 @@ export class ResultPlotsComponent {
     const ctx = this.context();
     return ctx ? stepUpFigure(ctx, this.chosen()) : null;
   });
+
+  protected readonly chartHint = computed(
+    () =>
+      `Normalised to ${engineering(smithReferenceOhm(), 'ohm')} (choose another reference under Account); ○ marks f0.`,
+  );
 
   protected readonly figures = computed(() => {
     const ctx = this.context();

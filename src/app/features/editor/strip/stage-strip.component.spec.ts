@@ -85,6 +85,26 @@ describe('StageStripComponent', () => {
       expect(store.doc().stages.map((s) => s.id)).toEqual(['src', 'tank', 'load']);
     });
 
+    it('should keep the focus on the moved card, and give it to the card before a removed one', async () => {
+      card('amp').focus();
+      key('amp', { key: 'ArrowLeft', altKey: true });
+      await rerender();
+      expect(document.activeElement).toBe(card('amp'));
+      key('amp', { key: 'Delete' });
+      await rerender();
+      expect(cardIds()).toEqual(['src', 'tank', 'load']);
+      expect(document.activeElement).toBe(card('src'));
+    });
+
+    it('should give the focus to the copy after a duplicate', async () => {
+      card('tank').focus();
+      key('tank', { key: 'd', ctrlKey: true });
+      await rerender();
+      const copy = store.doc().stages[2].id;
+      expect(copy).not.toBe('tank');
+      expect(document.activeElement).toBe(card(copy));
+    });
+
     it('should report why the source cannot be removed', () => {
       key('src', { key: 'Delete' });
       expect(report).toHaveBeenCalledWith({
@@ -95,6 +115,12 @@ describe('StageStripComponent', () => {
   });
 
   // Helpers
+
+  /** The page re-renders the strip with the edited document; so does the test. */
+  async function rerender(): Promise<void> {
+    fixture.componentRef.setInput('stages', store.doc().stages);
+    await fixture.whenStable();
+  }
 
   function host(): HTMLElement {
     return fixture.nativeElement as HTMLElement;
