@@ -129,8 +129,8 @@ describe('chain editor', () => {
     await typeParam(page, 'l', '47 uH', '= 47 µH');
     await save(page, 'Bigger coil');
     await page
-      .getByRole('radio', { name: 'History' })
-      .or(page.getByRole('button', { name: 'History' }))
+      .getByRole('radio', { name: 'History', exact: true })
+      .or(page.getByRole('button', { name: 'History', exact: true }))
       .first()
       .click();
     const older = page.locator(`cw-revision-panel li[data-version="${firstVersion}"]`);
@@ -146,8 +146,8 @@ describe('chain editor', () => {
       .getByRole('button', { name: /^Select / })
       .click();
     await page
-      .getByRole('radio', { name: 'Stage' })
-      .or(page.getByRole('button', { name: 'Stage' }))
+      .getByRole('radio', { name: 'Stage', exact: true })
+      .or(page.getByRole('button', { name: 'Stage', exact: true }))
       .first()
       .click();
     expect(await param(page, 'l').inputValue()).toBe('22 uH');
@@ -231,7 +231,7 @@ describe('chain editor', () => {
       'envelope-detector',
     ]);
     await page
-      .getByRole('radio', { name: 'Chain' })
+      .getByRole('radio', { name: 'Chain', exact: true })
       .or(page.getByRole('button', { name: 'Chain', exact: true }))
       .first()
       .click();
@@ -261,7 +261,7 @@ describe('chain editor', () => {
 
     // Unsaved edits survive a reload as a local draft, offered back on opening.
     await page
-      .getByRole('radio', { name: 'Stage' })
+      .getByRole('radio', { name: 'Stage', exact: true })
       .or(page.getByRole('button', { name: 'Stage', exact: true }))
       .first()
       .click();

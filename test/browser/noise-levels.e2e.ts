@@ -43,7 +43,7 @@ describe('noise and levels in the editor', () => {
 
     // A 50 Ω reference for the whole chain: VSWR and return loss appear against it.
     await page
-      .getByRole('radio', { name: 'Chain' })
+      .getByRole('radio', { name: 'Chain', exact: true })
       .or(page.getByRole('button', { name: 'Chain', exact: true }))
       .first()
       .click();
@@ -63,7 +63,7 @@ describe('noise and levels in the editor', () => {
       .getByRole('button', { name: /^Select / })
       .click();
     await page
-      .getByRole('radio', { name: 'Stage' })
+      .getByRole('radio', { name: 'Stage', exact: true })
       .or(page.getByRole('button', { name: 'Stage', exact: true }))
       .first()
       .click();

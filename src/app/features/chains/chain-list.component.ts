@@ -199,24 +199,22 @@ export default class ChainListComponent {
     if (await this.actions.createWithDialog(this.workspaceId())) this.reload();
   }
 
-  protected async rename(chain: ChainSummaryDto, event: Event): Promise<void> {
-    event.stopPropagation();
+  // The row actions live in a menu (an overlay, outside the row): their clicks never reach
+  // the row, and must reach the menu, which closes on them.
+  protected async rename(chain: ChainSummaryDto): Promise<void> {
     if (await this.actions.rename(chain)) this.reload();
   }
 
-  protected async duplicate(chain: ChainSummaryDto, event: Event): Promise<void> {
-    event.stopPropagation();
+  protected async duplicate(chain: ChainSummaryDto): Promise<void> {
     if (await this.actions.duplicate(chain)) this.reload();
   }
 
-  protected async saveAsVariant(chain: ChainSummaryDto, event: Event): Promise<void> {
-    event.stopPropagation();
+  protected async saveAsVariant(chain: ChainSummaryDto): Promise<void> {
     if (await this.actions.saveAsVariant(chain)) this.reload();
   }
 
   /** Opens the comparison of the chain with the rest of its family. */
-  protected async compare(chain: ChainSummaryDto, event: Event): Promise<void> {
-    event.stopPropagation();
+  protected async compare(chain: ChainSummaryDto): Promise<void> {
     try {
       const query = compareQueryOf(await firstValueFrom(this.api.family(chain.id)), chain.id);
       if (query) {
@@ -227,8 +225,7 @@ export default class ChainListComponent {
     }
   }
 
-  protected async remove(chain: ChainSummaryDto, event: Event): Promise<void> {
-    event.stopPropagation();
+  protected async remove(chain: ChainSummaryDto): Promise<void> {
     if (await this.actions.remove(chain)) this.reload();
   }
 
