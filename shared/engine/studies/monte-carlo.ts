@@ -112,7 +112,11 @@ export function runTrial(inputs: StudyInputs, plan: MonteCarloPlan, index: numbe
     stage.values[t.key] = t.nominal * (1 + (z * t.tolerancePct) / 100);
   }
   try {
-    return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
+    if (plan.tracker.complete) {
+      return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
+    }
+    const result = analyse(inputs, doc);
+    return { index, draws, metrics: readMetrics(result, plan.node, plan.resonatorCount) };
   } catch (err) {
     const metrics = plan.metrics.map(() => null);
     return { index, draws, metrics, error: err instanceof Error ? err.message : String(err) };

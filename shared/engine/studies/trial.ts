@@ -56,6 +56,11 @@ export interface TrialTracker {
   /** The nominal chain as built (before its load level is settled): what trials build like. */
   nominal: BuiltChain;
   follow: Follow[];
+  /**
+   * Whether every resonator can be followed. A found series resonator cannot (yet): a study
+   * of a chain with one analyses each trial in full instead.
+   */
+  complete: boolean;
   /** User-level node whose selectivity the study judges. */
   node: number;
 }
@@ -97,7 +102,8 @@ export function trialTracker(
     }
     return { how: 'shunt', flat: r.flat, fIn, sign };
   });
-  return { nominal, follow, node };
+  const complete = findings.every((r) => !r || !(r.kind === 'series' && r.origin === 'found'));
+  return { nominal, follow, complete, node };
 }
 
 /** The declaration `label` of stage `stageId` in a built chain, with the stage. */
