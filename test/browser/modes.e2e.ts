@@ -152,7 +152,8 @@ describe('modes of a chain', () => {
     expect(lowered).toBeCloseTo(rxGain - 6, 0);
     await shot(page, 'modes-receive-override');
     await page.locator('[data-testid="override-mark"] button.clear').click();
-    await expect(page.locator('[data-testid="override-mark"]').count()).resolves.toBe(0);
+    // The page redraws after the click (signals, not a synchronous pass): wait for the mark to go.
+    await page.locator('[data-testid="override-mark"]').waitFor({ state: 'detached' });
     await expect(gainField.inputValue()).resolves.toMatch(/^18/);
     await settled(page);
     await until(
