@@ -55,7 +55,7 @@ describe('ShellComponent', () => {
     it('should not offer site administration to other users', async () => {
       await render(me('user'));
       const items = await menuItems();
-      expect(items).toEqual(['Account', 'Members', 'Activity', 'Sign out']);
+      expect(items).toEqual(['Account', 'Members', 'Parts bin', 'Activity', 'Sign out']);
     });
 
     it('should sign out, forget the session and go to sign-in', async () => {
