@@ -135,6 +135,13 @@ describe('modes of a chain', () => {
 
     // An edit in receive is receive's own: marked on the form and the card, and clearable.
     await modeButton(page, 'receive').click();
+    // The switch starts a new analysis after a short pause: wait for receive's figure itself
+    // rather than for an indicator that may not have appeared yet.
+    await page.waitForFunction(
+      ([sel, want]) => document.querySelector(sel)?.textContent?.trim() === want,
+      ['cw-summary-panel [data-key="nf"] dd.value', rxNf] as const,
+      { timeout: 15_000 },
+    );
     await settled(page);
     await expect(figure(page, 'nf')).resolves.toBe(rxNf);
     await page.locator('[data-stage-id="lna"] button.pick').click();

@@ -94,8 +94,9 @@ describe('studies', () => {
     await shot(page, 'studies-editor-variable-mark');
     // The yield targets, typed into the Chain panel.
     await page
-      .locator('mat-button-toggle', { hasText: /^Chain$/ })
-      .locator('button')
+      .getByRole('radio', { name: 'Chain', exact: true })
+      .or(page.getByRole('button', { name: 'Chain', exact: true }))
+      .first()
       .click();
     await page.getByTestId('targets-form').locator('summary').click();
     await change(page.locator('input[data-target="centreMinHz"]'), '7.1 MHz');
@@ -107,7 +108,10 @@ describe('studies', () => {
     await page.getByRole('button', { name: 'Save', exact: true }).click();
     const put = await saved;
     expect(put.status()).toBe(200);
-    const stored = (await put.json()).document.settings;
+    // Read back from the server: the page may have moved on by the time the body is read.
+    const reread = await page.request.get(`/api/chains/${chainId}`);
+    expect(reread.status()).toBe(200);
+    const stored = (await reread.json()).document.settings;
     expect(stored.targets).toEqual({ centreMinHz: 7.1e6, centreMaxHz: 7.3e6, maxNoiseFigureDb: 5 });
     expect(stored.variables).toEqual([{ stageId: 'preselector', key: 'c', min: 150e-12, max: 330e-12 }]); // prettier-ignore
 
