@@ -151,7 +151,10 @@ describe('design tools', () => {
     await shot(page, 'design-02-knob');
     // Release: one undoable edit.
     await slider.dispatchEvent('change');
-    await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(true);
+    // The edit lands once the page has handled the release: give it up to 5 s.
+    const undo = page.getByRole('button', { name: 'Undo' });
+    for (let i = 0; i < 50 && !(await undo.isEnabled()); i++) await page.waitForTimeout(100);
+    await expect(undo.isEnabled()).resolves.toBe(true);
   });
 
   it('snaps the chain to E12 and shows before and after', async () => {
