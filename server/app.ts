@@ -28,6 +28,7 @@ import { rejectNulCharacters } from './common/reject-nul';
 import type { Services } from './common/services';
 import { adminRouter } from './users/admin-routes';
 import { meRouter } from './users/me-routes';
+import { usesMailCatcher } from './config';
 import { workspacesRouter } from './workspaces/routes';
 import { invitationsRouter, workspaceInvitationsRouter } from './workspaces/invitation-routes';
 import { activityRouter } from './activity/routes';
@@ -103,7 +104,7 @@ export function createApp(services: Services): Express {
     '/api/auth',
     authRouter({ services, passport, csrf, signInLimiter: signInLimiter(services) }),
   );
-  app.use('/api/me', meRouter(em));
+  app.use('/api/me', meRouter(em, usesMailCatcher(config)));
   app.use('/api/admin', adminRouter(em, config.dbSchema));
   app.use('/api/workspaces', workspacesRouter(em));
   app.use('/api/admin', mailAdminRouter(services));

@@ -2,7 +2,7 @@ import { MikroORM, type EntityManager } from '@mikro-orm/postgresql';
 import nodemailer, { type Transporter } from 'nodemailer';
 import pg from 'pg';
 import type { Logger } from 'pino';
-import type { ServerConfig } from '../config';
+import type { MailConfig, ServerConfig } from '../config';
 import { ormOptions } from '../mikro-orm.config';
 import { createLogger } from './logger';
 import { createStudyQueue, type StudyQueue } from '../studies/queue';
@@ -31,6 +31,23 @@ export interface Services {
 }
 
 /**
+ * The mail transport: a relay by its URL (STARTTLS whenever the relay offers it), the local
+ * catcher over plain SMTP on loopback, or a JSON transport that sends nothing.
+ */
+export function mailTransport(mail: MailConfig): Transporter {
+  if (mail.kind === 'relay') return nodemailer.createTransport(mail.url);
+  if (mail.kind === 'smtp') {
+    return nodemailer.createTransport({
+      host: mail.host,
+      port: mail.port,
+      secure: false,
+      ignoreTLS: true,
+    });
+  }
+  return nodemailer.createTransport({ jsonTransport: true });
+}
+
+/**
  * Connects the ORM, the session pool and the mail transport. With `connect: false` the
  * database is first reached by the first query (a server that must start while the
  * database is away, e.g. to answer 503 on /api/health).
@@ -52,15 +69,7 @@ export async function initServices(
   sessionPool.on('error', (err) =>
     logger.warn({ err: { message: err.message } }, 'session pool lost a connection'),
   );
-  const mailer =
-    config.mail.kind === 'smtp'
-      ? nodemailer.createTransport({
-          host: config.mail.host,
-          port: config.mail.port,
-          secure: false,
-          ignoreTLS: true,
-        })
-      : nodemailer.createTransport({ jsonTransport: true });
+  const mailer = mailTransport(config.mail);
   const studyQueue = createStudyQueue(config.databaseUrl, config.dbSchema, { maintain: false });
   const events = new EventHub(config.databaseUrl, config.dbSchema);
   return {

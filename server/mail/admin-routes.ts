@@ -3,6 +3,7 @@ import type { CaughtMailDto, OutboxMessageDto } from '../../shared/schema/api';
 import { HttpError, NotFoundError } from '../common/errors';
 import { requireSiteAdmin } from '../common/roles';
 import type { Services } from '../common/services';
+import { usesMailCatcher } from '../config';
 import { listCaught, readCaught } from './mailbox';
 import { OutboxMessageSchema, type OutboxMessage } from './outbox.entity';
 
@@ -29,7 +30,7 @@ export function mailAdminRouter(services: Services): Router {
   const { em, config } = services;
 
   const mailDir = () => {
-    if (config.mail.kind !== 'smtp' || !config.mail.dir) {
+    if (!usesMailCatcher(config) || config.mail.kind !== 'smtp' || !config.mail.dir) {
       throw new HttpError(
         404,
         'no-mail-catcher',

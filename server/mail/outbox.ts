@@ -1,3 +1,4 @@
+import { LockMode } from '@mikro-orm/core';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { Transporter } from 'nodemailer';
 import type { MailOutcomeDto } from '../../shared/schema/api';
@@ -7,6 +8,8 @@ import { OutboxMessageSchema, type OutboxMessage } from './outbox.entity';
 export const MAIL_FROM = 'Chainwright <no-reply@chainwright.localhost>';
 /** Attempts before a message is left for a person to look at (admin's outbox). */
 export const MAX_ATTEMPTS = 8;
+/** How long a claimed message is left to the process that claimed it before another may try. */
+const CLAIM_LEASE_MS = 5 * 60_000;
 
 /** Minutes before attempt n+1: 1, 2, 4, ... capped at an hour. */
 function backoffMs(attempts: number): number {
@@ -34,14 +37,34 @@ export class MailOutbox {
     return this.attempt(fork, row);
   }
 
-  /** Retries every failed message whose time has come; returns how many went. */
+  /**
+   * Retries every failed message whose time has come; returns how many went. Each server
+   * process runs this: the due rows are first claimed (locked with SKIP LOCKED and their
+   * next attempt moved a lease ahead, in one short transaction), so two processes never
+   * send the same message twice, and a process dying mid-send leaves it due again later.
+   */
   async retryDue(em: EntityManager, now = new Date()): Promise<number> {
     const fork = em.fork();
-    const due = await fork.find(
-      OutboxMessageSchema,
-      { state: 'failed', attempts: { $lt: MAX_ATTEMPTS }, nextAttemptAt: { $lte: now } },
-      { orderBy: { createdAt: 'asc' }, limit: 50 },
-    );
+    const claimed = await fork.transactional(async (tem) => {
+      const rows = await tem.find(
+        OutboxMessageSchema,
+        { state: 'failed', attempts: { $lt: MAX_ATTEMPTS }, nextAttemptAt: { $lte: now } },
+        {
+          orderBy: { createdAt: 'asc' },
+          limit: 50,
+          lockMode: LockMode.PESSIMISTIC_PARTIAL_WRITE,
+        },
+      );
+      for (const row of rows) row.nextAttemptAt = new Date(now.getTime() + CLAIM_LEASE_MS);
+      return rows.map((row) => row.id);
+    });
+    const due = claimed.length
+      ? await fork.find(
+          OutboxMessageSchema,
+          { id: { $in: claimed } },
+          { orderBy: { createdAt: 'asc' } },
+        )
+      : [];
     let sent = 0;
     for (const row of due) if ((await this.attempt(fork, row)).sent) sent += 1;
     return sent;

@@ -5,8 +5,11 @@ import { currentUser } from '../common/roles';
 import { membershipsOf } from '../workspaces/membership.repository';
 import { toUserDto } from './dto';
 
-/** /api/me: who is signed in, and their workspaces. */
-export function meRouter(em: EntityManager): Router {
+/**
+ * /api/me: who is signed in, and their workspaces. `mailCatcher` tells a site admin whether
+ * the local development mail catcher is in use (the development mailbox exists only then).
+ */
+export function meRouter(em: EntityManager, mailCatcher = false): Router {
   const router = Router();
   router.get('/', async (req, res) => {
     const user = currentUser(req);
@@ -18,6 +21,7 @@ export function meRouter(em: EntityManager): Router {
         workspaceName: m.workspace.name,
         role: m.role,
       })),
+      ...(user.siteRole === 'admin' ? { mailCatcher } : {}),
     };
     res.json(body);
   });

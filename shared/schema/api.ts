@@ -76,6 +76,11 @@ export interface SignedInDto {
 export interface MeDto {
   user: UserDto;
   memberships: MembershipDto[];
+  /**
+   * Site admins only: whether mail goes to the local development catcher, whose messages
+   * the development mailbox page lists (absent for everyone else).
+   */
+  mailCatcher?: boolean;
 }
 
 // ------------------------------------------------------------------ workspaces

@@ -73,7 +73,7 @@ export const appRoutes: Routes = [
   },
   {
     path: 'admin/mail',
-    title: 'Development mailbox · Chainwright',
+    title: 'Mail · Chainwright',
     canActivate: [adminGuard],
     loadComponent: () => import('./features/mailbox/mailbox.component'),
   },

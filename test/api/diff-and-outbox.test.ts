@@ -2,7 +2,8 @@
 import { OutboxMessageSchema } from '../../server/mail/outbox.entity';
 import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
 import { fixtureChain } from './support/chain-fixture';
-import { createTestContext, type TestContext } from './support/test-db';
+import { initServices } from '../../server/common/services';
+import { createTestContext, testConfig, type TestContext } from './support/test-db';
 
 let ctx: TestContext;
 let owner: Client;
@@ -83,5 +84,43 @@ describe('mail outbox', () => {
     expect(warn).toHaveBeenCalledTimes(1);
     transport.mockRestore();
     warn.mockRestore();
+  });
+
+  it('should send a due message once when two processes retry it at the same moment', async () => {
+    const em = ctx.services.orm.em.fork();
+    const row = em.create(OutboxMessageSchema, {
+      recipient: 'twice@diff.test',
+      subject: 'Only once',
+      text: 'one copy',
+      html: null,
+      state: 'failed',
+      attempts: 1,
+      nextAttemptAt: new Date(Date.now() - 1000),
+    });
+    await em.flush();
+    // The second "process": its own services, outbox and connections on the same schema.
+    const other = await initServices(testConfig(ctx.schema));
+    const delivered: string[] = [];
+    const count = (mail: { to?: unknown }) => {
+      delivered.push(String(mail.to));
+      return Promise.resolve({}) as never;
+    };
+    const a = jest.spyOn(ctx.services.mailer, 'sendMail').mockImplementation(count);
+    const b = jest.spyOn(other.mailer, 'sendMail').mockImplementation(count);
+    try {
+      const sent = await Promise.all([
+        ctx.services.mail.retryDue(ctx.services.em),
+        other.mail.retryDue(other.em),
+        ctx.services.mail.retryDue(ctx.services.em),
+      ]);
+      expect(sent.reduce((x, y) => x + y, 0)).toBe(1);
+      expect(delivered.filter((to) => to === 'twice@diff.test')).toHaveLength(1);
+      const after = await em.fork().findOneOrFail(OutboxMessageSchema, row.id);
+      expect(after).toMatchObject({ state: 'sent', attempts: 2 });
+    } finally {
+      a.mockRestore();
+      b.mockRestore();
+      await other.close();
+    }
   });
 });

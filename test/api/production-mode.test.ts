@@ -8,7 +8,7 @@ import path from 'node:path';
 import request from 'supertest';
 import { createApp } from '../../server/app';
 import { ConfigError, configFromEnv, REPO_ROOT } from '../../server/config';
-import { initServices, type Services } from '../../server/common/services';
+import { initServices, mailTransport, type Services } from '../../server/common/services';
 import { createUser, PASSWORD } from './support/agents';
 import { createTestContext, testConfig, type TestContext } from './support/test-db';
 
@@ -67,6 +67,36 @@ describe('production settings', () => {
         CW_COOKIE_SECURE: '0',
       }),
     ).toThrow(/CW_COOKIE_SECURE=0/);
+  });
+
+  it('should send through the relay SMTP_URL names, in production and in demo mode', () => {
+    const prod = {
+      ...base,
+      NODE_ENV: 'production',
+      CW_SESSION_SECRET: GOOD_SECRET,
+      CW_TRUST_PROXY: 'loopback',
+    };
+    const url = 'smtp://mailer:pw@relay.example.org:587';
+    expect(configFromEnv({ ...prod, SMTP_URL: url }).mail).toEqual({ kind: 'relay', url });
+    expect(configFromEnv({ ...prod, CW_SMTP_HOST: 'relay.example.org' }).mail).toEqual({
+      kind: 'relay',
+      url: 'smtp://relay.example.org:25',
+    });
+    // Named explicitly, a relay wins over the demo catcher.
+    expect(configFromEnv({ ...base, SMTP_URL: url, CW_SMTP_PORT: '2530' }).mail).toEqual({
+      kind: 'relay',
+      url,
+    });
+    expect(configFromEnv({ ...base, CW_SMTP_PORT: '2530' }).mail).toMatchObject({
+      kind: 'smtp',
+      port: 2530,
+    });
+    // The relay's transport is a real SMTP one: STARTTLS is not switched off.
+    const relay = mailTransport({ kind: 'relay', url }) as unknown as {
+      options: { host: string; port: number; ignoreTLS?: boolean };
+    };
+    expect(relay.options).toMatchObject({ host: 'relay.example.org', port: 587 });
+    expect(relay.options.ignoreTLS).toBeFalsy();
   });
 
   it('should refuse to start the server process, saying what to set', () => {

@@ -46,10 +46,18 @@ describe('ShellComponent', () => {
 
   describe('account menu', () => {
     it('should offer site administration to an admin only', async () => {
-      await render(me('admin'));
+      await render({ ...me('admin'), mailCatcher: true });
       const items = await menuItems();
       expect(items).toContain('Site administration');
       expect(items).toContain('Development mailbox');
+    });
+
+    it('should offer the development mailbox only while the mail catcher is in use', async () => {
+      await render({ ...me('admin'), mailCatcher: false });
+      const items = await menuItems();
+      expect(items).toContain('Site administration');
+      expect(items).not.toContain('Development mailbox');
+      expect(items).toContain('Outgoing mail');
     });
 
     it('should not offer site administration to other users', async () => {

@@ -36,6 +36,8 @@ export class SessionStore {
   readonly user = computed(() => this.meState()?.user ?? null);
   readonly signedIn = computed(() => this.meState() !== null);
   readonly isAdmin = computed(() => this.meState()?.user.siteRole === 'admin');
+  /** Site admins: whether the local development mail catcher is in use (its mailbox exists). */
+  readonly mailCatcher = computed(() => this.isAdmin() && this.meState()?.mailCatcher === true);
   readonly memberships = computed<MembershipDto[]>(() => this.meState()?.memberships ?? []);
   readonly currentMembership = computed(() => {
     const id = this.workspaceIdState();

@@ -11,10 +11,12 @@ import type {
 import { ColleaguesApi } from '../../core/api/colleagues.api';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { SessionStore } from '../../core/session/session.store';
 
 /**
- * The site admin's development mailbox: what the local mail catcher caught (only while the
- * server uses it), each message readable with its links, and mail still waiting to go.
+ * The site admin's mail page: while the server uses the local mail catcher, the development
+ * mailbox (what it caught, each message readable with its links); always, the mail still
+ * waiting to go, with a retry.
  */
 @Component({
   selector: 'cw-mailbox',
@@ -26,6 +28,7 @@ import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 export default class MailboxComponent {
   private readonly api = inject(ColleaguesApi);
   private readonly sanitizer = inject(DomSanitizer);
+  protected readonly session = inject(SessionStore);
 
   protected readonly messages = signal<CaughtMailSummaryDto[]>([]);
   protected readonly open = signal<CaughtMailDto | null>(null);
@@ -39,6 +42,12 @@ export default class MailboxComponent {
   }
 
   protected async refresh(): Promise<void> {
+    await this.session.ensureLoaded();
+    if (this.session.mailCatcher()) await this.loadCaught();
+    this.outbox.set(await firstValueFrom(this.api.outbox()).catch(() => []));
+  }
+
+  private async loadCaught(): Promise<void> {
     try {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
       this.messages.set(await firstValueFrom(this.api.mailbox(context)));
@@ -46,7 +55,6 @@ export default class MailboxComponent {
     } catch (error) {
       this.unavailable.set(describeHttpError(error));
     }
-    this.outbox.set(await firstValueFrom(this.api.outbox()).catch(() => []));
   }
 
   protected async read(m: CaughtMailSummaryDto): Promise<void> {
