@@ -45,6 +45,10 @@ import { chainSharingRouter, sharedRouter } from './sharing/routes';
 export function createApp(services: Services): Express {
   const { config, em, orm } = services;
   const app = express();
+  // No ETag on sent bodies: API answers are no-store, so a validator is never used, and
+  // hashing every answer (an analysis is hundreds of kilobytes) costs the event loop.
+  // Static files keep theirs (express.static sets its own).
+  app.set('etag', false);
   app.use(requestLogger(services.logger));
   // Behind a proxy, client addresses (for the sign-in limit) and HTTPS come from its headers.
   // Only the proxies configured are trusted (addresses, else a hop count); none by default.

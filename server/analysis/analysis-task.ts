@@ -7,6 +7,7 @@ import type { MeasuredNetwork } from '../../shared/engine/types';
 import type { ChainDocument } from '../../shared/schema/chain';
 import type { SweepTrace } from '../../shared/schema/sweep-columns';
 import type { DesignOp } from '../design/design-ops';
+import type { AnswerEncoding } from './answer-encoding';
 
 export interface AnalysisTask {
   document: ChainDocument;
@@ -33,10 +34,13 @@ export interface AnalysisTask {
   mode?: string;
   /** Analyse every mode; the answer is a `ModesAnalysisDto`. */
   allModes?: boolean;
+  /** `answer`: compress it so (the encoding the client accepts); none sends it as it is. */
+  encoding?: AnswerEncoding;
 }
 
 export type AnalysisOutcome =
-  | { kind: 'answer'; json: string }
+  /** The API's JSON answer as bytes, compressed in `encoding` when that is set. */
+  | { kind: 'answer'; body: Uint8Array; encoding?: AnswerEncoding }
   | { kind: 'flag-count'; count: number }
   | { kind: 'json'; json: string }
   | {

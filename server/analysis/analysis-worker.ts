@@ -1,7 +1,7 @@
 /**
  * The analysis thread (run by the piscina pool in ./analysis-pool.ts): the engine's whole
- * analysis, the sweep put into columns and the answer serialised, and the design assistants,
- * off the event loop.
+ * analysis, the sweep put into columns and the answer serialised and compressed, and the
+ * design assistants, off the event loop.
  */
 import {
   analyseModes,
@@ -14,6 +14,7 @@ import type { ModeAnalysisDto, ModesAnalysisDto } from '../../shared/schema/api'
 import { sweepToColumns, type AnalysisDto } from '../../shared/schema/sweep-columns';
 import { runDesignOp } from '../design/design-ops';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
+import { encodeAnswer } from './answer-encoding';
 
 function refusal(err: unknown): Extract<AnalysisOutcome, { kind: 'refused' }> | null {
   if (err instanceof ChainValidationError) {
@@ -95,7 +96,7 @@ export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
   };
   try {
     if (task.want === 'answer' && task.allModes) {
-      return { kind: 'answer', json: allModes(task, options) };
+      return { kind: 'answer', ...encodeAnswer(allModes(task, options), task.encoding) };
     }
     const result = analyzeChain(task.document, {
       ...options,
@@ -105,7 +106,7 @@ export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
       const count = result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error');
       return { kind: 'flag-count', count: count.length };
     }
-    return { kind: 'answer', json: JSON.stringify(toDto(result, task)) };
+    return { kind: 'answer', ...encodeAnswer(JSON.stringify(toDto(result, task)), task.encoding) };
   } catch (err) {
     const refused = refusal(err);
     if (refused) return refused;

@@ -1,4 +1,4 @@
-import { Router, type Response } from 'express';
+import { Router, type Request, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import { z } from 'zod';
 import { catalogue } from '../../shared/engine';
@@ -14,14 +14,17 @@ import { chainRole, currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { assertWithinBudget, runOnPool } from './analysis-pool';
+import { answerEncoding, sendAnswer } from './answer-encoding';
 
 /**
  * Runs the analysis on the thread pool with the data files the stages refer to (from
- * `workspaceId` only) and sends the answer the thread serialised; the engine's refusal is a
+ * `workspaceId` only) and sends the answer the thread serialised and compressed (in the
+ * encoding the client accepts); the engine's refusal is a
  * 422 `invalid-chain` with its issues as details.
  */
 async function analyze(
   em: EntityManager,
+  req: Request,
   res: Response,
   doc: ChainDocument,
   traces: readonly SweepTrace[],
@@ -41,12 +44,13 @@ async function analyze(
     ...(nodes ? { nodes } : {}),
     plan,
     ...(modes.allModes ? { allModes: true } : modes.mode ? { mode: modes.mode } : {}),
+    encoding: answerEncoding(req),
   });
   if (outcome.kind === 'refused') {
     throw new HttpError(422, 'invalid-chain', outcome.message, outcome.details);
   }
   if (outcome.kind !== 'answer') throw new Error(`analysis thread answered ${outcome.kind}`);
-  res.type('application/json').send(outcome.json);
+  sendAnswer(res, outcome);
 }
 
 /**
@@ -63,7 +67,7 @@ export function analysisRouter(em: EntityManager): Router {
     const body = parseOr422(analysisRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
     const traces = body.sweep ? (body.traces ?? PLOTTED_TRACES) : [];
-    await analyze(em, res, body.document, traces, body.nodes, body.workspaceId, body.plan, {
+    await analyze(em, req, res, body.document, traces, body.nodes, body.workspaceId, body.plan, {
       ...(body.mode ? { mode: body.mode } : {}),
       allModes: body.allModes,
     });
@@ -98,6 +102,7 @@ export function chainAnalysisRouter(em: EntityManager): Router {
     const chain = res.locals.chain!;
     await analyze(
       em,
+      req,
       res,
       chain.document,
       sweep ? traces : [],

@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import path from 'node:path';
-import { gunzipSync } from 'node:zlib';
+import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import request from 'supertest';
 import { analyzeChain } from '../../shared/engine';
 import { chainDocumentSchema, type ChainDocument } from '../../shared/schema/chain';
@@ -56,6 +56,7 @@ afterAll(async () => {
 function rawPost(
   url: string,
   body: unknown,
+  acceptEncoding = 'gzip',
 ): Promise<{ raw: Buffer; headers: http.IncomingHttpHeaders }> {
   const { port } = server.address() as AddressInfo;
   const payload = JSON.stringify(body);
@@ -69,7 +70,7 @@ function rawPost(
         headers: {
           'content-type': 'application/json',
           'content-length': Buffer.byteLength(payload),
-          'accept-encoding': 'gzip',
+          'accept-encoding': acceptEncoding,
           cookie,
           'x-csrf-token': csrf,
         },
@@ -97,6 +98,20 @@ describe('the analysis answer on the wire', () => {
     expect(body.sweep.phaseDeg).toBeUndefined();
     expect(body.sweep.stepUpDb).toHaveLength(body.nodes.length);
     expect(body.sweep.zInRe).toHaveLength(2001);
+  });
+
+  it('should send brotli when the client prefers it, and plain JSON when it accepts no encoding', async () => {
+    const br = await rawPost('/api/analysis', { document: twoMetre }, 'br, gzip');
+    expect(br.headers['content-encoding']).toBe('br');
+    expect(br.headers.vary).toMatch(/Accept-Encoding/i);
+    expect(br.raw.length).toBeLessThanOrEqual(100 * 1024);
+    const fromBr = JSON.parse(brotliDecompressSync(br.raw).toString('utf8'));
+    expect(fromBr.sweep.zInRe).toHaveLength(2001);
+
+    const plain = await rawPost('/api/analysis', { document: twoMetre }, 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    // The same answer whichever way it travelled.
+    expect(JSON.parse(plain.raw.toString('utf8'))).toEqual(fromBr);
   });
 
   it('should carry the engine sweep to the stated significant digits', async () => {
