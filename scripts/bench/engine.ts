@@ -3,7 +3,8 @@
  * the node analysis (time and allocation with a reused workspace), the full analysis
  * (`analyzeChain`: validation, build, f0, sweep, resonators, selectivity, noise, flags, the
  * sweep arrays) and the bare cascade of the same sections, measured in alternation so both
- * see the same load; the ratio of their medians is the figure.
+ * see the same load; the ratio of their medians is the figure. The sweep's traces are computed
+ * when read (core/sweep-report.ts), so a further row times the analysis with every trace read.
  */
 import {
   analyzeChain,
@@ -12,6 +13,7 @@ import {
   frequencyGrid,
   runNodeAnalysis,
   STAGE_DEFINITIONS,
+  type AnalysisResult,
 } from '../../shared/engine';
 import { bareCascade } from './bare-cascade';
 import { benchChain } from './bench-chain';
@@ -65,6 +67,10 @@ export const engineSection: BenchSection = {
       '≤ 3×',
       verdict(f / b <= 3),
     );
+    const everyTrace = () => readEveryTrace(full());
+    const readMs: number[] = [];
+    for (let i = 0; i < (ctx.quick ? 15 : 60); i++) readMs.push(timeMs(everyTrace));
+    ctx.row(`full analysis with every sweep trace read, ${POINTS} points`, ms(median(readMs)));
     const fullAlloc = allocatedBytes(full, ctx.quick ? 5 : 15);
     ctx.row(
       'allocated per full analysis: JS heap + buffers',
@@ -72,3 +78,11 @@ export const engineSection: BenchSection = {
     );
   },
 };
+
+/** Reads every trace of the result's sweep (each is computed on first read). */
+function readEveryTrace(result: AnalysisResult): number {
+  const sweep = result.sweep!;
+  let n = sweep.freqsHz.length + sweep.zIn.re.length + sweep.returnLossDb.length;
+  for (const node of sweep.nodes) n += node.stepUpDb.length + node.phaseDeg.length;
+  return n;
+}

@@ -25,6 +25,7 @@ import {
   stepUp,
   vMag,
 } from './quantities';
+import { lazySweepReport } from './sweep-report';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, SQRT2, atan2, log10, pow } = Math;
@@ -191,33 +192,11 @@ export function levelsReport(
   };
 }
 
-/** The sweep as plain arrays for plotting: step-up and phase per user node, input Zin and RL. */
+/**
+ * The sweep as plain arrays for plotting: step-up and phase per user node, input Zin and RL
+ * (against the reference chosen for the chain input, else against the source's own
+ * impedance). The traces are computed when first read (sweep-report.ts).
+ */
 export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
-  const P = na.points;
-  const nodes = Array.from(built.userNodeFlat, (flat, index) => {
-    const stepUpDb: number[] = new Array(P);
-    const phase: number[] = new Array(P);
-    for (let i = 0; i < P; i++) {
-      const k = flat * P + i;
-      stepUpDb[i] = db20(stepUp(na, flat, i));
-      phase[i] = (atan2(na.vIm[k], na.vRe[k]) * 180) / PI;
-    }
-    return { index, stepUpDb, phaseDeg: phase };
-  });
-  // Against the reference chosen for the chain input, else against the source's own
-  // impedance (the conjugate match the source really wants).
-  const ref = nodeReference(built, 0);
-  const rl: number[] = new Array(P);
-  for (let i = 0; i < P; i++) {
-    rl[i] =
-      ref === null
-        ? 0 - db20(reflectionMag(na, 0, i))
-        : againstReference(na.zinRe[i], na.zinIm[i], ref).returnLossDb;
-  }
-  return {
-    freqsHz: Array.from(na.freqs),
-    nodes,
-    zIn: { re: Array.from(na.zinRe.subarray(0, P)), im: Array.from(na.zinIm.subarray(0, P)) },
-    returnLossDb: rl,
-  };
+  return lazySweepReport(built, na, nodeReference(built, 0));
 }

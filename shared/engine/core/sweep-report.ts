@@ -1,0 +1,112 @@
+/**
+ * The sweep as plain arrays for plotting: step-up and phase per user node, the input
+ * impedance and the return loss.
+ *
+ * The traces are computed when first read, not when the analysis runs: a logarithm, an
+ * arctangent and a magnitude per node and point cost more than the whole node analysis, and
+ * most readers take only some traces (the API sends the plotted ones, the phase rarely).
+ * What they are computed from is copied out of the node analysis at once (its workspace is
+ * reused by the next analysis), so a trace read later is the one of this analysis. A trace
+ * is an ordinary enumerable property of a plain object: JSON, structured clone (worker
+ * messages), spreading and deep equality all read it, and once read, or assigned, it is a
+ * plain data property.
+ */
+import type { SweepReport } from '../types';
+import type { BuiltChain } from './build';
+import type { NodeAnalysis } from './nodes';
+
+// Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
+const { PI, abs, atan2, hypot, log10 } = Math;
+const isFiniteNumber = Number.isFinite;
+
+const db20 = (r: number) => 20 * log10(r);
+
+/** Defines `obj[key]` as computed by `compute` on first read (then a plain data property). */
+function lazy<T extends object>(obj: T, key: string, compute: () => unknown): void {
+  const settle = (value: unknown) => {
+    Object.defineProperty(obj, key, { value, writable: true, enumerable: true, configurable: true }); // prettier-ignore
+    return value;
+  };
+  Object.defineProperty(obj, key, {
+    enumerable: true,
+    configurable: true,
+    get: () => settle(compute()),
+    set: settle,
+  });
+}
+
+/**
+ * Return loss against a real reference resistance, dB (the reports' own formula):
+ * |Γ| = |Z − R|/|Z + R|, an open input reflecting totally.
+ */
+function returnLossAgainst(zr: number, zi: number, ref: number): number {
+  const g = isFiniteNumber(zr) && isFiniteNumber(zi) ? hypot(zr - ref, zi) / hypot(zr + ref, zi) : 1; // prettier-ignore
+  return 0 - db20(g);
+}
+
+/** Return loss against the source's own impedance (conjugate match), dB. */
+function returnLossConjugate(zr: number, zi: number, sr: number, si: number): number {
+  const open = !isFiniteNumber(zr) || !isFiniteNumber(zi) || !isFiniteNumber(sr) || !isFiniteNumber(si); // prettier-ignore
+  return 0 - db20(open ? 1 : hypot(zr - sr, zi + si) / hypot(zr + sr, zi + si));
+}
+
+/**
+ * The sweep report of a node analysis over the sweep grid.
+ * @param reference the reference resistance chosen for the chain input, Ω; null to judge the
+ *   return loss against the source's own impedance (the conjugate match it really wants)
+ */
+export function lazySweepReport(
+  built: BuiltChain,
+  na: NodeAnalysis,
+  reference: number | null,
+): SweepReport {
+  const P = na.points;
+  const flats = built.userNodeFlat;
+  // The copy: per user node the voltage (re, im), then the EMF, then Zin and Zsrc at node 0.
+  const U = flats.length;
+  const v = new Float64Array(2 * U * P);
+  for (let n = 0; n < U; n++) {
+    const k = flats[n] * P;
+    v.set(na.vRe.subarray(k, k + P), 2 * n * P);
+    v.set(na.vIm.subarray(k, k + P), (2 * n + 1) * P);
+  }
+  const emf = na.emf.slice(0, P);
+  const freqs = na.freqs.slice(0, P);
+  const zinRe = na.zinRe.slice(0, P);
+  const zinIm = na.zinIm.slice(0, P);
+  const zsrcRe = na.zsrcRe.slice(0, P);
+  const zsrcIm = na.zsrcIm.slice(0, P);
+
+  const nodes = Array.from(flats, (_, index) => {
+    const re = 2 * index * P;
+    const im = re + P;
+    const node = { index } as SweepReport['nodes'][number];
+    lazy(node, 'stepUpDb', () => {
+      const out = new Array<number>(P);
+      for (let i = 0; i < P; i++) out[i] = db20(hypot(v[re + i], v[im + i]) / abs(emf[i]));
+      return out;
+    });
+    lazy(node, 'phaseDeg', () => {
+      const out = new Array<number>(P);
+      for (let i = 0; i < P; i++) out[i] = (atan2(v[im + i], v[re + i]) * 180) / PI;
+      return out;
+    });
+    return node;
+  });
+  // Keys in the order readers have always seen: freqsHz, nodes, zIn, returnLossDb.
+  const report = {} as SweepReport;
+  lazy(report, 'freqsHz', () => Array.from(freqs));
+  report.nodes = nodes;
+  lazy(report, 'zIn', () => ({ re: Array.from(zinRe), im: Array.from(zinIm) }));
+  lazy(report, 'returnLossDb', () => {
+    const out = new Array<number>(P);
+    for (let i = 0; i < P; i++) {
+      out[i] =
+        reference === null
+          ? returnLossConjugate(zinRe[i], zinIm[i], zsrcRe[i], zsrcIm[i])
+          : returnLossAgainst(zinRe[i], zinIm[i], reference);
+    }
+    return out;
+  });
+  return report;
+}

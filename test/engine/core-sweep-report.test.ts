@@ -1,0 +1,87 @@
+/**
+ * The sweep report computes its traces when they are read: what they hold must be what the
+ * node analysis gave (the closed formulas at each point), stay this analysis's after the
+ * next analysis reuses the workspace, and be seen by every reader (JSON, structured clone,
+ * spreading) as ordinary data.
+ */
+import { analyzeChain } from '../../shared/engine';
+import { chain, TEST_CATALOGUE } from './core-fixtures';
+
+const opts = { catalogue: TEST_CATALOGUE, sweep: true };
+
+/** A source into a series R–L–C into a load: the step-up and phase have closed forms. */
+function seriesRlc(rLoad: number, referenceOhm?: number) {
+  return chain(
+    [
+      { type: 't-source', label: 'Source', values: { rs: 50, emf: 1 } },
+      { type: 't-series', label: 'Series RLC', values: { r: 5, l: 10e-6, c: 100e-12 } },
+      { type: 't-load', label: 'Load', values: { r: rLoad } },
+    ],
+    {
+      f0Hz: 5e6,
+      sweep: { startHz: 3e6, stopHz: 8e6, points: 101, scale: 'lin' },
+      ...(referenceOhm === undefined ? {} : { referenceOhm }),
+    },
+  );
+}
+
+/** The series branch's impedance at f. */
+const branch = (f: number) => {
+  const w = 2 * Math.PI * f;
+  return { re: 5, im: w * 10e-6 - 1 / (w * 100e-12) };
+};
+
+describe('the sweep report', () => {
+  it('holds the closed-form step-up, phase, input impedance and return loss', () => {
+    const sweep = analyzeChain(seriesRlc(200, 50), opts).sweep!;
+    expect(sweep.freqsHz).toHaveLength(101);
+    const load = sweep.nodes[1];
+    for (const i of [0, 37, 100]) {
+      const f = sweep.freqsHz[i];
+      const z = branch(f);
+      // V(load) = E·RL/(Rs + Z + RL)
+      const dr = 50 + z.re + 200;
+      const di = z.im;
+      const vr = (200 * dr) / (dr * dr + di * di);
+      const vi = (-200 * di) / (dr * dr + di * di);
+      expect(load.stepUpDb[i]).toBeCloseTo(20 * Math.log10(Math.hypot(vr, vi)), 10);
+      expect(load.phaseDeg[i]).toBeCloseTo((Math.atan2(vi, vr) * 180) / Math.PI, 8);
+      expect(sweep.zIn.re[i]).toBeCloseTo(z.re + 200, 8);
+      expect(sweep.zIn.im[i]).toBeCloseTo(z.im, 8);
+      const g = Math.hypot(z.re + 200 - 50, z.im) / Math.hypot(z.re + 200 + 50, z.im);
+      expect(sweep.returnLossDb[i]).toBeCloseTo(-20 * Math.log10(g), 10);
+    }
+  });
+
+  it('judges the return loss against the source impedance when no reference is chosen', () => {
+    const sweep = analyzeChain(seriesRlc(200), opts).sweep!;
+    const f = sweep.freqsHz[10];
+    const z = branch(f);
+    const g = Math.hypot(z.re + 200 - 50, z.im) / Math.hypot(z.re + 200 + 50, z.im);
+    expect(sweep.returnLossDb[10]).toBeCloseTo(-20 * Math.log10(g), 10);
+  });
+
+  it('keeps its own traces when a later analysis reuses the workspace', () => {
+    const first = analyzeChain(seriesRlc(200, 50), opts);
+    const expected = analyzeChain(seriesRlc(200, 50), opts).sweep!.nodes[1].stepUpDb;
+    const later = analyzeChain(seriesRlc(10, 50), opts); // read before the first is read
+    expect(later.sweep!.nodes[1].stepUpDb[50]).not.toBeCloseTo(expected[50], 3);
+    expect(first.sweep!.nodes[1].stepUpDb).toEqual(expected);
+    expect(first.sweep!.zIn.re[50]).toBeCloseTo(branch(first.sweep!.freqsHz[50]).re + 200, 8);
+  });
+
+  it('reads as plain data through JSON, structured clone and spreading', () => {
+    const sweep = analyzeChain(seriesRlc(200, 50), opts).sweep!;
+    const json = JSON.parse(JSON.stringify(sweep));
+    expect(Object.keys(json)).toEqual(['freqsHz', 'nodes', 'zIn', 'returnLossDb']);
+    expect(Object.keys(json.nodes[0])).toEqual(['index', 'stepUpDb', 'phaseDeg']);
+    expect(json.nodes[0].phaseDeg).toHaveLength(101);
+    const cloned = structuredClone(sweep);
+    expect(cloned.nodes[1].stepUpDb).toEqual(sweep.nodes[1].stepUpDb);
+    expect({ ...sweep.nodes[0] }.phaseDeg).toEqual(sweep.nodes[0].phaseDeg);
+    // Once read it is a data property, and it can be replaced like one.
+    expect(Object.getOwnPropertyDescriptor(sweep.nodes[1], 'stepUpDb')).toHaveProperty('value');
+    sweep.nodes[0].phaseDeg = [1, 2];
+    expect(sweep.nodes[0].phaseDeg).toEqual([1, 2]);
+  });
+});
