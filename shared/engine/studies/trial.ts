@@ -35,6 +35,7 @@ import { frequencyGrid } from '../core/sweep';
 import { chainTopology } from '../core/topology';
 import { defaultCatalogue } from '../default-catalogue';
 import type { MeasuredNetwork, ResonatorDecl } from '../types';
+import { createJudgedSweep, judgedSelectivity, type JudgedSweep } from './judged-sweep';
 
 const finiteOrNull = (v: number | null | undefined): number | null =>
   v === null || v === undefined || !Number.isFinite(v) ? null : v;
@@ -192,8 +193,11 @@ function followed(
 }
 
 /** Every resonator of the tracker followed in a built chain (load level settled). */
-export function followResonators(built: BuiltChain, tracker: TrialTracker): FollowedResonator[] {
-  const probe = createProbe(built);
+export function followResonators(
+  built: BuiltChain,
+  tracker: TrialTracker,
+  probe: Probe = createProbe(built),
+): FollowedResonator[] {
   const topo = chainTopology(built);
   return tracker.follow.map((f) => followed(built, probe, topo, f));
 }
@@ -219,22 +223,41 @@ export interface JudgedFigures {
   noiseFigureDb: number | null;
 }
 
+/** Gain and noise figure of the whole chain at f0. */
+function levelFigures(built: BuiltChain): Pick<JudgedFigures, 'gainDb' | 'noiseFigureDb'> {
+  const f0Na = runNodeAnalysis(built, [built.settings.f0Hz], sharedWorkspace('trial-f0', built, 1)); // prettier-ignore
+  const stages = stageReports(built, f0Na);
+  const last = stages[stages.length - 1];
+  return {
+    gainDb: last ? finiteOrNull(last.cumulativeGainDb) : 0,
+    noiseFigureDb: finiteOrNull(chainNoiseFigureDb(built, f0Na, stages)),
+  };
+}
+
 /** Peak, −3 dB width and image rejection at user node `node`, gain and noise figure. */
 export function judgedFigures(built: BuiltChain, node: number): JudgedFigures {
-  const f0Na = runNodeAnalysis(built, [built.settings.f0Hz], sharedWorkspace('trial-f0', built, 1)); // prettier-ignore
   const grid = frequencyGrid(built.settings.sweep);
   const sweepNa = runNodeAnalysis(built, grid, sharedWorkspace('trial', built, grid.length));
   const image = imageFrequency(built, findMixer(built));
   const sel = analyzeSelectivity(built, sweepNa, image, node)[0];
-  const stages = stageReports(built, f0Na);
-  const last = stages[stages.length - 1];
   return {
     peakHz: finiteOrNull(sel?.peakHz),
     bw3dbHz: finiteOrNull(sel?.bw3dbHz),
     imageRejectionDb: finiteOrNull(sel?.imageRejectionDb),
-    gainDb: last ? finiteOrNull(last.cumulativeGainDb) : 0,
-    noiseFigureDb: finiteOrNull(chainNoiseFigureDb(built, f0Na, stages)),
+    ...levelFigures(built),
   };
+}
+
+/** The judged-node sweep of each nominal chain trials are built like (made at the first trial). */
+const judgedSweeps = new WeakMap<BuiltChain, JudgedSweep>();
+
+function judgedSweepOf(nominal: BuiltChain): JudgedSweep {
+  let sweep = judgedSweeps.get(nominal);
+  if (!sweep) {
+    sweep = createJudgedSweep(nominal, frequencyGrid(nominal.settings.sweep));
+    judgedSweeps.set(nominal, sweep);
+  }
+  return sweep;
 }
 
 /**
@@ -250,11 +273,20 @@ export function trialMetrics(
 ): (number | null)[] {
   const like = tracker.nominal;
   const built = settleLoadLevel(buildChain(doc, defaultCatalogue(), { dataFiles, like }));
+  const probe = createProbe(built);
   const row: (number | null)[] = [];
-  for (const r of followResonators(built, tracker)) {
+  for (const r of followResonators(built, tracker, probe)) {
     row.push(r.resonanceHz, r.loadedQ, r.loadingRatio);
   }
-  const j = judgedFigures(built, tracker.node);
+  // The drawn chain shares the nominal's settings object when its settings are the same.
+  const image = imageFrequency(built, findMixer(built));
+  const j =
+    built.settings === like.settings
+      ? {
+          ...judgedSelectivity(built, judgedSweepOf(like), probe, tracker.node, image),
+          ...levelFigures(built),
+        }
+      : judgedFigures(built, tracker.node);
   row.push(j.peakHz, j.bw3dbHz, j.gainDb, j.noiseFigureDb, j.imageRejectionDb);
   return row;
 }

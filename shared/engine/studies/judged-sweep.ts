@@ -1,0 +1,205 @@
+/**
+ * The response at a study's judged node over the sweep, for many chains that differ from one
+ * nominal chain only in some stage values (a Monte Carlo run's drawn chains).
+ *
+ * A trial needs the sweep for one thing: the step-up |V[node]|/|Es| at the judged node, which
+ * brackets the peak and the −3 dB edges. So this runs only what that needs: the backward pass
+ * (load → source) and the voltage from the source up to the node, with the node analysis's own
+ * steps in the same order (core/nodes.ts), so the figures are the ones a full sweep gives. The
+ * impedance toward the source at each node (the forward pass), and voltages past the node, are
+ * not worked out.
+ *
+ * A section whose stage was not drawn is the nominal's own object (buildChain with `like`
+ * takes its model over), and its matrices over the grid are the same in every trial: they are
+ * filled once, for the nominal, and read from then on. Only the drawn stages' sections are
+ * filled per trial. A section behind a drawn frequency-changing section sees other
+ * frequencies, so from there on nothing is read from the nominal.
+ */
+import type { BuiltChain } from '../core/build';
+import { backStep, MIN_NODE_HZ, sourceStep, voltageStep } from '../core/nodes';
+import type { Probe } from '../core/probe';
+import { gridMax, locateEdge, locatePeak, toDb } from '../core/response-shape';
+import type { ComplexFn, Section } from '../types';
+
+const { hypot, abs, log10, max } = Math;
+
+/** The step-up in dB at one node over a fixed grid, for chains like one nominal chain. */
+export interface JudgedSweep {
+  /** Input frequencies of the grid, Hz. */
+  readonly freqs: Float64Array;
+  /**
+   * 20·log10(|V[flat]|/|Es|) at every grid point of `built` (a chain built like the nominal,
+   * its load level settled), into `db`. The array is the sweep's own, valid until the next call.
+   */
+  stepUpDb(built: BuiltChain, flat: number): Float64Array;
+}
+
+/** The stage model's own section behind flat section j (stable while the model is reused). */
+function modelSection(built: BuiltChain, j: number): Section {
+  const stage = built.twoPorts[built.sectionStage[j]];
+  return stage.model.sections[j - stage.firstSection];
+}
+
+function fillComplex(fn: ComplexFn, f: Float64Array, fo: number, n: number, out: Float64Array) {
+  if (fn.fill) fn.fill(f, fo, n, out, 0, 2);
+  else for (let k = 0; k < n; k++) fn(f[fo + k], out, 2 * k);
+}
+
+/**
+ * The judged-node sweep of chains like `nominal` (as built; its load level need not be settled)
+ * over `freqs`.
+ */
+export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>): JudgedSweep {
+  const P = freqs.length;
+  const grid = Float64Array.from(freqs);
+  let N = -1;
+  let fNodeAll = new Float64Array(0);
+  let zinReAll = fNodeAll;
+  let zinImAll = fNodeAll;
+  let vReAll = fNodeAll;
+  let vImAll = fNodeAll;
+  let scratch: Float64Array[] = [];
+  const mats: Float64Array[] = [];
+  const zsRe = new Float64Array(P);
+  const zsIm = new Float64Array(P);
+  const emf = new Float64Array(P);
+  const pair = new Float64Array(2 * P);
+  const db = new Float64Array(P);
+
+  function shape(n: number): void {
+    if (n === N) return;
+    N = n;
+    fNodeAll = new Float64Array((N + 1) * P);
+    zinReAll = new Float64Array((N + 1) * P);
+    zinImAll = new Float64Array((N + 1) * P);
+    vReAll = new Float64Array((N + 1) * P);
+    vImAll = new Float64Array((N + 1) * P);
+    scratch = Array.from({ length: N }, () => new Float64Array(8 * P));
+  }
+
+  /** Fills sections 0 … N−1 into `mats`; a nominal section's matrices come from `fixed`. */
+  function fillSections(built: BuiltChain, fixed: Map<Section, Float64Array> | null): void {
+    const fNode = fNodeAll;
+    fNode.set(grid, 0);
+    let sameFrequencies = true;
+    for (let j = 0; j < N; j++) {
+      const s = built.sections[j];
+      const own = fixed && sameFrequencies ? fixed.get(modelSection(built, j)) : undefined;
+      if (own) mats[j] = own;
+      else {
+        s.fill(fNode, j * P, P, scratch[j], 0);
+        mats[j] = scratch[j];
+      }
+      const at = j * P;
+      const tr = s.translate;
+      if (tr) {
+        if (!own) sameFrequencies = false;
+        for (let k = 0; k < P; k++) fNode[at + P + k] = max(tr(fNode[at + k]), MIN_NODE_HZ);
+      } else fNode.copyWithin(at + P, at, at + P);
+    }
+  }
+
+  // The nominal's matrices over the grid, kept for every later chain.
+  shape(nominal.sections.length);
+  fillSections(nominal, null);
+  const fixed = new Map<Section, Float64Array>();
+  for (let j = 0; j < N; j++) fixed.set(modelSection(nominal, j), Float64Array.from(mats[j]));
+  const nominalSource = nominal.source.model;
+  fillComplex(nominalSource.impedance, grid, 0, P, pair);
+  const fixedZs = Float64Array.from(pair);
+  const fixedEmf = Float64Array.from(grid, (f) => nominalSource.emf(f));
+
+  function stepUpDb(built: BuiltChain, flat: number): Float64Array {
+    shape(built.sections.length);
+    fillSections(built, fixed);
+    // Locals, not the closure's reassignable bindings, in the loops below.
+    const zinRe = zinReAll;
+    const zinIm = zinImAll;
+    const vRe = vReAll;
+    const vIm = vImAll;
+    const fNode = fNodeAll;
+    // Backward pass, load → source.
+    fillComplex(built.load.model.impedance, fNode, N * P, P, pair);
+    for (let k = 0; k < P; k++) {
+      zinRe[N * P + k] = pair[2 * k];
+      zinIm[N * P + k] = pair[2 * k + 1];
+    }
+    for (let j = N - 1; j >= 0; j--) {
+      const m = mats[j];
+      const out = j * P;
+      for (let k = 0; k < P; k++) backStep(m, 8 * k, zinRe, zinIm, out + P + k, out + k);
+    }
+    // The voltage at the source terminal, then section by section up to the node.
+    const source = built.source.model;
+    const zs = source === nominalSource ? fixedZs : pair;
+    if (source === nominalSource) emf.set(fixedEmf);
+    else {
+      for (let k = 0; k < P; k++) emf[k] = source.emf(grid[k]);
+      fillComplex(source.impedance, grid, 0, P, pair);
+    }
+    for (let k = 0; k < P; k++) {
+      zsRe[k] = zs[2 * k];
+      zsIm[k] = zs[2 * k + 1];
+      sourceStep(emf, zsRe, zsIm, zinRe, zinIm, vRe, vIm, k, k);
+    }
+    for (let j = 0; j < flat; j++) {
+      const m = mats[j];
+      const at = j * P;
+      for (let k = 0; k < P; k++) voltageStep(m, 8 * k, zinRe, zinIm, vRe, vIm, at + k, at + P + k);
+    }
+    const base = flat * P;
+    for (let k = 0; k < P; k++) {
+      db[k] = 20 * log10(hypot(vRe[base + k], vIm[base + k]) / abs(emf[k]));
+    }
+    return db;
+  }
+
+  return { freqs: grid, stepUpDb };
+}
+
+/** The −3 dB points are the half-power points (as core/selectivity.ts reads them). */
+const HALF_POWER_DB = 10 * log10(2);
+
+/** What a study reads at its judged node: peak, −3 dB width, image rejection. */
+export interface JudgedSelectivity {
+  peakHz: number | null;
+  bw3dbHz: number | null;
+  imageRejectionDb: number | null;
+}
+
+const finiteOrNull = (v: number | null): number | null =>
+  v === null || !Number.isFinite(v) ? null : v;
+
+/**
+ * The judged node's selectivity figures as core/selectivity.ts states them for one node (peak
+ * and −3 dB edges bracketed on the sweep and located at single frequencies, the image
+ * rejection from single frequencies), from the judged-node sweep.
+ */
+export function judgedSelectivity(
+  built: BuiltChain,
+  sweep: JudgedSweep,
+  probe: Probe,
+  node: number,
+  imageHz: number | null,
+): JudgedSelectivity {
+  const flat = built.userNodeFlat[node];
+  const f = sweep.freqs;
+  const db = sweep.stepUpDb(built, flat);
+  const k = gridMax(db);
+  const peak = k >= 0 ? locatePeak(probe, flat, f, db, k) : null;
+  let bw3: number | null = null;
+  if (peak && f.length > 2) {
+    const lo = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, -1);
+    const hi = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, 1);
+    bw3 = lo && hi ? hi.fHz - lo.fHz : null;
+  }
+  const image =
+    imageHz === null
+      ? null
+      : toDb(probe.at(built.settings.f0Hz, flat, true)) - toDb(probe.at(imageHz, flat, true));
+  return {
+    peakHz: peak ? finiteOrNull(peak.fHz) : null,
+    bw3dbHz: finiteOrNull(bw3),
+    imageRejectionDb: finiteOrNull(image),
+  };
+}
