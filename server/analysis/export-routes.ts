@@ -1,6 +1,11 @@
 import { Router, type Response } from 'express';
 import type { EntityManager } from '@mikro-orm/postgresql';
-import { exportQuerySchema, exportRequestSchema, type ExportFormat } from '../../shared/schema/api';
+import {
+  exportQuerySchema,
+  exportRequestSchema,
+  type ExportFormat,
+  type TouchstoneVersion,
+} from '../../shared/schema/api';
 import type { ChainDocument, Mode } from '../../shared/schema/chain';
 import { chainInMode } from '../../shared/engine';
 import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
@@ -25,6 +30,16 @@ interface ExportFile {
   extension: string;
   /** The reference impedance the file's figures are given against, for its name. */
   referenceOhm?: number;
+  /** What the name says the file holds beyond its kind ('v2' for a Touchstone 2.0 file). */
+  content?: string;
+}
+
+/** What an export is asked for beyond the document and its format. */
+export interface ExportOptions {
+  z0?: number;
+  workspaceId?: string;
+  modeId?: string;
+  version?: TouchstoneVersion;
 }
 
 /**
@@ -59,14 +74,22 @@ function modeLine(comment: '*' | '!', mode: Mode): string {
   return `${comment} Mode "${mode.name.replace(/[\r\n]+/g, ' ')}" (${mode.kind}, id ${mode.id})`;
 }
 
+/** A 2.0 file must open with its `[Version]` line: the mode's comment goes after it. */
+function withModeLine(touchstone: string, line: string): string {
+  const [first, ...rest] = touchstone.split('\n');
+  return first.startsWith('[Version]')
+    ? [first, line, ...rest].join('\n')
+    : `${line}\n${touchstone}`;
+}
+
 async function exportFile(
   em: EntityManager,
   doc: ChainDocument,
   format: ExportFormat,
-  z0: number | undefined,
-  workspaceId: string | undefined,
+  options: ExportOptions,
   mode: Mode | undefined,
 ): Promise<ExportFile> {
+  const { z0, workspaceId, version } = options;
   const dataFiles = format === 'json' && !mode ? undefined : await loadDataFiles(em, doc, workspaceId); // prettier-ignore
   const withFiles = dataFiles ? { dataFiles } : {};
   try {
@@ -93,12 +116,14 @@ async function exportFile(
         extension: 'cir',
       };
     }
-    const touchstone = chainToTouchstone(flat, { z0: z0 ?? 50, ...withFiles });
+    const touchstone = chainToTouchstone(flat, { z0: z0 ?? 50, version, ...withFiles });
+    const text = mode ? withModeLine(touchstone, modeLine('!', mode)) : touchstone;
     return {
-      text: mode ? `${modeLine('!', mode)}\n${touchstone}` : touchstone,
+      text,
       contentType: 'text/plain; charset=utf-8',
       extension: 's2p',
       referenceOhm: z0 ?? 50,
+      ...(version === '2.0' ? { content: 'v2' } : {}),
     };
   } catch (err) {
     if (err instanceof SpiceExportError || err instanceof TouchstoneExportError) {
@@ -113,17 +138,16 @@ export async function sendExport(
   res: Response,
   doc: ChainDocument,
   format: ExportFormat,
-  z0: number | undefined,
-  workspaceId: string | undefined,
-  modeId?: string,
+  options: ExportOptions,
 ): Promise<void> {
-  const mode = modeOfExport(doc, format, modeId);
-  const file = await exportFile(em, doc, format, z0, workspaceId, mode);
+  const mode = modeOfExport(doc, format, options.modeId);
+  const file = await exportFile(em, doc, format, options, mode);
   // A mode's file carries its id: "transceiver_transmit_50ohm.s2p" beside "…_receive_…".
   const name = exportFileName({
     chainName: doc.name,
     mode: mode?.id ?? null,
     referenceOhm: file.referenceOhm,
+    content: file.content,
     extension: file.extension,
   });
   res
@@ -141,7 +165,12 @@ export function exportRouter(em: EntityManager): Router {
   router.post('/export', requireUser, async (req, res) => {
     const body = parseOr422(exportRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
-    await sendExport(em, res, body.document, body.format, body.z0, body.workspaceId, body.mode);
+    await sendExport(em, res, body.document, body.format, {
+      z0: body.z0,
+      workspaceId: body.workspaceId,
+      modeId: body.mode,
+      version: body.version,
+    });
   });
   return router;
 }
@@ -152,7 +181,12 @@ export function chainExportRouter(em: EntityManager): Router {
   router.get('/:id/export', chainRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(exportQuerySchema, req.query, 'query');
     const chain = res.locals.chain!;
-    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id, query.mode); // prettier-ignore
+    await sendExport(em, res, chain.document, query.format, {
+      z0: query.z0,
+      workspaceId: chain.workspace.id,
+      modeId: query.mode,
+      version: query.version,
+    });
   });
   return router;
 }

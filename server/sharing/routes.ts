@@ -204,7 +204,12 @@ export function sharedRouter(services: Services): Router {
   router.get('/:token/export', async (req, res) => {
     const chain = (await linkOf(req)).chain;
     const query = parseOr422(exportQuerySchema, req.query, 'query');
-    await sendExport(em, res, chain.document, query.format, query.z0, chain.workspace.id, query.mode); // prettier-ignore
+    await sendExport(em, res, chain.document, query.format, {
+      z0: query.z0,
+      workspaceId: chain.workspace.id,
+      modeId: query.mode,
+      version: query.version,
+    });
   });
 
   return router;

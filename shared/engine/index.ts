@@ -44,7 +44,11 @@ export {
   thermalNoiseW,
 } from './core/noise';
 export { cascadeIip3, cascadeInputPoint, cascadeP1db } from './core/linearity';
-export { correlationNoiseFigureDb, passiveCorrelation } from './core/noise-correlation';
+export {
+  cascadeNoiseParameters,
+  correlationNoiseFigureDb,
+  passiveCorrelation,
+} from './core/noise-correlation';
 export { analyzeResonators, searchRange } from './core/resonators';
 export { analyzeSelectivity, findMixer, imageFrequency, type MixerInfo } from './core/selectivity';
 export { raiseFlags, CAUTION_TEXT } from './core/flags';

@@ -6,6 +6,7 @@
 import { buildChain, stageName, type ChainLike } from '../engine/core/build';
 import { frequencyGrid, type SweepSpec } from '../engine/core/sweep';
 import { cascade, identityAbcd } from '../engine/core/abcd';
+import { cascadeNoiseParameters } from '../engine/core/noise-correlation';
 import { defaultCatalogue } from '../engine/default-catalogue';
 import type { MeasuredNetwork, StageDefinition } from '../engine/types';
 import type { NetworkData } from './network-data';
@@ -37,6 +38,11 @@ export interface ChainTouchstoneOptions {
   catalogue?: readonly StageDefinition[];
   /** Parsed measured data files by `dataFileId` (see `BuildOptions.dataFiles`). */
   dataFiles?: Readonly<Record<string, MeasuredNetwork>>;
+  /**
+   * Specification version (default '1.1'). A 2.0 file states `[Reference]` for each port and,
+   * when the cascade has noise parameters, `[Noise Data]` at the chain's centre frequency.
+   */
+  version?: '1.1' | '2.0';
 }
 
 /**
@@ -44,7 +50,10 @@ export interface ChainTouchstoneOptions {
  * @throws ChainValidationError for an invalid chain; TouchstoneExportError naming the stage
  *   when a stage translates frequency
  */
-export function chainNetwork(doc: ChainLike, options: ChainTouchstoneOptions = {}): NetworkData {
+export function chainNetwork(
+  doc: ChainLike,
+  options: ChainTouchstoneOptions & { withNoise?: boolean } = {},
+): NetworkData {
   const built = buildChain(
     doc,
     options.catalogue ?? defaultCatalogue(),
@@ -68,26 +77,42 @@ export function chainNetwork(doc: ChainLike, options: ChainTouchstoneOptions = {
       cascade(total, 8 * i, one, 0, total, 8 * i);
     }
   }
-  return abcdSweepToNetwork(freqs, total, options.z0 ?? 50);
+  const net = abcdSweepToNetwork(freqs, total, options.z0 ?? 50);
+  if (!options.withNoise) return net;
+  const noise = cascadeNoiseParameters(built, net.z0);
+  return noise ? { ...net, noise: [noise] } : net;
 }
 
 /**
- * Touchstone 1.1 text (`.s2p`) of the chain's two-ports in cascade.
+ * Touchstone text (`.s2p`, version 1.1 or 2.0) of the chain's two-ports in cascade.
  * @throws as {@link chainNetwork}
  */
 export function chainToTouchstone(
   doc: ChainLike & { name?: unknown },
   options: ChainTouchstoneOptions = {},
 ): string {
-  const net = chainNetwork(doc, options);
+  const v2 = options.version === '2.0';
+  const net = chainNetwork(doc, { ...options, withNoise: v2 });
   const name = typeof doc.name === 'string' ? doc.name.replace(/[\r\n]+/g, ' ') : 'chain';
+  const comments = [
+    `Chainwright chain "${name}"`,
+    'S-parameters of the stages between the source and the load, in cascade;',
+    `reference ${net.z0} ohm on both ports. Port 1 faces the source, port 2 the load.`,
+  ];
+  if (v2) {
+    comments.push(
+      net.noise
+        ? "Noise data: the cascade's noise parameters at the centre frequency, from the " +
+            "chain's noise model (a stage given by its noise figure alone holds that figure " +
+            'at the source impedance it sees in this chain).'
+        : 'No noise data: the cascade has no noise parameters to state (no noise voltage, or ' +
+            'no passive source impedance that minimises its noise).',
+    );
+  }
   return writeTouchstone(net, {
     format: options.format,
     unit: options.unit,
-    comments: [
-      `Chainwright chain "${name}"`,
-      'S-parameters of the stages between the source and the load, in cascade;',
-      `reference ${net.z0} ohm on both ports. Port 1 faces the source, port 2 the load.`,
-    ],
+    comments,
+    ...(v2 ? { version: '2.0' as const, twoPortOrder: '12_21' as const } : {}),
   });
 }

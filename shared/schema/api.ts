@@ -291,6 +291,15 @@ const exportFormat = z.enum(EXPORT_FORMATS, {
   error: 'format must be one of json, spice, touchstone',
 });
 const Z0_MESSAGE = 'the reference resistance z0 must be a number of ohms above 0';
+/** Touchstone specification versions a chain can be exported in. */
+export const TOUCHSTONE_VERSIONS = ['1.1', '2.0'] as const;
+export type TouchstoneVersion = (typeof TOUCHSTONE_VERSIONS)[number];
+// "2" and "1" are the short forms a query string is likely to carry.
+const touchstoneVersion = z
+  .enum(['1.1', '2.0', '1', '2'], {
+    error: 'version must be 1.1 or 2.0 (the Touchstone specification of the file)',
+  })
+  .transform((v): TouchstoneVersion => (v.startsWith('2') ? '2.0' : '1.1'));
 
 /** POST /api/export: the document as it is on screen, unsaved edits included. */
 export const exportRequestSchema = z.object({
@@ -298,6 +307,8 @@ export const exportRequestSchema = z.object({
   format: exportFormat,
   /** Reference resistance of both Touchstone ports, ohm (default 50; other formats ignore it). */
   z0: z.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+  /** Touchstone version (default 1.1; 2.0 adds `[Reference]` and `[Noise Data]`). */
+  version: touchstoneVersion.optional(),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
   /** Export the chain in this mode (named in the file name and header; absent: first mode). */
@@ -305,10 +316,11 @@ export const exportRequestSchema = z.object({
 });
 export type ExportRequest = z.input<typeof exportRequestSchema>;
 
-/** GET /api/chains/:id/export?format=…&z0=… */
+/** GET /api/chains/:id/export?format=…&z0=…&version=…&mode=… */
 export const exportQuerySchema = z.object({
   format: exportFormat,
   z0: z.coerce.number(Z0_MESSAGE).positive(Z0_MESSAGE).optional(),
+  version: touchstoneVersion.optional(),
   mode: modeIdField.optional(),
 });
 

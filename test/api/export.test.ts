@@ -1,5 +1,6 @@
 /** Exports: the chain file, the ngspice netlist and Touchstone, for sent and stored chains. */
 import { chainDocumentSchema, type ChainDocumentInput } from '../../shared/schema/chain';
+import { readTouchstone } from '../../shared/io/touchstone';
 import {
   anonymous,
   createUser,
@@ -46,6 +47,94 @@ function withStage(id: string, type: string, label: string): ChainDocumentInput 
 function dataLines(text: string): string[] {
   return text.split('\n').filter((l) => l.trim() !== '' && !/^\s*[!#]/.test(l));
 }
+
+describe('Touchstone 2.0 export', () => {
+  it('should write [Reference] per port and [Noise Data], reading back as the 1.1 file', async () => {
+    const doc = withStage('amp', 'unilateral-amplifier', 'Amplifier');
+    const v2 = await send(viewer, 'post', '/api/export', {
+      document: doc,
+      format: 'touchstone',
+      z0: 75,
+      version: '2.0',
+    });
+    expect(v2.status).toBe(200);
+    expect(v2.headers['content-disposition']).toBe(
+      'attachment; filename="test-tank-into-a-detector_75ohm_v2.s2p"',
+    );
+    const lines = v2.text.split('\n');
+    expect(lines[0]).toBe('[Version] 2.0');
+    expect(lines).toContain('[Reference] 75 75');
+    expect(lines).toContain('[Noise Data]');
+    const file = readTouchstone(v2.text, 'export.s2p');
+    expect(file.version).toBe('2.0');
+    expect(file.z0).toBe(75);
+    // The tank and the amplifier make noise: one noise point, at the chain's centre frequency.
+    expect(file.noise).toHaveLength(1);
+    expect(file.noise[0].fHz).toBe(chainDocumentSchema.parse(doc).settings.f0Hz);
+    expect(file.noise[0].nfMinDb).toBeGreaterThan(0);
+    expect(file.noise[0].rnOhm).toBeGreaterThan(0);
+    expect(Math.hypot(file.noise[0].gammaOpt.re, file.noise[0].gammaOpt.im)).toBeLessThan(1);
+
+    const v1 = await send(viewer, 'post', '/api/export', {
+      document: doc,
+      format: 'touchstone',
+      z0: 75,
+    });
+    const old = readTouchstone(v1.text, 'export.s2p');
+    expect(old.version).toBe('1.1');
+    expect(old.noise).toEqual([]);
+    expect(Array.from(file.freqsHz)).toEqual(Array.from(old.freqsHz));
+    file.s.forEach((v, i) => expect(v).toBeCloseTo(old.s[i], 10));
+  });
+
+  it("should name a mode's 2.0 file by chain, mode and reference, [Version] first", async () => {
+    const doc = fixtureChain({
+      ...withStage('amp', 'unilateral-amplifier', 'Amplifier'),
+      name: 'Tank in modes',
+      modes: [
+        { id: 'tuned', name: 'Tuned', kind: 'receive' },
+        { id: 'no-tank', name: 'No tank', kind: 'transmit', bypass: ['tank'] },
+      ],
+    });
+    const res = await send(viewer, 'post', '/api/export', {
+      document: doc,
+      format: 'touchstone',
+      mode: 'tuned',
+      version: '2.0',
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-disposition']).toBe(
+      'attachment; filename="tank-in-modes_tuned_50ohm_v2.s2p"',
+    );
+    const lines = res.text.split('\n');
+    expect(lines[0]).toBe('[Version] 2.0');
+    expect(lines[1]).toBe('! Mode "Tuned" (receive, id tuned)');
+    expect(readTouchstone(res.text, 'mode.s2p').noise).toHaveLength(1);
+  });
+
+  it('should state no noise data, and why, for a chain with only a shunt tank', async () => {
+    // A shunt conductance's noise is least from a short, which no finite Γopt states.
+    const res = await send(viewer, 'post', '/api/export', {
+      document: fixtureChain(),
+      format: 'touchstone',
+      version: '2.0',
+    });
+    expect(res.status).toBe(200);
+    expect(res.text).not.toContain('[Noise Data]');
+    expect(res.text).toContain('! No noise data:');
+    expect(readTouchstone(res.text, 'tank.s2p').noise).toEqual([]);
+  });
+
+  it('should refuse a version that is not 1.1 or 2.0 with a message naming both', async () => {
+    const res = await send(viewer, 'post', '/api/export', {
+      document: fixtureChain(),
+      format: 'touchstone',
+      version: '3.0',
+    });
+    expect(res.status).toBe(422);
+    expect(JSON.stringify(res.body.details)).toContain('1.1 or 2.0');
+  });
+});
 
 describe('POST /api/export', () => {
   it('should answer the chain file, which reads back as the same document', async () => {
@@ -211,6 +300,19 @@ describe('GET /api/chains/:id/export', () => {
       'attachment; filename="stored-tank_300ohm.s2p"',
     );
     expect(s2p.text.split('\n')).toContain('# HZ S RI R 300');
+
+    const v2 = await send(
+      viewer,
+      'get',
+      `/api/chains/${chainId}/export?format=touchstone&version=2`,
+    );
+    expect(v2.status).toBe(200);
+    expect(v2.headers['content-disposition']).toBe(
+      'attachment; filename="stored-tank_50ohm_v2.s2p"',
+    );
+    const file = readTouchstone(v2.text, 'stored.s2p');
+    expect(file.version).toBe('2.0');
+    expect(file.z0).toBe(50);
   });
 
   it('should answer 422 for a missing or unknown format and a z0 that is not a resistance', async () => {
@@ -219,6 +321,7 @@ describe('GET /api/chains/:id/export', () => {
       '?format=gerber',
       '?format=touchstone&z0=abc',
       '?format=touchstone&z0=0',
+      '?format=touchstone&version=3',
     ]) {
       const res = await send(viewer, 'get', `/api/chains/${chainId}/export${query}`);
       expect(res.status).toBe(422);

@@ -76,17 +76,17 @@ export function passiveCorrelation(a: M2, temperatureK: number): M2 {
 }
 
 /**
- * Noise figure (dB) of the whole chain at f0 by the correlation-matrix method. Passive stages
- * are taken at the chain's reference temperature, like the Friis cascade.
+ * Chain-form correlation matrix of the two-ports (and, with `withLoad`, a load that declares
+ * its own noise) in cascade at f0, with the node analysis it was read from.
  */
-export function correlationNoiseFigureDb(built: BuiltChain): number {
+function cascadeCorrelation(built: BuiltChain, withLoad: boolean) {
   const t0 = built.settings.temperatureK;
   const kt2 = 2 * BOLTZMANN * t0;
   const na = runNodeAnalysis(built, [built.settings.f0Hz]);
   const units: { a: M2; c: M2 }[] = [];
   // A load that declares its own noise (a converter or receiver input) ends the cascade as
   // noise sources at its terminals, behind a through connection.
-  for (const stage of [...built.twoPorts, built.load]) {
+  for (const stage of withLoad ? [...built.twoPorts, built.load] : built.twoPorts) {
     const decl = stage.model.noise;
     if (stage === built.load && (!decl || decl.kind === 'passive')) continue;
     const sections = 'sections' in stage.model ? stage.model.sections : [];
@@ -122,9 +122,63 @@ export function correlationNoiseFigureDb(built: BuiltChain): number {
     const moved = congruence(units[k].a, total);
     total = units[k].c.map((v, s) => v + moved[s]);
   }
+  return { total, kt2, na };
+}
+
+/**
+ * Noise figure (dB) of the whole chain at f0 by the correlation-matrix method. Passive stages
+ * are taken at the chain's reference temperature, like the Friis cascade.
+ */
+export function correlationNoiseFigureDb(built: BuiltChain): number {
+  const { total, kt2, na } = cascadeCorrelation(built, true);
   const zr = na.zsrcRe[0];
   const zi = na.zsrcIm[0];
   // [1 Zs]·C·[1 Zs]ᴴ = C11 + 2·Re(C12·Zs*) + C22·|Zs|²
   const excess = total[0] + 2 * (total[2] * zr + total[3] * zi) + total[6] * (zr * zr + zi * zi);
   return 10 * Math.log10(1 + excess / (kt2 * zr));
+}
+
+/** Noise parameters of a two-port, with Γopt against a stated reference resistance. */
+export interface CascadeNoiseParameters {
+  fHz: number;
+  nfMinDb: number;
+  gammaOpt: { re: number; im: number };
+  rnOhm: number;
+}
+
+/**
+ * Noise parameters (Fmin, Γopt against `z0`, Rn) at f0 of the two-ports between the source
+ * and the load, read from their cascaded correlation matrix C = 2kT0·[[Rn, F1 − Rn·Yopt*],
+ * [F1 − Rn·Yopt, Rn·|Yopt|²]] with F1 = (Fmin − 1)/2 (Hillbrand and Russer, 1976): Rn = C11/2kT0,
+ * Bopt = Im C12 / C11, Gopt = √(C22/C11 − Bopt²), Fmin = 1 + (Re C12 + C11·Gopt)/kT0.
+ * Null when the cascade has no noise voltage or no source admittance minimises its noise
+ * (a noiseless chain, or one whose optimum source is not passive).
+ */
+export function cascadeNoiseParameters(
+  built: BuiltChain,
+  z0: number,
+): CascadeNoiseParameters | null {
+  const { total, kt2 } = cascadeCorrelation(built, false);
+  const [c11, , c12re, c12im, , , c22] = total;
+  if (!(c11 > 0) || !(z0 > 0)) return null;
+  const bopt = c12im / c11;
+  const g2 = c22 / c11 - bopt * bopt;
+  if (!(g2 > 0)) return null;
+  const gopt = Math.sqrt(g2);
+  const fmin = 1 + (2 * (c12re + c11 * gopt)) / kt2;
+  // Γ = (1 − z0·Y)/(1 + z0·Y)
+  const nr = 1 - z0 * gopt;
+  const ni = -z0 * bopt;
+  const dr = 1 + z0 * gopt;
+  const di = z0 * bopt;
+  const den = dr * dr + di * di;
+  const gamma = { re: (nr * dr + ni * di) / den, im: (ni * dr - nr * di) / den };
+  const result = {
+    fHz: built.settings.f0Hz,
+    nfMinDb: 10 * Math.log10(fmin),
+    gammaOpt: gamma,
+    rnOhm: c11 / kt2,
+  };
+  const finite = [result.nfMinDb, gamma.re, gamma.im, result.rnOhm].every(Number.isFinite);
+  return finite && fmin >= 1 ? result : null;
 }
