@@ -17,8 +17,7 @@ import type { BuiltChain, BuiltStage } from './build';
 import { coupledExtract, ownResonance, resonate } from './extract-resonance';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
-import { stepUp } from './quantities';
-import { gridMax, locateEdge, locatePeak, toDb } from './response-shape';
+import { gridDb, locateEdge, locatePeak, powerMax, stepUpPower } from './response-shape';
 
 const isFiniteNumber = Number.isFinite;
 const HALF_POWER_DB = 10 * Math.log10(2);
@@ -90,13 +89,13 @@ export function pairPeak(
 ): { peakHz: number; bandwidthHz: number | null } | null {
   const flat = stage.firstSection + stage.sectionCount;
   const P = gridNa.points;
-  const db = new Float64Array(P);
-  for (let i = 0; i < P; i++) db[i] = toDb(stepUp(gridNa, flat, i));
-  const k = gridMax(db);
+  const power = new Float64Array(P);
+  stepUpPower(gridNa, flat, power);
+  const k = powerMax(power, P);
   if (k < 0) return null;
-  const peak = locatePeak(probe, flat, gridNa.freqs, db, k);
+  const peak = locatePeak(probe, flat, gridNa.freqs, gridDb(gridNa, flat, k), k);
   const level = peak.db - HALF_POWER_DB;
-  const lo = locateEdge(probe, flat, gridNa.freqs, db, k, level, -1);
-  const hi = locateEdge(probe, flat, gridNa.freqs, db, k, level, 1);
+  const lo = locateEdge(probe, flat, gridNa, power, k, level, -1);
+  const hi = locateEdge(probe, flat, gridNa, power, k, level, 1);
   return { peakHz: peak.fHz, bandwidthHz: lo && hi ? hi.fHz - lo.fHz : null };
 }

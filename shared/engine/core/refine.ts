@@ -5,7 +5,8 @@
  * Zeros: the Illinois variant of regula falsi (Dowell and Jarratt, BIT 11, 1971), which keeps
  * the bracket of bisection but converges superlinearly, so an edge known to 1e-6 of its
  * frequency costs a handful of evaluations instead of the 20-odd of bisection. Maxima: golden
- * section search (Kiefer, 1953) on a bracket of three grid points.
+ * section search (Kiefer, 1953) on a bracket of three grid points, or Brent's method where
+ * the function is smooth there.
  */
 
 /** Relative tolerance to which zeros and maxima are located (well inside 1e-6). */
@@ -83,4 +84,90 @@ export function maximise(
     }
   }
   return hc >= hd ? [c, hc] : [d, hd];
+}
+
+/** 1 − 1/φ: the golden section's step as a share of the bracket. */
+const GOLDEN_STEP = (3 - Math.sqrt(5)) / 2;
+
+/**
+ * The maximum of h on [lo, hi] (h unimodal and smooth there: a response peak and the grid
+ * points either side), to `tol` relative, starting from `start` inside the bracket. Brent's
+ * method (R. P. Brent, Algorithms for Minimization without Derivatives, 1973, ch. 5):
+ * parabolic interpolation through the best three points so far, with a golden-section step
+ * whenever the parabola's step is not trusted; no step is shorter than the tolerance, so
+ * rounding at the top of a flat peak cannot stall it. A smooth peak costs about a third of
+ * golden section's evaluations. Returns [f, h(f)].
+ */
+export function maximiseSmooth(
+  h: (f: number) => number,
+  lo: number,
+  hi: number,
+  start = lo + GOLDEN_STEP * (hi - lo),
+  tol = 1e-9,
+): [number, number] {
+  const { abs } = Math;
+  let a = lo;
+  let b = hi;
+  // Minimises −h; x is the best point, w the second best, v the previous w.
+  let x = start;
+  let fx = -h(x);
+  let w = x;
+  let fw = fx;
+  let v = x;
+  let fv = fx;
+  let d = 0;
+  let e = 0; // the step before last
+  for (let it = 0; it < MAX_ITER; it++) {
+    const m = 0.5 * (a + b);
+    const tol1 = tol * abs(x);
+    const tol2 = 2 * tol1;
+    if (abs(x - m) <= tol2 - 0.5 * (b - a)) break;
+    let golden = true;
+    if (abs(e) > tol1) {
+      const r = (x - w) * (fx - fv);
+      let q = (x - v) * (fx - fw);
+      let p = (x - v) * q - (x - w) * r;
+      q = 2 * (q - r);
+      if (q > 0) p = -p;
+      else q = -q;
+      const before = e;
+      e = d;
+      // Trust the parabola when it moves less than half the step before last, inside (a, b).
+      if (abs(p) < abs(0.5 * q * before) && p > q * (a - x) && p < q * (b - x)) {
+        d = p / q;
+        const u = x + d;
+        if (u - a < tol2 || b - u < tol2) d = x < m ? tol1 : -tol1;
+        golden = false;
+      }
+    }
+    if (golden) {
+      e = (x < m ? b : a) - x;
+      d = GOLDEN_STEP * e;
+    }
+    const u = abs(d) >= tol1 ? x + d : x + (d > 0 ? tol1 : -tol1);
+    const fu = -h(u);
+    if (fu <= fx) {
+      if (u < x) b = x;
+      else a = x;
+      v = w;
+      fv = fw;
+      w = x;
+      fw = fx;
+      x = u;
+      fx = fu;
+    } else {
+      if (u < x) a = u;
+      else b = u;
+      if (fu <= fw || w === x) {
+        v = w;
+        fv = fw;
+        w = u;
+        fw = fu;
+      } else if (fu <= fv || v === x || v === w) {
+        v = u;
+        fv = fu;
+      }
+    }
+  }
+  return [x, -fx];
 }

@@ -2,12 +2,21 @@
  * The shape of the response |V[n]|/|Es| at one node: its peak and its band edges, bracketed
  * on a grid (a sweep) and then located by evaluating the chain at single frequencies, so the
  * figures do not depend on the grid's spacing.
+ *
+ * The grid is scanned as the power ratio |V|²/|Es|² (products only): a logarithm and a
+ * magnitude per point cost more than the node analysis that gave the point. Only the grid
+ * points a search starts from are put in dB, by the same formula as before; a point within
+ * rounding of a level is judged in dB, so the scan picks the brackets the dB grid picked.
  */
+import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
-import { maximise, solveBracketed } from './refine';
+import { stepUp } from './quantities';
+import { maximiseSmooth, solveBracketed } from './refine';
 
 const { log10 } = Math;
 const isFiniteNumber = Number.isFinite;
+/** Relative margin of the power scan's comparisons: beyond it rounding cannot matter. */
+const SCAN_MARGIN = 1e-9;
 
 export const toDb = (r: number) => 20 * log10(r);
 
@@ -23,6 +32,33 @@ export function dbAt(probe: Probe, flat: number, f: number): number {
   return toDb(probe.at(f, flat, true));
 }
 
+/** The step-up at grid point i of `na` at `flat`, dB. */
+export function gridDb(na: NodeAnalysis, flat: number, i: number): number {
+  return toDb(stepUp(na, flat, i));
+}
+
+/** |V|²/|Es|² at `flat` at every grid point of `na`, into out (length ≥ points). */
+export function stepUpPower(na: NodeAnalysis, flat: number, out: Float64Array): void {
+  const { points: P, vRe, vIm, emf } = na;
+  const base = flat * P;
+  for (let i = 0; i < P; i++) {
+    const vr = vRe[base + i];
+    const vi = vIm[base + i];
+    const e = emf[i];
+    out[i] = (vr * vr + vi * vi) / (e * e);
+  }
+}
+
+/** Index of the highest finite, positive power ratio of the first `n`, or −1 (gridMax's). */
+export function powerMax(power: ArrayLike<number>, n: number): number {
+  let k = -1;
+  for (let i = 0; i < n; i++) {
+    const p = power[i];
+    if (p > 0 && p < Infinity && (k < 0 || p > power[k])) k = i;
+  }
+  return k;
+}
+
 /** Index of the highest finite value, or −1. */
 export function gridMax(db: ArrayLike<number>): number {
   let k = -1;
@@ -31,21 +67,22 @@ export function gridMax(db: ArrayLike<number>): number {
 }
 
 /**
- * The peak bracketed by grid point k and its neighbours, located by golden-section search. A
- * peak on the first or last grid point stays there (it lies at or beyond the grid's end).
+ * The peak bracketed by grid point k and its neighbours, located by Brent's method from grid
+ * point k (refine.ts). A peak on the first or last grid point stays there (it lies at or
+ * beyond the grid's end).
  */
 export function locatePeak(
   probe: Probe,
   flat: number,
   f: ArrayLike<number>,
-  db: ArrayLike<number>,
+  dbK: number,
   k: number,
 ): Peak {
   const last = f.length - 1;
-  if (k <= 0 || k >= last) return { k, fHz: f[k], db: db[k] };
-  const [fHz, level] = maximise((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1]);
+  if (k <= 0 || k >= last) return { k, fHz: f[k], db: dbK };
+  const [fHz, level] = maximiseSmooth((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1], f[k]);
   // The search cannot do worse than the grid point it started from.
-  return level >= db[k] ? { k, fHz, db: level } : { k, fHz: f[k], db: db[k] };
+  return level >= dbK ? { k, fHz, db: level } : { k, fHz: f[k], db: dbK };
 }
 
 /** One side's edge at `level`: its frequency and the grid index beyond it (or null). */
@@ -58,23 +95,32 @@ export interface Edge {
 /**
  * The edge where the response first falls below `level` walking from the peak at grid point
  * p toward lower (dir −1) or higher (dir +1) frequencies, located to 1e-10 relative.
+ * @param power the grid's power ratios at `flat` (stepUpPower)
  */
 export function locateEdge(
   probe: Probe,
   flat: number,
-  f: ArrayLike<number>,
-  db: ArrayLike<number>,
+  na: NodeAnalysis,
+  power: ArrayLike<number>,
   p: number,
   level: number,
   dir: -1 | 1,
 ): Edge | null {
-  for (let k = p; k + dir >= 0 && k + dir < f.length; k += dir) {
+  const f = na.freqs;
+  const threshold = 10 ** (level / 10);
+  const surelyBelow = threshold * (1 - SCAN_MARGIN);
+  const surelyNot = threshold * (1 + SCAN_MARGIN);
+  for (let k = p; k + dir >= 0 && k + dir < na.points; k += dir) {
     const next = k + dir;
-    if (!(db[next] < level)) continue;
+    const q = power[next];
+    if (!(q < surelyBelow) && (q > surelyNot || !(gridDb(na, flat, next) < level))) continue;
     const g = (x: number) => dbAt(probe, flat, x) - level;
-    const [lo, hi, glo, ghi] =
-      dir < 0 ? [f[next], f[k], db[next] - level, db[k] - level] : [f[k], f[next], db[k] - level, db[next] - level]; // prettier-ignore
-    const fHz = solveBracketed(g, lo, hi, undefined, glo, ghi);
+    const dbK = gridDb(na, flat, k) - level;
+    const dbNext = gridDb(na, flat, next) - level;
+    const fHz =
+      dir < 0
+        ? solveBracketed(g, f[next], f[k], undefined, dbNext, dbK)
+        : solveBracketed(g, f[k], f[next], undefined, dbK, dbNext);
     return isFiniteNumber(fHz) ? { fHz, beyond: next } : null;
   }
   return null;

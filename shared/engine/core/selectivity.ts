@@ -8,7 +8,15 @@ import type { BuiltChain } from './build';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { stepUp } from './quantities';
-import { dbAt, gridMax, locateEdge, locatePeak, toDb } from './response-shape';
+import {
+  dbAt,
+  gridDb,
+  locateEdge,
+  locatePeak,
+  powerMax,
+  stepUpPower,
+  toDb,
+} from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, log10 } = Math;
@@ -105,25 +113,25 @@ export function analyzeSelectivity(
   const ex = runNodeAnalysis(built, exact);
   const P = sweepNa.points;
   const f = sweepNa.freqs;
-  const db = new Float64Array(P);
+  const power = new Float64Array(P);
   const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     if (only !== undefined && n !== only) continue;
     const flat = built.userNodeFlat[n];
-    for (let i = 0; i < P; i++) db[i] = toDb(stepUp(sweepNa, flat, i));
-    const k = gridMax(db);
-    const peak = k >= 0 ? locatePeak(probe, flat, f, db, k) : null;
+    stepUpPower(sweepNa, flat, power);
+    const k = powerMax(power, P);
+    const peak = k >= 0 ? locatePeak(probe, flat, f, gridDb(sweepNa, flat, k), k) : null;
     let e3: [number, number] | null = null;
     let e60: [number, number] | null = null;
     let deepest: number | null = null;
     if (peak && P > 2) {
-      const lo3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, -1);
-      const hi3 = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, 1);
+      const lo3 = locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, -1);
+      const hi3 = locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, 1);
       e3 = lo3 && hi3 ? [lo3.fHz, hi3.fHz] : null;
       const deep = only === undefined;
-      const lo60 = deep ? locateEdge(probe, flat, f, db, k, peak.db - 60, -1) : null;
-      const hi60 = deep ? locateEdge(probe, flat, f, db, k, peak.db - 60, 1) : null;
+      const lo60 = deep ? locateEdge(probe, flat, sweepNa, power, k, peak.db - 60, -1) : null;
+      const hi60 = deep ? locateEdge(probe, flat, sweepNa, power, k, peak.db - 60, 1) : null;
       if (lo60 && hi60) {
         const fp = peak.fHz;
         const further = Math.max(
