@@ -104,17 +104,16 @@ export function createApp(services: Services): Express {
     csrf.csrfSynchronisedProtection,
   );
 
-  app.use(
-    '/api/auth',
-    authRouter({ services, passport, csrf, signInLimiter: signInLimiter(services) }),
-  );
+  // One limit for every place a password is tried: sign-in, its change, an invitation's accept.
+  const passwordLimiter = signInLimiter(services);
+  app.use('/api/auth', authRouter({ services, passport, csrf, signInLimiter: passwordLimiter }));
   app.use('/api/me', meRouter(em, usesMailCatcher(config)));
   app.use('/api/admin', adminRouter(em, config.dbSchema));
   app.use('/api/workspaces', workspacesRouter(em));
   app.use('/api/admin', mailAdminRouter(services));
   app.use('/api/workspaces', workspaceInvitationsRouter(services));
   app.use('/api/workspaces', activityRouter(em));
-  app.use('/api/invitations', invitationsRouter(services, csrf));
+  app.use('/api/invitations', invitationsRouter(services, csrf, passwordLimiter));
   app.use('/api/shared', sharedRouter(services));
   app.use('/api/workspaces', workspaceChainsRouter(em, config.examplesDir));
   app.use('/api/workspaces', dataFilesRouter(em));

@@ -92,8 +92,9 @@ export function commentsRouter(services: Services): Router {
         )
       : [];
     const url = `${publicBaseUrl(services.config)}/w/${chain.workspace.id}/chains/${chain.id}${stage ? `?stage=${encodeURIComponent(stage.id)}` : ''}`;
+    const mailProblems: string[] = [];
     for (const m of members) {
-      await services.mail.send(
+      const outcome = await services.mail.send(
         em,
         messages.mention(m.user.email, {
           by: author.displayName,
@@ -103,8 +104,14 @@ export function commentsRouter(services: Services): Router {
           url,
         }),
       );
+      if (!outcome.sent && outcome.message) mailProblems.push(outcome.message);
     }
-    res.status(201).json({ ...toCommentDto(comment), notified: members.map((m) => m.user.email) });
+    const answer: CommentDto = {
+      ...toCommentDto(comment),
+      notified: members.map((m) => m.user.email),
+      ...(mailProblems.length ? { mailProblems } : {}),
+    };
+    res.status(201).json(answer);
   });
 
   router.patch('/:id/comments/:cid', chainRole(em, 'viewer'), async (req, res) => {

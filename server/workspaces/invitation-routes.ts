@@ -1,4 +1,4 @@
-import { Router, type Request, type Response } from 'express';
+import { Router, type Request, type RequestHandler, type Response } from 'express';
 import { LockMode } from '@mikro-orm/core';
 import type { CsrfSync } from 'csrf-sync';
 import {
@@ -12,7 +12,13 @@ import { recordActivity } from '../activity/record';
 import { signIn } from '../auth/routes';
 import { assertStrongPassword } from '../auth/strength';
 import { hashToken, looksLikeToken, newToken } from '../auth/tokens';
-import { ConflictError, HttpError, NotFoundError, ValidationError } from '../common/errors';
+import {
+  ConflictError,
+  ForbiddenError,
+  HttpError,
+  NotFoundError,
+  ValidationError,
+} from '../common/errors';
 import { access, currentUser, uuidParam, workspaceRole } from '../common/roles';
 import type { Services } from '../common/services';
 import { parseOr422 } from '../common/validate';
@@ -132,8 +138,16 @@ export function workspaceInvitationsRouter(services: Services): Router {
   return router;
 }
 
-/** /api/invitations/:token: what a link offers, and accepting it (signing up if needed). */
-export function invitationsRouter(services: Services, csrf: CsrfSync): Router {
+/**
+ * /api/invitations/:token: what a link offers, and accepting it (signing up if needed).
+ * Accepting into an existing account checks its password, so it counts against the same
+ * failed-attempt limit as sign-in (`limiter`).
+ */
+export function invitationsRouter(
+  services: Services,
+  csrf: CsrfSync,
+  limiter: RequestHandler,
+): Router {
   const router = Router();
   const { em } = services;
 
@@ -164,7 +178,7 @@ export function invitationsRouter(services: Services, csrf: CsrfSync): Router {
     res.json(body);
   });
 
-  router.post('/:token/accept', async (req: Request, res: Response) => {
+  router.post('/:token/accept', limiter, async (req: Request, res: Response) => {
     const invitation = await findByToken(req);
     const body = parseOr422(acceptInvitationSchema, req.body ?? {});
     const signedIn = req.user;
@@ -181,6 +195,13 @@ export function invitationsRouter(services: Services, csrf: CsrfSync): Router {
         throw new ValidationError(`enter the password of the account ${invitation.email}`, [
           { path: 'password', message: 'wrong password for this account' },
         ]);
+      }
+      // Said only to someone who knows the password, as at sign-in.
+      if (existing.deactivatedAt) {
+        throw new ForbiddenError(
+          'this account is deactivated; ask a site admin to reactivate it',
+          'account-deactivated',
+        );
       }
     } else if (!existing) {
       const details = [];

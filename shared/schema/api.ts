@@ -475,6 +475,11 @@ export interface CommentDto {
   editedAt: string | null;
   /** Members mentioned by address who were told by mail (POST only). */
   notified?: string[];
+  /**
+   * POST only: for each mention mail that could not be sent yet, what happened (it stays in
+   * the outbox and is retried; the comment itself is saved).
+   */
+  mailProblems?: string[];
 }
 export const ACTIVITY_KINDS = [
   'chain-created',

@@ -102,6 +102,29 @@ describe('comments', () => {
     expect(mail?.text).toContain(`?stage=tank`);
     expect(sent.some((m) => m.to === 'stranger@elsewhere.test')).toBe(false);
   });
+
+  it('should keep the comment when a mention mail fails, and tell its author so', async () => {
+    const warn = jest.spyOn(console, 'warn').mockImplementation(() => undefined);
+    const transport = jest
+      .spyOn(ctx.services.mailer, 'sendMail')
+      .mockRejectedValueOnce(new Error('relay refused') as never);
+    try {
+      const res = await send(viewer, 'post', `/api/chains/${chainId}/comments`, {
+        body: 'Over to you, oona@notes.test',
+      });
+      expect(res.status).toBe(201);
+      expect(res.body.notified).toEqual(['oona@notes.test']);
+      expect(res.body.mailProblems).toHaveLength(1);
+      expect(res.body.mailProblems[0]).toContain('oona@notes.test');
+      expect(res.body.mailProblems[0]).toContain('retried automatically');
+      const list = await send(owner, 'get', `/api/chains/${chainId}/comments`);
+      expect(list.body.map((c: { id: string }) => c.id)).toContain(res.body.id);
+      expect(transport).toHaveBeenCalled();
+    } finally {
+      // The rejection was used up; the recording stays in place for the tests after.
+      warn.mockRestore();
+    }
+  });
 });
 
 describe('activity', () => {

@@ -4,10 +4,13 @@
  */
 import { PasswordResetSchema } from '../../server/auth/account-token.entity';
 import { InvitationSchema } from '../../server/workspaces/invitation.entity';
+import { newToken } from '../../server/auth/tokens';
+import { UserSchema, type User } from '../../server/users/user.entity';
 import {
   anonymous,
   createUser,
   createWorkspace,
+  PASSWORD,
   send,
   signIn,
   type Client,
@@ -138,6 +141,22 @@ describe('invitations', () => {
     ).toBe(404);
   });
 
+  it('should not sign a deactivated account in, even with its password', async () => {
+    const em = ctx.services.orm.em.fork();
+    const gone = await createUser(em, 'gone@invite.test');
+    gone.deactivatedAt = new Date();
+    await em.flush();
+    const olga = await em.findOneOrFail(UserSchema, { email: 'olga@invite.test' });
+    const token = await inviteDirectly(ctx, wid, olga, 'gone@invite.test');
+    const visitor = await anonymous(ctx.app);
+    const res = await send(visitor, 'post', `/api/invitations/${token}/accept`, {
+      password: PASSWORD,
+    });
+    expect(res.status).toBe(403);
+    expect(res.body.error).toBe('account-deactivated');
+    expect((await visitor.agent.get('/api/me')).status).toBe(401);
+  });
+
   it('should refuse an expired link and an invitation of a member', async () => {
     await send(owner, 'post', `/api/workspaces/${wid}/invitations`, {
       email: 'slow@invite.test',
@@ -164,6 +183,53 @@ describe('invitations', () => {
     expect(
       (await (await anonymous(ctx.app)).agent.get('/api/invitations/not-a-token')).status,
     ).toBe(404);
+  });
+});
+
+/** An invitation made in the database (no mail); returns its link's token. */
+async function inviteDirectly(
+  context: TestContext,
+  workspaceId: string,
+  by: User,
+  email: string,
+): Promise<string> {
+  const em = context.services.orm.em.fork();
+  const { token, hash } = newToken();
+  em.create(InvitationSchema, {
+    workspace: workspaceId,
+    email,
+    role: 'viewer',
+    tokenHash: hash,
+    invitedBy: by.id,
+    expiresAt: new Date(Date.now() + 86_400_000),
+  });
+  await em.flush();
+  return token;
+}
+
+describe('accepting into an existing account', () => {
+  let limited: TestContext;
+  let inviter: User;
+  let wsId: string;
+
+  beforeAll(async () => {
+    limited = await createTestContext({ signInLimit: { windowMs: 60_000, limit: 3 } });
+    const em = limited.services.orm.em.fork();
+    inviter = await createUser(em, 'ida@limit.test', { displayName: 'Ida' });
+    await createUser(em, 'kim@limit.test');
+    wsId = (await createWorkspace(em, 'Limits', [[inviter, 'owner']])).id;
+  });
+  afterAll(() => limited.close());
+
+  it('should count wrong passwords against the sign-in limit', async () => {
+    const token = await inviteDirectly(limited, wsId, inviter, 'kim@limit.test');
+    const visitor = await anonymous(limited.app);
+    const guess = () =>
+      send(visitor, 'post', `/api/invitations/${token}/accept`, { password: 'a-wrong-guess' });
+    for (let i = 0; i < 3; i++) expect((await guess()).status).toBe(422);
+    const blocked = await guess();
+    expect(blocked.status).toBe(429);
+    expect(blocked.body.error).toBe('too-many-attempts');
   });
 });
 

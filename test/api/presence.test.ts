@@ -1,16 +1,18 @@
 /**
- * Presence and live events across two server processes: two apps on the same database,
- * each with its own pools and LISTEN connection, as two processes behind a balancer would
- * be. Events travel only through PostgreSQL NOTIFY.
+ * Presence and live events across two server processes: this test's app, and a real
+ * second process (server/main.ts) on the same database, as two processes behind a balancer
+ * would be. Events travel between them only through PostgreSQL LISTEN/NOTIFY.
  */
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { createApp } from '../../server/app';
 import { PresenceSchema } from '../../server/presence/presence.entity';
-import { initServices, type Services } from '../../server/common/services';
 import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
 import { fixtureChain } from './support/chain-fixture';
-import { createTestContext, testConfig, type TestContext } from './support/test-db';
+import { startServerProcess, type ServerProcess } from './support/server-process';
+import { createTestContext, type TestContext } from './support/test-db';
+
+// A second server process starts (TypeScript compiled on the fly): give it time.
+jest.setTimeout(120_000);
 
 /** One server-sent event as the test reads it. */
 interface StreamEvent {
@@ -26,14 +28,13 @@ interface Stream {
 }
 
 /** Opens GET /api/chains/:id/events with a client's cookie and parses the event stream. */
-function openStream(server: http.Server, client: Client, chainId: string): Promise<Stream> {
+function openStream(port: number, client: Client, chainId: string): Promise<Stream> {
   const cookie = (
     client.agent as unknown as { jar: { getCookies(o: object): { toValueString(): string }[] } }
   ).jar
     .getCookies({ domain: '127.0.0.1', path: '/api', secure: false, script: false })
     .map((c) => c.toValueString())
     .join('; ');
-  const port = (server.address() as AddressInfo).port;
   return new Promise((resolve, reject) => {
     const events: StreamEvent[] = [];
     const waiters: {
@@ -84,22 +85,17 @@ function openStream(server: http.Server, client: Client, chainId: string): Promi
 }
 
 let ctx: TestContext;
-let second: Services;
 let serverA: http.Server;
-let serverB: http.Server;
+let processB: ServerProcess;
 let ana: Client;
 let ben: Client;
 let chainId: string;
 
 beforeAll(async () => {
   ctx = await createTestContext();
-  // The second "process": its own services on the same schema, its own LISTEN connection.
-  second = await initServices(
-    testConfig(ctx.schema, { sessionSecret: ctx.services.config.sessionSecret }),
-  );
-  const appB = createApp(second);
+  // The second process: its own pools and LISTEN connection on the same schema.
+  processB = await startServerProcess(ctx.schema);
   serverA = ctx.app.listen(0, '127.0.0.1');
-  serverB = appB.listen(0, '127.0.0.1');
   const em = ctx.services.orm.em.fork();
   const a = await createUser(em, 'ana@live.test', { displayName: 'Ana' });
   const b = await createUser(em, 'ben@live.test', { displayName: 'Ben' });
@@ -110,14 +106,13 @@ beforeAll(async () => {
     ])
   ).id;
   ana = await signIn(serverA as unknown as never, 'ana@live.test');
-  ben = await signIn(serverB as unknown as never, 'ben@live.test');
+  ben = await signIn(processB.url as unknown as never, 'ben@live.test');
   chainId = (await send(ana, 'post', `/api/workspaces/${wid}/chains`, { document: fixtureChain() }))
     .body.id;
 });
 afterAll(async () => {
   serverA.close();
-  serverB.close();
-  await second.close();
+  await processB.stop();
   await ctx.close();
 });
 
@@ -125,10 +120,11 @@ const names = (e: StreamEvent) => e.data.users!.map((u: { displayName: string })
 
 describe('presence and live events across processes', () => {
   it('should show who is here, tell of a save and of comments, and of leaving', async () => {
-    const a = await openStream(serverA, ana, chainId);
+    const portA = (serverA.address() as AddressInfo).port;
+    const a = await openStream(portA, ana, chainId);
     await a.next((e) => e.event === 'presence' && names(e).join() === 'Ana');
-    const b = await openStream(serverB, ben, chainId);
-    // Ana's stream (process A) hears that Ben (process B) arrived.
+    const b = await openStream(processB.port, ben, chainId);
+    // Ana's stream (this process) hears that Ben (the other process) arrived.
     await a.next((e) => e.event === 'presence' && names(e).join() === 'Ana,Ben');
     await b.next((e) => e.event === 'presence' && names(e).join() === 'Ana,Ben');
 

@@ -153,6 +153,18 @@ const ROWS: Row[] = [
     expect: everyone(404),
   },
   {
+    // The answer never says whether the address has an account; the mail does.
+    name: 'register (an address with an account)',
+    method: 'post',
+    url: () => '/api/auth/register',
+    body: () => ({
+      email: 'viewer@matrix.test',
+      displayName: 'Again',
+      password: 'quiet-antenna-mast',
+    }),
+    expect: everyone(202),
+  },
+  {
     name: 'confirm an address (unknown link)',
     method: 'post',
     url: () => `/api/auth/confirm/${NO_TOKEN}`,
@@ -247,6 +259,12 @@ const ROWS: Row[] = [
     method: 'get',
     url: () => '/api/admin/mailbox',
     // These tests send through a JSON transport: there is no catcher to read.
+    expect: adminOnly(404),
+  },
+  {
+    name: 'mail catcher message',
+    method: 'get',
+    url: () => '/api/admin/mailbox/2026-01-01T00-00-00-000Z-1',
     expect: adminOnly(404),
   },
   { name: 'mail outbox', method: 'get', url: () => '/api/admin/outbox', expect: adminOnly(200) },

@@ -80,6 +80,12 @@ import { CollabStore } from '../presence/collab.store';
       @if (failure(); as text) {
         <p class="cw-error-text" role="alert">{{ text }}</p>
       }
+      @if (told(); as text) {
+        <p class="cw-muted" role="status" data-testid="comment-told">{{ text }}</p>
+      }
+      @for (problem of mailProblems(); track $index) {
+        <p class="cw-error-text" role="alert">{{ problem }}</p>
+      }
       <button mat-flat-button type="submit" [disabled]="busy() || !draft.trim()">
         Post comment
       </button>
@@ -150,6 +156,9 @@ export class CommentsPanelComponent {
   protected readonly editing = signal<string | null>(null);
   protected readonly busy = signal(false);
   protected readonly failure = signal('');
+  /** After a post: who was told by mail, and any mention mail that did not go yet. */
+  protected readonly told = signal('');
+  protected readonly mailProblems = signal<string[]>([]);
   protected draft = '';
   protected editText = '';
 
@@ -176,9 +185,16 @@ export class CommentsPanelComponent {
     if (!body || this.busy()) return;
     this.busy.set(true);
     this.failure.set('');
+    this.told.set('');
+    this.mailProblems.set([]);
     try {
-      await firstValueFrom(this.api.addComment(this.chainId(), body, this.stageIdShown()));
+      const posted = await firstValueFrom(
+        this.api.addComment(this.chainId(), body, this.stageIdShown()),
+      );
       this.draft = '';
+      const notified = posted.notified ?? [];
+      if (notified.length) this.told.set(`Mentioned by mail: ${notified.join(', ')}.`);
+      this.mailProblems.set(posted.mailProblems ?? []);
       await this.collab.reloadComments();
     } catch {
       this.failure.set('The comment was not posted; it is still here to try again.');
