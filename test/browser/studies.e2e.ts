@@ -7,6 +7,7 @@
  * optimiser with two values and two weighted goals whose result is saved as a variant.
  */
 import type { Browser, Locator, Page } from 'playwright-core';
+import { parseQuantity } from '../../shared/units';
 import {
   DEMO,
   launchBrowser,
@@ -218,10 +219,13 @@ describe('studies', () => {
     await page.getByTestId('opt-result').waitFor();
     expect(await page.getByTestId('opt-goal-row').count()).toBe(2);
     expect(await page.getByTestId('opt-after').count()).toBe(2);
-    const after = Number(
-      (await page.getByTestId('opt-after').first().innerText()).replace(/,/g, ''),
-    );
-    const afterL = Number((await page.getByTestId('opt-after').nth(1).innerText()).replace(/,/g, '')); // prettier-ignore
+    // The values are written with their unit and prefix ("234.5 pF"), as the editor writes them.
+    const read = async (i: number, kind: 'farad' | 'henry') => {
+      const parsed = parseQuantity(await page.getByTestId('opt-after').nth(i).innerText(), kind);
+      return parsed.ok ? parsed.value : NaN;
+    };
+    const after = await read(0, 'farad');
+    const afterL = await read(1, 'henry');
     expect(afterL).toBeGreaterThanOrEqual(2e-6);
     expect(afterL).toBeLessThanOrEqual(2.4e-6);
     // Resonating at 7.3 MHz: L·C = 1/(2π·7.3 MHz)² ≈ 4.75e-16 (Thomson, common practice),

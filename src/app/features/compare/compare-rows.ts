@@ -119,7 +119,7 @@ const ROWS: RowSpec[] = [
     better: 'lower',
     hint: 'closer to 1 is better',
     value: (r) => lastNodeSelectivity(r)?.shapeFactor ?? null,
-    format: (v) => plain(v, 2),
+    format: (v) => plain(v),
   },
   {
     key: 'image',
@@ -207,7 +207,7 @@ export function bestIndexes(values: (number | null)[], better: Better): number[]
 
 /** The loaded Q of every resonator of a result, as "label Q" pairs. */
 export function loadedQText(result: AnalysisResult): string {
-  const parts = result.resonators.map((r) => `${r.label} ${plain(r.loadedQ, 1)}`);
+  const parts = result.resonators.map((r) => `${r.label} ${plain(r.loadedQ)}`);
   return parts.length ? parts.join(' · ') : NO_VALUE;
 }
 

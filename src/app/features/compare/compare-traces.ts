@@ -5,6 +5,7 @@
 import type { Data } from 'plotly.js-dist-min';
 import type { AnalysisResult } from '../../../../shared/engine/types';
 import type { PlotPalette } from '../editor/results/plot-theme';
+import { decibels } from '../editor/results/format-quantity';
 import {
   axisStyle,
   baseLayout,
@@ -71,7 +72,8 @@ export function stepUpOverlay(
       x: sweep.freqsHz,
       y: node?.stepUpDb ?? [],
       line: { color: seriesColour(options.palette, colour), width: 2 },
-      hovertemplate: `%{y:.2f} dB<extra>${name}</extra>`,
+      customdata: (node?.stepUpDb ?? []).map((v) => decibels(v)),
+      hovertemplate: `%{customdata}<extra>${name}</extra>`,
     };
   });
   const markers = frequencyMarkers(ctx);
@@ -100,7 +102,8 @@ export function returnLossOverlay(
     x: result.sweep!.freqsHz,
     y: result.sweep!.returnLossDb,
     line: { color: seriesColour(options.palette, colour), width: 2 },
-    hovertemplate: `%{y:.2f} dB<extra>${name}</extra>`,
+    customdata: result.sweep!.returnLossDb.map((v) => decibels(v)),
+    hovertemplate: `%{customdata}<extra>${name}</extra>`,
   }));
   const markers = frequencyMarkers(ctx);
   return {

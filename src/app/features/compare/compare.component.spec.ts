@@ -72,6 +72,8 @@ describe('CompareComponent', () => {
   afterEach(() => http.verify());
 
   async function answer(): Promise<void> {
+    // The catalogue gives the stage differences their units; none needed here.
+    for (const request of http.match('/api/catalogue')) request.flush([]);
     http
       .expectOne('/api/chains/a/family')
       .flush([summary('a', 'One tank'), summary('b', 'Pair', 'a')]);
@@ -117,6 +119,7 @@ describe('CompareComponent', () => {
   });
 
   it('should show a variant the engine refuses with a dash and say why', async () => {
+    for (const request of http.match('/api/catalogue')) request.flush([]);
     http
       .expectOne('/api/chains/a/family')
       .flush([summary('a', 'One tank'), summary('b', 'Pair', 'a')]);

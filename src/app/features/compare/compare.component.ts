@@ -16,7 +16,8 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { Router, RouterLink } from '@angular/router';
 import { catchError, forkJoin, map, of, startWith, switchMap } from 'rxjs';
-import type { AnalysisResult } from '../../../../shared/engine/types';
+import type { AnalysisResult, UnitKind } from '../../../../shared/engine/types';
+import { AnalysisApi } from '../editor/state/analysis-api';
 import type { ChainDto, ChainSummaryDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { describeHttpError } from '../../core/http/error-message';
@@ -71,6 +72,16 @@ export default class CompareComponent {
   private readonly api = inject(ChainsApi);
   private readonly router = inject(Router);
   private readonly page = inject(DOCUMENT);
+  /** Parameter units by stage type and key, so differing values are written with them. */
+  private readonly units = toSignal(
+    inject(AnalysisApi)
+      .catalogue()
+      .pipe(
+        map((types) => new Map(types.flatMap((t) => t.params.map((p) => [`${t.type}/${p.key}`, p.unit] as const)))), // prettier-ignore
+        catchError(() => of(new Map<string, UnitKind>())),
+      ),
+    { initialValue: new Map<string, UnitKind>() },
+  );
 
   protected readonly maxCompared = MAX_COMPARED;
   protected readonly ids = computed(() => parseChainIds(this.chains()));
@@ -140,6 +151,7 @@ export default class CompareComponent {
       this.loaded().map((l) =>
         l.chain ? documentForResults(l.chain.document, findMode(l.chain.document, l.modeId)) : null,
       ),
+      (type, key) => this.units().get(`${type}/${key}`),
     ),
   );
   protected readonly failures = computed(() =>

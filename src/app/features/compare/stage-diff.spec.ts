@@ -1,3 +1,4 @@
+import { applySignificantFigures } from '../../core/format/number-format';
 import type { ChainDocument } from '../../../../shared/schema/chain';
 import { stageDiffRows } from './stage-diff';
 
@@ -25,10 +26,23 @@ describe('stageDiffRows', () => {
     const rows = stageDiffRows([doc([src]), doc([src, extra])]);
     expect(rows).toHaveLength(1);
     expect(rows[0].cells[0].text).toBe('—');
-    expect(rows[0].cells[1]).toEqual({ text: 'l-match, l 0.000001', differs: true });
+    expect(rows[0].cells[1]).toEqual({ text: 'l-match, l 1e-6', differs: true });
   });
 
   it('finds nothing when the variants are equal', () => {
     expect(stageDiffRows([doc([src, tank(1e-10)]), doc([src, tank(1e-10)])])).toEqual([]);
+  });
+
+  it('writes values with their unit and prefix at the chosen significant figures', () => {
+    const unitOf = (_type: string, key: string) => (key === 'c' ? 'farad' : undefined) as 'farad';
+    const rows = stageDiffRows([doc([tank(100e-12)]), doc([tank(123.456e-12)])], unitOf);
+    expect(rows[0].cells[0].text).toBe('c 100 pF');
+    expect(rows[0].cells[1].text).toBe('c 123.5 pF');
+    applySignificantFigures(6);
+    try {
+      expect(stageDiffRows([doc([tank(100e-12)]), doc([tank(123.456e-12)])], unitOf)[0].cells[1].text).toBe('c 123.456 pF'); // prettier-ignore
+    } finally {
+      applySignificantFigures(4);
+    }
   });
 });

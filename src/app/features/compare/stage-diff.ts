@@ -1,4 +1,9 @@
+import type { UnitKind } from '../../../../shared/engine/types';
 import type { ChainDocument, StageInstance } from '../../../../shared/schema/chain';
+import { engineering } from '../editor/results/format-quantity';
+
+/** The unit of a stage type's value, from the catalogue; undefined when it is not known. */
+export type UnitOf = (type: string, key: string) => UnitKind | undefined;
 
 /** One variant's side of a differing stage. */
 export interface StageDiffCell {
@@ -14,20 +19,26 @@ export interface StageDiffRow {
   cells: StageDiffCell[];
 }
 
-function valueText(v: unknown): string {
-  if (typeof v === 'number') return Number(v.toPrecision(5)).toString();
+/** A value as the tables write it: prefix, unit and the user's significant figures. */
+function textOf(v: unknown, unit: UnitKind | undefined): string {
+  if (typeof v === 'number') return engineering(v, unit ?? 'none');
   return String(v);
 }
 
 /** Values of `stage` that differ from `other`'s (or all of them when `other` is absent). */
-function differing(stage: StageInstance, other: StageInstance | undefined): string[] {
+function differing(
+  stage: StageInstance,
+  other: StageInstance | undefined,
+  unitOf: UnitOf,
+): string[] {
+  const valueText = (k: string, v: unknown) => `${k} ${textOf(v, unitOf(stage.type, k))}`;
   if (!other || other.type !== stage.type) {
-    return [stage.type, ...Object.entries(stage.values).map(([k, v]) => `${k} ${valueText(v)}`)];
+    return [stage.type, ...Object.entries(stage.values).map(([k, v]) => valueText(k, v))];
   }
   const keys = new Set([...Object.keys(stage.values), ...Object.keys(other.values)]);
   return [...keys]
     .filter((k) => stage.values[k] !== other.values[k])
-    .map((k) => `${k} ${k in stage.values ? valueText(stage.values[k]) : '—'}`);
+    .map((k) => (k in stage.values ? valueText(k, stage.values[k]) : `${k} —`));
 }
 
 /**
@@ -35,7 +46,10 @@ function differing(stage: StageInstance, other: StageInstance | undefined): stri
  * stage (matched by id) that is absent, of another type or has another value in some
  * variant. Stages equal everywhere are left out.
  */
-export function stageDiffRows(documents: (ChainDocument | null)[]): StageDiffRow[] {
+export function stageDiffRows(
+  documents: (ChainDocument | null)[],
+  unitOf: UnitOf = () => undefined,
+): StageDiffRow[] {
   const docs = documents.map((d) => d?.stages ?? []);
   const ids: string[] = [];
   for (const stages of docs) for (const s of stages) if (!ids.includes(s.id)) ids.push(s.id);
@@ -46,18 +60,20 @@ export function stageDiffRows(documents: (ChainDocument | null)[]): StageDiffRow
     const cells = found.map((stage, i): StageDiffCell => {
       if (!stage) return { text: '—', differs: i > 0 && first !== undefined };
       if (i === 0) return { text: '', differs: false };
-      const d = differing(stage, first);
+      const d = differing(stage, first, unitOf);
       return { text: d.join(', '), differs: d.length > 0 };
     });
     if (!cells.some((c) => c.differs)) continue;
     // The first variant's cell states what the others are compared with.
     if (first) {
       const others = found.filter((s, i) => i > 0 && s !== undefined) as StageInstance[];
-      const keys = new Set(others.flatMap((o) => differing(o, first).map((t) => t.split(' ')[0])));
+      const keys = new Set(
+        others.flatMap((o) => differing(o, first, unitOf).map((t) => t.split(' ')[0])),
+      );
       cells[0].text =
         [...keys]
           .filter((k) => k in first.values)
-          .map((k) => `${k} ${valueText(first.values[k])}`)
+          .map((k) => `${k} ${textOf(first.values[k], unitOf(first.type, k))}`)
           .join(', ') || first.type;
     }
     const named = found.find((s) => s) as StageInstance;

@@ -1,5 +1,5 @@
 import type { PartDto } from '../../../../shared/schema/api';
-import { formatEngineering } from '../../../../shared/units/format';
+import { engineering, plain } from '../editor/results/format-quantity';
 
 export type PartFieldKey = 'partNumber' | 'kind' | 'value' | 'q' | 'qFreq' | 'tolerance' | 'notes';
 
@@ -20,11 +20,11 @@ export function formatPart(part: Omit<PartDto, 'id'>): {
   q: string;
   tolerance: string;
 } {
-  const value = formatEngineering(part.value, part.kind === 'inductor' ? 'henry' : 'farad', 4);
-  const at = part.qFreqHz === null ? '' : ` at ${formatEngineering(part.qFreqHz, 'hertz', 4)}`;
+  const value = engineering(part.value, part.kind === 'inductor' ? 'henry' : 'farad');
+  const at = part.qFreqHz === null ? '' : ` at ${engineering(part.qFreqHz, 'hertz')}`;
   return {
     value,
-    q: part.q === null ? '—' : `Q ${part.q}${at}`,
-    tolerance: part.tolerancePct === null ? '—' : `± ${part.tolerancePct} %`,
+    q: part.q === null ? '—' : `Q ${plain(part.q)}${at}`,
+    tolerance: part.tolerancePct === null ? '—' : `± ${plain(part.tolerancePct)} %`,
   };
 }

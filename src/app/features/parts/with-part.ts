@@ -7,6 +7,7 @@ import type { ParamSpec } from '../../../../shared/engine/types';
 import type { PartDto } from '../../../../shared/schema/api';
 import type { PartRef, StageInstance } from '../../../../shared/schema/chain';
 import { formatEngineering } from '../../../../shared/units/format';
+import { engineering } from '../editor/results/format-quantity';
 import { withTolerance, withValue } from '../editor/state/stage-factory';
 
 /**
@@ -56,7 +57,7 @@ export function withoutPart(stage: StageInstance, key: string): StageInstance {
 export function describePartRef(ref: PartRef): string {
   const bits = [ref.partNumber || 'a part'];
   if (ref.q !== undefined) {
-    const at = ref.qFreqHz === undefined ? '' : ` at ${formatEngineering(ref.qFreqHz, 'hertz', 4)}`;
+    const at = ref.qFreqHz === undefined ? '' : ` at ${engineering(ref.qFreqHz, 'hertz')}`;
     bits.push(`Q ${ref.q}${at}`);
   }
   if (ref.tolerancePct !== undefined) bits.push(`± ${ref.tolerancePct} %`);

@@ -12,7 +12,7 @@ import type {
 } from '../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../shared/schema/chain';
 import { chainReferenceOhm } from '../../../../shared/io/export-name';
-import { formatEngineering } from '../../../../shared/units/format';
+import { engineering, plain } from '../editor/results/format-quantity';
 import { type BudgetColumn, type BudgetLine, budgetTable } from '../editor/results/budget-rows';
 import {
   type FlagItem,
@@ -62,6 +62,8 @@ export interface ReportCaution {
 export interface ReportModel {
   f0: string;
   referenceOhm: number;
+  /** The reference impedance as the page writes it, e.g. "50 Ω". */
+  reference: string;
   mode: string | null;
   strip: StripCell[];
   budget: BudgetPart[];
@@ -91,7 +93,7 @@ function stageValues(stage: ChainDocument['stages'][number], type: StageTypeInfo
       const v = valueOf(stage, p);
       const text =
         typeof v === 'number'
-          ? formatEngineering(v, p.unit)
+          ? engineering(v, p.unit)
           : (p.options?.find((o) => o.value === v)?.label ?? String(v));
       return `${p.label} ${text}`;
     });
@@ -104,7 +106,7 @@ function rawValues(doc: ChainDocument, index: number): string[] {
     .slice(0, VALUES_PER_CELL)
     .map(([key, value]) => {
       const typed = stage.entered?.[key];
-      return `${key} ${typed ?? (typeof value === 'number' ? String(Number(value.toPrecision(4))) : String(value))}`; // prettier-ignore
+      return `${key} ${typed ?? (typeof value === 'number' ? plain(value) : String(value))}`; // prettier-ignore
     });
 }
 
@@ -194,8 +196,9 @@ export function reportModel(
 ): ReportModel {
   const budget = result ? budgetTable(result, doc) : null;
   return {
-    f0: formatEngineering(doc.settings.f0Hz, 'hertz', 4),
+    f0: engineering(doc.settings.f0Hz, 'hertz'),
     referenceOhm: chainReferenceOhm(doc.settings),
+    reference: engineering(chainReferenceOhm(doc.settings), 'ohm'),
     mode: result?.mode?.name ?? null,
     strip: stripCells(doc, result, types),
     budget: budget ? budgetParts(budget.columns, budget.lines) : [],

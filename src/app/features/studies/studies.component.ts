@@ -12,7 +12,10 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatTabsModule } from '@angular/material/tabs';
 import { Router, RouterLink } from '@angular/router';
-import type { Subscription } from 'rxjs';
+import { catchError, map, of, type Subscription } from 'rxjs';
+import { toSignal } from '@angular/core/rxjs-interop';
+import type { UnitKind } from '../../../../shared/engine/types';
+import { AnalysisApi } from '../editor/state/analysis-api';
 import type { ChainDto } from '../../../../shared/schema/api';
 import type { StudyDto, StudySpecInput, StudySummaryDto } from '../../../../shared/schema/studies';
 import type {
@@ -96,6 +99,31 @@ export default class StudiesComponent {
       ? (this.selected()!.result as OptimiserResult | null)
       : null,
   );
+
+  /** Parameter units by stage type and key, from the catalogue (fetched once per page). */
+  private readonly units = toSignal(
+    inject(AnalysisApi)
+      .catalogue()
+      .pipe(
+        map((types) => new Map(types.flatMap((t) => t.params.map((p) => [`${t.type}/${p.key}`, p.unit] as const)))), // prettier-ignore
+        catchError(() => of(new Map<string, UnitKind>())),
+      ),
+    { initialValue: new Map<string, UnitKind>() },
+  );
+  /** The unit of a stage's value in this chain, so the optimiser's values carry it. */
+  protected readonly unitOf = computed(() => {
+    const stages = this.chain()?.document.stages ?? [];
+    const units = this.units();
+    return (stageId: string, key: string): UnitKind | undefined => {
+      const type = stages.find((s) => s.id === stageId)?.type;
+      return type === undefined ? undefined : units.get(`${type}/${key}`);
+    };
+  });
+  /** The goals the shown optimiser run was asked for. */
+  protected readonly goals = computed(() => {
+    const spec = this.selected()?.spec;
+    return spec?.kind === 'optimiser' ? spec.goals : [];
+  });
 
   constructor() {
     effect(() => {

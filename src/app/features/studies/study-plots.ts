@@ -1,5 +1,11 @@
-/** Plot figures for study results (Plotly data and layout, no Angular). */
+/**
+ * Plot figures for study results (Plotly data and layout, no Angular). Axes are ticked and
+ * hover text written as the tables write figures: prefixes, units, the user's figures.
+ */
+import type { UnitKind } from '../../../../shared/engine/types';
+import { linearAxisTicks } from '../editor/results/plot-axes';
 import type { PlotFigure } from '../editor/results/plot-traces';
+import { withUnit } from './results/study-format';
 
 export interface HistogramLike {
   edges: number[];
@@ -8,16 +14,35 @@ export interface HistogramLike {
 
 const AXIS = { automargin: true, zeroline: false };
 
-export function histogramFigure(title: string, unit: string, h: HistogramLike): PlotFigure {
+/** An axis over `values` in `unit`, ticked with our prefixes (Plotly's own when none fit). */
+function axis(title: string, values: (number | null)[], unit: UnitKind | undefined) {
+  const ticks = unit === undefined ? null : linearAxisTicks(values, unit);
+  return { ...AXIS, title: { text: title }, ...(ticks ?? {}) };
+}
+
+/** Trials per bin of one figure; `unit` is the figure's ('ratio' for a plain number). */
+export function histogramFigure(title: string, unit: UnitKind, h: HistogramLike): PlotFigure {
   const centres = h.counts.map((_, i) => (h.edges[i] + h.edges[i + 1]) / 2);
   const width = h.edges.length > 1 ? h.edges[1] - h.edges[0] : 1;
+  const bins = h.counts.map(
+    (_, i) => `${withUnit(h.edges[i], unit)} to ${withUnit(h.edges[i + 1], unit)}`,
+  );
   return {
     data: [
-      { type: 'bar', x: centres, y: h.counts, width, marker: { color: '#2f6f62' }, name: title },
+      {
+        type: 'bar',
+        x: centres,
+        y: h.counts,
+        width,
+        marker: { color: '#2f6f62' },
+        name: title,
+        customdata: bins,
+        hovertemplate: '%{customdata}: %{y} trials<extra></extra>',
+      },
     ],
     layout: {
       title: { text: title },
-      xaxis: { ...AXIS, title: { text: unit } },
+      xaxis: axis(title, h.edges, unit),
       yaxis: { ...AXIS, title: { text: 'trials' } },
       bargap: 0.02,
       margin: { t: 40, r: 16 },
@@ -25,10 +50,16 @@ export function histogramFigure(title: string, unit: string, h: HistogramLike): 
   };
 }
 
+/** One axis of the scatter: its label and unit. */
+export interface ScatterAxis {
+  label: string;
+  unit?: UnitKind;
+}
+
 // SVG scatter, not WebGL: the app must draw on machines without a GPU.
 export function scatterFigure(
-  xLabel: string,
-  yLabel: string,
+  xAxis: ScatterAxis,
+  yAxis: ScatterAxis,
   xs: (number | null)[],
   ys: (number | null)[],
   pass: (boolean | null)[],
@@ -60,10 +91,12 @@ export function scatterFigure(
       y: s.y,
       name: s.name,
       marker: { size: 4, color: s.color },
+      customdata: s.x.map((x, i) => `${withUnit(x, xAxis.unit)}, ${withUnit(s.y[i], yAxis.unit)}`),
+      hovertemplate: `%{customdata}<extra>${s.name}</extra>`,
     })),
     layout: {
-      xaxis: { ...AXIS, title: { text: xLabel } },
-      yaxis: { ...AXIS, title: { text: yLabel } },
+      xaxis: axis(xAxis.label, xs, xAxis.unit),
+      yaxis: axis(yAxis.label, ys, yAxis.unit),
       margin: { t: 24, r: 16 },
     },
   };
@@ -74,32 +107,39 @@ export interface BandPlotInput {
   circuits: { label: string; errorsHz: (number | null)[]; resonancesHz: (number | null)[] }[];
 }
 
+/** Tracking error and resonance of each ganged circuit against the dial, all in hertz. */
 export function trackingFigure(band: BandPlotInput): PlotFigure {
-  const mhz = (v: number | null) => (v === null ? null : v / 1e6);
-  const x = band.dialsHz.map((v) => v / 1e6);
+  const x = band.dialsHz;
+  const hz = (v: number | null) => withUnit(v, 'hertz');
+  const errors = band.circuits.flatMap((c) => c.errorsHz);
+  const resonances = band.circuits.flatMap((c) => c.resonancesHz);
   return {
     data: band.circuits.flatMap((c) => [
       {
         type: 'scatter',
         mode: 'lines+markers',
         x,
-        y: c.errorsHz.map((e) => (e === null ? null : e / 1e3)),
-        name: `${c.label}: tracking error (kHz)`,
+        y: c.errorsHz,
+        name: `${c.label}: tracking error`,
+        customdata: c.errorsHz.map((e, i) => `dial ${hz(x[i])}: off by ${hz(e)}`),
+        hovertemplate: '%{customdata}<extra></extra>',
       },
       {
         type: 'scatter',
         mode: 'lines',
         x,
-        y: c.resonancesHz.map(mhz),
-        name: `${c.label}: resonance (MHz)`,
+        y: c.resonancesHz,
+        name: `${c.label}: resonance`,
         yaxis: 'y2',
         line: { dash: 'dot' },
+        customdata: c.resonancesHz.map((r, i) => `dial ${hz(x[i])}: resonates at ${hz(r)}`),
+        hovertemplate: '%{customdata}<extra></extra>',
       },
     ]),
     layout: {
-      xaxis: { ...AXIS, title: { text: 'dial frequency (MHz)' } },
-      yaxis: { ...AXIS, title: { text: 'tracking error (kHz)' }, zeroline: true },
-      yaxis2: { ...AXIS, title: { text: 'resonance (MHz)' }, overlaying: 'y', side: 'right' },
+      xaxis: axis('dial frequency', x, 'hertz'),
+      yaxis: { ...axis('tracking error', errors, 'hertz'), zeroline: true },
+      yaxis2: { ...axis('resonance', resonances, 'hertz'), overlaying: 'y', side: 'right' },
       legend: { orientation: 'h', y: -0.25 },
       margin: { t: 24, r: 60 },
     },

@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input } from '@angular/core';
 import { coilWinding } from '../../../../../shared/engine/design/coil-winding';
 import { CoilFormStore } from './coil-form.store';
+import { engineering } from '../results/format-quantity';
 
 /** "≈ 10¼ turns, 10.2 mm long" beside an inductance, on the editor's coil form (Wheeler). */
 @Component({
@@ -27,7 +28,7 @@ export class CoilTurnsComponent {
       const whole = Math.floor(w.roundedTurns);
       const quarter = ['', '¼', '½', '¾'][Math.round((w.roundedTurns - whole) * 4)];
       const note = w.withinAccuracy ? '' : ' (short coil: Wheeler is rough here)';
-      return `≈ ${whole}${quarter} turns air-core, ${(w.lengthM * 1e3).toFixed(1)} mm long${note}`;
+      return `≈ ${whole}${quarter} turns air-core, ${engineering(w.lengthM, 'metre')} long${note}`;
     } catch {
       return '';
     }

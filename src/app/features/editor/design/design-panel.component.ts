@@ -20,7 +20,7 @@ import { CoilPartsComponent } from './coil-parts.component';
 import { DesignApi } from './design-api';
 import { ValueKnobComponent } from './value-knob.component';
 import { SparkPlotComponent } from './spark-plot.component';
-import { engineering } from '../results/format-quantity';
+import { decibels, engineering, figures, impedanceRect, plain } from '../results/format-quantity';
 
 const SERIES: PreferredSeries[] = ['E6', 'E12', 'E24', 'E48', 'E96'];
 
@@ -85,6 +85,14 @@ export class DesignPanelComponent {
 
   protected fmt(v: number | null | undefined, unit: UnitKind): string {
     return v === null || v === undefined || !Number.isFinite(v) ? '—' : engineering(v, unit);
+  }
+
+  /** Figures written as every table writes them (the user's significant figures). */
+  protected readonly db = decibels;
+  protected readonly num = plain;
+  protected readonly impedance = impedanceRect;
+  protected dbNum(v: number): string {
+    return figures(v, undefined, true);
   }
 
   protected partText(p: { part: 'L' | 'C'; place: string; value: number }): string {

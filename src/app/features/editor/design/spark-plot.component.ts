@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { decibels, engineering } from '../results/format-quantity';
 
 /** One trace of a small response plot. */
 export interface SparkTrace {
@@ -110,7 +111,7 @@ export class SparkPlotComponent {
     const f = this.freqsHz();
     if (f.length < 2) return '';
     const { hi, lo } = this.yRange();
-    const mhz = (v: number) => (v / 1e6).toPrecision(4);
-    return `${mhz(f[0])}–${mhz(f[f.length - 1])} MHz · ${lo.toFixed(0)} to ${hi.toFixed(0)} dB`;
+    const span = `${engineering(f[0], 'hertz')} to ${engineering(f[f.length - 1], 'hertz')}`;
+    return `${span} · ${decibels(lo)} to ${decibels(hi)}`;
   });
 }

@@ -14,7 +14,7 @@ import { EditorStore } from '../state/editor.store';
 import { visibleParams, withValue } from '../state/stage-factory';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
 import { SparkPlotComponent } from './spark-plot.component';
-import { engineering } from '../results/format-quantity';
+import { decibels, engineering, plain } from '../results/format-quantity';
 
 /** Slider half-range in ln(value): coarse ×/÷ 2, fine ±10 %. */
 const SPAN = { coarse: Math.log(2), fine: Math.log(1.1) };
@@ -79,6 +79,9 @@ export class ValueKnobComponent {
   constructor() {
     inject(DestroyRef).onDestroy(() => this.worker?.terminate());
   }
+
+  protected readonly db = decibels;
+  protected readonly num = plain;
 
   protected fmt(v: number | null | undefined): string {
     const spec = this.spec();

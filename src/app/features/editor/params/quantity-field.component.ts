@@ -7,7 +7,8 @@ import {
   output,
 } from '@angular/core';
 import type { ParamSpec, UnitKind } from '../../../../../shared/engine/types';
-import { checkRange, formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { checkRange, parseQuantity } from '../../../../../shared/units';
+import { engineering } from '../results/format-quantity';
 
 let nextId = 0;
 
@@ -97,7 +98,7 @@ export class QuantityFieldComponent {
     const low = t.min !== undefined && p.value < t.min;
     const high = t.max !== undefined && p.value > t.max;
     if (!low && !high) return null;
-    const f = (v: number) => formatEngineering(v, this.unit(), 3);
+    const f = (v: number) => engineering(v, this.unit());
     const range =
       t.min !== undefined && t.max !== undefined
         ? `${f(t.min)} to ${f(t.max)}`
@@ -108,7 +109,7 @@ export class QuantityFieldComponent {
   });
   protected readonly readBack = computed(() => {
     const p = this.parsed();
-    return p.ok && !Number.isNaN(p.value) ? formatEngineering(p.value, this.unit(), 4) : null;
+    return p.ok && !Number.isNaN(p.value) ? engineering(p.value, this.unit()) : null;
   });
 
   protected onInput(event: Event): void {

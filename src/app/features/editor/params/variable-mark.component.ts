@@ -4,7 +4,8 @@ import {
   variableMarkSchema,
   type VariableMark,
 } from '../../../../../shared/schema/chain';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
+import { fieldText } from '../results/format-quantity';
 import { EditorStore } from '../state/editor.store';
 
 /**
@@ -88,7 +89,7 @@ export class VariableMarkComponent {
   );
 
   protected fmt(v: number): string {
-    return formatEngineering(v, this.unit(), 4);
+    return fieldText(v, this.unit());
   }
 
   protected toggle(event: Event): void {

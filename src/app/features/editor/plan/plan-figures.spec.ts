@@ -1,6 +1,15 @@
 import type { SpurResponse } from '../../../../../shared/engine/planning/spurs';
 import { parseQuantity } from '../../../../../shared/units';
-import { parseProfile, profileText, rejectionBand, sortSpurs } from './plan-figures';
+import type { PlanReport } from '../../../../../shared/engine/planning/plan';
+import { applySignificantFigures } from '../../../core/format/number-format';
+import { FALLBACK_PALETTE } from '../results/plot-theme';
+import {
+  parseProfile,
+  profileText,
+  rejectionBand,
+  sortSpurs,
+  spurChartFigure,
+} from './plan-figures';
 
 const hz = (t: string) => {
   const r = parseQuantity(t, 'hertz');
@@ -38,5 +47,35 @@ describe('plan figures', () => {
     expect(r.ok).toBe(false);
     expect(!r.ok && r.message).toMatch(/offset: level/);
     expect(parseProfile('10 kHz: 5', hz).ok).toBe(false);
+  });
+
+  it('ticks the spur chart in hertz with prefixes and writes its hover at the chosen figures', () => {
+    const plan = {
+      settings: { spurTargetDb: 60 },
+      spurChart: {
+        dialHz: [6e6, 7e6, 8e6],
+        loSide: 'above',
+        tuning: 'constant-q',
+        note: '',
+        lines: [{ m: 1, n: 1, kind: 'image', rfHz: [6.91e6, 7.91e6, 8.91e6], rejectionDb: [41.234, 40.5, null] }], // prettier-ignore
+      },
+    } as unknown as PlanReport;
+    const figure = spurChartFigure(plan, FALLBACK_PALETTE)!;
+    const x = figure.layout.xaxis as { ticktext: string[]; tickvals: number[] };
+    expect(x.ticktext).toEqual(['6 MHz', '6.5 MHz', '7 MHz', '7.5 MHz', '8 MHz']);
+    const y = figure.layout.yaxis as { ticktext: string[]; type: string };
+    expect(y.type).toBe('log');
+    expect(y.ticktext.every((t) => / MHz$/.test(t))).toBe(true);
+    const hover = (figure.data[1] as { customdata: string[][] }).customdata;
+    expect(hover[0]).toEqual(['6 MHz', '6.91 MHz', '41.23 dB']);
+    expect(hover[2][2]).toBe('—');
+    applySignificantFigures(3);
+    try {
+      const again = spurChartFigure(plan, FALLBACK_PALETTE)!;
+      expect((again.data[1] as { customdata: string[][] }).customdata[0][2]).toBe('41.2 dB');
+      expect(again.data[1].name).toBe('Image 1×LO 1×RF (≥ 40.5 dB)');
+    } finally {
+      applySignificantFigures(4);
+    }
   });
 });

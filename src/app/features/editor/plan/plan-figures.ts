@@ -5,7 +5,8 @@
 import type { Data, Layout } from 'plotly.js-dist-min';
 import type { PlanReport } from '../../../../../shared/engine/planning/plan';
 import type { SpurResponse } from '../../../../../shared/engine/planning/spurs';
-import { formatEngineering } from '../../../../../shared/units';
+import { linearAxisTicks, logAxisTicks } from '../results/plot-axes';
+import { decibels, engineering, fieldText } from '../results/format-quantity';
 import type { PlotPalette } from '../results/plot-theme';
 import type { PlotFigure } from '../results/plot-traces';
 
@@ -33,26 +34,32 @@ export function rejectionBand(db: number | null, targetDb: number): 'ok' | 'near
 export function spurChartFigure(plan: PlanReport, palette: PlotPalette): PlotFigure | null {
   const chart = plan.spurChart;
   if (!chart) return null;
-  const mhz = (v: number) => v / 1e6;
   const target = plan.settings.spurTargetDb;
   const colour = { ok: palette.series[0], near: palette.warn, bad: '#b3304a', none: palette.axis };
-  const dial = chart.dialHz.map(mhz);
+  const dial = chart.dialHz;
+  const hz = (v: number | null) =>
+    v === null || !Number.isFinite(v) ? '—' : engineering(v, 'hertz');
   const data: Data[] = [
-    { x: dial, y: dial, type: 'scatter', mode: 'lines', name: 'Wanted (dial)', line: { color: palette.text, width: 2, dash: 'dot' } }, // prettier-ignore
+    { x: dial, y: dial, type: 'scatter', mode: 'lines', name: 'Wanted (dial)', line: { color: palette.text, width: 2, dash: 'dot' }, hoverinfo: 'skip' }, // prettier-ignore
   ];
+  const rfAll: number[] = [...dial];
   for (const line of chart.lines) {
     const rej = line.rejectionDb.filter((v): v is number => v !== null);
     const worst = rej.length ? Math.min(...rej) : null;
     const band = rejectionBand(worst, target);
+    const rf = line.rfHz.map((v) => (Number.isFinite(v) ? v : null));
+    for (const v of rf) if (v !== null && v > 0) rfAll.push(v);
     data.push({
       x: dial,
-      y: line.rfHz.map((v) => (Number.isFinite(v) ? mhz(v) : null)),
+      y: rf,
       type: 'scatter',
       mode: 'lines',
-      name: `${KIND_LABEL[line.kind] ?? line.kind} ${line.m}×LO ${line.n}×RF${worst === null ? '' : ` (≥ ${worst.toFixed(0)} dB)`}`, // prettier-ignore
+      name: `${KIND_LABEL[line.kind] ?? line.kind} ${line.m}×LO ${line.n}×RF${worst === null ? '' : ` (≥ ${decibels(worst)})`}`, // prettier-ignore
       line: { color: colour[band], width: band === 'ok' ? 1 : 2.5 },
-      customdata: line.rejectionDb.map((v) => (v === null ? '—' : `${v.toFixed(1)} dB`)),
-      hovertemplate: '%{fullData.name}<br>dial %{x:.4f} MHz → %{y:.4f} MHz<br>rejection %{customdata}<extra></extra>', // prettier-ignore
+      // The hover text is written here, as every table writes figures (prefix, unit, the
+      // user's significant figures), rather than with Plotly's own number format.
+      customdata: dial.map((d, i) => [hz(d), hz(rf[i]), decibels(line.rejectionDb[i])]),
+      hovertemplate: '%{fullData.name}<br>dial %{customdata[0]} → %{customdata[1]}<br>rejection %{customdata[2]}<extra></extra>', // prettier-ignore
     });
   }
   const layout: Partial<Layout> = {
@@ -62,8 +69,8 @@ export function spurChartFigure(plan: PlanReport, palette: PlotPalette): PlotFig
     paper_bgcolor: palette.background,
     plot_bgcolor: palette.background,
     font: { family: palette.fontFamily, color: palette.text, size: 12 },
-    xaxis: { title: { text: 'Dial frequency (MHz)' }, gridcolor: palette.grid, linecolor: palette.axis }, // prettier-ignore
-    yaxis: { title: { text: 'Input frequency of the response (MHz)' }, gridcolor: palette.grid, linecolor: palette.axis, type: 'log' }, // prettier-ignore
+    xaxis: { title: { text: 'Dial frequency' }, gridcolor: palette.grid, linecolor: palette.axis, ...(linearAxisTicks(dial, 'hertz') ?? {}) }, // prettier-ignore
+    yaxis: { title: { text: 'Input frequency of the response' }, gridcolor: palette.grid, linecolor: palette.axis, type: 'log', ...(logAxisTicks(rfAll, 'hertz') ?? {}) }, // prettier-ignore
     margin: { l: 70, r: 20, t: 40, b: 50 },
     legend: { font: { size: 10 } },
   };
@@ -84,7 +91,7 @@ export function sortSpurs(spurs: readonly SpurResponse[], key: SpurSortKey): Spu
 
 /** "1 kHz: −90, 10 kHz: −110" ⇄ the profile; null with a message when a part does not read. */
 export function profileText(profile: readonly { offsetHz: number; dbcHz: number }[]): string {
-  return profile.map((p) => `${formatEngineering(p.offsetHz, 'hertz', 4)}: ${p.dbcHz}`).join(', ');
+  return profile.map((p) => `${fieldText(p.offsetHz, 'hertz')}: ${p.dbcHz}`).join(', ');
 }
 
 export function parseProfile(

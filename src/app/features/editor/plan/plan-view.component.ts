@@ -22,7 +22,7 @@ import {
   type PlanningSettings,
   type StageInstance,
 } from '../../../../../shared/schema/chain';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
 import { QuantityFieldComponent, type QuantityEdit } from '../params/quantity-field.component';
 import { themePalette } from '../results/plot-theme';
@@ -42,7 +42,7 @@ import {
   spurChartFigure,
   type SpurSortKey,
 } from './plan-figures';
-import { engineering } from '../results/format-quantity';
+import { engineering, fieldText, figures, percent, plain } from '../results/format-quantity';
 
 type PlanState = { status: 'loading' } | { status: 'ready'; plan: PlanReport } | { status: 'failed'; message: string }; // prettier-ignore
 
@@ -133,11 +133,16 @@ export class PlanViewComponent {
   protected hz(v: number | null | undefined): string {
     return v === null || v === undefined ? 'any input' : engineering(v, 'hertz');
   }
-  protected db(v: number | null | undefined, places = 1): string {
-    return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(places).replace('-', '−'); // prettier-ignore
+  /** A level's number, to the user's significant figures (the unit follows in the page). */
+  protected db(v: number | null | undefined): string {
+    return v === null || v === undefined || !Number.isFinite(v) ? '—' : figures(v, undefined, true).replace('-', '−'); // prettier-ignore
+  }
+  /** A plain figure (a noise temperature) to the user's significant figures. */
+  protected num(v: number | null | undefined): string {
+    return plain(v).replace('-', '−');
   }
   protected text(v: number | undefined, unit: 'hertz' | 'dbm' | 'db'): string {
-    return v === undefined ? '' : unit === 'hertz' ? formatEngineering(v, 'hertz', 6) : String(v);
+    return v === undefined ? '' : unit === 'hertz' ? fieldText(v, 'hertz') : String(v);
   }
 
   /** Downloads the plan as CSV: the spur table, then the figures (UTF-8 with a byte-order mark). */
@@ -153,12 +158,12 @@ export class PlanViewComponent {
   protected ifText(mixer: StageInstance): string {
     const typed: string | undefined = mixer.entered?.['ifHz'];
     const value = mixer.values['ifHz'];
-    return typed ?? (typeof value === 'number' ? formatEngineering(value, 'hertz', 6) : '');
+    return typed ?? (typeof value === 'number' ? fieldText(value, 'hertz') : '');
   }
   /** A stage's share of the off-channel IM product, as a percentage. */
   protected imShare(plan: PlanReport, i: number): string {
     const share: number | undefined = plan.intermod.stages[i]?.share;
-    return share === undefined ? '—' : `${(100 * share).toFixed(0)} %`;
+    return share === undefined ? '—' : percent(share);
   }
 
   /** One planning setting changed: an undoable edit of the chain's settings. */

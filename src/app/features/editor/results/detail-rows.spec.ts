@@ -52,10 +52,10 @@ describe('detail-rows', () => {
       expect(rows[0]).toMatchObject({
         stage: 'Preselector',
         resonance: '10.02 MHz',
-        loadedQ: '25.0',
-        unloadedQ: '180.0',
+        loadedQ: '25',
+        unloadedQ: '180',
         bandwidth: '400.8 kHz',
-        detachedQ: '90.0',
+        detachedQ: '90',
         detachedBandwidth: '111.3 kHz',
         loadingRatio: '0.28',
         downstreamShare: '72 %',
@@ -102,7 +102,7 @@ describe('detail-rows', () => {
     it('should state the floor where the response levels off near −60 dB', () => {
       const floor = sampleResult();
       floor.selectivity[1] = { ...floor.selectivity[1], bw60dbHz: null, depthDb: 60.04 };
-      expect(selectivityRows(floor)[1].bw60).toBe('floor at −60.0 dB');
+      expect(selectivityRows(floor)[1].bw60).toBe('floor at −60.04 dB');
     });
 
     it('should say when the −60 dB points lie beyond the sweep', () => {
@@ -112,7 +112,7 @@ describe('detail-rows', () => {
 
     it('should show the attenuation on both sides of each offset', () => {
       expect(offsetHeadings(document)).toEqual(['±100 kHz']);
-      expect(rows[1].offsets).toEqual(['62.1 dB / 63.0 dB']);
+      expect(rows[1].offsets).toEqual(['62.1 dB / 63 dB']);
     });
   });
 
@@ -126,7 +126,7 @@ describe('detail-rows', () => {
 
     it('should state the channel the noise floor is measured in', () => {
       expect(item('noise-floor')).toMatchObject({
-        value: '-134.0 dBm',
+        value: '-134 dBm',
         note: 'in a 10 kHz channel at 290 K',
       });
     });

@@ -96,12 +96,12 @@ export function resonatorRows(result: AnalysisResult, document: ChainDocument): 
     origin: originOf(r, document),
     pairPeak: r.pairPeakHz == null ? '' : engineering(r.pairPeakHz, 'hertz'),
     resonance: r.resonanceHz === null ? 'none in sweep' : engineering(r.resonanceHz, 'hertz'),
-    loadedQ: plain(r.loadedQ, 1),
-    unloadedQ: plain(r.unloadedQ, 1),
+    loadedQ: plain(r.loadedQ),
+    unloadedQ: plain(r.unloadedQ),
     bandwidth: engineering(r.bandwidthHz, 'hertz'),
-    detachedQ: plain(r.detachedQ, 1),
+    detachedQ: plain(r.detachedQ),
     detachedBandwidth: engineering(r.detachedBandwidthHz, 'hertz'),
-    loadingRatio: plain(r.loadingRatio, 2),
+    loadingRatio: plain(r.loadingRatio),
     downstreamShare: percent(r.downstreamShare),
     loading: loadingState(r.loadingRatio, thresholds),
   }));
@@ -114,7 +114,7 @@ export function offsetHeadings(document: ChainDocument): string[] {
 /** The −60 dB width, or why there is none: a floor the response levels off at, or the sweep. */
 function bw60Text(s: AnalysisResult['selectivity'][number]): string {
   if (s.bw60dbHz !== null) return engineering(s.bw60dbHz, 'hertz');
-  if (s.depthDb != null) return `floor at −${s.depthDb.toFixed(1)} dB`;
+  if (s.depthDb != null) return `floor at −${decibels(s.depthDb)}`;
   return 'beyond sweep';
 }
 
@@ -128,7 +128,7 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
       peakStepUp: decibels(s.peakStepUpDb),
       bw3: engineering(s.bw3dbHz, 'hertz'),
       bw60: bw60Text(s),
-      shapeFactor: plain(s.shapeFactor, 2),
+      shapeFactor: plain(s.shapeFactor),
       offsets: s.offsets.map((o) =>
         o.belowDb === null && o.aboveDb === null
           ? NO_VALUE
@@ -154,14 +154,14 @@ export function summaryItems(result: AnalysisResult, document: ChainDocument): S
     {
       key: 'nf',
       label: 'Noise figure',
-      value: decibels(l.noiseFigureDb, 'dB', 2),
-      note: `Te ${plain(l.noiseTemperatureK, 1)} K`,
+      value: decibels(l.noiseFigureDb),
+      note: `Te ${plain(l.noiseTemperatureK)} K`,
     },
     {
       key: 'tsys',
       label: 'System noise temperature',
-      value: `${plain(l.systemNoiseTemperatureK, 1)} K`,
-      note: `at the antenna terminals: source ${plain(l.sourceNoiseTemperatureK, 1)} K + Te`,
+      value: `${plain(l.systemNoiseTemperatureK)} K`,
+      note: `at the antenna terminals: source ${plain(l.sourceNoiseTemperatureK)} K + Te`,
     },
     { key: 'gain', label: 'Total available gain', value: decibels(l.totalGainDb) },
     {

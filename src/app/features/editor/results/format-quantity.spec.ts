@@ -4,6 +4,7 @@ import {
   decibels,
   degrees,
   engineering,
+  figures,
   impedancePolar,
   impedanceRect,
   percent,
@@ -49,13 +50,22 @@ describe('format-quantity', () => {
   });
 
   describe('decibels', () => {
-    it('should keep the stated decimals', () => {
-      expect(decibels(-3, 'dB', 1)).toBe('-3.0 dB');
+    it("should write the user's figures counted from the units digit", () => {
+      expect(decibels(-3.01234)).toBe('-3.012 dB');
       expect(decibels(-120.66, 'dBm')).toBe('-120.7 dBm');
+      expect(decibels(-0.01234)).toBe('-0.012 dB');
+      expect(decibels(-3)).toBe('-3 dB');
+      applySignificantFigures(6);
+      try {
+        expect(decibels(-3.01234)).toBe('-3.01234 dB');
+        expect(decibels(-120.66, 'dBm')).toBe('-120.66 dBm');
+      } finally {
+        applySignificantFigures(4);
+      }
     });
 
     it('should not print a negative zero', () => {
-      expect(decibels(-0.01)).toBe('0.0 dB');
+      expect(decibels(-0.0001)).toBe('0 dB');
     });
 
     it('should show infinities and missing values', () => {
@@ -74,17 +84,34 @@ describe('format-quantity', () => {
       expect(times(2.5e7)).toBe('×2.5e+7');
     });
 
-    it('should show plain numbers and percentages', () => {
-      expect(plain(25.04, 1)).toBe('25.0');
+    it("should show plain numbers and percentages to the user's figures", () => {
+      expect(plain(25.04)).toBe('25.04');
+      expect(plain(25.0449)).toBe('25.04');
+      expect(plain(1e12)).toBe('1e12');
       expect(plain(null)).toBe(NO_VALUE);
       expect(percent(0.72)).toBe('72 %');
+      expect(percent(0.123456)).toBe('12.35 %');
+      applySignificantFigures(3);
+      try {
+        expect(plain(25.0449)).toBe('25');
+        expect(percent(0.123456)).toBe('12.3 %');
+      } finally {
+        applySignificantFigures(4);
+      }
+    });
+
+    it('should never print a negative zero or lose an infinity', () => {
+      expect(figures(-0.00001, 2, true)).toBe('0');
+      expect(figures(Number.POSITIVE_INFINITY)).toBe('∞');
+      expect(figures(Number.NEGATIVE_INFINITY)).toBe('-∞');
     });
   });
 
   describe('degrees', () => {
     it('should not print a negative zero angle', () => {
-      expect(degrees(-0.01)).toBe('0.0°');
-      expect(degrees(-28.46)).toBe('-28.5°');
+      expect(degrees(-0.0001)).toBe('0°');
+      expect(degrees(-28.46)).toBe('-28.46°');
+      expect(degrees(-28.46, 3)).toBe('-28.5°');
     });
   });
 
@@ -95,9 +122,9 @@ describe('format-quantity', () => {
     });
 
     it('should write the polar form with magnitude and angle', () => {
-      expect(impedancePolar({ re: 3, im: 4 })).toBe('5 Ω ∠53.1°');
-      expect(impedancePolar({ re: 0, im: -100 })).toBe('100 Ω ∠-90.0°');
-      expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10 MΩ ∠0.0°');
+      expect(impedancePolar({ re: 3, im: 4 })).toBe('5 Ω ∠53.13°');
+      expect(impedancePolar({ re: 0, im: -100 })).toBe('100 Ω ∠-90°');
+      expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10 MΩ ∠0°');
     });
 
     it('should show cascade rounding left in a part as zero', () => {

@@ -29,20 +29,54 @@ export function engineering(
   return formatEngineering(value, kind, digits);
 }
 
-/** A level or ratio in decibels with a fixed number of decimals, e.g. "-3.0 dB". */
-export function decibels(value: number | null | undefined, unit = 'dB', decimals = 1): string {
-  if (isMissing(value)) return NO_VALUE;
-  if (!Number.isFinite(value)) return `${value > 0 ? '' : '-'}∞ ${unit}`;
-  // Avoid "-0.0 dB", which reads as a loss that is not there.
-  const text = value.toFixed(decimals);
-  return `${Number(text) === 0 ? (0).toFixed(decimals) : text} ${unit}`;
+/**
+ * A stored value written into a field the user edits: at least 6 significant figures (more
+ * when the user chose more), so the text reads back as the value it came from.
+ */
+export function fieldText(value: number, kind: UnitKind): string {
+  return formatEngineering(value, kind, Math.max(6, significantFigures()));
 }
 
-/** A plain number with fixed decimals (Q values, ratios, shape factors). */
-export function plain(value: number | null | undefined, decimals = 2): string {
+/**
+ * `value` rounded to `digits` significant figures, written plainly (exponent form only past
+ * a million or below a ten-thousandth), trailing zeros dropped and never "-0". With
+ * `fromUnits` the count starts at the units digit for values below one, as a level in dB or
+ * an angle is read: -0.0123 dB at 4 figures is "-0.012", not "-0.01230".
+ */
+export function figures(value: number, digits = significantFigures(), fromUnits = false): string {
+  if (!Number.isFinite(value)) return Number.isNaN(value) ? NO_VALUE : value > 0 ? '∞' : '-∞';
+  const n = Math.max(1, Math.min(15, Math.round(digits)));
+  const magnitude = Math.abs(value);
+  if (fromUnits && magnitude < 1) return tidy(value.toFixed(Math.max(0, n - 1)));
+  const rounded = Number(value.toPrecision(n));
+  const abs = Math.abs(rounded);
+  if (abs !== 0 && (abs < 1e-4 || abs >= 1e6)) return rounded.toExponential().replace('e+', 'e');
+  return tidy(String(rounded));
+}
+
+/** Drops trailing zeros after the point and the sign of a zero. */
+function tidy(text: string): string {
+  const trimmed = text.includes('.') ? text.replace(/\.?0+$/, '') : text;
+  return Number(trimmed) === 0 ? '0' : trimmed;
+}
+
+/**
+ * A level or ratio in decibels to the user's significant figures, counted from the units
+ * digit (e.g. "-3.012 dB", "-120.7 dBm", "0.012 dB" at 4 figures).
+ */
+export function decibels(
+  value: number | null | undefined,
+  unit = 'dB',
+  digits = significantFigures(),
+): string {
   if (isMissing(value)) return NO_VALUE;
-  if (!Number.isFinite(value)) return value > 0 ? '∞' : '-∞';
-  return value.toFixed(decimals);
+  return `${figures(value, digits, true)} ${unit}`;
+}
+
+/** A plain number (Q values, ratios, shape factors) to the user's significant figures. */
+export function plain(value: number | null | undefined, digits = significantFigures()): string {
+  if (isMissing(value)) return NO_VALUE;
+  return figures(value, digits);
 }
 
 /**
@@ -59,17 +93,19 @@ export function times(value: number | null | undefined, digits = significantFigu
   return `×${rounded.toExponential()}`;
 }
 
-/** A fraction 0…1 shown as a percentage. */
-export function percent(fraction: number | null | undefined, decimals = 0): string {
+/** A fraction 0…1 shown as a percentage, to the user's significant figures. */
+export function percent(
+  fraction: number | null | undefined,
+  digits = significantFigures(),
+): string {
   if (isMissing(fraction)) return NO_VALUE;
-  return `${(fraction * 100).toFixed(decimals)} %`;
+  return `${figures(fraction * 100, digits)} %`;
 }
 
-/** An angle in degrees with one decimal, never "-0.0°". */
-export function degrees(value: number, decimals = 1): string {
+/** An angle in degrees to the user's significant figures from the units digit, never "-0°". */
+export function degrees(value: number, digits = significantFigures()): string {
   if (Number.isNaN(value)) return NO_VALUE;
-  const text = value.toFixed(decimals);
-  return `${Number(text) === 0 ? (0).toFixed(decimals) : text}°`;
+  return `${figures(value, digits, true)}°`;
 }
 
 /** A complex impedance in rectangular form, e.g. "2.4 kΩ + j150 Ω". */
@@ -95,5 +131,5 @@ export function impedancePolar(
   if (isMissing(z.re) || isMissing(z.im)) return NO_VALUE;
   const magnitude = Math.hypot(z.re, z.im);
   const angle = (Math.atan2(z.im, z.re) * 180) / Math.PI;
-  return `${engineering(magnitude, 'ohm', digits)} ∠${degrees(angle)}`;
+  return `${engineering(magnitude, 'ohm', digits)} ∠${degrees(angle, digits)}`;
 }

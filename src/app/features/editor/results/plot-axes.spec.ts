@@ -1,4 +1,4 @@
-import { logAxisTicks } from './plot-axes';
+import { linearAxisTicks, logAxisTicks } from './plot-axes';
 
 describe('log axis ticks', () => {
   it('should tick a wide impedance span by decades with prefixes and the unit', () => {
@@ -34,5 +34,29 @@ describe('log axis ticks', () => {
   it('should label both ends of a span narrower than one step', () => {
     const ticks = logAxisTicks([52, 58], 'ohm')!;
     expect(ticks.ticktext).toEqual(['52 Ω', '58 Ω']);
+  });
+});
+
+describe('linear axis ticks', () => {
+  it('should step a frequency span by 1, 2 or 5 with prefixes and the unit', () => {
+    const ticks = linearAxisTicks([9.5e6, 10.5e6], 'hertz')!;
+    expect(ticks.tickvals).toEqual([9.6e6, 9.8e6, 10e6, 10.2e6, 10.4e6]);
+    expect(ticks.ticktext).toEqual(['9.6 MHz', '9.8 MHz', '10 MHz', '10.2 MHz', '10.4 MHz']);
+  });
+
+  it('should write as many figures as the step needs to tell ticks apart', () => {
+    const ticks = linearAxisTicks([10.7e6, 10.7012e6], 'hertz')!;
+    expect(ticks.ticktext[0]).toBe('10.7 MHz');
+    expect(ticks.ticktext[1]).toBe('10.7002 MHz');
+  });
+
+  it('should cross zero with signed ticks and an exact zero', () => {
+    const ticks = linearAxisTicks([-4200, 3100], 'hertz')!;
+    expect(ticks.ticktext).toEqual(['-4 kHz', '-2 kHz', '0 Hz', '2 kHz']);
+  });
+
+  it('should give two ticks or more for a single value and none for no values', () => {
+    expect(linearAxisTicks([50, 50], 'ohm')!.tickvals.length).toBeGreaterThanOrEqual(2);
+    expect(linearAxisTicks([null, NaN], 'ohm')).toBeNull();
   });
 });

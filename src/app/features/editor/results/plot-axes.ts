@@ -54,3 +54,50 @@ export function logAxisTicks(values: ArrayLike<number>, kind: UnitKind): AxisTic
     ticktext: tickvals.map((v) => engineering(v, kind, 3)),
   };
 }
+
+/** The finite values' low and high, or null when there are none. */
+function span(values: Iterable<number | null | undefined>): [number, number] | null {
+  let low = Infinity;
+  let high = -Infinity;
+  for (const v of values) {
+    if (typeof v === 'number' && Number.isFinite(v)) {
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+    }
+  }
+  return low <= high ? [low, high] : null;
+}
+
+/**
+ * Ticks for a linear axis over the finite `values`: about `target` steps of 1, 2 or 5 times
+ * a power of ten, each labelled with a prefix and the unit ("10.2 MHz", "−5 kHz"), with as
+ * many figures as the step needs to tell neighbours apart. Null when no value is usable.
+ */
+export function linearAxisTicks(
+  values: Iterable<number | null | undefined>,
+  kind: UnitKind,
+  target = 6,
+): AxisTicks | null {
+  const range = span(values);
+  if (!range) return null;
+  let [low, high] = range;
+  if (low === high) {
+    const pad = Math.abs(low) * 0.01 || 1;
+    [low, high] = [low - pad, high + pad];
+  }
+  const rough = (high - low) / target;
+  const power = 10 ** Math.floor(Math.log10(rough));
+  const step = [1, 2, 5, 10].map((m) => m * power).find((s) => s >= rough) ?? 10 * power;
+  const first = Math.ceil(low / step - 1e-9);
+  const last = Math.floor(high / step + 1e-9);
+  const tickvals: number[] = [];
+  // Rounded to 12 figures so 0.3 MHz does not print as 299.99999 kHz; an exact zero stays 0.
+  for (let i = first; i <= last; i++) tickvals.push(i === 0 ? 0 : Number((i * step).toPrecision(12))); // prettier-ignore
+  const largest = Math.max(Math.abs(low), Math.abs(high));
+  const digits = Math.max(1, Math.floor(Math.log10(largest)) - Math.floor(Math.log10(step)) + 1);
+  return {
+    tickmode: 'array',
+    tickvals,
+    ticktext: tickvals.map((v) => engineering(v, kind, Math.min(digits, 12))),
+  };
+}

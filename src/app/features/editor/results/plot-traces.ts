@@ -5,8 +5,9 @@
  */
 import type { Annotation, Data, Layout, LayoutAxis, Shape } from 'plotly.js-dist-min';
 import type { AnalysisResult, SweepReport } from '../../../../../shared/engine/types';
-import { logAxisTicks } from './plot-axes';
-import { engineering } from './format-quantity';
+import { linearAxisTicks, logAxisTicks } from './plot-axes';
+import { decibels, degrees, engineering, figures, impedanceRect } from './format-quantity';
+import { significantFigures } from '../../../core/format/number-format';
 import type { PlotPalette } from './plot-theme';
 
 export interface PlotFigure {
@@ -76,15 +77,21 @@ export function defaultPlotNodes(result: AnalysisResult): number[] {
 
 function frequencyAxis(ctx: PlotContext): Partial<LayoutAxis> {
   const log = ctx.scale === 'log';
-  // On a log axis the ticks are ours ("100 kHz", "1 MHz"); a linear one uses Plotly's SI form.
-  const ticks = log ? logAxisTicks(ctx.sweep.freqsHz, 'hertz') : null;
+  // Ticks written as the tables write values ("100 kHz", "1 MHz"), on either scale.
+  const ticks = log
+    ? logAxisTicks(ctx.sweep.freqsHz, 'hertz')
+    : linearAxisTicks(ctx.sweep.freqsHz, 'hertz');
+  // The shared hover box's heading is written by Plotly (d3's SI form has no space before
+  // the prefix), to the user's number of significant figures; the values under it are ours.
+  const heading = `%{x:.${significantFigures()}~s}Hz`;
   return {
     ...axisStyle(ctx.palette),
     type: log ? 'log' : 'linear',
     title: { text: 'Frequency at the chain input' },
     ...(ticks ?? { ticksuffix: 'Hz', exponentformat: 'SI' }),
-    hoverformat: '.4s',
-  };
+    hoverformat: `.${significantFigures()}~s`,
+    unifiedhovertitle: { text: heading },
+  } as Partial<LayoutAxis>;
 }
 
 export function axisStyle(palette: PlotPalette): Partial<LayoutAxis> {
@@ -179,7 +186,8 @@ export function stepUpFigure(ctx: PlotContext, nodes: number[]): PlotFigure {
       x: ctx.sweep.freqsHz,
       y: series.stepUpDb,
       line: { color: colour, width: 2 },
-      hovertemplate: '%{y:.2f} dB<extra>' + name + '</extra>',
+      customdata: series.stepUpDb.map((v) => decibels(v)),
+      hovertemplate: '%{customdata}<extra>' + name + '</extra>',
     });
     const edges = halfPowerEdges(ctx.sweep.freqsHz, series.stepUpDb);
     if (edges) {
@@ -192,7 +200,8 @@ export function stepUpFigure(ctx: PlotContext, nodes: number[]): PlotFigure {
         x: [edges.lowHz, edges.highHz],
         y: [edges.levelDb, edges.levelDb],
         marker: { color: colour, size: 9, symbol: 'diamond-open', line: { width: 2 } },
-        hovertemplate: `−3 dB edge %{x:.4s}Hz<extra>${name}</extra>`,
+        customdata: [edges.lowHz, edges.highHz].map((hz) => engineering(hz, 'hertz')),
+        hovertemplate: `−3 dB edge %{customdata}<extra>${name}</extra>`,
       });
     }
   });
@@ -223,7 +232,8 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
         x: ctx.sweep.freqsHz,
         y: magnitude,
         line: { color: seriesColour(ctx.palette, 0), width: 2 },
-        hovertemplate: '%{y:.4s}Ω<extra>|Z in|</extra>',
+        customdata: magnitude.map((v) => engineering(v, 'ohm')),
+        hovertemplate: '%{customdata}<extra>|Z in|</extra>',
       },
       {
         type: 'scatter',
@@ -233,7 +243,8 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
         y: phase,
         yaxis: 'y2',
         line: { color: seriesColour(ctx.palette, 1), width: 2, dash: 'dash' },
-        hovertemplate: '%{y:.1f}°<extra>Phase</extra>',
+        customdata: phase.map((v) => degrees(v)),
+        hovertemplate: '%{customdata}<extra>Phase</extra>',
       },
     ],
     layout: {
@@ -296,7 +307,8 @@ export function returnLossFigure(ctx: PlotContext, thresholdDb: number): PlotFig
         x: ctx.sweep.freqsHz,
         y: ctx.sweep.returnLossDb,
         line: { color: seriesColour(ctx.palette, 2), width: 2 },
-        hovertemplate: '%{y:.2f} dB<extra>Return loss</extra>',
+        customdata: ctx.sweep.returnLossDb.map((v) => decibels(v)),
+        hovertemplate: '%{customdata}<extra>Return loss</extra>',
       },
     ],
     layout: {
@@ -322,6 +334,11 @@ function nearestPoint(freqs: number[], hz: number): number {
   return best;
 }
 
+/** A normalised impedance, e.g. "1.02 - j0.3", to the user's significant figures. */
+function normalised(re: number, im: number): string {
+  return `${figures(re)} ${im < 0 ? '-' : '+'} j${figures(Math.abs(im))}`;
+}
+
 /**
  * The input impedance over the sweep on a reflection chart (Plotly's SVG chart of
  * normalised impedance), normalised to `referenceOhm`, with the point nearest f0 marked.
@@ -345,9 +362,13 @@ export function impedanceChartFigure(ctx: PlotContext, referenceOhm: number): Pl
         name: 'Z in / R ref',
         real,
         imag,
-        customdata: ctx.sweep.freqsHz,
+        // Frequency, normalised and actual impedance, written as the tables write them.
+        customdata: ctx.sweep.freqsHz.map(
+          (hz, i) =>
+            `${engineering(hz, 'hertz')}<br>z = ${normalised(real[i], imag[i])}<br>Z = ${impedanceRect({ re: re[i], im: im[i] })}`,
+        ),
         line: { color: seriesColour(ctx.palette, 0), width: 2 },
-        hovertemplate: '%{customdata:.4s}Hz<br>z = %{real:.3f} %{imag:+.3f}j<extra></extra>',
+        hovertemplate: '%{customdata}<extra></extra>',
       } as Data,
       {
         type: 'scattersmith',

@@ -1,7 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import type { ParamSpec, UnitKind } from '../../../../../shared/engine/types';
 import type { ChainDocument, ChainSettings, Thresholds } from '../../../../../shared/schema/chain';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
+import { fieldText } from '../results/format-quantity';
 import { QuantityFieldComponent, type QuantityEdit } from '../params/quantity-field.component';
 import { EditorStore } from '../state/editor.store';
 import { ChainTargetsComponent } from './chain-targets.component';
@@ -216,15 +217,13 @@ export class ChainSettingsComponent {
     const current = this.settings().offsetsHz;
     const typed = this.offsetsTyped();
     if (typed && JSON.stringify(typed.values) === JSON.stringify(current)) return typed.text;
-    return current.map((f) => formatEngineering(f, 'hertz', 6)).join(', ');
+    return current.map((f) => fieldText(f, 'hertz')).join(', ');
   });
 
   protected text(field: SettingField): string {
     const current = field.read(this.settings());
     const typed = this.typed()[field.key];
-    return typed && typed.value === current
-      ? typed.text
-      : formatEngineering(current, field.unit, 6);
+    return typed && typed.value === current ? typed.text : fieldText(current, field.unit);
   }
 
   protected onField(field: SettingField, edit: QuantityEdit): void {
@@ -243,7 +242,7 @@ export class ChainSettingsComponent {
     const typed = this.optionalTyped()[key];
     if (typed) return typed.text;
     const v = this.valueOf(key);
-    return v === undefined ? '' : formatEngineering(v, unit, 6);
+    return v === undefined ? '' : fieldText(v, unit);
   }
 
   protected optionalError(key: string): string | null {

@@ -4,7 +4,8 @@ import {
   type ChainSettings,
   type ChainTargets,
 } from '../../../../../shared/schema/chain';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
+import { fieldText } from '../results/format-quantity';
 import { EditorStore } from '../state/editor.store';
 
 type TargetKey = keyof ChainTargets;
@@ -76,7 +77,7 @@ export class ChainTargetsComponent {
 
   protected textOf(field: TargetField): string {
     const v = this.settings().targets?.[field.key];
-    return v === undefined ? '' : formatEngineering(v, field.unit, 6);
+    return v === undefined ? '' : fieldText(v, field.unit);
   }
 
   protected onChange(field: TargetField, event: Event): void {

@@ -11,7 +11,8 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { OptimiserGoal, StudySpecInput } from '../../../../../shared/schema/studies';
-import { formatEngineering, parseQuantity } from '../../../../../shared/units';
+import { parseQuantity } from '../../../../../shared/units';
+import { fieldText } from '../../editor/results/format-quantity';
 import { numberOf, textOf, tunableStages, unitOfKey } from './tunable';
 
 type GoalKind = OptimiserGoal['kind'];
@@ -279,8 +280,8 @@ export class OptimiserFormComponent {
     return {
       stageId,
       key: k,
-      min: v > 0 ? formatEngineering(v / 2, unit) : '',
-      max: v > 0 ? formatEngineering(v * 2, unit) : '',
+      min: v > 0 ? fieldText(v / 2, unit) : '',
+      max: v > 0 ? fieldText(v * 2, unit) : '',
     };
   }
 
@@ -297,8 +298,8 @@ export class OptimiserFormComponent {
       kind,
       stageId,
       node: nodes,
-      hz: formatEngineering(kind === 'return-loss' || kind === 'ripple' ? f0 * 0.98 : span, 'hertz'), // prettier-ignore
-      stopHz: formatEngineering(f0 * 1.02, 'hertz'),
+      hz: fieldText(kind === 'return-loss' || kind === 'ripple' ? f0 * 0.98 : span, 'hertz'), // prettier-ignore
+      stopHz: fieldText(f0 * 1.02, 'hertz'),
       db: db[kind],
       weight: 1,
     };

@@ -4,7 +4,7 @@ import { CsvButtonComponent } from '../../report/csv-button.component';
 import type { BandResult } from '../../../../../shared/engine/studies';
 import { ResultPlotComponent } from '../../editor/results/result-plot.component';
 import { trackingFigure } from '../study-plots';
-import { fmt } from './study-format';
+import { engineering } from '../../editor/results/format-quantity';
 
 /** A band study: how many positions mistrack, the worst error, and tracking against the dial. */
 @Component({
@@ -24,7 +24,7 @@ import { fmt } from './study-format';
       <p data-testid="band-summary">
         {{ r.mistrackedPositions }} position(s) where a ganged circuit is off the dial by more than
         {{ r.mistrackFraction }} of its bandwidth; worst tracking error
-        {{ fmt(r.worstTrackingErrorHz) }} Hz.
+        {{ hz(r.worstTrackingErrorHz) }}.
       </p>
       <cw-result-plot
         [figure]="tracking()"
@@ -42,7 +42,9 @@ export class BandResultComponent {
   /** Every dial position as CSV, built when the button is pressed. */
   protected readonly csv = () => [bandCsv(this.result())];
 
-  protected readonly fmt = fmt;
+  protected hz(v: number | null | undefined): string {
+    return v === null || v === undefined ? '—' : engineering(v, 'hertz');
+  }
   protected readonly tracking = computed(() => {
     const r = this.result();
     return trackingFigure({

@@ -10,6 +10,7 @@ import { ResultPlotComponent } from '../../editor/results/result-plot.component'
 import { numberOf } from '../forms/tunable';
 import { histogramFigure, scatterFigure } from '../study-plots';
 import { pct } from './study-format';
+import { plain } from '../../editor/results/format-quantity';
 
 /** A Monte Carlo run: yield against the chain's targets, histograms, scatter, sensitivity. */
 @Component({
@@ -116,7 +117,7 @@ import { pct } from './study-format';
           @for (s of r.sensitivity; track s.label) {
             <tr>
               <td>{{ s.label }}</td>
-              <td>{{ s.tolerancePct }} %</td>
+              <td>{{ plainNum(s.tolerancePct) }} %</td>
               <td>{{ pct(s.yieldInner) }}</td>
               <td>{{ pct(s.yieldOuter) }}</td>
               <td>{{ pct(s.yieldDrop) }}</td>
@@ -139,6 +140,7 @@ export class MonteCarloResultComponent {
   };
 
   protected readonly pct = pct;
+  protected readonly plainNum = plain;
   protected readonly num = numberOf;
   protected readonly figureIndex = signal(0);
   protected readonly scatterX = signal(0);
@@ -146,20 +148,14 @@ export class MonteCarloResultComponent {
 
   protected readonly histogram = computed(() => {
     const f = this.result().figures[this.figureIndex()];
-    return f
-      ? histogramFigure(
-          f.label,
-          f.unit === 'hertz' ? 'Hz' : f.unit === 'db' ? 'dB' : '',
-          f.histogram,
-        )
-      : null;
+    return f ? histogramFigure(f.label, f.unit, f.histogram) : null;
   });
   protected readonly scatter = computed(() => {
     const r = this.result();
     const [i, j] = [this.scatterX(), this.scatterY()];
     return scatterFigure(
-      r.figures[i]?.label ?? '',
-      r.figures[j]?.label ?? '',
+      { label: r.figures[i]?.label ?? '', unit: r.figures[i]?.unit },
+      { label: r.figures[j]?.label ?? '', unit: r.figures[j]?.unit },
       r.rows.map((row) => row.metrics[i]),
       r.rows.map((row) => row.metrics[j]),
       r.rows.map((row) => row.pass),

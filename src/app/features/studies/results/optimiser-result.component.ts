@@ -3,7 +3,10 @@ import { optimiserCsv } from '../../../../../shared/io/study-csv';
 import { CsvButtonComponent } from '../../report/csv-button.component';
 import { MatButtonModule } from '@angular/material/button';
 import type { OptimiserResult } from '../../../../../shared/engine/studies';
-import { fmt } from './study-format';
+import type { UnitKind } from '../../../../../shared/engine/types';
+import type { OptimiserGoal } from '../../../../../shared/schema/studies';
+import { plain } from '../../editor/results/format-quantity';
+import { goalText, goalUnit, withUnit } from './study-format';
 
 /** An optimiser run: each value and each goal before and after, and "save as a variant". */
 @Component({
@@ -33,23 +36,23 @@ import { fmt } from './study-format';
             <tr>
               <td>
                 {{ v.stageId }} {{ v.key }}
-                <span class="cw-muted">({{ fmt(v.min) }} … {{ fmt(v.max) }})</span>
+                <span class="cw-muted">({{ value(v, v.min) }} to {{ value(v, v.max) }})</span>
               </td>
-              <td>{{ fmt(v.before, 6) }}</td>
-              <td data-testid="opt-after">{{ fmt(v.after, 6) }}</td>
+              <td>{{ value(v, v.before) }}</td>
+              <td data-testid="opt-after">{{ value(v, v.after) }}</td>
             </tr>
           }
           @for (g of r.after.goals; track $index; let i = $index) {
             <tr data-testid="opt-goal-row">
-              <td>{{ g.label }}</td>
-              <td>{{ fmt(r.before.goals[i].value, 6) }}</td>
-              <td>{{ fmt(g.value, 6) }}</td>
+              <td>{{ goalLabel(i, g.label) }}</td>
+              <td>{{ goalValue(i, r.before.goals[i].value) }}</td>
+              <td>{{ goalValue(i, g.value) }}</td>
             </tr>
           }
           <tr>
             <td>Cost (weighted sum of squared goal misses)</td>
-            <td>{{ fmt(r.before.cost) }}</td>
-            <td data-testid="opt-cost-after">{{ fmt(r.after.cost) }}</td>
+            <td>{{ num(r.before.cost) }}</td>
+            <td data-testid="opt-cost-after">{{ num(r.after.cost) }}</td>
           </tr>
         </tbody>
       </table>
@@ -74,5 +77,20 @@ export class OptimiserResultComponent {
   readonly saving = input(false);
   readonly save = output<void>();
 
-  protected readonly fmt = fmt;
+  /** The unit of a stage's value (from the catalogue); undefined writes it plainly. */
+  readonly unitOf = input<(stageId: string, key: string) => UnitKind | undefined>(() => undefined);
+  /** The goals the run was asked for, in the result's order: their units and wording. */
+  readonly goals = input<readonly OptimiserGoal[]>([]);
+
+  protected readonly num = plain;
+  protected value(v: { stageId: string; key: string }, x: number): string {
+    return withUnit(x, this.unitOf()(v.stageId, v.key));
+  }
+  protected goalValue(i: number, x: number | null): string {
+    return withUnit(x, goalUnit(this.goals()[i]));
+  }
+  protected goalLabel(i: number, fallback: string): string {
+    const goal = this.goals()[i];
+    return goal ? goalText(goal) : fallback;
+  }
 }

@@ -1,12 +1,47 @@
-/** How the study pages write fractions and plain numbers. */
+/**
+ * How the study pages write figures: through the one formatter the editor uses (prefixes,
+ * units, the user's significant figures), so a study's numbers read like the budget's.
+ */
+import type { UnitKind } from '../../../../../shared/engine/types';
+import type { OptimiserGoal } from '../../../../../shared/schema/studies';
+import { decibels, engineering, percent, plain } from '../../editor/results/format-quantity';
+
+/** A fraction 0…1 as a percentage, to the user's significant figures. */
 export function pct(v: number | null | undefined): string {
-  return v === null || v === undefined ? '—' : `${(v * 100).toFixed(1)} %`;
+  return percent(v);
 }
 
-export function fmt(v: number | null | undefined, digits = 4): string {
+/** A figure with its unit: prefixed for SI kinds, "dB" for levels, plain for ratios. */
+export function withUnit(v: number | null | undefined, unit: UnitKind | undefined): string {
   if (v === null || v === undefined) return '—';
-  // Component values (pF, µH) would round to 0 as grouped decimals: show them as 2.16e-10.
-  const a = Math.abs(v);
-  if (a !== 0 && (a < 1e-3 || a >= 1e12)) return v.toPrecision(digits);
-  return Number(v.toPrecision(digits)).toLocaleString('en', { maximumFractionDigits: 6 });
+  if (unit === 'db' || unit === 'dbm') return decibels(v, unit === 'db' ? 'dB' : 'dBm');
+  if (unit === undefined || unit === 'ratio' || unit === 'none') return plain(v);
+  return engineering(v, unit);
+}
+
+/** The unit of the figure an optimiser goal judges. */
+export function goalUnit(goal: OptimiserGoal | undefined): UnitKind | undefined {
+  if (!goal) return undefined;
+  return goal.kind === 'resonance' || goal.kind === 'bandwidth' ? 'hertz' : 'db';
+}
+
+/** An optimiser goal in words, its frequencies and levels written as the tables write them. */
+export function goalText(goal: OptimiserGoal): string {
+  const hz = (v: number) => engineering(v, 'hertz');
+  switch (goal.kind) {
+    case 'resonance':
+      return `Resonance of ${goal.stageId} at ${hz(goal.targetHz)}`;
+    case 'bandwidth':
+      return `−3 dB width at node ${goal.node}: ${hz(goal.targetHz)}`;
+    case 'return-loss':
+      return `Return loss ≥ ${decibels(goal.minDb)}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`;
+    case 'noise-figure':
+      return `Noise figure ≤ ${decibels(goal.maxDb)}`;
+    case 'gain':
+      return `Gain ${decibels(goal.targetDb)}`;
+    case 'image-rejection':
+      return `Image rejection ≥ ${decibels(goal.minDb)}`;
+    case 'ripple':
+      return `Ripple ≤ ${decibels(goal.maxDb)} at node ${goal.node}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`; // prettier-ignore
+  }
 }
