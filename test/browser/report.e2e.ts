@@ -181,7 +181,10 @@ describe('printable report', () => {
     ]);
     expect(download.suggestedFilename()).toBe(`${STEM}_50ohm_flags.csv`);
     const csv = readFileSync((await download.path())!, 'utf8');
-    expect(csv.split('\r\n')[0]).toBe('\uFEFFSeverity,Stage,Code,Message');
+    const lines = csv.split('\r\n');
+    // The first line states the precision the numbers carry; the headings follow.
+    expect(lines[0]).toMatch(/^\uFEFF# Numbers in SI units .* 9 significant figures/);
+    expect(lines[1]).toBe('Severity,Stage,Code,Message');
     for (const flag of analysis.flags) expect(csv).toContain(flag.message.replace(/"/g, '""'));
   });
 
