@@ -16,22 +16,31 @@
  * frequencies, so from there on nothing is read from the nominal.
  */
 import type { BuiltChain } from '../core/build';
-import { backStep, MIN_NODE_HZ, sourceStep, voltageStep } from '../core/nodes';
+import { backStep, MIN_NODE_HZ, sourceStep, voltageStep, type NodeAnalysis } from '../core/nodes';
 import type { Probe } from '../core/probe';
-import { gridMax, locateEdge, locatePeak, toDb } from '../core/response-shape';
+import {
+  gridDb,
+  locateEdge,
+  locatePeak,
+  powerMax,
+  stepUpPower,
+  toDb,
+} from '../core/response-shape';
 import type { ComplexFn, Section } from '../types';
 
-const { hypot, abs, log10, max } = Math;
+const { log10, max } = Math;
 
-/** The step-up in dB at one node over a fixed grid, for chains like one nominal chain. */
+/** The response at one node over a fixed grid, for chains like one nominal chain. */
 export interface JudgedSweep {
   /** Input frequencies of the grid, Hz. */
   readonly freqs: Float64Array;
   /**
-   * 20·log10(|V[flat]|/|Es|) at every grid point of `built` (a chain built like the nominal,
-   * its load level settled), into `db`. The array is the sweep's own, valid until the next call.
+   * A node analysis of `built` (a chain built like the nominal, its load level settled) over
+   * the grid, worked out only as far as the voltage at flat node `flat` needs: the frequencies,
+   * EMF and Zin at every node, and the voltages at nodes 0 … flat. Zsrc and the voltages past
+   * `flat` are not filled. Its arrays are the sweep's own, valid until the next call.
    */
-  stepUpDb(built: BuiltChain, flat: number): Float64Array;
+  run(built: BuiltChain, flat: number): NodeAnalysis;
 }
 
 /** The stage model's own section behind flat section j (stable while the model is reused). */
@@ -64,7 +73,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
   const zsIm = new Float64Array(P);
   const emf = new Float64Array(P);
   const pair = new Float64Array(2 * P);
-  const db = new Float64Array(P);
+  const unfilled = new Float64Array(0);
 
   function shape(n: number): void {
     if (n === N) return;
@@ -109,7 +118,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
   const fixedZs = Float64Array.from(pair);
   const fixedEmf = Float64Array.from(grid, (f) => nominalSource.emf(f));
 
-  function stepUpDb(built: BuiltChain, flat: number): Float64Array {
+  function run(built: BuiltChain, flat: number): NodeAnalysis {
     shape(built.sections.length);
     fillSections(built, fixed);
     // Locals, not the closure's reassignable bindings, in the loops below.
@@ -147,14 +156,24 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
       const at = j * P;
       for (let k = 0; k < P; k++) voltageStep(m, 8 * k, zinRe, zinIm, vRe, vIm, at + k, at + P + k);
     }
-    const base = flat * P;
-    for (let k = 0; k < P; k++) {
-      db[k] = 20 * log10(hypot(vRe[base + k], vIm[base + k]) / abs(emf[k]));
-    }
-    return db;
+    return {
+      points: P,
+      nodes: N + 1,
+      freqs: grid,
+      fNode,
+      zinRe,
+      zinIm,
+      zsrcRe: unfilled,
+      zsrcIm: unfilled,
+      vRe,
+      vIm,
+      emf,
+      blockAbcd: unfilled,
+      blockPair: pair,
+    };
   }
 
-  return { freqs: grid, stepUpDb };
+  return { freqs: grid, run };
 }
 
 /** The −3 dB points are the half-power points (as core/selectivity.ts reads them). */
@@ -183,14 +202,15 @@ export function judgedSelectivity(
   imageHz: number | null,
 ): JudgedSelectivity {
   const flat = built.userNodeFlat[node];
-  const f = sweep.freqs;
-  const db = sweep.stepUpDb(built, flat);
-  const k = gridMax(db);
-  const peak = k >= 0 ? locatePeak(probe, flat, f, db, k) : null;
+  const na = sweep.run(built, flat);
+  const power = new Float64Array(na.points);
+  stepUpPower(na, flat, power);
+  const k = powerMax(power, na.points);
+  const peak = k >= 0 ? locatePeak(probe, flat, na.freqs, gridDb(na, flat, k), k) : null;
   let bw3: number | null = null;
-  if (peak && f.length > 2) {
-    const lo = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, -1);
-    const hi = locateEdge(probe, flat, f, db, k, peak.db - HALF_POWER_DB, 1);
+  if (peak && na.points > 2) {
+    const lo = locateEdge(probe, flat, na, power, k, peak.db - HALF_POWER_DB, -1);
+    const hi = locateEdge(probe, flat, na, power, k, peak.db - HALF_POWER_DB, 1);
     bw3 = lo && hi ? hi.fHz - lo.fHz : null;
   }
   const image =

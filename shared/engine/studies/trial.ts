@@ -15,13 +15,7 @@
  */
 import type { ChainDocument } from '../../schema/chain';
 import { buildChain, type BuiltChain } from '../core/build';
-import {
-  coupledExtract,
-  probePointEval,
-  resonateNear,
-  seriesExtract,
-  type Resonance,
-} from '../core/extract-resonance';
+import { probePointEval, resonateNear, seriesExtract } from '../core/extract-resonance';
 import { settleLoadLevel } from '../core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from '../core/nodes';
 import { createProbe, type Probe } from '../core/probe';
@@ -35,6 +29,7 @@ import { frequencyGrid } from '../core/sweep';
 import { chainTopology } from '../core/topology';
 import { defaultCatalogue } from '../default-catalogue';
 import type { MeasuredNetwork, ResonatorDecl } from '../types';
+import { followCoupledTank } from './coupled-follow';
 import { createJudgedSweep, judgedSelectivity, type JudgedSweep } from './judged-sweep';
 
 const finiteOrNull = (v: number | null | undefined): number | null =>
@@ -173,21 +168,13 @@ function followed(
       const decl = d.decl as ResonatorDecl & { kind: 'shunt' };
       const first = decl.coupledPartner === 'downstream';
       const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
-      const own = decl.ownAdmittance;
-      const at = probePointEval(probe, flat);
-      const att = resonateNear(at, coupledExtract(flat, own, true, true, false), f.fIn, f.sign);
-      if (!att) return NOT_FOUND;
-      const qA = finiteOrNull(att.q);
+      const tank = followCoupledTank(built, probe, flat, decl.ownAdmittance, f.fIn, f.sign);
+      if (!tank) return NOT_FOUND;
+      const qA = tank.loadedQ;
       // The first tank is damped by its partner on purpose: no loading ratio (coupled-pair.ts).
-      if (first || qA === null) return found(att.fIn, att.fr, qA, null);
-      const det: Resonance | null = resonateNear(
-        at,
-        coupledExtract(flat, own, true, false, false),
-        att.fIn,
-        f.sign,
-      );
-      const qD = finiteOrNull(det?.q);
-      return found(att.fIn, att.fr, qA, qD ? qA / qD : null);
+      if (first || qA === null) return found(tank.fIn, tank.fr, qA, null);
+      const qD = tank.detachedQ;
+      return found(tank.fIn, tank.fr, qA, qD ? qA / qD : null);
     }
   }
 }
