@@ -168,9 +168,9 @@ export function assertWithinBudget(doc: ChainDocument, runs = 1): void {
   }
 }
 
-/** Whether `doc` is within the stages × points budget. */
-export function withinBudget(doc: ChainDocument): boolean {
-  return doc.stages.length * doc.settings.sweep.points <= limits.maxStagePoints;
+/** Whether `doc` is within the stages × points budget, analysed `runs` times (modes). */
+export function withinBudget(doc: ChainDocument, runs = 1): boolean {
+  return doc.stages.length * runs * doc.settings.sweep.points <= limits.maxStagePoints;
 }
 
 /**

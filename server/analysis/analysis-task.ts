@@ -8,6 +8,7 @@ import type { ChainDocument } from '../../shared/schema/chain';
 import type { SweepTrace } from '../../shared/schema/sweep-columns';
 import type { DesignOp } from '../design/design-ops';
 import type { AnswerEncoding } from './answer-encoding';
+import type { ExportFile, ExportSpec } from './export-file';
 
 export interface AnalysisTask {
   document: ChainDocument;
@@ -16,10 +17,14 @@ export interface AnalysisTask {
    * `answer`: the API's JSON answer as text (serialised in the thread, so the event loop only
    * sends it); `flag-count`: the number of warning and error flags, for the chain list;
    * `result`: the engine's whole result as JSON text (with the sweep arrays when `traces` is
-   * not empty), for a shared link and a revision diff; `design`: design operation `op` on
-   * `request` (the parsed body), its answer as JSON text.
+   * not empty), for a revision diff; `design`: design operation `op` on
+   * `request` (the parsed body), its answer as JSON text; `shared`: a shared link's figures
+   * (the whole result and, for a chain with modes, each mode's) as JSON text; `export`: the
+   * file `export` asks for.
    */
-  want: 'answer' | 'flag-count' | 'result' | 'design';
+  want: 'answer' | 'flag-count' | 'result' | 'design' | 'shared' | 'export';
+  /** The export asked for (`want: 'export'`). */
+  export?: ExportSpec;
   /** The design operation (`want: 'design'`). */
   op?: DesignOp;
   /** The parsed request body of the design operation, without its document (sent once, above). */
@@ -43,6 +48,7 @@ export type AnalysisOutcome =
   | { kind: 'answer'; body: Uint8Array; encoding?: AnswerEncoding }
   | { kind: 'flag-count'; count: number }
   | { kind: 'json'; json: string }
+  | { kind: 'export'; file: ExportFile }
   | {
       kind: 'refused';
       /** The API's error code (default `invalid-chain`). */

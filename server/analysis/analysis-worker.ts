@@ -7,7 +7,6 @@ import {
   analyseModes,
   analyzeChain,
   ChainValidationError,
-  StageParameterError,
   type AnalysisResult,
 } from '../../shared/engine';
 import type { ModeAnalysisDto, ModesAnalysisDto } from '../../shared/schema/api';
@@ -15,20 +14,8 @@ import { sweepToColumns, type AnalysisDto } from '../../shared/schema/sweep-colu
 import { runDesignOp } from '../design/design-ops';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
 import { encodeAnswer } from './answer-encoding';
-
-function refusal(err: unknown): Extract<AnalysisOutcome, { kind: 'refused' }> | null {
-  if (err instanceof ChainValidationError) {
-    return { kind: 'refused', message: err.message, details: err.issues };
-  }
-  if (err instanceof StageParameterError) {
-    return {
-      kind: 'refused',
-      message: err.message,
-      details: [{ param: err.param, path: [], message: err.message }],
-    };
-  }
-  return null;
-}
+import { engineRefusal } from './engine-errors';
+import { runExport, runShared } from './thread-jobs';
 
 function toDto(result: AnalysisResult, task: AnalysisTask): AnalysisDto {
   const { sweep: full, ...rest } = result;
@@ -47,7 +34,7 @@ function allModes(task: AnalysisTask, options: Parameters<typeof analyzeChain>[1
         kind: mode?.kind ?? ('receive' as const),
       };
       if (entry.ok) return { ...head, ok: true, result: toDto(entry.result, task) };
-      const refused = refusal(new ChainValidationError(entry.issues));
+      const refused = engineRefusal(new ChainValidationError(entry.issues));
       return { ...head, ok: false, message: refused!.message, issues: entry.issues };
     }),
   };
@@ -61,7 +48,7 @@ function runDesign(task: AnalysisTask): AnalysisOutcome {
     const answer = runDesignOp(task.op!, request, task.dataFiles ? { dataFiles: task.dataFiles } : {}); // prettier-ignore
     return { kind: 'json', json: JSON.stringify(answer) };
   } catch (err) {
-    const refused = refusal(err);
+    const refused = engineRefusal(err);
     if (refused) return refused;
     // The assistants' own checks of what they were asked (a coil form, a value to snap).
     if (err instanceof RangeError) {
@@ -79,7 +66,7 @@ function runWhole(task: AnalysisTask): AnalysisOutcome {
     });
     return { kind: 'json', json: JSON.stringify(result) };
   } catch (err) {
-    const refused = refusal(err);
+    const refused = engineRefusal(err);
     if (refused) return refused;
     throw err;
   }
@@ -88,6 +75,8 @@ function runWhole(task: AnalysisTask): AnalysisOutcome {
 export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
   if (task.want === 'design') return runDesign(task);
   if (task.want === 'result') return runWhole(task);
+  if (task.want === 'shared') return runShared(task);
+  if (task.want === 'export') return runExport(task);
   const sweep = task.want === 'answer' && task.traces.length > 0;
   const options = {
     sweep,
@@ -108,7 +97,7 @@ export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
     }
     return { kind: 'answer', ...encodeAnswer(JSON.stringify(toDto(result, task)), task.encoding) };
   } catch (err) {
-    const refused = refusal(err);
+    const refused = engineRefusal(err);
     if (refused) return refused;
     throw err;
   }

@@ -1,18 +1,23 @@
 import { ChainValidationError, StageParameterError } from '../../shared/engine/errors';
-import { HttpError } from '../common/errors';
+import type { AnalysisOutcome } from './analysis-task';
+
+export type Refusal = Extract<AnalysisOutcome, { kind: 'refused' }>;
 
 /**
- * The engine's refusal of a chain as a 422 `invalid-chain` with the issues as details, or
- * null when `err` is something else (a fault, passed on as it is).
+ * The engine's refusal of a chain as plain data for the event loop (a thrown error loses its
+ * class and fields between threads), which answers it with 422 `invalid-chain` and the issues
+ * as details; null when `err` is something else (a fault, passed on as it is).
  */
-export function invalidChainError(err: unknown): HttpError | null {
+export function engineRefusal(err: unknown): Refusal | null {
   if (err instanceof ChainValidationError) {
-    return new HttpError(422, 'invalid-chain', err.message, err.issues);
+    return { kind: 'refused', message: err.message, details: err.issues };
   }
   if (err instanceof StageParameterError) {
-    return new HttpError(422, 'invalid-chain', err.message, [
-      { param: err.param, path: [], message: err.message },
-    ]);
+    return {
+      kind: 'refused',
+      message: err.message,
+      details: [{ param: err.param, path: [], message: err.message }],
+    };
   }
   return null;
 }

@@ -7,32 +7,18 @@ import {
   type TouchstoneVersion,
 } from '../../shared/schema/api';
 import type { ChainDocument, Mode } from '../../shared/schema/chain';
-import { chainInMode } from '../../shared/engine';
-import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
-import { chainToTouchstone, TouchstoneExportError } from '../../shared/io/chain-touchstone';
 import { exportFileName } from '../../shared/io/export-name';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { parseOr422 } from '../common/validate';
-import { invalidChainError } from './engine-errors';
-
-/** A stage the asked form cannot express (a mixer in SPICE or Touchstone, an IF block in SPICE). */
-class CannotExportError extends HttpError {
-  constructor(stageId: string, message: string) {
-    super(422, 'cannot-export', message, { stageId });
-  }
-}
-
-interface ExportFile {
-  text: string;
-  contentType: string;
-  extension: string;
-  /** The reference impedance the file's figures are given against, for its name. */
-  referenceOhm?: number;
-  /** What the name says the file holds beyond its kind ('v2' for a Touchstone 2.0 file). */
-  content?: string;
-}
+import { assertWithinBudget, runOnPool } from './analysis-pool';
+import {
+  buildExportFile,
+  exportNeedsEngine,
+  type ExportFile,
+  type ExportSpec,
+} from './export-file';
 
 /** What an export is asked for beyond the document and its format. */
 export interface ExportOptions {
@@ -69,68 +55,31 @@ function modeOfExport(
   return mode;
 }
 
-/** The line naming the mode at the top of a netlist or Touchstone file. */
-function modeLine(comment: '*' | '!', mode: Mode): string {
-  return `${comment} Mode "${mode.name.replace(/[\r\n]+/g, ' ')}" (${mode.kind}, id ${mode.id})`;
-}
-
-/** A 2.0 file must open with its `[Version]` line: the mode's comment goes after it. */
-function withModeLine(touchstone: string, line: string): string {
-  const [first, ...rest] = touchstone.split('\n');
-  return first.startsWith('[Version]')
-    ? [first, line, ...rest].join('\n')
-    : `${line}\n${touchstone}`;
-}
-
+/**
+ * The export's file. Anything that runs the engine runs on the analysis thread pool; a
+ * Touchstone file (the cascade at every sweep point) is under the stages × points budget.
+ */
 async function exportFile(
   em: EntityManager,
   doc: ChainDocument,
-  format: ExportFormat,
-  options: ExportOptions,
-  mode: Mode | undefined,
+  spec: ExportSpec,
+  workspaceId: string | undefined,
 ): Promise<ExportFile> {
-  const { z0, workspaceId, version } = options;
-  const dataFiles = format === 'json' && !mode ? undefined : await loadDataFiles(em, doc, workspaceId); // prettier-ignore
-  const withFiles = dataFiles ? { dataFiles } : {};
-  try {
-    // In a mode, the chain as that mode makes it: its path, its values, nothing left out.
-    const flat: ChainDocument = mode ? chainInMode(doc, mode.id, withFiles) : doc;
-    if (format === 'json') {
-      // Without a mode the chain file needs no engine: it is the document as the schema
-      // accepts it, so a chain the engine refuses can still be taken elsewhere and fixed.
-      const text = mode
-        ? { ...flat, description: `Mode "${mode.name}" (${mode.kind}) of the chain "${doc.name}". ${doc.description}`.trim() } // prettier-ignore
-        : doc;
-      return {
-        text: JSON.stringify(text, null, 2) + '\n',
-        contentType: 'application/json; charset=utf-8',
-        extension: 'chain.json',
-      };
-    }
-    if (format === 'spice') {
-      // The first line of a netlist is its title; the mode goes in the comment below it.
-      const [title, ...rest] = chainToSpice(flat, withFiles).split('\n');
-      return {
-        text: [title, ...(mode ? [modeLine('*', mode)] : []), ...rest].join('\n'),
-        contentType: 'text/plain; charset=utf-8',
-        extension: 'cir',
-      };
-    }
-    const touchstone = chainToTouchstone(flat, { z0: z0 ?? 50, version, ...withFiles });
-    const text = mode ? withModeLine(touchstone, modeLine('!', mode)) : touchstone;
-    return {
-      text,
-      contentType: 'text/plain; charset=utf-8',
-      extension: 's2p',
-      referenceOhm: z0 ?? 50,
-      ...(version === '2.0' ? { content: 'v2' } : {}),
-    };
-  } catch (err) {
-    if (err instanceof SpiceExportError || err instanceof TouchstoneExportError) {
-      throw new CannotExportError(err.stageId, err.message);
-    }
-    throw invalidChainError(err) ?? err;
+  if (!exportNeedsEngine(spec)) return buildExportFile(doc, spec);
+  if (spec.format === 'touchstone') assertWithinBudget(doc);
+  const dataFiles = await loadDataFiles(em, doc, workspaceId);
+  const outcome = await runOnPool({
+    document: doc,
+    ...(dataFiles ? { dataFiles } : {}),
+    want: 'export',
+    export: spec,
+    traces: [],
+  });
+  if (outcome.kind === 'refused') {
+    throw new HttpError(422, outcome.code ?? 'invalid-chain', outcome.message, outcome.details);
   }
+  if (outcome.kind !== 'export') throw new Error(`export thread answered ${outcome.kind}`);
+  return outcome.file;
 }
 
 export async function sendExport(
@@ -141,7 +90,14 @@ export async function sendExport(
   options: ExportOptions,
 ): Promise<void> {
   const mode = modeOfExport(doc, format, options.modeId);
-  const file = await exportFile(em, doc, format, options, mode);
+  const { z0, version } = options;
+  const spec: ExportSpec = {
+    format,
+    ...(z0 === undefined ? {} : { z0 }),
+    ...(version ? { version } : {}),
+    ...(mode ? { mode } : {}),
+  };
+  const file = await exportFile(em, doc, spec, options.workspaceId);
   // A mode's file carries its id: "transceiver_transmit_50ohm.s2p" beside "…_receive_…".
   const name = exportFileName({
     chainName: doc.name,

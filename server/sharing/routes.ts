@@ -6,10 +6,7 @@ import {
   type SharedChainDto,
   type ShareLinkDto,
 } from '../../shared/schema/api';
-import { PLOTTED_TRACES } from '../../shared/schema/sweep-columns';
 import { recordActivity } from '../activity/record';
-import { analyseModes, ChainValidationError } from '../../shared/engine';
-import type { SharedModeDto } from '../../shared/schema/api';
 import {
   AnalysisTooLargeError,
   analysisLimits,
@@ -142,48 +139,27 @@ export function sharedRouter(services: Services): Router {
   router.get('/:token', async (req, res) => {
     const chain = (await linkOf(req)).chain;
     const dataFiles = await loadDataFiles(em, chain.document, chain.workspace.id);
-    // The analysis runs on the thread pool under the analysis budgets; a chain over them or
-    // one the engine refuses is still shown, with the reason in place of its figures.
-    let analysisJson = 'null';
+    // The analyses (the chain's, and each mode's) run on the thread pool under the analysis
+    // budgets; a chain over them or one the engine refuses is still shown, with the reason
+    // in place of its figures.
+    const doc = chain.document;
+    const runs = 1 + (doc.modes?.length ?? 0);
+    let figures = '{"analysis":null}';
     let analysisError: string | undefined;
-    if (!withinBudget(chain.document)) {
-      analysisError = new AnalysisTooLargeError(
-        chain.document.stages.length,
-        chain.document.settings.sweep.points,
-        analysisLimits().maxStagePoints,
-      ).message;
+    if (!withinBudget(doc, runs)) {
+      const { maxStagePoints } = analysisLimits();
+      analysisError = new AnalysisTooLargeError(doc.stages.length * runs, doc.settings.sweep.points, maxStagePoints).message; // prettier-ignore
     } else {
       const outcome = await runOnPool({
-        document: chain.document,
+        document: doc,
         ...(dataFiles ? { dataFiles } : {}),
-        want: 'result',
-        traces: PLOTTED_TRACES, // any: the whole sweep comes with the result
+        want: 'shared',
+        traces: [], // unused: a shared link's result carries the whole sweep
       });
-      if (outcome.kind === 'refused') analysisError = outcome.message;
-      else if (outcome.kind === 'json') analysisJson = outcome.json;
-      else throw new Error(`analysis thread answered ${outcome.kind}`);
+      if (outcome.kind !== 'json') throw new Error(`analysis thread answered ${outcome.kind}`);
+      figures = outcome.json;
     }
-    // A chain with modes: each mode's analysis too (the first is also `analysis`). These
-    // still run here, on the event loop, within the same stages × points budget.
-    const modes: SharedModeDto[] = [];
-    if (analysisJson !== 'null' && chain.document.modes?.length) {
-      const byId = new Map(chain.document.modes.map((m) => [m.id, m]));
-      for (const entry of analyseModes(chain.document, {
-        sweep: true,
-        ...(dataFiles ? { dataFiles } : {}),
-      })) {
-        // prettier-ignore
-        const mode = byId.get(entry.modeId ?? '');
-        if (!mode) continue;
-        const head = { id: mode.id, name: mode.name, kind: mode.kind };
-        modes.push(
-          entry.ok
-            ? { ...head, analysis: entry.result }
-            : { ...head, analysis: null, analysisError: new ChainValidationError(entry.issues).message }, // prettier-ignore
-        );
-      }
-    }
-    const body: Omit<SharedChainDto, 'analysis'> = {
+    const body: Omit<SharedChainDto, 'analysis' | 'modes'> = {
       name: chain.name,
       description: chain.description,
       version: chain.version,
@@ -191,14 +167,14 @@ export function sharedRouter(services: Services): Router {
       workspaceName: chain.workspace.name,
       document: chain.document,
       ...(analysisError ? { analysisError } : {}),
-      ...(modes.length ? { modes } : {}),
     };
-    // The thread serialised the analysis: put it in as text rather than parse it back.
+    // The thread serialised the figures (`analysis`, with `analysisError` or `modes`): put
+    // them in as text rather than parse them back.
     const rest = JSON.stringify(body);
     res
       .set('Cache-Control', 'no-store')
       .type('application/json')
-      .send(`{"analysis":${analysisJson},${rest.slice(1)}`);
+      .send(`${figures.slice(0, -1)},${rest.slice(1)}`);
   });
 
   router.get('/:token/export', async (req, res) => {
