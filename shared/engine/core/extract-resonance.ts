@@ -12,15 +12,15 @@ import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
 import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
+import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
-import { logGrid } from './sweep';
+
+export { bisectRising, ownResonance } from './own-resonance';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, abs, log } = Math;
 const isFiniteNumber = Number.isFinite;
 
-/** Grid points of the search for a resonator's own (unloaded) resonance. */
-const OWN_POINTS = 4001;
 /** Relative step of the central difference for dB/dω. */
 const DIFF_STEP = 1e-6;
 
@@ -61,19 +61,6 @@ function orientation(local: ArrayLike<number> | undefined, k: number): number {
   return !local || local[k + 1] >= local[k] ? 1 : -1;
 }
 
-/** Refines a bracketed rising zero of `g` on [lo, hi] by bisection to machine precision. */
-export function bisectRising(g: (f: number) => number, lo: number, hi: number): number {
-  if (g(hi) === 0) return hi;
-  for (let it = 0; it < 200 && hi - lo > 4 * Number.EPSILON * hi; it++) {
-    const mid = 0.5 * (lo + hi);
-    const v = g(mid);
-    if (v === 0) return mid;
-    if (v < 0) lo = mid;
-    else hi = mid;
-  }
-  return 0.5 * (lo + hi);
-}
-
 export interface Resonance {
   fIn: number;
   fr: number;
@@ -81,7 +68,11 @@ export interface Resonance {
   q: number;
 }
 
-/** Finds the resonance of one probed quantity and its Q. */
+/**
+ * Finds the resonance of one probed quantity nearest `target` (input Hz) and its Q. The grid
+ * is scanned outward from the target (nearest-crossing.ts): the bracket is the one a scan of
+ * the whole grid picks, and only the points up to it are probed.
+ */
 export function resonate(
   built: BuiltChain,
   grid: Float64Array,
@@ -90,16 +81,18 @@ export function resonate(
   target: number,
 ): Resonance | null {
   const out = new Float64Array(3);
-  const im = new Float64Array(grid.length);
-  const local = new Float64Array(grid.length);
-  for (let i = 0; i < grid.length; i++) {
+  const valueAt = (i: number, v: Float64Array) => {
     extract(gridNa, i, out);
-    im[i] = out[1];
-    local[i] = out[2];
-  }
-  const k = nearestRisingCrossing(grid, im, target, local);
+    v[0] = out[1];
+    v[1] = out[2];
+  };
+  const k = nearestRisingOutward(grid.length, (i) => grid[i], valueAt, target, new Float64Array(2)); // prettier-ignore
   if (k < 0) return null;
-  return refineResonance(nodePointEval(built), extract, grid[k], grid[k + 1], orientation(local, k)); // prettier-ignore
+  extract(gridNa, k, out);
+  const localK = out[2];
+  extract(gridNa, k + 1, out);
+  const sign = out[2] >= localK ? 1 : -1;
+  return refineResonance(nodePointEval(built), extract, grid[k], grid[k + 1], sign);
 }
 
 /** The chain at one input frequency, as a node analysis whose point 0 an Extract reads. */
@@ -195,27 +188,6 @@ export function resonateNear(
     if (!isFiniteNumber(v) || ratio >= span) return null;
     prev = f;
   }
-}
-
-/** Resonance and Q of a resonator's own element (unloaded), searched around `near`. */
-export function ownResonance(fn: ComplexFn, near: number): number | null {
-  const grid = logGrid(near / 3, near * 3, OWN_POINTS);
-  const v = new Float64Array(grid.length);
-  const out = new Float64Array(2);
-  const imAt = (f: number) => {
-    fn(f, out, 0);
-    return out[1];
-  };
-  for (let i = 0; i < grid.length; i++) v[i] = imAt(grid[i]);
-  const k = nearestRisingCrossing(grid, v, near);
-  if (k < 0) return null;
-  const fr = bisectRising(imAt, grid[k], grid[k + 1]);
-  fn(fr, out, 0);
-  const real = out[0];
-  const h = fr * DIFF_STEP;
-  const slope = (imAt(fr + h) - imAt(fr - h)) / (2 * PI * 2 * h);
-  const q = ((2 * PI * fr) / (2 * real)) * slope;
-  return isFiniteNumber(q) && q > 0 ? q : null;
 }
 
 function addInverse(re: number, im: number, out: Float64Array, o: number): void {

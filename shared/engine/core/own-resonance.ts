@@ -1,0 +1,65 @@
+/**
+ * A resonator's own (unloaded) resonance and Q: its element alone, searched near the loaded
+ * resonance. The rising zero of the element's imaginary part nearest `near` on a log grid
+ * from near/3 to 3·near (4,001 points), scanned outward from `near` so only the points up to
+ * the crossing are evaluated (nearest-crossing.ts), then bisected to machine precision; Q =
+ * (ωr/2·real)·d(imag)/dω by central difference.
+ */
+import type { ComplexFn } from '../types';
+import { nearestRisingOutward } from './nearest-crossing';
+
+const { PI, exp, log } = Math;
+const isFiniteNumber = Number.isFinite;
+
+/** Grid points of the search for a resonator's own (unloaded) resonance. */
+const OWN_POINTS = 4001;
+/** Relative step of the central difference for dB/dω. */
+const DIFF_STEP = 1e-6;
+
+/** Refines a bracketed rising zero of `g` on [lo, hi] by bisection to machine precision. */
+export function bisectRising(g: (f: number) => number, lo: number, hi: number): number {
+  if (g(hi) === 0) return hi;
+  for (let it = 0; it < 200 && hi - lo > 4 * Number.EPSILON * hi; it++) {
+    const mid = 0.5 * (lo + hi);
+    const v = g(mid);
+    if (v === 0) return mid;
+    if (v < 0) lo = mid;
+    else hi = mid;
+  }
+  return 0.5 * (lo + hi);
+}
+
+/** Q of a resonator's own element at its resonance nearest `near`, or null. */
+export function ownResonance(fn: ComplexFn, near: number): number | null {
+  // The points of logGrid(near / 3, near * 3, OWN_POINTS), computed as it computes them.
+  const start = near / 3;
+  const stop = near * 3;
+  const last = OWN_POINTS - 1;
+  const ratio = log(stop / start) / last;
+  const freqAt = (i: number) => (i === 0 ? start : i === last ? stop : start * exp(ratio * i));
+  const out = new Float64Array(2);
+  const imAt = (f: number) => {
+    fn(f, out, 0);
+    return out[1];
+  };
+  const scratch = new Float64Array(2);
+  const k = nearestRisingOutward(
+    OWN_POINTS,
+    freqAt,
+    (i, v) => {
+      const f = freqAt(i);
+      v[0] = imAt(f);
+      v[1] = f; // the element's own frequency is the grid's: always rising
+    },
+    near,
+    scratch,
+  );
+  if (k < 0) return null;
+  const fr = bisectRising(imAt, freqAt(k), freqAt(k + 1));
+  fn(fr, out, 0);
+  const real = out[0];
+  const h = fr * DIFF_STEP;
+  const slope = (imAt(fr + h) - imAt(fr - h)) / (2 * PI * 2 * h);
+  const q = ((2 * PI * fr) / (2 * real)) * slope;
+  return isFiniteNumber(q) && q > 0 ? q : null;
+}
