@@ -2,16 +2,15 @@ import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCardModule } from '@angular/material/card';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { passwordResetSchema } from '../../../../shared/schema/api';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
-import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
-import { describeHttpError } from '../../core/http/error-message';
+import { zodValidator } from '../../core/forms/zod-validator';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
+import { AuthCardComponent } from '../auth/parts/auth-card.component';
+import { Submission } from '../auth/parts/submission';
+import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.component';
 
 /** Sets a new password with the link from the mail (single use, one hour). */
 @Component({
@@ -19,47 +18,40 @@ import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatCardModule,
-    MatFormFieldModule,
-    MatInputModule,
     MatButtonModule,
+    AuthCardComponent,
+    TextFieldComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <section class="cw-page-narrow">
-      <mat-card appearance="outlined" class="cw-auth-card">
-        <mat-card-content>
-          <h1>Choose a new password</h1>
-          @if (done()) {
-            <p role="status">
-              Your password is changed, and every other sign-in of your account has ended.
-            </p>
-            <p><a routerLink="/sign-in">Sign in</a></p>
-          } @else {
-            <form (ngSubmit)="submit()" novalidate>
-              <mat-form-field>
-                <mat-label>New password</mat-label>
-                <input
-                  matInput
-                  [formControl]="password"
-                  type="password"
-                  autocomplete="new-password"
-                />
-                <mat-hint>At least 10 characters; a few unusual words make a strong one.</mat-hint>
-                <mat-error>{{ message(password) }}</mat-error>
-              </mat-form-field>
-              @if (failure(); as text) {
-                <p class="cw-form-error" role="alert">{{ text }}</p>
-              }
-              <div class="cw-actions">
-                <button mat-flat-button type="submit" [disabled]="busy()">Set password</button>
-                <a routerLink="/forgot-password">Ask for a new link</a>
-              </div>
-            </form>
+    <cw-auth-card>
+      <h1>Choose a new password</h1>
+      @if (done()) {
+        <p role="status">
+          Your password is changed, and every other sign-in of your account has ended.
+        </p>
+        <p><a routerLink="/sign-in">Sign in</a></p>
+      } @else {
+        <form (ngSubmit)="submit()" novalidate>
+          <cw-text-field
+            label="New password"
+            type="password"
+            autocomplete="new-password"
+            [hint]="passwordHint"
+            [control]="password"
+          />
+          @if (submission.failure(); as text) {
+            <p class="cw-form-error" role="alert">{{ text }}</p>
           }
-        </mat-card-content>
-      </mat-card>
-    </section>
+          <div class="cw-actions">
+            <button mat-flat-button type="submit" [disabled]="submission.busy()">
+              Set password
+            </button>
+            <a routerLink="/forgot-password">Ask for a new link</a>
+          </div>
+        </form>
+      }
+    </cw-auth-card>
   `,
   styleUrl: '../auth/auth-page.scss',
 })
@@ -71,24 +63,17 @@ export default class ResetPasswordComponent {
     nonNullable: true,
     validators: [zodValidator(passwordResetSchema.shape.password)],
   });
-  protected readonly message = controlMessage;
-  protected readonly busy = signal(false);
+  protected readonly submission = new Submission();
+  protected readonly passwordHint = NEW_PASSWORD_HINT;
   protected readonly done = signal(false);
-  protected readonly failure = signal('');
 
   protected async submit(): Promise<void> {
     this.password.markAsTouched();
-    if (this.password.invalid || this.busy()) return;
-    this.busy.set(true);
-    this.failure.set('');
-    try {
+    if (this.password.invalid) return;
+    await this.submission.run(async () => {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404, 422, 429]);
       await firstValueFrom(this.api.resetPassword(this.token(), this.password.value, context));
       this.done.set(true);
-    } catch (error) {
-      this.failure.set(describeHttpError(error));
-    } finally {
-      this.busy.set(false);
-    }
+    });
   }
 }

@@ -2,17 +2,16 @@ import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCardModule } from '@angular/material/card';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { loginSchema } from '../../../../shared/schema/api';
 import { AuthApi } from '../../core/api/auth.api';
-import { controlMessage, zodValidator } from '../../core/forms/zod-validator';
-import { describeHttpError } from '../../core/http/error-message';
+import { zodValidator } from '../../core/forms/zod-validator';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { SessionStore } from '../../core/session/session.store';
+import { AuthCardComponent } from './parts/auth-card.component';
+import { Submission } from './parts/submission';
+import { TextFieldComponent } from './parts/text-field.component';
 import { safeReturnUrl } from './return-url';
 
 /** Sign in with e-mail and password, then go back where the user was heading. */
@@ -21,52 +20,44 @@ import { safeReturnUrl } from './return-url';
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatCardModule,
-    MatFormFieldModule,
-    MatInputModule,
     MatButtonModule,
+    AuthCardComponent,
+    TextFieldComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <section class="cw-page-narrow">
-      <mat-card appearance="outlined" class="cw-auth-card">
-        <mat-card-content>
-          <p class="cw-pitch" data-testid="product-sentence">
-            Chainwright follows a signal through a radio receiver front end, stage by stage, and
-            shows where impedance, voltage step-up, loaded Q, noise and linearity go wrong.
-          </p>
-          <h1>Sign in</h1>
-          <p class="cw-muted">Open your workspaces and chains.</p>
-          <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-            <mat-form-field>
-              <mat-label>E-mail</mat-label>
-              <input matInput formControlName="email" type="email" autocomplete="username" />
-              <mat-error>{{ message(form.controls.email) }}</mat-error>
-            </mat-form-field>
-            <mat-form-field>
-              <mat-label>Password</mat-label>
-              <input
-                matInput
-                formControlName="password"
-                type="password"
-                autocomplete="current-password"
-              />
-              <mat-error>{{ message(form.controls.password) }}</mat-error>
-            </mat-form-field>
-            @if (failure(); as text) {
-              <p class="cw-form-error" role="alert">{{ text }}</p>
-            }
-            <div class="cw-actions">
-              <button mat-flat-button type="submit" [disabled]="busy()">Sign in</button>
-              <a routerLink="/forgot-password">Forgot your password?</a>
-              @if (registrationOpen()) {
-                <a routerLink="/register">Create an account</a>
-              }
-            </div>
-          </form>
-        </mat-card-content>
-      </mat-card>
-    </section>
+    <cw-auth-card>
+      <p class="cw-pitch" data-testid="product-sentence">
+        Chainwright follows a signal through a radio receiver front end, stage by stage, and shows
+        where impedance, voltage step-up, loaded Q, noise and linearity go wrong.
+      </p>
+      <h1>Sign in</h1>
+      <p class="cw-muted">Open your workspaces and chains.</p>
+      <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
+        <cw-text-field
+          label="E-mail"
+          type="email"
+          autocomplete="username"
+          [control]="form.controls.email"
+        />
+        <cw-text-field
+          label="Password"
+          type="password"
+          autocomplete="current-password"
+          [control]="form.controls.password"
+        />
+        @if (submission.failure(); as text) {
+          <p class="cw-form-error" role="alert">{{ text }}</p>
+        }
+        <div class="cw-actions">
+          <button mat-flat-button type="submit" [disabled]="submission.busy()">Sign in</button>
+          <a routerLink="/forgot-password">Forgot your password?</a>
+          @if (registrationOpen()) {
+            <a routerLink="/register">Create an account</a>
+          }
+        </div>
+      </form>
+    </cw-auth-card>
   `,
   styleUrl: './auth-page.scss',
 })
@@ -85,9 +76,7 @@ export default class SignInComponent {
     }),
     password: new FormControl('', { nonNullable: true, validators: [Validators.required] }),
   });
-  protected readonly busy = signal(false);
-  protected readonly failure = signal('');
-  protected readonly message = controlMessage;
+  protected readonly submission = new Submission();
   /** Offer registration unless the site says it is closed. */
   protected readonly registrationOpen = signal(true);
 
@@ -101,19 +90,13 @@ export default class SignInComponent {
 
   protected async submit(): Promise<void> {
     this.form.markAllAsTouched();
-    if (this.form.invalid || this.busy()) return;
-    this.busy.set(true);
-    this.failure.set('');
-    try {
+    if (this.form.invalid) return;
+    await this.submission.run(async () => {
       // Wrong password (401), bad fields (422) and throttling (429) are shown in the form.
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [401, 403, 422, 429]);
       const answer = await firstValueFrom(this.auth.login(this.form.getRawValue(), context));
       await this.session.startSession(answer);
       await this.router.navigateByUrl(safeReturnUrl(this.next()) ?? '/');
-    } catch (error) {
-      this.failure.set(describeHttpError(error));
-    } finally {
-      this.busy.set(false);
-    }
+    });
   }
 }

@@ -1,18 +1,9 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  computed,
-  effect,
-  input,
-  output,
-  signal,
-  untracked,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, output, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { describeGang, gangGroups, gangMembers } from '../../../../../shared/engine/gang';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { StudySpecInput } from '../../../../../shared/schema/studies';
-import { numberOf, textOf, tunableStages, unitOfKey } from './tunable';
+import { fillOnceLoaded, numberOf, textOf, tunableStages, unitOfKey } from './tunable';
 
 /**
  * The band study's form. By default it turns the gang marked on the chain (the editor's
@@ -128,15 +119,7 @@ export class BandFormComponent {
   protected readonly oscPadPf = signal(0);
 
   constructor() {
-    // Fill the form from the chain once it has loaded (not on every later change).
-    let filled = false;
-    effect(() => {
-      const doc = this.document();
-      if (doc && !filled) {
-        filled = true;
-        untracked(() => this.reset(doc));
-      }
-    });
+    fillOnceLoaded(this.document, (doc) => this.reset(doc));
   }
 
   /** Chooses the chain's first marked gang, else the first tunable stage (once loaded). */

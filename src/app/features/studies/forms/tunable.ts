@@ -1,3 +1,4 @@
+import { effect, untracked } from '@angular/core';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 
 /** A stage with capacitance or inductance values a study can turn. */
@@ -30,3 +31,21 @@ export function unitOfKey(key: string): 'henry' | 'farad' {
 
 export const numberOf = (e: Event) => Number((e.target as HTMLInputElement).value);
 export const textOf = (e: Event) => (e.target as HTMLInputElement | HTMLSelectElement).value;
+
+/**
+ * Calls `fill` with the chain once it has loaded, not on every later change (a study form's
+ * starting values). Call it in an injection context (a constructor).
+ */
+export function fillOnceLoaded(
+  document: () => ChainDocument | undefined,
+  fill: (doc: ChainDocument) => void,
+): void {
+  let filled = false;
+  effect(() => {
+    const doc = document();
+    if (doc && !filled) {
+      filled = true;
+      untracked(() => fill(doc));
+    }
+  });
+}

@@ -1,0 +1,52 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { controlMessage } from '../../../core/forms/zod-validator';
+
+/** What a new password should be like, said under every field that sets one. */
+export const NEW_PASSWORD_HINT = 'At least 10 characters; a few unusual words make a strong one.';
+
+/**
+ * One labelled text input of an account form, bound to a control of the page's form, with
+ * the control's schema message under it when it is wrong.
+ */
+@Component({
+  selector: 'cw-text-field',
+  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule],
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  template: `
+    <mat-form-field>
+      <mat-label>{{ label() }}</mat-label>
+      <input
+        matInput
+        [formControl]="control()"
+        [type]="type()"
+        [attr.autocomplete]="autocomplete()"
+        [attr.maxlength]="maxlength()"
+      />
+      @if (hint(); as text) {
+        <mat-hint>{{ text }}</mat-hint>
+      }
+      <mat-error>{{ message(control()) }}</mat-error>
+    </mat-form-field>
+  `,
+  styles: `
+    :host {
+      display: block;
+    }
+    mat-form-field {
+      width: 100%;
+    }
+  `,
+})
+export class TextFieldComponent {
+  readonly control = input.required<FormControl<string>>();
+  readonly label = input.required<string>();
+  readonly type = input<'text' | 'email' | 'password'>('text');
+  /** The browser's autofill purpose (username, new-password, …). */
+  readonly autocomplete = input<string | null>(null);
+  readonly maxlength = input<number | null>(null);
+  readonly hint = input<string | null>(null);
+  protected readonly message = controlMessage;
+}
