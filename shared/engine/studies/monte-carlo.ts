@@ -22,7 +22,8 @@ import {
 } from './chain-values';
 import { metricList, readMetrics, type MetricInfo } from './metrics';
 import { drawDeviation, mulberry32, trialSeed } from './random';
-import { trialMetrics, trialTracker, type TrialTracker } from './trial';
+import { drawnChainBuilder, type DrawnChainBuilder, type DrawnValue } from './drawn-chain';
+import { builtTrialMetrics, trialMetrics, trialTracker, type TrialTracker } from './trial';
 
 /** One trial: its draws (in units of each value's tolerance) and its figures. */
 export interface Trial {
@@ -45,6 +46,10 @@ export interface MonteCarloPlan {
   nominal: (number | null)[];
   /** The nominal resonators a trial follows (see trial.ts). */
   tracker: TrialTracker;
+  /** Builds a trial's chain from the nominal (drawn-chain.ts); null: buildChain builds it. */
+  drawn: DrawnChainBuilder | null;
+  /** Document position of each toleranced value's stage. */
+  stageIndex: number[];
 }
 
 export interface StudyInputs {
@@ -81,6 +86,7 @@ export function planMonteCarlo(inputs: StudyInputs, spec: MonteCarloSpec): Monte
   }
   const nominalResult = analyse(inputs, doc);
   const resonatorCount = nominalResult.resonators.length;
+  const tracker = nominalTracker(inputs, doc, node);
   return {
     spec,
     node,
@@ -88,7 +94,9 @@ export function planMonteCarlo(inputs: StudyInputs, spec: MonteCarloSpec): Monte
     metrics: metricList(nominalResult, node),
     resonatorCount,
     nominal: readMetrics(nominalResult, node, resonatorCount),
-    tracker: nominalTracker(inputs, doc, node),
+    tracker,
+    drawn: drawnChainBuilder(doc, tracker.nominal, inputs.dataFiles),
+    stageIndex: tolerances.map((t) => doc.stages.findIndex((s) => s.id === t.stageId)),
   };
 }
 
@@ -103,15 +111,17 @@ function nominalTracker(inputs: StudyInputs, doc: ChainDocument, node: number): 
 /** Runs trial `index` of a plan. */
 export function runTrial(inputs: StudyInputs, plan: MonteCarloPlan, index: number): Trial {
   const u = mulberry32(trialSeed(plan.spec.seed, index));
-  const doc = withPoints(inputs.doc, plan.spec.points);
   const draws: number[] = [];
-  for (const t of plan.tolerances) {
+  const values: DrawnValue[] = plan.tolerances.map((t, i) => {
     const z = drawDeviation(u, plan.spec.distribution);
     draws.push(z);
-    const stage = doc.stages.find((s) => s.id === t.stageId)!;
-    stage.values[t.key] = t.nominal * (1 + (z * t.tolerancePct) / 100);
-  }
+    return { stageIndex: plan.stageIndex[i], key: t.key, value: t.nominal * (1 + (z * t.tolerancePct) / 100) }; // prettier-ignore
+  });
   try {
+    const drawn = plan.tracker.complete ? plan.drawn?.build(values) : null;
+    if (drawn) return { index, draws, metrics: builtTrialMetrics(drawn, plan.tracker) };
+    const doc = withPoints(inputs.doc, plan.spec.points);
+    for (const v of values) doc.stages[v.stageIndex].values[v.key] = v.value;
     if (plan.tracker.complete) {
       return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
     }

@@ -259,7 +259,13 @@ export function trialMetrics(
   dataFiles?: Readonly<Record<string, MeasuredNetwork>>,
 ): (number | null)[] {
   const like = tracker.nominal;
-  const built = settleLoadLevel(buildChain(doc, defaultCatalogue(), { dataFiles, like }));
+  return builtTrialMetrics(buildChain(doc, defaultCatalogue(), { dataFiles, like }), tracker);
+}
+
+/** The metric row of a drawn chain already built (like the tracker's nominal). */
+export function builtTrialMetrics(drawn: BuiltChain, tracker: TrialTracker): (number | null)[] {
+  const like = tracker.nominal;
+  const built = settleLoadLevel(drawn);
   const probe = createProbe(built);
   const row: (number | null)[] = [];
   for (const r of followResonators(built, tracker, probe)) {
