@@ -4,7 +4,8 @@
  * next analysis reuses the workspace, and be seen by every reader (JSON, structured clone,
  * spreading) as ordinary data.
  */
-import { analyzeChain } from '../../shared/engine';
+import { analyzeChain, type BuiltChain, type NodeAnalysis } from '../../shared/engine';
+import { lazySweepReport, sweepNanShares } from '../../shared/engine/core/sweep-report';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 const opts = { catalogue: TEST_CATALOGUE, sweep: true };
@@ -70,6 +71,15 @@ describe('the sweep report', () => {
     expect(first.sweep!.zIn.re[50]).toBeCloseTo(branch(first.sweep!.freqsHz[50]).re + 200, 8);
   });
 
+  it('computes no trace until one is read', () => {
+    const sweep = analyzeChain(seriesRlc(200, 50), opts).sweep!;
+    for (const node of sweep.nodes) {
+      expect(Object.getOwnPropertyDescriptor(node, 'stepUpDb')?.get).toBeInstanceOf(Function);
+      expect(Object.getOwnPropertyDescriptor(node, 'phaseDeg')?.get).toBeInstanceOf(Function);
+    }
+    expect(Object.getOwnPropertyDescriptor(sweep, 'returnLossDb')?.get).toBeInstanceOf(Function);
+  });
+
   it('reads as plain data through JSON, structured clone and spreading', () => {
     const sweep = analyzeChain(seriesRlc(200, 50), opts).sweep!;
     const json = JSON.parse(JSON.stringify(sweep));
@@ -83,5 +93,39 @@ describe('the sweep report', () => {
     expect(Object.getOwnPropertyDescriptor(sweep.nodes[1], 'stepUpDb')).toHaveProperty('value');
     sweep.nodes[0].phaseDeg = [1, 2];
     expect(sweep.nodes[0].phaseDeg).toEqual([1, 2]);
+  });
+});
+
+describe('sweepNanShares', () => {
+  it('counts the points a trace loses without computing it, as the computed trace shows them', () => {
+    // Two user nodes over 6 points: voltages, EMFs and impedances with NaN, ∞ and 0 mixed in.
+    const P = 6;
+    const vRe = Float64Array.of(1, NaN, Infinity, 0, 1e-320, 2, /* node 1 */ NaN, Infinity, 0, 0, 3, NaN); // prettier-ignore
+    const vIm = Float64Array.of(0, 1, NaN, 0, 0, -Infinity, /* node 1 */ NaN, 1, 0, 1, 4, 0); // prettier-ignore
+    const emf = Float64Array.of(1, 1, 1, 0, 1, Infinity);
+    const zin = Float64Array.of(NaN, 50, NaN, NaN, Infinity, 1, 0, 0, 0, 0, 0, 0);
+    const na = {
+      points: P,
+      nodes: 2,
+      freqs: Float64Array.of(1, 2, 3, 4, 5, 6),
+      emf,
+      vRe,
+      vIm,
+      zinRe: zin,
+      zinIm: new Float64Array(2 * P),
+      zsrcRe: new Float64Array(2 * P).fill(50),
+      zsrcIm: new Float64Array(2 * P),
+    } as unknown as NodeAnalysis;
+    const built = { userNodeFlat: Int32Array.of(0, 1), settings: {} } as unknown as BuiltChain;
+    const shares = sweepNanShares(lazySweepReport(built, na, 50));
+    const computed = lazySweepReport(built, na, 50);
+    const nanShare = (a: number[]) => a.filter(Number.isNaN).length / a.length;
+    expect(shares.stepUp).toEqual(computed.nodes.map((n) => nanShare(n.stepUpDb)));
+    expect(shares.stepUp.some((s) => s > 0)).toBe(true);
+    expect(shares.zIn).toBe(Math.max(nanShare(computed.zIn.re), nanShare(computed.zIn.im)));
+    expect(shares.zIn).toBe(0.5);
+    // A report that is not the engine's own (read back from columns) is counted from its arrays.
+    const plain = JSON.parse(JSON.stringify(computed));
+    expect(sweepNanShares(plain).zIn).toBe(0);
   });
 });

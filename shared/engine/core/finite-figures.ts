@@ -19,6 +19,7 @@ import { ChainValidationError, type ChainIssue } from '../errors';
 import type { AnalysisResult, NodeReport, StageReport } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { stageName } from './build';
+import { sweepNanShares } from './sweep-report';
 
 const NODE_FIGURES = [
   'vPeak',
@@ -42,13 +43,6 @@ const BOUNDED = new Set<string>(['vPeak', 'stepUp', 'availableDbm']);
 
 const isNaN = Number.isNaN;
 const lostFigure = (key: string, v: number) => isNaN(v) || (BOUNDED.has(key) && v === Infinity);
-
-/** Share of the values that are NaN. */
-function lostShare(values: readonly number[]): number {
-  let lost = 0;
-  for (const v of values) if (isNaN(v)) lost++;
-  return values.length === 0 ? 0 : lost / values.length;
-}
 
 function issue(stage: BuiltStage, what: string): ChainIssue {
   return {
@@ -92,10 +86,12 @@ export function assertFiniteFigures(built: BuiltChain, result: AnalysisResult): 
     throw new ChainValidationError([issue(built.source, `${levels.join(', ')} for the chain`)]);
   const sweep = result.sweep;
   if (!sweep) return;
-  if (lostShare(sweep.zIn.re) > 0.5 || lostShare(sweep.zIn.im) > 0.5)
+  // Read from what the traces are computed from, so the check computes none of them.
+  const lostShare = sweepNanShares(sweep);
+  if (lostShare.zIn > 0.5)
     throw new ChainValidationError([issue(startingAt(0), 'the impedance at its input over most of the sweep')]); // prettier-ignore
-  for (const n of sweep.nodes) {
-    if (lostShare(n.stepUpDb) > 0.5)
+  sweep.nodes.forEach((n, k) => {
+    if (lostShare.stepUp[k] > 0.5)
       throw new ChainValidationError([issue(endingAt(n.index), `step-up at its output (node ${n.index}) over most of the sweep`)]); // prettier-ignore
-  }
+  });
 }

@@ -21,6 +21,52 @@ const isFiniteNumber = Number.isFinite;
 
 const db20 = (r: number) => 20 * log10(r);
 
+/** What a lazily computed sweep report was copied from, for questions that need no trace. */
+interface SweepSource {
+  P: number;
+  v: Float64Array;
+  emf: Float64Array;
+  zinRe: Float64Array;
+  zinIm: Float64Array;
+}
+const sources = new WeakMap<SweepReport, SweepSource>();
+
+/** Share of the values that are NaN. */
+function nanShare(values: ArrayLike<number>): number {
+  let lost = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isNaN(values[i])) lost++;
+  return values.length === 0 ? 0 : lost / values.length;
+}
+
+/**
+ * The share of points where a trace is NaN, for the input impedance (either part, the larger)
+ * and each node's step-up, without computing a trace that has not been read: the step-up in
+ * dB is NaN exactly where |V|/|Es| is, which finite values with a non-zero EMF never are.
+ */
+export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: number[] } {
+  const src = sources.get(sweep);
+  if (!src) {
+    return {
+      zIn: Math.max(nanShare(sweep.zIn.re), nanShare(sweep.zIn.im)),
+      stepUp: sweep.nodes.map((n) => nanShare(n.stepUpDb)),
+    };
+  }
+  const { P, v, emf } = src;
+  const stepUp = sweep.nodes.map((_, n) => {
+    let lost = 0;
+    for (let i = 0; i < P; i++) {
+      const vr = v[2 * n * P + i];
+      const vi = v[(2 * n + 1) * P + i];
+      const e = emf[i];
+      // x − x is 0 exactly for finite x: the common case decided without a square root.
+      if (vr - vr === 0 && vi - vi === 0 && e - e === 0 && e !== 0) continue;
+      if (Number.isNaN(hypot(vr, vi) / abs(e))) lost++;
+    }
+    return P === 0 ? 0 : lost / P;
+  });
+  return { zIn: Math.max(nanShare(src.zinRe), nanShare(src.zinIm)), stepUp };
+}
+
 /** Defines `obj[key]` as computed by `compute` on first read (then a plain data property). */
 function lazy<T extends object>(obj: T, key: string, compute: () => unknown): void {
   const settle = (value: unknown) => {
@@ -108,5 +154,6 @@ export function lazySweepReport(
     }
     return out;
   });
+  sources.set(report, { P, v, emf, zinRe, zinIm });
   return report;
 }
