@@ -175,8 +175,9 @@ describe('exchange formats in the browser', () => {
     const budget = page.getByRole('region', { name: 'Budget by node' });
     await budget.waitFor();
     const stageNf = budget.getByRole('row', { name: /Stage noise figure/ });
-    // Displayed to 0.1 dB: 1.7 dB at the 50 Ω source, not the 1.0 dB minimum.
-    await textAppears(stageNf, `${EXPECTED_NF_DB.toFixed(1)} dB`);
+    // Displayed to the default 4 significant figures: 1.706 dB at the 50 Ω source, not the
+    // 1.0 dB minimum.
+    await textAppears(stageNf, `${Number(EXPECTED_NF_DB.toPrecision(4))} dB`);
     await stageNf.scrollIntoViewIfNeeded();
     await shot(page, 'formats-05-amplifier-noise-at-its-source');
 
