@@ -137,8 +137,8 @@ async function readAll(
   await headline.first().waitFor();
   const headlineText = await textWhen(headline, /\d/, 'the first headline figure');
   const budgetRow = page
-    .locator('cw-budget-table tr')
-    .filter({ has: page.getByRole('rowheader', { name: /Z looking in\s*\|Z\|/ }) });
+    .getByRole('region', { name: 'Budget by node' })
+    .getByRole('row', { name: /Z looking in \|Z\|/ });
   const budget = await textWhen(budgetRow.locator('td.value').last(), /Ω/, 'the |Z| cell');
 
   await page.getByRole('tab', { name: 'Resonators & selectivity' }).click();
