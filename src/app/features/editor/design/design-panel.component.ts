@@ -18,6 +18,7 @@ import { EditorStore } from '../state/editor.store';
 import { withValue } from '../state/stage-factory';
 import { CoilPartsComponent } from './coil-parts.component';
 import { DesignApi } from './design-api';
+import { DesignFieldComponent } from './design-field.component';
 import { ValueKnobComponent } from './value-knob.component';
 import { SparkPlotComponent } from './spark-plot.component';
 import { decibels, engineering, figures, impedanceRect, plain } from '../results/format-quantity';
@@ -31,7 +32,13 @@ const SERIES: PreferredSeries[] = ['E6', 'E12', 'E24', 'E48', 'E96'];
  */
 @Component({
   selector: 'cw-design-panel',
-  imports: [MatButtonModule, SparkPlotComponent, CoilPartsComponent, ValueKnobComponent],
+  imports: [
+    MatButtonModule,
+    SparkPlotComponent,
+    CoilPartsComponent,
+    ValueKnobComponent,
+    DesignFieldComponent,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './design-panel.component.html',
   styleUrl: './design-panel.component.scss',
