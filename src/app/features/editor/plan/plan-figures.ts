@@ -64,7 +64,7 @@ export function spurChartFigure(plan: PlanReport, palette: PlotPalette): PlotFig
   }
   const layout: Partial<Layout> = {
     title: {
-      text: `Spurious responses across the tuning range (target ${target} dB; ${chart.tuning === 'gang' ? 'preselector tuned by the chain’s gang' : 'preselector assumed at constant Q'})`, // prettier-ignore
+      text: `Spurious responses across the tuning range (target ${decibels(target)}; ${chart.tuning === 'gang' ? 'preselector tuned by the chain’s gang' : 'preselector assumed at constant Q'})`, // prettier-ignore
     },
     paper_bgcolor: palette.background,
     plot_bgcolor: palette.background,

@@ -149,7 +149,7 @@ export function summaryItems(result: AnalysisResult, document: ChainDocument): S
       key: 'noise-floor',
       label: 'Noise floor',
       value: decibels(l.noiseFloorDbm, 'dBm'),
-      note: `in a ${bandwidth} channel at ${document.settings.temperatureK} K`,
+      note: `in a ${bandwidth} channel at ${plain(document.settings.temperatureK)} K`,
     },
     {
       key: 'nf',

@@ -294,7 +294,7 @@ export function returnLossFigure(ctx: PlotContext, thresholdDb: number): PlotFig
     xanchor: 'right',
     y: thresholdDb,
     yanchor: 'bottom',
-    text: `match target ${thresholdDb} dB`,
+    text: `match target ${decibels(thresholdDb)}`,
     showarrow: false,
     font: { color: ctx.palette.warn, size: 11 },
   } as Annotation;
