@@ -1,7 +1,7 @@
 /**
  * Command-line analysis of a chain file.
  *
- *   npm run analyze -- <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+ *   npm run analyze -- <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]] [--timing]
  *   npm run analyze -- <chain.json> --list-modes [--json]
  *   npm run analyze -- --list-types [--json]
  *
@@ -33,7 +33,7 @@ import { writeResultJson, writeSweepTable, type Write } from './cli/stream-sweep
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 import { modeReportText, modesText } from './cli/mode-text';
 
-const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]]
+const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]] [--timing]
        analyze <chain.json> --list-modes [--json]
        analyze --list-types [--json]
 
@@ -47,6 +47,8 @@ const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--j
   --touchstone   Touchstone 1.1 S-parameters of the stages between source and load
   --z0 <ohm>     reference resistance of the Touchstone file (default 50)
   --list-types   the stage types with their parameters, units and defaults
+  --timing       say on standard error how long the engine's analysis and the whole process
+                 took (seconds)
 
 ${DESIGN_USAGE}`;
 
@@ -69,6 +71,7 @@ interface Options {
   touchstone: boolean;
   listTypes: boolean;
   listModes: boolean;
+  timing: boolean;
   mode?: string;
   z0: number;
   /** Design assistant options (scripts/design-cli.ts). */
@@ -84,6 +87,7 @@ function parseArgs(argv: string[]): Options {
     touchstone: false,
     listTypes: false,
     listModes: false,
+    timing: false,
     z0: 50,
     design: new Map(),
   };
@@ -103,6 +107,7 @@ function parseArgs(argv: string[]): Options {
     else if (a === '--touchstone') o.touchstone = true;
     else if (a === '--list-types') o.listTypes = true;
     else if (a === '--list-modes') o.listModes = true;
+    else if (a === '--timing') o.timing = true;
     else if (a === '--mode') {
       o.mode = argv[++i];
       if (!o.mode || o.mode.startsWith('-'))
@@ -217,9 +222,27 @@ function runDesign(
   }
 }
 
+/** What `--timing` reports: the engine's analysis alone (set when it ran), seconds. */
+const timings: { analysisS?: number } = {};
+
+/**
+ * The `--timing` lines: the analysis alone (the engine's solve of every point, as a circuit
+ * simulator reports its own analysis time, nothing written yet) and the whole process from
+ * Node's time origin (its start-up, the analysis and the output).
+ */
+function timingText(endedAt: number): string {
+  const whole = endedAt / 1000;
+  const lines = [`timing: whole process ${whole.toFixed(4)} s`];
+  if (timings.analysisS !== undefined) {
+    lines.unshift(`timing: analysis ${timings.analysisS.toFixed(4)} s`);
+  }
+  return lines.join('\n') + '\n';
+}
+
 /** Runs the CLI, writing its output through `write` (a sweep in chunks, as it is formatted). */
 function run(argv: string[], write: Write): void {
   const o = parseArgs(argv);
+  if (o.timing) process.on('exit', () => process.stderr.write(timingText(performance.now())));
   const catalogue = STAGE_DEFINITIONS;
   if (o.listTypes) return write(listTypes(catalogue, o.json) + '\n');
   const raw = readJson(o.file!);
@@ -245,7 +268,9 @@ function run(argv: string[], write: Write): void {
       return write(chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd() + '\n');
     const designed = runDesign(doc, o, catalogue);
     if (designed !== null) return write(designed + '\n');
+    const started = performance.now();
     const result = analyzeChain(full, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false, mode: o.mode }); // prettier-ignore
+    if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
     if (o.json) return writeResultJson(result, write);
     const { sweep, ...atF0 } = result;
     write(budgetText(doc.name, atF0) + '\n');

@@ -6,9 +6,12 @@
  * time counts. The CLI runs as one esbuild bundle (dist/analyze.js), as it ships.
  *
  * Targets: at 2,001 points the CLI is no slower than `ngspice -b` on the exported netlist;
- * at 100,000 points it is at least 3× faster than ngspice's own AC solver (the AC analysis
- * time ngspice reports on the constant-resistor netlist) and peaks at no more than 1.5×
- * ngspice's resident memory.
+ * at 100,000 points it is at least 3× faster than ngspice's own AC solver (constant-resistor
+ * netlist) and peaks at no more than 1.5× ngspice's resident memory. The 3× is judged on two
+ * pairs that each do the same work on both sides, never across them: solver against solver
+ * (the AC analysis time ngspice reports against the analysis time the CLI reports with
+ * --timing, both measured inside the process around the solve alone) and whole process
+ * against whole process (start-up, solve and every point written, on both sides).
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -23,6 +26,11 @@ import { benchDecks } from './spice-decks';
 
 interface SpiceRun extends ProcessRun {
   acMs: number;
+}
+
+interface CliRun extends ProcessRun {
+  /** The engine's analysis alone, as the CLI's --timing reports it. */
+  analysisMs: number;
 }
 
 function spice(
@@ -46,14 +54,17 @@ function spice(
   return { ...run, acMs: t.acS === undefined ? NaN : t.acS * 1e3 };
 }
 
-function cli(dir: string, bundle: string, chainFile: string, rows: number): ProcessRun {
+function cli(dir: string, bundle: string, chainFile: string, rows: number): CliRun {
   const outFile = join(dir, 'cli.out');
-  const run = runProcess(process.execPath, [bundle, chainFile, '--sweep'], dir, outFile);
+  const args = [bundle, chainFile, '--sweep', '--timing'];
+  const run = runProcess(process.execPath, args, dir, outFile);
   if (run.status !== 0) throw new Error(`the CLI exited with status ${run.status}: ${run.stderr}`);
   // The budget table, then "Sweep", a header and one line per point.
   const lines = lineCount(outFile);
   if (lines < rows + 2) throw new Error(`the CLI wrote ${lines} lines for ${rows} sweep points`);
-  return run;
+  const analysis = /^timing: analysis ([0-9.]+) s$/m.exec(run.stderr);
+  if (!analysis) throw new Error(`the CLI did not report its analysis time: ${run.stderr}`);
+  return { ...run, analysisMs: Number(analysis[1]) * 1e3 };
 }
 
 const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick));
@@ -70,7 +81,7 @@ export const cliSection: BenchSection = {
         writeFileSync(chainFile, JSON.stringify(doc));
         const decks = benchDecks(doc);
         const reps = points > 10_000 || ctx.quick ? 1 : 5;
-        const cliRuns: ProcessRun[] = [];
+        const cliRuns: CliRun[] = [];
         const exported: SpiceRun[] = [];
         const constant: SpiceRun[] = [];
         for (let r = 0; r < reps; r++) {
@@ -79,6 +90,7 @@ export const cliSection: BenchSection = {
           constant.push(spice(dir, decks.constantR, decks.dataFile, points, decks.columns));
         }
         const cliMs = medianOf(cliRuns, (r) => r.wallMs);
+        const cliSolveMs = medianOf(cliRuns, (r) => r.analysisMs);
         const cliPeak = medianOf(cliRuns, (r) => r.peakBytes);
         const exMs = medianOf(exported, (r) => r.wallMs);
         const exAc = medianOf(exported, (r) => r.acMs);
@@ -96,22 +108,30 @@ export const cliSection: BenchSection = {
           `${ms(coMs)} / ${ms(coAc)} / ${mib(coPeak)}`,
         );
         ctx.row(
-          `whole CLI (node dist/analyze.js --sweep, every node written), ${n} points: whole / peak`,
-          `${ms(cliMs)} / ${mib(cliPeak)}`,
+          `whole CLI (node dist/analyze.js --sweep, every node written), ${n} points: whole / analysis / peak`,
+          `${ms(cliMs)} / ${ms(cliSolveMs)} / ${mib(cliPeak)}`,
         );
         if (points === 2001) {
           ctx.row(
-            `CLI ÷ ngspice -b on the exported netlist, ${n} points`,
+            `whole process vs whole process: CLI ÷ ngspice -b on the exported netlist, ${n} points`,
             `${(cliMs / exMs).toFixed(2)}×`,
             '≤ 1× (no slower)',
             verdict(cliMs <= exMs),
           );
         } else {
+          const solver = coAc / cliSolveMs;
           ctx.row(
-            `ngspice's AC solver (constant resistors) ÷ whole CLI, ${n} points`,
-            `${(coAc / cliMs).toFixed(1)}× faster`,
+            `solver vs solver: ngspice's AC analysis (constant resistors) ÷ the CLI's analysis, ${n} points`,
+            `${solver.toFixed(1)}× faster`,
             '≥ 3× faster',
-            verdict(coAc / cliMs >= 3),
+            verdict(solver >= 3),
+          );
+          const whole = coMs / cliMs;
+          ctx.row(
+            `whole process vs whole process: ngspice -b (constant resistors) ÷ the whole CLI, ${n} points`,
+            `${whole.toFixed(1)}× faster`,
+            '≥ 3× faster',
+            verdict(whole >= 3),
           );
           ctx.row(
             `CLI peak memory ÷ ngspice's (constant resistors), ${n} points`,

@@ -4,7 +4,7 @@
  * rows first) and the JSON form (the analysis without its sweep, then the sweep's arrays).
  */
 import type { AnalysisResult, SweepReport } from '../../shared/engine';
-import { formatNumber } from '../../shared/engine';
+import { fastFormatNumber } from './fast-number';
 
 /** Rows (or array elements) formatted per chunk before they are written. */
 const CHUNK = 2000;
@@ -40,11 +40,11 @@ export function writeSweepTable(sweep: SweepReport, write: Write): void {
     let text = '';
     for (let i = i0; i < Math.min(P, i0 + CHUNK); i++) {
       // One string per row, padded in place: no per-cell arrays on a 100,000-row table.
-      let row = formatNumber(sweep.freqsHz[i], 9).padEnd(w[0]);
+      let row = fastFormatNumber(sweep.freqsHz[i], 9).padEnd(w[0]);
       for (let k = 0; k < nodes.length; k++)
         row += '  ' + dec3(nodes[k].stepUpDb[i]).padStart(w[k + 1]);
-      row += '  ' + formatNumber(sweep.zIn.re[i], 6).padStart(w[zk]);
-      row += '  ' + formatNumber(sweep.zIn.im[i], 6).padStart(w[zk + 1]);
+      row += '  ' + fastFormatNumber(sweep.zIn.re[i], 6).padStart(w[zk]);
+      row += '  ' + fastFormatNumber(sweep.zIn.im[i], 6).padStart(w[zk + 1]);
       text += row + '\n';
     }
     write(text);

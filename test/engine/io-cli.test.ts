@@ -33,6 +33,23 @@ function cli(...args: string[]) {
 }
 
 describe('analyze CLI', () => {
+  it('should say how long the analysis and the whole process took with --timing, output unchanged', () => {
+    const plain = cli(FIXTURE('listener-7mhz.json'), '--sweep');
+    const timed = cli(FIXTURE('listener-7mhz.json'), '--sweep', '--timing');
+    expect(timed.code).toBe(0);
+    expect(timed.out).toBe(plain.out);
+    const seconds = (what: string) => {
+      const m = new RegExp(`^timing: ${what} ([0-9.]+) s$`, 'm').exec(timed.err);
+      expect(m).not.toBeNull();
+      return Number(m![1]);
+    };
+    const analysis = seconds('analysis');
+    const whole = seconds('whole process');
+    expect(analysis).toBeGreaterThan(0);
+    // The analysis is a part of the whole process.
+    expect(analysis).toBeLessThan(whole);
+  });
+
   it('should print the budget table with node columns, resonators and flags', () => {
     const { code, out, err } = cli(FIXTURE('listener-7mhz.json'));
     expect(err).toBe('');
