@@ -68,11 +68,29 @@ function expectSame(trial: (number | null)[], full: (number | null)[], label: st
   });
 }
 
+/**
+ * A series LC in the through path that no stage declares (the analysis finds it: its loop
+ * impedance), at ±5 % on L and C, between a 50 Ω generator and a 50 Ω load.
+ */
+function foundSeriesLoop(): ChainDocument {
+  return chainDocumentSchema.parse({
+    name: 'found series loop',
+    settings: { f0Hz: 3.16e6, sweep: { startHz: 1e6, stopHz: 10e6, points: 401, scale: 'log' } },
+    stages: [
+      { id: 'g', type: 'resistive-generator', values: { r: 50 } },
+      { id: 'cs', type: 'lumped-element', label: 'Cs', values: { position: 'series', element: 'capacitor', c: 253.3e-12, qc: 1e12 }, tolerances: { c: 5 } }, // prettier-ignore
+      { id: 'ls', type: 'lumped-element', label: 'Ls', values: { position: 'series', element: 'inductor', l: 10e-6, esr: 5 }, tolerances: { l: 5 } }, // prettier-ignore
+      { id: 'load', type: 'rc-load', label: 'Load', values: { r: 50 } },
+    ],
+  });
+}
+
 const cases: [string, () => ChainDocument, number | undefined][] = [
   ['bench chain, 12 two-ports (coupled pair, found tanks, a trap)', () => benchWithTolerances(201), undefined], // prettier-ignore
   ['shortwave superhet with a coupled preselector (a mixer ahead of the judged node)', () => example('shortwave-superhet-coupled-pair'), 401], // prettier-ignore
   ['two-metre coupled preselector', () => example('two-metre-coupled-preselector'), 401],
   ['AM broadcast TRF with a triode between two tanks', () => example('am-broadcast-triode-trf'), 401], // prettier-ignore
+  ['a series resonator found in the through path (no stage declares it)', foundSeriesLoop, undefined], // prettier-ignore
 ];
 
 describe('a Monte Carlo trial gives what a full analysis of the drawn chain gives', () => {
@@ -92,6 +110,13 @@ describe('a Monte Carlo trial gives what a full analysis of the drawn chain give
       );
       expectSame(trial.metrics, full, `trial ${i}`);
     }
+  });
+
+  it('follows a found series resonator by its loop impedance (no full analysis per trial)', () => {
+    const spec = monteCarloSpecSchema.parse({ kind: 'monte-carlo', trials: 2, seed: 1 });
+    const plan = planMonteCarlo({ doc: foundSeriesLoop() }, spec);
+    expect(plan.tracker.follow.map((f) => f.how)).toEqual(['loop']);
+    expect(plan.drawn).not.toBeNull();
   });
 
   it('a drawn value outside its stage range is a trial error that names it, not a crash', () => {

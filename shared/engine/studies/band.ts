@@ -229,7 +229,7 @@ export function runBandStudy(
       const mix = doc.stages.find((s) => s.id === mixer.stageId)!;
       mix.values.loSource = 'frequency';
       mix.values.loHz = loHz;
-    } else if (tracker?.complete && circuits) {
+    } else if (tracker && circuits) {
       // The dial reads the first member's circuit, followed from where it was.
       const ref = circuits.findIndex((c) => c.stageId === first.stageId);
       if (ref >= 0) {
@@ -238,7 +238,7 @@ export function runBandStudy(
         dialHz = followResonators(settled, one)[0].resonanceHz;
       }
     }
-    if (tracker?.complete && circuits && dialHz !== null) {
+    if (tracker && circuits && dialHz !== null) {
       const { settled } = builtAt(inputs, doc, dialHz, spec.points, tracker.nominal);
       const followed = followResonators(settled, tracker);
       if (followed.every((r) => r.resonanceHz !== null)) {

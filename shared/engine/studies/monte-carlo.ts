@@ -118,15 +118,11 @@ export function runTrial(inputs: StudyInputs, plan: MonteCarloPlan, index: numbe
     return { stageIndex: plan.stageIndex[i], key: t.key, value: t.nominal * (1 + (z * t.tolerancePct) / 100) }; // prettier-ignore
   });
   try {
-    const drawn = plan.tracker.complete ? plan.drawn?.build(values) : null;
+    const drawn = plan.drawn?.build(values);
     if (drawn) return { index, draws, metrics: builtTrialMetrics(drawn, plan.tracker) };
     const doc = withPoints(inputs.doc, plan.spec.points);
     for (const v of values) doc.stages[v.stageIndex].values[v.key] = v.value;
-    if (plan.tracker.complete) {
-      return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
-    }
-    const result = analyse(inputs, doc);
-    return { index, draws, metrics: readMetrics(result, plan.node, plan.resonatorCount) };
+    return { index, draws, metrics: trialMetrics(doc, plan.tracker, inputs.dataFiles) };
   } catch (err) {
     const metrics = plan.metrics.map(() => null);
     return { index, draws, metrics, error: err instanceof Error ? err.message : String(err) };

@@ -52,11 +52,6 @@ export interface TrialTracker {
   /** The nominal chain as built (before its load level is settled): what trials build like. */
   nominal: BuiltChain;
   follow: Follow[];
-  /**
-   * Whether every resonator can be followed. A found series resonator cannot (yet): a study
-   * of a chain with one analyses each trial in full instead.
-   */
-  complete: boolean;
   /** User-level node whose selectivity the study judges. */
   node: number;
 }
@@ -98,8 +93,7 @@ export function trialTracker(
     }
     return { how: 'shunt', flat: r.flat, fIn, sign };
   });
-  const complete = findings.every((r) => !r || !(r.kind === 'series' && r.origin === 'found'));
-  return { nominal, follow, complete, node };
+  return { nominal, follow, node };
 }
 
 /** The declaration `label` of stage `stageId` in a built chain, with the stage. */
