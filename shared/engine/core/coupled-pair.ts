@@ -15,7 +15,7 @@
 import type { ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { coupledExtract, ownResonance, resonate } from './extract-resonance';
-import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { gridDb, locateEdge, locatePeak, powerMax, stepUpPower } from './response-shape';
 
@@ -58,7 +58,7 @@ export function coupledTank(
   const qD = nn(det?.q);
   let share: number | null = null;
   if (att && !first) {
-    const one = runNodeAnalysis(built, [att.fIn]);
+    const one = runNodeAnalysis(built, [att.fIn], sharedWorkspace('point', built, 1));
     const zr = one.zinRe[flat];
     const zi = one.zinIm[flat];
     const gDown = isFiniteNumber(zr) && isFiniteNumber(zi) ? zr / (zr * zr + zi * zi) : 0;

@@ -10,7 +10,7 @@
  */
 import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
-import { createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
@@ -98,13 +98,15 @@ export function resonate(
 /** The chain at one input frequency, as a node analysis whose point 0 an Extract reads. */
 export type PointEval = (f: number) => NodeAnalysis;
 
-/** A PointEval by a one-point node analysis of the whole chain (its workspace reused). */
+/**
+ * A PointEval by a one-point node analysis of the whole chain, in the shared one-point
+ * workspace (nodes.ts, key "point"): what it returns is valid until the next evaluation.
+ */
 export function nodePointEval(built: BuiltChain): PointEval {
-  const one = createNodeAnalysis(built, 1);
   const f1 = new Float64Array(1);
   return (f) => {
     f1[0] = f;
-    return runNodeAnalysis(built, f1, one);
+    return runNodeAnalysis(built, f1, sharedWorkspace('point', built, 1));
   };
 }
 

@@ -5,13 +5,13 @@
  * then fixed at Zl(|V|) for the whole analysis (a linearisation at the working level).
  */
 import type { BuiltChain } from './build';
-import { runNodeAnalysis } from './nodes';
+import { runNodeAnalysis, sharedWorkspace } from './nodes';
 
 /** The chain with its level-dependent load settled at f0 (the chain itself when there is none). */
 export function settleLoadLevel(built: BuiltChain): BuiltChain {
   const atLevel = built.load.model.impedanceAtLevel;
   if (!atLevel) return built;
-  const na = runNodeAnalysis(built, [built.settings.f0Hz]);
+  const na = runNodeAnalysis(built, [built.settings.f0Hz], sharedWorkspace('point', built, 1));
   const k = built.sections.length * na.points;
   const sr = na.zsrcRe[k];
   const si = na.zsrcIm[k];

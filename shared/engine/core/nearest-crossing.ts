@@ -9,7 +9,7 @@
  * very bracket the whole-grid scan returns, ties included, usually after a few dozen points.
  */
 
-const { abs, log } = Math;
+const { abs, exp, log } = Math;
 const isFiniteNumber = Number.isFinite;
 
 /**
@@ -21,11 +21,14 @@ const BOUND_SLACK = 1e-14;
 /** Writes the value at grid point i into out[0] and the local frequency there into out[1]. */
 export type GridValue = (i: number, out: Float64Array) => void;
 
-/** Log distance from `target` of the bracket [a, b] (0 when it holds the target). */
-function boundOf(a: number, b: number, target: number): number {
-  if (b < target) return log(target / b);
-  if (a > target) return log(a / target);
-  return 0;
+/**
+ * How far the bracket [a, b] lies from `target`, as a frequency ratio ≥ 1 (1 when it holds
+ * the target): its log distance without taking a logarithm.
+ */
+function ratioOf(a: number, b: number, target: number): number {
+  if (b < target) return target / b;
+  if (a > target) return a / target;
+  return 1;
 }
 
 /**
@@ -56,6 +59,8 @@ export function nearestRisingOutward(
   }
   let bestK = -1;
   let bestD = Infinity;
+  // A bracket farther than this ratio cannot hold a nearer crossing (exp of bestD + slack).
+  let limit = Infinity;
   const consider = (k: number, vk: number, vk1: number, lk: number, lk1: number) => {
     const s = lk1 >= lk ? 1 : -1;
     const a = s * vk;
@@ -67,6 +72,7 @@ export function nearestRisingOutward(
     if (d < bestD || (d === bestD && k < bestK)) {
       bestD = d;
       bestK = k;
+      limit = exp(d + BOUND_SLACK);
     }
   };
   valueAt(c, scratch);
@@ -79,10 +85,10 @@ export function nearestRisingOutward(
   let down = c - 1;
   let up = c + 1;
   for (;;) {
-    const bDown = down >= 0 ? boundOf(freqAt(down), freqAt(down + 1), target) : Infinity;
-    const bUp = up <= n - 2 ? boundOf(freqAt(up), freqAt(up + 1), target) : Infinity;
+    const bDown = down >= 0 ? ratioOf(freqAt(down), freqAt(down + 1), target) : Infinity;
+    const bUp = up <= n - 2 ? ratioOf(freqAt(up), freqAt(up + 1), target) : Infinity;
     const next = bDown <= bUp ? bDown : bUp;
-    if (next === Infinity || next - BOUND_SLACK > bestD) return bestK;
+    if (next === Infinity || next > limit) return bestK;
     if (bDown <= bUp) {
       valueAt(down, scratch);
       consider(down, scratch[0], vDown, scratch[1], lDown);

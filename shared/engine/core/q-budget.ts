@@ -12,7 +12,7 @@
  */
 import type { ParamValues, TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { pointwiseFill, runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { pointwiseFill, runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import { deliveredPower } from './quantities';
 
 const { log10, sqrt } = Math;
@@ -76,7 +76,8 @@ function powerOut(
     b = withValues(built, stage, values);
   }
   if (!b) return NaN;
-  return deliveredPower(runNodeAnalysis(b, [built.settings.f0Hz]), stage.firstSection + stage.sectionCount, 0); // prettier-ignore
+  const na = runNodeAnalysis(b, [built.settings.f0Hz], sharedWorkspace('point', b, 1));
+  return deliveredPower(na, stage.firstSection + stage.sectionCount, 0);
 }
 
 /** The chain with one stage rebuilt from other values (same section count), or null. */

@@ -95,31 +95,49 @@ function admittanceAt(na: NodeAnalysis, node: number, i: number, out: Float64Arr
   out[1] = b;
 }
 
+/** B at `node`, grid point i: admittanceAt's susceptance alone (half its divisions). */
+function susceptanceAt(na: NodeAnalysis, k: number): number {
+  let b = 0;
+  const sr = na.zsrcRe[k];
+  const si = na.zsrcIm[k];
+  if (isFiniteNumber(sr) && isFiniteNumber(si)) {
+    const d = sr * sr + si * si;
+    if (d !== 0) b -= si / d;
+  }
+  const zr = na.zinRe[k];
+  const zi = na.zinIm[k];
+  if (isFiniteNumber(zr) && isFiniteNumber(zi)) {
+    const d = zr * zr + zi * zi;
+    if (d !== 0) b -= zi / d;
+  }
+  return b;
+}
+
 /**
  * Every rising crossing of B at a node over the grid, in frequency order. Brackets where B
- * is rounding at both ends (see ROUNDING_B) are left out.
+ * is rounding at both ends (see ROUNDING_B) are left out. The scan computes B alone; G only
+ * at a crossing, for the rounding test.
  */
 export function risingCrossings(na: NodeAnalysis, node: number): Bracket[] {
   const out: Bracket[] = [];
   const fl = na.fNode;
   const base = node * na.points;
-  const y = new Float64Array(2);
-  admittanceAt(na, node, 0, y);
-  let prevG = y[0];
-  let prev = y[1];
+  let y: Float64Array | null = null;
+  let prev = susceptanceAt(na, base);
   for (let i = 0; i + 1 < na.points; i++) {
-    admittanceAt(na, node, i + 1, y);
-    const nextG = y[0];
-    const next = y[1];
+    const next = susceptanceAt(na, base + i + 1);
     const sign = fl[base + i + 1] >= fl[base + i] ? 1 : -1;
     const a = sign * prev;
     const b = sign * next;
     if (a < 0 && b >= 0 && isFiniteNumber(a) && isFiniteNumber(b)) {
-      const rounding = abs(a) <= ROUNDING_B * abs(prevG) && abs(b) <= ROUNDING_B * abs(nextG);
+      y ??= new Float64Array(2);
+      admittanceAt(na, node, i, y);
+      const prevG = y[0];
+      admittanceAt(na, node, i + 1, y);
+      const rounding = abs(a) <= ROUNDING_B * abs(prevG) && abs(b) <= ROUNDING_B * abs(y[0]);
       if (!rounding) out.push({ k: i, sign });
     }
     prev = next;
-    prevG = nextG;
   }
   return out;
 }

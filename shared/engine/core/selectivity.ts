@@ -5,7 +5,7 @@
  */
 import type { SelectivityReport } from '../types';
 import type { BuiltChain } from './build';
-import { runNodeAnalysis, type NodeAnalysis } from './nodes';
+import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { stepUp } from './quantities';
 import {
@@ -110,7 +110,7 @@ export function analyzeSelectivity(
   const exact: number[] = [f0Hz];
   for (const off of offsetsHz) exact.push(f0Hz - off > 0 ? f0Hz - off : f0Hz, f0Hz + off);
   if (imageHz !== null) exact.push(imageHz);
-  const ex = runNodeAnalysis(built, exact);
+  const ex = runNodeAnalysis(built, exact, sharedWorkspace('exact', built, exact.length));
   const P = sweepNa.points;
   const f = sweepNa.freqs;
   const power = new Float64Array(P);
