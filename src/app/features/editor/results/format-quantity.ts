@@ -90,7 +90,8 @@ export function times(value: number | null | undefined, digits = significantFigu
   const magnitude = Math.abs(value);
   const rounded = Number(value.toPrecision(digits));
   if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e6)) return `×${rounded}`;
-  return `×${rounded.toExponential()}`;
+  // Exponent form as `figures` and the engineering formatter write it: "×2.5e7".
+  return `×${rounded.toExponential().replace('e+', 'e')}`;
 }
 
 /** A fraction 0…1 shown as a percentage, to the user's significant figures. */
