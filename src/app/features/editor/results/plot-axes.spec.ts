@@ -57,6 +57,7 @@ describe('linear axis ticks', () => {
 
   it('should give two ticks or more for a single value and none for no values', () => {
     expect(linearAxisTicks([50, 50], 'ohm')!.tickvals.length).toBeGreaterThanOrEqual(2);
+    expect(linearAxisTicks([0, 0], 'hertz')!.ticktext).toEqual(['-4 Hz', '-2 Hz', '0 Hz', '2 Hz', '4 Hz']); // prettier-ignore
     expect(linearAxisTicks([null, NaN], 'ohm')).toBeNull();
   });
 });

@@ -82,7 +82,9 @@ export function linearAxisTicks(
   if (!range) return null;
   let [low, high] = range;
   if (low === high) {
-    const pad = Math.abs(low) * 0.01 || 1;
+    // All zero (a perfect tracking error): ±5 units, so the ticks are whole units rather
+    // than "500 mHz", which reads too much like megahertz.
+    const pad = Math.abs(low) * 0.01 || 5;
     [low, high] = [low - pad, high + pad];
   }
   const rough = (high - low) / target;
