@@ -84,7 +84,14 @@ async function chainToRead(page: Page, wid: string): Promise<string> {
   expect(saved.status()).toBe(200);
   const study = await page.request.post(`/api/chains/${chain.id}/studies`, {
     headers,
-    data: { kind: 'band', positions: 5, points: 101 },
+    // An oscillator section with its own coil and no padder: the tank tracks the dial
+    // only roughly, so the worst tracking error is a figure of many digits.
+    data: {
+      kind: 'band',
+      positions: 5,
+      points: 101,
+      oscillator: { l: 1.95e-6, trimmer: 0, padder: 0 },
+    },
   });
   expect(study.status()).toBeLessThan(300);
   return chain.id;
@@ -226,6 +233,6 @@ describe('number format', () => {
     const longer = (Object.keys(three) as (keyof Reading)[]).filter(
       (key) => digitsOf(six[key]) > 3,
     );
-    expect(longer.length).toBeGreaterThanOrEqual(5);
+    expect(longer.length).toBeGreaterThanOrEqual(6);
   });
 });
