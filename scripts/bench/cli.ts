@@ -71,8 +71,8 @@ const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick)
 
 export const cliSection: BenchSection = {
   name: 'cli',
-  run(ctx: BenchContext) {
-    const bundle = bundleCli(join(ctx.root, 'dist', 'analyze.js'));
+  async run(ctx: BenchContext) {
+    const bundle = await bundleCli(join(ctx.root, 'dist', 'analyze.js'));
     const dir = mkdtempSync(join(tmpdir(), 'cw-bench-'));
     try {
       for (const points of [2001, 100_000]) {

@@ -13,9 +13,9 @@ const EXAMPLE = join(ROOT, 'examples', 'shortwave-superhet-single-tank.chain.jso
 let dir: string;
 let bundle: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'cw-cli-design-'));
-  bundle = bundleCli(join(dir, 'analyze.js'));
+  bundle = await bundleCli(join(dir, 'analyze.js'));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 

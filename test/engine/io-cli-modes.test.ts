@@ -14,9 +14,9 @@ const EXAMPLE = join(__dirname, '..', '..', 'examples', 'ism-433-transceiver-sha
 let dir: string;
 let bundle: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'cw-cli-modes-'));
-  bundle = bundleCli(join(dir, 'analyze.js'));
+  bundle = await bundleCli(join(dir, 'analyze.js'));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 

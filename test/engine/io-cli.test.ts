@@ -18,9 +18,9 @@ let bundle: string;
 
 let broken: string;
 
-beforeAll(() => {
+beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'cw-cli-'));
-  bundle = bundleCli(join(dir, 'analyze.js'));
+  bundle = await bundleCli(join(dir, 'analyze.js'));
   // Written here rather than kept as a fixture, so formatters never see invalid JSON.
   broken = join(dir, 'broken.json');
   writeFileSync(broken, '{\n  "name": "broken",\n  "settings": { "f0Hz": 7e6, }\n}\n');

@@ -44,8 +44,8 @@ describe('a 50 Ω-rated LNA driven from a 5 kΩ source', () => {
   });
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-  it('the analyze CLI (--json) flags the noise mismatch on the LNA with VSWR 100', () => {
-    const bundle = bundleCli(join(dir, 'analyze.js'));
+  it('the analyze CLI (--json) flags the noise mismatch on the LNA with VSWR 100', async () => {
+    const bundle = await bundleCli(join(dir, 'analyze.js'));
     const p = spawnSync(process.execPath, [bundle, FIXTURE, '--json'], {
       encoding: 'utf8',
       timeout: 30_000,
