@@ -55,6 +55,63 @@ function fillComplex(fn: ComplexFn, f: Float64Array, fo: number, n: number, out:
 }
 
 /**
+ * One step of the passes: sections from … to−1, as one matrix per grid point. A run of the
+ * nominal's sections carries its product (`m`), the same in every trial; a single section
+ * (`m` null) reads its matrices of the trial.
+ */
+interface Step {
+  from: number;
+  to: number;
+  m: Float64Array | null;
+}
+
+/**
+ * The steps over sections 0 … N−1 (N = hits.length): each run of sections read from the
+ * nominal (`hits`) joined into one product matrix, a run never crossing node `flat` (whose
+ * voltage is asked). The ABCD matrix of a cascade is the product of its sections' matrices
+ * (each at its own node's frequency), so Zin and the voltage across a run come out as across
+ * its sections one by one, to rounding; the grid only brackets the peak and the edges, which
+ * are then located at single frequencies. A run whose product is not finite everywhere (a
+ * section's open or short) keeps its sections apart.
+ */
+function planSteps(mats: Float64Array[], hits: Uint8Array, flat: number, P: number): Step[] {
+  const N = hits.length;
+  const steps: Step[] = [];
+  let j = 0;
+  while (j < N) {
+    let end = j + 1;
+    if (hits[j]) while (end < N && hits[end] && end !== flat) end++;
+    const joined = end - j > 1 ? product(mats, j, end, P) : null;
+    if (joined) steps.push({ from: j, to: end, m: joined });
+    else for (let i = j; i < end; i++) steps.push({ from: i, to: i + 1, m: null });
+    j = end;
+  }
+  return steps;
+}
+
+/** The product of sections from … to−1's matrices at every grid point, or null if not finite. */
+function product(mats: Float64Array[], from: number, to: number, P: number): Float64Array | null {
+  const out = Float64Array.from(mats[from]);
+  for (let j = from + 1; j < to; j++) {
+    const b = mats[j];
+    for (let o = 0; o < 8 * P; o += 8) {
+      const [ar, ai, br, bi, cr, ci, dr, di] = [out[o], out[o + 1], out[o + 2], out[o + 3], out[o + 4], out[o + 5], out[o + 6], out[o + 7]]; // prettier-ignore
+      const [er, ei, fr, fi, gr, gi, hr, hi] = [b[o], b[o + 1], b[o + 2], b[o + 3], b[o + 4], b[o + 5], b[o + 6], b[o + 7]]; // prettier-ignore
+      // [A B; C D]·[E F; G H]
+      out[o] = ar * er - ai * ei + (br * gr - bi * gi);
+      out[o + 1] = ar * ei + ai * er + (br * gi + bi * gr);
+      out[o + 2] = ar * fr - ai * fi + (br * hr - bi * hi);
+      out[o + 3] = ar * fi + ai * fr + (br * hi + bi * hr);
+      out[o + 4] = cr * er - ci * ei + (dr * gr - di * gi);
+      out[o + 5] = cr * ei + ci * er + (dr * gi + di * gr);
+      out[o + 6] = cr * fr - ci * fi + (dr * hr - di * hi);
+      out[o + 7] = cr * fi + ci * fr + (dr * hi + di * hr);
+    }
+  }
+  return out.every(Number.isFinite) ? out : null;
+}
+
+/**
  * The judged-node sweep of chains like `nominal` (as built; its load level need not be settled)
  * over `freqs`.
  */
@@ -69,6 +126,8 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
   let vImAll = fNodeAll;
   let scratch: Float64Array[] = [];
   const mats: Float64Array[] = [];
+  /** 1 where section j's matrices were read from the nominal in the last fill. */
+  let hits = new Uint8Array(0);
   const zsRe = new Float64Array(P);
   const zsIm = new Float64Array(P);
   const emf = new Float64Array(P);
@@ -84,6 +143,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
     vReAll = new Float64Array((N + 1) * P);
     vImAll = new Float64Array((N + 1) * P);
     scratch = Array.from({ length: N }, () => new Float64Array(8 * P));
+    hits = new Uint8Array(N);
   }
 
   /** Fills sections 0 … N−1 into `mats`; a nominal section's matrices come from `fixed`. */
@@ -94,6 +154,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
     for (let j = 0; j < N; j++) {
       const s = built.sections[j];
       const own = fixed && sameFrequencies ? fixed.get(modelSection(built, j)) : undefined;
+      hits[j] = own ? 1 : 0;
       if (own) mats[j] = own;
       else {
         s.fill(fNode, j * P, P, scratch[j], 0);
@@ -118,6 +179,18 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
   const fixedZs = Float64Array.from(pair);
   const fixedEmf = Float64Array.from(grid, (f) => nominalSource.emf(f));
 
+  /** The steps of the last fill for node `flat`, by which sections were the nominal's. */
+  const plans = new Map<string, Step[]>();
+  function stepsFor(flat: number): Step[] {
+    const key = `${flat}:${hits.join('')}`;
+    let steps = plans.get(key);
+    if (!steps) {
+      steps = planSteps(mats, hits, flat, P);
+      plans.set(key, steps);
+    }
+    return steps;
+  }
+
   function run(built: BuiltChain, flat: number): NodeAnalysis {
     shape(built.sections.length);
     fillSections(built, fixed);
@@ -133,12 +206,13 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
       zinRe[N * P + k] = pair[2 * k];
       zinIm[N * P + k] = pair[2 * k + 1];
     }
-    for (let j = N - 1; j >= 0; j--) {
-      const m = mats[j];
-      const out = j * P;
-      for (let k = 0; k < P; k++) backStep(m, 8 * k, zinRe, zinIm, out + P + k, out + k);
+    const steps = stepsFor(flat);
+    for (let q = steps.length - 1; q >= 0; q--) {
+      const { from, to } = steps[q];
+      const m = steps[q].m ?? mats[from];
+      for (let k = 0; k < P; k++) backStep(m, 8 * k, zinRe, zinIm, to * P + k, from * P + k);
     }
-    // The voltage at the source terminal, then section by section up to the node.
+    // The voltage at the source terminal, then step by step up to the node.
     const source = built.source.model;
     const zs = source === nominalSource ? fixedZs : pair;
     if (source === nominalSource) emf.set(fixedEmf);
@@ -151,10 +225,10 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
       zsIm[k] = zs[2 * k + 1];
       sourceStep(emf, zsRe, zsIm, zinRe, zinIm, vRe, vIm, k, k);
     }
-    for (let j = 0; j < flat; j++) {
-      const m = mats[j];
-      const at = j * P;
-      for (let k = 0; k < P; k++) voltageStep(m, 8 * k, zinRe, zinIm, vRe, vIm, at + k, at + P + k);
+    for (const { from, to, m: joined } of steps) {
+      if (from >= flat) break;
+      const m = joined ?? mats[from];
+      for (let k = 0; k < P; k++) voltageStep(m, 8 * k, zinRe, zinIm, vRe, vIm, from * P + k, to * P + k); // prettier-ignore
     }
     return {
       points: P,
