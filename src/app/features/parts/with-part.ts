@@ -6,8 +6,7 @@
 import type { ParamSpec } from '../../../../shared/engine/types';
 import type { PartDto } from '../../../../shared/schema/api';
 import type { PartRef, StageInstance } from '../../../../shared/schema/chain';
-import { formatEngineering } from '../../../../shared/units/format';
-import { engineering, plain } from '../editor/results/format-quantity';
+import { engineering, fieldText, plain } from '../editor/results/format-quantity';
 import { withTolerance, withValue } from '../editor/state/stage-factory';
 
 /**
@@ -33,7 +32,8 @@ export function withPart(
   part: PartDto,
 ): StageInstance {
   const unit = part.kind === 'inductor' ? 'henry' : 'farad';
-  let next = withValue(stage, spec.key, part.value, formatEngineering(part.value, unit, 4));
+  // The field's text: enough figures to read back as the part's value exactly.
+  let next = withValue(stage, spec.key, part.value, fieldText(part.value, unit));
   if (spec.tolerance) next = withTolerance(next, spec.key, part.tolerancePct);
   const qKey = qKeyFor(params, spec);
   if (qKey && part.q !== null) next = withValue(next, qKey, part.q);
