@@ -48,6 +48,19 @@ describe('working with colleagues', () => {
     await o.getByText(email).first().waitFor();
     await shot(o, 'colleagues-01-owner-invites');
 
+    // The owner (a site admin) reads the invitation in the development mailbox: the server
+    // runs the local mail catcher, so the menu offers it.
+    await o.getByRole('button', { name: /, account menu$/ }).click();
+    await o.getByRole('menuitem', { name: 'Development mailbox' }).click();
+    await o.waitForURL(/\/admin\/mail$/);
+    await o.getByRole('button', { name: new RegExp(`to ${email}`) }).click();
+    const reader = o.getByRole('article', { name: 'Message' });
+    await reader.getByRole('heading', { name: /invites you to/ }).waitFor();
+    await reader.getByRole('button', { name: 'As plain text' }).click();
+    const mailLink = reader.getByTestId('mail-text').getByRole('link');
+    expect(await mailLink.getAttribute('href')).toMatch(/\/invitation\/[A-Za-z0-9_-]{43}$/);
+    await shot(o, 'colleagues-01b-development-mailbox');
+
     // The colleague accepts from the mailed link, choosing a name and a password.
     const invitation = await mailedLink(email, '/invitation/');
     colleague = await openPage(browser);
@@ -89,6 +102,10 @@ describe('working with colleagues', () => {
     await c.getByLabel('New comment').fill(`Is this tank loaded too heavily? ${DEMO.owner}`);
     await c.getByRole('button', { name: 'Post comment' }).click();
     await c.getByTestId('comment').first().waitFor();
+    // The owner, mentioned by address, is told by mail with a link to the stage.
+    await c.getByText(`Mentioned by mail: ${DEMO.owner}.`).waitFor();
+    const mention = await mailedLink(DEMO.owner, `/w/${wid}/chains/`);
+    expect(new URL(mention).pathname).toBe(chainUrl);
     await shot(c, 'colleagues-05-colleague-comments');
     await o
       .locator('[data-testid="stage-comments"][aria-label="1 comment on this stage"]')
