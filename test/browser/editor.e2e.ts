@@ -4,18 +4,24 @@
  * a plot and the tank-loading flag follow, save, restore an older revision, and resolve
  * a save conflict with a second browser session.
  */
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Browser, Locator, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
+import { DEMO, launchBrowser, openPage, signIn, uniqueSuffix, type WatchedPage } from './harness';
 import {
-  DEMO,
-  launchBrowser,
-  openPage,
-  shot,
-  signIn,
-  uniqueSuffix,
-  type WatchedPage,
-} from './harness';
+  budgetText,
+  downloadExport,
+  dragCard,
+  dragFromPalette,
+  editToRender,
+  openSidePanel,
+  save,
+  savedVersion,
+  snap,
+} from './helpers/editor';
+import './helpers/matchers';
+import { card, cards, expectTypes, fieldOf, param, typeParam } from './helpers/strip';
+import { expectText, waitUntil } from './helpers/wait';
 
 describe('chain editor', () => {
   let browser: Browser;
@@ -128,11 +134,7 @@ describe('chain editor', () => {
       .click();
     await typeParam(page, 'l', '47 uH', '= 47 µH');
     await save(page, 'Bigger coil');
-    await page
-      .getByRole('radio', { name: 'History', exact: true })
-      .or(page.getByRole('button', { name: 'History', exact: true }))
-      .first()
-      .click();
+    await openSidePanel(page, 'History');
     const older = page.locator(`cw-revision-panel li[data-version="${firstVersion}"]`);
     await older.getByRole('button', { name: 'View' }).click();
     await expectText(page.locator('.banner'), `Viewing revision ${firstVersion}`);
@@ -145,11 +147,7 @@ describe('chain editor', () => {
     await card(page, 1)
       .getByRole('button', { name: /^Select / })
       .click();
-    await page
-      .getByRole('radio', { name: 'Stage', exact: true })
-      .or(page.getByRole('button', { name: 'Stage', exact: true }))
-      .first()
-      .click();
+    await openSidePanel(page, 'Stage');
     expect(await param(page, 'l').inputValue()).toBe('22 uH');
     await snap(page, 'editor-08-restored');
 
@@ -230,11 +228,7 @@ describe('chain editor', () => {
       'triode-amplifier',
       'envelope-detector',
     ]);
-    await page
-      .getByRole('radio', { name: 'Chain', exact: true })
-      .or(page.getByRole('button', { name: 'Chain', exact: true }))
-      .first()
-      .click();
+    await openSidePanel(page, 'Chain');
     await page.locator('input[data-param="channelBandwidthHz"]').fill('9k');
     await expectText(
       page
@@ -260,11 +254,7 @@ describe('chain editor', () => {
     const figures = await editToRender(page);
 
     // Unsaved edits survive a reload as a local draft, offered back on opening.
-    await page
-      .getByRole('radio', { name: 'Stage', exact: true })
-      .or(page.getByRole('button', { name: 'Stage', exact: true }))
-      .first()
-      .click();
+    await openSidePanel(page, 'Stage');
     await card(page, 1)
       .getByRole('button', { name: /^Select / })
       .click();
@@ -326,176 +316,3 @@ describe('chain editor', () => {
     );
   });
 });
-
-// Helpers
-
-/** Waits for the analysis in flight to land, then takes the screenshot. */
-/** Picks an item of the editor's Export menu and reads the file the browser downloads. */
-async function downloadExport(page: Page, item: string): Promise<{ name: string; text: string }> {
-  await page.getByTestId('export-menu').click();
-  const [download] = await Promise.all([
-    page.waitForEvent('download'),
-    page.getByRole('menuitem', { name: item }).click(),
-  ]);
-  return { name: download.suggestedFilename(), text: readFileSync(await download.path(), 'utf8') };
-}
-
-async function snap(page: Page, name: string): Promise<void> {
-  await waitUntil(
-    async () =>
-      (await page.getByRole('progressbar', { name: 'Analysing the chain' }).count()) === 0,
-    'the analysis to settle',
-  );
-  await shot(page, name);
-}
-
-/** Durations (ms) of the editor's edit-to-rendered-result measures on this page so far. */
-async function editToRender(page: Page): Promise<number[]> {
-  return page.evaluate(() =>
-    performance.getEntriesByName('cw-edit-to-render', 'measure').map((m) => Math.round(m.duration)),
-  );
-}
-
-function cards(page: Page): Locator {
-  return page.locator('cw-stage-strip .slot');
-}
-
-function card(page: Page, index: number): Locator {
-  return cards(page).nth(index);
-}
-
-function param(page: Page, key: string): Locator {
-  return page.locator(`cw-param-panel input[data-param="${key}"]`);
-}
-
-function fieldOf(page: Page, key: string): Locator {
-  return param(page, key).locator('xpath=ancestor::cw-quantity-field[1]');
-}
-
-async function cardTypes(page: Page): Promise<string[]> {
-  return cards(page)
-    .locator('article')
-    .evaluateAll((els) => els.map((el) => el.getAttribute('data-stage-type') ?? ''));
-}
-
-/** Waits until the strip shows these stage types in this order (rendering is asynchronous). */
-async function expectTypes(page: Page, types: string[]): Promise<void> {
-  let seen: string[] = [];
-  try {
-    await waitUntil(async () => {
-      seen = await cardTypes(page);
-      return JSON.stringify(seen) === JSON.stringify(types);
-    }, 'the stage order');
-  } catch {
-    throw new Error(`expected stages ${types.join(' → ')}, saw ${seen.join(' → ')}`);
-  }
-}
-
-async function budgetText(page: Page): Promise<string> {
-  return (await page.getByRole('region', { name: 'Budget by node' }).textContent()) ?? '';
-}
-
-/** Types into a parameter field and waits for the value read back beside it (null: an error). */
-async function typeParam(
-  page: Page,
-  key: string,
-  text: string,
-  readBack: string | null,
-): Promise<void> {
-  const field = param(page, key);
-  await field.fill(text);
-  if (readBack === null) return;
-  await expectText(fieldOf(page, key).locator('output'), readBack);
-}
-
-/**
- * A real pointer drag: CDK starts a drag only after the pointer moves a few pixels with the
- * button down, and sorts on intermediate moves, so the path goes in steps.
- */
-async function dragFromPalette(page: Page, label: string, target: Locator): Promise<void> {
-  await page.getByPlaceholder('Search types').fill(label);
-  const item = page.locator('cw-stage-palette .item').filter({ hasText: label }).first();
-  await target.scrollIntoViewIfNeeded();
-  const from = (await item.boundingBox())!;
-  const to = (await target.boundingBox())!;
-  await page.mouse.move(from.x + 30, from.y + from.height / 2);
-  await page.mouse.down();
-  await page.mouse.move(from.x + 40, from.y + from.height / 2 + 8, { steps: 4 });
-  await page.mouse.move(to.x + to.width * 0.3, to.y + to.height / 2, { steps: 25 });
-  await page.mouse.move(to.x + to.width * 0.25, to.y + to.height / 2, { steps: 5 });
-  await page.mouse.up();
-  await page.getByPlaceholder('Search types').fill('');
-}
-
-/** Drags the card at `from` over the card at `to` (its left part) and drops it there. */
-async function dragCard(page: Page, from: number, to: number): Promise<void> {
-  const start = (await card(page, from).locator('.values').boundingBox())!;
-  const target = (await card(page, to).boundingBox())!;
-  await page.mouse.move(start.x + 20, start.y + start.height / 2);
-  await page.mouse.down();
-  await page.mouse.move(start.x + 10, start.y + start.height / 2, { steps: 4 });
-  await page.mouse.move(target.x + target.width * 0.3, target.y + 40, { steps: 25 });
-  await page.mouse.move(target.x + target.width * 0.25, target.y + 40, { steps: 5 });
-  await page.mouse.up();
-}
-
-async function save(page: Page, message: string): Promise<void> {
-  await page.getByLabel('Save message').fill(message);
-  await page.getByRole('button', { name: 'Save', exact: true }).click();
-  await expectText(page.locator('.chip'), 'Saved');
-}
-
-async function savedVersion(page: Page): Promise<number> {
-  const text = (await page.locator('.chip').textContent()) ?? '';
-  return Number(/v(\d+)/.exec(text)?.[1]);
-}
-
-async function expectText(locator: Locator, text: string): Promise<void> {
-  await waitUntil(
-    async () => ((await locator.first().textContent()) ?? '').includes(text),
-    `"${text}"`,
-  );
-}
-
-async function waitUntil(
-  check: () => Promise<boolean>,
-  what: string,
-  timeoutMs = 15000,
-): Promise<void> {
-  const end = Date.now() + timeoutMs;
-  while (Date.now() < end) {
-    if (await check()) return;
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`timed out waiting for ${what}`);
-}
-
-// Two small polling matchers, so the test reads as a list of expectations.
-expect.extend({
-  async toHaveCountEventually(locator: Locator, count: number) {
-    try {
-      await waitUntil(async () => (await locator.count()) === count, `${count} items`);
-      return { pass: true, message: () => `expected not ${count}` };
-    } catch {
-      return { pass: false, message: () => `expected ${count} items, found ${0}` };
-    }
-  },
-  async toBeVisibleEventually(locator: Locator) {
-    try {
-      await locator.first().waitFor({ state: 'visible', timeout: 15000 });
-      return { pass: true, message: () => 'expected hidden' };
-    } catch {
-      return { pass: false, message: () => 'expected the element to become visible' };
-    }
-  },
-});
-
-declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
-  namespace jest {
-    interface Matchers<R> {
-      toHaveCountEventually(count: number): Promise<R>;
-      toBeVisibleEventually(): Promise<R>;
-    }
-  }
-}

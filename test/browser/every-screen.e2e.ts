@@ -8,19 +8,12 @@
  */
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { BASE_URL, DEMO, launchBrowser, shot } from './harness';
-import { describeAxe, horizontalOverflow, seriousAxeViolations } from './helpers/axe';
+import { checkScreen } from './helpers/axe';
+import { WIDTHS, type Width } from './helpers/widths';
 
 const LOADING_DEMO = 'Long-wave time signal, ferrite loop into a diode detector';
 const LIGHT_LOAD = 'Long-wave time signal, ferrite loop into a lightly loading detector';
 const DESIGNED_MATCH = '868 MHz sensor-network receiver, SAW filter and L-match to the LNA';
-
-const WIDTHS = [
-  { name: 'desktop', width: 1440, height: 900 },
-  { name: 'tablet', width: 1024, height: 768 },
-  { name: 'phone', width: 390, height: 844 },
-] as const;
-
-type Width = (typeof WIDTHS)[number];
 
 describe('every screen at three widths', () => {
   let browser: Browser;
@@ -249,15 +242,6 @@ describe('every screen at three widths', () => {
     void context;
   }
 });
-
-/** No page overflow and no serious axe violation; failures are added to `problems`. */
-async function checkScreen(page: Page, screen: string, problems: string[]): Promise<void> {
-  const overflow = await horizontalOverflow(page);
-  if (overflow > 0) problems.push(`${screen}: the page is ${overflow} px wider than the window`);
-  for (const line of describeAxe(await seriousAxeViolations(page))) {
-    problems.push(`${screen}: ${line}`);
-  }
-}
 
 function watch(page: Page, problems: string[]): void {
   page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));

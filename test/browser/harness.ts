@@ -54,12 +54,19 @@ const HANDLED_HTTP_NOISE = /^Failed to load resource: the server responded with 
 
 export async function openPage(
   browser: Browser,
-  options: { colorScheme?: 'light' | 'dark' } = {},
+  options: {
+    colorScheme?: 'light' | 'dark';
+    viewport?: { width: number; height: number };
+    /** Touch and a mobile viewport, as on a phone. */
+    phone?: boolean;
+  } = {},
 ): Promise<WatchedPage> {
   const context = await browser.newContext({
     baseURL: BASE_URL,
-    viewport: { width: 1280, height: 800 },
+    viewport: options.viewport ?? { width: 1280, height: 800 },
     colorScheme: options.colorScheme ?? 'light',
+    hasTouch: options.phone ?? false,
+    isMobile: options.phone ?? false,
   });
   const page = await context.newPage();
   const problems: string[] = [];
@@ -93,8 +100,16 @@ export async function signOut(page: Page, displayName: string): Promise<void> {
   await page.waitForURL('**/sign-in');
 }
 
-/** Saves a full-page PNG as test-results/screenshots/<name>.png. */
-export async function shot(page: Page, name: string): Promise<string> {
+/**
+ * Saves a PNG as test-results/screenshots/<name>.png: the full page, or only the window with
+ * `{ fullPage: false }`, for an open menu (a full-page capture resizes the window, and an
+ * overlay menu closes on that).
+ */
+export async function shot(
+  page: Page,
+  name: string,
+  options: { fullPage?: boolean } = {},
+): Promise<string> {
   mkdirSync(SCREENSHOTS, { recursive: true });
   const path = join(SCREENSHOTS, `${name}.png`);
   // Let fonts and Material's entry transitions settle so the picture shows the real state.
@@ -107,7 +122,7 @@ export async function shot(page: Page, name: string): Promise<string> {
       .getAnimations()
       .every((a) => a.playState !== 'running' || a.effect?.getTiming().iterations === Infinity),
   );
-  await page.screenshot({ path, fullPage: true });
+  await page.screenshot({ path, fullPage: options.fullPage ?? true });
   return path;
 }
 

@@ -7,89 +7,19 @@
  * on its own, and a budget figure. Then the same report from a read-only link, signed
  * out, and the flags table downloaded as CSV under its export name.
  */
-import { spawnSync } from 'node:child_process';
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { join } from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import { readFileSync } from 'node:fs';
+import type { Browser } from 'playwright-core';
 import type { AnalysisResult } from '../../shared/engine/types';
 import type { ChainDto } from '../../shared/schema/api';
 import { formatEngineering } from '../../shared/units/format';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+import { api, savedAnalysis } from './helpers/api';
+import { describeAxe, seriousAxeViolations } from './helpers/axe';
+import { flat, pdfPageSize, pdfText, printPdf, reportReady } from './helpers/pdf';
 
 const CHAIN = 'Long-wave time signal, ferrite loop into a diode detector';
 const STEM = 'long-wave-time-signal-ferrite-loop-into-a-diode-detector';
-const OUT = join(process.cwd(), 'test-results');
 const TRANSCEIVER = '433.92 MHz low-power transceiver';
-
-/** Calls the API as the signed-in user of `page` (session cookie and its CSRF token). */
-async function api<T>(page: Page, method: 'get' | 'post', url: string, data?: unknown): Promise<T> {
-  const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
-  const res = await page.request.fetch(url, { method, data, headers: { 'x-csrf-token': token } });
-  if (!res.ok()) throw new Error(`${method} ${url}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
-}
-
-/** Text of a PDF as poppler reads it, with runs of white space made single spaces. */
-function pdfText(file: string): string {
-  const run = spawnSync('pdftotext', ['-enc', 'UTF-8', file, '-'], { encoding: 'utf8' });
-  if (run.status !== 0) throw new Error(`pdftotext failed: ${run.stderr || run.error}`);
-  return flat(run.stdout);
-}
-
-/** The first page's size in points, from pdfinfo. */
-function pdfPageSize(file: string): { width: number; height: number } {
-  const run = spawnSync('pdfinfo', [file], { encoding: 'utf8' });
-  const match = /Page size:\s+([\d.]+) x ([\d.]+) pts/.exec(run.stdout);
-  if (!match) throw new Error(`pdfinfo gave no page size: ${run.stdout}${run.stderr}`);
-  return { width: Number(match[1]), height: Number(match[2]) };
-}
-
-/** NFKC too: it folds ligatures, and the micro sign µ into the Greek μ the PDF font maps. */
-const flat = (text: string) => text.normalize('NFKC').replace(/\s+/g, ' ').trim();
-
-/** Waits until the report's plots are drawn (or it has none), so the PDF holds them. */
-async function reportReady(page: Page): Promise<void> {
-  await page.locator('article.sheet[data-plots="ready"]').waitFor({ timeout: 60000 });
-}
-
-/**
- * Serious and critical accessibility violations axe-core finds on the page at `url`. The
- * app's CSP refuses injected scripts, so axe runs in a context of its own that bypasses it.
- */
-async function seriousAxeViolations(browser: Browser, url: string): Promise<string[]> {
-  const context = await browser.newContext({ bypassCSP: true });
-  try {
-    const page = await context.newPage();
-    await page.goto(url);
-    await reportReady(page);
-    await page.addScriptTag({ path: require.resolve('axe-core/axe.min.js') });
-    const found = await page.evaluate(async () => {
-      const axe = (globalThis as unknown as { axe: AxeRunner }).axe;
-      const result = await axe.run();
-      return result.violations
-        .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-        .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
-    });
-    return found;
-  } finally {
-    await context.close();
-  }
-}
-
-/** The part of axe-core's API the check uses (the tests compile without DOM types). */
-interface AxeRunner {
-  run(): Promise<{
-    violations: { id: string; impact?: string | null; nodes: { target: string[] }[] }[];
-  }>;
-}
-
-async function printPdf(page: Page, name: string): Promise<string> {
-  mkdirSync(OUT, { recursive: true });
-  const file = join(OUT, `${name}.pdf`);
-  // The page's own @page rule sets the paper, as the browser's print dialog would take it.
-  writeFileSync(file, await page.pdf({ preferCSSPageSize: true, printBackground: true }));
-  return file;
-}
 
 describe('printable report', () => {
   let browser: Browser;
@@ -116,12 +46,7 @@ describe('printable report', () => {
     const chainId = page.url().split('/').pop()!;
 
     // The analysis the report must show, asked of the API on its own.
-    chain = await api<ChainDto>(page, 'get', `/api/chains/${chainId}`);
-    analysis = await api<AnalysisResult>(page, 'post', '/api/analysis', {
-      document: chain.document,
-      sweep: true,
-      workspaceId: chain.workspaceId,
-    });
+    ({ chain, analysis } = await savedAnalysis(page, chainId));
     expect(analysis.flags.length).toBeGreaterThan(0);
 
     const [tab] = await Promise.all([
@@ -219,7 +144,7 @@ describe('printable report', () => {
       await visitor.page.waitForURL(/\/shared\/[^/]+\/report$/);
       await reportReady(visitor.page);
       await shot(visitor.page, 'report-03-shared');
-      expect(await seriousAxeViolations(browser, visitor.page.url())).toEqual([]);
+      expect(describeAxe(await seriousAxeViolations(visitor.page))).toEqual([]);
       const text = pdfText(await printPdf(visitor.page, 'report-shared'));
       expect(text).toContain(CHAIN);
       expect(text).toContain('read-only link');

@@ -6,6 +6,8 @@
  */
 import type { Browser, Locator, Page } from 'playwright-core';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+import { cardNamed, flagCodes, selectCard, settled } from './helpers/strip';
+import { expectText, waitUntil } from './helpers/wait';
 
 const CRYSTAL_SET = 'Crystal set, 1 MHz, coupled coils with a tuned secondary';
 
@@ -48,9 +50,7 @@ describe('tuned circuits found in the network', () => {
     await shot(page, 'tuned-circuits-earphone');
 
     // The 1 kΩ headphone: select the detector, change its load.
-    await cardNamed(page, 'Diode detector, 20 kΩ earphone')
-      .getByRole('button', { name: /^Select / })
-      .click();
+    await selectCard(cardNamed(page, 'Diode detector, 20 kΩ earphone'));
     await page.locator('cw-param-panel input[data-param="rLoad"]').fill('1k');
     await waitUntil(
       async () => (await flagCodes(coupler(page))).includes('tank-overloaded'),
@@ -66,44 +66,6 @@ describe('tuned circuits found in the network', () => {
   });
 });
 
-function cardNamed(page: Page, label: string): Locator {
-  return page.locator('cw-stage-strip .slot').filter({ hasText: label }).first();
-}
-
 function coupler(page: Page): Locator {
   return cardNamed(page, 'Air-core coupler 8 µH : 12 µH');
-}
-
-async function flagCodes(card: Locator): Promise<string[]> {
-  return card
-    .locator('[data-flag-code]')
-    .evaluateAll((els) => els.map((el) => el.getAttribute('data-flag-code') ?? ''));
-}
-
-async function settled(page: Page): Promise<void> {
-  await waitUntil(
-    async () =>
-      (await page.getByRole('progressbar', { name: 'Analysing the chain' }).count()) === 0,
-    'the analysis to settle',
-  );
-}
-
-async function expectText(locator: Locator, text: string): Promise<void> {
-  await waitUntil(
-    async () => ((await locator.first().textContent()) ?? '').includes(text),
-    `"${text}"`,
-  );
-}
-
-async function waitUntil(
-  check: () => Promise<boolean>,
-  what: string,
-  timeoutMs = 15000,
-): Promise<void> {
-  const end = Date.now() + timeoutMs;
-  while (Date.now() < end) {
-    if (await check()) return;
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`timed out waiting for ${what}`);
 }

@@ -59,13 +59,32 @@ export function describeAxe(problems: AxeProblem[]): string[] {
   return problems.map((p) => `${p.impact} ${p.id}: ${p.help} at ${p.targets.join(', ')}`);
 }
 
-/** Whether the page scrolls sideways: its scroll width beyond the window's inner width. */
+/**
+ * How far the page scrolls sideways: its scroll width beyond the window's width. The width is
+ * the one the test set: on a phone (a mobile viewport) Chromium widens the layout viewport,
+ * and with it innerWidth, to fit content that overflows, so innerWidth alone hides it.
+ */
 export async function horizontalOverflow(page: Page): Promise<number> {
-  return page.evaluate(() => {
+  const set = page.viewportSize()?.width ?? Infinity;
+  const { scrollWidth, innerWidth } = await page.evaluate(() => {
     const g = globalThis as unknown as {
       document: { scrollingElement: { scrollWidth: number } | null };
       innerWidth: number;
     };
-    return (g.document.scrollingElement?.scrollWidth ?? 0) - g.innerWidth;
+    return { scrollWidth: g.document.scrollingElement?.scrollWidth ?? 0, innerWidth: g.innerWidth };
   });
+  return scrollWidth - Math.min(innerWidth, set);
+}
+
+/**
+ * The check made on every screen a test visits: no sideways page overflow and no serious or
+ * critical axe violation. Failures are added to `problems` (named by `screen`), so one run
+ * reports every screen that fails instead of stopping at the first.
+ */
+export async function checkScreen(page: Page, screen: string, problems: string[]): Promise<void> {
+  const overflow = await horizontalOverflow(page);
+  if (overflow > 0) problems.push(`${screen}: the page is ${overflow} px wider than the window`);
+  for (const line of describeAxe(await seriousAxeViolations(page))) {
+    problems.push(`${screen}: ${line}`);
+  }
 }

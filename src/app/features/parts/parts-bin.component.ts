@@ -13,6 +13,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { firstValueFrom } from 'rxjs';
 import type { PartDto, PartsPreviewDto } from '../../../../shared/schema/api';
 import { PartsApi } from '../../core/api/parts.api';
+import { ScrollFrameComponent } from '../../core/tables/scroll-frame.component';
 import { describeHttpError } from '../../core/http/error-message';
 import { SessionStore } from '../../core/session/session.store';
 import { formatPart, PART_FIELD_LABELS, type PartFieldKey } from './part-format';
@@ -29,7 +30,7 @@ interface Upload {
  */
 @Component({
   selector: 'cw-parts-bin',
-  imports: [MatButtonModule, MatIconModule],
+  imports: [MatButtonModule, MatIconModule, ScrollFrameComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './parts-bin.component.html',
   styleUrl: './parts-bin.component.scss',

@@ -1,0 +1,30 @@
+/** The app's API called as the signed-in user of a page (its session cookie and CSRF token). */
+import type { Page } from 'playwright-core';
+import type { AnalysisResult } from '../../../shared/engine/types';
+import type { ChainDto } from '../../../shared/schema/api';
+
+export async function api<T>(
+  page: Page,
+  method: 'get' | 'post',
+  url: string,
+  data?: unknown,
+): Promise<T> {
+  const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
+  const res = await page.request.fetch(url, { method, data, headers: { 'x-csrf-token': token } });
+  if (!res.ok()) throw new Error(`${method} ${url}: ${res.status()} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
+/** The saved chain and its analysis (with the sweep), asked of the API on its own. */
+export async function savedAnalysis(
+  page: Page,
+  chainId: string,
+): Promise<{ chain: ChainDto; analysis: AnalysisResult }> {
+  const chain = await api<ChainDto>(page, 'get', `/api/chains/${chainId}`);
+  const analysis = await api<AnalysisResult>(page, 'post', '/api/analysis', {
+    document: chain.document,
+    sweep: true,
+    workspaceId: chain.workspaceId,
+  });
+  return { chain, analysis };
+}
