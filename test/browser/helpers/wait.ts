@@ -1,7 +1,9 @@
 /**
  * Bounded polling for the browser tests: the app renders asynchronously (analyses run on
  * the server, Angular updates after), so a test waits for the value it expects instead of
- * reading the page at once. Each helper gives up after a deadline with the last value seen.
+ * reading the page at once. Each helper gives up after a deadline with the last value seen;
+ * the 30 s default is generous because the machine running the tests may be shared and
+ * loaded, and a wait ends as soon as its condition holds.
  */
 import type { Locator } from 'playwright-core';
 
@@ -9,7 +11,7 @@ import type { Locator } from 'playwright-core';
 export async function waitUntil(
   check: () => Promise<boolean>,
   what: string,
-  timeoutMs = 15000,
+  timeoutMs = 30000,
 ): Promise<void> {
   const end = Date.now() + timeoutMs;
   while (Date.now() < end) {
@@ -20,7 +22,7 @@ export async function waitUntil(
 }
 
 /** Waits until the first element's text content contains `text`. */
-export async function expectText(locator: Locator, text: string, timeoutMs = 15000): Promise<void> {
+export async function expectText(locator: Locator, text: string, timeoutMs = 30000): Promise<void> {
   let seen = '';
   try {
     await waitUntil(
