@@ -9,7 +9,7 @@
  */
 import type { Browser, Locator, Page } from 'playwright-core';
 import { DEMO, launchBrowser, shot, signIn, uniqueSuffix, type WatchedPage } from './harness';
-import { savedAnalysis } from './helpers/api';
+import { api, savedAnalysis } from './helpers/api';
 import { checkScreen } from './helpers/axe';
 import { AMPLIFIER_TS, EXPECTED_NF_DB, PARTS_CSV, chainFile } from './helpers/formats-data';
 import { flat, pdfText, printPdf, reportReady } from './helpers/pdf';
@@ -178,6 +178,10 @@ async function walk({ page, problems }: WatchedPage, size: Width): Promise<void>
   expect(text).toMatch(printedNf);
   expect(text).toContain('Cautions');
   await report.close();
+
+  // Leave the chain list as it was, so later tests find the demo chains on its first page.
+  await page.goto(`/w/${wid}/chains`);
+  await api(page, 'delete', `/api/chains/${chainId}`);
 }
 
 /** Opens a stage's values: select its card; on a phone the values come up as a sheet. */

@@ -6,6 +6,7 @@
  */
 import type { Browser, Locator, Page } from 'playwright-core';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+import { openChainNamed } from './helpers/chains';
 import { cardNamed, flagCodes, selectCard, settled } from './helpers/strip';
 import { expectText, waitUntil } from './helpers/wait';
 
@@ -36,8 +37,7 @@ describe('tuned circuits found in the network', () => {
     const { page } = watched;
     await signIn(page, DEMO.editor, DEMO.password);
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
-    await page.getByRole('link', { name: CRYSTAL_SET, exact: true }).click();
-    await page.waitForURL(/\/chains\/[^/]+$/);
+    await openChainNamed(page, CRYSTAL_SET);
     await settled(page);
 
     // The resonator table shows the secondary, found from the coupler and the capacitor.

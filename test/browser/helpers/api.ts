@@ -5,14 +5,15 @@ import type { ChainDto } from '../../../shared/schema/api';
 
 export async function api<T>(
   page: Page,
-  method: 'get' | 'post',
+  method: 'get' | 'post' | 'delete',
   url: string,
   data?: unknown,
 ): Promise<T> {
   const { token } = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
   const res = await page.request.fetch(url, { method, data, headers: { 'x-csrf-token': token } });
   if (!res.ok()) throw new Error(`${method} ${url}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
+  // A delete answers 204 with no body.
+  return (res.status() === 204 ? undefined : await res.json()) as T;
 }
 
 /** The saved chain and its analysis (with the sweep), asked of the API on its own. */
