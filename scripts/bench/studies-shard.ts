@@ -2,8 +2,8 @@
  * One study worker's share of the benchmark's Monte Carlo run, as its own process:
  *   node dist/studies-shard.js <points> <from> <to>
  * Prints (JSON) the trials done, the milliseconds from the process's start to the first trial
- * (loading the code and planning: once per worker, whatever the trial count), the milliseconds
- * the trials took, and the processor time they took.
+ * (loading the code and planning: once per worker, whatever the trial count) and the processor
+ * time that took, and the milliseconds and processor time the trials took.
  */
 import { chainDocumentSchema } from '../../shared/schema/chain';
 import { monteCarloSpecSchema } from '../../shared/schema/studies';
@@ -22,12 +22,13 @@ const inputs = { doc };
 const plan = planMonteCarlo(inputs, spec);
 // performance.now() counts from the process's start.
 const t0 = performance.now();
-const c0 = process.cpuUsage();
+const c0 = process.cpuUsage(); // processor time since the process started
 runTrials(inputs, plan, from, to);
 const cpu = process.cpuUsage(c0);
 const out = {
   trials: to - from,
   setupMs: t0,
+  setupCpuMs: (c0.user + c0.system) / 1000,
   ms: performance.now() - t0,
   cpuMs: (cpu.user + cpu.system) / 1000,
 };

@@ -41,8 +41,9 @@ function bundleShard(): string {
 /** What one shard process reports (studies-shard.ts). */
 interface ShardReport {
   trials: number;
-  /** From the process's start to its first trial, ms. */
+  /** From the process's start to its first trial, ms, and the processor time of that. */
   setupMs: number;
+  setupCpuMs: number;
   /** The trials, ms (wall clock) and processor ms. */
   ms: number;
   cpuMs: number;
@@ -85,6 +86,13 @@ export const studiesSection: BenchSection = {
       ms(one.projectedMs),
       '≤ 10 s',
       verdict(one.projectedMs <= 10_000),
+    );
+    // What one worker's run costs in processor time: its wall time on an idle core.
+    const cpu = one.setupCpuMs + one.cpuMs * scale;
+    ctx.row(
+      '  processor time of the same (start, plan and 10,000 trials; its wall time on an idle core)',
+      ms(cpu),
+      '—',
     );
     // Two workers, each with half the share (so each would run 5,000 of the 10,000: the same scale).
     const [a, b] = await Promise.all([
