@@ -23,12 +23,8 @@ import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
 import { budgetText } from '../shared/io/budget-text';
 import { planText } from '../shared/io/plan-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
-import {
-  CHAIN_FORMAT,
-  CHAIN_FORMAT_VERSION,
-  chainDocumentSchema,
-  type ChainDocument,
-} from '../shared/schema/chain';
+import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, type ChainDocument } from '../shared/schema/chain';
+import { ChainDocumentError, parseChainDocument } from '../shared/schema/parse-chain';
 import { writeResultJson, writeSweepTable, type Write } from './cli/stream-sweep';
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 import { modeReportText, modesText } from './cli/mode-text';
@@ -153,33 +149,46 @@ function lineAndColumn(text: string, position: number): string {
   return `line ${before.length}, column ${before[before.length - 1].length + 1}`;
 }
 
-/** Schema problems, one line each, naming the stage when the path is inside one. */
-function schemaIssues(raw: unknown): string[] {
+/**
+ * The chain document in `raw`, parsed once by the chain schema.
+ * @throws CliError (exit 3) listing the problems one a line, naming the stage when the path
+ *   is inside one
+ */
+function readDocument(raw: unknown, file: string): ChainDocument {
+  const problems = (lines: string[]) =>
+    new CliError(
+      3,
+      `${file}: ${lines.length} problem(s) in the chain:\n${lines.map((p) => `  ${p}`).join('\n')}`,
+    );
   const head = (raw ?? {}) as { format?: unknown; formatVersion?: unknown };
   // Name what was found, so an old reader facing a newer file says so plainly.
   if (head.format !== undefined && head.format !== CHAIN_FORMAT) {
-    return [
+    throw problems([
       `format: this is not a chain file (format ${JSON.stringify(head.format)}; expected "${CHAIN_FORMAT}")`,
-    ];
+    ]);
   }
   if (head.formatVersion !== undefined && head.formatVersion !== CHAIN_FORMAT_VERSION) {
-    return [
+    throw problems([
       `formatVersion: ${JSON.stringify(head.formatVersion)} is not a version this program reads ` +
         `(it reads ${CHAIN_FORMAT_VERSION}); use a program that knows that version or convert the file`,
-    ];
+    ]);
   }
-  const parsed = chainDocumentSchema.safeParse(raw);
-  if (parsed.success) return [];
-  const stages = (raw as { stages?: unknown[] } | null)?.stages;
-  return parsed.error.issues.map((issue) => {
-    const path = issue.path.map(String);
-    let who = '';
-    if (path[0] === 'stages' && path.length > 1 && Array.isArray(stages)) {
-      const s = (stages[Number(path[1])] ?? {}) as { id?: unknown; type?: unknown };
-      who = `stage ${Number(path[1]) + 1} (${String(s.id ?? '?')}, ${String(s.type ?? '?')}) `;
-    }
-    return `${formatPath(path)}: ${who}${issue.message}`;
-  });
+  try {
+    return parseChainDocument(raw, file);
+  } catch (e) {
+    if (!(e instanceof ChainDocumentError)) throw e;
+    const stages = (raw as { stages?: unknown[] } | null)?.stages;
+    throw problems(
+      e.problems.map(({ path, message }) => {
+        let who = '';
+        if (path[0] === 'stages' && path.length > 1 && Array.isArray(stages)) {
+          const st = (stages[Number(path[1])] ?? {}) as { id?: unknown; type?: unknown };
+          who = `stage ${Number(path[1]) + 1} (${String(st.id ?? '?')}, ${String(st.type ?? '?')}) `;
+        }
+        return `${formatPath(path)}: ${who}${message}`;
+      }),
+    );
+  }
 }
 
 function formatPath(path: (string | number)[]): string {
@@ -245,15 +254,7 @@ function run(argv: string[], write: Write): void {
   if (o.timing) process.on('exit', () => process.stderr.write(timingText(performance.now())));
   const catalogue = STAGE_DEFINITIONS;
   if (o.listTypes) return write(listTypes(catalogue, o.json) + '\n');
-  const raw = readJson(o.file!);
-  const problems = schemaIssues(raw);
-  if (problems.length > 0) {
-    throw new CliError(
-      3,
-      `${o.file}: ${problems.length} problem(s) in the chain:\n${problems.map((p) => `  ${p}`).join('\n')}`,
-    );
-  }
-  const full = chainDocumentSchema.parse(raw);
+  const full = readDocument(readJson(o.file!), o.file!);
   if (o.listModes) {
     const modes = full.modes ?? [];
     return write((o.json ? JSON.stringify(modes, null, 2) : modesText(modes)) + '\n');
@@ -262,7 +263,7 @@ function run(argv: string[], write: Write): void {
     // Every output below is of the chain in one mode (a chain without modes: as written).
     const inMode = hasModes(full) || o.mode !== undefined;
     const view = inMode ? modeView(full, o.mode, catalogue) : undefined;
-    const doc = view ? ({ ...view.doc, name: `${full.name} — ${view.mode?.name}` } as ChainDocument) : full; // prettier-ignore
+    const doc: ChainDocument = view ? { ...view.doc, name: `${full.name} — ${view.mode?.name}` } : full; // prettier-ignore
     if (o.spice) return write(chainToSpice(doc, { catalogue }).trimEnd() + '\n');
     if (o.touchstone)
       return write(chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd() + '\n');

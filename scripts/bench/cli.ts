@@ -17,6 +17,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parseRusage } from '../../shared/engine';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { benchChain } from './bench-chain';
 import { bundleCli } from './bundle-cli';
 import { median } from './measure';
@@ -79,7 +80,7 @@ export const cliSection: BenchSection = {
         const doc = benchChain(points);
         const chainFile = join(dir, 'chain.json');
         writeFileSync(chainFile, JSON.stringify(doc));
-        const decks = benchDecks(doc);
+        const decks = benchDecks(parseChainDocument(doc));
         const reps = points > 10_000 || ctx.quick ? 1 : 5;
         const cliRuns: CliRun[] = [];
         const exported: SpiceRun[] = [];

@@ -16,6 +16,7 @@ import {
   type AnalysisResult,
 } from '../../shared/engine';
 import { bareCascade } from './bare-cascade';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { benchChain } from './bench-chain';
 import { allocatedBytes, median, timeMs, timings } from './measure';
 import { kib, ms, verdict, type BenchContext, type BenchSection } from './rows';
@@ -28,7 +29,7 @@ export const engineSection: BenchSection = {
   name: 'engine',
   run(ctx: BenchContext) {
     const catalogue = STAGE_DEFINITIONS;
-    const doc = benchChain(POINTS);
+    const doc = parseChainDocument(benchChain(POINTS));
     const built = buildChain(doc, catalogue);
     const freqs = frequencyGrid(built.settings.sweep);
     const size = `${built.twoPorts.length} two-ports (${built.sections.length} sections) × ${POINTS} points`;

@@ -8,7 +8,7 @@
  */
 import { evaluate } from 'mathjs';
 import { chainToSpiceDeck } from '../../shared/engine';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 
 export interface BenchDecks {
   exported: string;
@@ -22,7 +22,7 @@ function forBench(netlist: string): string {
   return netlist.replace(/^rusage$/m, 'rusage all').replace(/^\.endc$/m, 'quit 0\n.endc');
 }
 
-export function benchDecks(doc: ChainDocumentInput): BenchDecks {
+export function benchDecks(doc: ChainDocument): BenchDecks {
   const deck = chainToSpiceDeck(doc);
   const f0 = doc.settings.f0Hz;
   let fixed = 0;

@@ -5,13 +5,13 @@
  * (loading the code and planning: once per worker, whatever the trial count) and the processor
  * time that took, and the milliseconds and processor time the trials took.
  */
-import { chainDocumentSchema } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { monteCarloSpecSchema } from '../../shared/schema/studies';
 import { planMonteCarlo, runTrials } from '../../shared/engine/studies';
 import { benchChain } from './bench-chain';
 
 const [points, from, to] = process.argv.slice(2).map(Number);
-const doc = chainDocumentSchema.parse(benchChain(points));
+const doc = parseChainDocument(benchChain(points));
 // Every reactive value of the bench chain's tuned parts at ±5 %.
 for (const s of doc.stages) {
   const keys = Object.keys(s.values).filter((k) => ['l', 'c', 'l1', 'l2', 'cc'].includes(k));

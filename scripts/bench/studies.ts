@@ -12,7 +12,7 @@ import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { buildSync } from 'esbuild';
-import { chainDocumentSchema } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { bandSpecSchema } from '../../shared/schema/studies';
 import { runBandStudy } from '../../shared/engine/studies';
 import { ms, verdict, type BenchSection } from './rows';
@@ -106,7 +106,7 @@ export const studiesSection: BenchSection = {
       ms(two),
       '—',
     );
-    const doc = chainDocumentSchema.parse(
+    const doc = parseChainDocument(
       JSON.parse(
         readFileSync(join(ROOT, 'examples', 'shortwave-superhet-single-tank.chain.json'), 'utf8'),
       ),

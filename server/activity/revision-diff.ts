@@ -6,7 +6,8 @@ import { diffChains, keyFigures, type FigureSource } from '../../shared/diff/cha
 import { catalogue as stageCatalogue } from '../../shared/engine';
 import { runOnPool, withinBudget } from '../analysis/analysis-pool';
 import { ChainRevisionSchema } from '../chains/revision.entity';
-import { NotFoundError } from '../common/errors';
+import { storedDocument } from '../chains/stored-document';
+import { HttpError, NotFoundError } from '../common/errors';
 import { chainRole, loadedChain } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { loadDataFiles } from '../files/data-files';
@@ -32,7 +33,14 @@ export function revisionDiffRouter(em: EntityManager): Router {
     // Each revision is analysed on the thread pool under the analysis budgets. A revision the
     // engine refuses, or one over the stages × points budget, still diffs: its figures show
     // as missing.
-    const analyze = async (doc: ChainDocument): Promise<FigureSource | null> => {
+    const analyze = async (stored: ChainDocument): Promise<FigureSource | null> => {
+      let doc: ChainDocument;
+      try {
+        doc = storedDocument(stored);
+      } catch (err) {
+        if (err instanceof HttpError) return null; // today's schema refuses it: no figures
+        throw err;
+      }
       if (!withinBudget(doc)) return null;
       const dataFiles = await loadDataFiles(em, doc, chain.workspace.id).catch(() => undefined);
       const outcome = await runOnPool({

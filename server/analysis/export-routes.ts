@@ -8,6 +8,7 @@ import {
 } from '../../shared/schema/api';
 import type { ChainDocument, Mode } from '../../shared/schema/chain';
 import { exportFileName } from '../../shared/io/export-name';
+import { storedDocument } from '../chains/stored-document';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
@@ -137,7 +138,7 @@ export function chainExportRouter(em: EntityManager): Router {
   router.get('/:id/export', chainRole(em, 'viewer'), async (req, res) => {
     const query = parseOr422(exportQuerySchema, req.query, 'query');
     const chain = res.locals.chain!;
-    await sendExport(em, res, chain.document, query.format, {
+    await sendExport(em, res, storedDocument(chain.document), query.format, {
       z0: query.z0,
       workspaceId: chain.workspace.id,
       modeId: query.mode,

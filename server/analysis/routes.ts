@@ -9,6 +9,7 @@ import {
   sweepTracesQuerySchema,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
+import { storedDocument } from '../chains/stored-document';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
@@ -104,7 +105,7 @@ export function chainAnalysisRouter(em: EntityManager): Router {
       em,
       req,
       res,
-      chain.document,
+      storedDocument(chain.document),
       sweep ? traces : [],
       undefined,
       chain.workspace.id,

@@ -8,6 +8,7 @@ import { Worker } from 'node:worker_threads';
 import type pg from 'pg';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import type { StudySpec } from '../../shared/schema/studies';
 import { loadDataFiles } from '../files/data-files';
 import type { StudyLimits } from './limits';
@@ -91,16 +92,18 @@ export async function runStudy(ctx: RunnerContext, id: string): Promise<string> 
   if (!claimed) return 'skipped';
   ctx.log(`study ${id} (${claimed.spec.kind}) started, run ${claimed.attempts}`);
   let dataFiles: ThreadInput['dataFiles'];
+  let doc: ChainDocument;
   try {
-    dataFiles =
-      (await loadDataFiles(ctx.em.fork(), claimed.document, claimed.workspace_id)) ?? undefined;
+    // Stored when the study was asked for; parsed again so the engine gets today's schema.
+    doc = parseChainDocument(claimed.document, "the study's chain");
+    dataFiles = (await loadDataFiles(ctx.em.fork(), doc, claimed.workspace_id)) ?? undefined;
   } catch (err) {
     await finish(pool, id, 'failed', { error: err instanceof Error ? err.message : String(err) });
     return 'failed';
   }
   const input: ThreadInput = {
     spec: claimed.spec,
-    doc: claimed.document,
+    doc,
     dataFiles,
     checkpoint: claimed.checkpoint,
   };

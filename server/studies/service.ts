@@ -7,6 +7,7 @@ import type { ChainDocument } from '../../shared/schema/chain';
 import type { StudySpec } from '../../shared/schema/studies';
 import { bandGang, estimateWork, readValue, StudySetupError } from '../../shared/engine/studies';
 import type { Chain } from '../chains/chain.entity';
+import { storedDocument } from '../chains/stored-document';
 import { ConflictError, HttpError, NotFoundError } from '../common/errors';
 import type { User } from '../users/user.entity';
 import type { StudyLimits } from './limits';
@@ -59,7 +60,7 @@ export async function createStudy(
   user: User,
   spec: StudySpec,
 ): Promise<Study> {
-  const doc = chain.document;
+  const doc = storedDocument(chain.document);
   checkRefs(doc, spec);
   const work = estimateWork(doc, spec);
   if (work.units > limits.maxWork) {

@@ -3,7 +3,8 @@
  * sweep, resonators, selectivity, noise, linearity, levels and flags.
  */
 import type { AnalysisResult, StageDefinition } from './types';
-import { buildChain, type BuildOptions, type BuiltChain, type ChainLike } from './core/build';
+import type { ChainDocument } from '../schema/chain';
+import { buildChain, type BuildOptions, type BuiltChain } from './core/build';
 import { assertFiniteFigures } from './core/finite-figures';
 import { CAUTION_TEXT, raiseFlags } from './core/flags';
 import { settleLoadLevel } from './core/load-level';
@@ -88,15 +89,16 @@ export function analyzeBuilt(
 
 /**
  * Analyses a chain document.
+ * @param doc the document as the chain schema parsed it (`parseChainDocument`)
  * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
  */
-export function analyzeChain(doc: ChainLike, options: AnalyzeOptions = {}): AnalysisResult {
+export function analyzeChain(doc: ChainDocument, options: AnalyzeOptions = {}): AnalysisResult {
   const catalogue = options.catalogue ?? defaultCatalogue();
   const built = buildChain(doc, catalogue, options);
   // The full plan charts spurs as the chain really tunes, by its marked gang (if any).
   const tuning =
     options.plan === 'full' && built.settings.variables?.length
-      ? gangTuningOf(doc as never, (d) => buildChain(d as ChainLike, catalogue, options))
+      ? gangTuningOf(doc, (d) => buildChain(d, catalogue, options))
       : null;
   return analyzeBuilt(built, { ...options, tuning });
 }

@@ -10,7 +10,7 @@ export {
   type BuildOptions,
   type BuiltChain,
   type BuiltStage,
-  type ChainLike,
+  type ChainBody,
   type ModeRef,
 } from './core/build';
 export { runNodeAnalysis, createNodeAnalysis, type NodeAnalysis } from './core/nodes';
@@ -62,7 +62,6 @@ export {
   modeIds,
   modeValidationIssues,
   modeView,
-  readModes,
   type ModeAnalysis,
 } from './modes';
 export * from './errors';

@@ -4,14 +4,15 @@
  */
 import { ChainValidationError, type ChainIssue } from './errors';
 import type { StageDefinition } from './types';
-import { buildChain, type BuildOptions, type ChainLike } from './core/build';
+import type { ChainDocument } from '../schema/chain';
+import { buildChain, type BuildOptions } from './core/build';
 import { defaultCatalogue } from './default-catalogue';
 import { hasModes } from './modes/apply-mode';
 import { modeValidationIssues } from './modes';
 
 /** Every problem of a chain; empty when it can be analysed. */
 export function validateChain(
-  doc: ChainLike,
+  doc: ChainDocument,
   catalogue?: readonly StageDefinition[],
   options: BuildOptions = {},
 ): ChainIssue[] {

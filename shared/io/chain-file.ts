@@ -10,6 +10,7 @@ import {
   chainDocumentSchema,
   type ChainDocument,
 } from '../schema/chain';
+import { jsonPath } from '../schema/parse-chain';
 import { jsonErrorOffset } from './json-position';
 
 /** Largest chain file read, characters (an ordinary chain is a few kilobytes). */
@@ -84,16 +85,7 @@ export function readChainFile(text: string, fileName = 'the chain file'): ChainD
   return parsed.data;
 }
 
-/** `$.stages[2].values.l` from a zod issue path. */
-export function jsonPath(path: readonly PropertyKey[]): string {
-  let out = '$';
-  for (const key of path) {
-    if (typeof key === 'number') out += `[${key}]`;
-    else if (typeof key === 'string' && /^[A-Za-z_$][\w$]*$/.test(key)) out += `.${key}`;
-    else out += `[${JSON.stringify(String(key))}]`;
-  }
-  return out;
-}
+export { jsonPath };
 
 function parseJson(text: string, fileName: string): unknown {
   try {

@@ -3,7 +3,8 @@
  * and the load (the cascade of every two-port's ABCD), with one reference resistance on
  * both ports, over the chain's sweep.
  */
-import { buildChain, stageName, type ChainLike } from '../engine/core/build';
+import type { ChainDocument } from '../schema/chain';
+import { buildChain, stageName } from '../engine/core/build';
 import { frequencyGrid, type SweepSpec } from '../engine/core/sweep';
 import { cascade, identityAbcd } from '../engine/core/abcd';
 import { cascadeNoiseParameters } from '../engine/core/noise-correlation';
@@ -51,7 +52,7 @@ export interface ChainTouchstoneOptions {
  *   when a stage translates frequency
  */
 export function chainNetwork(
-  doc: ChainLike,
+  doc: ChainDocument,
   options: ChainTouchstoneOptions & { withNoise?: boolean } = {},
 ): NetworkData {
   const built = buildChain(
@@ -88,12 +89,12 @@ export function chainNetwork(
  * @throws as {@link chainNetwork}
  */
 export function chainToTouchstone(
-  doc: ChainLike & { name?: unknown },
+  doc: ChainDocument,
   options: ChainTouchstoneOptions = {},
 ): string {
   const v2 = options.version === '2.0';
   const net = chainNetwork(doc, { ...options, withNoise: v2 });
-  const name = typeof doc.name === 'string' ? doc.name.replace(/[\r\n]+/g, ' ') : 'chain';
+  const name = doc.name.replace(/[\r\n]+/g, ' ');
   const comments = [
     `Chainwright chain "${name}"`,
     'S-parameters of the stages between the source and the load, in cascade;',

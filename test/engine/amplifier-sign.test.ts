@@ -10,9 +10,10 @@
  * (small-signal hybrid-π model; e.g. Sedra and Smith, "Microelectronic Circuits", common
  * emitter chapter; from memory).
  */
-import { analyzeChain, catalogue } from '../../shared/engine';
+import { analyzeChain, catalogue, type ParamValues } from '../../shared/engine';
 import { chainToSpice } from '../../shared/engine/spice/netlist';
 import { acControl, runAc, vectorAt } from './helpers/ngspice';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const RS = 50;
 const RIN = 2600;
@@ -25,7 +26,7 @@ const FREQS = [1e6, 2e6, 3e6];
 
 /** The chain the engine analyses: generator → amplifier (by gm) → R load. */
 function chainDoc(polarity: 'inverting' | 'non-inverting', extra: Record<string, unknown> = {}) {
-  return {
+  return parseChainDocument({
     name: `amplifier phase, ${polarity}`,
     settings: { f0Hz: 2e6, sweep: { startHz: 1e6, stopHz: 3e6, points: 3, scale: 'lin' as const } }, // prettier-ignore
     stages: [
@@ -37,7 +38,7 @@ function chainDoc(polarity: 'inverting' | 'non-inverting', extra: Record<string,
       },
       { id: 'l', type: 'rc-load', values: { r: RL, c: 0 } },
     ],
-  };
+  });
 }
 
 /** Hand-written netlist of the same stage. `inverting` decides the G element's direction. */
@@ -113,9 +114,9 @@ describe.each([
 });
 
 describe('presets and stated-gain blocks', () => {
-  const shiftOf = (stageValues: Record<string, unknown>) => {
+  const shiftOf = (stageValues: ParamValues) => {
     const doc = chainDoc('inverting');
-    doc.stages[1].values = stageValues as never;
+    doc.stages[1].values = stageValues;
     const sw = analyzeChain(doc).sweep!;
     return wrap(sw.nodes[1].phaseDeg[0] - sw.nodes[0].phaseDeg[0]);
   };

@@ -17,6 +17,7 @@ import {
 } from '../../shared/engine';
 import { BLOCK } from '../../shared/engine/core/nodes';
 import { chain, TEST_CATALOGUE, type StageInput } from './core-fixtures';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const opts = { catalogue: TEST_CATALOGUE };
 const tankAt = (f: number, l: number, label: string): StageInput => ({
@@ -131,14 +132,14 @@ describe('public API and the default catalogue', () => {
     const source = STAGE_DEFINITIONS.find((d) => d.role === 'source');
     const load = STAGE_DEFINITIONS.find((d) => d.role === 'load');
     expect(source && load).toBeTruthy();
-    const doc = {
+    const doc = parseChainDocument({
       name: 'defaults',
       settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 11, scale: 'lin' as const } }, // prettier-ignore
       stages: [
         { id: 'a', type: source!.type, values: {} },
         { id: 'b', type: load!.type, values: {} },
       ],
-    };
+    });
     expect(analyzeChain(doc).nodes).toHaveLength(1);
     expect(validateChain(doc)).toEqual([]);
     expect(
@@ -150,7 +151,7 @@ describe('public API and the default catalogue', () => {
 describe('with the product catalogue', () => {
   it('derives the image of the catalogue mixer from its frequency translation', () => {
     // Our own scenario: 1 MHz preselector, mixer set to a 455 kHz IF with a high-side LO.
-    const doc = {
+    const doc = parseChainDocument({
       name: 'catalogue superhet',
       settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2.5e6, points: 401, scale: 'lin' as const } }, // prettier-ignore
       stages: [
@@ -159,7 +160,7 @@ describe('with the product catalogue', () => {
         { id: 'mix', type: 'mixer', values: { loSource: 'from-if', ifHz: 455e3, side: 'high' } },
         { id: 'ld', type: 'rc-load', values: {} },
       ],
-    };
+    });
     const res = analyzeChain(doc);
     expect(res.stages[1].fOutHz).toBeCloseTo(455e3, 3);
     expect(res.selectivity[2].imageHz).toBeCloseTo(1.91e6, 3);

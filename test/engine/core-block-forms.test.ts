@@ -25,6 +25,7 @@ import {
   inductorZ,
 } from '../../shared/engine/stages/primitives';
 import { benchChain } from '../../scripts/bench/bench-chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 describe('lossy parts as data', () => {
   const point = (fn: (f: number, out: Float64Array, o: number) => void, f: number) => {
@@ -100,7 +101,7 @@ describe('blocks of points', () => {
   // The product's bench chain (every stage with a block form): 600 points run in blocks give
   // exactly what each point gives alone.
   it('the bench chain in blocks equals the bench chain point by point', () => {
-    const built = buildChain(benchChain(600), STAGE_DEFINITIONS);
+    const built = buildChain(parseChainDocument(benchChain(600)), STAGE_DEFINITIONS);
     const f = Float64Array.from({ length: 600 }, (_, i) => 5e6 + i * 6.7e3);
     const all = runNodeAnalysis(built, f);
     const one = createNodeAnalysis(built, 1);

@@ -5,6 +5,7 @@
 import { ChainValidationError, type ChainIssue } from '../../shared/engine/errors';
 import { buildChain } from '../../shared/engine/core/build';
 import { frequencyGrid } from '../../shared/engine/core/sweep';
+import { ChainDocumentError, parseChainDocument } from '../../shared/schema/parse-chain';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 function issuesOf(run: () => unknown): ChainIssue[] {
@@ -21,13 +22,11 @@ const SRC = { type: 't-source' };
 const LOAD = { type: 't-load' };
 
 describe('buildChain validation', () => {
-  it('refuses f0 = 0, NaN and Infinity in the settings, naming the field', () => {
+  it('takes settings the schema checked: f0 = 0, NaN and Infinity are refused by the parse, naming the field', () => {
     for (const bad of [0, -1, NaN, Infinity]) {
-      const doc = chain([SRC, LOAD], { f0Hz: 1e6 });
-      (doc.settings as { f0Hz: number }).f0Hz = bad;
-      const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
-      expect(issues[0].path).toEqual(['settings', 'f0Hz']);
-      expect(issues[0].message).toMatch(/Design frequency must be a finite frequency above 0 Hz/);
+      const raw = { name: 'c', settings: { f0Hz: bad, sweep: { startHz: 1, stopHz: 2, points: 3 } }, stages: [SRC, LOAD].map((s, i) => ({ ...s, id: `s${i}` })) }; // prettier-ignore
+      expect(() => parseChainDocument(raw)).toThrow(ChainDocumentError);
+      expect(() => parseChainDocument(raw)).toThrow(/\$\.settings\.f0Hz: design frequency must/);
     }
   });
 
@@ -35,12 +34,15 @@ describe('buildChain validation', () => {
     const doc = chain(
       [
         SRC,
-        { type: 't-tank', label: 'Tuner', values: { l: NaN, c: Infinity } },
+        { type: 't-tank', label: 'Tuner' },
         { type: 't-shunt-r', label: 'Detector', values: { r: -5 } },
         LOAD,
       ],
       { f0Hz: 1e6 },
     );
+    // JSON has no NaN or Infinity and the schema refuses them; the engine still names them
+    // when a caller sets them on a parsed document.
+    doc.stages[1].values = { l: NaN, c: Infinity };
     const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
     expect(issues.map((i) => i.path)).toEqual([
       ['stages', 1, 'values', 'l'],
@@ -54,7 +56,8 @@ describe('buildChain validation', () => {
   });
 
   it('keeps acronyms in parameter names as written', () => {
-    const doc = chain([SRC, { type: 't-amp', values: { iip3: NaN } }, LOAD], { f0Hz: 1e6 });
+    const doc = chain([SRC, { type: 't-amp' }, LOAD], { f0Hz: 1e6 });
+    doc.stages[1].values.iip3 = NaN;
     const [issue] = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
     expect(issue.message).toBe(
       'Stage 2 "Amplifier" (t-amp): IIP3 must be a finite number (got NaN)',
@@ -109,8 +112,9 @@ describe('buildChain validation', () => {
   });
 
   it('checks text values and hands an attached data file to the builder', () => {
-    const stages = [SRC, { type: 't-measured-load', values: { table: 'x'.repeat(201) } }];
-    const [issue] = issuesOf(() => buildChain(chain(stages, { f0Hz: 1e6 }), TEST_CATALOGUE));
+    const long = chain([SRC, { type: 't-measured-load' }], { f0Hz: 1e6 });
+    long.stages[1].values.table = 'x'.repeat(201); // past the schema's own limit
+    const [issue] = issuesOf(() => buildChain(long, TEST_CATALOGUE));
     expect(issue.message).toBe('Stage 2 "Measured load" (t-measured-load): table must be at most 200 characters (got 201)'); // prettier-ignore
     const doc = chain([SRC, { type: 't-measured-load' }], { f0Hz: 1e6 });
     doc.stages[1].dataFileId = 'f1';
@@ -125,15 +129,18 @@ describe('buildChain validation', () => {
     expect(() => buildChain(doc, TEST_CATALOGUE)).not.toThrow(); // no files resolved: the text table is used
   });
 
-  it('refuses something that is not a chain at all, without crashing', () => {
+  it('leaves something that is not a chain at all to the parse, which names the path', () => {
     for (const bad of [null, undefined, 42, 'chain']) {
-      const issues = issuesOf(() => buildChain(bad as never, TEST_CATALOGUE));
-      expect(issues[0].message).toMatch(/must be an object with "settings" and "stages"/);
+      expect(() => parseChainDocument(bad)).toThrow(
+        /^the chain document is not a valid chain: \$: /,
+      );
     }
   });
 
   it('refuses a chain without a source and a load', () => {
-    const issues = issuesOf(() => buildChain({ settings: { f0Hz: 1 }, stages: [] }, TEST_CATALOGUE)); // prettier-ignore
+    const doc = chain([SRC, LOAD], { f0Hz: 1e6 });
+    doc.stages = doc.stages.slice(0, 1); // as a mode that leaves stages out can
+    const issues = issuesOf(() => buildChain(doc, TEST_CATALOGUE));
     expect(issues.at(-1)?.message).toMatch(/at least a source and a load/);
   });
 

@@ -8,7 +8,8 @@
  * that tank's own termination, so the second tank's Q halves when the load is attached.
  */
 import { analyzeChain } from '../../shared/engine';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const F0 = 7.2e6;
 const L = 1e-6;
@@ -18,8 +19,8 @@ const Q_TERM = R / (2 * Math.PI * F0 * L); // ≈ 44.2
 /** Coil and capacitor Q high enough that their loss moves the figures by < 0.5 %. */
 const Q_PART = 1e5;
 
-function pair(coupling: 'mutual' | 'top-c', extra: Record<string, number>): ChainDocumentInput {
-  return {
+function pair(coupling: 'mutual' | 'top-c', extra: Record<string, number>): ChainDocument {
+  return parseChainDocument({
     name: 'coupled pair',
     settings: { f0Hz: F0, sweep: { startHz: 6e6, stopHz: 8.4e6, points: 401, scale: 'lin' } },
     stages: [
@@ -32,7 +33,7 @@ function pair(coupling: 'mutual' | 'top-c', extra: Record<string, number>): Chai
       },
       { id: 'ld', type: 'rc-load', label: 'Next stage', values: { r: R, c: 0 } },
     ],
-  };
+  });
 }
 
 describe('coupled pair of tanks', () => {

@@ -12,7 +12,8 @@ import type {
   StageDefinition,
   StageModel,
 } from '../../shared/engine/types';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument, ChainDocumentInput } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const TWO_PI = 2 * Math.PI; // read once: global lookups are slow inside the test VM
 const w = (f: number) => TWO_PI * f;
@@ -369,17 +370,17 @@ export interface StageInput {
   label?: string;
 }
 
-/** A chain document over the test catalogue. */
+/** A chain document over the test catalogue, parsed as the engine takes it. */
 export function chain(
   stages: StageInput[],
   settings: Partial<ChainDocumentInput['settings']> & { f0Hz: number },
-): ChainDocumentInput {
-  return {
+): ChainDocument {
+  return parseChainDocument({
     name: 'test chain',
     settings: {
       sweep: { startHz: settings.f0Hz / 2, stopHz: settings.f0Hz * 2, points: 2001, scale: 'lin' },
       ...settings,
     },
     stages: stages.map((s, i) => ({ id: `s${i}`, label: s.label ?? '', type: s.type, values: s.values ?? {} })), // prettier-ignore
-  };
+  });
 }

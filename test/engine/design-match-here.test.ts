@@ -3,12 +3,9 @@
  * candidates, each inserted into the chain and re-analysed there. Worked cases are named
  * by id beside their checks.
  */
-import {
-  complexLSections,
-  matchHere,
-  type ChainDoc,
-  type LadderPart,
-} from '../../shared/engine/design';
+import { complexLSections, matchHere, type LadderPart } from '../../shared/engine/design';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { rel } from './stages-support';
 
 const W = (f: number) => 2 * Math.PI * f;
@@ -65,9 +62,10 @@ describe('L-sections between complex terminations', () => {
 });
 
 /** A short antenna (10 Ω with −j2.35 kΩ at 1 MHz) driving a 1 kΩ node. */
-function antennaChain(): ChainDoc {
+function antennaChain(): ChainDocument {
   const cAnt = 1 / (W(1e6) * 2350);
-  return {
+  return parseChainDocument({
+    name: 'short antenna into 1 kΩ',
     settings: { f0Hz: 1e6, sweep: { startHz: 0.8e6, stopHz: 1.25e6, points: 901, scale: 'lin' } },
     stages: [
       { id: 'ant', type: 'resistive-generator', values: { r: 10, level: 'emf', emf: 0.01 } },
@@ -85,7 +83,7 @@ function antennaChain(): ChainDoc {
       },
       { id: 'det', type: 'envelope-detector', values: { rLoad: 1e9, c: 1e-15 } },
     ],
-  };
+  });
 }
 
 describe('match here, in the chain', () => {
@@ -169,13 +167,15 @@ describe('match here, in the chain', () => {
 
 describe('match here with lossy parts: the figures are the lossy chain’s', () => {
   /** LN-1's terminations in a chain: a 75 Ω generator into a 1 kΩ load at 1 MHz. */
-  const resistive = (): ChainDoc => ({
-    settings: { f0Hz: 1e6, sweep: { startHz: 0.8e6, stopHz: 1.25e6, points: 201, scale: 'lin' } },
-    stages: [
-      { id: 'src', type: 'resistive-generator', values: { r: 75, level: 'emf', emf: 0.01 } },
-      { id: 'load', type: 'rc-load', values: { r: 1000, c: 0 } },
-    ],
-  });
+  const resistive = (): ChainDocument =>
+    parseChainDocument({
+      name: '75 Ω into 1 kΩ',
+      settings: { f0Hz: 1e6, sweep: { startHz: 0.8e6, stopHz: 1.25e6, points: 201, scale: 'lin' } },
+      stages: [
+        { id: 'src', type: 'resistive-generator', values: { r: 75, level: 'emf', emf: 0.01 } },
+        { id: 'load', type: 'rc-load', values: { r: 1000, c: 0 } },
+      ],
+    });
 
   it('a coil of Q 100 in the low-pass L-section costs 10·log10(1 + QL/Qu) ≈ 0.150 dB of gain', () => {
     const lowPass = (r: ReturnType<typeof matchHere>) =>

@@ -13,12 +13,15 @@ import {
   stageParts,
   stagePartsCsv,
   wheelerInductance,
-  type ChainDoc,
 } from '../../shared/engine/design';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { rel } from './stages-support';
 
-const example = (name: string): ChainDoc =>
-  JSON.parse(readFileSync(join(__dirname, '../../examples', `${name}.chain.json`), 'utf8'));
+const example = (name: string): ChainDocument =>
+  parseChainDocument(
+    JSON.parse(readFileSync(join(__dirname, '../../examples', `${name}.chain.json`), 'utf8')),
+  );
 
 describe('E48', () => {
   it('is every second E96 value, 48 to the decade (IEC 60063 E48 table; from memory)', () => {

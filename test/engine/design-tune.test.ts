@@ -13,12 +13,15 @@ import {
   tunePair,
   tuneResonator,
   withValue,
-  type ChainDoc,
 } from '../../shared/engine/design';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { StageParameterError } from '../../shared/engine/errors';
 
-const example = (name: string): ChainDoc =>
-  JSON.parse(readFileSync(join(__dirname, '../../examples', `${name}.chain.json`), 'utf8'));
+const example = (name: string): ChainDocument =>
+  parseChainDocument(
+    JSON.parse(readFileSync(join(__dirname, '../../examples', `${name}.chain.json`), 'utf8')),
+  );
 
 const thomsonC = (f: number, l: number) => 1 / ((2 * Math.PI * f) ** 2 * l);
 
@@ -89,7 +92,7 @@ describe('tune to f0', () => {
 
 describe('tune to f0 on found resonators and on a pass-band peak', () => {
   const crystal = example('crystal-set-coupled-coils');
-  const peakAt = (doc: ChainDoc, node: number) =>
+  const peakAt = (doc: ChainDocument, node: number) =>
     analyzeChain(doc, { sweep: false }).selectivity.find((s) => s.node === node)!.peakHz!;
 
   it('lands the crystal set’s found secondary (coupler + tuning capacitor) on 1.2 MHz, to 1e-6', () => {

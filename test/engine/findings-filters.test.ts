@@ -12,27 +12,29 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { analyzeChain } from '../../shared/engine';
 import { designMatch } from '../../shared/engine/design';
-import { chainDocumentSchema, type ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 import { acControl, runAc } from './helpers/ngspice';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const TWO_PI = 2 * Math.PI;
 const rel = (a: number | null | undefined, b: number) => Math.abs((a as number) / b - 1);
 
 describe('a coupled pair with 5 pF across its second tank', () => {
   // Mutual-coupled pair for 145 MHz between 1.5125 kΩ terminations (50 Ω through 1 : 5.5).
-  const pairDoc = (extraC: number): ChainDocumentInput => ({
-    name: 'coupled pair',
-    settings: { f0Hz: 145e6, sweep: { startHz: 100e6, stopHz: 190e6, points: 18001, scale: 'lin' } }, // prettier-ignore
-    stages: [
-      { id: 'g', type: 'resistive-generator', values: { r: 50, level: 'power', powerDbm: -100 } },
-      { id: 'tin', type: 'ideal-transformer', values: { n: 1 / 5.5 } },
-      { id: 'bp', type: 'coupled-bandpass', label: 'Pair', values: { coupling: 'mutual', l: 82e-9, c: 14.69e-12, ql: 200, qc: 1000, k: 0.0554 } }, // prettier-ignore
-      { id: 'cx', type: 'lumped-element', values: { position: 'shunt', element: 'capacitor', c: extraC, qc: 1000 } }, // prettier-ignore
-      { id: 'tout', type: 'ideal-transformer', values: { n: 5.5 } },
-      { id: 'ld', type: 'rc-load', values: { r: 50, c: 0 } },
-    ],
-  });
+  const pairDoc = (extraC: number): ChainDocument =>
+    parseChainDocument({
+      name: 'coupled pair',
+      settings: { f0Hz: 145e6, sweep: { startHz: 100e6, stopHz: 190e6, points: 18001, scale: 'lin' } }, // prettier-ignore
+      stages: [
+        { id: 'g', type: 'resistive-generator', values: { r: 50, level: 'power', powerDbm: -100 } },
+        { id: 'tin', type: 'ideal-transformer', values: { n: 1 / 5.5 } },
+        { id: 'bp', type: 'coupled-bandpass', label: 'Pair', values: { coupling: 'mutual', l: 82e-9, c: 14.69e-12, ql: 200, qc: 1000, k: 0.0554 } }, // prettier-ignore
+        { id: 'cx', type: 'lumped-element', values: { position: 'shunt', element: 'capacitor', c: extraC, qc: 1000 } }, // prettier-ignore
+        { id: 'tout', type: 'ideal-transformer', values: { n: 5.5 } },
+        { id: 'ld', type: 'rc-load', values: { r: 50, c: 0 } },
+      ],
+    });
 
   it('reports where the pair peaks (ngspice, 1e-4) and flags it as detuned from f0', () => {
     const res = analyzeChain(pairDoc(5e-12), { sweep: false });
@@ -82,15 +84,16 @@ describe('a coupled pair with 5 pF across its second tank', () => {
 
 describe('q-budget: a pi match 50 → 1000 Ω designed for Q 10 and built with coils of Q 12', () => {
   const f0 = 315e6;
-  const doc = (ql: number): ChainDocumentInput => ({
-    name: 'pi match',
-    settings: { f0Hz: f0, sweep: { startHz: 200e6, stopHz: 400e6, points: 101, scale: 'lin' } },
-    stages: [
-      { id: 'g', type: 'resistive-generator', values: { r: 50, level: 'power', powerDbm: -60 } },
-      { id: 'm', type: 'pi-match', values: { mode: 'design', r1: 50, r2: 1000, q: 10, ql, qc: 1000 } }, // prettier-ignore
-      { id: 'ld', type: 'rc-load', values: { r: 1000, c: 0 } },
-    ],
-  });
+  const doc = (ql: number): ChainDocument =>
+    parseChainDocument({
+      name: 'pi match',
+      settings: { f0Hz: f0, sweep: { startHz: 200e6, stopHz: 400e6, points: 101, scale: 'lin' } },
+      stages: [
+        { id: 'g', type: 'resistive-generator', values: { r: 50, level: 'power', powerDbm: -60 } },
+        { id: 'm', type: 'pi-match', values: { mode: 'design', r1: 50, r2: 1000, q: 10, ql, qc: 1000 } }, // prettier-ignore
+        { id: 'ld', type: 'rc-load', values: { r: 1000, c: 0 } },
+      ],
+    });
   const { c1, l, c2 } = designMatch('pi', { r1: 50, r2: 1000, f0, q: 10, parasiticC: 0 }).values;
 
   /** Power into 1000 Ω from a 1 V EMF behind 50 Ω, closed form (complex arithmetic here). */
@@ -155,7 +158,7 @@ describe('band edges off the grid', () => {
 
   const example = (points: number, rejectionDb?: number) => {
     const file = path.join(__dirname, '..', '..', 'examples', 'shortwave-superhet-single-tank.chain.json'); // prettier-ignore
-    const doc = chainDocumentSchema.parse(JSON.parse(readFileSync(file, 'utf8')));
+    const doc = parseChainDocument(JSON.parse(readFileSync(file, 'utf8')));
     doc.settings.sweep.points = points;
     if (rejectionDb !== undefined) {
       doc.stages.find((st) => st.id === 'if-filter')!.values.ultimateRejectionDb = rejectionDb;

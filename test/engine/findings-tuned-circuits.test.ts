@@ -14,14 +14,15 @@
  */
 import { analyzeChain } from '../../shared/engine';
 import { designMatch } from '../../shared/engine/design';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 import { acControl, runAc } from './helpers/ngspice';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const TWO_PI = 2 * Math.PI;
 
 /** Crystal-set front end of our own: short antenna, series coil, air-core coupled coils. */
-function crystalSet(detectorLoad: number): ChainDocumentInput {
-  return {
+function crystalSet(detectorLoad: number): ChainDocument {
+  return parseChainDocument({
     name: 'coupled coils with a tuned secondary',
     settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 1.6e6, points: 11001, scale: 'lin' } },
     stages: [
@@ -33,7 +34,7 @@ function crystalSet(detectorLoad: number): ChainDocumentInput {
       { id: 'cs', type: 'lumped-element', label: 'Tuning capacitor', values: { position: 'shunt', element: 'capacitor', c: 165.147e-12, qc: 1000 } }, // prettier-ignore
       { id: 'det', type: 'envelope-detector', values: { rLoad: detectorLoad, c: 5e-12, minInputPeakV: 0.1 } }, // prettier-ignore
     ],
-  };
+  });
 }
 
 /**
@@ -137,7 +138,7 @@ describe('a coupled-coil secondary tuned by the next stage (found, not declared)
 
 describe('the tank inside a tapped-C transformer, designed 400 → 50 Ω but loaded by 5 Ω', () => {
   const f0 = 315e6;
-  const doc: ChainDocumentInput = {
+  const doc: ChainDocument = parseChainDocument({
     name: 'tapped-C transformer on a low load',
     settings: { f0Hz: f0, sweep: { startHz: 50e6, stopHz: 900e6, points: 4001, scale: 'lin' } },
     stages: [
@@ -145,7 +146,7 @@ describe('the tank inside a tapped-C transformer, designed 400 → 50 Ω but loa
       { id: 'm', type: 'tapped-c-match', values: { mode: 'design', r1: 400, r2: 50, q: 5, ql: 100, qc: 500 } }, // prettier-ignore
       { id: 'ld', type: 'rc-load', values: { r: 5, c: 0 } },
     ],
-  };
+  });
   const res = analyzeChain(doc, { sweep: false });
   const tank = res.resonators.find((r) => r.stageId === 'm')!;
   // Component values from the design formulas; the check below is of the analysis only.

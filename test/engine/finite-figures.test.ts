@@ -7,17 +7,19 @@ import { analyzeChain, ChainValidationError } from '../../shared/engine';
 import { MAX_LINE_LOSS_DB } from '../../shared/engine/stages/elements';
 import type { StageDefinition } from '../../shared/engine/types';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 /** A 50 Ω generator, a line, a 50 Ω load at f0, swept f0/2 … 2·f0. */
-const lineChain = (f0: number, line: Record<string, number>) => ({
-  name: 'line',
-  settings: { f0Hz: f0, sweep: { startHz: f0 / 2, stopHz: 2 * f0, points: 21, scale: 'log' as const } }, // prettier-ignore
-  stages: [
-    { id: 'g', type: 'resistive-generator', values: { r: 50 } },
-    { id: 'line', type: 'transmission-line', label: 'Feeder', values: { z0: 50, vf: 0.66, ...line } }, // prettier-ignore
-    { id: 'l', type: 'rc-load', values: { r: 50 } },
-  ],
-});
+const lineChain = (f0: number, line: Record<string, number>) =>
+  parseChainDocument({
+    name: 'line',
+    settings: { f0Hz: f0, sweep: { startHz: f0 / 2, stopHz: 2 * f0, points: 21, scale: 'log' as const } }, // prettier-ignore
+    stages: [
+      { id: 'g', type: 'resistive-generator', values: { r: 50 } },
+      { id: 'line', type: 'transmission-line', label: 'Feeder', values: { z0: 50, vf: 0.66, ...line } }, // prettier-ignore
+      { id: 'l', type: 'rc-load', values: { r: 50 } },
+    ],
+  });
 
 function refusal(run: () => unknown): ChainValidationError {
   try {

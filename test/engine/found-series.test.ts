@@ -5,6 +5,7 @@
  */
 import { analyzeChain } from '../../shared/engine';
 import { acControl, runAc } from './helpers/ngspice';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const L = 10e-6;
 const C = 253.3e-12;
@@ -14,16 +15,17 @@ const W0 = 1 / Math.sqrt(L * C);
 const X = W0 * L; // reactance of L (and of C) at resonance
 
 /** 50 Ω generator → series C (practically lossless) → series L with 5 Ω → load, as two stages. */
-const loop = (rl: number) => ({
-  name: 'series loop',
-  settings: { f0Hz: 3.16e6, sweep: { startHz: 1e6, stopHz: 10e6, points: 401, scale: 'log' as const } }, // prettier-ignore
-  stages: [
-    { id: 'g', type: 'resistive-generator', values: { r: RS } },
-    { id: 'cs', type: 'lumped-element', label: 'Cs', values: { position: 'series', element: 'capacitor', c: C, qc: 1e12 } }, // prettier-ignore
-    { id: 'ls', type: 'lumped-element', label: 'Ls', values: { position: 'series', element: 'inductor', l: L, esr: ESR } }, // prettier-ignore
-    { id: 'load', type: 'rc-load', label: 'Load', values: { r: rl } },
-  ],
-});
+const loop = (rl: number) =>
+  parseChainDocument({
+    name: 'series loop',
+    settings: { f0Hz: 3.16e6, sweep: { startHz: 1e6, stopHz: 10e6, points: 401, scale: 'log' as const } }, // prettier-ignore
+    stages: [
+      { id: 'g', type: 'resistive-generator', values: { r: RS } },
+      { id: 'cs', type: 'lumped-element', label: 'Cs', values: { position: 'series', element: 'capacitor', c: C, qc: 1e12 } }, // prettier-ignore
+      { id: 'ls', type: 'lumped-element', label: 'Ls', values: { position: 'series', element: 'inductor', l: L, esr: ESR } }, // prettier-ignore
+      { id: 'load', type: 'rc-load', label: 'Load', values: { r: rl } },
+    ],
+  });
 
 const rel = (a: number | null | undefined, b: number) => Math.abs((a ?? NaN) / b - 1);
 
@@ -94,7 +96,7 @@ describe('a series LC in the through path', () => {
       id: 'slc',
       type: 'series-lc',
       label: 'Series LC',
-      values: { l: L, c: C } as never,
+      values: { l: L, c: C },
     });
     const r = analyzeChain(doc, { sweep: false }).resonators;
     expect(r).toHaveLength(1);
@@ -105,7 +107,7 @@ describe('a series LC in the through path', () => {
 describe('unloaded Q of a found parallel resonance', () => {
   it("is the coil's own Q: ωL/R of the coil (high-Q closed form, common practice)", () => {
     // 5 kΩ generator → shunt L (100 µH, 1 Ω) → shunt C (253.3 pF, practically lossless) → 20 kΩ.
-    const doc = {
+    const doc = parseChainDocument({
       name: 'found tank',
       settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 401, scale: 'log' as const } }, // prettier-ignore
       stages: [
@@ -114,7 +116,7 @@ describe('unloaded Q of a found parallel resonance', () => {
         { id: 'c', type: 'lumped-element', label: 'C', values: { position: 'shunt', element: 'capacitor', c: 253.3e-12, qc: 1e12 } }, // prettier-ignore
         { id: 'd', type: 'rc-load', values: { r: 20e3 } },
       ],
-    };
+    });
     const [r] = analyzeChain(doc, { sweep: false }).resonators;
     expect(r).toMatchObject({ kind: 'shunt', origin: 'found' });
     const w = 2 * Math.PI * r.resonanceHz!;

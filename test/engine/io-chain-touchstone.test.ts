@@ -17,13 +17,14 @@ import {
 import { toMeasuredNetwork } from '../../shared/io/network-data';
 import { writeTouchstone } from '../../shared/io/touchstone-writer';
 import { readTouchstone } from '../../shared/io/touchstone';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument, ChainDocumentInput } from '../../shared/schema/chain';
 import { runAc, vectorAt } from './helpers/ngspice';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const catalogue = STAGE_DEFINITIONS;
 
-function terminated(z0: number, middle: ChainDocumentInput['stages']): ChainDocumentInput {
-  return {
+function terminated(z0: number, middle: ChainDocumentInput['stages']): ChainDocument {
+  return parseChainDocument({
     name: `pi and T between ${z0} ohm terminations`,
     settings: { f0Hz: 10e6, sweep: { startHz: 1e6, stopHz: 30e6, points: 201, scale: 'lin' } },
     stages: [
@@ -31,7 +32,7 @@ function terminated(z0: number, middle: ChainDocumentInput['stages']): ChainDocu
       ...middle,
       { id: 'load', type: 'rc-load', values: { r: z0, c: 0 } },
     ],
-  };
+  });
 }
 
 const MIDDLE: ChainDocumentInput['stages'] = [

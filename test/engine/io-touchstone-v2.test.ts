@@ -9,6 +9,7 @@ import { writeTouchstone } from '../../shared/io/touchstone-writer';
 import { noiseParametersAt } from '../../shared/engine/stages/measured-two-port';
 import { stageNoiseFactor } from '../../shared/engine/core/noise';
 import { analyzeChain } from '../../shared/engine';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 /** S value k (row-major S11 S12 S21 S22) at point i of a two-port. */
 const sAt = (file: { s: Float64Array }, i: number, k: number): [number, number] => [
@@ -247,7 +248,7 @@ describe('measured amplifier noise at the source it really sees', () => {
 
   it('gives a chain the amplifier noise figure at the source it really sees (75 + j25 ohm)', () => {
     // A 75 + j25 Ω generator straight into the file's amplifier at 150 MHz.
-    const doc = {
+    const doc = parseChainDocument({
       name: 'noise at the real source',
       settings: {
         f0Hz: 150e6,
@@ -268,7 +269,7 @@ describe('measured amplifier noise at the source it really sees', () => {
         { id: 'amp', type: 'measured-two-port', values: { noise: 'file' }, dataFileId: 'amp' },
         { id: 'load', type: 'rc-load', values: {} },
       ],
-    };
+    });
     const result = analyzeChain(doc, { dataFiles: { amp: measured } });
     const stage = result.stages.find((s) => s.id === 'amp')!;
     const g1 = file.noise[0].gammaOpt;

@@ -13,17 +13,20 @@ import path from 'node:path';
 import { analyzeChain, ChainValidationError, insertStagesAfter } from '../../shared/engine';
 import { matchHere } from '../../shared/engine/design/match-here';
 import { offCapacitanceForIsolation } from '../../shared/engine/stages';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 
 const TWO_PI = 2 * Math.PI;
 const gen = (r = 50) => ({ id: 'gen', type: 'resistive-generator', values: { r, level: 'emf', emf: 1 } }); // prettier-ignore
 const load = (r = 50) => ({ id: 'load', type: 'rc-load', values: { r, c: 0 } });
-const chain = (middle: object[], f0 = 100e6, source: object = gen(), end: object = load()) => ({
-  name: 'stage test',
-  settings: { f0Hz: f0, sweep: { startHz: f0 / 2, stopHz: f0 * 1.5, points: 201 } },
-  stages: [source, ...middle, end],
-});
+const chain = (middle: object[], f0 = 100e6, source: object = gen(), end: object = load()) =>
+  parseChainDocument({
+    name: 'stage test',
+    settings: { f0Hz: f0, sweep: { startHz: f0 / 2, stopHz: f0 * 1.5, points: 201 } },
+    stages: [source, ...middle, end],
+  });
 /** |S21|² in dB of the chain between 50 Ω ports: 20·log10(2·V_load/E). */
-const s21Db = (doc: object) => {
+const s21Db = (doc: ChainDocument) => {
   const r = analyzeChain(doc, { sweep: false });
   return 20 * Math.log10(2 * r.nodes[r.nodes.length - 1].vPeak);
 };
@@ -148,14 +151,14 @@ describe('power amplifier, match here in a transmit mode', () => {
     const w = TWO_PI * f0;
     const pa = { id: 'pa', type: 'power-amplifier', values: { powerW: 0.1, supplyV: 3 } };
     const rxLoad = { id: 'rx-load', type: 'rc-load', values: { r: 200, c: 0 } };
-    const doc = {
+    const doc = parseChainDocument({
       ...chain([], f0, gen(), rxLoad),
       stages: [gen(), rxLoad, pa, { id: 'ant', type: 'rc-load', values: { r: 50, c: 0 } }],
       modes: [
-        { id: 'receive', name: 'Receive', kind: 'receive' as const, path: ['gen', 'rx-load'] },
-        { id: 'transmit', name: 'Transmit', kind: 'transmit' as const, path: ['pa', 'ant'] },
+        { id: 'receive', name: 'Receive', kind: 'receive', path: ['gen', 'rx-load'] },
+        { id: 'transmit', name: 'Transmit', kind: 'transmit', path: ['pa', 'ant'] },
       ],
-    };
+    });
     const res = matchHere(doc, { afterStageId: 'pa' }, { mode: 'transmit' });
     expect(res.zSource.re).toBeCloseTo(45, 9); // 3²/(2·0.1)
     expect(res.zLoad.re).toBeCloseTo(50, 9);
@@ -179,8 +182,8 @@ describe('power amplifier, match here in a transmit mode', () => {
 });
 
 describe('band-switched shortwave input, per band', () => {
-  const doc = JSON.parse(
-    readFileSync(path.join(__dirname, '../../examples/shortwave-band-switched-input.chain.json'), 'utf8'), // prettier-ignore
+  const doc = parseChainDocument(
+    JSON.parse(readFileSync(path.join(__dirname, '../../examples/shortwave-band-switched-input.chain.json'), 'utf8')), // prettier-ignore
   );
   const bands = [
     { mode: 'band-80', f0: 3.6e6, l: 4.7e-6, tank: 'tank-80' },
@@ -192,7 +195,7 @@ describe('band-switched shortwave input, per band', () => {
       const r = analyzeChain(doc, { mode: b.mode, sweep: true });
       expect(r.mode?.id).toBe(b.mode);
       expect(r.f0Hz).toBe(b.f0);
-      const c = doc.stages.find((s: { id: string }) => s.id === b.tank).values.c as number;
+      const c = doc.stages.find((s) => s.id === b.tank)!.values.c as number;
       const tank = r.resonators.find((x) => x.stageId === b.tank);
       expect(r.resonators.map((x) => x.stageId)).toEqual([b.tank]);
       // Closed forms: fr = 1/(2π√(L'C)) with the coil's parallel equivalent L' = L(1 + 1/Q²).

@@ -12,10 +12,11 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { analyzeChain, type AnalysisResult } from '../../shared/engine';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { acControl, runAc, vectorAt } from './helpers/ngspice';
 
-const doc = JSON.parse(
-  readFileSync(path.join(__dirname, '../../examples/ism-433-transceiver-shared-antenna.chain.json'), 'utf8'), // prettier-ignore
+const doc = parseChainDocument(
+  JSON.parse(readFileSync(path.join(__dirname, '../../examples/ism-433-transceiver-shared-antenna.chain.json'), 'utf8')), // prettier-ignore
 );
 const F0 = 433.92e6;
 const W = 2 * Math.PI * F0;

@@ -20,14 +20,12 @@ import { join } from 'node:path';
 import { bundleCli } from '../../scripts/bench/bundle-cli';
 import { analyzeChain } from '../../shared/engine';
 import type { AnalysisResult } from '../../shared/engine/types';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const ROOT = join(__dirname, '..', '..');
 const FIXTURE = join(ROOT, 'test', 'fixtures', 'chains', 'lna-noise-mismatch.json');
-type Doc = {
-  settings: Record<string, unknown> & { thresholds?: Record<string, number> };
-  stages: { id: string; type: string; values: Record<string, number | string> }[];
-};
-const fixture = (): Doc => JSON.parse(readFileSync(FIXTURE, 'utf8')) as Doc;
+const fixture = (): ChainDocument => parseChainDocument(JSON.parse(readFileSync(FIXTURE, 'utf8')));
 const db10 = (x: number) => 10 * Math.log10(x);
 
 /** Noise factor from noise parameters at a real source resistance (Haus et al.). */
@@ -90,7 +88,7 @@ describe('a 50 Ω-rated LNA driven from a 5 kΩ source', () => {
     const doc = fixture();
     doc.stages[0].values.r = 90; // VSWR 1.8
     expect(analyzeChain(doc).flags.map((f) => f.code)).not.toContain('noise-mismatch');
-    doc.settings.thresholds = { noiseMismatchVswr: 1.5 };
+    doc.settings.thresholds.noiseMismatchVswr = 1.5;
     const flags = analyzeChain(doc).flags.filter((f) => f.code === 'noise-mismatch');
     expect(flags.map((f) => f.data!.vswr as number)).toEqual([expect.closeTo(90 / 50, 9)]);
   });

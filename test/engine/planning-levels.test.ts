@@ -13,7 +13,8 @@ import {
   phaseNoiseAt,
   reciprocalMixingDbm,
 } from '../../shared/engine/planning';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const db10 = (x: number) => 10 * Math.log10(x);
 const kT0dBmHz = db10(1.380649e-23 * 290 * 1e3); // −173.975 dBm/Hz (kT0 at 290 K, k exact in the 2019 SI)
@@ -66,8 +67,8 @@ describe('ITU-R P.372 outside noise', () => {
 });
 
 /** 50 Ω generator → 50 Ω amplifier (20 dB, NF 3 dB) → ADC (50 Ω) at f0. */
-function flat50(planning: Record<string, unknown>, f0 = 10e6, adc: Record<string, unknown> = {}): ChainDocumentInput {
-  return {
+function flat50(planning: Record<string, unknown>, f0 = 10e6, adc: Record<string, unknown> = {}): ChainDocument {
+  return parseChainDocument({
     name: 'flat 50 ohm',
     settings: { f0Hz: f0, sweep: { startHz: f0 * 0.5, stopHz: f0 * 1.5, points: 11, scale: 'lin' }, channelBandwidthHz: 10e3, planning }, // prettier-ignore
     stages: [
@@ -75,7 +76,7 @@ function flat50(planning: Record<string, unknown>, f0 = 10e6, adc: Record<string
       { id: 'amp', type: 'unilateral-amplifier', values: { rin: 50, cin: 0, rout: 50, cout: 0, gainMode: 'stated', gainDb: 20, noiseMode: 'figure', nfDb: 3, iip3Dbm: 10, p1dbDbm: 0 } }, // prettier-ignore
       { id: 'adc', type: 'adc-input', values: { r: 50, c: 0, ...adc } },
     ],
-  };
+  });
 } // prettier-ignore
 
 describe('the converter at the end', () => {
@@ -122,7 +123,7 @@ describe('reciprocal mixing', () => {
 
   it('matches N = P_block + L(Δf) + 10·log10(B) with no selectivity ahead of the mixer', () => {
     // Reciprocal mixing (common practice): N_rm = P_block + L(Δf) + 10·log10(B).
-    const doc: ChainDocumentInput = {
+    const doc: ChainDocument = parseChainDocument({
       name: 'mixer first',
       settings: {
         f0Hz: 10e6,
@@ -139,7 +140,7 @@ describe('reciprocal mixing', () => {
         },
         { id: 'load', type: 'rc-load', values: { r: 50, c: 0 } },
       ],
-    };
+    });
     const rm = analyzeChain(doc, { sweep: false, plan: true }).plan!.reciprocalMixing!;
     const l = -90 + ((Math.log10(20e3) - 3) / 2) * -40;
     expect(rm.phaseNoiseDbcHz).toBeCloseTo(l, 9);
@@ -155,17 +156,18 @@ describe('off-channel intermodulation, worked by hand for two stages', () => {
   const l = 2e-6;
   const c = 1 / ((2 * Math.PI * f0) ** 2 * l);
   const amp = (id: string, g: number, iip3: number) => ({ id, type: 'unilateral-amplifier', values: { rin: 50, cin: 0, rout: 50, cout: 0, gainMode: 'stated', gainDb: g, noiseMode: 'figure', nfDb: 3, iip3Dbm: iip3, p1dbDbm: iip3 - 10 } }); // prettier-ignore
-  const doc = (spacingHz: number): ChainDocumentInput => ({
-    name: 'two stages, series LC between',
-    settings: { f0Hz: f0, sweep: { startHz: 9e6, stopHz: 11e6, points: 11, scale: 'lin' }, planning: { toneSpacingHz: spacingHz } }, // prettier-ignore
-    stages: [
-      { id: 'src', type: 'resistive-generator', values: { r: 50 } },
-      amp('a1', 20, 5),
-      { id: 'lc', type: 'series-lc', values: { l, ql: 1e9, c, qc: 1e9 } },
-      amp('a2', 10, -5),
-      { id: 'load', type: 'rc-load', values: { r: 50, c: 0 } },
-    ],
-  });
+  const doc = (spacingHz: number): ChainDocument =>
+    parseChainDocument({
+      name: 'two stages, series LC between',
+      settings: { f0Hz: f0, sweep: { startHz: 9e6, stopHz: 11e6, points: 11, scale: 'lin' }, planning: { toneSpacingHz: spacingHz } }, // prettier-ignore
+      stages: [
+        { id: 'src', type: 'resistive-generator', values: { r: 50 } },
+        amp('a1', 20, 5),
+        { id: 'lc', type: 'series-lc', values: { l, ql: 1e9, c, qc: 1e9 } },
+        amp('a2', 10, -5),
+        { id: 'load', type: 'rc-load', values: { r: 50, c: 0 } },
+      ],
+    });
   // Power into amplifier 2 from amplifier 1's 50 Ω output through jX: |2·50/(100 + jX)|²·P_av.
   const toA2Db = (f: number) => {
     const w = 2 * Math.PI * f;

@@ -10,7 +10,8 @@ import {
   spurFrequencies,
   suppressionDb,
 } from '../../shared/engine/planning';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 describe('spurFrequencies: the AM broadcast superhet (1000 kHz, IF 455 kHz, LO high)', () => {
   const f = 1000e3;
@@ -78,11 +79,11 @@ describe('suppression table', () => {
 });
 
 /** A 50 Ω generator, a lossless series LC preselector, a mixer (50 Ω in) and a 50 Ω load. */
-function superhet(planning?: Record<string, unknown>): ChainDocumentInput {
+function superhet(planning?: Record<string, unknown>): ChainDocument {
   const f0 = 1000e3;
   const l = 100e-6;
   const c = 1 / ((2 * Math.PI * f0) ** 2 * l);
-  return {
+  return parseChainDocument({
     name: 'series-LC preselector superhet',
     settings: {
       f0Hz: f0,
@@ -96,7 +97,7 @@ function superhet(planning?: Record<string, unknown>): ChainDocumentInput {
       { id: 'mix', type: 'mixer', values: { conversionGainDb: 0, rin: 50, rout: 50, ifHz: 455e3, side: 'high' } }, // prettier-ignore
       { id: 'load', type: 'rc-load', values: { r: 50, c: 0 } },
     ],
-  };
+  });
 }
 
 describe('spur responses through the chain', () => {
@@ -156,12 +157,14 @@ describe('spur responses through the chain', () => {
 describe('spur chart tuned by the chain’s marked gang', () => {
   // The shortwave example's preselector (2.2 µH) with its capacitor marked variable from
   // 120 pF to 300 pF: Thomson's formula puts that at about 6.2 … 9.8 MHz.
-  const base = JSON.parse(
-    readFileSync(
-      join(__dirname, '../../examples/shortwave-superhet-single-tank.chain.json'),
-      'utf8',
+  const base = parseChainDocument(
+    JSON.parse(
+      readFileSync(
+        join(__dirname, '../../examples/shortwave-superhet-single-tank.chain.json'),
+        'utf8',
+      ),
     ),
-  ) as ChainDocumentInput;
+  );
   const gang = { stageId: 'preselector', key: 'c', min: 120e-12, max: 300e-12 };
   const marked = { ...base, settings: { ...base.settings, variables: [gang] } };
   const MIXER_NODE = 4; // the mixer's input: after link-in, preselector, link-out and RF amplifier

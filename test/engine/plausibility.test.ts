@@ -7,16 +7,18 @@
 import fc from 'fast-check';
 import { analyzeChain, ChainValidationError, STAGE_DEFINITIONS } from '../../shared/engine';
 import type { AnalysisResult, ParamSpec, StageDefinition } from '../../shared/engine/types';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
-const tank = (c: number) => ({
-  name: 'tank',
-  settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 21, scale: 'lin' as const } }, // prettier-ignore
-  stages: [
-    { id: 'g', type: 'resistive-generator', values: {} },
-    { id: 't', type: 'shunt-lc-tank', label: 'Tank', values: { l: 25e-6, c } },
-    { id: 'l', type: 'rc-load', values: { r: 10e3 } },
-  ],
-});
+const tank = (c: number) =>
+  parseChainDocument({
+    name: 'tank',
+    settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 21, scale: 'lin' as const } }, // prettier-ignore
+    stages: [
+      { id: 'g', type: 'resistive-generator', values: {} },
+      { id: 't', type: 'shunt-lc-tank', label: 'Tank', values: { l: 25e-6, c } },
+      { id: 'l', type: 'rc-load', values: { r: 10e3 } },
+    ],
+  });
 
 describe('hard and typical ranges of every parameter', () => {
   const numeric = STAGE_DEFINITIONS.flatMap((d) =>
@@ -45,7 +47,7 @@ describe('hard and typical ranges of every parameter', () => {
 
   it('a value just above 0 is refused at the unit floor: 5e-324 Ω is no resistor', () => {
     const doc = tank(1e-9);
-    doc.stages[0].values = { r: 5e-324 } as never;
+    doc.stages[0].values = { r: 5e-324 };
     let error: unknown;
     try {
       analyzeChain(doc);
@@ -134,11 +136,11 @@ describe('no finite input gives an answer full of nulls', () => {
         fc.double({ min: 4, max: 9, noNaN: true }),
         (source, mids, load, lf) => {
           const f0 = 10 ** lf;
-          const doc = {
+          const doc = parseChainDocument({
             name: 'random chain',
             settings: { f0Hz: f0, sweep: { startHz: f0 / 2, stopHz: f0 * 2, points: 21, scale: 'log' as const } }, // prettier-ignore
             stages: [source, ...mids, load].map((s, i) => ({ id: `s${i}`, ...s })),
-          };
+          });
           let res: AnalysisResult;
           try {
             res = analyzeChain(doc);

@@ -13,13 +13,14 @@ import {
 } from '../../shared/engine/spice/netlist';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
 import type { StageDefinition } from '../../shared/engine/types';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument, ChainDocumentInput, StageInstance } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { AGREEMENT, expectAgreement } from './helpers/compare';
 import { runAc } from './helpers/ngspice';
 
 const catalogue = STAGE_DEFINITIONS;
 
-type Stage = ChainDocumentInput['stages'][number];
+type Stage = StageInstance;
 const stage = (id: string, type: string, values: Stage['values'] = {}, label = ''): Stage => ({
   id,
   type,
@@ -33,7 +34,7 @@ const lin = (startHz: number, stopHz: number, points: number) => ({
   scale: 'lin' as const,
 });
 
-const CHAINS: ChainDocumentInput[] = [
+const CHAIN_INPUTS: ChainDocumentInput[] = [
   {
     name: 'Whip, coupled coils, tank, amplifier and detector for a 7 MHz listener',
     settings: { f0Hz: 7e6, sweep: lin(5e6, 9e6, 401) },
@@ -145,6 +146,8 @@ const CHAINS: ChainDocumentInput[] = [
   },
 ];
 
+const CHAINS: ChainDocument[] = CHAIN_INPUTS.map((c) => parseChainDocument(c));
+
 describe('whole chains against ngspice', () => {
   it.each(CHAINS.map((c) => [c.name, c] as const))('should agree for "%s"', (_name, doc) => {
     const a = expectAgreement(doc, catalogue);
@@ -156,13 +159,13 @@ describe('whole chains against ngspice', () => {
   });
 
   it('should run the engine on ngspice grid when a log sweep is not whole points per decade', () => {
-    const doc = {
+    const doc = parseChainDocument({
       ...CHAINS[1],
       settings: {
         f0Hz: 10.7e6,
-        sweep: { startHz: 1e6, stopHz: 3e7, points: 257, scale: 'log' as const },
+        sweep: { startHz: 1e6, stopHz: 3e7, points: 257, scale: 'log' },
       },
-    };
+    });
     const deck = chainToSpiceDeck(doc, { catalogue });
     expect(deck.exactGrid).toBe(false);
     expect(deck.acLine).toMatch(/^ac dec \d+ 1000000 30000000$/);
@@ -190,7 +193,7 @@ describe('the comparison itself', () => {
         spice: (a, b, prefix) => [`R${prefix} ${a} ${b} 51`],
       }),
     };
-    const doc: ChainDocumentInput = {
+    const doc = parseChainDocument({
       name: 'mislabelled',
       settings: { f0Hz: 1e6, sweep: lin(1e5, 1e7, 201) },
       stages: [
@@ -198,7 +201,7 @@ describe('the comparison itself', () => {
         stage('bad', mislabelled.type),
         stage('load', 'rc-load', { r: 50, c: 0 }),
       ],
-    };
+    });
     expect(() => expectAgreement(doc, [...catalogue, mislabelled])).toThrow(
       /engine and ngspice disagree for "mislabelled":\n {2}worst dB at [0-9.e+]+ Hz, (node 1|Zin)/,
     );
@@ -220,7 +223,7 @@ describe('the netlist as an export', () => {
   });
 
   it('should refuse a stage with no SPICE form, naming it', () => {
-    const doc: ChainDocumentInput = {
+    const doc: ChainDocument = {
       ...CHAINS[0],
       stages: [
         stage('meas', 'measured-antenna', {}, 'Measured whip'),
@@ -234,7 +237,7 @@ describe('the netlist as an export', () => {
   });
 
   it('should refuse a mixer, naming it', () => {
-    const doc: ChainDocumentInput = {
+    const doc: ChainDocument = {
       ...CHAINS[1],
       stages: [
         ...CHAINS[1].stages.slice(0, 3),
@@ -249,7 +252,7 @@ describe('the netlist as an export', () => {
   });
 
   it('should refuse a lossy transmission line (its √f loss has no exact SPICE element)', () => {
-    const doc: ChainDocumentInput = {
+    const doc: ChainDocument = {
       ...CHAINS[2],
       stages: CHAINS[2].stages.map((s) =>
         s.id === 'line' ? { ...s, values: { ...s.values, lossDbPerM: 0.05 } } : s,

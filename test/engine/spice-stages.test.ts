@@ -8,7 +8,8 @@
 import { chainToSpice, SpiceExportError } from '../../shared/engine/spice/netlist';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
 import type { ParamSpec, ParamValues, StageDefinition } from '../../shared/engine/types';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { AGREEMENT, expectAgreement } from './helpers/compare';
 
 const catalogue = STAGE_DEFINITIONS;
@@ -21,8 +22,8 @@ function chainAround(
   def: StageDefinition,
   values: ParamValues,
   around: { rs: number; rl: number; cl: number },
-): ChainDocumentInput {
-  return {
+): ChainDocument {
+  return parseChainDocument({
     name: `${def.type} between ${around.rs} Ω and ${around.rl} Ω ∥ ${around.cl} F`,
     settings: { f0Hz: 10e6, sweep: SWEEP },
     stages: [
@@ -30,7 +31,7 @@ function chainAround(
       { id: 'dut', type: def.type, values },
       { id: 'load', type: 'rc-load', values: { r: around.rl, c: around.cl } },
     ],
-  };
+  });
 }
 
 /** Whether a parameter is shown (and so used) for these values. */

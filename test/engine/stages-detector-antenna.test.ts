@@ -20,6 +20,7 @@ import {
   thermalVoltage,
 } from '../../shared/engine/stages/diode-detector';
 import { shortMonopole } from '../../shared/engine/stages/sources';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 const VT290 = (1.380649e-23 * 290) / 1.602176634e-19;
 
@@ -80,14 +81,15 @@ describe('diode envelope detector, input resistance from the level', () => {
     expect(Math.abs(detectorInputResistance(v, parts) / want - 1)).toBeLessThan(1e-5);
   });
 
-  const chainWith = (emf: number) => ({
-    name: 'detector level',
-    settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 11, scale: 'lin' as const } }, // prettier-ignore
-    stages: [
-      { id: 'g', type: 'resistive-generator', values: { r: 2000, level: 'emf', emf } },
-      { id: 'd', type: 'envelope-detector', values: { rLoad: 10e3, c: 0, inputModel: 'diode', n: 1.05, is: 3e-6 } }, // prettier-ignore
-    ],
-  });
+  const chainWith = (emf: number) =>
+    parseChainDocument({
+      name: 'detector level',
+      settings: { f0Hz: 1e6, sweep: { startHz: 0.5e6, stopHz: 2e6, points: 11, scale: 'lin' as const } }, // prettier-ignore
+      stages: [
+        { id: 'g', type: 'resistive-generator', values: { r: 2000, level: 'emf', emf } },
+        { id: 'd', type: 'envelope-detector', values: { rLoad: 10e3, c: 0, inputModel: 'diode', n: 1.05, is: 3e-6 } }, // prettier-ignore
+      ],
+    });
 
   it.each([1e-4, 0.05, 0.5, 20])(
     'in a chain (EMF %d V) the node settles where the divider and the diode agree',
@@ -106,7 +108,7 @@ describe('diode envelope detector, input resistance from the level', () => {
 
   it('keeps the half-load rule by default (stored chains keep their figures)', () => {
     const doc = chainWith(0.5);
-    doc.stages[1].values = { rLoad: 10e3, c: 0 } as never;
+    doc.stages[1].values = { rLoad: 10e3, c: 0 };
     expect(analyzeChain(doc).nodes[0].zIn.re).toBeCloseTo(5000, 9);
   });
 });
@@ -116,13 +118,16 @@ describe('short antenna with a stated current distribution', () => {
   const base = { height: 2, diameter: 2e-3, lossR: 3, fieldRms: 1e-3 };
   const f0 = 1e6;
   const analyse = (values: Record<string, unknown>) =>
-    analyzeChain({
-      settings: { f0Hz: f0, sweep: { startHz: f0, stopHz: f0, points: 1, scale: 'lin' as const } }, // prettier-ignore
-      stages: [
-        { id: 'a', type: 'short-monopole', values: { ...base, ...values } },
-        { id: 'l', type: 'rc-load', values: { r: 1e12, c: 0 } },
-      ],
-    });
+    analyzeChain(
+      parseChainDocument({
+        name: 'short antenna',
+        settings: { f0Hz: f0, sweep: { startHz: f0, stopHz: f0, points: 1, scale: 'lin' } },
+        stages: [
+          { id: 'a', type: 'short-monopole', values: { ...base, ...values } },
+          { id: 'l', type: 'rc-load', values: { r: 1e12, c: 0 } },
+        ],
+      }),
+    );
   const whipC = shortMonopole(base.height, base.diameter).capacitance;
 
   it.each([

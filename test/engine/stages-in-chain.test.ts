@@ -5,6 +5,7 @@
  */
 import { analyzeChain } from '../../shared/engine';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 
 // Types with a text parameter wait for the core's validator to accept parameter kind
 // 'text'; they are checked standalone in stages-elements.test.ts.
@@ -18,7 +19,7 @@ const settings = {
 };
 
 function chainWith(source: string, middle: string[], load: string) {
-  return {
+  return parseChainDocument({
     name: 'catalogue smoke chain',
     settings,
     stages: [
@@ -26,7 +27,7 @@ function chainWith(source: string, middle: string[], load: string) {
       ...middle.map((type, i) => ({ id: `s${i}`, type, values: {} })),
       { id: 'load', type: load, values: {} },
     ],
-  };
+  });
 }
 
 describe('catalogue stages inside a chain', () => {

@@ -2,30 +2,11 @@
  * Small helpers the design assistants share: a chain document copied with one value changed,
  * building it against the catalogue, and finding a resonator's entry again after a change.
  */
+import type { ChainDocument, StageInstance } from '../../schema/chain';
 import { buildChain, type BuildOptions, type BuiltChain } from '../core/build';
 import { defaultCatalogue } from '../default-catalogue';
 import { StageParameterError } from '../errors';
 import type { ParamSpec, StageDefinition } from '../types';
-
-/** A stage as the design helpers read it (the chain document's stage instance). */
-export interface StageDoc {
-  id: string;
-  type: string;
-  label?: string;
-  values: Record<string, number | string | boolean>;
-  [extra: string]: unknown;
-}
-
-/** A chain document as the design helpers read it. */
-export interface ChainDoc {
-  settings: {
-    f0Hz: number;
-    sweep: { startHz: number; stopHz: number; points: number; scale?: string };
-    [extra: string]: unknown;
-  };
-  stages: StageDoc[];
-  [extra: string]: unknown;
-}
 
 /** What the caller resolved outside the engine, as for analyzeChain. */
 export interface DesignOptions extends BuildOptions {
@@ -33,24 +14,29 @@ export interface DesignOptions extends BuildOptions {
 }
 
 /** Builds a chain document (throws ChainValidationError listing what to fix). */
-export function buildDoc(doc: ChainDoc, options: DesignOptions = {}): BuiltChain {
+export function buildDoc(doc: ChainDocument, options: DesignOptions = {}): BuiltChain {
   return buildChain(doc, options.catalogue ?? defaultCatalogue(), options);
 }
 
 /** A deep copy of the document (plain JSON data). */
-export function copyDoc<T extends ChainDoc>(doc: T): T {
+export function copyDoc<T extends ChainDocument>(doc: T): T {
   return structuredClone(doc);
 }
 
 /** The document with stage `stageId`'s value `key` set to `value` (the input is untouched). */
-export function withValue(doc: ChainDoc, stageId: string, key: string, value: number): ChainDoc {
+export function withValue(
+  doc: ChainDocument,
+  stageId: string,
+  key: string,
+  value: number,
+): ChainDocument {
   const out = { ...doc, stages: doc.stages.map((s) => ({ ...s, values: { ...s.values } })) };
   stageOf(out, stageId).values[key] = value;
   return out;
 }
 
 /** The stage with this id. @throws StageParameterError naming the id. */
-export function stageOf(doc: ChainDoc, stageId: string): StageDoc {
+export function stageOf(doc: ChainDocument, stageId: string): StageInstance {
   const stage = doc.stages.find((s) => s.id === stageId);
   if (!stage) {
     throw new StageParameterError('stageId', `there is no stage "${stageId}" in this chain`);
@@ -59,7 +45,7 @@ export function stageOf(doc: ChainDoc, stageId: string): StageDoc {
 }
 
 /** The stage type's definition. @throws StageParameterError for an unknown type. */
-export function definitionOf(stage: StageDoc, options: DesignOptions = {}): StageDefinition {
+export function definitionOf(stage: StageInstance, options: DesignOptions = {}): StageDefinition {
   const def = (options.catalogue ?? defaultCatalogue()).find((d) => d.type === stage.type);
   if (!def) {
     throw new StageParameterError('type', `stage "${stage.id}" has an unknown type ${stage.type}`);
@@ -68,13 +54,13 @@ export function definitionOf(stage: StageDoc, options: DesignOptions = {}): Stag
 }
 
 /** Whether a parameter is shown for these values (its showWhen condition holds). */
-export function paramShown(spec: ParamSpec, values: StageDoc['values']): boolean {
+export function paramShown(spec: ParamSpec, values: StageInstance['values']): boolean {
   if (!spec.showWhen) return true;
   return values[spec.showWhen.key] === spec.showWhen.equals;
 }
 
 /** The stage's value for a numeric key, falling back to the schema's default. */
-export function numberValue(stage: StageDoc, spec: ParamSpec): number {
+export function numberValue(stage: StageInstance, spec: ParamSpec): number {
   const v = stage.values[spec.key];
   return typeof v === 'number' ? v : Number(spec.default);
 }
@@ -86,7 +72,7 @@ const PART_CATEGORIES = new Set(['element', 'filter', 'matching', 'coupler']);
  * The component parameters of a stage (inductances, capacitances, resistances that carry a
  * tolerance, i.e. parts you buy) shown for its current values.
  */
-export function componentParams(stage: StageDoc, def: StageDefinition): ParamSpec[] {
+export function componentParams(stage: StageInstance, def: StageDefinition): ParamSpec[] {
   if (!PART_CATEGORIES.has(def.category)) return [];
   return def.params.filter(
     (p) =>

@@ -3,13 +3,8 @@
  * inductance, and its CSV export.
  */
 import { coilWinding, DEFAULT_COIL_FORM, type CoilForm, type CoilWinding } from './coil-winding';
-import {
-  componentParams,
-  definitionOf,
-  numberValue,
-  type DesignOptions,
-  type StageDoc,
-} from './chain-edit';
+import type { StageInstance } from '../../schema/chain';
+import { componentParams, definitionOf, numberValue, type DesignOptions } from './chain-edit';
 
 export interface PartRow {
   key: string;
@@ -22,7 +17,7 @@ export interface PartRow {
 
 /** The stage's parts (component values), with the winding beside each inductance. */
 export function stageParts(
-  stage: StageDoc,
+  stage: StageInstance,
   form: CoilForm = DEFAULT_COIL_FORM,
   options: DesignOptions = {},
 ): PartRow[] {
@@ -43,7 +38,7 @@ export function stageParts(
 const UNIT_SYMBOL: Record<string, string> = { henry: 'H', farad: 'F', ohm: 'Ω' };
 
 /** The parts list as CSV (one row a part; turns and winding length for inductors). */
-export function stagePartsCsv(stage: StageDoc, rows: PartRow[], form: CoilForm): string {
+export function stagePartsCsv(stage: StageInstance, rows: PartRow[], form: CoilForm): string {
   const esc = (s: string) => (/[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
   const formText =
     'lengthM' in form

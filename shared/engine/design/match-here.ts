@@ -9,7 +9,8 @@ import { defaultCatalogue } from '../default-catalogue';
 import { hasModes, modeView } from '../modes/apply-mode';
 import { StageParameterError } from '../errors';
 import type { ComplexJson } from '../types';
-import type { ChainDoc, DesignOptions, StageDoc } from './chain-edit';
+import type { ChainDocument, StageInstance } from '../../schema/chain';
+import type { DesignOptions } from './chain-edit';
 import {
   absorbIntoPi,
   absorbIntoT,
@@ -67,7 +68,7 @@ export interface MatchCandidate {
   loadedQ: number;
   /** Extra values (coupled coils' L1, L2, k). */
   extra?: Record<string, number>;
-  stages: StageDoc[];
+  stages: StageInstance[];
   figures: InsertedFigures | null;
   /** Why the whole-chain analysis failed, when it did. */
   error?: string;
@@ -89,7 +90,7 @@ function describe(parts: LadderPart[]): string {
 }
 
 /** Stage ids not yet used in the chain: `${base}-1`, `${base}-2`, … */
-function idMaker(doc: ChainDoc, base: string): () => string {
+function idMaker(doc: ChainDocument, base: string): () => string {
   const used = new Set(doc.stages.map((s) => s.id));
   let n = 0;
   return () => {
@@ -102,7 +103,11 @@ function idMaker(doc: ChainDoc, base: string): () => string {
 }
 
 /** The chain with `stages` inserted after stage index `at`. */
-export function insertStages(doc: ChainDoc, at: number, stages: StageDoc[]): ChainDoc {
+export function insertStages(
+  doc: ChainDocument,
+  at: number,
+  stages: StageInstance[],
+): ChainDocument {
   return {
     ...doc,
     stages: [...doc.stages.slice(0, at + 1), ...stages, ...doc.stages.slice(at + 1)],
@@ -116,7 +121,7 @@ function thin(values: number[], max: number): number[] {
 }
 
 function figuresFor(
-  doc: ChainDoc,
+  doc: ChainDocument,
   at: number,
   count: number,
   options: DesignOptions,
@@ -151,14 +156,14 @@ function refusal(e: unknown): string {
  *   have no positive resistance.
  */
 export function matchHere(
-  doc: ChainDoc,
+  doc: ChainDocument,
   req: MatchHereRequest,
   options: DesignOptions = {},
 ): MatchHereResult {
   if (hasModes(doc) || options.mode !== undefined) {
     // Design in the mode's own chain (its path, its values); insert with insertStagesAfter.
     const view = modeView(doc, options.mode, options.catalogue ?? defaultCatalogue());
-    return matchHere(view.doc as ChainDoc, req, { ...options, mode: undefined });
+    return matchHere(view.doc, req, { ...options, mode: undefined });
   }
   const at = doc.stages.findIndex((s) => s.id === req.afterStageId);
   if (at < 0 || at >= doc.stages.length - 1) {
@@ -207,12 +212,14 @@ export function matchHere(
   );
   tryDesign('pi', refused, () => {
     const d = designPi({ r1: s.r, r2: l.r, f0: fHz, q });
-    const parts = absorbIntoPi(d.values as never, zs, zLoad, fHz);
+    const { c1, l: lPi, c2 } = d.values;
+    const parts = absorbIntoPi({ c1, l: lPi, c2 }, zs, zLoad, fHz);
     designs.push({ topology: 'pi', title: `Pi, Q ${q}: ${describe(parts)}`, parts, loadedQ: d.q });
   });
   tryDesign('t', refused, () => {
     const d = designT({ r1: zs.re, r2: zLoad.re, f0: fHz, q });
-    const parts = absorbIntoT(d.values as never, zs, zLoad, fHz);
+    const { l1, c, l2 } = d.values;
+    const parts = absorbIntoT({ l1, c, l2 }, zs, zLoad, fHz);
     designs.push({ topology: 't', title: `T, Q ${q}: ${describe(parts)}`, parts, loadedQ: d.q });
   });
   tryDesign('double-l', refused, () => {

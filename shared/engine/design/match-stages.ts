@@ -3,7 +3,7 @@
  * catalogue's matching stage (in its component-values mode) when the parts fit its
  * topology, otherwise one single-component stage per part.
  */
-import type { StageDoc } from './chain-edit';
+import type { StageInstance } from '../../schema/chain';
 import type { LadderPart } from './complex-match';
 
 /** Unloaded Q of the inserted parts. */
@@ -33,7 +33,7 @@ function valuesOf(parts: LadderPart[], keys: string[]): Record<string, number> {
 }
 
 /** The catalogue stage for these parts, or null when none has this topology. */
-function matchingStage(d: Design, q: PartsQ): Pick<StageDoc, 'type' | 'values'> | null {
+function matchingStage(d: Design, q: PartsQ): Pick<StageInstance, 'type' | 'values'> | null {
   const s = sig(d.parts);
   const common = { mode: 'values', ql: q.ql, qc: q.qc };
   if (d.topology === 'l-section' && L_ORIENTATIONS[s]) {
@@ -69,8 +69,8 @@ function matchingStage(d: Design, q: PartsQ): Pick<StageDoc, 'type' | 'values'> 
 }
 
 /** One single-component stage for a part. */
-export function partStage(p: LadderPart, q: PartsQ, id: string, label: string): StageDoc {
-  const values: StageDoc['values'] =
+export function partStage(p: LadderPart, q: PartsQ, id: string, label: string): StageInstance {
+  const values: StageInstance['values'] =
     p.part === 'L'
       ? { position: p.place, element: 'inductor', l: p.value, ql: q.ql }
       : { position: p.place, element: 'capacitor', c: p.value, qc: q.qc };
@@ -78,11 +78,11 @@ export function partStage(p: LadderPart, q: PartsQ, id: string, label: string): 
 }
 
 /** The stage instances that realise a design, with fresh ids from `nextId`. */
-export function ladderStages(d: Design, q: PartsQ, nextId: () => string): StageDoc[] {
+export function ladderStages(d: Design, q: PartsQ, nextId: () => string): StageInstance[] {
   const whole = matchingStage(d, q);
   if (whole) return [{ id: nextId(), label: d.title.split(':')[0], ...whole }];
   if (d.topology === 'coupled-coils' && d.extra) {
-    const out: StageDoc[] = [];
+    const out: StageInstance[] = [];
     const seriesPart = d.parts.find((p) => p.place === 'series');
     const shuntPart = d.parts.find((p) => p.place === 'shunt');
     if (seriesPart) out.push(partStage(seriesPart, q, nextId(), 'Match: primary series part'));

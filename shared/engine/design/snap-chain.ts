@@ -8,12 +8,12 @@
  */
 import { analyzeChain } from '../analyze';
 import type { AnalysisResult } from '../types';
+import type { ChainDocument } from '../../schema/chain';
 import {
   componentParams,
   definitionOf,
   numberValue,
   stageOf,
-  type ChainDoc,
   type DesignOptions,
 } from './chain-edit';
 import { snapToSeries, type PreferredSeries } from './preferred-values';
@@ -44,7 +44,7 @@ export interface SnapFigures {
 export interface SnapResult {
   series: PreferredSeries;
   rule: string;
-  document: ChainDoc;
+  document: ChainDocument;
   changes: SnapChange[];
   before: SnapFigures;
   after: SnapFigures;
@@ -89,10 +89,10 @@ function thinIndex(n: number, max: number): number[] {
 
 /** The snapped document and its changes, without analysing it. */
 export function snapDocument(
-  doc: ChainDoc,
+  doc: ChainDocument,
   req: SnapRequest,
   options: DesignOptions = {},
-): { document: ChainDoc; changes: SnapChange[] } {
+): { document: ChainDocument; changes: SnapChange[] } {
   if (req.stageId) stageOf(doc, req.stageId);
   const changes: SnapChange[] = [];
   const stages = doc.stages.map((stage) => {
@@ -127,7 +127,7 @@ export function snapDocument(
 
 /** Snaps and analyses before and after. */
 export function snapChain(
-  doc: ChainDoc,
+  doc: ChainDocument,
   req: SnapRequest,
   options: DesignOptions = {},
 ): SnapResult {

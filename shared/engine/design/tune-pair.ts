@@ -13,7 +13,8 @@
  */
 import { runNodeAnalysis } from '../core/nodes';
 import { StageParameterError } from '../errors';
-import { buildDoc, stageOf, type ChainDoc, type DesignOptions } from './chain-edit';
+import type { ChainDocument } from '../../schema/chain';
+import { buildDoc, stageOf, type DesignOptions } from './chain-edit';
 import { findResonator, tuneResonator } from './tune';
 
 export interface TunePairRequest {
@@ -36,7 +37,7 @@ export interface TunePairResult {
   lowEdgeHz: number;
   highEdgeHz: number;
   rounds: number;
-  document: ChainDoc;
+  document: ChainDocument;
 }
 
 /** F(η) in BW = f0·F(η)/Q. */
@@ -49,7 +50,7 @@ export function pairBandwidthFactor(kq: number): number {
  * them, bisection refines them to 1e-9 relative.
  */
 export function passBandEdges(
-  doc: ChainDoc,
+  doc: ChainDocument,
   node: number,
   centreHz: number,
   spanHz: number,
@@ -91,7 +92,7 @@ export function passBandEdges(
 
 /** Solves a coupled bandpass stage for centre, bandwidth and shape on the chain. */
 export function tunePair(
-  doc: ChainDoc,
+  doc: ChainDocument,
   req: TunePairRequest,
   options: DesignOptions = {},
 ): TunePairResult {
@@ -183,7 +184,7 @@ export function tunePair(
   };
 }
 
-function withStage(doc: ChainDoc, id: string, values: Record<string, number>): ChainDoc {
+function withStage(doc: ChainDocument, id: string, values: Record<string, number>): ChainDocument {
   return {
     ...doc,
     stages: doc.stages.map((s) => (s.id === id ? { ...s, values: { ...s.values, ...values } } : s)),

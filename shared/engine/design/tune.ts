@@ -14,6 +14,7 @@ import { analyzeResonators } from '../core/resonators';
 import { StageParameterError } from '../errors';
 import { passbandPeak } from './passband-peak';
 import type { ParamSpec, ResonatorReport } from '../types';
+import type { ChainDocument } from '../../schema/chain';
 import {
   buildDoc,
   definitionOf,
@@ -21,7 +22,6 @@ import {
   paramShown,
   stageOf,
   withValue,
-  type ChainDoc,
   type DesignOptions,
 } from './chain-edit';
 
@@ -92,7 +92,7 @@ function isReactive(p: ParamSpec): p is ParamSpec & { unit: 'henry' | 'farad' } 
  * of the stages on either side of it (e.g. the capacitor across a coupled secondary).
  */
 export function tuneCandidates(
-  doc: ChainDoc,
+  doc: ChainDocument,
   resonator: ResonatorRef,
   options: DesignOptions = {},
 ): TuneCandidate[] {
@@ -125,7 +125,7 @@ export function tuneCandidates(
 
 /** The resonator's report in a fresh resonance analysis of `doc`, or null when it is gone. */
 export function findResonator(
-  doc: ChainDoc,
+  doc: ChainDocument,
   ref: ResonatorRef,
   options: DesignOptions = {},
 ): ResonatorReport | null {
@@ -135,7 +135,7 @@ export function findResonator(
   return found ?? null;
 }
 
-function elementSpec(doc: ChainDoc, ref: ElementRef, options: DesignOptions) {
+function elementSpec(doc: ChainDocument, ref: ElementRef, options: DesignOptions) {
   const stage = stageOf(doc, ref.stageId);
   const spec = definitionOf(stage, options).params.find((p) => p.key === ref.key);
   if (!spec || !isReactive(spec)) {
@@ -155,7 +155,7 @@ interface Tracked {
 }
 
 /** The quantity a request tunes, measured on a document. */
-function trackerFor(req: TuneRequest, options: DesignOptions): (doc: ChainDoc) => Tracked {
+function trackerFor(req: TuneRequest, options: DesignOptions): (doc: ChainDocument) => Tracked {
   if (req.peakNode !== undefined) {
     const node = req.peakNode;
     return (doc) => {
@@ -176,7 +176,7 @@ function trackerFor(req: TuneRequest, options: DesignOptions): (doc: ChainDoc) =
 }
 
 /** A search range that holds the target: the chain's sweep widened to target ÷ 1.5 … × 1.5. */
-function widenedSearch(doc: ChainDoc, targetHz: number): ChainDoc {
+function widenedSearch(doc: ChainDocument, targetHz: number): ChainDocument {
   const s = doc.settings.sweep;
   return {
     ...doc,
@@ -196,7 +196,7 @@ function widenedSearch(doc: ChainDoc, targetHz: number): ChainDoc {
  * @throws StageParameterError naming what to change when the resonator cannot reach it.
  */
 export function tuneResonator(
-  doc: ChainDoc,
+  doc: ChainDocument,
   req: TuneRequest,
   options: DesignOptions = {},
 ): TuneResult {

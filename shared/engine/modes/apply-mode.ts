@@ -4,27 +4,12 @@
  * validated and built like any other; issues found in it are named in the document's terms
  * (the stage's place in `stages`, or the mode's override that set the bad value).
  */
-import { modeSchema, type Mode } from '../../schema/chain';
+import type { ChainDocument, Mode, StageInstance } from '../../schema/chain';
 import { ChainValidationError, type ChainIssue } from '../errors';
 import type { StageDefinition } from '../types';
 
-/** The loose shape accepted from callers, as for buildChain. */
-export interface ModalChainLike {
-  settings?: unknown;
-  stages?: unknown;
-  modes?: unknown;
-}
-
-interface StageLike {
-  id?: unknown;
-  type?: unknown;
-  values?: unknown;
-  entered?: unknown;
-  [key: string]: unknown;
-}
-
 /** A chain in one mode, with what is needed to name its issues in the document's terms. */
-export interface ModeView<D extends ModalChainLike = ModalChainLike> {
+export interface ModeView<D extends ChainDocument = ChainDocument> {
   /** The chain of this mode: no `modes`, its stages in the mode's order. */
   doc: Omit<D, 'modes'>;
   /** The mode (undefined: the chain has no modes and is analysed as written). */
@@ -35,39 +20,14 @@ export interface ModeView<D extends ModalChainLike = ModalChainLike> {
   documentIndex: number[];
 }
 
-/** The document's modes, parsed (defaults filled); issues for the ones that do not parse. */
-export function readModes(doc: ModalChainLike): { modes: Mode[]; issues: ChainIssue[] } {
-  const raw = doc.modes;
-  if (raw === undefined || raw === null) return { modes: [], issues: [] };
-  if (!Array.isArray(raw)) {
-    return { modes: [], issues: [{ path: ['modes'], message: 'Modes must be a list of modes' }] };
-  }
-  const modes: Mode[] = [];
-  const issues: ChainIssue[] = [];
-  raw.forEach((m: unknown, i) => {
-    const parsed = modeSchema.safeParse(m);
-    if (parsed.success) modes.push(parsed.data);
-    else
-      for (const zi of parsed.error.issues) {
-        const path = ['modes', i, ...zi.path.map((p) => (typeof p === 'symbol' ? String(p) : p))];
-        issues.push({ path, message: `Mode ${i + 1}: ${zi.path.join('.') || 'mode'}: ${zi.message}` }); // prettier-ignore
-      }
-  });
-  return { modes, issues };
-}
-
 /** Whether a document declares modes. */
-export function hasModes(doc: ModalChainLike): boolean {
-  return Array.isArray(doc.modes) && doc.modes.length > 0;
+export function hasModes(doc: Pick<ChainDocument, 'modes'>): boolean {
+  return (doc.modes?.length ?? 0) > 0;
 }
 
 /** The ids of the document's modes, in order (empty: no modes). */
-export function modeIds(doc: ModalChainLike): string[] {
-  return readModes(doc).modes.map((m) => m.id);
-}
-
-function stageList(doc: ModalChainLike): StageLike[] {
-  return Array.isArray(doc.stages) ? (doc.stages as unknown[]).map((s) => (s ?? {}) as StageLike) : []; // prettier-ignore
+export function modeIds(doc: Pick<ChainDocument, 'modes'>): string[] {
+  return (doc.modes ?? []).map((m) => m.id);
 }
 
 /**
@@ -77,22 +37,21 @@ function stageList(doc: ModalChainLike): StageLike[] {
  * @throws ChainValidationError for an unknown mode, a mode naming unknown stages or
  *   parameters, a stage both in the path and bypassed, or duplicate mode ids
  */
-export function modeView<D extends ModalChainLike>(
+export function modeView<D extends ChainDocument>(
   doc: D,
   modeId?: string,
   catalogue?: readonly StageDefinition[],
 ): ModeView<D> {
   const { modes: _modes, ...rest } = doc;
-  const stages = stageList(doc);
-  const { modes, issues } = readModes(doc);
-  if (modes.length === 0 && issues.length === 0) {
+  const { stages } = doc;
+  const modes = doc.modes ?? [];
+  if (modes.length === 0) {
     if (modeId !== undefined)
       throw new ChainValidationError([
         { path: ['modes'], message: `The chain has no mode "${modeId}"; it has no modes at all` },
       ]);
     return { doc: rest, modeIndex: -1, documentIndex: stages.map((_s, i) => i) };
   }
-  if (issues.length > 0) throw new ChainValidationError(issues);
   const modeIndex = modeId === undefined ? 0 : modes.findIndex((m) => m.id === modeId);
   if (modeIndex < 0) {
     throw new ChainValidationError([
@@ -103,43 +62,43 @@ export function modeView<D extends ModalChainLike>(
     ]);
   }
   const mode = modes[modeIndex];
-  issues.push(...modeIssues(modes, stages, catalogue));
+  const issues = modeIssues(modes, stages, catalogue);
   if (issues.length > 0) throw new ChainValidationError(issues);
 
-  const indexById = new Map(stages.map((s, i) => [String(s.id), i]));
+  const indexById = new Map(stages.map((s, i) => [s.id, i]));
   const bypass = new Set(mode.bypass ?? []);
   const order = mode.path
     ? mode.path.map((id) => indexById.get(id) as number)
     : stages.map((_s, i) => i);
-  const documentIndex = order.filter((i) => !bypass.has(String(stages[i].id)));
-  const modeStages = documentIndex.map((i) => {
+  const documentIndex = order.filter((i) => !bypass.has(stages[i].id));
+  const modeStages = documentIndex.map((i): StageInstance => {
     const st = stages[i];
-    const over = mode.values?.[String(st.id)];
+    const over = mode.values?.[st.id];
     if (!over) return st;
-    const values = { ...(st.values && typeof st.values === 'object' ? st.values : {}), ...over };
+    const values = { ...st.values, ...over };
     // What the user typed for an overridden value no longer describes it.
-    const entered =
-      st.entered && typeof st.entered === 'object'
-        ? Object.fromEntries(Object.entries(st.entered).filter(([k]) => !(k in over)))
-        : undefined;
+    const entered = st.entered
+      ? Object.fromEntries(Object.entries(st.entered).filter(([k]) => !(k in over)))
+      : undefined;
     return { ...st, values, ...(entered ? { entered } : {}) };
   });
   const own = mode.settings;
-  const settings =
-    own && doc.settings && typeof doc.settings === 'object'
-      ? { ...(doc.settings as Record<string, unknown>), ...own }
-      : doc.settings;
+  const settings = {
+    ...doc.settings,
+    ...(own?.f0Hz !== undefined ? { f0Hz: own.f0Hz } : {}),
+    ...(own?.sweep !== undefined ? { sweep: own.sweep } : {}),
+  };
   return { doc: { ...rest, settings, stages: modeStages }, mode, modeIndex, documentIndex };
 }
 
 /** Every reference problem of the modes (all modes, not only the one analysed). */
 export function modeIssues(
-  modes: Mode[],
-  stages: StageLike[],
+  modes: readonly Mode[],
+  stages: readonly StageInstance[],
   catalogue?: readonly StageDefinition[],
 ): ChainIssue[] {
   const issues: ChainIssue[] = [];
-  const byId = new Map(stages.map((s) => [String(s.id), s]));
+  const byId = new Map(stages.map((s) => [s.id, s]));
   const byType = new Map((catalogue ?? []).map((d) => [d.type, d]));
   const seen = new Set<string>();
   modes.forEach((m, i) => {
@@ -155,7 +114,7 @@ export function modeIssues(
     };
     for (const [id, over] of Object.entries(m.values ?? {})) {
       if (!known(id, ['values', id])) continue;
-      const def = byType.get(String(byId.get(id)?.type));
+      const def = byType.get(byId.get(id)?.type ?? '');
       if (!def) continue; // an unknown type is reported by the build
       for (const key of Object.keys(over)) {
         if (!def.params.some((p) => p.key === key))
@@ -199,14 +158,14 @@ export function issueInDocument(view: ModeView, issue: ChainIssue): ChainIssue {
 function pathRoleIssues(
   m: Mode,
   modeIndex: number,
-  byId: Map<string, StageLike>,
+  byId: Map<string, StageInstance>,
   byType: Map<string, StageDefinition>,
 ): ChainIssue[] {
   const path = (m.path ?? []).filter((id) => !(m.bypass ?? []).includes(id));
   const last = path.length - 1;
   const issues: ChainIssue[] = [];
   path.forEach((id, k) => {
-    const def = byType.get(String(byId.get(id)?.type));
+    const def = byType.get(byId.get(id)?.type ?? '');
     if (!def) return;
     const wanted = k === 0 ? 'source' : k === last ? 'load' : 'two-port';
     if (def.role === wanted) return;

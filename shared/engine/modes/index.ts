@@ -7,8 +7,8 @@ import { analyzeChain, type AnalyzeOptions } from '../analyze';
 import { ChainValidationError, type ChainIssue } from '../errors';
 import { defaultCatalogue } from '../default-catalogue';
 import type { AnalysisResult } from '../types';
-import { buildChain, type BuildOptions, type ChainLike } from '../core/build';
-import { modeView, readModes } from './apply-mode';
+import { buildChain, type BuildOptions } from '../core/build';
+import { modeView } from './apply-mode';
 
 export { insertStagesAfter } from './edit';
 export {
@@ -17,8 +17,6 @@ export {
   modeIds,
   modeIssues,
   modeView,
-  readModes,
-  type ModalChainLike,
   type ModeView,
 } from './apply-mode';
 
@@ -43,12 +41,11 @@ export function chainInMode(
  * analysed). A chain without modes is checked as written.
  */
 export function modeValidationIssues(
-  doc: ChainLike,
+  doc: ChainDocument,
   catalogue = defaultCatalogue(),
   options: BuildOptions = {},
 ): ChainIssue[] {
-  const { modes, issues } = readModes(doc);
-  if (issues.length > 0) return issues;
+  const modes = doc.modes ?? [];
   const ids = modes.length > 0 ? modes.map((m) => m.id) : [undefined];
   const all: ChainIssue[] = [];
   const seen = new Set<string>();
@@ -78,9 +75,8 @@ export type ModeAnalysis =
  * chain without modes gives one entry with `modeId` null. A mode that cannot be analysed
  * gives its issues; the others are still analysed.
  */
-export function analyseModes(doc: ChainLike, options: AnalyzeOptions = {}): ModeAnalysis[] {
-  const { modes, issues } = readModes(doc);
-  if (issues.length > 0) throw new ChainValidationError(issues);
+export function analyseModes(doc: ChainDocument, options: AnalyzeOptions = {}): ModeAnalysis[] {
+  const modes = doc.modes ?? [];
   const ids = modes.length > 0 ? modes.map((m) => m.id) : [undefined];
   return ids.map((mode): ModeAnalysis => {
     const modeId = mode ?? null;

@@ -7,19 +7,13 @@
  * follows it on the mixer's side (fLO = f ± fIF), and each response is judged through that
  * position's own selectivity, so mistracking and a Q that changes across the band count.
  */
-import type { VariableMark } from '../../schema/chain';
+import type { ChainDocument } from '../../schema/chain';
 import type { BuiltChain } from '../core/build';
 import { defaultCatalogue } from '../default-catalogue';
 import { describeGang, gangMembers, gangValues } from '../gang';
 import { findMixer, type MixerInfo } from '../core/selectivity';
 import { passbandPeak } from '../design/passband-peak';
 import { chartLines, judgePosition, selectivityAhead, type SpurChart, type SpurOptions } from './spurs'; // prettier-ignore
-
-interface StageLike {
-  id: string;
-  type: string;
-  values: Record<string, unknown>;
-}
 
 /** What the analysis hands the plan so it can re-tune the chain by its marked gang. */
 export interface GangTuning {
@@ -76,8 +70,8 @@ export function spurChartByGang(
  * value (the chart then assumes constant-Q tracking). Uses the first gang marked.
  */
 export function gangTuningOf(
-  doc: { settings: { variables?: readonly VariableMark[] }; stages: readonly StageLike[] },
-  build: (doc: unknown) => BuiltChain,
+  doc: ChainDocument,
+  build: (doc: ChainDocument) => BuiltChain,
 ): GangTuning | null {
   const members = gangMembers(doc, undefined);
   if (members.length === 0) return null;

@@ -12,14 +12,9 @@
  * `.ac dec` grid, reported back (`exactGrid: false`) so callers run the engine on ngspice's
  * frequencies instead.
  */
+import type { ChainDocument } from '../../schema/chain';
 import type { SweepSpec } from '../core/sweep';
-import {
-  buildChain,
-  stageName,
-  type BuiltChain,
-  type BuiltStage,
-  type ChainLike,
-} from '../core/build';
+import { buildChain, stageName, type BuiltChain, type BuiltStage } from '../core/build';
 import type { MeasuredNetwork, StageDefinition } from '../types';
 import { defaultCatalogue } from '../default-catalogue';
 
@@ -72,18 +67,12 @@ export interface SpiceDeck {
  * @throws ChainValidationError when the chain is invalid; SpiceExportError naming the stage
  *   when a stage cannot be written in SPICE
  */
-export function chainToSpice(
-  doc: ChainLike & { name?: unknown },
-  options: ChainToSpiceOptions = {},
-): string {
+export function chainToSpice(doc: ChainDocument, options: ChainToSpiceOptions = {}): string {
   return chainToSpiceDeck(doc, options).netlist;
 }
 
 /** Like {@link chainToSpice}, with the grid and vector names needed to read the results. */
-export function chainToSpiceDeck(
-  doc: ChainLike & { name?: unknown },
-  options: ChainToSpiceOptions = {},
-): SpiceDeck {
+export function chainToSpiceDeck(doc: ChainDocument, options: ChainToSpiceOptions = {}): SpiceDeck {
   const catalogue = options.catalogue ?? defaultCatalogue();
   if (!catalogue)
     throw new Error('spice export: no stage catalogue is installed; pass one in the options');
@@ -96,7 +85,7 @@ export function chainToSpiceDeck(
   const dataFile = options.dataFile ?? 'chain-ac.txt';
   const m = built.twoPorts.length;
   const node = (k: number) => `n${k}`;
-  const name = typeof doc.name === 'string' && doc.name.trim() ? doc.name.trim() : 'chain';
+  const name = doc.name.trim() || 'chain';
 
   const lines: string[] = [
     `Chainwright chain "${oneLine(name)}"`,

@@ -5,7 +5,8 @@
  * Reference: ngspice (Debian package ngspice), run in the test.
  */
 import { analyzeChain } from '../../../shared/engine/analyze';
-import type { BuiltChain, ChainLike } from '../../../shared/engine/core/build';
+import type { BuiltChain } from '../../../shared/engine/core/build';
+import type { ChainDocument } from '../../../shared/schema/chain';
 import { runNodeAnalysis } from '../../../shared/engine/core/nodes';
 import { chainToSpiceDeck } from '../../../shared/engine/spice/netlist';
 import type { StageDefinition, SweepReport } from '../../../shared/engine/types';
@@ -68,7 +69,7 @@ const orWorst = (x: number) => (Number.isNaN(x) ? Infinity : x);
  * @throws Error when ngspice's frequency grid is not the engine's (to 1e-12 relative)
  */
 export function measureAgreement(
-  doc: ChainLike & { name?: string },
+  doc: ChainDocument,
   catalogue: readonly StageDefinition[],
 ): Agreement {
   const deck = chainToSpiceDeck(doc, { catalogue });
@@ -156,7 +157,7 @@ export const AGREEMENT = { db: 0.01, deg: 0.1 };
  * more than 0.01 dB or 0.1° anywhere.
  */
 export function expectAgreement(
-  doc: ChainLike & { name?: string },
+  doc: ChainDocument,
   catalogue: readonly StageDefinition[],
 ): Agreement {
   const a = measureAgreement(doc, catalogue);

@@ -19,6 +19,7 @@ import {
 } from '../../../../../shared/engine/core/reports';
 import { frequencyGrid } from '../../../../../shared/engine/core/sweep';
 import { defaultCatalogue } from '../../../../../shared/engine/default-catalogue';
+import { parseChainDocument } from '../../../../../shared/schema/parse-chain';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
 
 const LIVE_POINTS = 401;
@@ -26,7 +27,8 @@ const LIVE_POINTS = 401;
 addEventListener('message', ({ data }: MessageEvent<KnobQuestion>) => {
   const started = performance.now();
   try {
-    const doc = data.document;
+    // The editor's document as the engine takes it: parsed, with the schema's defaults.
+    const doc = parseChainDocument(data.document);
     const sweep = doc.settings.sweep;
     const built = buildChain(doc, defaultCatalogue());
     const freqs = frequencyGrid({ ...sweep, points: Math.min(sweep.points, LIVE_POINTS) });

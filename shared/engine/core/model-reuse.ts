@@ -1,0 +1,44 @@
+/**
+ * Taking a stage's model over from a chain built before (`BuildOptions.like`): a study's drawn
+ * chain and its nominal differ at most in some values, so every stage whose inputs are the
+ * same keeps the model already built. Models are immutable once built, so sharing is safe.
+ */
+import type { ChainSettings } from '../../schema/chain';
+import type { ParamValues, StageDefinition, StageModel } from '../types';
+import type { BuiltChain } from './build';
+
+/**
+ * Whether models of `like` can stand for this chain's at all: built at the same temperature
+ * and for the same highest frequency evaluated (which follows from the sweep's stop).
+ */
+export function reusableSettings(like: BuiltChain, settings: ChainSettings): boolean {
+  return (
+    like.settings.temperatureK === settings.temperatureK &&
+    like.settings.sweep.stopHz === settings.sweep.stopHz &&
+    like.settings.f0Hz === settings.f0Hz
+  );
+}
+
+/**
+ * The model of stage `index` of `like` when it was built from the same type, values and
+ * design frequency at its input (so building it again would give the same model), else null.
+ */
+export function sameStage(
+  like: BuiltChain,
+  index: number,
+  id: string,
+  def: StageDefinition,
+  values: ParamValues,
+  f0: number,
+): StageModel | null {
+  const prev =
+    index === 0
+      ? like.source
+      : like.load.index === index
+        ? like.load
+        : like.twoPorts.find((s) => s.index === index);
+  if (!prev || prev.id !== id || prev.definition !== def) return null;
+  if (like.f0AtFlatNode[prev.firstSection] !== f0) return null;
+  for (const spec of def.params) if (prev.values[spec.key] !== values[spec.key]) return null;
+  return prev.model;
+}
