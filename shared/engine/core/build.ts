@@ -23,7 +23,7 @@ import type {
   TwoPortModel,
 } from '../types';
 import { issueInDocument, modeView } from '../modes/apply-mode';
-import { reusableSettings, sameStage } from './model-reuse';
+import { builtSettings, reusableSettings, sameStage } from './model-reuse';
 import { pointwiseFill } from './nodes';
 import { resolveValues } from './stage-values';
 
@@ -211,9 +211,7 @@ function buildAsWritten(
   catalogue: readonly StageDefinition[],
   options: BuildOptions,
 ): BuiltChain {
-  // A copy, so that the built chain does not change when the caller edits its document
-  // afterwards (a band study moves the dial in place).
-  const settings: ChainSettings = { ...doc.settings, sweep: { ...doc.settings.sweep } };
+  const settings = builtSettings(doc.settings, options.like);
   const issues: ChainIssue[] = [];
   // The schema asks for two stages; a mode that leaves stages out can still have fewer.
   if (doc.stages.length < 2) {

@@ -7,6 +7,23 @@ import type { ChainSettings } from '../../schema/chain';
 import type { ParamValues, StageDefinition, StageModel } from '../types';
 import type { BuiltChain } from './build';
 
+/** The settings (as JSON) each built chain's settings object was made from. */
+const settingsSource = new WeakMap<ChainSettings, string>();
+
+/**
+ * The settings object of a chain being built: `like`'s own when the document's settings are
+ * the same (callers tell a chain built like another by this identity, e.g. a study's trial
+ * reusing its nominal's sweep), else a copy, so that the built chain does not change when
+ * the caller edits its document afterwards (a band study moves the dial in place).
+ */
+export function builtSettings(settings: ChainSettings, like?: BuiltChain): ChainSettings {
+  const json = JSON.stringify(settings);
+  if (like && settingsSource.get(like.settings) === json) return like.settings;
+  const copy = structuredClone(settings);
+  settingsSource.set(copy, json);
+  return copy;
+}
+
 /**
  * Whether models of `like` can stand for this chain's at all: built at the same temperature
  * and for the same highest frequency evaluated (which follows from the sweep's stop).
