@@ -120,7 +120,7 @@ async function walk({ page, problems }: WatchedPage, size: Width): Promise<void>
   await textAppears(panel.locator('select[data-param="dataFileId"]'), 'test-amplifier.ts');
   await panel
     .locator('select[data-param="noise"]')
-    .selectOption({ label: 'Noise parameters from the data file (active device)' });
+    .selectOption({ label: 'Parameters from the data file (active device)' });
   await settled(page);
   await check('editor, amplifier values');
   await snap('05-amplifier-values');

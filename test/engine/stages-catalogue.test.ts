@@ -21,6 +21,21 @@ describe('the catalogue schema', () => {
     expect(types.length).toBeGreaterThanOrEqual(29);
   });
 
+  it('no choice starts with the word its label ends with (a card writes "label choice")', () => {
+    const repeats: string[] = [];
+    for (const d of STAGE_DEFINITIONS) {
+      for (const p of d.params) {
+        const last = p.label.split(/\s+/).pop()!.toLowerCase();
+        for (const o of p.options ?? []) {
+          if (o.label.split(/\s+/)[0].toLowerCase() === last) {
+            repeats.push(`${d.type}.${p.key}: "${p.label} ${o.label}"`);
+          }
+        }
+      }
+    }
+    expect(repeats).toEqual([]);
+  });
+
   it.each(STAGE_DEFINITIONS.map((d) => [d.type, d] as const))(
     '%s: params are consistent',
     (_t, d) => {

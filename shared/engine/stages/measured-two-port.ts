@@ -61,9 +61,10 @@ const PARAMS = [
     'noise',
     'Noise',
     [
-      ['passive', 'Passive (noise from its loss)'],
-      ['figure', 'Stated noise figure (active device)'],
-      ['file', 'Noise parameters from the data file (active device)'],
+      // The card writes the label before the choice ("Noise Stated figure…"): no repeats.
+      ['passive', 'Passive, from its loss'],
+      ['figure', 'Stated figure (active device)'],
+      ['file', 'Parameters from the data file (active device)'],
     ],
     {
       help:
