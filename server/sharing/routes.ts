@@ -8,6 +8,7 @@ import {
 } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { recordActivity } from '../activity/record';
+import { catalogue } from '../../shared/engine';
 import {
   AnalysisTooLargeError,
   analysisLimits,
@@ -185,6 +186,14 @@ export function sharedRouter(services: Services): Router {
       .set('Cache-Control', 'no-store')
       .type('application/json')
       .send(`${figures.slice(0, -1)},${rest.slice(1)}`);
+  });
+
+  // The catalogue entries of the chain's stage types, so a signed-out reader sees each
+  // value under its name and unit ("Inductance 22 µH", not "l 2.2e-5").
+  router.get('/:token/catalogue', async (req, res) => {
+    const chain = (await linkOf(req)).chain;
+    const used = new Set(chain.document.stages.map((s) => s.type));
+    res.set('Cache-Control', 'no-store').json(catalogue().filter((t) => used.has(t.type)));
   });
 
   router.get('/:token/export', async (req, res) => {

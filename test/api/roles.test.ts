@@ -196,6 +196,12 @@ const ROWS: Row[] = [
     expect: everyone(200),
   },
   {
+    name: 'shared chain catalogue',
+    method: 'get',
+    url: (f) => `/api/shared/${f.shareToken}/catalogue`,
+    expect: everyone(200),
+  },
+  {
     name: 'shared chain export',
     method: 'get',
     url: (f) => `/api/shared/${f.shareToken}/export?format=json`,

@@ -70,6 +70,18 @@ describe('read-only links', () => {
     expect(res.body.analysis.stages.length).toBeGreaterThan(0);
     expect(res.body.analysis.sweep.freqsHz.length).toBe(201);
 
+    // The stage types' names and units, for a reader without an account.
+    const types = await request(ctx.app).get(`/api/shared/${token}/catalogue`);
+    expect(types.status).toBe(200);
+    expect(types.body.map((t: { type: string }) => t.type).sort()).toEqual(
+      ['envelope-detector', 'resistive-generator', 'shunt-lc-tank'].sort(),
+    );
+    const tank = types.body.find((t: { type: string }) => t.type === 'shunt-lc-tank');
+    expect(tank.params.find((p: { key: string }) => p.key === 'l')).toMatchObject({
+      label: expect.stringMatching(/inductance/i),
+      unit: 'henry',
+    });
+
     const netlist = await request(ctx.app).get(`/api/shared/${token}/export?format=spice`);
     expect(netlist.status).toBe(200);
     expect(netlist.headers['content-disposition']).toContain('test-tank-into-a-detector.cir');
@@ -91,6 +103,7 @@ describe('read-only links', () => {
     expect((await request(ctx.app).get(`/api/shared/${token}/export?format=json`)).status).toBe(
       404,
     );
+    expect((await request(ctx.app).get(`/api/shared/${token}/catalogue`)).status).toBe(404);
   });
 
   it('should stop working at its expiry', async () => {

@@ -124,6 +124,23 @@ describe('printable report', () => {
     await shot(page, 'report-04-transmit-mode');
     const text = pdfText(await printPdf(page, 'report-transmit'));
     expect(text).toContain('Transmit');
+    // The transmit figures themselves: power into the antenna, harmonics against their
+    // limits, the receiver's isolation and every part's stress, with the caution.
+    for (const words of [
+      'Into the antenna',
+      'Network loss',
+      'Harmonic',
+      'Attenuation',
+      'Receiver isolation',
+      'reaches the receiver input',
+      'Peak voltage',
+      'RMS current',
+      'Rating',
+    ]) {
+      expect(text).toContain(words);
+    }
+    expect(text).toMatch(/within limit|over limit|no limit stated/);
+    expect(text).toContain('defer to licensed practice');
     // The analysis words its own cautions for a transmit mode (licence, RF exposure).
     expect(text).toMatch(/licen[cs]e/);
     expect(text).toMatch(/exposure/);
@@ -144,6 +161,11 @@ describe('printable report', () => {
       await visitor.page.waitForURL(/\/shared\/[^/]+\/report$/);
       await reportReady(visitor.page);
       await shot(visitor.page, 'report-03-shared');
+      // Signed out too, each value goes by its name with its unit ("Resistance 1 kΩ"), never
+      // by its key ("r 1000").
+      const values = await visitor.page.locator('.strip .values li').allTextContents();
+      expect(values.length).toBeGreaterThan(0);
+      for (const v of values) expect(v.trim()).toMatch(/^[A-Z]/);
       expect(describeAxe(await seriousAxeViolations(visitor.page))).toEqual([]);
       const text = pdfText(await printPdf(visitor.page, 'report-shared'));
       expect(text).toContain(CHAIN);

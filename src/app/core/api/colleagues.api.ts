@@ -1,6 +1,7 @@
 import { HttpClient, HttpContext } from '@angular/common/http';
 import { inject, Injectable } from '@angular/core';
 import { Observable } from 'rxjs';
+import type { StageTypeInfo } from '../../../../shared/engine/types';
 import type {
   AcceptedInvitationDto,
   ActivityDto,
@@ -86,6 +87,10 @@ export class ColleaguesApi {
   }
   shared(token: string, context?: HttpContext): Observable<SharedChainDto> {
     return this.http.get<SharedChainDto>(`/api/shared/${enc(token)}`, { context });
+  }
+  /** The catalogue entries of a shared chain's stage types (names and units), signed out too. */
+  sharedCatalogue(token: string, context?: HttpContext): Observable<StageTypeInfo[]> {
+    return this.http.get<StageTypeInfo[]>(`/api/shared/${enc(token)}/catalogue`, { context });
   }
   sendChain(chainId: string, email: string, note: string): Observable<{ mail: MailOutcomeDto }> {
     return this.http.post<{ mail: MailOutcomeDto }>(`/api/chains/${enc(chainId)}/send`, {

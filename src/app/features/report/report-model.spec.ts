@@ -1,5 +1,9 @@
 import type { StageTypeInfo } from '../../../../shared/engine/types';
-import { sampleDocument, sampleResult } from '../editor/results/testing/sample-analysis';
+import {
+  sampleDocument,
+  sampleResult,
+  sampleTransmit,
+} from '../editor/results/testing/sample-analysis';
 import { budgetParts, GENERAL_CAUTION, reportCautions, reportModel } from './report-model';
 import { budgetTable } from '../editor/results/budget-rows';
 
@@ -8,6 +12,23 @@ const noTypes = new Map<string, StageTypeInfo>();
 describe('report-model', () => {
   const doc = sampleDocument();
   const result = sampleResult();
+
+  it("should carry a transmit mode's figures: power, harmonics, isolation, part stress", () => {
+    expect(reportModel(doc, result, noTypes).transmit).toBeNull();
+    const tx = reportModel(
+      doc,
+      { ...sampleResult(), transmit: sampleTransmit() },
+      noTypes,
+    ).transmit!;
+    expect(tx.delivered).toBe('94.5 mW (19.8 dBm)');
+    expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.verdict])).toEqual([
+      [2, '16.3 dB', '20.0 dB', 'over limit'],
+      [3, '30.9 dB', '20.0 dB', 'within limit'],
+    ]);
+    expect(tx.receiver).toMatchObject({ isolation: '34.2 dB', verdict: 'no limit stated' });
+    expect(tx.parts.map((p) => p.verdict)).toEqual(['no limit stated', 'over limit']);
+    expect(tx.parts[1].rating).toBe('2 V peak');
+  });
 
   it('should draw every stage in order and mark each with its worst flag', () => {
     const { strip } = reportModel(doc, result, noTypes);

@@ -27,6 +27,7 @@ import {
 } from '../editor/results/detail-rows';
 import { valueOf, visibleParams } from '../editor/state/stage-factory';
 import { CAUTION_DEFER, CAUTION_WORDING, cautionsOf } from '../editor/cautions/caution-words';
+import { reportTransmit, type ReportTransmit } from './report-transmit';
 
 /** Node columns per budget table: what fits across A4 or Letter portrait in the report's type. */
 export const NODES_PER_PAGE_WIDTH = 5;
@@ -72,6 +73,8 @@ export interface ReportModel {
   offsetHeadings: string[];
   flags: FlagItem[];
   summary: SummaryItem[];
+  /** A transmit mode's figures (null otherwise). */
+  transmit: ReportTransmit | null;
   cautions: ReportCaution[];
 }
 
@@ -85,7 +88,7 @@ const SEVERITY_RANK = { error: 0, warning: 1, info: 2 } as const;
 const VALUES_PER_CELL = 5;
 
 /** A stage's defining values with their full names ("Inductance 2.2 mH"). */
-function stageValues(stage: ChainDocument['stages'][number], type: StageTypeInfo): string[] {
+export function stageValues(stage: ChainDocument['stages'][number], type: StageTypeInfo): string[] {
   return visibleParams(stage, type)
     .filter((p) => p.kind === 'number' || p.kind === 'enum')
     .slice(0, VALUES_PER_CELL)
@@ -207,6 +210,7 @@ export function reportModel(
     offsetHeadings: offsetHeadings(doc),
     flags: result ? flagItems(result, doc) : [],
     summary: result ? summaryItems(result, doc) : [],
+    transmit: reportTransmit(result, doc),
     cautions: reportCautions(doc, result, types, transmitMode),
   };
 }

@@ -29,6 +29,7 @@ import { AnalysisApi } from '../editor/state/analysis-api';
 import { documentForResults, findMode, hasTransmitMode, modesOf } from '../editor/modes/mode-edits';
 import { type ReportPlot, drawReportPlots, reportPlotSpecs } from './report-plots';
 import { reportModel } from './report-model';
+import { TRANSMIT_NOTE } from './report-transmit';
 import { PAGE_SIZES, PageSizeStore, type PageSize } from './page-size';
 
 /** What the report is of, however it was reached. */
@@ -82,6 +83,7 @@ export default class ReportPageComponent {
   private readonly page = inject(DOCUMENT);
   protected readonly pageSize = inject(PageSizeStore);
   protected readonly sizes = PAGE_SIZES;
+  protected readonly transmitNote = TRANSMIT_NOTE;
 
   protected readonly source = signal<ReportSource | null>(null);
   private readonly types = signal<ReadonlyMap<string, StageTypeInfo>>(new Map());
@@ -173,8 +175,9 @@ export default class ReportPageComponent {
   private async fromLink(token: string, modeId?: string): Promise<ReportSource> {
     const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
     const shared = await firstValueFrom(this.colleagues.shared(token, context));
-    // The catalogue is for signed-in readers; a signed-out one gets the values as typed.
-    if (this.session.signedIn()) await this.loadTypes();
+    // The link's own catalogue: a signed-out reader sees names and units too.
+    const types = await firstValueFrom(this.colleagues.sharedCatalogue(token, context));
+    this.types.set(new Map(types.map((t) => [t.type, t])));
     // A chain with modes: the mode asked for, else the first, as the share page shows it.
     const modes = shared.modes ?? [];
     const shown = modes.find((m) => m.id === modeId) ?? modes[0] ?? null;

@@ -13,7 +13,7 @@ import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { Title } from '@angular/platform-browser';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
-import type { AnalysisResult } from '../../../../shared/engine/types';
+import type { AnalysisResult, StageTypeInfo } from '../../../../shared/engine/types';
 import type { SharedChainDto } from '../../../../shared/schema/api';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
 import { describeHttpError } from '../../core/http/error-message';
@@ -23,6 +23,7 @@ import { documentForResults, hasTransmitMode } from '../editor/modes/mode-edits'
 import { TransmitPanelComponent } from '../editor/modes/transmit-panel.component';
 import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
 import { engineering } from '../editor/results/format-quantity';
+import { stageValues } from '../report/report-model';
 
 /**
  * A chain opened through a read-only link, without signing in: its stages, budget, flags
@@ -68,7 +69,10 @@ import { engineering } from '../editor/results/format-quantity';
           >
           <a mat-stroked-button [href]="exportUrl('json', false)" download>Chain file</a>
           <a mat-stroked-button [href]="exportUrl('spice')" download>SPICE netlist</a>
-          <a mat-stroked-button [href]="exportUrl('touchstone')" download>Touchstone</a>
+          <a mat-stroked-button [href]="exportUrl('touchstone')" download>Touchstone 1.1</a>
+          <a mat-stroked-button [href]="exportUrl('touchstone') + '&version=2'" download
+            >Touchstone 2.0</a
+          >
         </nav>
       </header>
       <p class="caution" role="note">
@@ -95,11 +99,14 @@ import { engineering } from '../editor/results/format-quantity';
         </div>
       }
       <ol class="stages" aria-label="Stages from source to load">
-        @for (st of shownDoc()?.stages ?? []; track st.id; let i = $index) {
-          <li>
+        @for (st of stageCards(); track st.id; let i = $index) {
+          <li [attr.data-stage-id]="st.id">
             <span class="n">{{ i + 1 }}</span>
-            <span class="label">{{ st.label || st.type }}</span>
-            <span class="cw-muted">{{ st.type }}</span>
+            <span class="label">{{ st.label }}</span>
+            <span class="cw-muted type">{{ st.typeLabel }}</span>
+            @if (st.values.length) {
+              <span class="values cw-num">{{ st.values.join(' · ') }}</span>
+            }
           </li>
         }
       </ol>
@@ -168,11 +175,16 @@ import { engineering } from '../editor/results/format-quantity';
     }
     .stages li {
       display: flex;
+      flex-wrap: wrap;
       gap: 6px;
       align-items: baseline;
       padding: 6px 10px;
       border: 1px solid var(--mat-sys-outline-variant);
       border-radius: 8px;
+    }
+    .values {
+      flex-basis: 100%;
+      font-size: 13px;
     }
     .n {
       font-weight: 700;
@@ -216,6 +228,20 @@ export default class SharedChainComponent {
     const id = this.modeShown()?.id;
     return documentForResults(s.document, s.document.modes?.find((m) => m.id === id) ?? null);
   });
+  /** Stage types by key, from the link's catalogue: names and units for every value. */
+  private readonly types = signal<ReadonlyMap<string, StageTypeInfo>>(new Map());
+  /** Each stage of the mode shown with its type's name and its defining values in full. */
+  protected readonly stageCards = computed(() =>
+    (this.shownDoc()?.stages ?? []).map((st) => {
+      const type = this.types().get(st.type);
+      return {
+        id: st.id,
+        label: st.label || type?.label || st.type,
+        typeLabel: type?.label ?? st.type,
+        values: type ? stageValues(st, type) : [],
+      };
+    }),
+  );
   protected readonly stageLabels = computed(
     () => new Map((this.shownDoc()?.stages ?? []).map((st) => [st.id, st.label || st.type])),
   );
@@ -248,6 +274,8 @@ export default class SharedChainComponent {
     try {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
       const shared = await firstValueFrom(this.api.shared(token, context));
+      const types = await firstValueFrom(this.api.sharedCatalogue(token, context));
+      this.types.set(new Map(types.map((t) => [t.type, t])));
       this.shared.set(shared);
       this.title.setTitle(`${shared.name} (read only) · Chainwright`);
     } catch (error) {

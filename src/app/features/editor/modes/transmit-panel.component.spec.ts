@@ -1,29 +1,7 @@
 import { TestBed } from '@angular/core/testing';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
-import { sampleResult } from '../results/testing/sample-analysis';
+import { sampleResult, sampleTransmit as transmit } from '../results/testing/sample-analysis';
 import { TransmitPanelComponent } from './transmit-panel.component';
-
-type Transmit = NonNullable<AnalysisResult['transmit']>;
-
-function transmit(): Transmit {
-  return {
-    f0Hz: 433.92e6,
-    availableW: 0.1,
-    deliveredW: 0.0945,
-    deliveredDbm: 19.75,
-    networkLossDb: 0.25,
-    sourceSwingPeakV: 2.98,
-    harmonics: [
-      { n: 2, fHz: 867.84e6, attenuationDb: 16.3, limitDb: 20, ok: false },
-      { n: 3, fHz: 1301.76e6, attenuationDb: 30.9, limitDb: 20, ok: true },
-    ],
-    receiverInput: { stageId: 'rx-idle', part: 'part 5', powerW: 3.6e-5, dbm: -14.4, isolationDb: 34.2, limitDbm: null, ok: null }, // prettier-ignore
-    parts: [
-      { stageId: 'pa-match', label: 'PA match, part 1 (series)', vPeak: 1.01, iPeak: 0.067, iRms: 0.0474, powerW: 3.4e-4, ratedPeakVolts: null, ratedRmsAmps: null, ok: null }, // prettier-ignore
-      { stageId: 'rx-idle', label: 'part 2 (series L)', vPeak: 3.07, iPeak: 0.0615, iRms: 0.0435, powerW: 0, ratedPeakVolts: 2, ratedRmsAmps: null, ok: false }, // prettier-ignore
-    ],
-  };
-}
 
 async function render(result: AnalysisResult | null): Promise<HTMLElement> {
   const fixture = TestBed.createComponent(TransmitPanelComponent);

@@ -38,6 +38,9 @@ import { PLOTLY_LOADER } from './plotly-loader';
 import { prefetchWhenIdle } from './plot-timing';
 import { ResultPlotsComponent } from './result-plots.component';
 import { SummaryPanelComponent } from './summary-panel.component';
+import { TRANSMIT_HEADLINE } from './transmit-summary';
+
+const RECEIVE_HEADLINE = ['nf', 'gain', 'sensitivity', 'sfdr'];
 import { PlanViewComponent } from '../plan/plan-view.component';
 
 /**
@@ -137,10 +140,11 @@ export class AnalysisResultsComponent {
     const result = this.result();
     return result ? summaryItems(result, this.document()) : [];
   });
-  /** The four figures shown above the tabs. */
-  protected readonly headline = computed(() =>
-    this.summary().filter((s) => ['nf', 'gain', 'sensitivity', 'sfdr'].includes(s.key)),
-  );
+  /** The four figures shown above the tabs (a transmitter's in a transmit mode). */
+  protected readonly headline = computed(() => {
+    const keys = this.result()?.transmit ? TRANSMIT_HEADLINE : RECEIVE_HEADLINE;
+    return this.summary().filter((s) => keys.includes(s.key));
+  });
 
   protected readonly flagsTabLabel = computed(() => {
     const { error, warning, info } = this.counts();

@@ -9,7 +9,7 @@ import {
   summaryItems,
 } from './detail-rows';
 import { NO_VALUE } from './format-quantity';
-import { sampleDocument, sampleResult } from './testing/sample-analysis';
+import { sampleDocument, sampleResult, sampleTransmit } from './testing/sample-analysis';
 
 describe('detail-rows', () => {
   const result = sampleResult();
@@ -137,6 +137,20 @@ describe('detail-rows', () => {
       expect(summaryItems(noLinearity, document).find((i) => i.key === 'sfdr')?.value).toBe(
         NO_VALUE,
       );
+    });
+
+    it("should give a transmit mode's figures, and no receive noise figure", () => {
+      const tx = summaryItems({ ...sampleResult(), transmit: sampleTransmit() }, document);
+      const keys = tx.map((i) => i.key);
+      expect(keys).not.toContain('nf');
+      expect(keys).not.toContain('sensitivity');
+      const of = (key: string) => tx.find((i) => i.key === key);
+      expect(of('tx-delivered')).toMatchObject({ label: 'Into the antenna', value: '94.5 mW' });
+      expect(of('tx-harmonic-2')?.note).toContain('over the 20.0 dB limit');
+      expect(of('tx-harmonic-3')?.note).toContain('within the 20.0 dB limit');
+      expect(of('tx-isolation')).toMatchObject({ value: '34.2 dB' });
+      expect(of('tx-isolation')?.note).toContain('no limit stated');
+      expect(of('tx-parts')?.value).toBe('1 of 1');
     });
   });
 

@@ -2,6 +2,7 @@
  * Rows for the resonator, selectivity and summary tables, and the ordered flag list.
  * Pure functions of the result and the chain document; the components only lay them out.
  */
+import { transmitSummaryItems } from './transmit-summary';
 import type { ChainDocument, Thresholds } from '../../../../../shared/schema/chain';
 import type { AnalysisResult, Flag, Severity } from '../../../../../shared/engine/types';
 import { NO_VALUE, decibels, engineering, percent, plain } from './format-quantity';
@@ -140,7 +141,12 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
   });
 }
 
+/**
+ * The chain's figures for the summary tab: a receiver's noise, gain, sensitivity and range,
+ * or, in a transmit mode, what the transmitter delivers (see `transmitSummaryItems`).
+ */
 export function summaryItems(result: AnalysisResult, document: ChainDocument): SummaryItem[] {
+  if (result.transmit) return transmitSummaryItems(result.transmit);
   const l = result.levels;
   const bandwidth = engineering(document.settings.channelBandwidthHz, 'hertz');
   const emfRms = l.sensitivityEmfRms;
