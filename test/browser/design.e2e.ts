@@ -54,7 +54,8 @@ describe('design tools', () => {
 
   beforeEach(async () => {
     watched = await openPage(browser);
-    // Leaving a chain with unsaved edits asks first; these tests do not keep those edits.
+    // Reloading a chain with unsaved edits makes the browser ask (beforeunload); these tests
+    // do not keep those edits.
     watched.page.on('dialog', (dialog) => void dialog.accept());
   });
 
@@ -202,11 +203,12 @@ describe('design tools', () => {
 
     // Save the matched chain as a variant, named, then compare it with its parent.
     const name = `Short whip, matched ${uniqueSuffix()}`;
-    page.removeAllListeners('dialog');
-    page.once('dialog', (dialog) => void dialog.accept(name));
     await page.getByTestId('save-as-variant').click();
+    const ask = page.getByRole('dialog', { name: 'Save as a variant' });
+    await ask.getByLabel('Name of the variant').fill(name);
+    await shot(page, 'design-04b-variant-name');
+    await ask.getByRole('button', { name: 'Save variant' }).click();
     await page.locator('h1.name', { hasText: name }).waitFor();
-    page.on('dialog', (dialog) => void dialog.accept());
     await page.getByTestId('compare-variants').click();
     await page.waitForURL(/\/compare\?chains=/);
     const diff = page.getByTestId('stage-diff');

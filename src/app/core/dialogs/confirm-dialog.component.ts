@@ -7,9 +7,16 @@ export interface ConfirmDialogData {
   message: string;
   /** The label of the confirming button, a verb: "Delete", "Remove". */
   confirmLabel: string;
+  /** The label of the button that keeps things as they are (default "Cancel"). */
+  cancelLabel?: string;
+  /** 'danger' (the default) colours the confirming button as a warning; 'plain' does not. */
+  tone?: 'danger' | 'plain';
 }
 
-/** Asks before an action that cannot be undone from this screen. Closes with true to go on. */
+/**
+ * Asks before an action that cannot be undone from this screen. Closes with true to go on;
+ * Escape, a click outside and the cancel button close it with false or nothing.
+ */
 @Component({
   selector: 'cw-confirm-dialog',
   imports: [MatDialogModule, MatButtonModule],
@@ -20,8 +27,15 @@ export interface ConfirmDialogData {
       <p>{{ data.message }}</p>
     </mat-dialog-content>
     <mat-dialog-actions align="end">
-      <button mat-button type="button" [mat-dialog-close]="false">Cancel</button>
-      <button mat-flat-button type="button" class="cw-danger" [mat-dialog-close]="true">
+      <button mat-button type="button" [mat-dialog-close]="false">
+        {{ data.cancelLabel ?? 'Cancel' }}
+      </button>
+      <button
+        mat-flat-button
+        type="button"
+        [class.cw-danger]="data.tone !== 'plain'"
+        [mat-dialog-close]="true"
+      >
         {{ data.confirmLabel }}
       </button>
     </mat-dialog-actions>

@@ -9,7 +9,9 @@ import {
   ConfirmDialogComponent,
   ConfirmDialogData,
 } from '../../core/dialogs/confirm-dialog.component';
+import { Ask } from '../../core/dialogs/ask';
 import { NameDialogComponent, NameDialogData } from '../../core/dialogs/name-dialog.component';
+import { variantNameQuestion } from './variant-name';
 import { blankChainDocument, catalogueEntries } from './blank-chain';
 import { NewChainChoice, NewChainDialogComponent } from './new-chain-dialog.component';
 
@@ -23,6 +25,7 @@ export class ChainActions {
   private readonly dialog = inject(MatDialog);
   private readonly snackBar = inject(MatSnackBar);
   private readonly router = inject(Router);
+  private readonly ask = inject(Ask);
 
   async createWithDialog(workspaceId: string): Promise<ChainDto | null> {
     const ref = this.dialog.open<NewChainDialogComponent, void, NewChainChoice>(
@@ -98,8 +101,7 @@ export class ChainActions {
 
   /** A named copy linked to its parent: listed under it and offered for comparison. */
   async saveAsVariant(chain: ChainSummaryDto): Promise<boolean> {
-    const answer = window.prompt('Name of the variant:', `${chain.name} (variant)`);
-    const name = answer?.trim().slice(0, 200);
+    const name = await this.ask.name(variantNameQuestion(chain.name));
     if (!name) return false;
     try {
       await firstValueFrom(this.api.duplicate(chain.id, { name, asVariant: true }));

@@ -6,6 +6,7 @@ import { firstValueFrom } from 'rxjs';
 import type { CommentDto } from '../../../../shared/schema/api';
 import type { StageInstance } from '../../../../shared/schema/chain';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
+import { Ask } from '../../core/dialogs/ask';
 import { CollabStore } from '../presence/collab.store';
 
 /**
@@ -145,6 +146,7 @@ import { CollabStore } from '../presence/collab.store';
 export class CommentsPanelComponent {
   private readonly api = inject(ColleaguesApi);
   private readonly collab = inject(CollabStore);
+  private readonly ask = inject(Ask);
 
   readonly chainId = input.required<string>();
   readonly stages = input.required<StageInstance[]>();
@@ -217,7 +219,12 @@ export class CommentsPanelComponent {
   }
 
   protected async remove(c: CommentDto): Promise<void> {
-    if (!window.confirm('Delete this comment?')) return;
+    const sure = await this.ask.confirm({
+      title: 'Delete comment',
+      message: 'Delete this comment for everyone on this chain? This cannot be undone.',
+      confirmLabel: 'Delete',
+    });
+    if (!sure) return;
     await firstValueFrom(this.api.deleteComment(this.chainId(), c.id));
     await this.collab.reloadComments();
   }

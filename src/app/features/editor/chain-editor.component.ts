@@ -7,7 +7,6 @@ import {
   effect,
   HostListener,
   inject,
-  Injector,
   input,
   signal,
   TemplateRef,
@@ -17,17 +16,15 @@ import {
 } from '@angular/core';
 import { MatBottomSheet, type MatBottomSheetRef } from '@angular/material/bottom-sheet';
 import { MatButtonModule } from '@angular/material/button';
-import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
-import { MatMenuModule } from '@angular/material/menu';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { Title } from '@angular/platform-browser';
-import { RouterLink } from '@angular/router';
 import { forkJoin, firstValueFrom } from 'rxjs';
 import type { StageTypeInfo } from '../../../../shared/engine/types';
-import type { ExportFormat, RevisionDto } from '../../../../shared/schema/api';
+import type { RevisionDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
+import { Ask } from '../../core/dialogs/ask';
 import { describeHttpError } from '../../core/http/error-message';
 import { ScreenSize } from '../../core/layout/screen-size';
 import { SkipLinks } from '../../core/layout/skip-links';
@@ -36,22 +33,19 @@ import { CommentsPanelComponent } from '../comments/comments-panel.component';
 import { compareQueryOf, familyOf } from '../compare/compare-entry';
 import { RevisionDiffComponent } from '../diff/revision-diff.component';
 import { CollabStore } from '../presence/collab.store';
-import { PresenceBarComponent } from '../presence/presence-bar.component';
 import { SavedNoticeComponent } from '../presence/saved-notice.component';
-import { ShareDialogComponent, type ShareDialogData } from '../share/share-dialog.component';
 import { CautionBannerComponent } from './cautions/caution-banner.component';
 import { documentForResults, hasTransmitMode, withModes } from './modes/mode-edits';
 import { ModeBarComponent } from './modes/mode-bar.component';
 import { TransmitPanelComponent } from './modes/transmit-panel.component';
 import { DesignPanelComponent } from './design/design-panel.component';
-import { saveAsVariant } from './design/save-variant';
+import { EditorHeaderComponent } from './header/editor-header.component';
 import { RevisionPanelComponent } from './history/revision-panel.component';
 import { GlyphComponent } from './icons/glyph.component';
 import type { LeaveAware } from './leave.guard';
 import { StagePaletteComponent } from './palette/stage-palette.component';
 import { ParamPanelComponent } from './params/param-panel.component';
 import { AnalysisResultsComponent } from './results/analysis-results.component';
-import { ChainExport } from './save/chain-export';
 import { ChainPersistence } from './save/chain-persistence';
 import { ChainSettingsComponent } from './settings/chain-settings.component';
 import { AnalysisApi } from './state/analysis-api';
@@ -89,9 +83,7 @@ const PANEL_CHOICES: { value: SidePanel; label: string }[] = [
     MatButtonModule,
     MatButtonToggleModule,
     MatIconModule,
-    MatMenuModule,
     MatProgressBarModule,
-    RouterLink,
     GlyphComponent,
     StagePaletteComponent,
     StageStripComponent,
@@ -103,10 +95,10 @@ const PANEL_CHOICES: { value: SidePanel; label: string }[] = [
     TransmitPanelComponent,
     AnalysisResultsComponent,
     DesignPanelComponent,
-    PresenceBarComponent,
     SavedNoticeComponent,
     CommentsPanelComponent,
     RevisionDiffComponent,
+    EditorHeaderComponent,
   ],
   providers: [EditorStore, AnalysisRunner, EditFeedback, ChainPersistence, CollabStore],
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -121,12 +113,10 @@ export default class ChainEditorComponent implements LeaveAware {
   protected readonly runner = inject(AnalysisRunner);
   protected readonly persistence = inject(ChainPersistence);
   protected readonly feedback = inject(EditFeedback);
-  protected readonly exporter = inject(ChainExport);
   private readonly chains = inject(ChainsApi);
   private readonly analysisApi = inject(AnalysisApi);
   private readonly title = inject(Title);
-  private readonly injector = inject(Injector);
-  private readonly dialog = inject(MatDialog);
+  private readonly ask = inject(Ask);
   protected readonly session = inject(SessionStore);
   protected readonly collab = inject(CollabStore);
   protected readonly screen = inject(ScreenSize);
@@ -146,7 +136,6 @@ export default class ChainEditorComponent implements LeaveAware {
   protected readonly loadError = signal<string | null>(null);
   protected readonly types = signal<StageTypeInfo[]>([]);
   protected readonly panel = signal<SidePanel>('stage');
-  protected readonly saveMessage = signal('');
   protected readonly draftOffer = signal<Draft | null>(null);
   protected readonly viewing = signal<RevisionDto | null>(null);
 
@@ -172,6 +161,17 @@ export default class ChainEditorComponent implements LeaveAware {
     documentForResults(this.shownDoc(), this.modeShown()),
   );
   protected readonly transmitMode = computed(() => hasTransmitMode(this.shownDoc()));
+  /**
+   * The chain as written is refused while it has modes: their paths together make a chain
+   * with two sources or two loads (a transceiver). Offer the modes rather than the refusal.
+   */
+  protected readonly asWrittenHasNoAnalysis = computed(
+    () =>
+      this.modeShown() === null &&
+      !this.viewing() &&
+      this.store.modes().length > 0 &&
+      (this.runner.refusal()?.issues ?? []).some((i) => i.path.at(-1) === 'type'),
+  );
   protected readonly stageLabels = computed(
     () => new Map(this.shownDoc().stages.map((s) => [s.id, s.label || s.type])),
   );
@@ -313,58 +313,6 @@ export default class ChainEditorComponent implements LeaveAware {
     });
   }
 
-  protected share(): void {
-    const chain = this.store.chain();
-    if (!chain) return;
-    this.dialog.open<ShareDialogComponent, ShareDialogData>(ShareDialogComponent, {
-      data: { chainId: chain.id, chainName: chain.name, canManageLinks: !this.store.readOnly() },
-      width: '560px',
-    });
-  }
-
-  protected onSaveMessage(event: Event): void {
-    this.saveMessage.set((event.target as HTMLInputElement).value);
-  }
-
-  protected async save(): Promise<void> {
-    if (await this.persistence.save(this.saveMessage())) this.saveMessage.set('');
-  }
-
-  /**
-   * Exports what is on screen: the edited chain with unsaved edits, or the revision viewed,
-   * in the mode shown (the chain as written is sent without its modes).
-   */
-  protected exportAs(format: ExportFormat, z0?: number): void {
-    const workspaceId = this.store.chain()?.workspaceId;
-    const mode = this.modeShown();
-    const doc = mode || format === 'json' ? this.shownDoc() : withModes(this.shownDoc(), []);
-    void this.exporter.download(doc, format, {
-      workspaceId,
-      ...(z0 === undefined ? {} : { z0 }),
-      ...(mode ? { mode: mode.id } : {}),
-    });
-  }
-
-  protected exportTouchstoneAtChosenReference(): void {
-    const answer = window.prompt('Reference resistance of both ports, in ohms:', '75');
-    if (answer === null) return;
-    const z0 = Number(answer.replace(/\s*(ohms?|Ω)\s*$/i, '').trim());
-    if (!(Number.isFinite(z0) && z0 > 0)) {
-      this.feedback.report({
-        ok: false,
-        reason: `"${answer}" is not a resistance; enter a number of ohms above 0, e.g. 75.`,
-      });
-      return;
-    }
-    this.exportAs('touchstone', z0);
-  }
-
-  /** A named, linked copy of what is on screen (unsaved edits included); opens it. */
-  protected async saveAsVariant(): Promise<void> {
-    const chain = this.store.chain();
-    if (chain) await saveAsVariant(this.injector, chain, this.doc());
-  }
-
   protected restoreDraft(): void {
     const draft = this.draftOffer();
     if (draft) this.store.replaceDocument(draft.document);
@@ -388,9 +336,17 @@ export default class ChainEditorComponent implements LeaveAware {
   }
 
   protected async restoreRevision(version: number): Promise<void> {
-    const unsaved = this.hasUnsavedEdits();
-    if (unsaved && !window.confirm('Restoring replaces your unsaved edits. Restore anyway?'))
-      return;
+    const sure =
+      !this.hasUnsavedEdits() ||
+      (await this.ask.confirm({
+        title: `Restore revision ${version}?`,
+        message:
+          'Restoring replaces your unsaved edits with this revision, saved as a new version. ' +
+          'The edits are not kept.',
+        confirmLabel: 'Restore',
+        cancelLabel: 'Keep my edits',
+      }));
+    if (!sure) return;
     if (await this.persistence.restore(version)) this.viewing.set(null);
   }
 

@@ -1,24 +1,47 @@
+import { TestBed } from '@angular/core/testing';
 import type { ActivatedRouteSnapshot, RouterStateSnapshot } from '@angular/router';
+import { Ask } from '../../core/dialogs/ask';
+import type { ConfirmDialogData } from '../../core/dialogs/confirm-dialog.component';
 import { editorLeaveGuard, type LeaveAware } from './leave.guard';
 
 describe('editorLeaveGuard', () => {
-  afterEach(() => jest.restoreAllMocks());
+  let answer: boolean;
+  let asked: ConfirmDialogData[];
+
+  beforeEach(() => {
+    asked = [];
+    answer = false;
+    TestBed.configureTestingModule({
+      providers: [
+        {
+          provide: Ask,
+          useValue: {
+            confirm: (data: ConfirmDialogData) => {
+              asked.push(data);
+              return Promise.resolve(answer);
+            },
+          },
+        },
+      ],
+    });
+  });
 
   it('should let the user leave without asking when nothing is unsaved', () => {
-    const ask = jest.spyOn(window, 'confirm');
     expect(run({ hasUnsavedEdits: () => false })).toBe(true);
-    expect(ask).not.toHaveBeenCalled();
+    expect(asked).toEqual([]);
   });
 
-  it('should ask when edits are unsaved and stay when the user says no', () => {
-    const ask = jest.spyOn(window, 'confirm').mockReturnValue(false);
-    expect(run({ hasUnsavedEdits: () => true })).toBe(false);
-    expect(ask).toHaveBeenCalledWith(expect.stringContaining('not saved'));
+  it('should ask in our dialog when edits are unsaved and stay when the user says no', async () => {
+    answer = false;
+    await expect(run({ hasUnsavedEdits: () => true })).resolves.toBe(false);
+    expect(asked).toHaveLength(1);
+    expect(asked[0].message).toContain('not saved');
+    expect(asked[0]).toMatchObject({ confirmLabel: 'Leave', cancelLabel: 'Stay' });
   });
 
-  it('should leave when the user confirms', () => {
-    jest.spyOn(window, 'confirm').mockReturnValue(true);
-    expect(run({ hasUnsavedEdits: () => true })).toBe(true);
+  it('should leave when the user confirms', async () => {
+    answer = true;
+    await expect(run({ hasUnsavedEdits: () => true })).resolves.toBe(true);
   });
 
   // Helpers
@@ -26,6 +49,6 @@ describe('editorLeaveGuard', () => {
   function run(page: LeaveAware): unknown {
     const route = {} as ActivatedRouteSnapshot;
     const state = {} as RouterStateSnapshot;
-    return editorLeaveGuard(page, route, state, state);
+    return TestBed.runInInjectionContext(() => editorLeaveGuard(page, route, state, state));
   }
 });

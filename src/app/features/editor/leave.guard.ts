@@ -1,4 +1,6 @@
+import { inject } from '@angular/core';
 import type { CanDeactivateFn } from '@angular/router';
+import { Ask } from '../../core/dialogs/ask';
 
 /** A page that may hold edits not yet saved. */
 export interface LeaveAware {
@@ -9,9 +11,17 @@ export interface LeaveAware {
 /**
  * Asks before leaving a chain with unsaved edits. The edits also sit in a local draft,
  * so even "leave" loses nothing on this browser; the question is about the server copy.
+ * (Closing the tab or reloading is asked by the browser itself, through `beforeunload`.)
  */
-export const editorLeaveGuard: CanDeactivateFn<LeaveAware> = (page) =>
-  !page?.hasUnsavedEdits() ||
-  window.confirm(
-    'This chain has edits that are not saved. Leave anyway? (A local draft is kept on this browser.)',
-  );
+export const editorLeaveGuard: CanDeactivateFn<LeaveAware> = (page) => {
+  if (!page?.hasUnsavedEdits()) return true;
+  return inject(Ask).confirm({
+    title: 'Leave without saving?',
+    message:
+      'This chain has edits that are not saved. A draft of them stays on this browser, ' +
+      'and the chain offers it when you open it again.',
+    confirmLabel: 'Leave',
+    cancelLabel: 'Stay',
+    tone: 'plain',
+  });
+};

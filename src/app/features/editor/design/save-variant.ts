@@ -5,6 +5,8 @@ import { firstValueFrom } from 'rxjs';
 import type { ChainDto } from '../../../../../shared/schema/api';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { ChainsApi } from '../../../core/api/chains.api';
+import { Ask } from '../../../core/dialogs/ask';
+import { variantNameQuestion } from '../../chains/variant-name';
 import { describeHttpError } from '../../../core/http/error-message';
 import { clearDrafts } from '../state/draft-store';
 import { EditorStore } from '../state/editor.store';
@@ -12,7 +14,7 @@ import { EditorStore } from '../state/editor.store';
 /**
  * Saves `document` as a named variant of `chain` (a linked copy the chain list shows under
  * its parent and the comparison offers) and opens it. Unsaved edits go with the variant;
- * the parent returns to its stored state. The name is asked for; cancelling
+ * the parent returns to its stored state. The name is asked for in a dialog; cancelling
  * saves nothing.
  */
 export async function saveAsVariant(
@@ -21,13 +23,8 @@ export async function saveAsVariant(
   document: ChainDocument,
 ): Promise<boolean> {
   const snackBar = injector.get(MatSnackBar);
-  const answer = window.prompt('Name of the variant:', `${document.name} (variant)`);
-  if (answer === null) return false;
-  const name = answer.trim().slice(0, 200);
-  if (!name) {
-    snackBar.open('A variant needs a name.', 'OK', { duration: 4000 });
-    return false;
-  }
+  const name = await injector.get(Ask).name(variantNameQuestion(document.name));
+  if (!name) return false;
   try {
     const variant = await firstValueFrom(
       injector.get(ChainsApi).duplicate(chain.id, { name, asVariant: true, document }),

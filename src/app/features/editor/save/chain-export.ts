@@ -7,7 +7,11 @@ import {
 import { DOCUMENT, inject, Injectable, signal } from '@angular/core';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { firstValueFrom } from 'rxjs';
-import type { ExportFormat, ExportRequest } from '../../../../../shared/schema/api';
+import type {
+  ExportFormat,
+  ExportRequest,
+  TouchstoneVersion,
+} from '../../../../../shared/schema/api';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { describeHttpError } from '../../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
@@ -59,12 +63,13 @@ export class ChainExport {
   async download(
     document: ChainDocument,
     format: ExportFormat,
-    options: { z0?: number; workspaceId?: string; mode?: string } = {},
+    options: { z0?: number; workspaceId?: string; mode?: string; version?: TouchstoneVersion } = {},
   ): Promise<string | null> {
     if (this.running()) return null;
     this.running.set(format);
     const body: ExportRequest = { document, format };
     if (options.z0 !== undefined) body.z0 = options.z0;
+    if (options.version !== undefined) body.version = options.version;
     // The workspace lets the server find the data files the stages refer to.
     if (options.workspaceId) body.workspaceId = options.workspaceId;
     // A mode's export: the chain as that mode makes it, the mode named in file and header.
