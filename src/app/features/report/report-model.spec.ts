@@ -6,6 +6,7 @@ import {
 } from '../editor/results/testing/sample-analysis';
 import { budgetParts, GENERAL_CAUTION, reportCautions, reportModel } from './report-model';
 import { budgetTable } from '../editor/results/budget-rows';
+import { decibels } from '../editor/results/format-quantity';
 
 const noTypes = new Map<string, StageTypeInfo>();
 
@@ -20,12 +21,13 @@ describe('report-model', () => {
       { ...sampleResult(), transmit: sampleTransmit() },
       noTypes,
     ).transmit!;
-    expect(tx.delivered).toBe('94.5 mW (19.8 dBm)');
+    // Numbers as the app's formatter writes them (its significant figures are a setting).
+    expect(tx.delivered).toBe(`94.5 mW (${decibels(19.75, 'dBm')})`);
     expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.verdict])).toEqual([
-      [2, '16.3 dB', '20.0 dB', 'over limit'],
-      [3, '30.9 dB', '20.0 dB', 'within limit'],
+      [2, decibels(16.3), decibels(20), 'over limit'],
+      [3, decibels(30.9), decibels(20), 'within limit'],
     ]);
-    expect(tx.receiver).toMatchObject({ isolation: '34.2 dB', verdict: 'no limit stated' });
+    expect(tx.receiver).toMatchObject({ isolation: decibels(34.2), verdict: 'no limit stated' });
     expect(tx.parts.map((p) => p.verdict)).toEqual(['no limit stated', 'over limit']);
     expect(tx.parts[1].rating).toBe('2 V peak');
   });

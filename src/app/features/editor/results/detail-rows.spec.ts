@@ -8,7 +8,7 @@ import {
   stageLabel,
   summaryItems,
 } from './detail-rows';
-import { NO_VALUE } from './format-quantity';
+import { decibels, NO_VALUE } from './format-quantity';
 import { sampleDocument, sampleResult, sampleTransmit } from './testing/sample-analysis';
 
 describe('detail-rows', () => {
@@ -146,9 +146,9 @@ describe('detail-rows', () => {
       expect(keys).not.toContain('sensitivity');
       const of = (key: string) => tx.find((i) => i.key === key);
       expect(of('tx-delivered')).toMatchObject({ label: 'Into the antenna', value: '94.5 mW' });
-      expect(of('tx-harmonic-2')?.note).toContain('over the 20.0 dB limit');
-      expect(of('tx-harmonic-3')?.note).toContain('within the 20.0 dB limit');
-      expect(of('tx-isolation')).toMatchObject({ value: '34.2 dB' });
+      expect(of('tx-harmonic-2')?.note).toContain(`over the ${decibels(20)} limit`);
+      expect(of('tx-harmonic-3')?.note).toContain(`within the ${decibels(20)} limit`);
+      expect(of('tx-isolation')).toMatchObject({ value: decibels(34.2) });
       expect(of('tx-isolation')?.note).toContain('no limit stated');
       expect(of('tx-parts')?.value).toBe('1 of 1');
     });
