@@ -20,16 +20,15 @@ import { settleLoadLevel } from '../core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from '../core/nodes';
 import { createProbe, type Probe } from '../core/probe';
 import { chainNoiseFigureDb, stageReports } from '../core/reports';
-import { attached, resonanceNear } from '../core/resonance-search';
 import type { ResonatorFinding } from '../core/resonators';
 import { analyzeSelectivity, findMixer, imageFrequency } from '../core/selectivity';
-import { shuntFigures } from '../core/shunt-tank';
 import { loopAt, seriesFigures, seriesSections } from '../core/found-series';
 import { frequencyGrid } from '../core/sweep';
 import { chainTopology } from '../core/topology';
 import { defaultCatalogue } from '../default-catalogue';
 import type { MeasuredNetwork, ResonatorDecl } from '../types';
 import { followCoupledTank } from './coupled-follow';
+import { followShunt, resonanceNearPredicted } from './shunt-follow';
 import { createJudgedSweep, judgedSelectivity, type JudgedSweep } from './judged-sweep';
 
 const finiteOrNull = (v: number | null | undefined): number | null =>
@@ -134,15 +133,12 @@ function followed(
     case 'none':
       return NOT_FOUND;
     case 'shunt': {
-      const scratch = new Float64Array(2);
-      const att = resonanceNear(probe, f.flat, f.fIn, f.sign, attached, scratch);
-      if (!att) return NOT_FOUND;
-      const fig = shuntFigures(built, topo, probe, f.flat, att, null);
-      return found(att.fIn, att.fr, fig.loadedQ, fig.loadingRatio);
+      const tank = followShunt(built, topo, probe, f.flat, f.fIn, f.sign);
+      return tank ? found(tank.fIn, tank.fr, tank.loadedQ, tank.loadingRatio) : NOT_FOUND;
     }
     case 'loop': {
       const scratch = new Float64Array(2);
-      const att = resonanceNear(probe, f.flat, f.fIn, f.sign, loopAt, scratch);
+      const att = resonanceNearPredicted(probe, f.flat, f.fIn, f.sign, loopAt, scratch);
       if (!att) return NOT_FOUND;
       const fig = seriesFigures(built, seriesSections(built), probe, null, f.flat, att);
       return found(att.fIn, att.fr, fig.loadedQ, fig.loadingRatio);
