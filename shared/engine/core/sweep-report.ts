@@ -58,8 +58,9 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
       const vr = v[2 * n * P + i];
       const vi = v[(2 * n + 1) * P + i];
       const e = emf[i];
-      // x − x is 0 exactly for finite x: the common case decided without a square root.
-      if (vr - vr === 0 && vi - vi === 0 && e - e === 0 && e !== 0) continue;
+      // x·0 is 0 exactly for finite x (NaN otherwise): the common case decided in one test,
+      // without a square root.
+      if (vr * 0 + vi * 0 + e * 0 === 0 && e !== 0) continue;
       if (Number.isNaN(hypot(vr, vi) / abs(e))) lost++;
     }
     return P === 0 ? 0 : lost / P;
@@ -110,18 +111,25 @@ export function lazySweepReport(
   const flats = built.userNodeFlat;
   // The copy: per user node the voltage (re, im), then the EMF, then Zin and Zsrc at node 0.
   const U = flats.length;
-  const v = new Float64Array(2 * U * P);
+  // One buffer for the whole copy (one allocation): the voltages, then six single traces.
+  const all = new Float64Array((2 * U + 6) * P);
+  const v = all.subarray(0, 2 * U * P);
   for (let n = 0; n < U; n++) {
     const k = flats[n] * P;
     v.set(na.vRe.subarray(k, k + P), 2 * n * P);
     v.set(na.vIm.subarray(k, k + P), (2 * n + 1) * P);
   }
-  const emf = na.emf.slice(0, P);
-  const freqs = na.freqs.slice(0, P);
-  const zinRe = na.zinRe.slice(0, P);
-  const zinIm = na.zinIm.slice(0, P);
-  const zsrcRe = na.zsrcRe.slice(0, P);
-  const zsrcIm = na.zsrcIm.slice(0, P);
+  const trace = (from: Float64Array, slot: number) => {
+    const t = all.subarray((2 * U + slot) * P, (2 * U + slot + 1) * P);
+    t.set(from.subarray(0, P));
+    return t;
+  };
+  const emf = trace(na.emf, 0);
+  const freqs = trace(na.freqs, 1);
+  const zinRe = trace(na.zinRe, 2);
+  const zinIm = trace(na.zinIm, 3);
+  const zsrcRe = trace(na.zsrcRe, 4);
+  const zsrcIm = trace(na.zsrcIm, 5);
 
   const nodes = Array.from(flats, (_, index) => {
     const re = 2 * index * P;
