@@ -67,14 +67,14 @@ export async function settled(page: Page): Promise<void> {
   );
 }
 
-/** A parameter input of the values panel. */
-export function param(page: Page, key: string): Locator {
-  return page.locator(`cw-param-panel input[data-param="${key}"]`);
+/** A parameter input of the values panel (or of another form, such as `cw-chain-settings`). */
+export function param(page: Page, key: string, form = 'cw-param-panel'): Locator {
+  return page.locator(`${form} input[data-param="${key}"]`);
 }
 
 /** The quantity field around a parameter input (its echo and its error). */
-export function fieldOf(page: Page, key: string): Locator {
-  return param(page, key).locator('xpath=ancestor::cw-quantity-field[1]');
+export function fieldOf(page: Page, key: string, form = 'cw-param-panel'): Locator {
+  return param(page, key, form).locator('xpath=ancestor::cw-quantity-field[1]');
 }
 
 /** Types into a parameter field and waits for the value read back beside it (null: an error). */
@@ -83,8 +83,9 @@ export async function typeParam(
   key: string,
   text: string,
   readBack: string | null,
+  form = 'cw-param-panel',
 ): Promise<void> {
-  await param(page, key).fill(text);
+  await param(page, key, form).fill(text);
   if (readBack === null) return;
-  await expectText(fieldOf(page, key).locator('output'), readBack);
+  await expectText(fieldOf(page, key, form).locator('output'), readBack);
 }
