@@ -62,6 +62,9 @@ run_step "Format (prettier --check .)" npx prettier --check . --log-level warn
 run_step "Lint (eslint .)" npx eslint . --max-warnings 0
 run_step "Type-check server, shared, scripts, tests" npx tsc --noEmit -p tsconfig.server.json
 run_step "Type-check client" npx tsc --noEmit -p tsconfig.app.json
+# The client's specs: jest transpiles them without types (tsconfig.spec.json), so their types
+# are checked here, resolved as the app resolves them.
+run_step "Type-check client tests" npx tsc --noEmit -p tsconfig.spec-check.json
 # --forceExit: on a 2-core machine jest runs the files in its own process, and a handle some
 # library leaves open after the last file (not yet traced) kept it from exiting.
 JEST_RESULTS=.data/jest-results.json

@@ -268,6 +268,10 @@ function result(f0Hz: number): AnalysisResult {
       iip3Dbm: null,
       sfdrDb: null,
       inputAvailableDbm: -100,
+      // NF 3 dB at 290 K: T = 290 (10^0.3 − 1) ≈ 289 K (IEEE noise-temperature definition).
+      noiseTemperatureK: 289,
+      sourceNoiseTemperatureK: 290,
+      systemNoiseTemperatureK: 579,
     },
     flags: [],
   };

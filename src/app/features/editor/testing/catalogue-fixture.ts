@@ -128,6 +128,7 @@ export function sampleDocument(): ChainDocument {
         compressionBackoffDb: 3,
         matchReturnLossDb: 15,
         detuneFraction: 0.5,
+        noiseMismatchVswr: 2,
         qBudgetLossDb: 1,
       },
     },
