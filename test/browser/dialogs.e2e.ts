@@ -155,5 +155,28 @@ describe('our own dialogs, Touchstone 2.0 and the transmit summary', () => {
     await choose.getByRole('button', { name: 'Receive' }).click();
     await headlineWith(page, 'Noise figure');
     await choose.waitFor({ state: 'detached' });
+
+    // Its read-only link, signed out: stage types and values by name and unit, not by key.
+    const chainId = page.url().split('/').pop()!;
+    const csrf = (await (await page.request.get('/api/auth/csrf')).json()) as { token: string };
+    const made = await page.request.post(`/api/chains/${chainId}/share-links`, {
+      data: {},
+      headers: { 'x-csrf-token': csrf.token },
+    });
+    expect(made.status()).toBe(201);
+    const visitor = await openPage(browser);
+    try {
+      await visitor.page.goto(new URL(((await made.json()) as { url: string }).url).pathname);
+      const stages = visitor.page.getByRole('list', { name: 'Stages from source to load' });
+      await stages.locator('.values').first().waitFor();
+      const types = await stages.locator('.type').allTextContents();
+      for (const t of types) expect(t.trim()).not.toMatch(/^[a-z]+(-[a-z0-9]+)+$/);
+      const values = await stages.locator('.values').allTextContents();
+      for (const v of values) expect(v.trim()).toMatch(/^[A-Z]/);
+      await shot(visitor.page, 'dialogs-06-shared-labels');
+      expect(visitor.problems).toEqual([]);
+    } finally {
+      await visitor.context.close();
+    }
   });
 });
