@@ -79,12 +79,15 @@ const ENV_WORDS: Record<PlanningSettings['environment'], string> = {
   none: 'with no man-made noise counted',
 };
 
+/** The planning inputs of a chain that states none: the schema's defaults, worked out once. */
+const NO_PLANNING: PlanningSettings = planningSchema.parse({});
+
 /**
  * The plan of a built chain. The spur chart across the tuning range and the IF choice cost
  * many more evaluations than the rest: they are worked out only when `full` is set.
  */
 export function planChain(built: BuiltChain, ctx: PlanContext, full = false): PlanReport {
-  const s = planningSchema.parse(built.settings.planning ?? {});
+  const s = built.settings.planning ?? NO_PLANNING;
   const { f0Hz, channelBandwidthHz, temperatureK, thresholds, sweep } = built.settings;
   const mixer = findMixer(built);
   const last = ctx.selectivity[ctx.selectivity.length - 1];

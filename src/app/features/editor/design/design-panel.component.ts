@@ -10,7 +10,7 @@ import type {
   TuneResult,
 } from '../../../../../shared/engine/design';
 import type { UnitKind } from '../../../../../shared/engine/types';
-import type { ChainDocument, StageInstance } from '../../../../../shared/schema/chain';
+import type { StageInstance } from '../../../../../shared/schema/chain';
 import { parseQuantity } from '../../../../../shared/units';
 import { describeHttpError } from '../../../core/http/error-message';
 import { AnalysisRunner } from '../state/analysis-runner';
@@ -277,7 +277,7 @@ export class DesignPanelComponent {
   protected applySnap(): void {
     const s = this.snapped();
     if (!s) return;
-    this.store.replaceDocument(s.document as unknown as ChainDocument);
+    this.store.replaceDocument(s.document);
     this.snapped.set(null);
   }
 }
