@@ -16,7 +16,8 @@ export const NEW_PASSWORD_HINT = 'At least 10 characters; a few unusual words ma
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <mat-form-field>
+    <!-- A hint may wrap to two lines: let the space under the field grow with it. -->
+    <mat-form-field [subscriptSizing]="hint() ? 'dynamic' : 'fixed'">
       <mat-label>{{ label() }}</mat-label>
       <input
         matInput
