@@ -73,6 +73,9 @@ describe('every screen at three widths', () => {
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
 
     // Chain list: more than names (f0 and stage count), actions in a menu, author once.
+    // Filtered by name: the list shows a page at a time, and earlier tests add chains.
+    const filter = page.getByLabel('Filter by name or description');
+    await filter.fill('Long-wave time signal');
     const row = page.getByRole('row', { name: new RegExp(escape(LOADING_DEMO)) });
     await row.waitFor();
     const rowText = await row.innerText();
@@ -92,6 +95,7 @@ describe('every screen at three widths', () => {
       // Not exact: a variant's link starts with an arrow under its parent.
       .getByRole('link', { name: LIGHT_LOAD })
       .getAttribute('href');
+    await filter.fill(DESIGNED_MATCH);
     const matchHref = await page
       .getByRole('link', { name: DESIGNED_MATCH, exact: true })
       .getAttribute('href');
