@@ -15,6 +15,7 @@ import { formatEngineering } from '../../shared/units/format';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
 import { api, savedAnalysis } from './helpers/api';
 import { describeAxe, seriousAxeViolations } from './helpers/axe';
+import { openChainNamed } from './helpers/chains';
 import { flat, pdfPageSize, pdfText, printPdf, reportReady } from './helpers/pdf';
 
 const CHAIN = 'Long-wave time signal, ferrite loop into a diode detector';
@@ -41,8 +42,7 @@ describe('printable report', () => {
     const { page, context } = watched;
     await signIn(page, DEMO.editor, DEMO.password);
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
-    await page.getByRole('link', { name: CHAIN }).first().click();
-    await page.waitForURL(/\/chains\/[^/]+$/);
+    await openChainNamed(page, CHAIN);
     const chainId = page.url().split('/').pop()!;
 
     // The analysis the report must show, asked of the API on its own.
@@ -117,6 +117,7 @@ describe('printable report', () => {
     const { page } = watched;
     await page.goto('/');
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
+    await page.getByLabel('Filter by name or description').fill(TRANSCEIVER);
     const href = await page.getByRole('link', { name: TRANSCEIVER }).first().getAttribute('href');
     await page.goto(`${href}/report?mode=transmit`);
     await reportReady(page);
