@@ -65,6 +65,8 @@ run_step "Type-check client" npx tsc --noEmit -p tsconfig.app.json
 # The client's specs: jest transpiles them without types (tsconfig.spec.json), so their types
 # are checked here, resolved as the app resolves them.
 run_step "Type-check client tests" npx tsc --noEmit -p tsconfig.spec-check.json
+# The browser tests run callbacks inside the page, so they are checked with the DOM types.
+run_step "Type-check browser tests" npx tsc --noEmit -p tsconfig.browser-check.json
 # --forceExit: on a 2-core machine jest runs the files in its own process, and a handle some
 # library leaves open after the last file (not yet traced) kept it from exiting.
 JEST_RESULTS=.data/jest-results.json
