@@ -156,7 +156,10 @@ export function startAnalysisPool(): void {
 export async function stopAnalysisPool(): Promise<void> {
   const old = pool;
   pool = null;
+  const ending = [...retired].map((p) => p.destroy());
+  retired.clear();
   if (old) await old.destroy();
+  await Promise.allSettled(ending);
 }
 
 /** Throws AnalysisTooLargeError when `doc` is over the stages × points budget. */
@@ -182,6 +185,7 @@ export async function runOnPool(task: AnalysisTask): Promise<AnalysisOutcome> {
   const timeout = AbortSignal.timeout(timeoutMs);
   const running = thePool();
   inFlight++;
+  heldBy.set(running, (heldBy.get(running) ?? 0) + 1);
   try {
     return await running.run(task, { signal: timeout });
   } catch (err) {
@@ -199,18 +203,36 @@ export async function runOnPool(task: AnalysisTask): Promise<AnalysisOutcome> {
     throw err;
   } finally {
     inFlight--;
+    const left = (heldBy.get(running) ?? 1) - 1;
+    if (left > 0) heldBy.set(running, left);
+    else heldBy.delete(running);
+    if (left <= 0 && retired.has(running)) end(running);
   }
 }
+
+type Pool = Piscina<AnalysisTask, AnalysisOutcome>;
+/** Analyses each pool holds (queued or running). */
+const heldBy = new Map<Pool, number>();
+/** Pools replaced after a timeout, ended once the analyses they hold are done. */
+const retired = new Set<Pool>();
 
 /**
  * After a timeout piscina has terminated the thread, but the pool may not start a new one
  * for the next task: a new pool takes the next analyses, the old one finishes the analyses
- * it holds and ends.
+ * it holds and is then ended. Not with `close()` while it holds any: piscina 5's close
+ * forbids new threads, and a thread finishing a task while others wait (one thread short of
+ * the maximum, the timed-out one) then spins the event loop forever trying to add one.
  */
-function retire(old: Piscina<AnalysisTask, AnalysisOutcome>): void {
+function retire(old: Pool): void {
   if (pool !== old) return;
   pool = null;
-  old.close().catch((err: unknown) => console.error('[server] closing an analysis pool:', err));
+  retired.add(old);
+  if (!heldBy.has(old)) end(old);
+}
+
+function end(old: Pool): void {
+  retired.delete(old);
+  old.destroy().catch((err: unknown) => console.error('[server] ending an analysis pool:', err));
 }
 
 let inFlight = 0;

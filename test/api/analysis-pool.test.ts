@@ -104,6 +104,34 @@ describe('the time budget', () => {
   });
 });
 
+describe('a timeout while other analyses wait for a thread', () => {
+  it('should answer every analysis (200 or 503) and keep the event loop free after it', async () => {
+    await configureAnalysis({ threads: 2, timeoutMs: 60_000 });
+    await Promise.all([analyse(chainOf(0, 201)), analyse(chainOf(0, 201))]);
+    expect(analysisThreadIds()).toHaveLength(2);
+    // One analysis far over a short budget, one long within it, and more queued behind them
+    // with later deadlines: the first times out and its thread is replaced while the others
+    // still wait on the old pool. (The retired pool's end is what this exercises; the event
+    // loop spin that closing it early could cause depends on the order threads finish in.)
+    await configureAnalysis({ threads: 2, timeoutMs: 4_000 }, { keepPool: true });
+    // (A supertest request starts when it is awaited or given a callback: `then` starts it.)
+    const start = (doc: ChainDocumentInput) => analyse(doc).then((res) => res);
+    const doomed = start(chainOf(7, 100_000));
+    const long = start(chainOf(0, 20_001));
+    while (analysesInFlight() < 2) await new Promise((resolve) => setImmediate(resolve));
+    await new Promise((resolve) => setTimeout(resolve, 1_000));
+    const queued = Array.from({ length: 6 }, () => start(chainOf(0, 2_001)));
+    const answers = await Promise.all([doomed, long, ...queued]);
+    expect(answers[0].status).toBe(503);
+    for (const res of answers) expect([200, 503]).toContain(res.status);
+    // The event loop is free: health answers, and a new analysis runs to the end.
+    await configureAnalysis({ threads: 2, timeoutMs: 120_000 }, { keepPool: true });
+    expect((await send(editor, 'get', '/api/health')).status).toBe(200);
+    expect((await analyse(chainOf(0, 201))).status).toBe(200);
+    expect(analysesInFlight()).toBe(0);
+  }, 120_000);
+});
+
 describe('the event loop during a maximum-size analysis', () => {
   it('should answer /api/health while the largest analysis the budget allows runs', async () => {
     await configureAnalysis({ threads: 1, timeoutMs: 120_000 });
