@@ -1,4 +1,4 @@
 export { parseQuantity, type ParseResult } from './parse';
-export { formatEngineering } from './format';
+export { formatEngineering, significantText } from './format';
 export { checkRange } from './range';
 export { UNIT_KINDS, type UnitKindInfo } from './kinds';

@@ -66,7 +66,7 @@ describe('compareRows', () => {
     expect(image.better).toBe('higher');
     expect(image.hint).toBe('higher is better');
     expect(image.cells.map((c) => c.best)).toEqual([false, true]);
-    expect(image.cells.map((c) => c.text)).toEqual(['14.2 dB', '32.5 dB']);
+    expect(image.cells.map((c) => c.text)).toEqual(['14.20 dB', '32.50 dB']);
     const nf = row(rows, 'nf');
     expect(nf.better).toBe('lower');
     expect(nf.cells.map((c) => c.best)).toEqual([true, false]);

@@ -92,8 +92,8 @@ describe('CompareComponent', () => {
     expect(heads).toEqual(['One tank', 'Pair']);
     const cells = [...el.querySelectorAll('tr[data-row="image"] td')];
     expect(cells.map((c) => c.textContent!.replace(/\s+/g, ' ').trim())).toEqual([
-      '14.2 dB',
-      '32.5 dB best',
+      '14.20 dB',
+      '32.50 dB best',
     ]);
     expect(cells.map((c) => c.classList.contains('best'))).toEqual([false, true]);
     expect(el.querySelector('tr[data-row="image"] th')!.textContent).toContain('higher is better');

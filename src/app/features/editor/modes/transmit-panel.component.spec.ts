@@ -26,10 +26,10 @@ describe('TransmitPanelComponent', () => {
   it('should show the power, each harmonic against its limit and each part named once', async () => {
     const el = await render({ ...sampleResult(), transmit: transmit() });
     const text = (sel: string) => el.querySelector(sel)!.textContent!.replace(/\s+/g, ' ').trim();
-    expect(text('[data-key="delivered"] dd')).toContain('94.5 mW');
+    expect(text('[data-key="delivered"] dd')).toContain('94.50 mW');
     expect(text('tr[data-harmonic="2"]')).toContain('over limit');
     expect(text('tr[data-harmonic="3"]')).toContain('within limit');
-    expect(text('[data-key="receiver-input"] dd')).toContain('isolation 34.2 dB');
+    expect(text('[data-key="receiver-input"] dd')).toContain('isolation 34.20 dB');
     const parts = [...el.querySelectorAll('tr[data-stage-id] th')].map((th) =>
       th.textContent!.trim(),
     );

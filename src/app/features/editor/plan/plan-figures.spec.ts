@@ -67,7 +67,7 @@ describe('plan figures', () => {
     expect(y.type).toBe('log');
     expect(y.ticktext.every((t) => / MHz$/.test(t))).toBe(true);
     const hover = (figure.data[1] as { customdata: string[][] }).customdata;
-    expect(hover[0]).toEqual(['6 MHz', '6.91 MHz', '41.23 dB']);
+    expect(hover[0]).toEqual(['6.000 MHz', '6.910 MHz', '41.23 dB']);
     expect(hover[2][2]).toBe('—');
     applySignificantFigures(3);
     try {

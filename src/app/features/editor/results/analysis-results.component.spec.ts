@@ -40,7 +40,7 @@ describe('AnalysisResultsComponent', () => {
   describe('headline', () => {
     it('should show noise figure, gain, sensitivity and dynamic range above the tabs', () => {
       const values = all('.headline-value').map((e) => e.textContent?.trim());
-      expect(values).toEqual(['3.31 dB', '22.2 dB', '-120.7 dBm', '83.1 dB']);
+      expect(values).toEqual(['3.310 dB', '22.20 dB', '-120.7 dBm', '83.10 dB']);
     });
 
     it('should count the flags by severity and open the flags on click', async () => {
@@ -94,8 +94,8 @@ describe('AnalysisResultsComponent', () => {
 
     it('should show impedance, voltage and stage figures in the node columns', () => {
       const cells = rowCells('Z looking in');
-      expect(cells[1]).toBe('2.4 kΩ + j150 Ω');
-      expect(rowCells('Node voltage')[1]).toBe('10 µV rms');
+      expect(cells[1]).toBe('2.400 kΩ + j150.0 Ω');
+      expect(rowCells('Node voltage')[1]).toBe('10.00 µV rms');
       expect(rowCells('Cumulative noise figure')[0]).toBe('—');
     });
 
@@ -159,7 +159,7 @@ describe('AnalysisResultsComponent', () => {
     it('should give the selectivity a column per stated offset', async () => {
       await fixture.whenStable();
       const headers = all('th').map((e) => e.textContent ?? '');
-      expect(headers.some((h) => h.includes('±100 kHz'))).toBe(true);
+      expect(headers.some((h) => h.includes('±100.0 kHz'))).toBe(true);
       expect(headers.some((h) => h.includes('Image rejection'))).toBe(true);
     });
   });
@@ -273,7 +273,7 @@ describe('AnalysisResultsComponent', () => {
       await fixture.whenStable();
       const figures = text('cw-summary-panel');
       expect(figures).toContain('-120.7 dBm');
-      expect(figures).toContain('410 nV rms');
+      expect(figures).toContain('410.0 nV rms');
     });
   });
 

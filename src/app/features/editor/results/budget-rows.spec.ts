@@ -79,49 +79,55 @@ describe('budget-rows', () => {
     });
 
     it('should show impedances in both rectangular and polar form', () => {
-      expect(row('zin-rect').cells[1]).toBe('2.4 kΩ + j150 Ω');
-      expect(row('zin-polar').cells[0]).toBe('48.3 Ω ∠-3.68°');
-      expect(row('zsrc-rect').cells[1]).toBe('2.15 kΩ - j80 Ω');
+      expect(row('zin-rect').cells[1]).toBe('2.400 kΩ + j150.0 Ω');
+      expect(row('zin-polar').cells[0]).toBe('48.30 Ω ∠-3.680°');
+      expect(row('zsrc-rect').cells[1]).toBe('2.150 kΩ - j80.00 Ω');
     });
 
     it('should show node voltages as rms and as the peak phasor', () => {
-      expect(row('v-rms').cells[1]).toBe('10 µV rms');
-      expect(row('v-peak').cells[1]).toBe('14.1 µV pk ∠0°');
+      expect(row('v-rms').cells[1]).toBe('10.00 µV rms');
+      expect(row('v-peak').cells[1]).toBe('14.10 µV pk ∠0.000°');
     });
 
     it('should show step-up as a multiplier and in dB', () => {
-      expect(row('stepup').cells[1]).toBe('×7.05  (16.97 dB)');
+      expect(row('stepup').cells[1]).toBe('×7.050  (16.97 dB)');
     });
 
     it('should leave stage quantities empty at the source node', () => {
       expect(row('gain-stage-v').cells[0]).toBe(NO_VALUE);
       expect(row('nf-cum').cells[0]).toBe(NO_VALUE);
-      expect(row('nf-cum').cells[3]).toBe('3.3 dB');
+      expect(row('nf-cum').cells[3]).toBe('3.300 dB');
     });
 
     it('should show a missing intercept as a dash, not as zero', () => {
       expect(row('iip3-stage').cells[1]).toBe(NO_VALUE);
-      expect(row('iip3-stage').cells[2]).toBe('5 dBm');
-      expect(row('p1db-stage').cells[2]).toBe('-5 dBm');
-      expect(row('p1db-cum').cells[2]).toBe('-4.2 dBm');
+      expect(row('iip3-stage').cells[2]).toBe('5.000 dBm');
+      expect(row('p1db-stage').cells[2]).toBe('-5.000 dBm');
+      expect(row('p1db-cum').cells[2]).toBe('-4.200 dBm');
     });
 
     it('should show noise temperatures beside the noise figures', () => {
       expect(row('te-stage').cells[0]).toBe(NO_VALUE);
-      expect(row('te-out').cells[1]).toBe('290 K');
+      expect(row('te-out').cells[1]).toBe('290.0 K');
     });
 
     it('should give VSWR and return loss only against a chosen reference', () => {
-      expect(row('vswr').cells[0]).toBe('1.02 : 1');
-      expect(row('return-loss').cells[0]).toBe('40 dB re 50 Ω');
+      expect(row('vswr').cells[0]).toBe('1.020 : 1');
+      expect(row('return-loss').cells[0]).toBe('40.00 dB re 50.00 Ω');
       expect(row('vswr').cells[4]).toBe('no reference set');
       expect(row('return-loss').cells[4]).toBe('no reference set');
       expect(row('level-reference').cells[4]).toBe('no reference set');
-      expect(row('level-volts').cells[2]).toBe('1 mV rms');
+      expect(row('level-volts').cells[2]).toBe('1.000 mV rms');
     });
 
     it('should show the frequency at each node', () => {
-      expect(row('frequency').cells).toEqual(['10 MHz', '10 MHz', '10 MHz', '455 kHz', '455 kHz']);
+      expect(row('frequency').cells).toEqual([
+        '10.00 MHz',
+        '10.00 MHz',
+        '10.00 MHz',
+        '455.0 kHz',
+        '455.0 kHz',
+      ]);
     });
   });
 });

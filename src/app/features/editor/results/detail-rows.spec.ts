@@ -52,13 +52,13 @@ describe('detail-rows', () => {
       expect(rows[0]).toMatchObject({
         stage: 'Preselector',
         resonance: '10.02 MHz',
-        loadedQ: '25',
-        unloadedQ: '180',
+        loadedQ: '25.00',
+        unloadedQ: '180.0',
         bandwidth: '400.8 kHz',
-        detachedQ: '90',
+        detachedQ: '90.00',
         detachedBandwidth: '111.3 kHz',
-        loadingRatio: '0.28',
-        downstreamShare: '72 %',
+        loadingRatio: '0.2800',
+        downstreamShare: '72.00 %',
         loading: 'warning',
       });
     });
@@ -74,7 +74,7 @@ describe('detail-rows', () => {
       expect(rows[0].pairPeak).toBe('');
       const pair = sampleResult();
       pair.resonators[0] = { ...pair.resonators[0], pairPeakHz: 9.87e6 };
-      expect(resonatorRows(pair, document)[0].pairPeak).toBe('9.87 MHz');
+      expect(resonatorRows(pair, document)[0].pairPeak).toBe('9.870 MHz');
     });
 
     it('should say when there is no resonance in the sweep', () => {
@@ -91,11 +91,11 @@ describe('detail-rows', () => {
       expect(rows[1]).toMatchObject({
         node: 4,
         after: 'IF filter',
-        bw3: '9 kHz',
-        bw60: '40 kHz',
-        shapeFactor: '4.44',
+        bw3: '9.000 kHz',
+        bw60: '40.00 kHz',
+        shapeFactor: '4.440',
         image: '10.91 MHz',
-        imageRejection: '24.5 dB',
+        imageRejection: '24.50 dB',
       });
     });
 
@@ -111,8 +111,8 @@ describe('detail-rows', () => {
     });
 
     it('should show the attenuation on both sides of each offset', () => {
-      expect(offsetHeadings(document)).toEqual(['±100 kHz']);
-      expect(rows[1].offsets).toEqual(['62.1 dB / 63 dB']);
+      expect(offsetHeadings(document)).toEqual(['±100.0 kHz']);
+      expect(rows[1].offsets).toEqual(['62.10 dB / 63.00 dB']);
     });
   });
 
@@ -121,13 +121,16 @@ describe('detail-rows', () => {
     const item = (key: string) => items.find((i) => i.key === key);
 
     it('should give the sensitivity as source EMF in rms with the peak beside it', () => {
-      expect(item('sensitivity-emf')).toMatchObject({ value: '410 nV rms', note: '579.8 nV peak' });
+      expect(item('sensitivity-emf')).toMatchObject({
+        value: '410.0 nV rms',
+        note: '579.8 nV peak',
+      });
     });
 
     it('should state the channel the noise floor is measured in', () => {
       expect(item('noise-floor')).toMatchObject({
-        value: '-134 dBm',
-        note: 'in a 10 kHz channel at 290 K',
+        value: '-134.0 dBm',
+        note: 'in a 10.00 kHz channel at 290.0 K',
       });
     });
 

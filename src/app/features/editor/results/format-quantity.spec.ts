@@ -21,15 +21,15 @@ describe('format-quantity', () => {
     });
 
     it('should pick the prefix for the value', () => {
-      expect(engineering(10e6, 'hertz')).toBe('10 MHz');
-      expect(engineering(455e3, 'hertz', 4)).toBe('455 kHz');
-      expect(engineering(10e-6, 'volt')).toBe('10 µV');
-      expect(engineering(2400, 'ohm')).toBe('2.4 kΩ');
+      expect(engineering(10e6, 'hertz')).toBe('10.00 MHz');
+      expect(engineering(455e3, 'hertz', 4)).toBe('455.0 kHz');
+      expect(engineering(10e-6, 'volt')).toBe('10.00 µV');
+      expect(engineering(2400, 'ohm')).toBe('2.400 kΩ');
     });
 
     it("should write the user's number of significant figures, 4 unless chosen", () => {
       expect(engineering(54_551.2, 'hertz')).toBe('54.55 kHz');
-      expect(engineering(28_700.4, 'hertz')).toBe('28.7 kHz');
+      expect(engineering(28_700.4, 'hertz')).toBe('28.70 kHz');
       applySignificantFigures(3);
       try {
         expect(engineering(54_551.2, 'hertz')).toBe('54.6 kHz');
@@ -54,18 +54,18 @@ describe('format-quantity', () => {
       expect(decibels(-3.01234)).toBe('-3.012 dB');
       expect(decibels(-120.66, 'dBm')).toBe('-120.7 dBm');
       expect(decibels(-0.01234)).toBe('-0.012 dB');
-      expect(decibels(-3)).toBe('-3 dB');
+      expect(decibels(-3)).toBe('-3.000 dB');
       applySignificantFigures(6);
       try {
         expect(decibels(-3.01234)).toBe('-3.01234 dB');
-        expect(decibels(-120.66, 'dBm')).toBe('-120.66 dBm');
+        expect(decibels(-120.66, 'dBm')).toBe('-120.660 dBm');
       } finally {
         applySignificantFigures(4);
       }
     });
 
     it('should not print a negative zero', () => {
-      expect(decibels(-0.0001)).toBe('0 dB');
+      expect(decibels(-0.0001)).toBe('0.000 dB');
     });
 
     it('should show infinities and missing values', () => {
@@ -76,24 +76,24 @@ describe('format-quantity', () => {
 
   describe('ratios', () => {
     it('should show step-up as a multiplier without milli prefixes', () => {
-      expect(times(7.05)).toBe('×7.05');
-      expect(times(0.05)).toBe('×0.05');
-      expect(times(7.04961)).toBe('×7.05');
+      expect(times(7.05)).toBe('×7.050');
+      expect(times(0.05)).toBe('×0.05000');
+      expect(times(7.04961)).toBe('×7.050');
       expect(times(7.04661)).toBe('×7.047');
       expect(times(1410.4)).toBe('×1410');
-      expect(times(2.5e7)).toBe('×2.5e7');
+      expect(times(2.5e7)).toBe('×2.500e7');
     });
 
     it("should show plain numbers and percentages to the user's figures", () => {
       expect(plain(25.04)).toBe('25.04');
       expect(plain(25.0449)).toBe('25.04');
-      expect(plain(1e12)).toBe('1e12');
+      expect(plain(1e12)).toBe('1.000e12');
       expect(plain(null)).toBe(NO_VALUE);
-      expect(percent(0.72)).toBe('72 %');
+      expect(percent(0.72)).toBe('72.00 %');
       expect(percent(0.123456)).toBe('12.35 %');
       applySignificantFigures(3);
       try {
-        expect(plain(25.0449)).toBe('25');
+        expect(plain(25.0449)).toBe('25.0');
         expect(percent(0.123456)).toBe('12.3 %');
       } finally {
         applySignificantFigures(4);
@@ -101,7 +101,7 @@ describe('format-quantity', () => {
     });
 
     it('should never print a negative zero or lose an infinity', () => {
-      expect(figures(-0.00001, 2, true)).toBe('0');
+      expect(figures(-0.00001, 2, true)).toBe('0.0');
       expect(figures(Number.POSITIVE_INFINITY)).toBe('∞');
       expect(figures(Number.NEGATIVE_INFINITY)).toBe('-∞');
     });
@@ -109,7 +109,7 @@ describe('format-quantity', () => {
 
   describe('degrees', () => {
     it('should not print a negative zero angle', () => {
-      expect(degrees(-0.0001)).toBe('0°');
+      expect(degrees(-0.0001)).toBe('0.000°');
       expect(degrees(-28.46)).toBe('-28.46°');
       expect(degrees(-28.46, 3)).toBe('-28.5°');
     });
@@ -117,19 +117,19 @@ describe('format-quantity', () => {
 
   describe('impedance', () => {
     it('should write the rectangular form with the sign of the reactance', () => {
-      expect(impedanceRect({ re: 50, im: 12 })).toBe('50 Ω + j12 Ω');
-      expect(impedanceRect({ re: 2150, im: -80 })).toBe('2.15 kΩ - j80 Ω');
+      expect(impedanceRect({ re: 50, im: 12 })).toBe('50.00 Ω + j12.00 Ω');
+      expect(impedanceRect({ re: 2150, im: -80 })).toBe('2.150 kΩ - j80.00 Ω');
     });
 
     it('should write the polar form with magnitude and angle', () => {
-      expect(impedancePolar({ re: 3, im: 4 })).toBe('5 Ω ∠53.13°');
-      expect(impedancePolar({ re: 0, im: -100 })).toBe('100 Ω ∠-90°');
-      expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10 MΩ ∠0°');
+      expect(impedancePolar({ re: 3, im: 4 })).toBe('5.000 Ω ∠53.13°');
+      expect(impedancePolar({ re: 0, im: -100 })).toBe('100.0 Ω ∠-90.00°');
+      expect(impedancePolar({ re: 10e6, im: -1e-9 })).toBe('10.00 MΩ ∠0.000°');
     });
 
     it('should show cascade rounding left in a part as zero', () => {
-      expect(impedanceRect({ re: 1500, im: 8.3e-16 })).toBe('1.5 kΩ + j0 Ω');
-      expect(impedanceRect({ re: 0.1, im: 3e-9 })).toBe('100 mΩ + j3 nΩ');
+      expect(impedanceRect({ re: 1500, im: 8.3e-16 })).toBe('1.500 kΩ + j0 Ω');
+      expect(impedanceRect({ re: 0.1, im: 3e-9 })).toBe('100.0 mΩ + j3.000 nΩ');
     });
 
     it('should show a dash when a part is missing', () => {

@@ -4,7 +4,7 @@
  * from the engine; nothing here parses input.
  */
 import type { UnitKind } from '../../../../../shared/engine/types';
-import { formatEngineering } from '../../../../../shared/units';
+import { formatEngineering, significantText } from '../../../../../shared/units';
 import { significantFigures } from '../../../core/format/number-format';
 
 /** Shown wherever the engine has no value (no resonance in the sweep, no linearity data). */
@@ -18,7 +18,9 @@ function isMissing(value: number | null | undefined): value is null | undefined 
  * `value` with an engineering prefix and the kind's symbol, as the editor writes values
  * (e.g. `engineering(22e-6, 'henry')` → "22 µH"), and "—" when the engine has no value.
  * The one formatter for figures on screen: it writes the user's chosen number of
- * significant figures (`significantFigures`, default 4) unless a caller needs another.
+ * significant figures (`significantFigures`, default 4) unless a caller needs another, and
+ * keeps the trailing zeros ("28.70 kHz" beside "54.55 kHz"), so that figures side by side
+ * show the same precision.
  */
 export function engineering(
   value: number | null | undefined,
@@ -26,12 +28,21 @@ export function engineering(
   digits = significantFigures(),
 ): string {
   if (isMissing(value)) return NO_VALUE;
+  return formatEngineering(value, kind, digits, true);
+}
+
+/**
+ * An axis tick label: a round value written with the figures it needs and no trailing zeros
+ * ("1 kΩ", "10 kΩ", "2.5 MHz"), since a tick marks a place on the axis, not a result.
+ */
+export function tickLabel(value: number, kind: UnitKind, digits: number): string {
   return formatEngineering(value, kind, digits);
 }
 
 /**
  * A stored value written into a field the user edits: at least 6 significant figures (more
- * when the user chose more), so the text reads back as the value it came from.
+ * when the user chose more), so the text reads back as the value it came from; without
+ * trailing zeros, as a person would type it.
  */
 export function fieldText(value: number, kind: UnitKind): string {
   return formatEngineering(value, kind, Math.max(6, significantFigures()));
@@ -39,25 +50,21 @@ export function fieldText(value: number, kind: UnitKind): string {
 
 /**
  * `value` rounded to `digits` significant figures, written plainly (exponent form only past
- * a million or below a ten-thousandth), trailing zeros dropped and never "-0". With
- * `fromUnits` the count starts at the units digit for values below one, as a level in dB or
- * an angle is read: -0.0123 dB at 4 figures is "-0.012", not "-0.01230".
+ * a million or below a ten-thousandth), trailing zeros kept ("2.500" at 4 figures) and
+ * never "-0". With `fromUnits` the count starts at the units digit for values below one, as
+ * a level in dB or an angle is read: -0.0123 dB at 4 figures is "-0.012" and 0 dB "0.000",
+ * so a column of levels keeps its decimals.
  */
 export function figures(value: number, digits = significantFigures(), fromUnits = false): string {
   if (!Number.isFinite(value)) return Number.isNaN(value) ? NO_VALUE : value > 0 ? '∞' : '-∞';
   const n = Math.max(1, Math.min(15, Math.round(digits)));
-  const magnitude = Math.abs(value);
-  if (fromUnits && magnitude < 1) return tidy(value.toFixed(Math.max(0, n - 1)));
-  const rounded = Number(value.toPrecision(n));
-  const abs = Math.abs(rounded);
-  if (abs !== 0 && (abs < 1e-4 || abs >= 1e6)) return rounded.toExponential().replace('e+', 'e');
-  return tidy(String(rounded));
+  if (fromUnits && Math.abs(value) < 1) return unsignedZero(value.toFixed(Math.max(0, n - 1)));
+  return unsignedZero(significantText(value, n, true));
 }
 
-/** Drops trailing zeros after the point and the sign of a zero. */
-function tidy(text: string): string {
-  const trimmed = text.includes('.') ? text.replace(/\.?0+$/, '') : text;
-  return Number(trimmed) === 0 ? '0' : trimmed;
+/** A figure that rounds to zero is written without a sign ("0.000", not "-0.000"). */
+function unsignedZero(text: string): string {
+  return Number(text) === 0 && text.startsWith('-') ? text.slice(1) : text;
 }
 
 /**
@@ -80,18 +87,19 @@ export function plain(value: number | null | undefined, digits = significantFigu
 }
 
 /**
- * A voltage ratio as a multiplier, e.g. "×12.5", "×0.05" or "×1410", to the user's number
- * of significant figures (trailing zeros dropped, as `engineering` drops them). Milli and
- * kilo prefixes on a bare ratio read badly, so large ratios are written out and only ratios
- * past a million or below a thousandth use exponent form.
+ * A voltage ratio as a multiplier, e.g. "×12.50", "×0.05000" or "×1410", to the user's
+ * number of significant figures (trailing zeros kept, as `engineering` keeps them). Milli
+ * and kilo prefixes on a bare ratio read badly, so large ratios are written out and only
+ * ratios past a million or below a thousandth use exponent form.
  */
 export function times(value: number | null | undefined, digits = significantFigures()): string {
   if (isMissing(value)) return NO_VALUE;
   const magnitude = Math.abs(value);
-  const rounded = Number(value.toPrecision(digits));
-  if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e6)) return `×${rounded}`;
-  // Exponent form as `figures` and the engineering formatter write it: "×2.5e7".
-  return `×${rounded.toExponential().replace('e+', 'e')}`;
+  if (magnitude === 0 || (magnitude >= 1e-3 && magnitude < 1e6))
+    return `×${significantText(value, digits, true)}`;
+  // Exponent form as `figures` and the engineering formatter write it: "×2.500e7".
+  const n = Math.max(1, Math.min(15, Math.round(digits)));
+  return `×${value.toExponential(n - 1).replace('e+', 'e')}`;
 }
 
 /** A fraction 0…1 shown as a percentage, to the user's significant figures. */

@@ -4,7 +4,7 @@
  * them as an array of tick positions with their text (`tickmode: 'array'`).
  */
 import type { UnitKind } from '../../../../../shared/engine/types';
-import { engineering } from './format-quantity';
+import { tickLabel } from './format-quantity';
 
 export interface AxisTicks {
   tickmode: 'array';
@@ -51,7 +51,7 @@ export function logAxisTicks(values: ArrayLike<number>, kind: UnitKind): AxisTic
   return {
     tickmode: 'array',
     tickvals,
-    ticktext: tickvals.map((v) => engineering(v, kind, 3)),
+    ticktext: tickvals.map((v) => tickLabel(v, kind, 3)),
   };
 }
 
@@ -100,6 +100,6 @@ export function linearAxisTicks(
   return {
     tickmode: 'array',
     tickvals,
-    ticktext: tickvals.map((v) => engineering(v, kind, Math.min(digits, 12))),
+    ticktext: tickvals.map((v) => tickLabel(v, kind, Math.min(digits, 12))),
   };
 }

@@ -73,7 +73,7 @@ export function keyValues(
     .map((p) => ({
       key: p.key,
       label: `${p.label} (designed)`,
-      value: formatEngineering(designed![p.key], p.unit, significantFigures()),
+      value: formatEngineering(designed![p.key], p.unit, significantFigures(), true),
       numeric: true,
     }));
   const candidates = visibleParams(stage, type).filter(
@@ -88,7 +88,7 @@ export function keyValues(
       const v = valueOf(stage, p);
       const value =
         typeof v === 'number'
-          ? formatEngineering(v, p.unit, significantFigures())
+          ? formatEngineering(v, p.unit, significantFigures(), true)
           : (p.options?.find((o) => o.value === v)?.label ?? String(v));
       return { key: p.key, label: p.label, value, numeric: typeof v === 'number' };
     }),
