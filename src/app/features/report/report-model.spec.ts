@@ -22,7 +22,7 @@ describe('report-model', () => {
       noTypes,
     ).transmit!;
     // Numbers as the app's formatter writes them (its significant figures are a setting).
-    expect(tx.delivered).toBe(`94.5 mW (${decibels(19.75, 'dBm')})`);
+    expect(tx.delivered).toBe(`94.50 mW (${decibels(19.75, 'dBm')})`);
     expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.verdict])).toEqual([
       [2, decibels(16.3), decibels(20), 'over limit'],
       [3, decibels(30.9), decibels(20), 'within limit'],

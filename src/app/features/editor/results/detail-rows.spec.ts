@@ -148,7 +148,7 @@ describe('detail-rows', () => {
       expect(keys).not.toContain('nf');
       expect(keys).not.toContain('sensitivity');
       const of = (key: string) => tx.find((i) => i.key === key);
-      expect(of('tx-delivered')).toMatchObject({ label: 'Into the antenna', value: '94.5 mW' });
+      expect(of('tx-delivered')).toMatchObject({ label: 'Into the antenna', value: '94.50 mW' });
       expect(of('tx-harmonic-2')?.note).toContain(`over the ${decibels(20)} limit`);
       expect(of('tx-harmonic-3')?.note).toContain(`within the ${decibels(20)} limit`);
       expect(of('tx-isolation')).toMatchObject({ value: decibels(34.2) });
