@@ -29,7 +29,7 @@ describe('report-model', () => {
     ]);
     expect(tx.receiver).toMatchObject({ isolation: decibels(34.2), verdict: 'no limit stated' });
     expect(tx.parts.map((p) => p.verdict)).toEqual(['no limit stated', 'over limit']);
-    expect(tx.parts[1].rating).toBe('2 V peak');
+    expect(tx.parts[1].rating).toBe('2.000 V peak');
   });
 
   it('should draw every stage in order and mark each with its worst flag', () => {
