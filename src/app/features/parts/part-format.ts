@@ -1,5 +1,5 @@
 import type { PartDto } from '../../../../shared/schema/api';
-import { engineering, plain } from '../editor/results/format-quantity';
+import { engineering, nominal, plain } from '../editor/results/format-quantity';
 
 export type PartFieldKey = 'partNumber' | 'kind' | 'value' | 'q' | 'qFreq' | 'tolerance' | 'notes';
 
@@ -25,6 +25,6 @@ export function formatPart(part: Omit<PartDto, 'id'>): {
   return {
     value,
     q: part.q === null ? '—' : `Q ${plain(part.q)}${at}`,
-    tolerance: part.tolerancePct === null ? '—' : `± ${plain(part.tolerancePct)} %`,
+    tolerance: part.tolerancePct === null ? '—' : `± ${nominal(part.tolerancePct)} %`,
   };
 }

@@ -6,7 +6,7 @@
 import type { ParamSpec } from '../../../../shared/engine/types';
 import type { PartDto } from '../../../../shared/schema/api';
 import type { PartRef, StageInstance } from '../../../../shared/schema/chain';
-import { engineering, fieldText, plain } from '../editor/results/format-quantity';
+import { engineering, fieldText, nominal } from '../editor/results/format-quantity';
 import { withTolerance, withValue } from '../editor/state/stage-factory';
 
 /**
@@ -60,6 +60,6 @@ export function describePartRef(ref: PartRef): string {
     const at = ref.qFreqHz === undefined ? '' : ` at ${engineering(ref.qFreqHz, 'hertz')}`;
     bits.push(`Q ${ref.q}${at}`);
   }
-  if (ref.tolerancePct !== undefined) bits.push(`± ${plain(ref.tolerancePct)} %`);
+  if (ref.tolerancePct !== undefined) bits.push(`± ${nominal(ref.tolerancePct)} %`);
   return `From the bin: ${bits.join(', ')}`;
 }

@@ -130,7 +130,7 @@ describe('detail-rows', () => {
     it('should state the channel the noise floor is measured in', () => {
       expect(item('noise-floor')).toMatchObject({
         value: '-134.0 dBm',
-        note: 'in a 10.00 kHz channel at 290.0 K',
+        note: 'in a 10.00 kHz channel at 290 K',
       });
     });
 

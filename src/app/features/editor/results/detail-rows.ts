@@ -5,7 +5,7 @@
 import { transmitSummaryItems } from './transmit-summary';
 import type { ChainDocument, Thresholds } from '../../../../../shared/schema/chain';
 import type { AnalysisResult, Flag, Severity } from '../../../../../shared/engine/types';
-import { NO_VALUE, decibels, engineering, percent, plain } from './format-quantity';
+import { NO_VALUE, decibels, engineering, nominal, percent, plain } from './format-quantity';
 
 /** How hard a tank is loaded, judged against the chain's own thresholds. */
 export type LoadingState = 'fine' | 'matched' | 'warning' | 'error' | 'unknown';
@@ -155,7 +155,7 @@ export function summaryItems(result: AnalysisResult, document: ChainDocument): S
       key: 'noise-floor',
       label: 'Noise floor',
       value: decibels(l.noiseFloorDbm, 'dBm'),
-      note: `in a ${bandwidth} channel at ${plain(document.settings.temperatureK)} K`,
+      note: `in a ${bandwidth} channel at ${nominal(document.settings.temperatureK)} K`,
     },
     {
       key: 'nf',

@@ -87,6 +87,16 @@ export function plain(value: number | null | undefined, digits = significantFigu
 }
 
 /**
+ * A value stated as a nominal class rather than measured or computed (a part's tolerance, the
+ * chain's set temperature): written as stated, up to the user's figures but without padding
+ * zeros, so a ±2 % part reads "2", not "2.000".
+ */
+export function nominal(value: number | null | undefined, digits = significantFigures()): string {
+  if (isMissing(value)) return NO_VALUE;
+  return unsignedZero(significantText(value, digits));
+}
+
+/**
  * A voltage ratio as a multiplier, e.g. "×12.50", "×0.05000" or "×1410", to the user's
  * number of significant figures (trailing zeros kept, as `engineering` keeps them). Milli
  * and kilo prefixes on a bare ratio read badly, so large ratios are written out and only

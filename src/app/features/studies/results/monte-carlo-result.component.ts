@@ -10,7 +10,7 @@ import { ResultPlotComponent } from '../../editor/results/result-plot.component'
 import { numberOf } from '../forms/tunable';
 import { histogramFigure, scatterFigure } from '../study-plots';
 import { pct } from './study-format';
-import { plain } from '../../editor/results/format-quantity';
+import { nominal } from '../../editor/results/format-quantity';
 
 /** A Monte Carlo run: yield against the chain's targets, histograms, scatter, sensitivity. */
 @Component({
@@ -117,7 +117,7 @@ import { plain } from '../../editor/results/format-quantity';
           @for (s of r.sensitivity; track s.label) {
             <tr>
               <td>{{ s.label }}</td>
-              <td>{{ plainNum(s.tolerancePct) }} %</td>
+              <td>{{ nominalNum(s.tolerancePct) }} %</td>
               <td>{{ pct(s.yieldInner) }}</td>
               <td>{{ pct(s.yieldOuter) }}</td>
               <td>{{ pct(s.yieldDrop) }}</td>
@@ -140,7 +140,7 @@ export class MonteCarloResultComponent {
   };
 
   protected readonly pct = pct;
-  protected readonly plainNum = plain;
+  protected readonly nominalNum = nominal;
   protected readonly num = numberOf;
   protected readonly figureIndex = signal(0);
   protected readonly scatterX = signal(0);
