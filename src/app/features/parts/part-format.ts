@@ -1,5 +1,5 @@
 import type { PartDto } from '../../../../shared/schema/api';
-import { engineering, nominal, plain } from '../editor/results/format-quantity';
+import { nominal, nominalEngineering } from '../editor/results/format-quantity';
 
 export type PartFieldKey = 'partNumber' | 'kind' | 'value' | 'q' | 'qFreq' | 'tolerance' | 'notes';
 
@@ -20,11 +20,11 @@ export function formatPart(part: Omit<PartDto, 'id'>): {
   q: string;
   tolerance: string;
 } {
-  const value = engineering(part.value, part.kind === 'inductor' ? 'henry' : 'farad');
-  const at = part.qFreqHz === null ? '' : ` at ${engineering(part.qFreqHz, 'hertz')}`;
+  const value = nominalEngineering(part.value, part.kind === 'inductor' ? 'henry' : 'farad');
+  const at = part.qFreqHz === null ? '' : ` at ${nominalEngineering(part.qFreqHz, 'hertz')}`;
   return {
     value,
-    q: part.q === null ? '—' : `Q ${plain(part.q)}${at}`,
+    q: part.q === null ? '—' : `Q ${nominal(part.q)}${at}`,
     tolerance: part.tolerancePct === null ? '—' : `± ${nominal(part.tolerancePct)} %`,
   };
 }

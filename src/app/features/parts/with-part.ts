@@ -6,7 +6,7 @@
 import type { ParamSpec } from '../../../../shared/engine/types';
 import type { PartDto } from '../../../../shared/schema/api';
 import type { PartRef, StageInstance } from '../../../../shared/schema/chain';
-import { engineering, fieldText, nominal } from '../editor/results/format-quantity';
+import { fieldText, nominal, nominalEngineering } from '../editor/results/format-quantity';
 import { withTolerance, withValue } from '../editor/state/stage-factory';
 
 /**
@@ -57,7 +57,7 @@ export function withoutPart(stage: StageInstance, key: string): StageInstance {
 export function describePartRef(ref: PartRef): string {
   const bits = [ref.partNumber || 'a part'];
   if (ref.q !== undefined) {
-    const at = ref.qFreqHz === undefined ? '' : ` at ${engineering(ref.qFreqHz, 'hertz')}`;
+    const at = ref.qFreqHz === undefined ? '' : ` at ${nominalEngineering(ref.qFreqHz, 'hertz')}`;
     bits.push(`Q ${ref.q}${at}`);
   }
   if (ref.tolerancePct !== undefined) bits.push(`± ${nominal(ref.tolerancePct)} %`);

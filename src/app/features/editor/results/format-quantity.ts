@@ -96,6 +96,16 @@ export function nominal(value: number | null | undefined, digits = significantFi
   return unsignedZero(significantText(value, digits));
 }
 
+/** A stated nominal with a prefix and unit ("150 pF", "7 MHz" from a part's datasheet line). */
+export function nominalEngineering(
+  value: number | null | undefined,
+  kind: UnitKind,
+  digits = significantFigures(),
+): string {
+  if (isMissing(value)) return NO_VALUE;
+  return formatEngineering(value, kind, digits);
+}
+
 /**
  * A voltage ratio as a multiplier, e.g. "×12.50", "×0.05000" or "×1410", to the user's
  * number of significant figures (trailing zeros kept, as `engineering` keeps them). Milli
