@@ -8,7 +8,7 @@ import {
 } from '@angular/core';
 import type { ParamSpec, UnitKind } from '../../../../../shared/engine/types';
 import { checkRange, parseQuantity } from '../../../../../shared/units';
-import { engineering } from '../results/format-quantity';
+import { nominalEngineering } from '../results/format-quantity';
 
 let nextId = 0;
 
@@ -98,7 +98,7 @@ export class QuantityFieldComponent {
     const low = t.min !== undefined && p.value < t.min;
     const high = t.max !== undefined && p.value > t.max;
     if (!low && !high) return null;
-    const f = (v: number) => engineering(v, this.unit());
+    const f = (v: number) => nominalEngineering(v, this.unit());
     const range =
       t.min !== undefined && t.max !== undefined
         ? `${f(t.min)} to ${f(t.max)}`
@@ -109,7 +109,9 @@ export class QuantityFieldComponent {
   });
   protected readonly readBack = computed(() => {
     const p = this.parsed();
-    return p.ok && !Number.isNaN(p.value) ? engineering(p.value, this.unit()) : null;
+    // What was typed, as parsed: a stated value, so rounded to the chosen figures but not
+    // padded with zeros it never had ("= 22 µH", "= 1.151 nF" for an expression).
+    return p.ok && !Number.isNaN(p.value) ? nominalEngineering(p.value, this.unit()) : null;
   });
 
   protected onInput(event: Event): void {

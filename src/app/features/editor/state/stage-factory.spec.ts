@@ -55,8 +55,8 @@ describe('stage factory', () => {
     it('should give the card the parts first, with full labels, and leave out the entry switch', () => {
       const values = keyValues(stage('t', TANK, { l: 22e-6, c: 100e-12 }), TANK);
       expect(values.map((v) => `${v.label} ${v.value}`)).toEqual([
-        'Inductance 22.00 µH',
-        'Capacitance 100.0 pF',
+        'Inductance 22 µH',
+        'Capacitance 100 pF',
       ]);
     });
 
@@ -74,7 +74,7 @@ describe('stage factory', () => {
       expect(values.map((v) => `${v.label} ${v.value}`)).toEqual([
         'Inductance (designed) 4.700 µH',
         'Capacitance (designed) 220.0 pF',
-        'Loaded Q 30.00',
+        'Loaded Q 30',
       ]);
     });
 
@@ -88,7 +88,7 @@ describe('stage factory', () => {
       expect(keyValues(stage('t', long, { l: 0.25 }), long)[0]).toEqual({
         key: 'l',
         label: 'Turns ratio (primary : secondary)',
-        value: '0.2500',
+        value: '0.25',
         numeric: true,
       });
     });

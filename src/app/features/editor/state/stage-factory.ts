@@ -88,7 +88,8 @@ export function keyValues(
       const v = valueOf(stage, p);
       const value =
         typeof v === 'number'
-          ? formatEngineering(v, p.unit, significantFigures(), true)
+          ? // A value the user stated: rounded, not padded ("22 µH", not "22.00 µH").
+            formatEngineering(v, p.unit, significantFigures())
           : (p.options?.find((o) => o.value === v)?.label ?? String(v));
       return { key: p.key, label: p.label, value, numeric: typeof v === 'number' };
     }),
