@@ -1,4 +1,4 @@
-import { linearAxisTicks, logAxisTicks } from './plot-axes';
+import { axisRangeChange, linearAxisTicks, logAxisTicks, ticksForRange } from './plot-axes';
 
 describe('log axis ticks', () => {
   it('should tick a wide impedance span by decades with prefixes and the unit', () => {
@@ -59,5 +59,34 @@ describe('linear axis ticks', () => {
     expect(linearAxisTicks([50, 50], 'ohm')!.tickvals.length).toBeGreaterThanOrEqual(2);
     expect(linearAxisTicks([0, 0], 'hertz')!.ticktext).toEqual(['-4 Hz', '-2 Hz', '0 Hz', '2 Hz', '4 Hz']); // prettier-ignore
     expect(linearAxisTicks([null, NaN], 'ohm')).toBeNull();
+  });
+});
+
+describe('ticks after a zoom or pan', () => {
+  it('should read a range given as two keys or as a pair, in either order', () => {
+    expect(axisRangeChange({ 'xaxis.range[0]': 5, 'xaxis.range[1]': 9 }, 'xaxis')).toEqual({ range: [5, 9] }); // prettier-ignore
+    expect(axisRangeChange({ 'yaxis.range': [7, 6] }, 'yaxis')).toEqual({ range: [6, 7] });
+    expect(axisRangeChange({ 'yaxis.range': [7, 6] }, 'xaxis')).toBeNull();
+  });
+
+  it('should report a double-click reset and ignore events that set no usable range', () => {
+    expect(axisRangeChange({ 'xaxis.autorange': true }, 'xaxis')).toBe('reset');
+    expect(axisRangeChange({ 'xaxis.range[0]': 5 }, 'xaxis')).toBeNull();
+    expect(axisRangeChange({ 'xaxis.range': [3, 3] }, 'xaxis')).toBeNull();
+    expect(axisRangeChange({ 'xaxis.tickvals': [1, 2] }, 'xaxis')).toBeNull();
+  });
+
+  it('should tick a log axis from the log10 range Plotly reports', () => {
+    const ticks = ticksForRange([6, 7], true, 'hertz')!;
+    expect(ticks.ticktext).toEqual(['1 MHz', '2 MHz', '3 MHz', '5 MHz', '7 MHz', '10 MHz']);
+    expect(ticks.tickvals[0]).toBe(1e6);
+  });
+
+  it('should tick a zoomed linear axis more finely than the whole span', () => {
+    const whole = linearAxisTicks([1e6, 30e6], 'hertz')!;
+    const zoomed = ticksForRange([10e6, 10.3e6], false, 'hertz')!;
+    expect(whole.tickvals).not.toContain(10.05e6);
+    expect(zoomed.tickvals).toEqual([10e6, 10.05e6, 10.1e6, 10.15e6, 10.2e6, 10.25e6, 10.3e6]);
+    expect(zoomed.ticktext[1]).toBe('10.05 MHz');
   });
 });

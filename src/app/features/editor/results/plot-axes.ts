@@ -103,3 +103,38 @@ export function linearAxisTicks(
     ticktext: tickvals.map((v) => tickLabel(v, kind, Math.min(digits, 12))),
   };
 }
+
+/** What a zoom or pan asks of one axis: a new range, back to the data's own span, or nothing. */
+export type AxisRangeChange = { range: [number, number] } | 'reset' | null;
+
+/**
+ * Reads one axis's change from a Plotly relayout event, which names the range either as
+ * `xaxis.range[0]` / `xaxis.range[1]` or as `xaxis.range: [a, b]`, and a double-click reset
+ * as `xaxis.autorange: true`. On a log axis the numbers are log10 of the values.
+ */
+export function axisRangeChange(
+  event: Record<string, unknown>,
+  axis: 'xaxis' | 'yaxis',
+): AxisRangeChange {
+  if (event[`${axis}.autorange`] === true) return 'reset';
+  const pair = event[`${axis}.range`];
+  const [a, b] = Array.isArray(pair)
+    ? (pair as unknown[])
+    : [event[`${axis}.range[0]`], event[`${axis}.range[1]`]];
+  if (typeof a !== 'number' || typeof b !== 'number') return null;
+  if (!Number.isFinite(a) || !Number.isFinite(b) || a === b) return null;
+  return { range: a < b ? [a, b] : [b, a] };
+}
+
+/**
+ * Ticks for a zoomed or panned axis showing `range` (log10 of the ends when `log`), with the
+ * same steps and labels as the ticks computed from the data.
+ */
+export function ticksForRange(
+  range: readonly [number, number],
+  log: boolean,
+  kind: UnitKind,
+): AxisTicks | null {
+  if (!log) return linearAxisTicks(range, kind);
+  return logAxisTicks([10 ** range[0], 10 ** range[1]], kind);
+}
