@@ -28,6 +28,7 @@ export function histogramFigure(title: string, unit: UnitKind, h: HistogramLike)
     (_, i) => `${withUnit(h.edges[i], unit)} to ${withUnit(h.edges[i + 1], unit)}`,
   );
   return {
+    tickUnits: { xaxis: unit },
     data: [
       {
         type: 'bar',
@@ -84,6 +85,7 @@ export function scatterFigure(
       ]
     : [{ ...pick(null), name: 'trials', color: '#2f6f62' }];
   return {
+    tickUnits: { xaxis: xAxis.unit, yaxis: yAxis.unit },
     data: sets.map((s) => ({
       type: 'scatter',
       mode: 'markers',
@@ -114,6 +116,7 @@ export function trackingFigure(band: BandPlotInput): PlotFigure {
   const errors = band.circuits.flatMap((c) => c.errorsHz);
   const resonances = band.circuits.flatMap((c) => c.resonancesHz);
   return {
+    tickUnits: { xaxis: 'hertz', yaxis: 'hertz' },
     data: band.circuits.flatMap((c) => [
       {
         type: 'scatter',

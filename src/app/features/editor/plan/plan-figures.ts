@@ -74,7 +74,7 @@ export function spurChartFigure(plan: PlanReport, palette: PlotPalette): PlotFig
     margin: { l: 70, r: 20, t: 40, b: 50 },
     legend: { font: { size: 10 } },
   };
-  return { data, layout };
+  return { data, layout, tickUnits: { xaxis: 'hertz', yaxis: 'hertz' } };
 }
 
 export type SpurSortKey = 'rejection' | 'frequency' | 'order';

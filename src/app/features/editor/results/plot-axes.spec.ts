@@ -1,4 +1,10 @@
-import { axisRangeChange, linearAxisTicks, logAxisTicks, ticksForRange } from './plot-axes';
+import {
+  axisRangeChange,
+  linearAxisTicks,
+  logAxisTicks,
+  retickUpdate,
+  ticksForRange,
+} from './plot-axes';
 
 describe('log axis ticks', () => {
   it('should tick a wide impedance span by decades with prefixes and the unit', () => {
@@ -88,5 +94,34 @@ describe('ticks after a zoom or pan', () => {
     expect(whole.tickvals).not.toContain(10.05e6);
     expect(zoomed.tickvals).toEqual([10e6, 10.05e6, 10.1e6, 10.15e6, 10.2e6, 10.25e6, 10.3e6]);
     expect(zoomed.ticktext[1]).toBe('10.05 MHz');
+  });
+});
+
+describe('tick update for a relayout event', () => {
+  const base = {
+    xaxis: { tickvals: [1e6, 1e7], ticktext: ['1 MHz', '10 MHz'] },
+    yaxis: { type: 'log', tickvals: [10, 100], ticktext: ['10 Ω', '100 Ω'] },
+  };
+  const units = { xaxis: 'hertz', yaxis: 'ohm' } as const;
+
+  it('should re-tick only the axes whose range changed, log axes from log10', () => {
+    const update = retickUpdate({ 'yaxis.range[0]': 1, 'yaxis.range[1]': 2 }, units, base)!;
+    expect(Object.keys(update)).toEqual(['yaxis.tickvals', 'yaxis.ticktext']);
+    expect(update['yaxis.ticktext']).toEqual(['10 Ω', '20 Ω', '30 Ω', '50 Ω', '70 Ω', '100 Ω']);
+  });
+
+  it("should bring back the data's ticks on a reset", () => {
+    const update = retickUpdate({ 'xaxis.autorange': true, 'yaxis.autorange': true }, units, base);
+    expect(update).toEqual({
+      'xaxis.tickvals': [1e6, 1e7],
+      'xaxis.ticktext': ['1 MHz', '10 MHz'],
+      'yaxis.tickvals': [10, 100],
+      'yaxis.ticktext': ['10 Ω', '100 Ω'],
+    });
+  });
+
+  it('should ignore its own tick update and axes with no unit, so there is no loop', () => {
+    expect(retickUpdate({ 'xaxis.tickvals': [1], 'xaxis.ticktext': ['1 Hz'] }, units, base)).toBeNull(); // prettier-ignore
+    expect(retickUpdate({ 'xaxis.range': [5e6, 6e6] }, { yaxis: 'ohm' }, base)).toBeNull();
   });
 });

@@ -6,6 +6,9 @@
 import type { UnitKind } from '../../../../../shared/engine/types';
 import { tickLabel } from './format-quantity';
 
+/** The unit of each axis ticked by these helpers, so a zoom or pan can re-tick it. */
+export type AxisUnits = Partial<Record<'xaxis' | 'yaxis', UnitKind>>;
+
 export interface AxisTicks {
   tickmode: 'array';
   tickvals: number[];
@@ -137,4 +140,30 @@ export function ticksForRange(
 ): AxisTicks | null {
   if (!log) return linearAxisTicks(range, kind);
   return logAxisTicks([10 ** range[0], 10 ** range[1]], kind);
+}
+
+/**
+ * The tick update for a relayout event: new ticks on each axis in `units` whose range the
+ * event changed, the data's own ticks (`base`) on a reset. Null when nothing changes, as
+ * for the event our own tick update raises (it sets no range), so there is no loop.
+ */
+export function retickUpdate(
+  event: Record<string, unknown>,
+  units: AxisUnits,
+  base: Partial<Record<'xaxis' | 'yaxis', { type?: unknown; tickvals?: unknown; ticktext?: unknown }>>, // prettier-ignore
+): Record<string, unknown> | null {
+  const update: Record<string, unknown> = {};
+  for (const axis of ['xaxis', 'yaxis'] as const) {
+    const kind = units[axis];
+    const change = kind ? axisRangeChange(event, axis) : null;
+    if (!kind || !change) continue;
+    const ticks =
+      change === 'reset'
+        ? { tickvals: base[axis]?.tickvals, ticktext: base[axis]?.ticktext }
+        : ticksForRange(change.range, base[axis]?.type === 'log', kind);
+    if (!ticks?.tickvals || !ticks.ticktext) continue;
+    update[`${axis}.tickvals`] = ticks.tickvals;
+    update[`${axis}.ticktext`] = ticks.ticktext;
+  }
+  return Object.keys(update).length > 0 ? update : null;
 }

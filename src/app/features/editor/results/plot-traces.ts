@@ -5,7 +5,7 @@
  */
 import type { Annotation, Data, Layout, LayoutAxis, Shape } from 'plotly.js-dist-min';
 import type { AnalysisResult, SweepReport } from '../../../../../shared/engine/types';
-import { linearAxisTicks, logAxisTicks } from './plot-axes';
+import { linearAxisTicks, logAxisTicks, type AxisUnits } from './plot-axes';
 import { decibels, degrees, engineering, figures, impedanceRect } from './format-quantity';
 import { significantFigures } from '../../../core/format/number-format';
 import type { PlotPalette } from './plot-theme';
@@ -13,6 +13,7 @@ import type { PlotPalette } from './plot-theme';
 export interface PlotFigure {
   data: Data[];
   layout: Partial<Layout>;
+  tickUnits?: AxisUnits; // axes with our tick labels, re-ticked on zoom and pan
 }
 
 export interface PlotContext {
@@ -207,6 +208,7 @@ export function stepUpFigure(ctx: PlotContext, nodes: number[]): PlotFigure {
   });
   const markers = frequencyMarkers(ctx);
   return {
+    tickUnits: { xaxis: 'hertz' },
     data,
     layout: {
       ...baseLayout(ctx, 'Voltage step-up at chosen nodes'),
@@ -224,6 +226,7 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
   const phase = re.map((r, i) => (Math.atan2(im[i], r) * 180) / Math.PI);
   const markers = frequencyMarkers(ctx);
   return {
+    tickUnits: { xaxis: 'hertz', yaxis: 'ohm' },
     data: [
       {
         type: 'scatter',
@@ -299,6 +302,7 @@ export function returnLossFigure(ctx: PlotContext, thresholdDb: number): PlotFig
     font: { color: ctx.palette.warn, size: 11 },
   } as Annotation;
   return {
+    tickUnits: { xaxis: 'hertz' },
     data: [
       {
         type: 'scatter',

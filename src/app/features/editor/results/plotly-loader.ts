@@ -7,7 +7,10 @@ import { InjectionToken } from '@angular/core';
 import type PlotlyNamespace from 'plotly.js-dist-min';
 
 /** The part of Plotly the results panel uses. */
-export type PlotlyApi = Pick<typeof PlotlyNamespace, 'react' | 'purge' | 'downloadImage' | 'Plots'>;
+export type PlotlyApi = Pick<
+  typeof PlotlyNamespace,
+  'react' | 'relayout' | 'purge' | 'downloadImage' | 'Plots'
+>;
 
 let pending: Promise<PlotlyApi> | null = null;
 

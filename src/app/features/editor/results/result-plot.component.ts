@@ -12,9 +12,10 @@ import {
   viewChild,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import type { Config } from 'plotly.js-dist-min';
+import type { Config, Layout } from 'plotly.js-dist-min';
 import { PLOTLY_LOADER, type PlotlyApi } from './plotly-loader';
 import { measureFirstPlot } from './plot-timing';
+import { retickUpdate } from './plot-axes';
 import type { PlotFigure } from './plot-traces';
 
 /** Plot heights are fixed so the page does not jump while Plotly loads. */
@@ -148,6 +149,7 @@ export class ResultPlotComponent {
         .finally(loaded);
     });
 
+    let listening = false;
     effect(() => {
       const plotly = this.plotly();
       const figure = this.figure();
@@ -159,6 +161,7 @@ export class ResultPlotComponent {
         .then(
           () => {
             measureFirstPlot();
+            listening ||= this.retickOnZoom(plotly, this.canvas().nativeElement);
             this.state.set('ready');
           },
           (error: unknown) => {
@@ -173,6 +176,24 @@ export class ResultPlotComponent {
       resizeObserver?.disconnect();
       this.plotly()?.purge(this.canvas().nativeElement);
     });
+  }
+
+  /**
+   * Our tick labels are a fixed list, so after a zoom or pan they are worked out again for
+   * the range shown, and a double-click reset brings back the data's own. Plotly adds `on`
+   * to the element with its first drawing (the specs' stand-in never does): false until then.
+   */
+  private retickOnZoom(plotly: PlotlyApi, element: HTMLElement): boolean {
+    type Handler = (event: Record<string, unknown>) => void;
+    const host = element as HTMLElement & { on?: (name: string, handler: Handler) => void };
+    if (typeof host.on !== 'function') return false;
+    host.on('plotly_relayout', (event) => {
+      const { tickUnits, layout } = this.figure();
+      const update = tickUnits ? retickUpdate(event, tickUnits, layout) : null;
+      // Plotly takes dotted attribute paths here, which its types do not describe.
+      if (update) void plotly.relayout(element, update as Partial<Layout>);
+    });
+    return true;
   }
 
   protected downloadPng(): void {

@@ -14,6 +14,7 @@ export interface PlotlyCall {
 export interface FakePlotly {
   api: PlotlyApi;
   reacts: PlotlyCall[];
+  relayouts: Record<string, unknown>[];
   purged: HTMLElement[];
   downloads: { root: unknown; filename: string; format: string }[];
   /** How many times the library was asked for. */
@@ -24,6 +25,7 @@ export interface FakePlotly {
 export function fakePlotly(): FakePlotly {
   const fake: FakePlotly = {
     reacts: [],
+    relayouts: [],
     purged: [],
     downloads: [],
     loads: 0,
@@ -32,6 +34,10 @@ export function fakePlotly(): FakePlotly {
         fake.reacts.push({ element, data, layout });
         return element;
       }) as unknown as PlotlyApi['react'],
+      relayout: (async (element: HTMLElement, update: Record<string, unknown>) => {
+        fake.relayouts.push(update);
+        return element;
+      }) as unknown as PlotlyApi['relayout'],
       purge: ((element: HTMLElement) => {
         fake.purged.push(element);
       }) as unknown as PlotlyApi['purge'],
