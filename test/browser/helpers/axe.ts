@@ -5,6 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
+import { overlaysSettled } from './wait';
 
 const AXE_SOURCE = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
 
@@ -82,6 +83,9 @@ export async function horizontalOverflow(page: Page): Promise<number> {
  * reports every screen that fails instead of stopping at the first.
  */
 export async function checkScreen(page: Page, screen: string, problems: string[]): Promise<void> {
+  // An overlay still fading in blends the text under it: judge the screen once it is still.
+  // A panel that never settles (none known) leaves the check to judge the screen as it is.
+  await overlaysSettled(page, 5000).catch(() => undefined);
   const overflow = await horizontalOverflow(page);
   if (overflow > 0) problems.push(`${screen}: the page is ${overflow} px wider than the window`);
   for (const line of describeAxe(await seriousAxeViolations(page))) {

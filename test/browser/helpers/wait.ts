@@ -5,7 +5,7 @@
  * the 30 s default is generous because the machine running the tests may be shared and
  * loaded, and a wait ends as soon as its condition holds.
  */
-import type { Locator } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 
 /** Polls `check` every 100 ms until it holds; throws naming `what` after `timeoutMs`. */
 export async function waitUntil(
@@ -70,4 +70,22 @@ export async function expectValue(input: Locator, text: string, timeoutMs = 2000
   } catch {
     throw new Error(`expected the value "${text}", got "${value}"`);
   }
+}
+
+/**
+ * Waits until every open overlay panel (menu, select, autocomplete) has finished its entry
+ * animation: until then the panel is partly transparent over the page, and an accessibility
+ * check would judge the text under it against a blended background.
+ */
+export async function overlaysSettled(page: Page, timeoutMs = 10000): Promise<void> {
+  await page.waitForFunction(
+    () =>
+      [...document.querySelectorAll<HTMLElement>('.cdk-overlay-pane > *')].every((panel) => {
+        const style = getComputedStyle(panel);
+        const still = ['none', '', 'matrix(1, 0, 0, 1, 0, 0)'].includes(style.transform);
+        return style.opacity === '1' && still;
+      }),
+    undefined,
+    { timeout: timeoutMs },
+  );
 }
