@@ -69,7 +69,7 @@ describe('receiver plan', () => {
     await page.getByRole('tab', { name: 'Plan' }).click();
 
     // 455 kHz IF, LO above: the image is 910 kHz above 7.2 MHz.
-    expect(await imageFrequency(page)).toBe('8.11 MHz');
+    expect(await imageFrequency(page)).toMatch(/^8\.110* MHz$/);
     const plotReady = page.getByRole('button', { name: 'Save PNG' }).and(page.locator(':enabled'));
     await plotReady.first().waitFor();
     await shot(page, 'plan-455k');
@@ -88,8 +88,8 @@ describe('receiver plan', () => {
     expect(Number(desense.replace(' dB', ''))).toBeGreaterThanOrEqual(0);
 
     await typeInto(page, 'plan-if', '1.6 MHz');
-    await waitForText(page, 'tr[data-kind="image"] td:nth-of-type(3)', /^10\.4 MHz$/);
-    expect(await imageFrequency(page)).toBe('10.4 MHz');
+    await waitForText(page, 'tr[data-kind="image"] td:nth-of-type(3)', /^10\.40* MHz$/);
+    expect(await imageFrequency(page)).toMatch(/^10\.40* MHz$/);
     await plotReady.first().waitFor();
     await shot(page, 'plan-1600k-quiet-rural');
   });
