@@ -154,7 +154,10 @@ export class ResultPlotComponent {
       const plotly = this.plotly();
       const figure = this.figure();
       if (!plotly) return;
-      const layout = { ...figure.layout, height: PLOT_HEIGHT_PX };
+      // Plotly writes later changes (zoomed ticks) into the axis objects it is given: copies,
+      // so the figure keeps the data's own ticks for a reset.
+      const { xaxis, yaxis } = figure.layout;
+      const layout = { ...figure.layout, xaxis: { ...xaxis }, yaxis: { ...yaxis }, height: PLOT_HEIGHT_PX }; // prettier-ignore
       const drawn = this.pendingTasks.add();
       const drawing = plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG);
       drawing
@@ -188,8 +191,8 @@ export class ResultPlotComponent {
     const host = element as HTMLElement & { on?: (name: string, handler: Handler) => void };
     if (typeof host.on !== 'function') return false;
     host.on('plotly_relayout', (event) => {
-      const { tickUnits, layout } = this.figure();
-      const update = tickUnits ? retickUpdate(event, tickUnits, layout) : null;
+      const tickUnits = this.figure().tickUnits;
+      const update = tickUnits ? retickUpdate(event, tickUnits, this.figure().layout) : null;
       // Plotly takes dotted attribute paths here, which its types do not describe.
       if (update) void plotly.relayout(element, update as Partial<Layout>);
     });
