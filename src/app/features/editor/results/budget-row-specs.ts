@@ -11,6 +11,7 @@ import {
   degrees,
   engineering,
   impedancePolar,
+  nominalEngineering,
   impedanceRect,
   plain,
   times,
@@ -265,7 +266,7 @@ const LEVEL: RowSpec[] = [
     display: (p) =>
       p.node.referenceOhm === null
         ? NO_REFERENCE
-        : `${decibels(p.node.referenceLevelDbm, 'dBm')} in ${engineering(p.node.referenceOhm, 'ohm')}`,
+        : `${decibels(p.node.referenceLevelDbm, 'dBm')} in ${nominalEngineering(p.node.referenceOhm, 'ohm')}`,
     csv: [
       {
         label: 'Signal level across the reference',
@@ -290,7 +291,7 @@ const MATCH: RowSpec[] = [
     display: (p) =>
       p.node.referenceOhm === null
         ? NO_REFERENCE
-        : `${decibels(p.node.returnLossDb)} re ${engineering(p.node.referenceOhm, 'ohm')}`,
+        : `${decibels(p.node.returnLossDb)} re ${nominalEngineering(p.node.referenceOhm, 'ohm')}`,
     csv: [{ label: 'Return loss against the reference', unit: 'dB', value: (p) => p.node.returnLossDb }], // prettier-ignore
   },
   {
