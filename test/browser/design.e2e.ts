@@ -8,6 +8,7 @@
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
+import { waitUntil } from './helpers/wait';
 import {
   DEMO,
   launchBrowser,
@@ -199,7 +200,11 @@ describe('design tools', () => {
     expect(numberAfter(first, 'return loss')).toBeGreaterThan(30);
     await shot(page, 'design-04-match');
     await candidates.first().getByTestId('match-insert').click();
-    await expect(cards(page).count()).resolves.toBeGreaterThan(before);
+    // The inserted stages join the strip once the page has handled the click.
+    await waitUntil(
+      async () => (await cards(page).count()) > before,
+      'the match to join the strip',
+    );
 
     // Save the matched chain as a variant, named, then compare it with its parent.
     const name = `Short whip, matched ${uniqueSuffix()}`;
