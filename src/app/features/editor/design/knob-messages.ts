@@ -21,6 +21,8 @@ export interface LiveAnalysis {
 export interface KnobQuestion {
   id: number;
   document: ChainDocument;
+  /** The mode on screen, whose stages the results are read against; absent: as written. */
+  mode?: string;
 }
 
 /** What the knob worker answers: the live response at the last node and its key figures. */

@@ -8,10 +8,10 @@ import {
   signal,
 } from '@angular/core';
 import type { ParamSpec } from '../../../../../shared/engine/types';
-import type { ChainDocument } from '../../../../../shared/schema/chain';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
 import { visibleParams, withValue } from '../state/stage-factory';
+import { tunedChain } from './tuned-chain';
 import type { KnobAnswer, KnobQuestion } from './knob-messages';
 import { SparkPlotComponent } from './spark-plot.component';
 import { decibels, engineering, plain } from '../results/format-quantity';
@@ -41,7 +41,7 @@ export class ValueKnobComponent {
   private worker: Worker | null = null;
   private nextId = 0;
   private busy = false;
-  private queued: ChainDocument | null = null;
+  private queued: Omit<KnobQuestion, 'id'> | null = null;
   private answerTimes: number[] = [];
 
   protected readonly key = signal<string | null>(null);
@@ -154,9 +154,7 @@ export class ValueKnobComponent {
     const spec = this.spec();
     const stage = this.store.selectedStage();
     if (value === null || !spec || !stage) return;
-    const doc = this.store.doc();
-    const stages = doc.stages.map((s) => (s.id === stage.id ? withValue(s, spec.key, value) : s));
-    this.queued = { ...doc, stages };
+    this.queued = tunedChain(this.store.doc(), this.store.mode(), stage.id, spec.key, value);
     this.pump();
   }
 
@@ -164,7 +162,7 @@ export class ValueKnobComponent {
   private pump(): void {
     if (this.busy || !this.queued) return;
     this.worker ??= this.createWorker();
-    const question: KnobQuestion = { id: ++this.nextId, document: this.queued };
+    const question: KnobQuestion = { id: ++this.nextId, ...this.queued };
     this.queued = null;
     this.busy = true;
     this.worker.postMessage(question);
