@@ -9,7 +9,7 @@
  * is not valid (each problem on its own line); 4 the chain cannot be exported in the asked
  * form (a stage with no SPICE form, a frequency-translating stage in a Touchstone export).
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeSync } from 'node:fs';
 import {
   analyzeChain,
   ChainValidationError,
@@ -25,7 +25,8 @@ import { planText } from '../shared/io/plan-text';
 import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-touchstone';
 import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, type ChainDocument } from '../shared/schema/chain';
 import { ChainDocumentError, parseChainDocument } from '../shared/schema/parse-chain';
-import { writeResultJson, writeSweepTable, type Write } from './cli/stream-sweep';
+import { ByteSink } from './cli/byte-sink';
+import { writeResultJson, writeSweepTable } from './cli/stream-sweep';
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 import { modeReportText, modesText } from './cli/mode-text';
 
@@ -248,10 +249,11 @@ function timingText(endedAt: number): string {
   return lines.join('\n') + '\n';
 }
 
-/** Runs the CLI, writing its output through `write` (a sweep in chunks, as it is formatted). */
-function run(argv: string[], write: Write): void {
+/** Runs the CLI, writing its output into `out` (a sweep row by row, as it is formatted). */
+function run(argv: string[], out: ByteSink): void {
+  const write = (text: string) => out.text(text);
   const o = parseArgs(argv);
-  if (o.timing) process.on('exit', () => process.stderr.write(timingText(performance.now())));
+  if (o.timing) process.on('exit', () => writeSync(2, timingText(performance.now())));
   const catalogue = STAGE_DEFINITIONS;
   if (o.listTypes) return write(listTypes(catalogue, o.json) + '\n');
   const full = readDocument(readJson(o.file!), o.file!);
@@ -280,7 +282,7 @@ function run(argv: string[], write: Write): void {
     if (result.plan) write(`\n${planText(result.plan)}\n`);
     if (sweep) {
       write('\nSweep\n');
-      writeSweepTable(sweep, write);
+      writeSweepTable(sweep, out);
     }
   } catch (e) {
     if (e instanceof ChainValidationError) {
@@ -297,12 +299,22 @@ function run(argv: string[], write: Write): void {
   }
 }
 
+/**
+ * Standard output goes through a buffer written with writeSync, standard error straight to
+ * its descriptor: neither loads Node's streams, which would cost every run their start-up.
+ */
 function main(): void {
+  const out = new ByteSink(1);
   try {
-    run(process.argv.slice(2), (text) => process.stdout.write(text));
+    run(process.argv.slice(2), out);
+    out.flush();
   } catch (e) {
+    out.flush();
     if (e instanceof CliError) {
-      (e.code === 0 ? process.stdout : process.stderr).write(e.message + '\n');
+      if (e.code === 0) {
+        out.text(e.message + '\n');
+        out.flush();
+      } else writeSync(2, e.message + '\n');
       process.exitCode = e.code;
       return;
     }

@@ -1,25 +1,31 @@
 /**
- * The CLI's sweep output, written in chunks as it is formatted, so a 100,000-point sweep
- * never sits in memory as one string: the table (fixed-width columns, so no pass over all
- * rows first) and the JSON form (the analysis without its sweep, then the sweep's arrays).
+ * The CLI's sweep output, written as it is formatted, so a 100,000-point sweep never sits in
+ * memory as one string: the table (fixed-width columns, so no pass over all rows first;
+ * bytes straight into the output buffer) and the JSON form (the analysis without its
+ * sweep, then the sweep's arrays, in chunks).
  */
 import type { AnalysisResult, SweepReport } from '../../shared/engine';
-import { fastFormatNumber } from './fast-number';
+import type { ByteSink } from './byte-sink';
+import { CELL_SLACK, putFixed3, putSignificant } from './number-bytes';
 
-/** Rows (or array elements) formatted per chunk before they are written. */
+/** Array elements formatted per chunk before they are written. */
 const CHUNK = 2000;
 
-/** Writes text out; the CLI passes stdout's writer (synchronous for files and pipes on Linux). */
+/** Writes text out; the CLI passes its output's writer. */
 export type Write = (text: string) => void;
 
 const DASH = '—';
-const dec3 = (v: number) => (Number.isFinite(v) ? v.toFixed(3) : DASH);
+const SPACE = 32;
+const NEWLINE = 10;
 
 /** Column width of every number column: wide enough for "-1.23456e+308" and the headers. */
 const WIDTH = 14;
 
-/** The sweep as a table: frequency, step-up at every node (dB), and Zin. */
-export function writeSweepTable(sweep: SweepReport, write: Write): void {
+/**
+ * The sweep as a table: frequency, step-up at every node (dB, three decimals), and Zin (six
+ * significant figures), written into the sink's buffer a row at a time.
+ */
+export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
   const header = [
     'f (Hz)',
     ...sweep.nodes.map((n) => `n${n.index} (dB)`),
@@ -27,27 +33,38 @@ export function writeSweepTable(sweep: SweepReport, write: Write): void {
     'Zin im (Ω)',
   ];
   const w = header.map((h) => Math.max(WIDTH, h.length));
-  write(
+  out.text(
     header
       .map((h, k) => (k === 0 ? h.padEnd(w[0]) : h.padStart(w[k])))
       .join('  ')
       .trimEnd() + '\n',
   );
   const P = sweep.freqsHz.length;
-  const nodes = sweep.nodes;
-  const zk = nodes.length + 1;
-  for (let i0 = 0; i0 < P; i0 += CHUNK) {
-    let text = '';
-    for (let i = i0; i < Math.min(P, i0 + CHUNK); i++) {
-      // One string per row, padded in place: no per-cell arrays on a 100,000-row table.
-      let row = fastFormatNumber(sweep.freqsHz[i], 9).padEnd(w[0]);
-      for (let k = 0; k < nodes.length; k++)
-        row += '  ' + dec3(nodes[k].stepUpDb[i]).padStart(w[k + 1]);
-      row += '  ' + fastFormatNumber(sweep.zIn.re[i], 6).padStart(w[zk]);
-      row += '  ' + fastFormatNumber(sweep.zIn.im[i], 6).padStart(w[zk + 1]);
-      text += row + '\n';
+  const f = sweep.freqsHz;
+  const stepUp = sweep.nodes.map((n) => n.stepUpDb);
+  const { re, im } = sweep.zIn;
+  const columns = stepUp.length;
+  const wz = w[columns + 1];
+  const wi = w[columns + 2];
+  // The most a row can take: every column, its gap, and the slack of a long fallback cell.
+  const rowBytes = w.reduce((a, b) => a + b + 2, 1) + CELL_SLACK * w.length;
+  for (let i = 0; i < P; i++) {
+    out.room(rowBytes);
+    const buf = out.buf;
+    let pos = putSignificant(buf, out.pos, f[i], 9, w[0], true);
+    for (let k = 0; k < columns; k++) {
+      buf[pos++] = SPACE;
+      buf[pos++] = SPACE;
+      pos = putFixed3(buf, pos, stepUp[k][i], w[k + 1], DASH);
     }
-    write(text);
+    buf[pos++] = SPACE;
+    buf[pos++] = SPACE;
+    pos = putSignificant(buf, pos, re[i], 6, wz);
+    buf[pos++] = SPACE;
+    buf[pos++] = SPACE;
+    pos = putSignificant(buf, pos, im[i], 6, wi);
+    buf[pos++] = NEWLINE;
+    out.pos = pos;
   }
 }
 

@@ -103,6 +103,31 @@ describe('analyze CLI', () => {
     ).toHaveLength(201);
   });
 
+  it('should write a long sweep through a pipe whole, and stop quietly when the reader leaves', () => {
+    const doc = JSON.parse(readFileSync(FIXTURE('listener-7mhz.json'), 'utf8')) as {
+      settings: { sweep: { points: number } };
+    };
+    doc.settings.sweep.points = 20_000; // about 3 MB of table: far more than a pipe holds
+    const long = join(dir, 'long.json');
+    writeFileSync(long, JSON.stringify(doc));
+    const whole = spawnSync(process.execPath, [bundle, long, '--sweep'], {
+      encoding: 'utf8',
+      timeout: 30_000,
+      maxBuffer: 1 << 26,
+    });
+    expect(whole.status).toBe(0);
+    expect(whole.stdout.split('\n').filter((l) => /^\d/.test(l)).length).toBeGreaterThanOrEqual(
+      20_000,
+    );
+    expect(whole.stdout.endsWith('\n')).toBe(true);
+    const cut = spawnSync('bash', ['-c', `"${process.execPath}" "${bundle}" "${long}" --sweep | head -n 1`], {
+      encoding: 'utf8',
+      timeout: 30_000,
+    }); // prettier-ignore
+    expect(cut.stdout).toMatch(/^Chain "7 MHz listener/);
+    expect(cut.stderr).toBe('');
+  });
+
   it('should print an ngspice netlist with --spice', () => {
     const { code, out } = cli(FIXTURE('listener-7mhz.json'), '--spice');
     expect(code).toBe(0);
