@@ -39,6 +39,8 @@ export interface AnalysisTask {
   mode?: string;
   /** Analyse every mode; the answer is a `ModesAnalysisDto`. */
   allModes?: boolean;
+  /** Significant figures of the engine's messages (flags, issues); absent: the engine's 3. */
+  figures?: number;
   /** `answer`: compress it so (the encoding the client accepts); none sends it as it is. */
   encoding?: AnswerEncoding;
 }

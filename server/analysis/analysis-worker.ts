@@ -9,6 +9,7 @@ import {
   ChainValidationError,
   type AnalysisResult,
 } from '../../shared/engine';
+import { withMessageFigures } from '../../shared/engine/core/format';
 import type { ModeAnalysisDto, ModesAnalysisDto } from '../../shared/schema/api';
 import { sweepToColumns, type AnalysisDto } from '../../shared/schema/sweep-columns';
 import { runDesignOp } from '../design/design-ops';
@@ -72,7 +73,12 @@ function runWhole(task: AnalysisTask): AnalysisOutcome {
   }
 }
 
+/** The thread's job, its messages written to the figures the client asked for. */
 export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
+  return withMessageFigures(task.figures, () => runTask(task));
+}
+
+function runTask(task: AnalysisTask): AnalysisOutcome {
   if (task.want === 'design') return runDesign(task);
   if (task.want === 'result') return runWhole(task);
   if (task.want === 'shared') return runShared(task);

@@ -32,7 +32,7 @@ async function analyze(
   nodes: readonly number[] | undefined,
   workspaceId: string | undefined,
   plan: boolean | 'full' = false,
-  modes: { mode?: string; allModes?: boolean } = {},
+  modes: { mode?: string; allModes?: boolean; figures?: number } = {},
 ) {
   // Every mode is a whole analysis of its own.
   assertWithinBudget(doc, modes.allModes ? Math.max(1, doc.modes?.length ?? 0) : 1);
@@ -45,6 +45,7 @@ async function analyze(
     ...(nodes ? { nodes } : {}),
     plan,
     ...(modes.allModes ? { allModes: true } : modes.mode ? { mode: modes.mode } : {}),
+    ...(modes.figures ? { figures: modes.figures } : {}),
     encoding: answerEncoding(req),
   });
   if (outcome.kind === 'refused') {
@@ -71,6 +72,7 @@ export function analysisRouter(em: EntityManager): Router {
     await analyze(em, req, res, body.document, traces, body.nodes, body.workspaceId, body.plan, {
       ...(body.mode ? { mode: body.mode } : {}),
       allModes: body.allModes,
+      ...(body.figures ? { figures: body.figures } : {}),
     });
   });
   router.get('/catalogue', requireUser, (_req, res) => {

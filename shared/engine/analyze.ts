@@ -7,6 +7,7 @@ import type { ChainDocument } from '../schema/chain';
 import { buildChain, type BuildOptions, type BuiltChain } from './core/build';
 import { assertFiniteFigures } from './core/finite-figures';
 import { CAUTION_TEXT, raiseFlags } from './core/flags';
+import { withMessageFigures } from './core/format';
 import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
@@ -31,6 +32,11 @@ export interface AnalyzeOptions extends BuildOptions {
   plan?: boolean | 'full';
   /** Stage types to accept (default: the product's stage catalogue). */
   catalogue?: readonly StageDefinition[];
+  /**
+   * Significant figures of the flag sentences and validation issues (2..8; default 3), so
+   * they match the figures the user reads elsewhere.
+   */
+  figures?: number;
 }
 
 /**
@@ -93,6 +99,10 @@ export function analyzeBuilt(
  * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
  */
 export function analyzeChain(doc: ChainDocument, options: AnalyzeOptions = {}): AnalysisResult {
+  return withMessageFigures(options.figures, () => analyzeAtFigures(doc, options));
+}
+
+function analyzeAtFigures(doc: ChainDocument, options: AnalyzeOptions): AnalysisResult {
   const catalogue = options.catalogue ?? defaultCatalogue();
   const built = buildChain(doc, catalogue, options);
   // The full plan charts spurs as the chain really tunes, by its marked gang (if any).

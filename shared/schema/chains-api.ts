@@ -140,6 +140,13 @@ export const analysisRequestSchema = z.object({
   mode: modeIdField.optional(),
   /** Analyse every mode: the answer is a `ModesAnalysisDto` (`mode` is then ignored). */
   allModes: z.boolean().default(false),
+  /** Significant figures of the flag sentences and validation issues (default 3). */
+  figures: z
+    .number({ error: 'figures must be a whole number from 2 to 8' })
+    .int('figures must be a whole number from 2 to 8')
+    .min(2, 'figures must be a whole number from 2 to 8')
+    .max(8, 'figures must be a whole number from 2 to 8')
+    .optional(),
 });
 
 /** One mode's analysis in an every-mode answer: its result, or why it was refused. */

@@ -39,6 +39,28 @@ describe('analysis', () => {
     expect(res.body.sweep).toBeUndefined();
   });
 
+  it('should write the flag sentences to the figures the client asks for', async () => {
+    const doc = chainDocumentSchema.parse(fixtureChain());
+    const three = analyzeChainForTest(doc)!.flags.map((f) => f.message);
+    const five = analyzeChainForTest(doc, 5)!.flags.map((f) => f.message);
+    expect(five).not.toEqual(three); // the fixture has a sentence whose figures show the change
+    const res = await send(viewer, 'post', '/api/analysis', { document: doc, sweep: false, figures: 5 }); // prettier-ignore
+    expect(res.status).toBe(200);
+    expect(res.body.flags.map((f: { message: string }) => f.message)).toEqual(five);
+    const plain = await send(viewer, 'post', '/api/analysis', { document: doc, sweep: false });
+    expect(plain.body.flags.map((f: { message: string }) => f.message)).toEqual(three);
+  });
+
+  it.each([1, 9, 2.5, '4'])('should answer 422 for figures %p', async (figures) => {
+    const doc = fixtureChain();
+    const res = await send(viewer, 'post', '/api/analysis', { document: doc, figures });
+    expect(res.status).toBe(422);
+    expect(res.body.error).toBe('invalid');
+    expect(res.body.details).toContainEqual(
+      expect.objectContaining({ path: 'figures', message: 'figures must be a whole number from 2 to 8' }), // prettier-ignore
+    );
+  });
+
   it('should answer 422 with the engine issues for a stage type it does not know', async () => {
     const doc = fixtureChain();
     doc.stages[1] = { ...doc.stages[1], type: 'no-such-stage-type' };

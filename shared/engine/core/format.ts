@@ -5,8 +5,31 @@
 import { formatEngineering } from '../../units/format';
 import type { UnitKind } from '../types';
 
+/** Significant figures of the engine's messages when the caller asks for none (and for the CLI). */
+export const DEFAULT_MESSAGE_FIGURES = 3;
+
+// The figures the messages of the analysis under way are written with. The engine is
+// synchronous and a thread runs one analysis at a time, so a value set for one call
+// (withMessageFigures) cannot leak into another.
+let messageFigures = DEFAULT_MESSAGE_FIGURES;
+
+/**
+ * Runs `work` with the engine's messages (flags, validation issues) written to `figures`
+ * significant figures; absent keeps the default. The previous value is restored after.
+ */
+export function withMessageFigures<T>(figures: number | undefined, work: () => T): T {
+  if (figures === undefined) return work();
+  const before = messageFigures;
+  messageFigures = figures;
+  try {
+    return work();
+  } finally {
+    messageFigures = before;
+  }
+}
+
 /** A number to `digits` significant figures without trailing zeros ("2.5", "182", "0.17"). */
-export function formatNumber(value: number, digits = 3): string {
+export function formatNumber(value: number, digits = messageFigures): string {
   if (!Number.isFinite(value)) return String(value);
   if (value === 0) return '0';
   return String(Number(value.toPrecision(digits)));
@@ -17,7 +40,7 @@ export function formatNumber(value: number, digits = 3): string {
  * engineering formatter of the project (shared/units) writes it, so messages, the CLI
  * and the screens spell values alike.
  */
-export function formatQuantity(value: number, unit: UnitKind, digits = 3): string {
+export function formatQuantity(value: number, unit: UnitKind, digits = messageFigures): string {
   return formatEngineering(value, unit, digits);
 }
 

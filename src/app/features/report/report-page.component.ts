@@ -20,6 +20,7 @@ import type { ChainDocument } from '../../../../shared/schema/chain';
 import { exportFileName } from '../../../../shared/io/export-name';
 import { ChainsApi } from '../../core/api/chains.api';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
+import { significantFigures } from '../../core/format/number-format';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { SessionStore } from '../../core/session/session.store';
@@ -212,10 +213,12 @@ export default class ReportPageComponent {
     let analysis: AnalysisResult | null = null;
     let analysisError: string | null = null;
     try {
+      // The flag sentences at the user's figures, as on the rest of the report.
+      const figures = significantFigures();
       analysis = await firstValueFrom(
         mode
-          ? this.analysisApi.analyse(chain.document, workspaceId, mode.id)
-          : this.analysisApi.analyse(resultsDocument, workspaceId),
+          ? this.analysisApi.analyse(chain.document, workspaceId, mode.id, figures)
+          : this.analysisApi.analyse(resultsDocument, workspaceId, undefined, figures),
       );
     } catch (error) {
       analysisError = describeHttpError(error);

@@ -27,12 +27,13 @@ export class AnalysisApi {
    * The analysis with the sweep traces the plots draw (the server sends them in columns; the
    * node phases stay on the server). The editor shows a refused chain (422) in its own
    * banner, so no snackbar for it. Without `mode`, send a document without modes to get
-   * the chain as written.
+   * the chain as written. `figures`: the significant figures of the flag sentences.
    */
   analyse(
     document: ChainDocument,
     workspaceId?: string,
     mode?: string,
+    figures?: number,
   ): Observable<AnalysisResult> {
     // The workspace lets the server find the data files the stages refer to; the server
     // applies the mode named (its values, the stages it leaves out, its path).
@@ -45,6 +46,8 @@ export class AnalysisApi {
           traces: PLOTTED_TRACES,
           ...(workspaceId ? { workspaceId } : {}),
           ...(mode ? { mode } : {}),
+          // The flag sentences are written on the server: at the user's figures, like the rest.
+          ...(figures ? { figures } : {}),
         },
         { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
       )

@@ -3,6 +3,10 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { TestBed } from '@angular/core/testing';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { PLOTTED_TRACES, type SweepColumnsDto } from '../../../../../shared/schema/sweep-columns';
+import {
+  applySignificantFigures,
+  DEFAULT_SIGNIFICANT_FIGURES,
+} from '../../../core/format/number-format';
 import { sampleDocument } from '../testing/catalogue-fixture';
 import { ANALYSIS_DEBOUNCE_MS, AnalysisRunner, EDIT_TO_RENDER_MEASURE } from './analysis-runner';
 
@@ -21,6 +25,7 @@ describe('AnalysisRunner', () => {
   });
 
   afterEach(() => {
+    applySignificantFigures(DEFAULT_SIGNIFICANT_FIGURES);
     http.verify();
     jest.useRealTimers();
   });
@@ -34,7 +39,12 @@ describe('AnalysisRunner', () => {
       jest.advanceTimersByTime(1);
       const req = http.expectOne('/api/analysis');
       expect(req.request.method).toBe('POST');
-      expect(req.request.body).toEqual({ document: doc('a'), sweep: true, traces: PLOTTED_TRACES });
+      expect(req.request.body).toEqual({
+        document: doc('a'),
+        sweep: true,
+        traces: PLOTTED_TRACES,
+        figures: DEFAULT_SIGNIFICANT_FIGURES,
+      });
       req.flush(result(1));
     });
 
@@ -47,6 +57,7 @@ describe('AnalysisRunner', () => {
         sweep: true,
         traces: PLOTTED_TRACES,
         workspaceId: 'w1',
+        figures: DEFAULT_SIGNIFICANT_FIGURES,
       });
       req.flush(result(1));
     });
@@ -85,6 +96,40 @@ describe('AnalysisRunner', () => {
       const req = http.expectOne('/api/analysis');
       expect(req.request.body.document.name).toBe('c');
       req.flush(result(1));
+    });
+  });
+
+  describe('the figures of the flag sentences', () => {
+    it("should send the user's figures and ask again for the same document when they change", () => {
+      applySignificantFigures(6);
+      runner.request(doc('a'), 'w1');
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      const first = http.expectOne('/api/analysis');
+      expect(first.request.body.figures).toBe(6);
+      first.flush(result(1));
+      TestBed.tick();
+      http.expectNone('/api/analysis'); // the same figures ask for nothing more
+
+      applySignificantFigures(3);
+      TestBed.tick();
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      const again = http.expectOne('/api/analysis');
+      expect(again.request.body).toEqual({
+        document: doc('a'),
+        sweep: true,
+        traces: PLOTTED_TRACES,
+        workspaceId: 'w1',
+        figures: 3,
+      });
+      again.flush(result(2));
+      expect(runner.result()?.f0Hz).toBe(2);
+    });
+
+    it('should ask for nothing when the figures change before any document was queued', () => {
+      applySignificantFigures(7);
+      TestBed.tick();
+      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      http.expectNone('/api/analysis');
     });
   });
 

@@ -3,15 +3,18 @@ import {
   afterNextRender,
   computed,
   DestroyRef,
+  effect,
   inject,
   Injectable,
   Injector,
   signal,
+  untracked,
 } from '@angular/core';
 import { catchError, debounceTime, map, of, Subject, switchMap, tap } from 'rxjs';
 import type { ChainIssue } from '../../../../../shared/engine/errors';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
+import { significantFigures } from '../../../core/format/number-format';
 import { describeHttpError } from '../../../core/http/error-message';
 import type { LiveAnalysis } from '../design/knob-messages';
 import { AnalysisApi } from './analysis-api';
@@ -39,6 +42,8 @@ interface Edit {
   workspaceId?: string;
   /** The mode to analyse (absent: the document as sent). */
   mode?: string;
+  /** The significant figures the server writes the flag sentences with (the user's setting). */
+  figures: number;
 }
 
 type Outcome =
@@ -56,6 +61,8 @@ export class AnalysisRunner {
   private readonly api = inject(AnalysisApi);
   private readonly injector = inject(Injector);
   private readonly edits = new Subject<Edit>();
+  /** The last document queued, re-sent when the figures setting changes. */
+  private lastEdit: Edit | null = null;
 
   private readonly resultState = signal<AnalysisResult | null>(null);
   private readonly pendingState = signal(false);
@@ -89,7 +96,7 @@ export class AnalysisRunner {
         tap(() => this.pendingState.set(true)),
         debounceTime(ANALYSIS_DEBOUNCE_MS),
         switchMap((edit) =>
-          this.api.analyse(edit.doc, edit.workspaceId, edit.mode).pipe(
+          this.api.analyse(edit.doc, edit.workspaceId, edit.mode, edit.figures).pipe(
             map((result): Outcome => ({ kind: 'result', result, editedAt: edit.at })),
             catchError((error: unknown) => of(toOutcome(error))),
           ),
@@ -97,11 +104,23 @@ export class AnalysisRunner {
       )
       .subscribe((outcome) => this.land(outcome));
     inject(DestroyRef).onDestroy(() => subscription.unsubscribe());
+    // A new figures setting re-asks for the latest document, so its flag sentences follow.
+    effect(() => {
+      const figures = significantFigures();
+      const last = untracked(() => this.lastEdit);
+      if (last && last.figures !== figures) this.send({ ...last, figures, at: markEdit() });
+    });
   }
 
   /** Queues `doc` for analysis (in `mode`); call on every change of the document or mode. */
   request(doc: ChainDocument, workspaceId?: string, mode?: string): void {
-    this.edits.next({ doc, at: markEdit(), workspaceId, ...(mode ? { mode } : {}) });
+    const figures = significantFigures();
+    this.send({ doc, at: markEdit(), workspaceId, ...(mode ? { mode } : {}), figures });
+  }
+
+  private send(edit: Edit): void {
+    this.lastEdit = edit;
+    this.edits.next(edit);
   }
 
   /** Lays a turning value's live figures over the result (null: show the server's alone). */
