@@ -3,6 +3,7 @@ import {
   createShareLinkSchema,
   exportQuerySchema,
   sendChainSchema,
+  sharedChainQuerySchema,
   type SharedChainDto,
   type ShareLinkDto,
 } from '../../shared/schema/api';
@@ -141,6 +142,8 @@ export function sharedRouter(services: Services): Router {
 
   router.get('/:token', async (req, res) => {
     const chain = (await linkOf(req)).chain;
+    // The reader's significant figures, for the flag sentences (absent: the engine's own).
+    const { figures: digits } = parseOr422(sharedChainQuerySchema, req.query, 'query');
     const dataFiles = await loadDataFiles(em, chain.document, chain.workspace.id);
     // The analyses (the chain's, and each mode's) run on the thread pool under the analysis
     // budgets; a chain over them or one the engine refuses is still shown, with the reason
@@ -166,6 +169,7 @@ export function sharedRouter(services: Services): Router {
         ...(dataFiles ? { dataFiles } : {}),
         want: 'shared',
         traces: [], // unused: a shared link's result carries the whole sweep
+        ...(digits ? { figures: digits } : {}),
       });
       if (outcome.kind !== 'json') throw new Error(`analysis thread answered ${outcome.kind}`);
       figures = outcome.json;

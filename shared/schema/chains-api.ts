@@ -118,6 +118,20 @@ const modeIdField = z
   .min(1, "mode must be the id of one of the chain's modes")
   .max(40, "mode must be the id of one of the chain's modes (at most 40 characters)");
 
+const FIGURES_MESSAGE = 'figures must be a whole number from 2 to 8';
+
+/**
+ * The significant figures the engine writes its messages (flag sentences, validation
+ * issues) with, as the user's setting offers them: 2 to 8. `number` is `z.number` for a JSON
+ * body, `z.coerce.number` for a query string.
+ */
+export function messageFiguresField(number: typeof z.number | typeof z.coerce.number) {
+  return number({ error: FIGURES_MESSAGE })
+    .int(FIGURES_MESSAGE)
+    .min(2, FIGURES_MESSAGE)
+    .max(8, FIGURES_MESSAGE);
+}
+
 export const analysisRequestSchema = z.object({
   document: chainDocumentSchema,
   /** Include the frequency sweep in the answer. */
@@ -141,12 +155,7 @@ export const analysisRequestSchema = z.object({
   /** Analyse every mode: the answer is a `ModesAnalysisDto` (`mode` is then ignored). */
   allModes: z.boolean().default(false),
   /** Significant figures of the flag sentences and validation issues (default 3). */
-  figures: z
-    .number({ error: 'figures must be a whole number from 2 to 8' })
-    .int('figures must be a whole number from 2 to 8')
-    .min(2, 'figures must be a whole number from 2 to 8')
-    .max(8, 'figures must be a whole number from 2 to 8')
-    .optional(),
+  figures: messageFiguresField(z.number).optional(),
 });
 
 /** One mode's analysis in an every-mode answer: its result, or why it was refused. */

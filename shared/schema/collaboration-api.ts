@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { email } from './account-fields';
 import { chainDocumentSchema } from './chain';
+import { messageFiguresField } from './chains-api';
 
 // ------------------------------------------------------------------ sharing
 export const createShareLinkSchema = z.object({
@@ -19,6 +20,10 @@ export interface ShareLinkDto {
   createdAt: string;
   expiresAt: string | null;
 }
+/** GET /api/shared/:token?figures=4: the flag sentences at the reader's significant figures. */
+export const sharedChainQuerySchema = z.object({
+  figures: messageFiguresField(z.coerce.number).optional(),
+});
 /** GET /api/shared/:token: a chain for someone without an account, read-only. */
 export interface SharedChainDto {
   name: string;

@@ -9,7 +9,9 @@ import {
   signIn,
   type Client,
 } from './support/agents';
+import { chainDocumentSchema } from '../../shared/schema/chain';
 import { fixtureChain } from './support/chain-fixture';
+import { analyzeChainForTest } from './support/engine';
 import { recordMail } from './support/mail';
 import { createTestContext, type TestContext } from './support/test-db';
 
@@ -85,6 +87,22 @@ describe('read-only links', () => {
     const netlist = await request(ctx.app).get(`/api/shared/${token}/export?format=spice`);
     expect(netlist.status).toBe(200);
     expect(netlist.headers['content-disposition']).toContain('test-tank-into-a-detector.cir');
+  });
+
+  it("should write the flag sentences at the reader's figures, and refuse figures out of range", async () => {
+    const made = await send(editor, 'post', `/api/chains/${chainId}/share-links`, {});
+    const token = tokenOf(made.body.url);
+    const doc = chainDocumentSchema.parse(fixtureChain());
+    const six = analyzeChainForTest(doc, 6)!.flags.map((f) => f.message);
+    expect(six).not.toEqual(analyzeChainForTest(doc)!.flags.map((f) => f.message));
+    const res = await request(ctx.app).get(`/api/shared/${token}?figures=6`);
+    expect(res.status).toBe(200);
+    expect(res.body.analysis.flags.map((f: { message: string }) => f.message)).toEqual(six);
+    for (const figures of ['9', '1', '2.5', 'four']) {
+      const bad = await request(ctx.app).get(`/api/shared/${token}?figures=${figures}`);
+      expect([figures, bad.status]).toEqual([figures, 422]);
+      expect(bad.body.message).toContain('figures must be a whole number from 2 to 8');
+    }
   });
 
   it('should answer 404 right after the link is revoked', async () => {

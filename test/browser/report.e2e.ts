@@ -13,7 +13,7 @@ import type { AnalysisResult } from '../../shared/engine/types';
 import type { ChainDto } from '../../shared/schema/api';
 import { formatEngineering } from '../../shared/units/format';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
-import { api, savedAnalysis } from './helpers/api';
+import { api, DEFAULT_FIGURES, savedAnalysis } from './helpers/api';
 import { describeAxe, seriousAxeViolations } from './helpers/axe';
 import { openChainNamed } from './helpers/chains';
 import { flat, pdfPageSize, pdfText, printPdf, reportReady } from './helpers/pdf';
@@ -69,9 +69,11 @@ describe('printable report', () => {
     const text = pdfText(file);
     expect(text).toContain(CHAIN);
     for (const flag of analysis.flags) expect(text).toContain(flat(flag.message));
-    // A budget figure: the rms voltage at the detector's input node, as the budget writes it.
+    // A budget figure: the rms voltage at the detector's input node, as the budget writes it
+    // (a result: at the default figures, its trailing zeros kept).
     const last = analysis.nodes[analysis.nodes.length - 1];
-    expect(text).toContain(flat(`${formatEngineering(last.vRms, 'volt')} rms`));
+    const vRms = formatEngineering(last.vRms, 'volt', DEFAULT_FIGURES, true);
+    expect(text).toContain(flat(`${vRms} rms`));
     expect(text).toContain('Cautions');
     expect(text).toContain('licensed practice');
     await tab.close();

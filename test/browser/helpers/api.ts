@@ -16,16 +16,25 @@ export async function api<T>(
   return (res.status() === 204 ? undefined : await res.json()) as T;
 }
 
-/** The saved chain and its analysis (with the sweep), asked of the API on its own. */
+/** The app's significant figures when the user has chosen none (the demo accounts keep it). */
+export const DEFAULT_FIGURES = 4;
+
+/**
+ * The saved chain and its analysis (with the sweep), asked of the API on its own. The flag
+ * sentences are written at `figures` significant figures, as the app asks for them at the
+ * user's setting.
+ */
 export async function savedAnalysis(
   page: Page,
   chainId: string,
+  figures = DEFAULT_FIGURES,
 ): Promise<{ chain: ChainDto; analysis: AnalysisResult }> {
   const chain = await api<ChainDto>(page, 'get', `/api/chains/${chainId}`);
   const analysis = await api<AnalysisResult>(page, 'post', '/api/analysis', {
     document: chain.document,
     sweep: true,
     workspaceId: chain.workspaceId,
+    figures,
   });
   return { chain, analysis };
 }

@@ -85,8 +85,10 @@ export class ColleaguesApi {
   revokeShareLink(chainId: string, linkId: string): Observable<unknown> {
     return this.http.delete(`/api/chains/${enc(chainId)}/share-links/${enc(linkId)}`);
   }
-  shared(token: string, context?: HttpContext): Observable<SharedChainDto> {
-    return this.http.get<SharedChainDto>(`/api/shared/${enc(token)}`, { context });
+  /** A shared chain and its analyses; `figures`: the significant figures of the flag sentences. */
+  shared(token: string, context?: HttpContext, figures?: number): Observable<SharedChainDto> {
+    const params = figures ? { figures } : undefined;
+    return this.http.get<SharedChainDto>(`/api/shared/${enc(token)}`, { context, params });
   }
   /** The catalogue entries of a shared chain's stage types (names and units), signed out too. */
   sharedCatalogue(token: string, context?: HttpContext): Observable<StageTypeInfo[]> {

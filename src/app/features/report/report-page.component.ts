@@ -175,7 +175,8 @@ export default class ReportPageComponent {
 
   private async fromLink(token: string, modeId?: string): Promise<ReportSource> {
     const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
-    const shared = await firstValueFrom(this.colleagues.shared(token, context));
+    const figures = significantFigures();
+    const shared = await firstValueFrom(this.colleagues.shared(token, context, figures));
     // The link's own catalogue: a signed-out reader sees names and units too.
     const types = await firstValueFrom(this.colleagues.sharedCatalogue(token, context));
     this.types.set(new Map(types.map((t) => [t.type, t])));

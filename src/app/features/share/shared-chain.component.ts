@@ -16,6 +16,7 @@ import { firstValueFrom } from 'rxjs';
 import type { AnalysisResult, StageTypeInfo } from '../../../../shared/engine/types';
 import type { SharedChainDto } from '../../../../shared/schema/api';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
+import { significantFigures } from '../../core/format/number-format';
 import { describeHttpError } from '../../core/http/error-message';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { CautionBannerComponent } from '../editor/cautions/caution-banner.component';
@@ -273,7 +274,8 @@ export default class SharedChainComponent {
   private async load(token: string): Promise<void> {
     try {
       const context = new HttpContext().set(SKIP_ERROR_SNACKBAR, [404]);
-      const shared = await firstValueFrom(this.api.shared(token, context));
+      // The flag sentences at the reader's figures, as every other figure on the page.
+      const shared = await firstValueFrom(this.api.shared(token, context, significantFigures()));
       const types = await firstValueFrom(this.api.sharedCatalogue(token, context));
       this.types.set(new Map(types.map((t) => [t.type, t])));
       this.shared.set(shared);

@@ -23,6 +23,7 @@ import {
   type StageInstance,
 } from '../../../../../shared/schema/chain';
 import { parseQuantity } from '../../../../../shared/units';
+import { significantFigures } from '../../../core/format/number-format';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
 import { QuantityFieldComponent, type QuantityEdit } from '../params/quantity-field.component';
 import { themePalette } from '../results/plot-theme';
@@ -76,14 +77,25 @@ export class PlanViewComponent {
 
   protected readonly state = toSignal(
     toObservable(
-      computed(() => ({ doc: this.document(), wid: this.store.chain()?.workspaceId ?? null })),
+      computed(() => ({
+        doc: this.document(),
+        wid: this.store.chain()?.workspaceId ?? null,
+        // The server writes a refusal's values at the user's figures, as the screen does.
+        digits: significantFigures(),
+      })),
     ).pipe(
       debounceTime(150),
-      switchMap(({ doc, wid }) =>
+      switchMap(({ doc, wid, digits }) =>
         this.http
           .post<AnalysisResult>(
             '/api/analysis',
-            { document: doc, sweep: false, plan: 'full', ...(wid ? { workspaceId: wid } : {}) },
+            {
+              document: doc,
+              sweep: false,
+              plan: 'full',
+              figures: digits,
+              ...(wid ? { workspaceId: wid } : {}),
+            },
             { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) },
           )
           .pipe(
