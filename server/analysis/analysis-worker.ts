@@ -16,11 +16,19 @@ import { runDesignOp } from '../design/design-ops';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
 import { encodeAnswer } from './answer-encoding';
 import { engineRefusal } from './engine-errors';
+import { answerWithSweepJson } from './sweep-json';
 import { runExport, runShared } from './thread-jobs';
 
 function toDto(result: AnalysisResult, task: AnalysisTask): AnalysisDto {
   const { sweep: full, ...rest } = result;
   return full ? { ...rest, sweep: sweepToColumns(full, task.traces, task.nodes) } : rest;
+}
+
+/** The answer's JSON bytes, the sweep's columns written by hand (./sweep-json.ts). */
+function answerBytes(result: AnalysisResult, task: AnalysisTask): Uint8Array {
+  const { sweep: full, ...rest } = result;
+  if (!full) return Buffer.from(JSON.stringify(rest), 'utf8');
+  return answerWithSweepJson(JSON.stringify(rest), full, task.traces, task.nodes);
 }
 
 /** Every mode's analysis; a mode the engine refuses carries its reason, the others still run. */
@@ -101,7 +109,7 @@ function runTask(task: AnalysisTask): AnalysisOutcome {
       const count = result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error');
       return { kind: 'flag-count', count: count.length };
     }
-    return { kind: 'answer', ...encodeAnswer(JSON.stringify(toDto(result, task)), task.encoding) };
+    return { kind: 'answer', ...encodeAnswer(answerBytes(result, task), task.encoding) };
   } catch (err) {
     const refused = engineRefusal(err);
     if (refused) return refused;

@@ -27,13 +27,18 @@ export function answerEncoding(req: Request): AnswerEncoding | undefined {
   return best === 'br' || best === 'gzip' ? best : undefined;
 }
 
-/** The answer's bytes in `encoding` (unless too small to gain), and the encoding used. */
+/**
+ * The answer's bytes in `encoding` (unless too small to gain), and the encoding used. The
+ * body is always a buffer of its own, so `json` may be a view of a reused one.
+ */
 export function encodeAnswer(
-  json: string,
+  json: string | Uint8Array,
   encoding: AnswerEncoding | undefined,
 ): { body: Uint8Array; encoding?: AnswerEncoding } {
-  const plain = Buffer.from(json, 'utf8');
-  if (!encoding || plain.length < MIN_COMPRESSED_BYTES) return { body: plain };
+  const plain = typeof json === 'string' ? Buffer.from(json, 'utf8') : json;
+  if (!encoding || plain.length < MIN_COMPRESSED_BYTES) {
+    return { body: typeof json === 'string' ? plain : Buffer.from(plain) };
+  }
   const body =
     encoding === 'br'
       ? brotliCompressSync(plain, {

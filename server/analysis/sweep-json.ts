@@ -1,0 +1,166 @@
+/**
+ * The sweep columns written straight to JSON bytes, byte for byte what
+ * `JSON.stringify(sweepToColumns(sweep, traces, nodes))` gives, at a fraction of its cost:
+ * each value is rounded to an integer mantissa and its digits written by hand, rather than
+ * rounded to a double that JSON.stringify then prints with its shortest-round-trip search
+ * (together most of an analysis thread's time on a 2,001-point answer).
+ *
+ * Why the bytes match: `roundSignificant` returns m / 10^s (or m · 10^-s) for an integer
+ * mantissa m of at most 15 digits. A decimal of at most 15 significant digits is the only
+ * one that names its double (DBL_DIG is 15), so the shortest form JSON prints is m's
+ * digits with the decimal point placed s digits from the right and trailing zeros dropped;
+ * below 10^15, m · 10^-s is an exact integer. JSON switches to exponent form below 1e-6;
+ * such values, those from 10^15 up, and shifts beyond the table go through
+ * `roundSignificant` and JSON.stringify.
+ */
+import type { SweepReport } from '../../shared/engine/types';
+import {
+  FREQUENCY_DIGITS,
+  SWEEP_DIGITS,
+  roundSignificant,
+  type SweepTrace,
+} from '../../shared/schema/sweep-columns';
+
+const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
+
+const USUAL_BYTES = 1 << 18;
+/** Grows as needed; reused between answers (one analysis at a time per thread). */
+let out = Buffer.allocUnsafe(USUAL_BYTES);
+let at = 0;
+const digitsScratch = new Uint8Array(24);
+
+const COMMA = 44;
+const DOT = 46;
+const MINUS = 45;
+const ZERO = 48;
+
+function room(bytes: number): void {
+  if (at + bytes <= out.length) return;
+  const bigger = Buffer.allocUnsafe(Math.max(out.length * 2, at + bytes));
+  out.copy(bigger, 0, 0, at);
+  out = bigger;
+}
+
+function ascii(text: string): void {
+  room(text.length);
+  at += out.write(text, at, 'latin1');
+}
+
+/** Writes `v` as JSON prints roundSignificant(v, digits). */
+function writeRounded(v: number, digits: number): void {
+  if (v === 0 || !Number.isFinite(v)) return ascii(v === 0 ? '0' : 'null');
+  const a = Math.abs(v);
+  const shift = digits - 1 - Math.floor(Math.log10(a));
+  // JSON's exponent forms, and shifts the fast path has no exact power of ten for.
+  if (a < 2e-6 || a >= 1e15 || shift >= POW10.length) {
+    return ascii(JSON.stringify(roundSignificant(v, digits)));
+  }
+  // The same arithmetic as roundSignificant, so the same mantissa (Math.round's halves
+  // round towards +∞, which is why the sign goes in before rounding).
+  const m = shift >= 0 ? Math.round(v * POW10[shift]) : Math.round(v / POW10[-shift]);
+  if (m === 0) return ascii('0');
+  room(48);
+  if (m < 0) out[at++] = MINUS;
+  // The mantissa's digits, least significant first (in 32-bit integers when they fit).
+  let len = 0;
+  if (m < 2 ** 31 && m > -(2 ** 31)) {
+    for (let n = (m < 0 ? -m : m) | 0; n > 0;) {
+      const q = (n / 10) | 0;
+      digitsScratch[len++] = n - q * 10;
+      n = q;
+    }
+  } else {
+    for (let n = Math.abs(m); n > 0;) {
+      const q = Math.floor(n / 10);
+      digitsScratch[len++] = n - q * 10;
+      n = q;
+    }
+  }
+  if (shift <= 0) {
+    for (let i = len - 1; i >= 0; i--) out[at++] = ZERO + digitsScratch[i];
+    for (let i = 0; i < -shift; i++) out[at++] = ZERO;
+    return;
+  }
+  // Trailing zeros among the fraction's digits are not printed.
+  let low = 0;
+  while (low < shift && digitsScratch[low] === 0) low++;
+  if (len <= shift) {
+    out[at++] = ZERO;
+    out[at++] = DOT;
+    for (let i = shift; i > len; i--) out[at++] = ZERO;
+    for (let i = len - 1; i >= low; i--) out[at++] = ZERO + digitsScratch[i];
+    return;
+  }
+  for (let i = len - 1; i >= shift; i--) out[at++] = ZERO + digitsScratch[i];
+  if (low === shift) return;
+  out[at++] = DOT;
+  for (let i = shift - 1; i >= low; i--) out[at++] = ZERO + digitsScratch[i];
+}
+
+function writeColumn(values: ArrayLike<number>, digits: number): void {
+  ascii('[');
+  for (let i = 0; i < values.length; i++) {
+    if (i > 0) {
+      room(1);
+      out[at++] = COMMA;
+    }
+    writeRounded(values[i], digits);
+  }
+  ascii(']');
+}
+
+function writeColumns(key: string, columns: ArrayLike<number>[]): void {
+  ascii(`,"${key}":[`);
+  columns.forEach((c, i) => {
+    if (i > 0) ascii(',');
+    writeColumn(c, SWEEP_DIGITS);
+  });
+  ascii(']');
+}
+
+function writeOne(key: string, values: ArrayLike<number>): void {
+  ascii(`,"${key}":`);
+  writeColumn(values, SWEEP_DIGITS);
+}
+
+/**
+ * The API's JSON answer as UTF-8 bytes: `head` (JSON text of an object without its sweep)
+ * with the sweep's columns added as its last member, `sweep`, exactly as
+ * JSON.stringify({ ...head, sweep: sweepToColumns(sweep, traces, nodes) }) writes it.
+ * The bytes are a view of a buffer the next call overwrites: compress or copy them first.
+ */
+export function answerWithSweepJson(
+  head: string,
+  sweep: SweepReport,
+  traces: readonly SweepTrace[],
+  nodes?: readonly number[],
+): Uint8Array {
+  const want = new Set(traces);
+  const chosen = nodes ? sweep.nodes.filter((n) => nodes.includes(n.index)) : sweep.nodes;
+  at = 0;
+  // A maximum-size answer's buffer is not kept for the usual ones.
+  if (out.length > 16 * USUAL_BYTES) out = Buffer.allocUnsafe(USUAL_BYTES);
+  const open = head.length > 2 ? head.slice(0, -1) + ',' : '{';
+  room(Buffer.byteLength(open));
+  at += out.write(open, at, 'utf8');
+  ascii(`"sweep":{"digits":${SWEEP_DIGITS},"freqsHz":`);
+  writeColumn(sweep.freqsHz, FREQUENCY_DIGITS);
+  ascii(`,"nodes":${JSON.stringify(chosen.map((n) => n.index))}`);
+  if (want.has('stepUp'))
+    writeColumns(
+      'stepUpDb',
+      chosen.map((n) => n.stepUpDb),
+    );
+  if (want.has('phase'))
+    writeColumns(
+      'phaseDeg',
+      chosen.map((n) => n.phaseDeg),
+    );
+  if (want.has('zIn')) {
+    writeOne('zInRe', sweep.zIn.re);
+    writeOne('zInIm', sweep.zIn.im);
+  }
+  if (want.has('returnLoss')) writeOne('returnLossDb', sweep.returnLossDb);
+  ascii('}}');
+  return out.subarray(0, at);
+}
