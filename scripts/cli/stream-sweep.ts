@@ -5,11 +5,14 @@
  * sweep, then the sweep's arrays, in chunks).
  */
 import type { AnalysisResult, SweepReport } from '../../shared/engine';
+import { sweepColumns } from '../../shared/engine/core/sweep-report';
 import type { ByteSink } from './byte-sink';
 import { CELL_SLACK, putFixed3, putSignificant } from './number-bytes';
 
 /** Array elements formatted per chunk before they are written. */
 const CHUNK = 2000;
+/** Table rows whose step-ups are computed together. */
+const ROWS = 512;
 
 /** Writes text out; the CLI passes its output's writer. */
 export type Write = (text: string) => void;
@@ -39,32 +42,37 @@ export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
       .join('  ')
       .trimEnd() + '\n',
   );
-  const P = sweep.freqsHz.length;
-  const f = sweep.freqsHz;
-  const stepUp = sweep.nodes.map((n) => n.stepUpDb);
-  const { re, im } = sweep.zIn;
-  const columns = stepUp.length;
+  const { freqs: f, zinRe: re, zinIm: im, stepUpDb } = sweepColumns(sweep);
+  const P = f.length;
+  const columns = sweep.nodes.length;
   const wz = w[columns + 1];
   const wi = w[columns + 2];
   // The most a row can take: every column, its gap, and the slack of a long fallback cell.
   const rowBytes = w.reduce((a, b) => a + b + 2, 1) + CELL_SLACK * w.length;
-  for (let i = 0; i < P; i++) {
-    out.room(rowBytes);
-    const buf = out.buf;
-    let pos = putSignificant(buf, out.pos, f[i], 9, w[0], true);
-    for (let k = 0; k < columns; k++) {
+  // Each node's step-up a block of rows at a time: no whole trace is ever made.
+  const stepUp = Array.from({ length: columns }, () => new Float64Array(Math.min(P, ROWS)));
+  for (let i0 = 0; i0 < P; i0 += ROWS) {
+    const n = Math.min(ROWS, P - i0);
+    for (let k = 0; k < columns; k++) stepUpDb(k, i0, n, stepUp[k]);
+    for (let r = 0; r < n; r++) {
+      const i = i0 + r;
+      out.room(rowBytes);
+      const buf = out.buf;
+      let pos = putSignificant(buf, out.pos, f[i], 9, w[0], true);
+      for (let k = 0; k < columns; k++) {
+        buf[pos++] = SPACE;
+        buf[pos++] = SPACE;
+        pos = putFixed3(buf, pos, stepUp[k][r], w[k + 1], DASH);
+      }
       buf[pos++] = SPACE;
       buf[pos++] = SPACE;
-      pos = putFixed3(buf, pos, stepUp[k][i], w[k + 1], DASH);
+      pos = putSignificant(buf, pos, re[i], 6, wz);
+      buf[pos++] = SPACE;
+      buf[pos++] = SPACE;
+      pos = putSignificant(buf, pos, im[i], 6, wi);
+      buf[pos++] = NEWLINE;
+      out.pos = pos;
     }
-    buf[pos++] = SPACE;
-    buf[pos++] = SPACE;
-    pos = putSignificant(buf, pos, re[i], 6, wz);
-    buf[pos++] = SPACE;
-    buf[pos++] = SPACE;
-    pos = putSignificant(buf, pos, im[i], 6, wi);
-    buf[pos++] = NEWLINE;
-    out.pos = pos;
   }
 }
 

@@ -5,7 +5,11 @@
  * spreading) as ordinary data.
  */
 import { analyzeChain, type BuiltChain, type NodeAnalysis } from '../../shared/engine';
-import { lazySweepReport, sweepNanShares } from '../../shared/engine/core/sweep-report';
+import {
+  lazySweepReport,
+  sweepColumns,
+  sweepNanShares,
+} from '../../shared/engine/core/sweep-report';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 const opts = { catalogue: TEST_CATALOGUE, sweep: true };
@@ -93,6 +97,38 @@ describe('the sweep report', () => {
     expect(Object.getOwnPropertyDescriptor(sweep.nodes[1], 'stepUpDb')).toHaveProperty('value');
     sweep.nodes[0].phaseDeg = [1, 2];
     expect(sweep.nodes[0].phaseDeg).toEqual([1, 2]);
+  });
+});
+
+describe('a long sweep', () => {
+  it('is read in place from its one-off workspace and stays its own after later analyses', () => {
+    // Two nodes × 7 arrays × 320,000 points: above the 4 Mi doubles kept between analyses.
+    const long = (rLoad: number) => {
+      const doc = seriesRlc(rLoad, 50);
+      return { ...doc, settings: { ...doc.settings, sweep: { ...doc.settings.sweep, points: 320_000 } } }; // prettier-ignore
+    };
+    const first = analyzeChain(long(200), opts).sweep!;
+    const later = analyzeChain(long(10), opts).sweep!;
+    const i = 223_456;
+    const f = first.freqsHz[i];
+    expect(first.zIn.re[i]).toBeCloseTo(branch(f).re + 200, 8);
+    expect(later.zIn.re[i]).toBeCloseTo(branch(f).re + 10, 8);
+    expect(first.nodes[1].stepUpDb[i]).not.toBeCloseTo(later.nodes[1].stepUpDb[i], 3);
+  });
+});
+
+describe('sweepColumns', () => {
+  it('gives the traces’ own numbers a block at a time, for the engine’s report and a plain one', () => {
+    const sweep = analyzeChain(seriesRlc(200, 50), opts).sweep!;
+    for (const report of [sweep, JSON.parse(JSON.stringify(sweep)) as typeof sweep]) {
+      const cols = sweepColumns(report);
+      const block = new Float64Array(30);
+      cols.stepUpDb(1, 40, 30, block);
+      expect(Array.from(block)).toEqual(sweep.nodes[1].stepUpDb.slice(40, 70));
+      expect(Array.from(cols.freqs)).toEqual(sweep.freqsHz);
+      expect(Array.from(cols.zinRe)).toEqual(sweep.zIn.re);
+      expect(Array.from(cols.zinIm)).toEqual(sweep.zIn.im);
+    }
   });
 });
 

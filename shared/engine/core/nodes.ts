@@ -98,8 +98,23 @@ export function sharedWorkspace(key: string, built: BuiltChain, points: number):
   if (ws && fitsWorkspace(ws, built, points)) return ws;
   const fresh = createNodeAnalysis(built, points);
   if ((built.sections.length + 1) * points * 7 <= KEEP_DOUBLES) kept.set(key, fresh);
-  else kept.delete(key);
+  else {
+    kept.delete(key);
+    oneOff.add(fresh);
+  }
   return fresh;
+}
+
+/** Workspaces {@link sharedWorkspace} handed out without keeping them (too large). */
+const oneOff = new WeakSet<NodeAnalysis>();
+
+/**
+ * Whether `na` is a workspace no later analysis will reuse: one {@link sharedWorkspace} made
+ * for a single use because it was too large to keep. What it holds may be read in place
+ * instead of copied (anything else may be overwritten by the next analysis).
+ */
+export function isOneOffWorkspace(na: NodeAnalysis): boolean {
+  return oneOff.has(na);
 }
 
 /** Whether `ws` is a workspace of the right shape for `built` over `points` frequencies. */

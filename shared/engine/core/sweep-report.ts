@@ -6,14 +6,14 @@
  * arctangent and a magnitude per node and point cost more than the whole node analysis, and
  * most readers take only some traces (the API sends the plotted ones, the phase rarely).
  * What they are computed from is copied out of the node analysis at once (its workspace is
- * reused by the next analysis), so a trace read later is the one of this analysis. A trace
- * is an ordinary enumerable property of a plain object: JSON, structured clone (worker
- * messages), spreading and deep equality all read it, and once read, or assigned, it is a
- * plain data property.
+ * reused by the next analysis; a one-off workspace is read in place), so a trace read later
+ * is the one of this analysis. A trace is an ordinary enumerable property of a plain object:
+ * JSON, structured clone (worker messages), spreading and deep equality all read it, and
+ * once read, or assigned, it is a plain data property.
  */
 import type { SweepReport } from '../types';
 import type { BuiltChain } from './build';
-import type { NodeAnalysis } from './nodes';
+import { isOneOffWorkspace, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, abs, atan2, hypot, log10 } = Math;
@@ -21,15 +21,62 @@ const isFiniteNumber = Number.isFinite;
 
 const db20 = (r: number) => 20 * log10(r);
 
-/** What a lazily computed sweep report was copied from, for questions that need no trace. */
+/** What a lazily computed sweep report was made from, for questions that need no trace. */
 interface SweepSource {
   P: number;
-  v: Float64Array;
+  /** Per user node, the voltage's real and imaginary parts over the sweep. */
+  vRe: Float64Array[];
+  vIm: Float64Array[];
   emf: Float64Array;
+  freqs: Float64Array;
   zinRe: Float64Array;
   zinIm: Float64Array;
 }
 const sources = new WeakMap<SweepReport, SweepSource>();
+
+/** Step-up at point i, dB: |V|/|Es| (the one formula of the trace and its readers). */
+function stepUpAt(re: Float64Array, im: Float64Array, emf: Float64Array, i: number): number {
+  return db20(hypot(re[i], im[i]) / abs(emf[i]));
+}
+
+/**
+ * The sweep's columns for a writer that streams a long sweep: the frequencies and Zin as
+ * the arrays the report was made from, and each node's step-up computed a block at a time,
+ * the same numbers as the report's traces, without making a whole trace.
+ */
+export interface SweepColumns {
+  freqs: ArrayLike<number>;
+  zinRe: ArrayLike<number>;
+  zinIm: ArrayLike<number>;
+  /** Step-up of user node `node` (its index in `nodes`) at points from … from+count−1 into out[0 …]. */
+  stepUpDb(node: number, from: number, count: number, out: Float64Array): void;
+}
+
+export function sweepColumns(sweep: SweepReport): SweepColumns {
+  const src = sources.get(sweep);
+  if (!src) {
+    return {
+      freqs: sweep.freqsHz,
+      zinRe: sweep.zIn.re,
+      zinIm: sweep.zIn.im,
+      stepUpDb: (node, from, count, out) => {
+        const t = sweep.nodes[node].stepUpDb;
+        for (let k = 0; k < count; k++) out[k] = t[from + k];
+      },
+    };
+  }
+  const { vRe, vIm, emf } = src;
+  return {
+    freqs: src.freqs,
+    zinRe: src.zinRe,
+    zinIm: src.zinIm,
+    stepUpDb: (node, from, count, out) => {
+      const re = vRe[node];
+      const im = vIm[node];
+      for (let k = 0; k < count; k++) out[k] = stepUpAt(re, im, emf, from + k);
+    },
+  };
+}
 
 /** Share of the values that are NaN. */
 function nanShare(values: ArrayLike<number>): number {
@@ -51,12 +98,14 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
       stepUp: sweep.nodes.map((n) => nanShare(n.stepUpDb)),
     };
   }
-  const { P, v, emf } = src;
+  const { P, emf } = src;
   const stepUp = sweep.nodes.map((_, n) => {
+    const re = src.vRe[n];
+    const im = src.vIm[n];
     let lost = 0;
     for (let i = 0; i < P; i++) {
-      const vr = v[2 * n * P + i];
-      const vi = v[(2 * n + 1) * P + i];
+      const vr = re[i];
+      const vi = im[i];
       const e = emf[i];
       // x·0 is 0 exactly for finite x (NaN otherwise): the common case decided in one test,
       // without a square root.
@@ -109,40 +158,39 @@ export function lazySweepReport(
 ): SweepReport {
   const P = na.points;
   const flats = built.userNodeFlat;
-  // The copy: per user node the voltage (re, im), then the EMF, then Zin and Zsrc at node 0.
   const U = flats.length;
-  // One buffer for the whole copy (one allocation): the voltages, then six single traces.
-  const all = new Float64Array((2 * U + 6) * P);
-  const v = all.subarray(0, 2 * U * P);
-  for (let n = 0; n < U; n++) {
-    const k = flats[n] * P;
-    v.set(na.vRe.subarray(k, k + P), 2 * n * P);
-    v.set(na.vIm.subarray(k, k + P), (2 * n + 1) * P);
-  }
-  const trace = (from: Float64Array, slot: number) => {
-    const t = all.subarray((2 * U + slot) * P, (2 * U + slot + 1) * P);
-    t.set(from.subarray(0, P));
+  // A workspace the next analysis may reuse is copied (one allocation: per user node the
+  // voltage, then six single traces); a one-off one (a long sweep) is read in place, which
+  // spares a second copy of the largest arrays of the analysis.
+  const all = isOneOffWorkspace(na) ? null : new Float64Array((2 * U + 6) * P);
+  const trace = (from: Float64Array, row: number, slot: number) => {
+    const view = from.subarray(row * P, (row + 1) * P);
+    if (!all) return view;
+    const t = all.subarray(slot * P, (slot + 1) * P);
+    t.set(view);
     return t;
   };
-  const emf = trace(na.emf, 0);
-  const freqs = trace(na.freqs, 1);
-  const zinRe = trace(na.zinRe, 2);
-  const zinIm = trace(na.zinIm, 3);
-  const zsrcRe = trace(na.zsrcRe, 4);
-  const zsrcIm = trace(na.zsrcIm, 5);
+  const vRe = Array.from(flats, (flat, n) => trace(na.vRe, flat, 2 * n));
+  const vIm = Array.from(flats, (flat, n) => trace(na.vIm, flat, 2 * n + 1));
+  const emf = trace(na.emf, 0, 2 * U);
+  const freqs = trace(na.freqs, 0, 2 * U + 1);
+  const zinRe = trace(na.zinRe, 0, 2 * U + 2);
+  const zinIm = trace(na.zinIm, 0, 2 * U + 3);
+  const zsrcRe = trace(na.zsrcRe, 0, 2 * U + 4);
+  const zsrcIm = trace(na.zsrcIm, 0, 2 * U + 5);
 
   const nodes = Array.from(flats, (_, index) => {
-    const re = 2 * index * P;
-    const im = re + P;
+    const re = vRe[index];
+    const im = vIm[index];
     const node = { index } as SweepReport['nodes'][number];
     lazy(node, 'stepUpDb', () => {
       const out = new Array<number>(P);
-      for (let i = 0; i < P; i++) out[i] = db20(hypot(v[re + i], v[im + i]) / abs(emf[i]));
+      for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
       return out;
     });
     lazy(node, 'phaseDeg', () => {
       const out = new Array<number>(P);
-      for (let i = 0; i < P; i++) out[i] = (atan2(v[im + i], v[re + i]) * 180) / PI;
+      for (let i = 0; i < P; i++) out[i] = (atan2(im[i], re[i]) * 180) / PI;
       return out;
     });
     return node;
@@ -162,6 +210,6 @@ export function lazySweepReport(
     }
     return out;
   });
-  sources.set(report, { P, v, emf, zinRe, zinIm });
+  sources.set(report, { P, vRe, vIm, emf, freqs, zinRe, zinIm });
   return report;
 }
