@@ -1,0 +1,118 @@
+/** Rows of the role matrix: analyses, the design assistants and studies. */
+import { readers, editors, signedIn, doc, BAND_SPEC, type Row } from './callers';
+
+export const ANALYSIS_ROWS: Row[] = [
+  {
+    name: 'chain analysis',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/analysis?sweep=1`,
+    expect: readers(200),
+  },
+  {
+    name: 'chain analysis of every mode',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/analysis?modes=all`,
+    expect: readers(200),
+  },
+  {
+    name: 'analysis',
+    method: 'post',
+    url: () => '/api/analysis',
+    body: () => ({ document: doc(), sweep: false }),
+    expect: signedIn(200),
+  },
+  { name: 'catalogue', method: 'get', url: () => '/api/catalogue', expect: signedIn(200) },
+  {
+    name: 'design: tune candidates',
+    method: 'post',
+    url: () => '/api/design/tune/candidates',
+    body: () => ({ document: doc(), resonator: { stageId: 'tank', label: 'tank' } }),
+    expect: signedIn(200),
+  },
+  {
+    name: 'design: tune',
+    method: 'post',
+    url: () => '/api/design/tune',
+    body: (f) => ({
+      document: doc(),
+      workspaceId: f.wid,
+      resonator: { stageId: 'tank', label: 'tank' },
+      element: { stageId: 'tank', key: 'c' },
+      targetHz: 1e6,
+    }),
+    expect: readers(200),
+  },
+  {
+    name: 'design: tune the pair (not a pair: 422)',
+    method: 'post',
+    url: () => '/api/design/tune-pair',
+    body: () => ({ document: doc(), stageId: 'tank', targetHz: 1e6, bandwidthHz: 2e4 }),
+    expect: signedIn(422),
+  },
+  {
+    name: 'design: match here',
+    method: 'post',
+    url: () => '/api/design/match-here',
+    body: () => ({ document: doc(), afterStageId: 'src' }),
+    expect: signedIn(200),
+  },
+  {
+    name: 'design: snap',
+    method: 'post',
+    url: () => '/api/design/snap',
+    body: () => ({ document: doc(), series: 'E12' }),
+    expect: signedIn(200),
+  },
+  {
+    name: 'design: parts',
+    method: 'post',
+    url: () => '/api/design/parts',
+    body: () => ({ document: doc(), stageId: 'tank' }),
+    expect: signedIn(200),
+  },
+  {
+    name: 'list studies',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies`,
+    expect: readers(200),
+  },
+  {
+    name: 'start a study',
+    method: 'post',
+    url: (f) => `/api/chains/${f.chainId}/studies`,
+    body: () => BAND_SPEC,
+    expect: editors(202),
+  },
+  {
+    name: 'read a study',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.doneStudyId}`,
+    expect: readers(200),
+  },
+  {
+    name: 'study progress events',
+    method: 'get',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.doneStudyId}/events`,
+    expect: readers(200),
+  },
+  {
+    name: 'cancel a study',
+    method: 'post',
+    url: (f) => `/api/chains/${f.chainId}/studies/${f.runningStudyId}/cancel`,
+    expect: editors(202),
+  },
+  {
+    name: 'analysis with workspace files',
+    method: 'post',
+    url: () => '/api/analysis',
+    body: (f) => ({ document: doc(), sweep: false, workspaceId: f.wid }),
+    expect: readers(200),
+  },
+  {
+    name: 'export',
+    method: 'post',
+    url: () => '/api/export',
+    body: () => ({ document: doc(), format: 'touchstone', z0: 75 }),
+    expect: signedIn(200),
+  },
+];
