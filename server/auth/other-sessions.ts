@@ -1,5 +1,6 @@
 import type pg from 'pg';
 import { SESSION_TABLE } from '../mikro-orm.config';
+import { forgetCachedSessions } from './session-cache';
 
 /**
  * Ends every stored session of `userId` except `keepSid` (the caller's own, when the
@@ -17,5 +18,6 @@ export async function endSessionsOf(
     `delete from ${table} where sess -> 'passport' ->> 'user' = $1 and sid <> $2`,
     [userId, keepSid ?? ''],
   );
+  forgetCachedSessions();
   return result.rowCount ?? 0;
 }

@@ -13,6 +13,7 @@ import type { Services } from '../common/services';
 import { UserSchema } from '../users/user.entity';
 import { hashPassword, verifyPassword } from '../users/password';
 import { readAnonToken, storeAnonToken } from './anon-csrf';
+import { CachedSessionStore } from './session-cache';
 import '../common/request-types';
 import { CSRF_ERROR_CODE } from './csrf-code';
 
@@ -35,7 +36,8 @@ declare module 'express-session' {
 /**
  * Session middleware backed by PostgreSQL. A request writes the session row only when the
  * session changed (sign-in, CSRF token) or rolls (see `rollSession`), not on every request:
- * no `rolling`, and the store's touch is off.
+ * no `rolling`, and the store's touch is off. Nor does it read the row on every request:
+ * a read stays fresh for a couple of seconds.
  */
 export function sessionMiddleware(services: Services): RequestHandler {
   const PgStore = connectPgSimple(session);
@@ -46,14 +48,18 @@ export function sessionMiddleware(services: Services): RequestHandler {
     resave: false,
     saveUninitialized: false,
     rolling: false,
-    store: new PgStore({
-      pool: services.sessionPool,
-      tableName: SESSION_TABLE,
-      schemaName: config.dbSchema,
-      disableTouch: true,
-      // Jest must be able to exit: no pruning timer in tests.
-      pruneSessionInterval: config.pruneSessions ? 15 * 60 : false,
-    }),
+    // Reads cached for a moment in-process (./session-cache.ts): one read every few seconds
+    // for a busy client rather than one per request.
+    store: new CachedSessionStore(
+      new PgStore({
+        pool: services.sessionPool,
+        tableName: SESSION_TABLE,
+        schemaName: config.dbSchema,
+        disableTouch: true,
+        // Jest must be able to exit: no pruning timer in tests.
+        pruneSessionInterval: config.pruneSessions ? 15 * 60 : false,
+      }),
+    ),
     cookie: {
       httpOnly: true,
       sameSite: 'lax',

@@ -3,6 +3,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import type { AccountDeletedDto } from '../../shared/schema/api';
 import { ChainSchema } from '../chains/chain.entity';
 import { ConflictError, NotFoundError } from '../common/errors';
+import { forgetCachedSessions } from '../auth/session-cache';
 import { SESSION_TABLE } from '../mikro-orm.config';
 import { MembershipSchema } from '../workspaces/membership.entity';
 import { WorkspaceSchema } from '../workspaces/workspace.entity';
@@ -11,10 +12,16 @@ import { UserSchema, type User } from './user.entity';
 /** Display name an erased account keeps, so chains and revisions still show an author. */
 export const DELETED_ACCOUNT_NAME = 'Deleted account';
 
-/** Ends every session of `userId` (rows of the session store whose passport user it is). */
+/**
+ * Ends every session of `userId` (rows of the session store whose passport user it is).
+ * The cached reads are dropped here and again when the transaction ends (the callers): a
+ * read in between still sees the row, but also the account's deactivation, which signs
+ * the session out on its next request.
+ */
 async function endSessions(em: EntityManager, userId: string, schema?: string): Promise<void> {
   const table = schema ? `"${schema.replace(/"/g, '""')}"."${SESSION_TABLE}"` : SESSION_TABLE;
   await em.execute(`delete from ${table} where sess->'passport'->>'user' = ?`, [userId]);
+  forgetCachedSessions();
 }
 
 async function lockTarget(em: EntityManager, admin: User, userId: string): Promise<User> {
@@ -44,12 +51,14 @@ export async function setAccountActive(
   active: boolean,
   schema?: string,
 ): Promise<User> {
-  return em.transactional(async (tem) => {
+  const user = await em.transactional(async (tem) => {
     const user = await lockTarget(tem, admin, userId);
     user.deactivatedAt = active ? null : (user.deactivatedAt ?? new Date());
     if (!active) await endSessions(tem, user.id, schema);
     return user;
   });
+  if (!active) forgetCachedSessions();
+  return user;
 }
 
 /**
@@ -65,7 +74,7 @@ export async function deleteAccount(
   userId: string,
   schema?: string,
 ): Promise<AccountDeletedDto> {
-  return em.transactional(async (tem) => {
+  const report = await em.transactional(async (tem) => {
     const user = await lockTarget(tem, admin, userId);
     const mine = await tem.find(MembershipSchema, { user: user.id }, { populate: ['workspace'] });
     const report: AccountDeletedDto = { deletedWorkspaces: [], leftWorkspaces: [] };
@@ -111,4 +120,6 @@ export async function deleteAccount(
     user.deletedAt = now;
     return report;
   });
+  forgetCachedSessions();
+  return report;
 }

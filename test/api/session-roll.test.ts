@@ -4,6 +4,7 @@
  */
 import pg from 'pg';
 import { SESSION_MS, SESSION_ROLL_MS } from '../../server/auth/session';
+import { forgetCachedSessions } from '../../server/auth/session-cache';
 import { SESSION_TABLE } from '../../server/mikro-orm.config';
 import { createUser, signIn, type Client } from './support/agents';
 import { createTestContext, testDatabaseUrl, type TestContext } from './support/test-db';
@@ -62,6 +63,8 @@ describe('session roll', () => {
        where sid = $1`,
       [sid, shift],
     );
+    // As everything that changes session rows in SQL does: the server's cached read goes.
+    forgetCachedSessions();
     const aged = await row();
     const res = await client.agent.get('/api/me');
     expect(res.status).toBe(200);
