@@ -18,14 +18,19 @@
  * written by its block form (`Section.fill`, one monomorphic loop, nothing boxed) into a
  * small scratch that stays in cache while the backward and forward passes read it. Memory
  * therefore grows with nodes × points for the results only, not with sections × points for
- * the matrices. With a reused workspace a run allocates nothing.
+ * the matrices. With a reused workspace a run allocates nothing. The per-point steps are
+ * written out in the block loops (node-steps.ts keeps them for single points): in a cold
+ * process, as the CLI's one analysis runs, an interpreted call per point costs more than
+ * its arithmetic.
  */
 import type { AbcdFill, ComplexFn, RealFn } from '../types';
 import type { BuiltChain } from './build';
+import { sourceStep } from './node-steps';
+
+export { backStep, forwardStep, sourceStep, voltageStep } from './node-steps';
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.
-const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
 const { max } = Math;
 
@@ -164,8 +169,8 @@ export function runNodeAnalysis(
 ): NodeAnalysis {
   const P = freqs.length;
   const na = ws && fitsWorkspace(ws, built, P) ? ws : createNodeAnalysis(built, P);
-  const f = na.freqs;
-  for (let i = 0; i < P; i++) f[i] = freqs[i];
+  // Copied natively: a loop here runs once per analysis, interpreted in a cold process.
+  na.freqs.set(freqs);
   for (let i0 = 0; i0 < P; i0 += BLOCK) runBlock(built, na, i0, Math.min(BLOCK, P - i0));
   return na;
 }
@@ -179,7 +184,7 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
   const B = m.length / (8 * N || 1);
 
   // Frequencies at every node and every section's ABCD at the frequency at its input.
-  for (let k = 0; k < n; k++) fNode[i0 + k] = na.freqs[i0 + k];
+  fNode.set(na.freqs.subarray(i0, i0 + n), i0);
   for (let j = 0; j < N; j++) {
     const s = sections[j];
     const at = j * P + i0;
@@ -197,11 +202,7 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
     zinRe[N * P + i0 + k] = t[2 * k];
     zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
-  for (let j = N - 1; j >= 0; j--) {
-    const out = j * P + i0;
-    const mj = 8 * j * B;
-    for (let k = 0; k < n; k++) backStep(m, mj + 8 * k, zinRe, zinIm, out + P + k, out + k);
-  }
+  for (let j = N - 1; j >= 0; j--) backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
 
   // Forward pass, source → load, and the voltage at the source terminal.
   const source = built.source.model;
@@ -212,161 +213,116 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
     zsrcIm[i0 + k] = t[2 * k + 1];
     sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, i0 + k, i0 + k);
   }
-  for (let j = 0; j < N; j++) {
-    const at = j * P + i0;
-    const mj = 8 * j * B;
-    for (let k = 0; k < n; k++) {
-      const o = mj + 8 * k;
-      forwardStep(m, o, zsrcRe, zsrcIm, at + k, at + P + k);
-      voltageStep(m, o, zinRe, zinIm, vRe, vIm, at + k, at + P + k);
-    }
-  }
+  for (let j = 0; j < N; j++) forwardSection(m, 8 * j * B, na, j * P + i0, P, n);
 }
 
 /**
- * The voltage at the source terminal (index `to`) from the EMF (`emf[e]`) and the source
- * impedance and Zin at node 0 (index `to`): V0 = e·Zin/(Zs + Zin); an open node gives e,
- * an open source 0 V.
+ * Zin at a section's input for a block of points (`at` its input node's first index):
+ * {@link backStep} written out in the loop, so a cold run (the CLI's one analysis) calls
+ * nothing per point; `x - x === 0` is Number.isFinite for numbers.
  */
-export function sourceStep(
-  emf: Float64Array,
-  zsRe: Float64Array,
-  zsIm: Float64Array,
-  zinRe: Float64Array,
-  zinIm: Float64Array,
-  vRe: Float64Array,
-  vIm: Float64Array,
-  e: number,
-  to: number,
+function backSection(
+  m: Float64Array,
+  mj: number,
+  re: Float64Array,
+  im: Float64Array,
+  at: number,
+  P: number,
+  n: number,
 ): void {
-  const em = emf[e];
-  const sr = zsRe[to];
-  const si = zsIm[to];
-  const z0r = zinRe[to];
-  const z0i = zinIm[to];
-  if (!finite(z0r) || !finite(z0i)) {
-    vRe[to] = em;
-    vIm[to] = 0;
-  } else if (!finite(sr) || !finite(si)) {
-    vRe[to] = 0;
-    vIm[to] = 0;
-  } else {
-    const dr = sr + z0r;
-    const di = si + z0i;
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const from = at + P + k;
+    const zr = re[from];
+    const zi = im[from];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (zr - zr === 0 && zi - zi === 0) {
+      nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
+      ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
+      dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
+      di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
+    } else {
+      nr = m[o];
+      ni = m[o + 1];
+      dr = m[o + 4];
+      di = m[o + 5];
+    }
     const d2 = dr * dr + di * di;
-    vRe[to] = (em * (z0r * dr + z0i * di)) / d2;
-    vIm[to] = (em * (z0i * dr - z0r * di)) / d2;
-  }
-}
-
-// The three steps across one section (ABCD at m[o … o+7]), shared with the single-point
-// probes. Arguments are arrays and indices only, so calling them boxes nothing.
-
-/**
- * Zin at the section's input (index `to`) from Zin at its output (`from`):
- * (A·Z + B)/(C·Z + D); an open output (non-finite Z) gives A/C, a zero denominator an open.
- */
-export function backStep(
-  m: Float64Array,
-  o: number,
-  re: Float64Array,
-  im: Float64Array,
-  from: number,
-  to: number,
-): void {
-  const zr = re[from];
-  const zi = im[from];
-  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-  if (finite(zr) && finite(zi)) {
-    nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-    ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-    dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-    di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-  } else {
-    nr = m[o];
-    ni = m[o + 1];
-    dr = m[o + 4];
-    di = m[o + 5];
-  }
-  const d2 = dr * dr + di * di;
-  if (d2 === 0) {
-    re[to] = OPEN;
-    im[to] = 0;
-  } else {
-    const inv = 1 / d2; // one division, two products
-    re[to] = (nr * dr + ni * di) * inv;
-    im[to] = (ni * dr - nr * di) * inv;
-  }
-}
-
-/** Zsrc at the section's output (`to`) from Zsrc at its input (`from`): (D·Z + B)/(C·Z + A). */
-export function forwardStep(
-  m: Float64Array,
-  o: number,
-  re: Float64Array,
-  im: Float64Array,
-  from: number,
-  to: number,
-): void {
-  const sr = re[from];
-  const si = im[from];
-  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-  if (finite(sr) && finite(si)) {
-    nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
-    ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
-    dr = m[o + 4] * sr - m[o + 5] * si + m[o];
-    di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
-  } else {
-    nr = m[o + 6];
-    ni = m[o + 7];
-    dr = m[o + 4];
-    di = m[o + 5];
-  }
-  const d2 = dr * dr + di * di;
-  if (d2 === 0) {
-    re[to] = OPEN;
-    im[to] = 0;
-  } else {
-    const inv = 1 / d2;
-    re[to] = (nr * dr + ni * di) * inv;
-    im[to] = (ni * dr - nr * di) * inv;
-  }
-}
-
-/**
- * V at the section's output (`to`) from V at its input (`from`): V/(A + B·Y) with
- * Y = 1/Zin(out) (0 when open; a shorted output or a dead input gives 0 V).
- */
-export function voltageStep(
-  m: Float64Array,
-  o: number,
-  zinRe: Float64Array,
-  zinIm: Float64Array,
-  vRe: Float64Array,
-  vIm: Float64Array,
-  from: number,
-  to: number,
-): void {
-  const ar = zinRe[to];
-  const ai = zinIm[to];
-  const vr = vRe[from];
-  const vi = vIm[from];
-  let er = m[o];
-  let ei = m[o + 1];
-  if (finite(ar) && finite(ai)) {
-    const a2 = ar * ar + ai * ai;
-    if (a2 === 0 || (vr === 0 && vi === 0)) {
-      vRe[to] = 0;
-      vIm[to] = 0;
-      return;
+    if (d2 === 0) {
+      re[at + k] = OPEN;
+      im[at + k] = 0;
+    } else {
+      const inv = 1 / d2;
+      re[at + k] = (nr * dr + ni * di) * inv;
+      im[at + k] = (ni * dr - nr * di) * inv;
     }
-    const ia = 1 / a2;
-    const yr = ar * ia;
-    const yi = -ai * ia;
-    er += m[o + 2] * yr - m[o + 3] * yi;
-    ei += m[o + 2] * yi + m[o + 3] * yr;
   }
-  const ie = 1 / (er * er + ei * ei);
-  vRe[to] = (vr * er + vi * ei) * ie;
-  vIm[to] = (vi * er - vr * ei) * ie;
+}
+
+/**
+ * Zsrc and V at a section's output for a block of points (`at` its input node's first
+ * index): {@link forwardStep} and {@link voltageStep} written out in the loop, as in
+ * {@link backSection}.
+ */
+function forwardSection(
+  m: Float64Array,
+  mj: number,
+  na: NodeAnalysis,
+  at: number,
+  P: number,
+  n: number,
+): void {
+  const { zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm } = na;
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const from = at + k;
+    const to = from + P;
+    // Zsrc at the output: (D·Z + B)/(C·Z + A).
+    const sr = zsrcRe[from];
+    const si = zsrcIm[from];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (sr - sr === 0 && si - si === 0) {
+      nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
+      ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
+      dr = m[o + 4] * sr - m[o + 5] * si + m[o];
+      di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
+    } else {
+      nr = m[o + 6];
+      ni = m[o + 7];
+      dr = m[o + 4];
+      di = m[o + 5];
+    }
+    const d2 = dr * dr + di * di;
+    if (d2 === 0) {
+      zsrcRe[to] = OPEN;
+      zsrcIm[to] = 0;
+    } else {
+      const inv = 1 / d2;
+      zsrcRe[to] = (nr * dr + ni * di) * inv;
+      zsrcIm[to] = (ni * dr - nr * di) * inv;
+    }
+    // V at the output: V/(A + B·Y), Y = 1/Zin(out).
+    const ar = zinRe[to];
+    const ai = zinIm[to];
+    const vr = vRe[from];
+    const vi = vIm[from];
+    let er = m[o];
+    let ei = m[o + 1];
+    if (ar - ar === 0 && ai - ai === 0) {
+      const a2 = ar * ar + ai * ai;
+      if (a2 === 0 || (vr === 0 && vi === 0)) {
+        vRe[to] = 0;
+        vIm[to] = 0;
+        continue;
+      }
+      const ia = 1 / a2;
+      const yr = ar * ia;
+      const yi = -ai * ia;
+      er += m[o + 2] * yr - m[o + 3] * yi;
+      ei += m[o + 2] * yi + m[o + 3] * yr;
+    }
+    const ie = 1 / (er * er + ei * ei);
+    vRe[to] = (vr * er + vi * ei) * ie;
+    vIm[to] = (vi * er - vr * ei) * ie;
+  }
 }

@@ -1,0 +1,156 @@
+/**
+ * The node analysis across one section at one point (ABCD at m[o … o+7]): the steps the
+ * single-point probes and the studies' judged sweeps take, and what the block loops of
+ * nodes.ts write out inline. Arguments are arrays and indices only, so calling them boxes
+ * nothing.
+ */
+
+// Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
+// hot loop is slow.
+const finite = Number.isFinite;
+const OPEN = Number.POSITIVE_INFINITY;
+
+/**
+ * The voltage at the source terminal (index `to`) from the EMF (`emf[e]`) and the source
+ * impedance and Zin at node 0 (index `to`): V0 = e·Zin/(Zs + Zin); an open node gives e,
+ * an open source 0 V.
+ */
+export function sourceStep(
+  emf: Float64Array,
+  zsRe: Float64Array,
+  zsIm: Float64Array,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  e: number,
+  to: number,
+): void {
+  const em = emf[e];
+  const sr = zsRe[to];
+  const si = zsIm[to];
+  const z0r = zinRe[to];
+  const z0i = zinIm[to];
+  if (!finite(z0r) || !finite(z0i)) {
+    vRe[to] = em;
+    vIm[to] = 0;
+  } else if (!finite(sr) || !finite(si)) {
+    vRe[to] = 0;
+    vIm[to] = 0;
+  } else {
+    const dr = sr + z0r;
+    const di = si + z0i;
+    const d2 = dr * dr + di * di;
+    vRe[to] = (em * (z0r * dr + z0i * di)) / d2;
+    vIm[to] = (em * (z0i * dr - z0r * di)) / d2;
+  }
+}
+
+/**
+ * Zin at the section's input (index `to`) from Zin at its output (`from`):
+ * (A·Z + B)/(C·Z + D); an open output (non-finite Z) gives A/C, a zero denominator an open.
+ */
+export function backStep(
+  m: Float64Array,
+  o: number,
+  re: Float64Array,
+  im: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const zr = re[from];
+  const zi = im[from];
+  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+  if (finite(zr) && finite(zi)) {
+    nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
+    ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
+    dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
+    di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
+  } else {
+    nr = m[o];
+    ni = m[o + 1];
+    dr = m[o + 4];
+    di = m[o + 5];
+  }
+  const d2 = dr * dr + di * di;
+  if (d2 === 0) {
+    re[to] = OPEN;
+    im[to] = 0;
+  } else {
+    const inv = 1 / d2; // one division, two products
+    re[to] = (nr * dr + ni * di) * inv;
+    im[to] = (ni * dr - nr * di) * inv;
+  }
+}
+
+/** Zsrc at the section's output (`to`) from Zsrc at its input (`from`): (D·Z + B)/(C·Z + A). */
+export function forwardStep(
+  m: Float64Array,
+  o: number,
+  re: Float64Array,
+  im: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const sr = re[from];
+  const si = im[from];
+  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+  if (finite(sr) && finite(si)) {
+    nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
+    ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
+    dr = m[o + 4] * sr - m[o + 5] * si + m[o];
+    di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
+  } else {
+    nr = m[o + 6];
+    ni = m[o + 7];
+    dr = m[o + 4];
+    di = m[o + 5];
+  }
+  const d2 = dr * dr + di * di;
+  if (d2 === 0) {
+    re[to] = OPEN;
+    im[to] = 0;
+  } else {
+    const inv = 1 / d2;
+    re[to] = (nr * dr + ni * di) * inv;
+    im[to] = (ni * dr - nr * di) * inv;
+  }
+}
+
+/**
+ * V at the section's output (`to`) from V at its input (`from`): V/(A + B·Y) with
+ * Y = 1/Zin(out) (0 when open; a shorted output or a dead input gives 0 V).
+ */
+export function voltageStep(
+  m: Float64Array,
+  o: number,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const ar = zinRe[to];
+  const ai = zinIm[to];
+  const vr = vRe[from];
+  const vi = vIm[from];
+  let er = m[o];
+  let ei = m[o + 1];
+  if (finite(ar) && finite(ai)) {
+    const a2 = ar * ar + ai * ai;
+    if (a2 === 0 || (vr === 0 && vi === 0)) {
+      vRe[to] = 0;
+      vIm[to] = 0;
+      return;
+    }
+    const ia = 1 / a2;
+    const yr = ar * ia;
+    const yi = -ai * ia;
+    er += m[o + 2] * yr - m[o + 3] * yi;
+    ei += m[o + 2] * yi + m[o + 3] * yr;
+  }
+  const ie = 1 / (er * er + ei * ei);
+  vRe[to] = (vr * er + vi * ei) * ie;
+  vIm[to] = (vi * er - vr * ei) * ie;
+}
