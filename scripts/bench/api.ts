@@ -4,9 +4,8 @@
  *   (2,001 points, the traces the editor asks for), paced at 200 requests/s for 60 s by
  *   autocannon in a second process (10 s with --quick);
  * - the answer's size on the wire (brotli or gzip, as a browser asks);
- * - /api/health latency while the largest analysis the budget allows runs;
- * - the first plot after opening the Plots tab, from the last browser run
- *   (test-results/first-plot.json, written by test/browser/plots.e2e.ts).
+ * - /api/health latency while the largest analysis the budget allows runs.
+ * (The first plot after opening the Plots tab is the editor section's, scripts/bench/editor.ts.)
  * Needs the database `npm start` set up (.data/dev.env) with its demo accounts; without it
  * the rows say "not measured".
  */
@@ -16,14 +15,13 @@ import http from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { median } from './measure';
-import { kib, ms, verdict, type BenchContext, type BenchSection } from './rows';
+import { kib, ms, verdict, type BenchSection } from './rows';
 
 const PORT = Number(process.env.CW_BENCH_API_PORT ?? 4391);
 const RATE = 200;
 const TARGET_P99_MS = 50;
 const TARGET_BYTES = 100 * 1024;
 const TARGET_HEALTH_MS = 50;
-const TARGET_FIRST_PLOT_MS = 400;
 /** The server's default stages × points budget (server/analysis/analysis-pool.ts). */
 const MAX_STAGE_POINTS = 1_000_000;
 const EDITOR = { email: 'editor@chainwright.test', password: 'demo-receiver-2026' };
@@ -160,21 +158,9 @@ async function healthDuringBig(session: Session, body: string) {
   return { latencies, big: await big };
 }
 
-function firstPlotRow(ctx: BenchContext): void {
-  const file = join(ctx.root, 'test-results', 'first-plot.json');
-  const figure = 'editor: first plot after opening Plots, median (last browser run)';
-  const target = `≤ ${TARGET_FIRST_PLOT_MS} ms`;
-  if (!existsSync(file))
-    return ctx.row(figure, 'not measured (run test/browser/plots.e2e.ts)', target);
-  const data = JSON.parse(readFileSync(file, 'utf8')) as { medianMs?: number };
-  if (typeof data.medianMs !== 'number') return ctx.row(figure, 'file has no medianMs', target);
-  ctx.row(figure, ms(data.medianMs), target, verdict(data.medianMs <= TARGET_FIRST_PLOT_MS));
-}
-
 export const apiSection: BenchSection = {
   name: 'api',
   async run(ctx) {
-    firstPlotRow(ctx);
     const url = databaseUrl(ctx.root);
     if (!url) return ctx.row('API', 'not measured: no database (run npm start once)', '—');
     const doc = JSON.parse(

@@ -225,6 +225,25 @@ describe('AnalysisResultsComponent', () => {
       expect(plotly.purged).toHaveLength(0);
     });
 
+    it('should redraw no plot for an edit the plots do not show, until its result lands', async () => {
+      await selectTab('Plots');
+      await fixture.whenStable();
+      expect(plotly.reacts).toHaveLength(4);
+      // A value typed into a stage: the document changes at once, the result only later.
+      const edited = sampleDocument();
+      edited.stages[2].values = { gainDb: 21 };
+      edited.name = 'Ten metre, second try';
+      host.document.set(edited);
+      await fixture.whenStable();
+      expect(plotly.reacts).toHaveLength(4);
+      // The sweep's scale is drawn: changing it redraws the plots.
+      const logScale = sampleDocument();
+      logScale.settings.sweep.scale = 'log';
+      host.document.set(logScale);
+      await fixture.whenStable();
+      expect(plotly.reacts).toHaveLength(8);
+    });
+
     it('should redraw only the step-up plot when a node is ticked', async () => {
       await selectTab('Plots');
       await fixture.whenStable();

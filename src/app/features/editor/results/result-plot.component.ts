@@ -14,9 +14,12 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import type { Config, Layout } from 'plotly.js-dist-min';
 import { PLOTLY_LOADER, type PlotlyApi } from './plotly-loader';
-import { measureFirstPlot } from './plot-timing';
+import { PlotDrawQueue } from './plot-draw-queue';
 import { retickUpdate } from './plot-axes';
 import type { PlotFigure } from './plot-traces';
+
+/** A figure, or a function that builds it when the plot's turn to draw comes. */
+export type PlotSource = PlotFigure | (() => PlotFigure);
 
 /** Plot heights are fixed so the page does not jump while Plotly loads. */
 const PLOT_HEIGHT_PX = 380;
@@ -33,7 +36,9 @@ const PLOT_CONFIG: Partial<Config> = {
 
 /**
  * One Plotly figure. Plotly is loaded on first render; each new figure is applied with
- * `Plotly.react`, which diffs against the plot on screen instead of rebuilding it.
+ * `Plotly.react`, which diffs against the plot on screen instead of rebuilding it. Drawings
+ * take turns through the page's `PlotDrawQueue`, plots in view first, and a figure given as
+ * a function is built only when its turn comes.
  */
 @Component({
   selector: 'cw-result-plot',
@@ -104,8 +109,11 @@ const PLOT_CONFIG: Partial<Config> = {
   `,
 })
 export class ResultPlotComponent {
-  /** Traces and layout to show; a new object redraws through `Plotly.react`. */
-  readonly figure = input.required<PlotFigure>();
+  /**
+   * Traces and layout to show, or a function building them; a new object (or function)
+   * redraws through `Plotly.react`.
+   */
+  readonly figure = input.required<PlotSource>();
   /** Accessible name of the plot (the figure's own title is drawn inside the plot). */
   readonly label = input.required<string>();
   /** How to read the plot, shown under it. */
@@ -119,7 +127,10 @@ export class ResultPlotComponent {
   // Loading and drawing count as pending work, so the app (and a test) is stable only
   // once the plot is on screen.
   private readonly pendingTasks = inject(PendingTasks);
+  private readonly queue = inject(PlotDrawQueue);
   private readonly plotly = signal<PlotlyApi | null>(null);
+  /** The figure last drawn (for the PNG and re-ticking), built from the source once. */
+  private drawnFigure: PlotFigure | null = null;
   private readonly failureText = signal('');
   protected readonly failure = this.failureText.asReadonly();
   protected readonly state = signal<'loading' | 'ready' | 'failed'>('loading');
@@ -150,32 +161,46 @@ export class ResultPlotComponent {
     });
 
     let listening = false;
+    // A pending task while a drawing waits for its turn (one, however often it is replaced),
+    // handed to the drawing when it starts.
+    let waiting: (() => void) | null = null;
     effect(() => {
       const plotly = this.plotly();
-      const figure = this.figure();
+      const source = this.figure();
       if (!plotly) return;
-      // Plotly writes later changes (zoomed ticks) into the axis objects it is given: copies,
-      // so the figure keeps the data's own ticks for a reset.
-      const { xaxis, yaxis } = figure.layout;
-      const layout = { ...figure.layout, xaxis: { ...xaxis }, yaxis: { ...yaxis }, height: PLOT_HEIGHT_PX }; // prettier-ignore
-      const drawn = this.pendingTasks.add();
-      const drawing = plotly.react(this.canvas().nativeElement, figure.data, layout, PLOT_CONFIG);
-      drawing
-        .then(
-          () => {
-            measureFirstPlot();
-            listening ||= this.retickOnZoom(plotly, this.canvas().nativeElement);
-            this.state.set('ready');
-          },
-          (error: unknown) => {
-            this.failureText.set(error instanceof Error ? error.message : String(error));
-            this.state.set('failed');
-          },
-        )
-        .finally(drawn);
+      waiting ??= this.pendingTasks.add();
+      const element = this.canvas().nativeElement;
+      this.queue.schedule(this, {
+        element,
+        draw: () => {
+          const drawn = waiting ?? (() => undefined);
+          waiting = null;
+          const figure = typeof source === 'function' ? source() : source;
+          this.drawnFigure = figure;
+          // Plotly writes later changes (zoomed ticks) into the axis objects it is given:
+          // copies, so the figure keeps the data's own ticks for a reset.
+          const { xaxis, yaxis } = figure.layout;
+          const layout = { ...figure.layout, xaxis: { ...xaxis }, yaxis: { ...yaxis }, height: PLOT_HEIGHT_PX }; // prettier-ignore
+          return plotly
+            .react(element, figure.data, layout, PLOT_CONFIG)
+            .then(
+              () => {
+                listening ||= this.retickOnZoom(plotly, element);
+                this.state.set('ready');
+              },
+              (error: unknown) => {
+                this.failureText.set(error instanceof Error ? error.message : String(error));
+                this.state.set('failed');
+              },
+            )
+            .finally(drawn);
+        },
+      });
     });
 
     destroyRef.onDestroy(() => {
+      this.queue.cancel(this);
+      waiting?.();
       resizeObserver?.disconnect();
       this.plotly()?.purge(this.canvas().nativeElement);
     });
@@ -191,8 +216,9 @@ export class ResultPlotComponent {
     const host = element as HTMLElement & { on?: (name: string, handler: Handler) => void };
     if (typeof host.on !== 'function') return false;
     host.on('plotly_relayout', (event) => {
-      const tickUnits = this.figure().tickUnits;
-      const update = tickUnits ? retickUpdate(event, tickUnits, this.figure().layout) : null;
+      const figure = this.drawnFigure;
+      const tickUnits = figure?.tickUnits;
+      const update = figure && tickUnits ? retickUpdate(event, tickUnits, figure.layout) : null;
       // Plotly takes dotted attribute paths here, which its types do not describe.
       if (update) void plotly.relayout(element, update as Partial<Layout>);
     });
@@ -201,9 +227,9 @@ export class ResultPlotComponent {
 
   protected downloadPng(): void {
     const plotly = this.plotly();
-    if (!plotly) return;
+    const figure = this.drawnFigure;
+    if (!plotly || !figure) return;
     const element = this.canvas().nativeElement;
-    const figure = this.figure();
     // The image is drawn from serialised SVG, which cannot use the page's web font; with
     // a system font both the layout and the picture use the same glyph widths, so the
     // legend entries do not overlap.

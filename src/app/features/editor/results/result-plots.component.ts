@@ -13,10 +13,11 @@ import { MatCheckboxModule } from '@angular/material/checkbox';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { chainReferenceOhm, exportFileName } from '../../../../../shared/io/export-name';
-import { smithReferenceOhm } from '../../../core/format/number-format';
+import { significantFigures, smithReferenceOhm } from '../../../core/format/number-format';
 import { engineering } from './format-quantity';
 import {
   type PlotContext,
+  type PlotFigure,
   defaultPlotNodes,
   imageFrequency,
   impedanceChartFigure,
@@ -26,7 +27,6 @@ import {
 } from './plot-traces';
 import { themePalette } from './plot-theme';
 import { ResultPlotComponent } from './result-plot.component';
-import { markPlotsOpened } from './plot-timing';
 
 /** The sweep plots: step-up at chosen nodes, input impedance, return loss and its chart. */
 @Component({
@@ -34,9 +34,7 @@ import { markPlotsOpened } from './plot-timing';
   imports: [MatCheckboxModule, ResultPlotComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    @let shown = figures();
-    @let stepUp = stepUpPlot();
-    @if (shown && stepUp) {
+    @if (context()) {
       <fieldset class="nodes">
         <legend>Nodes on the step-up plot</legend>
         @for (node of result().nodes; track node.index) {
@@ -50,25 +48,25 @@ import { markPlotsOpened } from './plot-timing';
       </fieldset>
       <div class="plots">
         <cw-result-plot
-          [figure]="stepUp"
+          [figure]="stepUpPlot()!"
           label="Voltage step-up versus frequency"
           hint="◇ marks each node's −3 dB points. Step-up is |V| relative to the source EMF."
           [fileName]="fileStem() + '_step-up'"
         />
         <cw-result-plot
-          [figure]="shown.impedance"
+          [figure]="impedancePlot()!"
           label="Input impedance, magnitude and phase"
           hint="The impedance the source sees: |Z| on the left scale, phase on the right."
           [fileName]="fileStem() + '_input-impedance'"
         />
         <cw-result-plot
-          [figure]="shown.returnLoss"
+          [figure]="returnLossPlot()!"
           label="Return loss at the input"
           hint="Against the conjugate of the source impedance; the dotted line is the chain's match target."
           [fileName]="fileStem() + '_return-loss'"
         />
         <cw-result-plot
-          [figure]="shown.chart"
+          [figure]="chartPlot()!"
           label="Input impedance chart"
           [hint]="chartHint()"
           [fileName]="fileStem() + '_impedance-chart'"
@@ -131,14 +129,22 @@ export class ResultPlotsComponent {
     () => new Map(this.result().nodes.map((n) => [n.index, `Node ${n.index} · ${n.after}`])),
   );
 
+  /** The settings the plots read from the document: an edit elsewhere redraws nothing. */
+  private readonly scale = computed(() => this.document().settings.sweep.scale);
+  private readonly matchTargetDb = computed(
+    () => this.document().settings.thresholds.matchReturnLossDb,
+  );
+
   protected readonly context = computed((): PlotContext | null => {
     this.themeRevision();
+    // Every figure writes its numbers to the user's significant figures.
+    significantFigures();
     const result = this.result();
     const sweep = result.sweep;
     if (!sweep || sweep.freqsHz.length < 2) return null;
     return {
       sweep,
-      scale: this.document().settings.sweep.scale,
+      scale: this.scale(),
       f0Hz: result.f0Hz,
       imageHz: imageFrequency(result),
       palette: themePalette(this.page),
@@ -146,32 +152,22 @@ export class ResultPlotsComponent {
     };
   });
 
-  // Separate from the other plots so ticking a node redraws only the step-up plot.
-  protected readonly stepUpPlot = computed(() => {
-    const ctx = this.context();
-    return ctx ? stepUpFigure(ctx, this.chosen()) : null;
-  });
+  // Each plot gets a builder, run when its turn to draw comes (plots below the fold wait for
+  // an idle moment), and a new builder when what its figure is made from changes. The
+  // step-up plot's own, so ticking a node redraws only that plot.
+  protected readonly stepUpPlot = this.builder(this.chosen, stepUpFigure);
+  protected readonly impedancePlot = this.builder(() => null, impedanceFigure);
+  protected readonly returnLossPlot = this.builder(this.matchTargetDb, returnLossFigure);
+  // Normalised to the reference the user chose (Account, default 50 Ω), not the source's
+  // resistance: a 10 MΩ loop would crowd the whole sweep into one corner of the chart.
+  protected readonly chartPlot = this.builder(smithReferenceOhm, impedanceChartFigure);
 
   protected readonly chartHint = computed(
     () =>
       `Normalised to ${engineering(smithReferenceOhm(), 'ohm')} (choose another reference under Account); ○ marks f0.`,
   );
 
-  protected readonly figures = computed(() => {
-    const ctx = this.context();
-    if (!ctx) return null;
-    return {
-      impedance: impedanceFigure(ctx),
-      returnLoss: returnLossFigure(ctx, this.document().settings.thresholds.matchReturnLossDb),
-      // Normalised to the reference the user chose (Account, default 50 Ω), not the source's
-      // resistance: a 10 MΩ loop would crowd the whole sweep into one corner of the chart.
-      chart: impedanceChartFigure(ctx, smithReferenceOhm()),
-    };
-  });
-
   constructor() {
-    // Created when the Plots tab opens (its content is lazy): the first-plot clock starts.
-    markPlotsOpened();
     // The shell switches themes with a class on <html>; follow it.
     const view = this.page.defaultView;
     if (view && 'MutationObserver' in view) {
@@ -179,6 +175,18 @@ export class ResultPlotsComponent {
       observer.observe(this.page.documentElement, { attributes: true, attributeFilter: ['class'] });
       inject(DestroyRef).onDestroy(() => observer.disconnect());
     }
+  }
+
+  /**
+   * A builder of one figure from the context and `input` (both read here, so a change of
+   * either makes a new builder and the plot draws again); the figure is built when called.
+   */
+  private builder<T>(input: () => T, build: (ctx: PlotContext, input: T) => PlotFigure) {
+    return computed((): (() => PlotFigure) | null => {
+      const ctx = this.context();
+      const value = input();
+      return ctx ? () => build(ctx, value) : null;
+    });
   }
 
   protected nodeName(index: number): string {

@@ -1,0 +1,119 @@
+/**
+ * Draws the plots of a page one at a time, those in view first, with a painted frame after
+ * each. Plotly draws a figure in one long task (tens of milliseconds for 2,001 points), so
+ * four plots drawn together keep the first one off the screen until the last is done. Here
+ * the plot a person is looking at is painted first; plots below the fold follow when the
+ * browser is idle (within a second at the latest), so typing is not held up by plots no one
+ * sees. A plot that asks again before its turn keeps its place with the newer drawing.
+ */
+import { DOCUMENT, Injectable, inject } from '@angular/core';
+
+/** What a plot asks to have done in its turn. */
+export interface PlotDrawJob {
+  /** The element whose place on the page decides the order. */
+  element: HTMLElement;
+  /** Draws; the next plot waits for the returned promise and a painted frame. */
+  draw: () => Promise<unknown>;
+}
+
+/** How long an off-screen plot may wait for an idle moment, ms. */
+export const OFF_SCREEN_WAIT_MS = 1000;
+
+interface QueueWindow {
+  innerHeight: number;
+  requestAnimationFrame?: (callback: () => void) => number;
+  requestIdleCallback?: (callback: () => void, options?: { timeout: number }) => number;
+  setTimeout: (callback: () => void, ms: number) => unknown;
+}
+
+@Injectable({ providedIn: 'root' })
+export class PlotDrawQueue {
+  private readonly view = inject(DOCUMENT).defaultView as QueueWindow | null;
+  /** Waiting jobs by owner, in the order the owners first asked (the page's order). */
+  private readonly waiting = new Map<unknown, PlotDrawJob>();
+  /** A drawing is under way (until the frame after it is painted). */
+  private drawing = false;
+  private idleAsked = false;
+
+  /** Queues `job` for `owner`, replacing a job of the same owner not yet started. */
+  schedule(owner: unknown, job: PlotDrawJob): void {
+    this.waiting.set(owner, job);
+    this.next();
+  }
+
+  /** Drops the owner's waiting job (its plot is going away). */
+  cancel(owner: unknown): void {
+    this.waiting.delete(owner);
+  }
+
+  private next(): void {
+    if (this.drawing || this.waiting.size === 0) return;
+    const shown = this.firstWaiting(true);
+    if (shown) return this.run(shown.owner);
+    // Only plots below the fold wait: draw the first of them when the browser is idle. A
+    // plot in view that asks meanwhile does not wait for that.
+    if (this.idleAsked) return;
+    this.idleAsked = true;
+    this.whenIdle(() => {
+      this.idleAsked = false;
+      if (this.drawing) return;
+      const first = this.firstWaiting(true) ?? this.firstWaiting(false);
+      if (first) this.run(first.owner);
+    });
+  }
+
+  /** The first waiting owner (in view only, or any), in the page's order. */
+  private firstWaiting(inViewOnly: boolean): { owner: unknown } | null {
+    for (const [owner, job] of this.waiting) {
+      if (!inViewOnly || this.inView(job.element)) return { owner };
+    }
+    return null;
+  }
+
+  private run(owner: unknown): void {
+    const job = this.waiting.get(owner)!;
+    this.waiting.delete(owner);
+    this.drawing = true;
+    const done = () =>
+      this.afterPaint(() => {
+        this.drawing = false;
+        this.next();
+      });
+    // The plot reports its own failure; the queue goes on with the others.
+    let drawing: Promise<unknown>;
+    try {
+      drawing = job.draw();
+    } catch (error) {
+      drawing = Promise.reject(error);
+    }
+    drawing.then(done, done);
+  }
+
+  /** Whether any of the element is inside the window (an unlaid element counts as out). */
+  private inView(element: HTMLElement): boolean {
+    const height = this.view?.innerHeight ?? 0;
+    const box = element.getBoundingClientRect();
+    return box.bottom > 0 && box.top < height && box.height > 0;
+  }
+
+  /** Calls back once the browser has painted a frame (after the next animation frame). */
+  private afterPaint(callback: () => void): void {
+    const view = this.view;
+    if (!view) return callback();
+    if (typeof view.requestAnimationFrame === 'function') {
+      view.requestAnimationFrame(() => view.setTimeout(callback, 0));
+    } else {
+      view.setTimeout(callback, 0);
+    }
+  }
+
+  private whenIdle(callback: () => void): void {
+    const view = this.view;
+    if (!view) return callback();
+    if (typeof view.requestIdleCallback === 'function') {
+      view.requestIdleCallback(callback, { timeout: OFF_SCREEN_WAIT_MS });
+    } else {
+      view.setTimeout(callback, 0);
+    }
+  }
+}
