@@ -10,6 +10,7 @@
  * form (a stage with no SPICE form, a frequency-translating stage in a Touchstone export).
  */
 import { readFileSync, writeSync } from 'node:fs';
+import { startupSnapshot } from 'node:v8';
 import {
   analyzeChain,
   ChainValidationError,
@@ -303,10 +304,10 @@ function run(argv: string[], out: ByteSink): void {
  * Standard output goes through a buffer written with writeSync, standard error straight to
  * its descriptor: neither loads Node's streams, which would cost every run their start-up.
  */
-function main(): void {
+function main(argv: string[]): void {
   const out = new ByteSink(1);
   try {
-    run(process.argv.slice(2), out);
+    run(argv, out);
     out.flush();
   } catch (e) {
     out.flush();
@@ -325,4 +326,9 @@ function main(): void {
   }
 }
 
-main();
+// Built into a V8 start-up snapshot (scripts/bench/bundle-cli.ts), the bundle's modules are
+// already loaded when the process starts, and main runs from there; the arguments then
+// follow the executable directly, as there is no script path.
+if (startupSnapshot?.isBuildingSnapshot()) {
+  startupSnapshot.setDeserializeMainFunction(() => main(process.argv.slice(1)));
+} else main(process.argv.slice(2));

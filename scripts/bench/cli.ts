@@ -3,7 +3,9 @@
  * chain and writes its full sweep (step-up at every node and Zin, every point) to a file;
  * ngspice runs the exported netlist of the same chain and writes every node's voltage at
  * every point to its data file. Each side's exit status and output are checked before its
- * time counts. The CLI runs as one esbuild bundle (dist/analyze.js), as it ships.
+ * time counts. The CLI runs as it ships: its launcher (dist/analyze) starts Node from the V8
+ * start-up snapshot of the esbuild bundle (dist/analyze.blob of dist/analyze.js); at 2,001
+ * points the bundle started without the snapshot is printed beside it.
  *
  * Targets: at 2,001 points the CLI is no slower than `ngspice -b` on the exported netlist;
  * at 100,000 points it is at least 3× faster than ngspice's own AC solver (constant-resistor
@@ -19,7 +21,7 @@ import { join } from 'node:path';
 import { parseRusage } from '../../shared/engine';
 import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { benchChain } from './bench-chain';
-import { bundleCli } from './bundle-cli';
+import { bundleCli, launcherPath } from './bundle-cli';
 import { median } from './measure';
 import { lineCount, runProcess, type ProcessRun } from './process';
 import { mib, ms, verdict, type BenchContext, type BenchSection } from './rows';
@@ -55,10 +57,16 @@ function spice(
   return { ...run, acMs: t.acS === undefined ? NaN : t.acS * 1e3 };
 }
 
-function cli(dir: string, bundle: string, chainFile: string, rows: number): CliRun {
+/** How the CLI is started: its launcher (from the snapshot, as it ships) or the bundle alone. */
+type Start = { launcher: string } | { bundle: string };
+
+function cli(dir: string, start: Start, chainFile: string, rows: number): CliRun {
   const outFile = join(dir, 'cli.out');
-  const args = [bundle, chainFile, '--sweep', '--timing'];
-  const run = runProcess(process.execPath, args, dir, outFile);
+  const args = [chainFile, '--sweep', '--timing'];
+  const run =
+    'launcher' in start
+      ? runProcess(start.launcher, args, dir, outFile)
+      : runProcess(process.execPath, [start.bundle, ...args], dir, outFile);
   if (run.status !== 0) throw new Error(`the CLI exited with status ${run.status}: ${run.stderr}`);
   // The budget table, then "Sweep", a header and one line per point.
   const lines = lineCount(outFile);
@@ -73,7 +81,8 @@ const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick)
 export const cliSection: BenchSection = {
   name: 'cli',
   async run(ctx: BenchContext) {
-    const bundle = await bundleCli(join(ctx.root, 'dist', 'analyze.js'));
+    const bundle = await bundleCli(join(ctx.root, 'dist', 'analyze.js'), { snapshot: true });
+    const shipped: Start = { launcher: launcherPath(bundle) };
     const dir = mkdtempSync(join(tmpdir(), 'cw-bench-'));
     try {
       for (const points of [2001, 100_000]) {
@@ -83,10 +92,12 @@ export const cliSection: BenchSection = {
         const decks = benchDecks(parseChainDocument(doc));
         const reps = points > 10_000 || ctx.quick ? 1 : 5;
         const cliRuns: CliRun[] = [];
+        const plainRuns: CliRun[] = [];
         const exported: SpiceRun[] = [];
         const constant: SpiceRun[] = [];
         for (let r = 0; r < reps; r++) {
-          cliRuns.push(cli(dir, bundle, chainFile, points));
+          cliRuns.push(cli(dir, shipped, chainFile, points));
+          if (points === 2001) plainRuns.push(cli(dir, { bundle }, chainFile, points));
           exported.push(spice(dir, decks.exported, decks.dataFile, points, decks.columns));
           constant.push(spice(dir, decks.constantR, decks.dataFile, points, decks.columns));
         }
@@ -109,9 +120,15 @@ export const cliSection: BenchSection = {
           `${ms(coMs)} / ${ms(coAc)} / ${mib(coPeak)}`,
         );
         ctx.row(
-          `whole CLI (node dist/analyze.js --sweep, every node written), ${n} points: whole / analysis / peak`,
+          `whole CLI (dist/analyze --sweep: node from its start-up snapshot, every node written), ${n} points: whole / analysis / peak`,
           `${ms(cliMs)} / ${ms(cliSolveMs)} / ${mib(cliPeak)}`,
         );
+        if (plainRuns.length > 0) {
+          ctx.row(
+            `the same without the start-up snapshot (node dist/analyze.js), ${n} points: whole / analysis / peak`,
+            `${ms(medianOf(plainRuns, (r) => r.wallMs))} / ${ms(medianOf(plainRuns, (r) => r.analysisMs))} / ${mib(medianOf(plainRuns, (r) => r.peakBytes))}`,
+          );
+        }
         if (points === 2001) {
           ctx.row(
             `whole process vs whole process: CLI ÷ ngspice -b on the exported netlist, ${n} points`,

@@ -21,7 +21,8 @@ export class ByteSink {
   pos = 0;
   /** Set when the reader went away (EPIPE): the rest of the output is dropped. */
   closed = false;
-  private readonly pause = new Int32Array(new SharedArrayBuffer(4));
+  /** Made when first needed (SharedArrayBuffer is absent while a start-up snapshot is built). */
+  private pause: Int32Array | undefined;
 
   constructor(private readonly fd: number) {}
 
@@ -48,7 +49,10 @@ export class ByteSink {
       } catch (e) {
         const code = errorCode(e);
         // A non-blocking pipe that is full: wait a moment for the reader, then go on.
-        if (code === 'EAGAIN') Atomics.wait(this.pause, 0, 0, RETRY_MS);
+        if (code === 'EAGAIN') {
+          this.pause ??= new Int32Array(new SharedArrayBuffer(4));
+          Atomics.wait(this.pause, 0, 0, RETRY_MS);
+        }
         // The reader has gone (`analyze … | head`): nothing more can be said to it.
         else if (code === 'EPIPE') this.closed = true;
         else throw e;

@@ -7,7 +7,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { bundleCli } from '../../scripts/bench/bundle-cli';
+import { bundleCli, snapshotCli } from '../../scripts/bench/bundle-cli';
 import { readTouchstone } from '../../shared/io/touchstone';
 import type { AnalysisResult } from '../../shared/engine/types';
 
@@ -206,6 +206,26 @@ describe('analyze CLI', () => {
     expect(cli(FIXTURE('listener-7mhz.json'), '--touchstone', '--z0', '-3').err).toMatch(
       /--z0 needs a resistance above 0/,
     );
+  });
+
+  it('should start from its start-up snapshot with the same output, options and exit codes', () => {
+    const launcher = snapshotCli(bundle);
+    const fromBlob = (...args: string[]) => {
+      const p = spawnSync(launcher, args, {
+        encoding: 'utf8',
+        timeout: 30_000,
+      });
+      return { code: p.status, out: p.stdout, err: p.stderr };
+    };
+    for (const args of [['--sweep'], ['--json', '--plan'], ['--list-modes']]) {
+      const want = cli(FIXTURE('listener-7mhz.json'), ...args);
+      const got = fromBlob(FIXTURE('listener-7mhz.json'), ...args);
+      expect(got).toEqual(want);
+      expect(got.code).toBe(0);
+    }
+    expect(fromBlob(FIXTURE('no-such-chain.json')).code).toBe(2);
+    expect(fromBlob('--list-types').out).toBe(cli('--list-types').out);
+    expect(fromBlob(FIXTURE('listener-7mhz.json'), '--timing').err).toMatch(/^timing: analysis /);
   });
 
   it('should run from the TypeScript source through tsx as npm run analyze does', () => {
