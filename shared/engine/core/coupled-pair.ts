@@ -14,10 +14,10 @@
  */
 import type { ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { coupledExtract, ownResonance, resonate } from './extract-resonance';
-import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
+import { coupledExtract, ownResonance, probePointEval, resonate } from './extract-resonance';
+import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
-import { gridDb, locateEdge, locatePeak, powerMax, stepUpPower } from './response-shape';
+import { locateEdge, locateGridPeak, powerMax, stepUpPower } from './response-shape';
 
 const isFiniteNumber = Number.isFinite;
 const HALF_POWER_DB = 10 * Math.log10(2);
@@ -44,6 +44,7 @@ const nn = (x: number | undefined) => (x === undefined || Number.isNaN(x) ? null
 export function coupledTank(
   built: BuiltChain,
   gridNa: NodeAnalysis,
+  probe: Probe,
   stage: BuiltStage,
   decl: ShuntDecl,
 ): CoupledTankFigures {
@@ -52,15 +53,17 @@ export function coupledTank(
   const grid = gridNa.freqs;
   const f0 = built.settings.f0Hz;
   const own = decl.ownAdmittance;
-  const att = resonate(built, grid, gridNa, coupledExtract(flat, own, true, true, false), f0);
-  const det = resonate(built, grid, gridNa, coupledExtract(flat, own, true, false, first), f0);
+  // The extracts read Zsrc, Zin and the frequency at the tank's node only.
+  const at = probePointEval(probe, flat);
+  const att = resonate(at, grid, gridNa, coupledExtract(flat, own, true, true, false), f0);
+  const det = resonate(at, grid, gridNa, coupledExtract(flat, own, true, false, first), f0);
   const qA = nn(att?.q);
   const qD = nn(det?.q);
   let share: number | null = null;
   if (att && !first) {
-    const one = runNodeAnalysis(built, [att.fIn], sharedWorkspace('point', built, 1));
-    const zr = one.zinRe[flat];
-    const zi = one.zinIm[flat];
+    probe.at(att.fIn, flat);
+    const zr = probe.zinRe[flat];
+    const zi = probe.zinIm[flat];
     const gDown = isFiniteNumber(zr) && isFiniteNumber(zi) ? zr / (zr * zr + zi * zi) : 0;
     share = att.real > 0 ? gDown / att.real : null;
   }
@@ -93,7 +96,7 @@ export function pairPeak(
   stepUpPower(gridNa, flat, power);
   const k = powerMax(power, P);
   if (k < 0) return null;
-  const peak = locatePeak(probe, flat, gridNa.freqs, gridDb(gridNa, flat, k), k);
+  const peak = locateGridPeak(probe, gridNa, flat, k);
   const level = peak.db - HALF_POWER_DB;
   const lo = locateEdge(probe, flat, gridNa, power, k, level, -1);
   const hi = locateEdge(probe, flat, gridNa, power, k, level, 1);

@@ -10,7 +10,7 @@
  */
 import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
-import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
+import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
@@ -71,10 +71,11 @@ export interface Resonance {
 /**
  * Finds the resonance of one probed quantity nearest `target` (input Hz) and its Q. The grid
  * is scanned outward from the target (nearest-crossing.ts): the bracket is the one a scan of
- * the whole grid picks, and only the points up to it are probed.
+ * the whole grid picks, and only the points up to it are probed. The bracket is then refined
+ * with `evalAt` (a probe evaluated for the node the Extract reads: probePointEval).
  */
 export function resonate(
-  built: BuiltChain,
+  evalAt: PointEval,
   grid: Float64Array,
   gridNa: NodeAnalysis,
   extract: Extract,
@@ -92,23 +93,11 @@ export function resonate(
   const localK = out[2];
   extract(gridNa, k + 1, out);
   const sign = out[2] >= localK ? 1 : -1;
-  return refineResonance(nodePointEval(built), extract, grid[k], grid[k + 1], sign);
+  return refineResonance(evalAt, extract, grid[k], grid[k + 1], sign);
 }
 
 /** The chain at one input frequency, as a node analysis whose point 0 an Extract reads. */
 export type PointEval = (f: number) => NodeAnalysis;
-
-/**
- * A PointEval by a one-point node analysis of the whole chain, in the shared one-point
- * workspace (nodes.ts, key "point"): what it returns is valid until the next evaluation.
- */
-export function nodePointEval(built: BuiltChain): PointEval {
-  const f1 = new Float64Array(1);
-  return (f) => {
-    f1[0] = f;
-    return runNodeAnalysis(built, f1, sharedWorkspace('point', built, 1));
-  };
-}
 
 /**
  * A PointEval by a probe evaluated for `node` (probe.ts): cheaper than a node analysis, it
@@ -239,14 +228,46 @@ export function coupledExtract(
   };
 }
 
+/** Points of a grid whose section matrices a series extract fills at once (block form). */
+const SERIES_CHUNK = 64;
+
+/**
+ * The loop impedance through a series section (flat index `section`): Zsrc at its input +
+ * its own series impedance (B) + Zin at its output; imaginary part = the loop reactance.
+ * On a grid (more than one point) the section's matrices are written by its block form,
+ * SERIES_CHUNK points at a time where the scan first needs them: a scan that finds no
+ * crossing reads every point, and one block call costs what a few point calls do.
+ */
 export function seriesExtract(built: BuiltChain, section: number): Extract {
+  const sec = built.sections[section];
   const m = new Float64Array(8);
+  let grid: NodeAnalysis | null = null;
+  let gm = new Float64Array(0);
+  let filled = new Uint8Array(0);
   return (na, i, out) => {
     const kIn = section * na.points + i;
     const kOut = kIn + na.points;
-    built.sections[section].abcd(na.fNode[kIn], m, 0);
-    out[0] = na.zsrcRe[kIn] + m[2] + na.zinRe[kOut];
-    out[1] = na.zsrcIm[kIn] + m[3] + na.zinIm[kOut];
+    let mm = m;
+    let o = 0;
+    if (na.points === 1) sec.abcd(na.fNode[kIn], m, 0);
+    else {
+      if (na !== grid) {
+        grid = na;
+        gm = new Float64Array(8 * na.points);
+        filled = new Uint8Array(Math.ceil(na.points / SERIES_CHUNK));
+      }
+      const c = (i / SERIES_CHUNK) | 0;
+      if (!filled[c]) {
+        const from = c * SERIES_CHUNK;
+        const n = Math.min(SERIES_CHUNK, na.points - from);
+        sec.fill(na.fNode, section * na.points + from, n, gm, 8 * from);
+        filled[c] = 1;
+      }
+      mm = gm;
+      o = 8 * i;
+    }
+    out[0] = na.zsrcRe[kIn] + mm[o + 2] + na.zinRe[kOut];
+    out[1] = na.zsrcIm[kIn] + mm[o + 3] + na.zinIm[kOut];
     out[2] = na.fNode[kIn];
   };
 }

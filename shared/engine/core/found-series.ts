@@ -88,7 +88,7 @@ export function risingLoopCrossings(na: NodeAnalysis, node: number): Bracket[] {
     const b = sign * x(i + 1);
     if (!(a < 0 && b >= 0) || !isFiniteNumber(a) || !isFiniteNumber(b)) continue;
     if (abs(a) <= ROUNDING_X * abs(r(i)) && abs(b) <= ROUNDING_X * abs(r(i + 1))) continue;
-    out.push({ k: i, sign });
+    out.push({ k: i, sign, lo: a, hi: b });
   }
   return out;
 }
@@ -128,7 +128,7 @@ export function locateSeries(
   b: Bracket,
 ): NodeResonance | null {
   const scratch = new Float64Array(2);
-  return resonanceIn(probe, node, na.freqs[b.k], na.freqs[b.k + 1], b.sign, loopAt, scratch);
+  return resonanceIn(probe, node, na.freqs[b.k], na.freqs[b.k + 1], b.sign, loopAt, scratch, b.lo, b.hi); // prettier-ignore
 }
 
 /** Measures a located series resonance: detached Q, downstream share, unloaded Q. */

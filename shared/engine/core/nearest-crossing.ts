@@ -84,9 +84,15 @@ export function nearestRisingOutward(
   consider(c, vDown, vUp, lDown, lUp);
   let down = c - 1;
   let up = c + 1;
+  // The next bracket on each side, its ends and its distance; a side that moves shares one
+  // end with its next bracket, so each step asks for one new frequency.
+  let fDownHi = down >= 0 ? freqAt(down + 1) : 0;
+  let fDownLo = down >= 0 ? freqAt(down) : 0;
+  let fUpLo = up <= n - 2 ? freqAt(up) : 0;
+  let fUpHi = up <= n - 2 ? freqAt(up + 1) : 0;
+  let bDown = down >= 0 ? ratioOf(fDownLo, fDownHi, target) : Infinity;
+  let bUp = up <= n - 2 ? ratioOf(fUpLo, fUpHi, target) : Infinity;
   for (;;) {
-    const bDown = down >= 0 ? ratioOf(freqAt(down), freqAt(down + 1), target) : Infinity;
-    const bUp = up <= n - 2 ? ratioOf(freqAt(up), freqAt(up + 1), target) : Infinity;
     const next = bDown <= bUp ? bDown : bUp;
     if (next === Infinity || next > limit) return bestK;
     if (bDown <= bUp) {
@@ -95,12 +101,22 @@ export function nearestRisingOutward(
       vDown = scratch[0];
       lDown = scratch[1];
       down--;
+      if (down >= 0) {
+        fDownHi = fDownLo;
+        fDownLo = freqAt(down);
+        bDown = ratioOf(fDownLo, fDownHi, target);
+      } else bDown = Infinity;
     } else {
       valueAt(up + 1, scratch);
       consider(up, vUp, scratch[0], lUp, scratch[1]);
       vUp = scratch[0];
       lUp = scratch[1];
       up++;
+      if (up <= n - 2) {
+        fUpLo = fUpHi;
+        fUpHi = freqAt(up + 1);
+        bUp = ratioOf(fUpLo, fUpHi, target);
+      } else bUp = Infinity;
     }
   }
 }

@@ -36,7 +36,13 @@ export function ownResonance(fn: ComplexFn, near: number): number | null {
   const stop = near * 3;
   const last = OWN_POINTS - 1;
   const ratio = log(stop / start) / last;
-  const freqAt = (i: number) => (i === 0 ? start : i === last ? stop : start * exp(ratio * i));
+  // Each point's frequency computed once (an exponential), when the scan first reaches it.
+  const grid = new Float64Array(OWN_POINTS);
+  const freqAt = (i: number) => {
+    const f = grid[i];
+    if (f !== 0) return f;
+    return (grid[i] = i === 0 ? start : i === last ? stop : start * exp(ratio * i));
+  };
   const out = new Float64Array(2);
   const imAt = (f: number) => {
     fn(f, out, 0);

@@ -7,15 +7,15 @@
  * parameter set lossless (1e12). It counts the power the parts dissipate and the match they
  * spoil by their loss (for an L network of loaded Q Qn built with parts of unloaded Q Qu the
  * dissipated part alone is about 10·log10(1/(1 − Qn/Qu)), common practice). The part Q
- * needed: every part-Q parameter raised to at least q, the stage rebuilt and the chain
- * evaluated at f0, with q solved for (log-space bisection to 1 %).
+ * needed: every part-Q parameter raised to at least q, the stage rebuilt and evaluated at f0
+ * between the terminations the chain gives it, with q solved for (log-space bisection to 1 %).
  */
-import type { ParamValues, TwoPortModel } from '../types';
+import type { ParamValues, Section, TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { pointwiseFill, runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
-import { deliveredPower } from './quantities';
+import { backStep, sourceStep, voltageStep, type NodeAnalysis } from './nodes';
 
 const { log10, sqrt } = Math;
+const isFinite = Number.isFinite;
 /** A part-Q parameter's upper bound (the catalogue's "1e12 is lossless"). */
 const LOSSLESS_Q = 1e12;
 
@@ -62,30 +62,89 @@ export function judgedForQ(stage: BuiltStage): stage is BuiltStage<TwoPortModel>
   );
 }
 
+/**
+ * The stage between what the chain puts on either side of it at f0: the source side as its
+ * Thevenin equivalent at the stage's input (Zsrc there, and the open-circuit voltage the node
+ * analysis implies: V·(Zsrc + Zin)/Zin), the load side as Zin at its output. Neither depends
+ * on the stage's own parts, so a stage rebuilt with other part Q is judged by evaluating its
+ * own sections alone instead of the whole chain again.
+ */
+interface Surroundings {
+  /** Flat index of the stage's first section. */
+  first: number;
+  /** |Voc|², V² (PEAK). */
+  voc2: number;
+  zsRe: number;
+  zsIm: number;
+  zlRe: number;
+  zlIm: number;
+  /** The frequency each of the stage's sections sees, Hz. */
+  fNode: Float64Array;
+}
+
+function surroundings(f0Na: NodeAnalysis, stage: BuiltStage<TwoPortModel>): Surroundings {
+  const i = stage.firstSection;
+  const o = i + stage.sectionCount;
+  const zr = f0Na.zinRe[i];
+  const zi = f0Na.zinIm[i];
+  const zsRe = f0Na.zsrcRe[i];
+  const zsIm = f0Na.zsrcIm[i];
+  const v2 = f0Na.vRe[i] ** 2 + f0Na.vIm[i] ** 2;
+  // An open input draws nothing: its voltage is the open-circuit voltage itself.
+  const voc2 = isFinite(zr) && isFinite(zi) ? (v2 * ((zsRe + zr) ** 2 + (zsIm + zi) ** 2)) / (zr * zr + zi * zi) : v2; // prettier-ignore
+  return { first: i, voc2, zsRe, zsIm, zlRe: f0Na.zinRe[o], zlIm: f0Na.zinIm[o], fNode: f0Na.fNode.slice(i, o) }; // prettier-ignore
+}
+
+/**
+ * Power the sections deliver into the load side, W, fed from the source side (see
+ * Surroundings): the node analysis's own steps (nodes.ts) over the stage's sections alone,
+ * driven by a 1 V EMF and scaled by |Voc|².
+ */
+function deliveredThrough(sections: readonly Section[], at: Surroundings): number {
+  const n = sections.length;
+  const m = new Float64Array(8 * n);
+  const zinRe = new Float64Array(n + 1);
+  const zinIm = new Float64Array(n + 1);
+  const vRe = new Float64Array(n + 1);
+  const vIm = new Float64Array(n + 1);
+  for (let j = 0; j < n; j++) sections[j].abcd(at.fNode[j], m, 8 * j);
+  zinRe[n] = at.zlRe;
+  zinIm[n] = at.zlIm;
+  for (let j = n - 1; j >= 0; j--) backStep(m, 8 * j, zinRe, zinIm, j + 1, j);
+  sourceStep(UNIT_EMF, Float64Array.of(at.zsRe), Float64Array.of(at.zsIm), zinRe, zinIm, vRe, vIm, 0, 0); // prettier-ignore
+  for (let j = 0; j < n; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1);
+  const zr = at.zlRe;
+  const zi = at.zlIm;
+  const g = isFinite(zr) && isFinite(zi) ? zr / (zr * zr + zi * zi) : 0;
+  return (at.voc2 * (vRe[n] ** 2 + vIm[n] ** 2) * g) / 2;
+}
+
+const UNIT_EMF = Float64Array.of(1);
+
 /** Power out of the stage at f0 with its part Q raised to at least q (Infinity: as built). */
 function powerOut(
   built: BuiltChain,
+  at: Surroundings,
   stage: BuiltStage<TwoPortModel>,
   keys: string[],
   q: number,
 ): number {
-  let b: BuiltChain | null = built;
-  if (Number.isFinite(q)) {
-    const values = { ...stage.values };
-    for (const k of keys) values[k] = Math.max(Number(values[k]), q);
-    b = withValues(built, stage, values);
+  if (!Number.isFinite(q)) {
+    const first = stage.firstSection;
+    return deliveredThrough(built.sections.slice(first, first + stage.sectionCount), at);
   }
-  if (!b) return NaN;
-  const na = runNodeAnalysis(b, [built.settings.f0Hz], sharedWorkspace('point', b, 1));
-  return deliveredPower(na, stage.firstSection + stage.sectionCount, 0);
+  const values = { ...stage.values };
+  for (const k of keys) values[k] = Math.max(Number(values[k]), q);
+  const sections = sectionsWith(built, stage, values);
+  return sections ? deliveredThrough(sections, at) : NaN;
 }
 
-/** The chain with one stage rebuilt from other values (same section count), or null. */
-function withValues(
+/** The stage's sections rebuilt from other values (same section count), or null. */
+function sectionsWith(
   built: BuiltChain,
   stage: BuiltStage<TwoPortModel>,
   values: ParamValues,
-): BuiltChain | null {
+): readonly Section[] | null {
   let model;
   try {
     model = stage.definition.build(values, {
@@ -96,13 +155,7 @@ function withValues(
     return null; // values the stage cannot take: no figure rather than a wrong one
   }
   if (!('sections' in model) || model.sections.length !== stage.sectionCount) return null;
-  const sections = model.sections;
-  const all = built.sections.slice();
-  for (let j = 0; j < sections.length; j++) {
-    const sec = sections[j];
-    all[stage.firstSection + j] = sec.fill ? { ...sec, fill: sec.fill } : { ...sec, fill: pointwiseFill(sec) }; // prettier-ignore
-  }
-  return { ...built, sections: all };
+  return model.sections;
 }
 
 /**
@@ -117,10 +170,11 @@ export function qBudget(
   limitDb: number,
 ): QBudget | null {
   const keys = partQKeys(stage);
-  const ideal = powerOut(built, stage, keys, LOSSLESS_Q);
-  const real = deliveredPower(f0Na, stage.firstSection + stage.sectionCount, 0);
+  const at = surroundings(f0Na, stage);
+  const ideal = powerOut(built, at, stage, keys, LOSSLESS_Q);
+  const real = powerOut(built, at, stage, keys, Infinity);
   if (!(ideal > 0 && real > 0)) return null;
-  const lossAt = (q: number) => 10 * log10(ideal / powerOut(built, stage, keys, q));
+  const lossAt = (q: number) => 10 * log10(ideal / powerOut(built, at, stage, keys, q));
   const lossDb = 10 * log10(ideal / real);
   const partQ = Math.min(...keys.map((k) => Number(stage.values[k])));
   if (!(lossDb > limitDb)) return { lossDb, neededQ: null, partQ };

@@ -89,6 +89,13 @@ export function maximise(
 /** 1 − 1/φ: the golden section's step as a share of the bracket. */
 const GOLDEN_STEP = (3 - Math.sqrt(5)) / 2;
 
+/** What is already known of h at a bracket's ends and its start (a grid's values). */
+export interface KnownPeak {
+  hLo: number;
+  hStart: number;
+  hHi: number;
+}
+
 /**
  * The maximum of h on [lo, hi] (h unimodal and smooth there: a response peak and the grid
  * points either side), to `tol` relative, starting from `start` inside the bracket. Brent's
@@ -96,7 +103,9 @@ const GOLDEN_STEP = (3 - Math.sqrt(5)) / 2;
  * parabolic interpolation through the best three points so far, with a golden-section step
  * whenever the parabola's step is not trusted; no step is shorter than the tolerance, so
  * rounding at the top of a flat peak cannot stall it. A smooth peak costs about a third of
- * golden section's evaluations. Returns [f, h(f)].
+ * golden section's evaluations. With `known` values of h at lo, start and hi (a grid point
+ * and its neighbours) the first step is the parabola through those three instead of a
+ * golden-section step, and no evaluation repeats them. Returns [f, h(f)].
  */
 export function maximiseSmooth(
   h: (f: number) => number,
@@ -104,19 +113,35 @@ export function maximiseSmooth(
   hi: number,
   start = lo + GOLDEN_STEP * (hi - lo),
   tol = 1e-9,
+  known?: KnownPeak,
 ): [number, number] {
   const { abs } = Math;
   let a = lo;
   let b = hi;
+  const seeded =
+    known !== undefined &&
+    Number.isFinite(known.hLo) &&
+    Number.isFinite(known.hStart) &&
+    Number.isFinite(known.hHi);
   // Minimises −h; x is the best point, w the second best, v the previous w.
   let x = start;
-  let fx = -h(x);
+  let fx = seeded ? -known.hStart : -h(x);
   let w = x;
   let fw = fx;
   let v = x;
   let fv = fx;
   let d = 0;
   let e = 0; // the step before last
+  if (seeded) {
+    // The bracket's ends as the other two points, and a step before last as wide as the
+    // bracket, so the first parabola is trusted when it stays well inside.
+    const loBetter = known.hLo >= known.hHi;
+    w = loBetter ? lo : hi;
+    fw = -(loBetter ? known.hLo : known.hHi);
+    v = loBetter ? hi : lo;
+    fv = -(loBetter ? known.hHi : known.hLo);
+    e = hi - lo;
+  }
   for (let it = 0; it < MAX_ITER; it++) {
     const m = 0.5 * (a + b);
     const tol1 = tol * abs(x);

@@ -58,6 +58,12 @@ export interface Bracket {
   k: number;
   /** +1 when the node's frequency rises with the input there, −1 when it falls. */
   sign: number;
+  /**
+   * sign × the searched quantity at grid points k and k+1: the refinement starts from them
+   * instead of evaluating the chain again at the bracket's ends.
+   */
+  lo: number;
+  hi: number;
 }
 
 /**
@@ -135,7 +141,7 @@ export function risingCrossings(na: NodeAnalysis, node: number): Bracket[] {
       const prevG = y[0];
       admittanceAt(na, node, i + 1, y);
       const rounding = abs(a) <= ROUNDING_B * abs(prevG) && abs(b) <= ROUNDING_B * abs(y[0]);
-      if (!rounding) out.push({ k: i, sign });
+      if (!rounding) out.push({ k: i, sign, lo: a, hi: b });
     }
     prev = next;
   }
@@ -167,6 +173,7 @@ export const cutAt =
 /**
  * Solves B = 0 on a bracket [lo, hi] (input Hz) and measures Q there.
  * @param sign orientation of the node's frequency against the input (see Bracket)
+ * @param bLo sign × B at lo and at hi when known (the grid's values), else evaluated
  */
 export function resonanceIn(
   probe: Probe,
@@ -176,13 +183,15 @@ export function resonanceIn(
   sign: number,
   y: AdmittanceOf,
   scratch: Float64Array,
+  bLo?: number,
+  bHi?: number,
 ): NodeResonance | null {
   const bAt = (f: number) => {
     probe.at(f, node);
     y(probe, node, scratch);
     return sign * scratch[1];
   };
-  const fIn = solveBracketed(bAt, lo, hi);
+  const fIn = solveBracketed(bAt, lo, hi, undefined, bLo, bHi);
   if (!isFiniteNumber(fIn)) return null;
   return measureAt(probe, node, fIn, sign, y, scratch);
 }

@@ -99,7 +99,7 @@ export function locate(
   b: Bracket,
 ): NodeResonance | null {
   const scratch = new Float64Array(2);
-  return resonanceIn(probe, node, na.freqs[b.k], na.freqs[b.k + 1], b.sign, attached, scratch);
+  return resonanceIn(probe, node, na.freqs[b.k], na.freqs[b.k + 1], b.sign, attached, scratch, b.lo, b.hi); // prettier-ignore
 }
 
 export const sameMode = (a: Claim, b: Claim) =>

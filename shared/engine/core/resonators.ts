@@ -19,7 +19,7 @@
 import type { ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { coupledTank, pairPeak } from './coupled-pair';
-import { ownResonance, resonate, seriesExtract } from './extract-resonance';
+import { ownResonance, probePointEval, resonate, seriesExtract } from './extract-resonance';
 import { foundResonances, foundSeries } from './found-resonators';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
@@ -94,7 +94,7 @@ function declaredSeries(
   const section = stage.firstSection + decl.section;
   const res =
     decl.section >= 0 && decl.section < stage.sectionCount
-      ? resonate(built, gridNa.freqs, gridNa, seriesExtract(built, section), built.settings.f0Hz)
+      ? resonate(probePointEval(ctx.probe, section + 1), gridNa.freqs, gridNa, seriesExtract(built, section), built.settings.f0Hz) // prettier-ignore
       : null;
   const q = nn(res?.q);
   if (res && q) ctx.claims.push({ segment: ctx.topo.segment[section], fr: res.fr, bw: res.fr / q });
@@ -139,7 +139,7 @@ function declaredPair(
     ctx.claims.push({ segment, fr: peakLocal, bw: peak.bandwidthHz ?? 0 });
   }
   return decls.map((decl) => {
-    const fig = coupledTank(built, gridNa, stage, decl);
+    const fig = coupledTank(built, gridNa, probe, stage, decl);
     const bw = fig.resonanceHz !== null && fig.loadedQ ? fig.resonanceHz / fig.loadedQ : null;
     if (fig.resonanceHz !== null) ctx.claims.push({ segment, fr: fig.resonanceHz, bw: bw ?? 0 });
     const first = decl.coupledPartner === 'downstream';

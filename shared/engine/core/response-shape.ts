@@ -68,8 +68,9 @@ export function gridMax(db: ArrayLike<number>): number {
 
 /**
  * The peak bracketed by grid point k and its neighbours, located by Brent's method from grid
- * point k (refine.ts). A peak on the first or last grid point stays there (it lies at or
- * beyond the grid's end).
+ * point k (refine.ts), its first step the parabola through the three grid points when their
+ * levels are given (`dbLo`, `dbHi`: the grid's at k − 1 and k + 1). A peak on the first or
+ * last grid point stays there (it lies at or beyond the grid's end).
  */
 export function locatePeak(
   probe: Probe,
@@ -77,12 +78,24 @@ export function locatePeak(
   f: ArrayLike<number>,
   dbK: number,
   k: number,
+  dbLo?: number,
+  dbHi?: number,
 ): Peak {
   const last = f.length - 1;
   if (k <= 0 || k >= last) return { k, fHz: f[k], db: dbK };
-  const [fHz, level] = maximiseSmooth((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1], f[k]);
+  const known =
+    dbLo !== undefined && dbHi !== undefined ? { hLo: dbLo, hStart: dbK, hHi: dbHi } : undefined;
+  const [fHz, level] = maximiseSmooth((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1], f[k], undefined, known); // prettier-ignore
   // The search cannot do worse than the grid point it started from.
   return level >= dbK ? { k, fHz, db: level } : { k, fHz: f[k], db: dbK };
+}
+
+/** The peak at grid point k of `na` at `flat`, its neighbours' levels read from the grid. */
+export function locateGridPeak(probe: Probe, na: NodeAnalysis, flat: number, k: number): Peak {
+  const inside = k > 0 && k < na.points - 1;
+  const dbK = gridDb(na, flat, k);
+  if (!inside) return locatePeak(probe, flat, na.freqs, dbK, k);
+  return locatePeak(probe, flat, na.freqs, dbK, k, gridDb(na, flat, k - 1), gridDb(na, flat, k + 1)); // prettier-ignore
 }
 
 /** One side's edge at `level`: its frequency and the grid index beyond it (or null). */

@@ -8,15 +8,7 @@ import type { BuiltChain } from './build';
 import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { stepUp } from './quantities';
-import {
-  dbAt,
-  gridDb,
-  locateEdge,
-  locatePeak,
-  powerMax,
-  stepUpPower,
-  toDb,
-} from './response-shape';
+import { dbAt, locateEdge, locateGridPeak, powerMax, stepUpPower, toDb } from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, log10 } = Math;
@@ -112,7 +104,6 @@ export function analyzeSelectivity(
   if (imageHz !== null) exact.push(imageHz);
   const ex = runNodeAnalysis(built, exact, sharedWorkspace('exact', built, exact.length));
   const P = sweepNa.points;
-  const f = sweepNa.freqs;
   const power = new Float64Array(P);
   const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
@@ -121,7 +112,7 @@ export function analyzeSelectivity(
     const flat = built.userNodeFlat[n];
     stepUpPower(sweepNa, flat, power);
     const k = powerMax(power, P);
-    const peak = k >= 0 ? locatePeak(probe, flat, f, gridDb(sweepNa, flat, k), k) : null;
+    const peak = k >= 0 ? locateGridPeak(probe, sweepNa, flat, k) : null;
     let e3: [number, number] | null = null;
     let e60: [number, number] | null = null;
     let deepest: number | null = null;

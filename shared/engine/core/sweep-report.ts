@@ -78,8 +78,15 @@ export function sweepColumns(sweep: SweepReport): SweepColumns {
   };
 }
 
+/** Whether every value is finite (x·0 is 0 exactly for finite x, else NaN). */
+function allFinite(values: Float64Array): boolean {
+  for (let i = 0; i < values.length; i++) if (values[i] * 0 !== 0) return false;
+  return true;
+}
+
 /** Share of the values that are NaN. */
 function nanShare(values: ArrayLike<number>): number {
+  if (values instanceof Float64Array && allFinite(values)) return 0;
   let lost = 0;
   for (let i = 0; i < values.length; i++) if (Number.isNaN(values[i])) lost++;
   return values.length === 0 ? 0 : lost / values.length;
@@ -99,9 +106,14 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
     };
   }
   const { P, emf } = src;
+  // The common case in plain passes: every EMF finite and non-zero and a node's voltages all
+  // finite, so none of its points can be lost.
+  let emfUsable = true;
+  for (let i = 0; i < P && emfUsable; i++) emfUsable = emf[i] * 0 === 0 && emf[i] !== 0;
   const stepUp = sweep.nodes.map((_, n) => {
     const re = src.vRe[n];
     const im = src.vIm[n];
+    if (emfUsable && allFinite(re) && allFinite(im)) return 0;
     let lost = 0;
     for (let i = 0; i < P; i++) {
       const vr = re[i];

@@ -18,14 +18,7 @@
 import type { BuiltChain } from '../core/build';
 import { backStep, MIN_NODE_HZ, sourceStep, voltageStep, type NodeAnalysis } from '../core/nodes';
 import type { Probe } from '../core/probe';
-import {
-  gridDb,
-  locateEdge,
-  locatePeak,
-  powerMax,
-  stepUpPower,
-  toDb,
-} from '../core/response-shape';
+import { locateEdge, locateGridPeak, powerMax, stepUpPower, toDb } from '../core/response-shape';
 import type { ComplexFn, Section } from '../types';
 
 const { log10, max } = Math;
@@ -280,7 +273,7 @@ export function judgedSelectivity(
   const power = new Float64Array(na.points);
   stepUpPower(na, flat, power);
   const k = powerMax(power, na.points);
-  const peak = k >= 0 ? locatePeak(probe, flat, na.freqs, gridDb(na, flat, k), k) : null;
+  const peak = k >= 0 ? locateGridPeak(probe, na, flat, k) : null;
   let bw3: number | null = null;
   if (peak && na.points > 2) {
     const lo = locateEdge(probe, flat, na, power, k, peak.db - HALF_POWER_DB, -1);
