@@ -37,7 +37,7 @@ describe('ChainListComponent', () => {
         td.textContent!.trim(),
       );
       expect(cells[0]).toContain('Loop front end');
-      expect(cells[1]).toBe('77.50 kHz');
+      expect(cells[1]).toBe('77.5 kHz'); // the design frequency as stated, not padded
       expect(cells[2]).toBe('3');
       expect(cells[3]).toBe('2');
       expect(cells[5]).toBe('Olga Owner');

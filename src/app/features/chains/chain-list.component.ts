@@ -32,7 +32,7 @@ import { SessionStore } from '../../core/session/session.store';
 import { compareQueryOf, inFamily } from '../compare/compare-entry';
 import { ChainActions } from './chain-actions';
 import { underParents } from './variant-order';
-import { engineering } from '../editor/results/format-quantity';
+import { nominalEngineering } from '../editor/results/format-quantity';
 
 export type ChainSortKey = 'name' | 'f0Hz' | 'stageCount' | 'flagCount' | 'updatedAt';
 const SORT_KEYS: readonly string[] = ['name', 'f0Hz', 'stageCount', 'flagCount', 'updatedAt'];
@@ -137,7 +137,7 @@ export default class ChainListComponent {
     underParents(this.list()?.items ?? []).map(({ item: chain, nested }) => ({
       chain,
       nested,
-      f0: engineering(chain.f0Hz, 'hertz'),
+      f0: nominalEngineering(chain.f0Hz, 'hertz'), // the design frequency, as stated
       comparable: inFamily(chain),
     })),
   );

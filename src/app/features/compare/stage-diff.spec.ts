@@ -17,8 +17,8 @@ describe('stageDiffRows', () => {
     expect(rows).toHaveLength(1);
     expect(rows[0].stageId).toBe('tank');
     expect(rows[0].cells.map((c) => c.differs)).toEqual([false, true]);
-    expect(rows[0].cells[1].text).toBe('c 1.200e-10');
-    expect(rows[0].cells[0].text).toBe('c 1.000e-10');
+    expect(rows[0].cells[1].text).toBe('c 1.2e-10');
+    expect(rows[0].cells[0].text).toBe('c 1e-10');
   });
 
   it('shows a stage only one variant has as absent in the others', () => {
@@ -26,7 +26,7 @@ describe('stageDiffRows', () => {
     const rows = stageDiffRows([doc([src]), doc([src, extra])]);
     expect(rows).toHaveLength(1);
     expect(rows[0].cells[0].text).toBe('—');
-    expect(rows[0].cells[1]).toEqual({ text: 'l-match, l 1.000e-6', differs: true });
+    expect(rows[0].cells[1]).toEqual({ text: 'l-match, l 1e-6', differs: true });
   });
 
   it('finds nothing when the variants are equal', () => {
@@ -36,7 +36,8 @@ describe('stageDiffRows', () => {
   it('writes values with their unit and prefix at the chosen significant figures', () => {
     const unitOf = (_type: string, key: string) => (key === 'c' ? 'farad' : undefined) as 'farad';
     const rows = stageDiffRows([doc([tank(100e-12)]), doc([tank(123.456e-12)])], unitOf);
-    expect(rows[0].cells[0].text).toBe('c 100.0 pF');
+    // The stages' values are the user's: rounded, not padded ('100 pF', not '100.0 pF').
+    expect(rows[0].cells[0].text).toBe('c 100 pF');
     expect(rows[0].cells[1].text).toBe('c 123.5 pF');
     applySignificantFigures(6);
     try {

@@ -1,6 +1,6 @@
 import type { UnitKind } from '../../../../shared/engine/types';
 import type { ChainDocument, StageInstance } from '../../../../shared/schema/chain';
-import { engineering } from '../editor/results/format-quantity';
+import { nominalEngineering } from '../editor/results/format-quantity';
 
 /** The unit of a stage type's value, from the catalogue; undefined when it is not known. */
 export type UnitOf = (type: string, key: string) => UnitKind | undefined;
@@ -19,9 +19,9 @@ export interface StageDiffRow {
   cells: StageDiffCell[];
 }
 
-/** A value as the tables write it: prefix, unit and the user's significant figures. */
+/** A stage's value as the cards write it: prefix and unit, rounded but not padded ("22 µH"). */
 function textOf(v: unknown, unit: UnitKind | undefined): string {
-  if (typeof v === 'number') return engineering(v, unit ?? 'none');
+  if (typeof v === 'number') return nominalEngineering(v, unit ?? 'none');
   return String(v);
 }
 

@@ -24,12 +24,31 @@ describe('report-model', () => {
     // Numbers as the app's formatter writes them (its significant figures are a setting).
     expect(tx.delivered).toBe(`94.50 mW (${decibels(19.75, 'dBm')})`);
     expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.verdict])).toEqual([
-      [2, decibels(16.3), decibels(20), 'over limit'],
-      [3, decibels(30.9), decibels(20), 'within limit'],
+      // The limits are the user's: written as stated, not padded to the figures.
+      [2, decibels(16.3), '20 dB', 'over limit'],
+      [3, decibels(30.9), '20 dB', 'within limit'],
     ]);
     expect(tx.receiver).toMatchObject({ isolation: decibels(34.2), verdict: 'no limit stated' });
     expect(tx.parts.map((p) => p.verdict)).toEqual(['no limit stated', 'over limit']);
-    expect(tx.parts[1].rating).toBe('2.000 V peak');
+    expect(tx.parts[1].rating).toBe('2 V peak'); // a stated rating, not padded
+    expect(tx.frequency).toBe('433.92 MHz');
+  });
+
+  it('should write the stated design frequency, reference and stage values without padding', () => {
+    const stated = sampleDocument();
+    stated.stages[1].values = { l: 2.2e-3, q: 120 };
+    const types = new Map<string, StageTypeInfo>([
+      ['shunt-lc-tank', { type: 'shunt-lc-tank', label: 'Parallel LC tank', category: 'element', role: 'two-port', params: [
+        { key: 'l', label: 'Inductance', unit: 'henry', kind: 'number', default: 1e-6 },
+        { key: 'q', label: 'Coil Q', unit: 'none', kind: 'number', default: 100 },
+      ] } as unknown as StageTypeInfo], // prettier-ignore
+    ]);
+    const model = reportModel(stated, result, types);
+    expect(model.f0).toBe('10 MHz');
+    expect(model.reference).toBe('50 Ω');
+    expect(model.strip[1].values).toEqual(['Inductance 2.2 mH', 'Coil Q 120']);
+    // Without the catalogue (a signed-out reader) the values are rounded, not padded, too.
+    expect(reportModel(stated, result, noTypes).strip[1].values).toEqual(['l 0.0022', 'q 120']);
   });
 
   it('should draw every stage in order and mark each with its worst flag', () => {

@@ -12,7 +12,7 @@ import type {
 } from '../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../shared/schema/chain';
 import { chainReferenceOhm } from '../../../../shared/io/export-name';
-import { engineering, plain } from '../editor/results/format-quantity';
+import { nominal, nominalEngineering } from '../editor/results/format-quantity';
 import { type BudgetColumn, type BudgetLine, budgetTable } from '../editor/results/budget-rows';
 import {
   type FlagItem,
@@ -96,7 +96,7 @@ export function stageValues(stage: ChainDocument['stages'][number], type: StageT
       const v = valueOf(stage, p);
       const text =
         typeof v === 'number'
-          ? engineering(v, p.unit)
+          ? nominalEngineering(v, p.unit) // the user's values: rounded, not padded
           : (p.options?.find((o) => o.value === v)?.label ?? String(v));
       return `${p.label} ${text}`;
     });
@@ -109,7 +109,7 @@ function rawValues(doc: ChainDocument, index: number): string[] {
     .slice(0, VALUES_PER_CELL)
     .map(([key, value]) => {
       const typed = stage.entered?.[key];
-      return `${key} ${typed ?? (typeof value === 'number' ? plain(value) : String(value))}`; // prettier-ignore
+      return `${key} ${typed ?? (typeof value === 'number' ? nominal(value) : String(value))}`; // prettier-ignore
     });
 }
 
@@ -199,9 +199,10 @@ export function reportModel(
 ): ReportModel {
   const budget = result ? budgetTable(result, doc) : null;
   return {
-    f0: engineering(doc.settings.f0Hz, 'hertz'),
+    // The design frequency and the reference are the user's: "50 Ω", not "50.00 Ω".
+    f0: nominalEngineering(doc.settings.f0Hz, 'hertz'),
     referenceOhm: chainReferenceOhm(doc.settings),
-    reference: engineering(chainReferenceOhm(doc.settings), 'ohm'),
+    reference: nominalEngineering(chainReferenceOhm(doc.settings), 'ohm'),
     mode: result?.mode?.name ?? null,
     strip: stripCells(doc, result, types),
     budget: budget ? budgetParts(budget.columns, budget.lines) : [],

@@ -1,6 +1,12 @@
 import type { AnalysisResult } from '../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../shared/schema/chain';
-import { decibels, engineering } from '../editor/results/format-quantity';
+import { significantFigures } from '../../core/format/number-format';
+import {
+  decibels,
+  engineering,
+  nominalDecibels,
+  nominalEngineering,
+} from '../editor/results/format-quantity';
 
 type Transmit = NonNullable<AnalysisResult['transmit']>;
 
@@ -57,7 +63,9 @@ export function reportTransmit(
   const labels = new Map(doc.stages.map((s) => [s.id, s.label.trim() || s.type]));
   const rx = tx.receiverInput;
   return {
-    frequency: engineering(tx.f0Hz, 'hertz'),
+    // The design frequency and the limits and ratings are stated: rounded, not padded; the
+    // frequency to at least 5 figures, as the editor's transmit panel writes it (433.92 MHz).
+    frequency: nominalEngineering(tx.f0Hz, 'hertz', Math.max(5, significantFigures())),
     delivered: `${engineering(tx.deliveredW, 'watt')} (${decibels(tx.deliveredDbm, 'dBm')})`,
     available: engineering(tx.availableW, 'watt'),
     networkLoss: decibels(tx.networkLossDb, 'dB', 2),
@@ -65,14 +73,14 @@ export function reportTransmit(
       n: h.n,
       frequency: engineering(h.fHz, 'hertz'),
       attenuation: decibels(h.attenuationDb),
-      limit: h.limitDb === null ? '—' : decibels(h.limitDb),
+      limit: h.limitDb === null ? '—' : nominalDecibels(h.limitDb),
       verdict: verdict(h.ok),
     })),
     receiver: rx
       ? {
           power: decibels(rx.dbm, 'dBm'),
           isolation: decibels(rx.isolationDb),
-          limit: rx.limitDbm === null ? '—' : decibels(rx.limitDbm, 'dBm'),
+          limit: rx.limitDbm === null ? '—' : nominalDecibels(rx.limitDbm, 'dBm'),
           verdict: verdict(rx.ok),
         }
       : null,
@@ -84,8 +92,8 @@ export function reportTransmit(
       power: engineering(p.powerW, 'watt'),
       rating:
         [
-          p.ratedPeakVolts === null ? '' : `${engineering(p.ratedPeakVolts, 'volt')} peak`,
-          p.ratedRmsAmps === null ? '' : `${engineering(p.ratedRmsAmps, 'ampere')} rms`,
+          p.ratedPeakVolts === null ? '' : `${nominalEngineering(p.ratedPeakVolts, 'volt')} peak`,
+          p.ratedRmsAmps === null ? '' : `${nominalEngineering(p.ratedRmsAmps, 'ampere')} rms`,
         ]
           .filter(Boolean)
           .join(', ') || '—',

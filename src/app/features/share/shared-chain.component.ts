@@ -23,7 +23,7 @@ import { CautionBannerComponent } from '../editor/cautions/caution-banner.compon
 import { documentForResults, hasTransmitMode } from '../editor/modes/mode-edits';
 import { TransmitPanelComponent } from '../editor/modes/transmit-panel.component';
 import { AnalysisResultsComponent } from '../editor/results/analysis-results.component';
-import { engineering } from '../editor/results/format-quantity';
+import { nominalEngineering } from '../editor/results/format-quantity';
 import { stageValues } from '../report/report-model';
 
 /**
@@ -268,7 +268,7 @@ export default class SharedChainComponent {
   }
 
   protected f0(s: SharedChainDto): string {
-    return engineering(s.document.settings.f0Hz, 'hertz');
+    return nominalEngineering(s.document.settings.f0Hz, 'hertz'); // as stated, not padded
   }
 
   private async load(token: string): Promise<void> {

@@ -27,6 +27,9 @@ describe('TransmitPanelComponent', () => {
     const el = await render({ ...sampleResult(), transmit: transmit() });
     const text = (sel: string) => el.querySelector(sel)!.textContent!.replace(/\s+/g, ' ').trim();
     expect(text('[data-key="delivered"] dd')).toContain('94.50 mW');
+    // The stated figures read as stated: the frequency whole, the limit unpadded.
+    expect(text('#cw-tx-head')).toBe('Transmit at 433.92 MHz');
+    expect(text('tr[data-harmonic="2"] td:nth-of-type(3)')).toBe('20 dB');
     expect(text('tr[data-harmonic="2"]')).toContain('over limit');
     expect(text('tr[data-harmonic="3"]')).toContain('within limit');
     expect(text('[data-key="receiver-input"] dd')).toContain('isolation 34.20 dB');

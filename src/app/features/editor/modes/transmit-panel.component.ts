@@ -1,6 +1,14 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
-import { decibels, engineering, impedancePolar, times } from '../results/format-quantity';
+import {
+  decibels,
+  engineering,
+  impedancePolar,
+  nominalDecibels,
+  nominalEngineering,
+  times,
+} from '../results/format-quantity';
+import { significantFigures } from '../../../core/format/number-format';
 
 type Transmit = NonNullable<AnalysisResult['transmit']>;
 type Trap = NonNullable<AnalysisResult['traps']>[number];
@@ -23,7 +31,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
   template: `
     @if (transmit(); as tx) {
       <section class="panel" aria-labelledby="cw-tx-head" data-testid="transmit-panel">
-        <h2 id="cw-tx-head">Transmit at {{ f(tx.f0Hz, 'hertz', 5) }}</h2>
+        <h2 id="cw-tx-head">Transmit at {{ statedHz(tx.f0Hz) }}</h2>
         <dl class="figures">
           <div data-key="delivered">
             <dt>Into the antenna</dt>
@@ -70,7 +78,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
                   <th scope="row">{{ h.n }}·f0</th>
                   <td class="cw-num">{{ f(h.fHz, 'hertz', 5) }}</td>
                   <td class="cw-num">{{ db(h.attenuationDb) }}</td>
-                  <td class="cw-num">{{ h.limitDb === null ? '—' : db(h.limitDb) }}</td>
+                  <td class="cw-num">{{ h.limitDb === null ? '—' : statedDb(h.limitDb) }}</td>
                   <td>
                     <span class="verdict" [class]="word(h.ok).cls">{{ word(h.ok).text }}</span>
                   </td>
@@ -217,9 +225,16 @@ export class TransmitPanelComponent {
 
   protected readonly f = engineering;
   protected readonly db = decibels;
+  /** A limit the user states, rounded but not padded ("20 dB"). */
+  protected readonly statedDb = nominalDecibels;
   protected readonly x = times;
   protected readonly z = impedancePolar;
   protected readonly word = verdict;
+
+  /** The design frequency as stated, to at least 5 figures so 433.92 MHz reads whole. */
+  protected statedHz(hz: number): string {
+    return nominalEngineering(hz, 'hertz', Math.max(5, significantFigures()));
+  }
 
   protected partName(stageId: string, label: string): string {
     const stage = this.labels().get(stageId);

@@ -6,7 +6,7 @@ import type { Data, Layout } from 'plotly.js-dist-min';
 import type { PlanReport } from '../../../../../shared/engine/planning/plan';
 import type { SpurResponse } from '../../../../../shared/engine/planning/spurs';
 import { linearAxisTicks, logAxisTicks } from '../results/plot-axes';
-import { decibels, engineering, fieldText } from '../results/format-quantity';
+import { decibels, engineering, fieldText, nominalDecibels } from '../results/format-quantity';
 import type { PlotPalette } from '../results/plot-theme';
 import type { PlotFigure } from '../results/plot-traces';
 
@@ -64,7 +64,7 @@ export function spurChartFigure(plan: PlanReport, palette: PlotPalette): PlotFig
   }
   const layout: Partial<Layout> = {
     title: {
-      text: `Spurious responses across the tuning range (target ${decibels(target)}; ${chart.tuning === 'gang' ? 'preselector tuned by the chain’s gang' : 'preselector assumed at constant Q'})`, // prettier-ignore
+      text: `Spurious responses across the tuning range (target ${nominalDecibels(target)}; ${chart.tuning === 'gang' ? 'preselector tuned by the chain’s gang' : 'preselector assumed at constant Q'})`, // prettier-ignore
     },
     paper_bgcolor: palette.background,
     plot_bgcolor: palette.background,

@@ -111,7 +111,8 @@ describe('detail-rows', () => {
     });
 
     it('should show the attenuation on both sides of each offset', () => {
-      expect(offsetHeadings(document)).toEqual(['±100.0 kHz']);
+      expect(offsetHeadings(document)).toEqual(['±100 kHz']); // the offset as stated
+      // The attenuations are results: their trailing zeros stay.
       expect(rows[1].offsets).toEqual(['62.10 dB / 63.00 dB']);
     });
   });
@@ -130,7 +131,7 @@ describe('detail-rows', () => {
     it('should state the channel the noise floor is measured in', () => {
       expect(item('noise-floor')).toMatchObject({
         value: '-134.0 dBm',
-        note: 'in a 10.00 kHz channel at 290 K',
+        note: 'in a 10 kHz channel at 290 K', // the user's settings, not padded
       });
     });
 
@@ -149,8 +150,9 @@ describe('detail-rows', () => {
       expect(keys).not.toContain('sensitivity');
       const of = (key: string) => tx.find((i) => i.key === key);
       expect(of('tx-delivered')).toMatchObject({ label: 'Into the antenna', value: '94.50 mW' });
-      expect(of('tx-harmonic-2')?.note).toContain(`over the ${decibels(20)} limit`);
-      expect(of('tx-harmonic-3')?.note).toContain(`within the ${decibels(20)} limit`);
+      // The stated limit reads as stated: "20 dB", not "20.00 dB".
+      expect(of('tx-harmonic-2')?.note).toContain('over the 20 dB limit');
+      expect(of('tx-harmonic-3')?.note).toContain('within the 20 dB limit');
       expect(of('tx-isolation')).toMatchObject({ value: decibels(34.2) });
       expect(of('tx-isolation')?.note).toContain('no limit stated');
       expect(of('tx-parts')?.value).toBe('1 of 1');

@@ -5,7 +5,16 @@
 import { transmitSummaryItems } from './transmit-summary';
 import type { ChainDocument, Thresholds } from '../../../../../shared/schema/chain';
 import type { AnalysisResult, Flag, Severity } from '../../../../../shared/engine/types';
-import { NO_VALUE, decibels, engineering, nominal, percent, plain } from './format-quantity';
+import {
+  NO_VALUE,
+  decibels,
+  engineering,
+  nominal,
+  nominalDecibels,
+  nominalEngineering,
+  percent,
+  plain,
+} from './format-quantity';
 
 /** How hard a tank is loaded, judged against the chain's own thresholds. */
 export type LoadingState = 'fine' | 'matched' | 'warning' | 'error' | 'unknown';
@@ -108,8 +117,9 @@ export function resonatorRows(result: AnalysisResult, document: ChainDocument): 
   }));
 }
 
+/** The offsets the user chose, as stated ("±10 kHz", not "±10.00 kHz"). */
 export function offsetHeadings(document: ChainDocument): string[] {
-  return document.settings.offsetsHz.map((hz) => `±${engineering(hz, 'hertz')}`);
+  return document.settings.offsetsHz.map((hz) => `±${nominalEngineering(hz, 'hertz')}`);
 }
 
 /** The −60 dB width, or why there is none: a floor the response levels off at, or the sweep. */
@@ -148,7 +158,8 @@ export function selectivityRows(result: AnalysisResult): SelectivityRow[] {
 export function summaryItems(result: AnalysisResult, document: ChainDocument): SummaryItem[] {
   if (result.transmit) return transmitSummaryItems(result.transmit);
   const l = result.levels;
-  const bandwidth = engineering(document.settings.channelBandwidthHz, 'hertz');
+  // The settings are the user's statements: rounded, never padded ("a 3 kHz channel").
+  const bandwidth = nominalEngineering(document.settings.channelBandwidthHz, 'hertz');
   const emfRms = l.sensitivityEmfRms;
   return [
     {
@@ -167,14 +178,14 @@ export function summaryItems(result: AnalysisResult, document: ChainDocument): S
       key: 'tsys',
       label: 'System noise temperature',
       value: `${plain(l.systemNoiseTemperatureK)} K`,
-      note: `at the antenna terminals: source ${plain(l.sourceNoiseTemperatureK)} K + Te`,
+      note: `at the antenna terminals: source ${nominal(l.sourceNoiseTemperatureK)} K + Te`,
     },
     { key: 'gain', label: 'Total available gain', value: decibels(l.totalGainDb) },
     {
       key: 'sensitivity',
       label: 'Sensitivity',
       value: decibels(l.sensitivityDbm, 'dBm'),
-      note: `for ${decibels(document.settings.requiredSnrDb)} SNR`,
+      note: `for ${nominalDecibels(document.settings.requiredSnrDb)} SNR`,
     },
     {
       key: 'sensitivity-emf',

@@ -7,6 +7,9 @@ import {
   figures,
   impedancePolar,
   impedanceRect,
+  nominal,
+  nominalDecibels,
+  nominalEngineering,
   percent,
   plain,
   times,
@@ -71,6 +74,29 @@ describe('format-quantity', () => {
     it('should show infinities and missing values', () => {
       expect(decibels(Number.POSITIVE_INFINITY)).toBe('∞ dB');
       expect(decibels(null, 'dBm')).toBe(NO_VALUE);
+    });
+  });
+
+  describe('stated values', () => {
+    it('should round a value the user states but write no padding zeros', () => {
+      expect(nominalDecibels(20)).toBe('20 dB');
+      expect(nominalDecibels(0, 'dBm')).toBe('0 dBm');
+      expect(nominalDecibels(-13.5, 'dBm')).toBe('-13.5 dBm');
+      expect(nominalDecibels(-3.14159)).toBe('-3.142 dB');
+      expect(nominalEngineering(50, 'ohm')).toBe('50 Ω');
+      expect(nominalEngineering(77_500, 'hertz')).toBe('77.5 kHz');
+      expect(nominal(120)).toBe('120');
+      expect(nominalDecibels(null)).toBe(NO_VALUE);
+    });
+
+    it("should round a stated value to the user's figures", () => {
+      applySignificantFigures(2);
+      try {
+        expect(nominalDecibels(-13.46, 'dBm')).toBe('-13 dBm');
+        expect(nominalEngineering(1234, 'hertz')).toBe('1.2 kHz');
+      } finally {
+        applySignificantFigures(4);
+      }
     });
   });
 

@@ -107,6 +107,19 @@ export function nominalEngineering(
 }
 
 /**
+ * A level in decibels the user states (a limit, a target, a required SNR): rounded to the
+ * user's figures but not padded, so a 20 dB limit reads "20 dB" and a 0 dBm one "0 dBm".
+ */
+export function nominalDecibels(
+  value: number | null | undefined,
+  unit = 'dB',
+  digits = significantFigures(),
+): string {
+  if (isMissing(value)) return NO_VALUE;
+  return `${unsignedZero(significantText(value, digits))} ${unit}`;
+}
+
+/**
  * A voltage ratio as a multiplier, e.g. "×12.50", "×0.05000" or "×1410", to the user's
  * number of significant figures (trailing zeros kept, as `engineering` keeps them). Milli
  * and kilo prefixes on a bare ratio read badly, so large ratios are written out and only

@@ -5,7 +5,7 @@
 import type { PlotContext, PlotFigure } from './plot-traces';
 import type { Data } from 'plotly.js-dist-min';
 import { seriesColour } from './plot-traces';
-import { engineering, figures, impedanceRect } from './format-quantity';
+import { engineering, figures, impedanceRect, nominalEngineering } from './format-quantity';
 
 /** Index of the sweep point nearest `hz`. */
 function nearestPoint(freqs: number[], hz: number): number {
@@ -62,12 +62,12 @@ export function impedanceChartFigure(ctx: PlotContext, referenceOhm: number): Pl
         textposition: 'top right',
         textfont: { color: ctx.palette.marker },
         marker: { color: ctx.palette.marker, size: 9, symbol: 'circle-open', line: { width: 2 } },
-        hovertemplate: `f0 ${engineering(ctx.f0Hz, 'hertz')}<extra></extra>`,
+        hovertemplate: `f0 ${nominalEngineering(ctx.f0Hz, 'hertz')}<extra></extra>`,
       } as Data,
     ],
     layout: {
       title: {
-        text: `Input impedance chart (normalised to ${engineering(reference, 'ohm')})`,
+        text: `Input impedance chart (normalised to ${nominalEngineering(reference, 'ohm')})`,
         font: { size: 15 },
       },
       paper_bgcolor: ctx.palette.background,

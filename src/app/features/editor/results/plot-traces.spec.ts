@@ -80,8 +80,8 @@ describe('plot-traces', () => {
       const shapes = figure.layout.shapes as Shape[];
       expect(shapes.map((s) => s.x0)).toEqual([SAMPLE_F0, SAMPLE_IMAGE]);
       expect(figure.layout.annotations?.map((a) => a.text)).toEqual([
-        'f0 10.00 MHz',
-        'image 10.91 MHz',
+        'f0 10 MHz', // stated: not padded
+        'image 10.91 MHz', // worked out: at the figures
       ]);
     });
 
@@ -151,7 +151,7 @@ describe('plot-traces', () => {
 
     it('should fall back to 50 Ω for an unusable reference', () => {
       const figure = impedanceChartFigure(context(), 0);
-      expect(figure.layout.title?.text).toContain('50.00 Ω');
+      expect(figure.layout.title?.text).toContain('(normalised to 50 Ω)');
     });
   });
 
@@ -161,7 +161,7 @@ describe('plot-traces', () => {
       const shapes = figure.layout.shapes as Shape[];
       const guide = shapes.find((s) => s.yref === 'y');
       expect(guide).toMatchObject({ y0: 15, y1: 15 });
-      expect(figure.layout.annotations?.some((a) => a.text === 'match target 15.00 dB')).toBe(true);
+      expect(figure.layout.annotations?.some((a) => a.text === 'match target 15 dB')).toBe(true);
     });
   });
 });

@@ -6,7 +6,13 @@
 import type { Annotation, Data, Layout, LayoutAxis, Shape } from 'plotly.js-dist-min';
 import type { AnalysisResult, SweepReport } from '../../../../../shared/engine/types';
 import { linearAxisTicks, logAxisTicks, type AxisUnits } from './plot-axes';
-import { decibels, degrees, engineering } from './format-quantity';
+import {
+  decibels,
+  degrees,
+  engineering,
+  nominalDecibels,
+  nominalEngineering,
+} from './format-quantity';
 import { significantFigures } from '../../../core/format/number-format';
 import type { PlotPalette } from './plot-theme';
 
@@ -126,10 +132,12 @@ export function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotatio
   const first = ctx.sweep.freqsHz[0];
   const last = ctx.sweep.freqsHz[ctx.sweep.freqsHz.length - 1];
   const inSweep = (f: number) => f >= first && f <= last;
-  const markers: { hz: number; label: string; dash: string }[] = [
-    { hz: ctx.f0Hz, label: 'f0', dash: 'dash' },
+  // f0 is the user's (written as stated, "f0 7.2 MHz"); the image is worked out (a result).
+  const markers: { hz: number; label: string; dash: string; text: string }[] = [
+    { hz: ctx.f0Hz, label: 'f0', dash: 'dash', text: nominalEngineering(ctx.f0Hz, 'hertz') },
   ];
-  if (ctx.imageHz !== null) markers.push({ hz: ctx.imageHz, label: 'image', dash: 'dot' });
+  if (ctx.imageHz !== null)
+    markers.push({ hz: ctx.imageHz, label: 'image', dash: 'dot', text: engineering(ctx.imageHz, 'hertz') }); // prettier-ignore
   const shown = markers.filter((m) => inSweep(m.hz));
   return {
     shapes: shown.map(
@@ -154,7 +162,7 @@ export function frequencyMarkers(ctx: PlotContext): { shapes: Shape[]; annotatio
           x: ctx.scale === 'log' ? Math.log10(m.hz) : m.hz,
           y: 1,
           yanchor: 'bottom',
-          text: `${m.label} ${engineering(m.hz, 'hertz')}`,
+          text: `${m.label} ${m.text}`,
           showarrow: false,
           font: { color: ctx.palette.marker, size: 11 },
         }) as Annotation,
@@ -297,7 +305,7 @@ export function returnLossFigure(ctx: PlotContext, thresholdDb: number): PlotFig
     xanchor: 'right',
     y: thresholdDb,
     yanchor: 'bottom',
-    text: `match target ${decibels(thresholdDb)}`,
+    text: `match target ${nominalDecibels(thresholdDb)}`, // the user's target, as stated
     showarrow: false,
     font: { color: ctx.palette.warn, size: 11 },
   } as Annotation;

@@ -14,7 +14,7 @@ import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { chainReferenceOhm, exportFileName } from '../../../../../shared/io/export-name';
 import { significantFigures, smithReferenceOhm } from '../../../core/format/number-format';
-import { engineering } from './format-quantity';
+import { nominalEngineering } from './format-quantity';
 import {
   type PlotContext,
   type PlotFigure,
@@ -164,7 +164,7 @@ export class ResultPlotsComponent {
 
   protected readonly chartHint = computed(
     () =>
-      `Normalised to ${engineering(smithReferenceOhm(), 'ohm')} (choose another reference under Account); ○ marks f0.`,
+      `Normalised to ${nominalEngineering(smithReferenceOhm(), 'ohm')} (choose another reference under Account); ○ marks f0.`,
   );
 
   constructor() {

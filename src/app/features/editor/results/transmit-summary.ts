@@ -1,10 +1,13 @@
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import type { SummaryItem } from './detail-rows';
-import { decibels, engineering } from './format-quantity';
+import { decibels, engineering, nominalDecibels } from './format-quantity';
 
 type Transmit = NonNullable<AnalysisResult['transmit']>;
 
-/** A judged figure's words: within the stated limit, over it, or no limit stated. */
+/**
+ * A judged figure's words: within the stated limit, over it, or no limit stated. The limit
+ * is the user's, written as stated (`nominalDecibels`: "20 dB", not "20.00 dB").
+ */
 export function limitWords(ok: boolean | null, limit: string | null): string {
   if (ok === null || limit === null) return 'no limit stated';
   return ok ? `within the ${limit} limit` : `over the ${limit} limit`;
@@ -30,7 +33,7 @@ export function transmitSummaryItems(tx: Transmit): SummaryItem[] {
       key: `tx-harmonic-${h.n}`,
       label: `Harmonic ${h.n}·f0 attenuation`,
       value: decibels(h.attenuationDb),
-      note: `at ${engineering(h.fHz, 'hertz')}, ${limitWords(h.ok, h.limitDb === null ? null : decibels(h.limitDb))}`,
+      note: `at ${engineering(h.fHz, 'hertz')}, ${limitWords(h.ok, h.limitDb === null ? null : nominalDecibels(h.limitDb))}`,
     });
   }
   const rx = tx.receiverInput;
@@ -39,7 +42,7 @@ export function transmitSummaryItems(tx: Transmit): SummaryItem[] {
       key: 'tx-isolation',
       label: 'Receiver isolation',
       value: decibels(rx.isolationDb),
-      note: `${decibels(rx.dbm, 'dBm')} reaches the receiver input, ${limitWords(rx.ok, rx.limitDbm === null ? null : decibels(rx.limitDbm, 'dBm'))}`,
+      note: `${decibels(rx.dbm, 'dBm')} reaches the receiver input, ${limitWords(rx.ok, rx.limitDbm === null ? null : nominalDecibels(rx.limitDbm, 'dBm'))}`,
     });
   }
   const judged = tx.parts.filter((p) => p.ok !== null);

@@ -18,10 +18,11 @@ describe('study figures', () => {
 
   it('should word a goal with prefixed frequencies and give its unit', () => {
     const goal = { kind: 'resonance', stageId: 'tank', targetHz: 7.3e6, weight: 1 } as const;
-    expect(goalText(goal)).toBe('Resonance of tank at 7.300 MHz');
+    // A goal is the user's statement: rounded to the figures but not padded.
+    expect(goalText(goal)).toBe('Resonance of tank at 7.3 MHz');
     expect(goalUnit(goal)).toBe('hertz');
     const rl = { kind: 'return-loss', startHz: 7e6, stopHz: 7.5e6, minDb: 15, weight: 1 } as const;
-    expect(goalText(rl)).toBe('Return loss ≥ 15.00 dB, 7.000 MHz to 7.500 MHz');
+    expect(goalText(rl)).toBe('Return loss ≥ 15 dB, 7 MHz to 7.5 MHz');
     expect(goalUnit(rl)).toBe('db');
   });
 

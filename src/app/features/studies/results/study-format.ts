@@ -4,7 +4,14 @@
  */
 import type { UnitKind } from '../../../../../shared/engine/types';
 import type { OptimiserGoal } from '../../../../../shared/schema/studies';
-import { decibels, engineering, percent, plain } from '../../editor/results/format-quantity';
+import {
+  decibels,
+  engineering,
+  nominalDecibels,
+  nominalEngineering,
+  percent,
+  plain,
+} from '../../editor/results/format-quantity';
 
 /** A fraction 0…1 as a percentage, to the user's significant figures. */
 export function pct(v: number | null | undefined): string {
@@ -25,23 +32,27 @@ export function goalUnit(goal: OptimiserGoal | undefined): UnitKind | undefined 
   return goal.kind === 'resonance' || goal.kind === 'bandwidth' ? 'hertz' : 'db';
 }
 
-/** An optimiser goal in words, its frequencies and levels written as the tables write them. */
+/**
+ * An optimiser goal in words. Its frequencies and levels are the user's: written as stated,
+ * rounded to the figures but not padded ("Gain 20 dB", not "Gain 20.00 dB").
+ */
 export function goalText(goal: OptimiserGoal): string {
-  const hz = (v: number) => engineering(v, 'hertz');
+  const hz = (v: number) => nominalEngineering(v, 'hertz');
+  const db = (v: number) => nominalDecibels(v);
   switch (goal.kind) {
     case 'resonance':
       return `Resonance of ${goal.stageId} at ${hz(goal.targetHz)}`;
     case 'bandwidth':
       return `−3 dB width at node ${goal.node}: ${hz(goal.targetHz)}`;
     case 'return-loss':
-      return `Return loss ≥ ${decibels(goal.minDb)}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`;
+      return `Return loss ≥ ${db(goal.minDb)}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`;
     case 'noise-figure':
-      return `Noise figure ≤ ${decibels(goal.maxDb)}`;
+      return `Noise figure ≤ ${db(goal.maxDb)}`;
     case 'gain':
-      return `Gain ${decibels(goal.targetDb)}`;
+      return `Gain ${db(goal.targetDb)}`;
     case 'image-rejection':
-      return `Image rejection ≥ ${decibels(goal.minDb)}`;
+      return `Image rejection ≥ ${db(goal.minDb)}`;
     case 'ripple':
-      return `Ripple ≤ ${decibels(goal.maxDb)} at node ${goal.node}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`; // prettier-ignore
+      return `Ripple ≤ ${db(goal.maxDb)} at node ${goal.node}, ${hz(goal.startHz)} to ${hz(goal.stopHz)}`; // prettier-ignore
   }
 }
