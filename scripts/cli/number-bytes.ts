@@ -15,6 +15,7 @@ const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
  * paths' limit), where one rounding of the product errs by less than 2^-23 ≈ 1.2e-7.
  */
 const NEAR_HALF = 1e-6;
+/** Also keeps every whole number of the fast paths below 2^31 (32-bit integer digits). */
 const SCALED_LIMIT = 1e9;
 const SPACE = 32;
 const MINUS = 45;
@@ -29,22 +30,22 @@ function nearHalf(scaled: number): boolean {
   return abs(scaled - floor(scaled) - 0.5) < NEAR_HALF;
 }
 
-/** Decimal digits of a whole number ≥ 0. */
+/** Decimal digits of a whole number 0 ≤ n < 2^31 (every fast path's numbers are). */
 function digitCount(n: number): number {
-  let k = 1;
-  while (n >= 10) {
-    n = floor(n / 10);
-    k++;
-  }
-  return k;
+  if (n < 1e5) return n < 10 ? 1 : n < 100 ? 2 : n < 1e3 ? 3 : n < 1e4 ? 4 : 5;
+  return n < 1e6 ? 6 : n < 1e7 ? 7 : n < 1e8 ? 8 : n < 1e9 ? 9 : 10;
 }
 
-/** Writes the whole number `n` ≥ 0 as exactly `k` digits (leading zeros) ending before `end`. */
+/**
+ * Writes the whole number 0 ≤ n < 2^31 as exactly `k` digits (leading zeros) ending before
+ * `end`, in 32-bit integer arithmetic (a division by ten becomes a multiplication).
+ */
 function putDigits(buf: Uint8Array, end: number, n: number, k: number): void {
+  let m = n | 0;
   for (let p = end - 1; p >= end - k; p--) {
-    const q = floor(n / 10);
-    buf[p] = ZERO + (n - 10 * q);
-    n = q;
+    const q = (m / 10) | 0;
+    buf[p] = ZERO + (m - 10 * q);
+    m = q;
   }
 }
 
