@@ -11,6 +11,7 @@ import {
   dbAt,
   gridDb,
   locateEdge,
+  mayFall,
   powerMax,
   stepUpPower,
 } from '../../shared/engine/core/response-shape';
@@ -159,5 +160,26 @@ describe('the grid scan in power', () => {
     }
     // A level the response never falls below has no edge.
     expect(locateEdge(probe, flat, na, power, k, db[k] - 200, 1)).toBeNull();
+  });
+
+  it('rules out a side only where the edge search finds no edge', () => {
+    const power = new Float64Array(na.points);
+    stepUpPower(na, flat, power);
+    const k = powerMax(power, na.points);
+    const peakDb = gridDb(na, flat, k);
+    const ruledOut: (object | null)[] = [];
+    let found = 0;
+    for (let down = 0.5; down < 120; down *= 1.3) {
+      for (const dir of [-1, 1] as const) {
+        const level = peakDb - down;
+        const edge = locateEdge(probe, flat, na, power, k, level, dir);
+        if (!mayFall(power, k, level, dir)) ruledOut.push(edge);
+        if (edge) found++;
+      }
+    }
+    // Levels both ways: some sides ruled out (and none of them has an edge), edges elsewhere.
+    expect(ruledOut.length).toBeGreaterThan(0);
+    expect(ruledOut.every((edge) => edge === null)).toBe(true);
+    expect(found).toBeGreaterThan(0);
   });
 });

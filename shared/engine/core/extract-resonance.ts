@@ -80,6 +80,7 @@ export function resonate(
   gridNa: NodeAnalysis,
   extract: Extract,
   target: number,
+  onGrid?: GridQuantity,
 ): Resonance | null {
   const out = new Float64Array(3);
   const valueAt = (i: number, v: Float64Array) => {
@@ -87,7 +88,9 @@ export function resonate(
     v[0] = out[1];
     v[1] = out[2];
   };
-  const k = nearestRisingOutward(grid.length, (i) => grid[i], valueAt, target, new Float64Array(2)); // prettier-ignore
+  const k = onGrid
+    ? nearestRisingCrossing(grid, onGrid.imag, target, onGrid.local)
+    : nearestRisingOutward(grid.length, (i) => grid[i], valueAt, target, new Float64Array(2));
   if (k < 0) return null;
   extract(gridNa, k, out);
   const localK = out[2];
@@ -226,6 +229,36 @@ export function coupledExtract(
     out[1] = y[1];
     out[2] = f;
   };
+}
+
+/** The imaginary part of a probed quantity over a whole grid, with the local frequency. */
+export interface GridQuantity {
+  imag: Float64Array;
+  local: Float64Array;
+}
+
+/**
+ * The loop reactance through section `section` over the grid read from the node analysis
+ * alone, when the section is one series element (A = D = 1, C = 0 at its design frequency):
+ * the backward pass then gives Zin at its input as Zin at its output plus its own impedance,
+ * so Zsrc + Zin at its input is the loop (seriesExtract's quantity, to rounding). A scan of
+ * this array (no section evaluated) finds the bracket a scan of the extract finds; null for
+ * any other section.
+ */
+export function seriesLoopOnGrid(
+  built: BuiltChain,
+  section: number,
+  na: NodeAnalysis,
+): GridQuantity | null {
+  const m = new Float64Array(8);
+  built.sections[section].abcd(built.f0AtFlatNode[section], m, 0);
+  const series = m[0] === 1 && m[1] === 0 && m[4] === 0 && m[5] === 0 && m[6] === 1 && m[7] === 0; // prettier-ignore
+  if (!series) return null;
+  const P = na.points;
+  const base = section * P;
+  const imag = new Float64Array(P);
+  for (let i = 0; i < P; i++) imag[i] = na.zsrcIm[base + i] + na.zinIm[base + i];
+  return { imag, local: na.fNode.subarray(base, base + P) };
 }
 
 /** Points of a grid whose section matrices a series extract fills at once (block form). */

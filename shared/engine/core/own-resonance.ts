@@ -13,6 +13,8 @@ const isFiniteNumber = Number.isFinite;
 
 /** Grid points of the search for a resonator's own (unloaded) resonance. */
 const OWN_POINTS = 4001;
+/** Points of that grid whose values one block call gives (when the element has a block form). */
+const OWN_CHUNK = 32;
 /** Relative step of the central difference for dB/dω. */
 const DIFF_STEP = 1e-6;
 
@@ -48,14 +50,32 @@ export function ownResonance(fn: ComplexFn, near: number): number | null {
     fn(f, out, 0);
     return out[1];
   };
+  // The scan's values: with a block form, a chunk of OWN_CHUNK points at a time (their
+  // frequencies, then one block call), the same numbers as the point form.
+  const block = fn.fill;
+  const im = new Float64Array(OWN_POINTS);
+  const done = new Uint8Array(Math.ceil(OWN_POINTS / OWN_CHUNK));
+  const pair = new Float64Array(2 * OWN_CHUNK);
+  const imOf = (i: number) => {
+    if (!block) return imAt(freqAt(i));
+    const c = (i / OWN_CHUNK) | 0;
+    if (!done[c]) {
+      const from = c * OWN_CHUNK;
+      const n = Math.min(OWN_CHUNK, OWN_POINTS - from);
+      for (let j = from; j < from + n; j++) freqAt(j);
+      block(grid, from, n, pair, 0, 2);
+      for (let j = 0; j < n; j++) im[from + j] = pair[2 * j + 1];
+      done[c] = 1;
+    }
+    return im[i];
+  };
   const scratch = new Float64Array(2);
   const k = nearestRisingOutward(
     OWN_POINTS,
     freqAt,
     (i, v) => {
-      const f = freqAt(i);
-      v[0] = imAt(f);
-      v[1] = f; // the element's own frequency is the grid's: always rising
+      v[0] = imOf(i);
+      v[1] = freqAt(i); // the element's own frequency is the grid's: always rising
     },
     near,
     scratch,

@@ -19,7 +19,13 @@
 import type { ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { coupledTank, pairPeak } from './coupled-pair';
-import { ownResonance, probePointEval, resonate, seriesExtract } from './extract-resonance';
+import {
+  ownResonance,
+  probePointEval,
+  resonate,
+  seriesExtract,
+  seriesLoopOnGrid,
+} from './extract-resonance';
 import { foundResonances, foundSeries } from './found-resonators';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
@@ -94,7 +100,7 @@ function declaredSeries(
   const section = stage.firstSection + decl.section;
   const res =
     decl.section >= 0 && decl.section < stage.sectionCount
-      ? resonate(probePointEval(ctx.probe, section + 1), gridNa.freqs, gridNa, seriesExtract(built, section), built.settings.f0Hz) // prettier-ignore
+      ? resonate(probePointEval(ctx.probe, section + 1), gridNa.freqs, gridNa, seriesExtract(built, section), built.settings.f0Hz, seriesLoopOnGrid(built, section, gridNa) ?? undefined) // prettier-ignore
       : null;
   const q = nn(res?.q);
   if (res && q) ctx.claims.push({ segment: ctx.topo.segment[section], fr: res.fr, bw: res.fr / q });

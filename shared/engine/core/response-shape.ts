@@ -106,6 +106,18 @@ export interface Edge {
 }
 
 /**
+ * Whether the grid's response on one side of grid point p (dir −1 below, +1 above) comes
+ * near enough to `level` for {@link locateEdge} to find an edge there: without such a point
+ * it finds none, so one plain pass over the powers spares it its scan.
+ */
+export function mayFall(power: Float64Array, p: number, level: number, dir: -1 | 1): boolean {
+  const surelyNot = 10 ** (level / 10) * (1 + SCAN_MARGIN);
+  const end = dir < 0 ? -1 : power.length;
+  for (let k = p + dir; k !== end; k += dir) if (power[k] <= surelyNot) return true;
+  return false;
+}
+
+/**
  * The edge where the response first falls below `level` walking from the peak at grid point
  * p toward lower (dir −1) or higher (dir +1) frequencies, located to 1e-10 relative.
  * @param power the grid's power ratios at `flat` (stepUpPower)

@@ -8,7 +8,15 @@ import type { BuiltChain } from './build';
 import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { stepUp } from './quantities';
-import { dbAt, locateEdge, locateGridPeak, powerMax, stepUpPower, toDb } from './response-shape';
+import {
+  dbAt,
+  locateEdge,
+  locateGridPeak,
+  mayFall,
+  powerMax,
+  stepUpPower,
+  toDb,
+} from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, log10 } = Math;
@@ -121,8 +129,10 @@ export function analyzeSelectivity(
       const hi3 = locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, 1);
       e3 = lo3 && hi3 ? [lo3.fHz, hi3.fHz] : null;
       const deep = only === undefined;
-      const lo60 = deep ? locateEdge(probe, flat, sweepNa, power, k, peak.db - 60, -1) : null;
-      const hi60 = deep ? locateEdge(probe, flat, sweepNa, power, k, peak.db - 60, 1) : null;
+      // A −60 dB width needs both edges: the second is looked for only when the first exists.
+      const at60 = peak.db - 60;
+      const lo60 = deep && mayFall(power, k, at60, -1) ? locateEdge(probe, flat, sweepNa, power, k, at60, -1) : null; // prettier-ignore
+      const hi60 = lo60 && mayFall(power, k, at60, 1) ? locateEdge(probe, flat, sweepNa, power, k, at60, 1) : null; // prettier-ignore
       if (lo60 && hi60) {
         const fp = peak.fHz;
         const further = Math.max(
