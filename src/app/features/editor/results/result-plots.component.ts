@@ -135,8 +135,13 @@ export class ResultPlotsComponent {
     () => this.document().settings.thresholds.matchReturnLossDb,
   );
 
-  protected readonly context = computed((): PlotContext | null => {
+  /** Read from the page's styles once per theme, not for every result. */
+  private readonly palette = computed(() => {
     this.themeRevision();
+    return themePalette(this.page);
+  });
+
+  protected readonly context = computed((): PlotContext | null => {
     // Every figure writes its numbers to the user's significant figures.
     significantFigures();
     const result = this.result();
@@ -147,7 +152,7 @@ export class ResultPlotsComponent {
       scale: this.scale(),
       f0Hz: result.f0Hz,
       imageHz: imageFrequency(result),
-      palette: themePalette(this.page),
+      palette: this.palette(),
       nodeNames: this.nodeNames(),
     };
   });

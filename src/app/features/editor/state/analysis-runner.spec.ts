@@ -8,7 +8,7 @@ import {
   DEFAULT_SIGNIFICANT_FIGURES,
 } from '../../../core/format/number-format';
 import { sampleDocument } from '../testing/catalogue-fixture';
-import { ANALYSIS_DEBOUNCE_MS, AnalysisRunner, EDIT_TO_RENDER_MEASURE } from './analysis-runner';
+import { ANALYSIS_QUIET_MS, AnalysisRunner, EDIT_TO_RENDER_MEASURE } from './analysis-runner';
 
 describe('AnalysisRunner', () => {
   let runner: AnalysisRunner;
@@ -30,14 +30,11 @@ describe('AnalysisRunner', () => {
     jest.useRealTimers();
   });
 
-  describe('debounce', () => {
-    it('should wait for a quiet spell before sending', () => {
+  describe('when edits are sent', () => {
+    it('should send an edit made after a quiet spell at once', () => {
       runner.request(doc('a'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 1);
-      http.expectNone('/api/analysis');
-      expect(runner.pending()).toBe(true);
-      jest.advanceTimersByTime(1);
       const req = http.expectOne('/api/analysis');
+      expect(runner.pending()).toBe(true);
       expect(req.request.method).toBe('POST');
       expect(req.request.body).toEqual({
         document: doc('a'),
@@ -46,11 +43,12 @@ describe('AnalysisRunner', () => {
         figures: DEFAULT_SIGNIFICANT_FIGURES,
       });
       req.flush(result(1));
+      expect(runner.pending()).toBe(false);
     });
 
     it('should send the workspace whose data files the stages refer to', () => {
       runner.request(doc('a'), 'w1');
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       const req = http.expectOne('/api/analysis');
       expect(req.request.body).toEqual({
         document: doc('a'),
@@ -86,16 +84,21 @@ describe('AnalysisRunner', () => {
       expect(sweep.returnLossDb).toEqual([20, 30, 25]);
     });
 
-    it('should send only the last of several quick edits', () => {
+    it('should gather quick edits and send the last once they pause, cancelling the first', () => {
       runner.request(doc('a'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 10);
+      const first = http.expectOne('/api/analysis');
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS - 10);
       runner.request(doc('b'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS - 10);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS - 10);
       runner.request(doc('c'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
-      const req = http.expectOne('/api/analysis');
-      expect(req.request.body.document.name).toBe('c');
-      req.flush(result(1));
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS - 1);
+      http.expectNone((r) => r.url === '/api/analysis' && r.body.document.name !== 'a');
+      jest.advanceTimersByTime(1);
+      const last = http.match('/api/analysis').filter((r) => !r.cancelled);
+      expect(first.cancelled).toBe(true);
+      expect(last.map((r) => r.request.body.document.name)).toEqual(['c']);
+      last[0].flush(result(1));
+      expect(runner.result()?.f0Hz).toBe(1);
     });
   });
 
@@ -103,7 +106,7 @@ describe('AnalysisRunner', () => {
     it("should send the user's figures and ask again for the same document when they change", () => {
       applySignificantFigures(6);
       runner.request(doc('a'), 'w1');
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       const first = http.expectOne('/api/analysis');
       expect(first.request.body.figures).toBe(6);
       first.flush(result(1));
@@ -112,7 +115,7 @@ describe('AnalysisRunner', () => {
 
       applySignificantFigures(3);
       TestBed.tick();
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       const again = http.expectOne('/api/analysis');
       expect(again.request.body).toEqual({
         document: doc('a'),
@@ -128,7 +131,7 @@ describe('AnalysisRunner', () => {
     it('should ask for nothing when the figures change before any document was queued', () => {
       applySignificantFigures(7);
       TestBed.tick();
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       http.expectNone('/api/analysis');
     });
   });
@@ -136,10 +139,10 @@ describe('AnalysisRunner', () => {
   describe('cancelling stale requests', () => {
     it('should cancel the request in flight when a newer edit is sent', () => {
       runner.request(doc('old'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       const stale = http.expectOne('/api/analysis');
       runner.request(doc('new'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       expect(stale.cancelled).toBe(true);
       const fresh = http.expectOne('/api/analysis');
       expect(fresh.request.body.document.name).toBe('new');
@@ -203,7 +206,7 @@ describe('AnalysisRunner', () => {
   describe('a turning knob’s live figures', () => {
     it('should lay them over the server’s result until the next server answer replaces them', () => {
       runner.request(doc('a'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       http.expectOne('/api/analysis').flush(result(1));
       const server = runner.result()!;
       const sweep = { freqsHz: [1e6], nodes: [] } as unknown as NonNullable<
@@ -217,7 +220,7 @@ describe('AnalysisRunner', () => {
       expect(runner.result()!.levels.totalGainDb).toBe(20);
       // The released value goes to the server; its answer is what is shown (and saved).
       runner.request(doc('b'));
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       http.expectOne('/api/analysis').flush(result(2));
       expect(runner.turning()).toBe(false);
       expect(runner.shown()!.levels.totalGainDb).toBe(20);
@@ -236,7 +239,7 @@ describe('AnalysisRunner', () => {
         start: 1000,
         end: expect.any(Number),
       });
-      jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+      jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
       http.expectOne('/api/analysis').flush(result(2e6));
       TestBed.tick();
       expect(timeline.measure).toHaveBeenLastCalledWith(EDIT_TO_RENDER_MEASURE, {
@@ -264,7 +267,7 @@ describe('AnalysisRunner', () => {
 
   function send(name: string) {
     runner.request(doc(name));
-    jest.advanceTimersByTime(ANALYSIS_DEBOUNCE_MS);
+    jest.advanceTimersByTime(ANALYSIS_QUIET_MS);
     return http.expectOne('/api/analysis');
   }
 });

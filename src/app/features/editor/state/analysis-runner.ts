@@ -10,7 +10,7 @@ import {
   signal,
   untracked,
 } from '@angular/core';
-import { catchError, debounceTime, map, of, Subject, switchMap, tap } from 'rxjs';
+import { catchError, map, of, Subject, switchMap, tap } from 'rxjs';
 import type { ChainIssue } from '../../../../../shared/engine/errors';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
@@ -18,12 +18,15 @@ import { significantFigures } from '../../../core/format/number-format';
 import { describeHttpError } from '../../../core/http/error-message';
 import type { LiveAnalysis } from '../design/knob-messages';
 import { AnalysisApi } from './analysis-api';
+import { sendAfterQuiet } from './edit-window';
 
 /**
- * Quiet time after the last edit before the chain is sent for analysis. Short, because the
- * edit-to-render budget is 150 ms and a newer edit cancels a stale request anyway.
+ * The quiet spell that decides when an edit is analysed (`sendAfterQuiet`): an edit after
+ * this long without one goes at once, closer edits are gathered until they pause this long.
+ * Short, because the edit → updated plot budget is 100 ms and a newer edit cancels a stale
+ * request anyway.
  */
-export const ANALYSIS_DEBOUNCE_MS = 50;
+export const ANALYSIS_QUIET_MS = 50;
 /** performance.measure name from an edit to the rendered result (read by browser tests). */
 export const EDIT_TO_RENDER_MEASURE = 'cw-edit-to-render';
 const EDIT_MARK = 'cw-edit';
@@ -52,8 +55,9 @@ type Outcome =
   | { kind: 'failed'; message: string };
 
 /**
- * Runs the analysis for each edit of the chain: debounced, and a newer edit cancels the
- * request still in flight (switchMap), so only the latest document's answer lands.
+ * Runs the analysis for each edit of the chain: at once after a quiet spell, gathered while
+ * edits come in a burst (`sendAfterQuiet`), and a newer edit cancels the request still in
+ * flight (switchMap), so only the latest document's answer lands.
  * The last good result stays visible while a refused or failed edit is fixed.
  */
 @Injectable()
@@ -94,7 +98,7 @@ export class AnalysisRunner {
     const subscription = this.edits
       .pipe(
         tap(() => this.pendingState.set(true)),
-        debounceTime(ANALYSIS_DEBOUNCE_MS),
+        sendAfterQuiet(ANALYSIS_QUIET_MS),
         switchMap((edit) =>
           this.api.analyse(edit.doc, edit.workspaceId, edit.mode, edit.figures).pipe(
             map((result): Outcome => ({ kind: 'result', result, editedAt: edit.at })),
