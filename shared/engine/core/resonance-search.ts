@@ -221,9 +221,37 @@ export function measureAt(
 }
 
 /**
+ * The outward search after its first step, for `ZeroGuess`: where it started, which way B
+ * goes to its zero, the two values so far, and how to evaluate B and solve a bracket.
+ */
+export interface FirstStep {
+  near: number;
+  /** True when B is negative at `near`, so the zero lies above it. */
+  up: boolean;
+  prevF: number;
+  prevB: number;
+  f: number;
+  b: number;
+  span: number;
+  /** Sign-adjusted B at input frequency `f`. */
+  bAt(f: number): number;
+  /** Whether a value of B lies past the zero (the zero is bracketed). */
+  past(b: number): boolean;
+  /** The zero between two frequencies whose B values bracket it, measured; null if unsolved. */
+  solve(a: number, b: number, ba: number, bb: number): NodeResonance | null;
+}
+
+/**
+ * A shortcut tried once, after the first outward step: the resonance found (or null for none),
+ * or undefined to carry on stepping (studies/shunt-follow.ts predicts the zero by a secant).
+ */
+export type ZeroGuess = (step: FirstStep) => NodeResonance | null | undefined;
+
+/**
  * The rising zero of B nearest `near` (input Hz) without a grid: steps outward from `near`
  * geometrically up to a factor `span` each way until B changes sign, then solves. Used for a
  * detached tank, whose resonance sits close to the attached one.
+ * @param guess tried after the first step; without it every step is taken
  */
 export function resonanceNear(
   probe: Probe,
@@ -233,6 +261,7 @@ export function resonanceNear(
   y: AdmittanceOf,
   scratch: Float64Array,
   span = 2,
+  guess?: ZeroGuess,
 ): NodeResonance | null {
   const bAt = (f: number) => {
     probe.at(f, node);
@@ -244,18 +273,24 @@ export function resonanceNear(
   if (b0 === 0) return measureAt(probe, node, near, sign, y, scratch);
   // B rises through the zero: below it B < 0, so look upward from a negative value.
   const up = b0 < 0;
+  const past = (b: number) => isFiniteNumber(b) && (up ? b >= 0 : b < 0);
+  const solve = (a: number, b: number, ba: number, bb: number) => {
+    const [lo, hi, blo, bhi] = a < b ? [a, b, ba, bb] : [b, a, bb, ba];
+    const fIn = solveBracketed(bAt, lo, hi, undefined, blo, bhi);
+    return isFiniteNumber(fIn) ? measureAt(probe, node, fIn, sign, y, scratch) : null;
+  };
   let prevF = near;
   let prevB = b0;
   for (let step = 1e-4; ; step *= 2) {
     const ratio = 1 + min(step, span - 1);
     const f = up ? near * ratio : near / ratio;
     const b = bAt(f);
-    if (isFiniteNumber(b) && (up ? b >= 0 : b < 0)) {
-      const [lo, hi, blo, bhi] = up ? [prevF, f, prevB, b] : [f, prevF, b, prevB];
-      const fIn = solveBracketed(bAt, lo, hi, undefined, blo, bhi);
-      return isFiniteNumber(fIn) ? measureAt(probe, node, fIn, sign, y, scratch) : null;
-    }
+    if (past(b)) return solve(prevF, f, prevB, b);
     if (!isFiniteNumber(b) || ratio >= span) return null;
+    if (guess && step === 1e-4) {
+      const found = guess({ near, up, prevF, prevB, f, b, span, bAt, past, solve });
+      if (found !== undefined) return found;
+    }
     prevF = f;
     prevB = b;
   }

@@ -14,20 +14,40 @@
  */
 import type { BuiltChain } from '../core/build';
 import type { Probe } from '../core/probe';
-import { solveBracketed } from '../core/refine';
 import {
   attached,
   cutAt,
-  measureAt,
+  resonanceNear,
   type AdmittanceOf,
   type NodeResonance,
+  type ZeroGuess,
 } from '../core/resonance-search';
 import { detachCut, type Topology } from '../core/topology';
 
-const { min, abs } = Math;
+const { abs } = Math;
 const isFiniteNumber = Number.isFinite;
 /** How far either side of a predicted zero the bracket is tried, as a share of the jump. */
 const AROUND = 0.05;
+
+/**
+ * After the first step the zero is predicted by the secant through the two values, and two
+ * points 5 % of the predicted jump either side of it are tried: the zero when they bracket
+ * it; undefined (step on) when they do not.
+ */
+const predictBySecant: ZeroGuess = ({ near, up, prevF, prevB, f, b, span, bAt, past, solve }) => {
+  const zero = f - (b * (f - prevF)) / (b - prevB);
+  const jump = zero - f;
+  const ahead = up ? jump > 0 : jump < 0;
+  if (!ahead || !isFiniteNumber(zero) || abs(zero / near - 1) >= span - 1) return undefined;
+  const under = zero - AROUND * jump;
+  const over = zero + AROUND * jump;
+  const bOver = bAt(over);
+  if (!past(bOver)) return undefined;
+  const bUnder = bAt(under);
+  if (past(bUnder)) return solve(f, under, b, bUnder);
+  if (isFiniteNumber(bUnder)) return solve(under, over, bUnder, bOver);
+  return undefined;
+};
 
 /**
  * The rising zero of B nearest `near` (input Hz), as resonanceNear finds it, measured at
@@ -42,50 +62,7 @@ export function resonanceNearPredicted(
   scratch: Float64Array,
   span = 2,
 ): NodeResonance | null {
-  const bAt = (f: number) => {
-    probe.at(f, node);
-    y(probe, node, scratch);
-    return sign * scratch[1];
-  };
-  const b0 = bAt(near);
-  if (!isFiniteNumber(b0)) return null;
-  if (b0 === 0) return measureAt(probe, node, near, sign, y, scratch);
-  const up = b0 < 0;
-  const past = (b: number) => isFiniteNumber(b) && (up ? b >= 0 : b < 0);
-  const solve = (a: number, b: number, ba: number, bb: number) => {
-    const [lo, hi, blo, bhi] = a < b ? [a, b, ba, bb] : [b, a, bb, ba];
-    const fIn = solveBracketed(bAt, lo, hi, undefined, blo, bhi);
-    return isFiniteNumber(fIn) ? measureAt(probe, node, fIn, sign, y, scratch) : null;
-  };
-  let prevF = near;
-  let prevB = b0;
-  let predicted = false;
-  for (let step = 1e-4; ; step *= 2) {
-    const ratio = 1 + min(step, span - 1);
-    const f = up ? near * ratio : near / ratio;
-    const b = bAt(f);
-    if (past(b)) return solve(prevF, f, prevB, b);
-    if (!isFiniteNumber(b) || ratio >= span) return null;
-    if (!predicted) {
-      predicted = true;
-      // The secant through (prevF, prevB) and (f, b), extended to B = 0.
-      const zero = f - (b * (f - prevF)) / (b - prevB);
-      const jump = zero - f;
-      const ahead = up ? jump > 0 : jump < 0;
-      if (ahead && isFiniteNumber(zero) && abs(zero / near - 1) < span - 1) {
-        const under = zero - AROUND * jump;
-        const over = zero + AROUND * jump;
-        const bOver = bAt(over);
-        if (past(bOver)) {
-          const bUnder = bAt(under);
-          if (past(bUnder)) return solve(f, under, b, bUnder);
-          if (isFiniteNumber(bUnder)) return solve(under, over, bUnder, bOver);
-        }
-      }
-    }
-    prevF = f;
-    prevB = b;
-  }
+  return resonanceNear(probe, node, near, sign, y, scratch, span, predictBySecant);
 }
 
 /** What following a shunt tuned circuit gives. */
