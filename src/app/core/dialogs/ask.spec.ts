@@ -106,5 +106,16 @@ describe('Ask', () => {
     await typeInto('  Loop, wider tank  ');
     button('Save variant').click();
     await expect(named).resolves.toBe('Loop, wider tank');
+
+    const cancelled = ask.name({
+      title: 'Rename',
+      label: 'Name',
+      initial: 'Loop',
+      maxLength: 200,
+      submitLabel: 'Rename',
+    });
+    await settle();
+    button('Cancel').click();
+    await expect(cancelled).resolves.toBeNull();
   });
 });

@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { DialogFormComponent } from './dialog-form.component';
 
 export interface NameDialogData {
   title: string;
@@ -16,36 +16,18 @@ export interface NameDialogData {
 /** Asks for one name (a workspace, a chain). Closes with the trimmed name, or nothing. */
 @Component({
   selector: 'cw-name-dialog',
-  imports: [
-    MatDialogModule,
-    MatButtonModule,
-    MatFormFieldModule,
-    MatInputModule,
-    ReactiveFormsModule,
-  ],
+  imports: [DialogFormComponent, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <h2 mat-dialog-title>{{ data.title }}</h2>
-      <mat-dialog-content>
-        <mat-form-field appearance="outline" class="cw-full">
-          <mat-label>{{ data.label }}</mat-label>
-          <input matInput formControlName="name" cdkFocusInitial [maxlength]="data.maxLength" />
-          @if (name.hasError('required') || name.hasError('blank')) {
-            <mat-error>Enter a name.</mat-error>
-          }
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit">{{ data.submitLabel }}</button>
-      </mat-dialog-actions>
-    </form>
-  `,
-  styles: `
-    .cw-full {
-      width: min(360px, 100%);
-    }
+    <cw-dialog-form [title]="data.title" [submitLabel]="data.submitLabel" (submitted)="submit()">
+      <mat-form-field appearance="outline" class="cw-dialog-field">
+        <mat-label>{{ data.label }}</mat-label>
+        <input matInput [formControl]="name" cdkFocusInitial [maxlength]="data.maxLength" />
+        @if (name.hasError('required') || name.hasError('blank')) {
+          <mat-error>Enter a name.</mat-error>
+        }
+      </mat-form-field>
+    </cw-dialog-form>
   `,
 })
 export class NameDialogComponent {
@@ -55,9 +37,6 @@ export class NameDialogComponent {
     nonNullable: true,
     validators: [Validators.required, (c) => (String(c.value).trim() ? null : { blank: true })],
   });
-
-  // A form group, not a bare control, so that (ngSubmit) fires.
-  protected readonly form = new FormGroup({ name: this.name });
 
   protected submit(): void {
     this.name.markAsTouched();

@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { FormControl, FormGroup, ReactiveFormsModule, type ValidatorFn } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { FormControl, ReactiveFormsModule, type ValidatorFn } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
+import { DialogFormComponent } from './dialog-form.component';
 import type { UnitKind } from '../../../../shared/engine/types';
 import { parseQuantity } from '../../../../shared/units/parse';
 
@@ -28,39 +28,21 @@ export interface ValueDialogData {
  */
 @Component({
   selector: 'cw-value-dialog',
-  imports: [
-    MatDialogModule,
-    MatButtonModule,
-    MatFormFieldModule,
-    MatInputModule,
-    ReactiveFormsModule,
-  ],
+  imports: [DialogFormComponent, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <h2 mat-dialog-title>{{ data.title }}</h2>
-      <mat-dialog-content>
-        <mat-form-field appearance="outline" class="cw-full">
-          <mat-label>{{ data.label }}</mat-label>
-          <input matInput formControlName="value" cdkFocusInitial autocomplete="off" />
-          @if (data.hint) {
-            <mat-hint>{{ data.hint }}</mat-hint>
-          }
-          @if (value.errors?.['unreadable']; as reason) {
-            <mat-error data-testid="value-error">{{ reason }}</mat-error>
-          }
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit">{{ data.submitLabel }}</button>
-      </mat-dialog-actions>
-    </form>
-  `,
-  styles: `
-    .cw-full {
-      width: min(360px, 100%);
-    }
+    <cw-dialog-form [title]="data.title" [submitLabel]="data.submitLabel" (submitted)="submit()">
+      <mat-form-field appearance="outline" class="cw-dialog-field">
+        <mat-label>{{ data.label }}</mat-label>
+        <input matInput [formControl]="value" cdkFocusInitial autocomplete="off" />
+        @if (data.hint) {
+          <mat-hint>{{ data.hint }}</mat-hint>
+        }
+        @if (value.errors?.['unreadable']; as reason) {
+          <mat-error data-testid="value-error">{{ reason }}</mat-error>
+        }
+      </mat-form-field>
+    </cw-dialog-form>
   `,
 })
 export class ValueDialogComponent {
@@ -74,9 +56,6 @@ export class ValueDialogComponent {
     nonNullable: true,
     validators: [this.readable],
   });
-
-  // A form group, not a bare control, so that (ngSubmit) fires.
-  protected readonly form = new FormGroup({ value: this.value });
 
   protected submit(): void {
     this.value.markAsTouched();

@@ -1,10 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
+import { DialogFormComponent } from '../../../core/dialogs/dialog-form.component';
 import { MODE_KIND_WORDS, MODE_KINDS, type ModeKind } from './mode-types';
 
 export interface ModeDialogData {
@@ -23,8 +23,7 @@ export interface ModeDialogAnswer {
 @Component({
   selector: 'cw-mode-dialog',
   imports: [
-    MatDialogModule,
-    MatButtonModule,
+    DialogFormComponent,
     MatFormFieldModule,
     MatInputModule,
     MatSelectModule,
@@ -32,43 +31,30 @@ export interface ModeDialogAnswer {
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <h2 mat-dialog-title>{{ data.title }}</h2>
-      <mat-dialog-content>
-        <mat-form-field appearance="outline" class="cw-full">
-          <mat-label>Name</mat-label>
-          <input
-            matInput
-            formControlName="name"
-            cdkFocusInitial
-            maxlength="80"
-            data-testid="mode-name"
-          />
-          @if (form.controls.name.invalid) {
-            <mat-error>Enter a name, e.g. “transmit” or “band 2”.</mat-error>
+    <cw-dialog-form [title]="data.title" [submitLabel]="data.submitLabel" (submitted)="submit()">
+      <mat-form-field appearance="outline" class="cw-dialog-field">
+        <mat-label>Name</mat-label>
+        <input
+          matInput
+          [formControl]="form.controls.name"
+          cdkFocusInitial
+          maxlength="80"
+          data-testid="mode-name"
+        />
+        @if (form.controls.name.invalid) {
+          <mat-error>Enter a name, e.g. “transmit” or “band 2”.</mat-error>
+        }
+      </mat-form-field>
+      <mat-form-field appearance="outline" class="cw-dialog-field">
+        <mat-label>Kind</mat-label>
+        <mat-select [formControl]="form.controls.kind" data-testid="mode-kind">
+          @for (kind of kinds; track kind) {
+            <mat-option [value]="kind">{{ words[kind] }}</mat-option>
           }
-        </mat-form-field>
-        <mat-form-field appearance="outline" class="cw-full">
-          <mat-label>Kind</mat-label>
-          <mat-select formControlName="kind" data-testid="mode-kind">
-            @for (kind of kinds; track kind) {
-              <mat-option [value]="kind">{{ words[kind] }}</mat-option>
-            }
-          </mat-select>
-          <mat-hint>A transmit mode brings the transmit caution to the chain.</mat-hint>
-        </mat-form-field>
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit">{{ data.submitLabel }}</button>
-      </mat-dialog-actions>
-    </form>
-  `,
-  styles: `
-    .cw-full {
-      display: block;
-      width: min(360px, 100%);
-    }
+        </mat-select>
+        <mat-hint>A transmit mode brings the transmit caution to the chain.</mat-hint>
+      </mat-form-field>
+    </cw-dialog-form>
   `,
 })
 export class ModeDialogComponent {
