@@ -1,7 +1,6 @@
 import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { passwordResetRequestSchema } from '../../../../shared/schema/api';
@@ -10,6 +9,7 @@ import { sentence, zodValidator } from '../../core/forms/zod-validator';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { AuthCardComponent } from '../auth/parts/auth-card.component';
 import { Submission } from '../auth/parts/submission';
+import { FormEndComponent } from '../auth/parts/form-end.component';
 import { TextFieldComponent } from '../auth/parts/text-field.component';
 
 /** Asks for a password link by mail; the answer is the same whether the address is known. */
@@ -18,9 +18,9 @@ import { TextFieldComponent } from '../auth/parts/text-field.component';
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatButtonModule,
     AuthCardComponent,
     TextFieldComponent,
+    FormEndComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -33,15 +33,9 @@ import { TextFieldComponent } from '../auth/parts/text-field.component';
         <p class="cw-muted">We mail a link to the address of your account.</p>
         <form (ngSubmit)="submit()" novalidate>
           <cw-text-field label="E-mail" type="email" autocomplete="email" [control]="email" />
-          @if (submission.failure(); as text) {
-            <p class="cw-form-error" role="alert">{{ text }}</p>
-          }
-          <div class="cw-actions">
-            <button mat-flat-button type="submit" [disabled]="submission.busy()">
-              Mail me a link
-            </button>
+          <cw-form-end [submission]="submission" label="Mail me a link">
             <a routerLink="/sign-in">Back to sign in</a>
-          </div>
+          </cw-form-end>
         </form>
       }
     </cw-auth-card>

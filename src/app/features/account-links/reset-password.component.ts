@@ -1,7 +1,6 @@
 import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { passwordResetSchema } from '../../../../shared/schema/api';
@@ -10,7 +9,8 @@ import { zodValidator } from '../../core/forms/zod-validator';
 import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { AuthCardComponent } from '../auth/parts/auth-card.component';
 import { Submission } from '../auth/parts/submission';
-import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.component';
+import { FormEndComponent } from '../auth/parts/form-end.component';
+import { NewPasswordFieldComponent } from '../auth/parts/new-password-field.component';
 
 /** Sets a new password with the link from the mail (single use, one hour). */
 @Component({
@@ -18,9 +18,9 @@ import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatButtonModule,
     AuthCardComponent,
-    TextFieldComponent,
+    NewPasswordFieldComponent,
+    FormEndComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -33,22 +33,10 @@ import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.
         <p><a routerLink="/sign-in">Sign in</a></p>
       } @else {
         <form (ngSubmit)="submit()" novalidate>
-          <cw-text-field
-            label="New password"
-            type="password"
-            autocomplete="new-password"
-            [hint]="passwordHint"
-            [control]="password"
-          />
-          @if (submission.failure(); as text) {
-            <p class="cw-form-error" role="alert">{{ text }}</p>
-          }
-          <div class="cw-actions">
-            <button mat-flat-button type="submit" [disabled]="submission.busy()">
-              Set password
-            </button>
+          <cw-new-password-field label="New password" [control]="password" />
+          <cw-form-end [submission]="submission" label="Set password">
             <a routerLink="/forgot-password">Ask for a new link</a>
-          </div>
+          </cw-form-end>
         </form>
       }
     </cw-auth-card>
@@ -64,7 +52,6 @@ export default class ResetPasswordComponent {
     validators: [zodValidator(passwordResetSchema.shape.password)],
   });
   protected readonly submission = new Submission();
-  protected readonly passwordHint = NEW_PASSWORD_HINT;
   protected readonly done = signal(false);
 
   protected async submit(): Promise<void> {

@@ -1,7 +1,6 @@
 import { HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { registerSchema } from '../../../../shared/schema/api';
@@ -12,7 +11,9 @@ import { SKIP_ERROR_SNACKBAR } from '../../core/http/http-context';
 import { SessionStore } from '../../core/session/session.store';
 import { AuthCardComponent } from './parts/auth-card.component';
 import { Submission } from './parts/submission';
-import { NEW_PASSWORD_HINT, TextFieldComponent } from './parts/text-field.component';
+import { FormEndComponent } from './parts/form-end.component';
+import { NewPasswordFieldComponent } from './parts/new-password-field.component';
+import { TextFieldComponent } from './parts/text-field.component';
 
 /** Whether a failed registration means the site takes no new accounts. */
 export function isRegistrationClosed(error: unknown): boolean {
@@ -27,9 +28,10 @@ export function isRegistrationClosed(error: unknown): boolean {
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatButtonModule,
     AuthCardComponent,
     TextFieldComponent,
+    NewPasswordFieldComponent,
+    FormEndComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -58,22 +60,10 @@ export function isRegistrationClosed(error: unknown): boolean {
             autocomplete="email"
             [control]="form.controls.email"
           />
-          <cw-text-field
-            label="Password"
-            type="password"
-            autocomplete="new-password"
-            [hint]="passwordHint"
-            [control]="form.controls.password"
-          />
-          @if (submission.failure(); as text) {
-            <p class="cw-form-error" role="alert">{{ text }}</p>
-          }
-          <div class="cw-actions">
-            <button mat-flat-button type="submit" [disabled]="submission.busy()">
-              Create account
-            </button>
+          <cw-new-password-field [control]="form.controls.password" />
+          <cw-form-end [submission]="submission" label="Create account">
             <a routerLink="/sign-in">I have an account</a>
-          </div>
+          </cw-form-end>
         </form>
       }
     </cw-auth-card>
@@ -100,7 +90,6 @@ export default class RegisterComponent {
     }),
   });
   protected readonly submission = new Submission();
-  protected readonly passwordHint = NEW_PASSWORD_HINT;
   protected readonly closed = signal(false);
   /** Set when the address must be confirmed by mail before the account exists. */
   protected readonly pending = signal('');

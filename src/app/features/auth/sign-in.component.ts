@@ -1,7 +1,6 @@
 import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { loginSchema } from '../../../../shared/schema/api';
@@ -12,6 +11,7 @@ import { SessionStore } from '../../core/session/session.store';
 import { AuthCardComponent } from './parts/auth-card.component';
 import { Submission } from './parts/submission';
 import { TextFieldComponent } from './parts/text-field.component';
+import { FormEndComponent } from './parts/form-end.component';
 import { safeReturnUrl } from './return-url';
 
 /** Sign in with e-mail and password, then go back where the user was heading. */
@@ -20,9 +20,9 @@ import { safeReturnUrl } from './return-url';
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatButtonModule,
     AuthCardComponent,
     TextFieldComponent,
+    FormEndComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -46,16 +46,12 @@ import { safeReturnUrl } from './return-url';
           autocomplete="current-password"
           [control]="form.controls.password"
         />
-        @if (submission.failure(); as text) {
-          <p class="cw-form-error" role="alert">{{ text }}</p>
-        }
-        <div class="cw-actions">
-          <button mat-flat-button type="submit" [disabled]="submission.busy()">Sign in</button>
+        <cw-form-end [submission]="submission" label="Sign in">
           <a routerLink="/forgot-password">Forgot your password?</a>
           @if (registrationOpen()) {
             <a routerLink="/register">Create an account</a>
           }
-        </div>
+        </cw-form-end>
       </form>
     </cw-auth-card>
   `,

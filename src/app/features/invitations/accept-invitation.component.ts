@@ -1,7 +1,6 @@
 import { HttpContext } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { Router, RouterLink } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import {
@@ -17,7 +16,9 @@ import { ROLE_LABELS } from '../../core/session/roles';
 import { SessionStore } from '../../core/session/session.store';
 import { AuthCardComponent } from '../auth/parts/auth-card.component';
 import { Submission } from '../auth/parts/submission';
-import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.component';
+import { FormEndComponent } from '../auth/parts/form-end.component';
+import { NewPasswordFieldComponent } from '../auth/parts/new-password-field.component';
+import { TextFieldComponent } from '../auth/parts/text-field.component';
 
 /**
  * The page an invitation mail links to: what the invitation offers, and accepting it. A
@@ -29,9 +30,10 @@ import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatButtonModule,
     AuthCardComponent,
     TextFieldComponent,
+    NewPasswordFieldComponent,
+    FormEndComponent,
   ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
@@ -63,22 +65,14 @@ import { NEW_PASSWORD_HINT, TextFieldComponent } from '../auth/parts/text-field.
               [maxlength]="80"
               [control]="form.controls.displayName"
             />
-            <cw-text-field
-              label="Choose a password"
-              type="password"
-              autocomplete="new-password"
-              [hint]="passwordHint"
-              [control]="form.controls.password"
-            />
+            <cw-new-password-field label="Choose a password" [control]="form.controls.password" />
           }
-          @if (submission.failure(); as text) {
-            <p class="cw-form-error" role="alert">{{ text }}</p>
-          }
-          <div class="cw-actions">
-            <button mat-flat-button type="submit" [disabled]="submission.busy()">
-              {{ p.hasAccount || signedInAs() ? 'Join the workspace' : 'Create account and join' }}
-            </button>
-          </div>
+          <cw-form-end
+            [submission]="submission"
+            [label]="
+              p.hasAccount || signedInAs() ? 'Join the workspace' : 'Create account and join'
+            "
+          />
         </form>
       } @else {
         <p class="cw-muted">Reading the invitation…</p>
@@ -97,7 +91,6 @@ export default class AcceptInvitationComponent {
   protected readonly preview = signal<InvitationPreviewDto | null>(null);
   protected readonly gone = signal('');
   protected readonly submission = new Submission();
-  protected readonly passwordHint = NEW_PASSWORD_HINT;
   protected readonly signedInAs = signal<string | null>(null);
   protected readonly form = new FormGroup({
     displayName: new FormControl('', {

@@ -4,9 +4,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { controlMessage } from '../../../core/forms/zod-validator';
 
-/** What a new password should be like, said under every field that sets one. */
-export const NEW_PASSWORD_HINT = 'At least 10 characters; a few unusual words make a strong one.';
-
 /**
  * One labelled text input of an account form, bound to a control of the page's form, with
  * the control's schema message under it when it is wrong.
