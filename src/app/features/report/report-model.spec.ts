@@ -23,13 +23,13 @@ describe('report-model', () => {
     ).transmit!;
     // Numbers as the app's formatter writes them (its significant figures are a setting).
     expect(tx.delivered).toBe(`94.50 mW (${decibels(19.75, 'dBm')})`);
-    expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.verdict])).toEqual([
+    expect(tx.harmonics.map((h) => [h.n, h.attenuation, h.limit, h.ok])).toEqual([
       // The limits are the user's: written as stated, not padded to the figures.
-      [2, decibels(16.3), '20 dB', 'over limit'],
-      [3, decibels(30.9), '20 dB', 'within limit'],
+      [2, decibels(16.3), '20 dB', false],
+      [3, decibels(30.9), '20 dB', true],
     ]);
     expect(tx.receiver).toMatchObject({ isolation: decibels(34.2), verdict: 'no limit stated' });
-    expect(tx.parts.map((p) => p.verdict)).toEqual(['no limit stated', 'over limit']);
+    expect(tx.parts.map((p) => p.ok)).toEqual([null, false]);
     expect(tx.parts[1].rating).toBe('2 V peak'); // a stated rating, not padded
     expect(tx.frequency).toBe('433.92 MHz');
   });

@@ -31,6 +31,7 @@ import { documentForResults, findMode, hasTransmitMode, modesOf } from '../edito
 import { type ReportPlot, drawReportPlots, reportPlotSpecs } from './report-plots';
 import { reportModel } from './report-model';
 import { TRANSMIT_NOTE } from './report-transmit';
+import { TransmitTablesComponent } from '../editor/modes/transmit-tables.component';
 import { PAGE_SIZES, PageSizeStore, type PageSize } from './page-size';
 
 /** What the report is of, however it was reached. */
@@ -60,7 +61,13 @@ interface ReportSource {
  */
 @Component({
   selector: 'cw-report-page',
-  imports: [MatButtonModule, MatButtonToggleModule, RouterLink, StageSymbolComponent],
+  imports: [
+    MatButtonModule,
+    MatButtonToggleModule,
+    RouterLink,
+    StageSymbolComponent,
+    TransmitTablesComponent,
+  ],
   changeDetection: ChangeDetectionStrategy.OnPush,
   templateUrl: './report-page.component.html',
   styleUrl: './report-page.component.scss',

@@ -39,5 +39,7 @@ describe('TransmitPanelComponent', () => {
     // A part whose label already names its stage keeps it; another gets its stage's name.
     expect(parts).toEqual(['PA match, part 1 (series)', 'Receive side · part 2 (series L)']);
     expect(text('tr[data-stage-id="rx-idle"]')).toContain('over limit');
+    // The part's rating is stated beside its verdict, as the report prints it.
+    expect(text('tr[data-stage-id="rx-idle"]')).toContain('2 V peak');
   });
 });

@@ -1,23 +1,18 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
+import { significantFigures } from '../../../core/format/number-format';
 import {
   decibels,
   engineering,
   impedancePolar,
-  nominalDecibels,
   nominalEngineering,
   times,
 } from '../results/format-quantity';
-import { significantFigures } from '../../../core/format/number-format';
+import { TransmitTablesComponent } from './transmit-tables.component';
+import { transmitRows, verdictClass, verdictWords, type TransmitRows } from './transmit-rows';
 
 type Transmit = NonNullable<AnalysisResult['transmit']>;
 type Trap = NonNullable<AnalysisResult['traps']>[number];
-
-/** A judged figure's word: within the stated limit, over it, or no limit stated. */
-function verdict(ok: boolean | null): { text: string; cls: string } {
-  if (ok === null) return { text: 'no limit stated', cls: 'none' };
-  return ok ? { text: 'within limit', cls: 'ok' } : { text: 'over limit', cls: 'bad' };
-}
 
 /**
  * What a transmit mode's analysis adds (power into the antenna, harmonic attenuation, the
@@ -27,6 +22,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
  */
 @Component({
   selector: 'cw-transmit-panel',
+  imports: [TransmitTablesComponent],
   changeDetection: ChangeDetectionStrategy.OnPush,
   template: `
     @if (transmit(); as tx) {
@@ -56,63 +52,12 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
               <dt>Reaching the receiver input</dt>
               <dd class="cw-num">
                 {{ db(rx.dbm, 'dBm') }} · isolation {{ db(rx.isolationDb) }}
-                <span class="verdict" [class]="word(rx.ok).cls">{{ word(rx.ok).text }}</span>
+                <span [class]="mark(rx.ok)">{{ words(rx.ok) }}</span>
               </dd>
             </div>
           }
         </dl>
-        @if (tx.harmonics.length) {
-          <table class="grid" aria-label="Harmonic attenuation of the output network">
-            <thead>
-              <tr>
-                <th scope="col">Harmonic</th>
-                <th scope="col">Frequency</th>
-                <th scope="col">Attenuation</th>
-                <th scope="col">Limit</th>
-                <th scope="col"></th>
-              </tr>
-            </thead>
-            <tbody>
-              @for (h of tx.harmonics; track h.n) {
-                <tr [attr.data-harmonic]="h.n">
-                  <th scope="row">{{ h.n }}·f0</th>
-                  <td class="cw-num">{{ f(h.fHz, 'hertz', 5) }}</td>
-                  <td class="cw-num">{{ db(h.attenuationDb) }}</td>
-                  <td class="cw-num">{{ h.limitDb === null ? '—' : statedDb(h.limitDb) }}</td>
-                  <td>
-                    <span class="verdict" [class]="word(h.ok).cls">{{ word(h.ok).text }}</span>
-                  </td>
-                </tr>
-              }
-            </tbody>
-          </table>
-        }
-        @if (tx.parts.length) {
-          <table class="grid" aria-label="Voltage and current of each part at the transmit power">
-            <thead>
-              <tr>
-                <th scope="col">Part</th>
-                <th scope="col">Peak voltage</th>
-                <th scope="col">RMS current</th>
-                <th scope="col">Power</th>
-                <th scope="col">Rating</th>
-              </tr>
-            </thead>
-            <tbody>
-              @for (p of tx.parts; track $index) {
-                <tr [attr.data-stage-id]="p.stageId">
-                  <th scope="row">{{ partName(p.stageId, p.label) }}</th>
-                  <td class="cw-num">{{ f(p.vPeak, 'volt') }}</td>
-                  <td class="cw-num">{{ f(p.iRms, 'ampere') }}</td>
-                  <td class="cw-num">{{ f(p.powerW, 'watt') }}</td>
-                  <td>
-                    <span class="verdict" [class]="word(p.ok).cls">{{ word(p.ok).text }}</span>
-                  </td>
-                </tr>
-              }
-            </tbody>
-          </table>
-        }
+        <cw-transmit-tables [rows]="rows()!" />
         <p class="note">
           Figures at the amplifier's target power, voltages peak. Transmitting needs a licence and
           must meet local rules; see the caution above.
@@ -122,7 +67,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
     @if (traps().length) {
       <section class="panel" aria-labelledby="cw-trap-head" data-testid="trap-panel">
         <h2 id="cw-trap-head">Branches to ground at f0</h2>
-        <table class="grid" aria-label="Branches to ground judged as traps at f0">
+        <table class="cw-judged" aria-label="Branches to ground judged as traps at f0">
           <thead>
             <tr>
               <th scope="col">Branch</th>
@@ -145,9 +90,7 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
                   {{ x(t.intent === 'high' ? t.required : 1 / t.required) }})
                 </td>
                 <td>
-                  <span class="verdict" [class]="t.ok ? 'ok' : 'bad'">{{
-                    t.ok ? 'does its job' : 'falls short'
-                  }}</span>
+                  <span [class]="mark(t.ok)">{{ t.ok ? 'does its job' : 'falls short' }}</span>
                 </td>
               </tr>
             }
@@ -181,33 +124,6 @@ function verdict(ok: boolean | null): { text: string; cls: string } {
     dd {
       margin: 0;
     }
-    .grid {
-      border-collapse: collapse;
-      margin: 8px 0;
-      font-size: 14px;
-    }
-    .grid th,
-    .grid td {
-      padding: 4px 10px;
-      text-align: left;
-      border-bottom: 1px solid var(--mat-sys-outline-variant);
-    }
-    .verdict {
-      font: var(--mat-sys-label-medium);
-      padding: 1px 6px;
-      border-radius: 8px;
-    }
-    .verdict.ok {
-      background: var(--mat-sys-secondary-container);
-      color: var(--mat-sys-on-secondary-container);
-    }
-    .verdict.bad {
-      background: var(--mat-sys-error-container);
-      color: var(--mat-sys-on-error-container);
-    }
-    .verdict.none {
-      color: var(--mat-sys-on-surface-variant);
-    }
     .note {
       margin: 4px 0 0;
       font: var(--mat-sys-body-small);
@@ -222,22 +138,20 @@ export class TransmitPanelComponent {
 
   protected readonly transmit = computed((): Transmit | null => this.result()?.transmit ?? null);
   protected readonly traps = computed((): Trap[] => this.result()?.traps ?? []);
+  protected readonly rows = computed((): TransmitRows | null => {
+    const tx = this.transmit();
+    return tx ? transmitRows(tx, this.labels()) : null;
+  });
 
   protected readonly f = engineering;
   protected readonly db = decibels;
-  /** A limit the user states, rounded but not padded ("20 dB"). */
-  protected readonly statedDb = nominalDecibels;
   protected readonly x = times;
   protected readonly z = impedancePolar;
-  protected readonly word = verdict;
+  protected readonly words = verdictWords;
+  protected readonly mark = verdictClass;
 
   /** The design frequency as stated, to at least 5 figures so 433.92 MHz reads whole. */
   protected statedHz(hz: number): string {
     return nominalEngineering(hz, 'hertz', Math.max(5, significantFigures()));
-  }
-
-  protected partName(stageId: string, label: string): string {
-    const stage = this.labels().get(stageId);
-    return stage && !label.startsWith(stage) ? `${stage} · ${label}` : label;
   }
 }
