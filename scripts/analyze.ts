@@ -21,6 +21,7 @@ import {
   StageParameterError,
   type StageDefinition,
 } from '../shared/engine';
+import { releaseSharedWorkspaces } from '../shared/engine/core/nodes';
 import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
 import { budgetText } from '../shared/io/budget-text';
 import { planText } from '../shared/io/plan-text';
@@ -338,6 +339,8 @@ function buildingSnapshot(): void {
   for (const file of (process.env.CW_CLI_WARM_UP ?? '').split(delimiter).filter(Boolean)) {
     main([file, '--sweep']);
   }
+  // The warm-up's workspaces would only make the snapshot, and every run's memory, larger.
+  releaseSharedWorkspaces();
   process.exitCode = undefined;
   startupSnapshot.setDeserializeMainFunction(() => main(process.argv.slice(1)));
 }

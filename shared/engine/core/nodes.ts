@@ -110,6 +110,11 @@ export function sharedWorkspace(key: string, built: BuiltChain, points: number):
   return fresh;
 }
 
+/** Lets the kept workspaces go (before a process image is saved, e.g. a start-up snapshot). */
+export function releaseSharedWorkspaces(): void {
+  kept.clear();
+}
+
 /** Workspaces {@link sharedWorkspace} handed out without keeping them (too large). */
 const oneOff = new WeakSet<NodeAnalysis>();
 
