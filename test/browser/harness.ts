@@ -102,8 +102,14 @@ export async function signOut(page: Page, displayName: string): Promise<void> {
 
 /**
  * Saves a PNG as test-results/screenshots/<name>.png: the full page, or only the window with
- * `{ fullPage: false }`, for an open menu (a full-page capture resizes the window, and an
- * overlay menu closes on that).
+ * `{ fullPage: false }`, for an open menu (the full page is taken in a taller window, and an
+ * overlay menu closes on that resize).
+ *
+ * Not Playwright's own `fullPage`: in Chromium it shrinks the window to 1×1 px for a moment,
+ * so every width media query flips to the phone layout and back, and components inside the
+ * layout's branches are re-created with their state lost (a half-finished form, an answer
+ * on screen) whenever the page catches up with that flip, as it does on a busy machine.
+ * Only the height changes here, and the width layout stays put.
  */
 export async function shot(
   page: Page,
@@ -122,7 +128,23 @@ export async function shot(
       .getAnimations()
       .every((a) => a.playState !== 'running' || a.effect?.getTiming().iterations === Infinity),
   );
-  await page.screenshot({ path, fullPage: options.fullPage ?? true });
+  const window = page.viewportSize();
+  if ((options.fullPage ?? true) && window) {
+    const height = await page.evaluate(() =>
+      Math.ceil((globalThis as unknown as PageGlobal).document.documentElement.scrollHeight),
+    );
+    if (height > window.height) {
+      // Capped: Chromium cannot paint a window taller than 16,384 px in one piece.
+      await page.setViewportSize({ width: window.width, height: Math.min(height, 16_000) });
+      try {
+        await page.screenshot({ path });
+      } finally {
+        await page.setViewportSize(window);
+      }
+      return path;
+    }
+  }
+  await page.screenshot({ path });
   return path;
 }
 
@@ -132,6 +154,7 @@ export async function shot(
  */
 interface PageGlobal {
   document: {
+    documentElement: { scrollHeight: number };
     fonts: { ready: Promise<unknown> };
     getAnimations(): {
       playState: string;
