@@ -7,7 +7,16 @@
  * and at the common resonance each then reflects into the other a conductance equal to
  * that tank's own termination, so the second tank's Q halves when the load is attached.
  */
-import { analyzeChain } from '../../shared/engine';
+import { analyzeChain, buildChain, frequencyGrid, runNodeAnalysis } from '../../shared/engine';
+import { ownSusceptanceZero } from '../../shared/engine/core/coupled-pair';
+import {
+  coupledExtract,
+  probePointEval,
+  resonate,
+} from '../../shared/engine/core/extract-resonance';
+import { createProbe } from '../../shared/engine/core/probe';
+import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import { benchChain } from '../../scripts/bench/bench-chain';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { parseChainDocument } from '../../shared/schema/parse-chain';
 
@@ -78,5 +87,31 @@ describe('coupled pair of tanks', () => {
     const second = res.resonators.find((r) => r.label === 'second tank')!;
     expect(second.loadingRatio!).toBeGreaterThan(0.4);
     expect(second.loadingRatio!).toBeLessThan(0.6);
+  });
+});
+
+describe('a tank with no frequency change before it', () => {
+  it('finds its resonances on its own susceptance: the same numbers as the chain searched at every step', () => {
+    const built = buildChain(parseChainDocument(benchChain(2001)), STAGE_DEFINITIONS);
+    const na = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+    const stage = built.twoPorts.find((s) => s.id === 'preselector')!;
+    const decls = stage.model.resonators!.filter((d) => d.kind === 'shunt');
+    expect(decls).toHaveLength(2);
+    for (const decl of decls) {
+      const first = decl.coupledPartner === 'downstream';
+      const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
+      const own = decl.ownAdmittance!;
+      const extracts = [
+        coupledExtract(flat, own, true, true, false),
+        coupledExtract(flat, own, true, false, first),
+      ];
+      const probe = createProbe(built);
+      const at = probePointEval(probe, flat);
+      const f0 = built.settings.f0Hz;
+      const searched = extracts.map((x) => resonate(at, na.freqs, na, x, f0));
+      const fast = ownSusceptanceZero(at, own, na.freqs, f0, extracts);
+      expect(searched.every((r) => r !== null)).toBe(true);
+      expect(fast).toEqual(searched);
+    }
   });
 });

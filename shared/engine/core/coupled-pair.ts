@@ -12,9 +12,20 @@
  * alone resonates, so the pair also reports the maximum of the voltage at its output node and
  * the −3 dB width there; the detune flag judges the pair by that.
  */
-import type { ResonatorDecl } from '../types';
+import type { ComplexFn, ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { coupledExtract, ownResonance, probePointEval, resonate } from './extract-resonance';
+import {
+  coupledExtract,
+  DIFF_STEP,
+  ownResonance,
+  probePointEval,
+  resonate,
+  type Extract,
+  type PointEval,
+  type Resonance,
+} from './extract-resonance';
+import { nearestRisingOutward } from './nearest-crossing';
+import { solveBracketed } from './refine';
 import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { locateEdge, locateGridPeak, powerMax, stepUpPower } from './response-shape';
@@ -53,10 +64,17 @@ export function coupledTank(
   const grid = gridNa.freqs;
   const f0 = built.settings.f0Hz;
   const own = decl.ownAdmittance;
+  const extracts = [
+    coupledExtract(flat, own, true, true, false),
+    coupledExtract(flat, own, true, false, first),
+  ];
+  let translated = false;
+  for (let j = 0; j < flat; j++) translated ||= !!built.sections[j].translate;
   // The extracts read Zsrc, Zin and the frequency at the tank's node only.
   const at = probePointEval(probe, flat);
-  const att = resonate(at, grid, gridNa, coupledExtract(flat, own, true, true, false), f0);
-  const det = resonate(at, grid, gridNa, coupledExtract(flat, own, true, false, first), f0);
+  const [att, det] = translated
+    ? extracts.map((x) => resonate(at, grid, gridNa, x, f0))
+    : ownSusceptanceZero(at, own, grid, f0, extracts);
   const qA = nn(att?.q);
   const qD = nn(det?.q);
   let share: number | null = null;
@@ -78,6 +96,46 @@ export function coupledTank(
     loadingRatio: !first && qA && qD ? qA / qD : null,
     downstreamShare: share,
   };
+}
+
+/**
+ * Both resonances of one tank (attached and detached) when nothing before its node changes
+ * frequency. Their imaginary part is the tank's own susceptance at the input frequency, so
+ * the bracket and the zero are found on the element alone and the chain is evaluated once,
+ * at the zero, for both real parts: the same numbers as `resonate` with each extract, which
+ * evaluated the chain at every step of the search only to read the node's frequency.
+ */
+export function ownSusceptanceZero(
+  at: PointEval,
+  own: ComplexFn,
+  grid: Float64Array,
+  target: number,
+  extracts: Extract[],
+): (Resonance | null)[] {
+  const y = new Float64Array(2);
+  const ownIm = (f: number) => {
+    own(f, y, 0);
+    return y[1];
+  };
+  const valueAt = (i: number, v: Float64Array) => {
+    v[0] = ownIm(grid[i]);
+    v[1] = grid[i];
+  };
+  const k = nearestRisingOutward(grid.length, (i) => grid[i], valueAt, target, new Float64Array(2)); // prettier-ignore
+  const fIn = k < 0 ? NaN : solveBracketed(ownIm, grid[k], grid[k + 1]);
+  if (!isFiniteNumber(fIn)) return extracts.map(() => null);
+  const fLo = fIn * (1 - DIFF_STEP);
+  const fHi = fIn * (1 + DIFF_STEP);
+  const imLo = ownIm(fLo);
+  const slope = (ownIm(fHi) - imLo) / (2 * Math.PI * (fHi - fLo)); // d(im)/dω at the node
+  const view = at(fIn);
+  const out = new Float64Array(3);
+  return extracts.map((extract) => {
+    extract(view, 0, out);
+    const real = out[0];
+    const q = ((2 * Math.PI * fIn) / (2 * real)) * slope;
+    return { fIn, fr: fIn, real, q: isFiniteNumber(q) && q > 0 ? q : NaN };
+  });
 }
 
 /**

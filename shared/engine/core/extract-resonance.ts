@@ -22,7 +22,7 @@ const { PI, abs, log } = Math;
 const isFiniteNumber = Number.isFinite;
 
 /** Relative step of the central difference for dB/dω. */
-const DIFF_STEP = 1e-6;
+export const DIFF_STEP = 1e-6;
 
 /** Writes (real part, imaginary part, local frequency) of the probed quantity at point i. */
 export type Extract = (na: NodeAnalysis, i: number, out: Float64Array) => void;
