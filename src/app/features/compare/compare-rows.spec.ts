@@ -60,6 +60,12 @@ describe('compareRows', () => {
     );
   });
 
+  it('should write the stated design frequency without padding, the results with theirs', () => {
+    const rows = compareRows([variant('a', 14.2, 3)]);
+    expect(row(rows, 'f0').cells[0].text).toBe('10 MHz');
+    expect(row(rows, 'image').cells[0].text).toBe('14.20 dB');
+  });
+
   it('should mark the best image rejection (higher) and the best noise figure (lower)', () => {
     const rows = compareRows([variant('a', 14.2, 3), variant('b', 32.5, 4)]);
     const image = row(rows, 'image');

@@ -3,7 +3,13 @@
  * variant's analysis. Pure, so the rows and the best-value marking are tested directly.
  */
 import type { AnalysisResult, SelectivityReport } from '../../../../shared/engine/types';
-import { NO_VALUE, decibels, engineering, plain } from '../editor/results/format-quantity';
+import {
+  NO_VALUE,
+  decibels,
+  engineering,
+  nominalEngineering,
+  plain,
+} from '../editor/results/format-quantity';
 
 /** Which way a row improves; `none` rows show values side by side without a winner. */
 export type Better = 'higher' | 'lower' | 'none';
@@ -56,10 +62,12 @@ const flagsOf = (r: AnalysisResult, severity: 'warning' | 'error') =>
 const dbText = (v: number | null) => decibels(v);
 const dbmText = (v: number | null) => decibels(v, 'dBm');
 const hzText = (v: number | null) => engineering(v, 'hertz');
+const statedHz = (v: number | null) => nominalEngineering(v, 'hertz');
 const countText = (v: number | null) => (v === null ? NO_VALUE : String(v));
 
 const ROWS: RowSpec[] = [
-  { key: 'f0', label: 'f₀', better: 'none', value: (r) => r.f0Hz, format: hzText },
+  // The design frequency is the user's: written as stated ("7.2 MHz", not "7.200 MHz").
+  { key: 'f0', label: 'f₀', better: 'none', value: (r) => r.f0Hz, format: statedHz },
   {
     key: 'stages',
     label: 'Stages between source and load',
