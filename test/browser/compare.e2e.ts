@@ -5,6 +5,7 @@
  */
 import type { Browser, Page } from 'playwright-core';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
+import { waitUntil } from './helpers/wait';
 
 const SINGLE = 'Shortwave superhet, 7.2 MHz, one preselector tank';
 const PAIR = 'Shortwave superhet, 7.2 MHz, coupled-pair preselector';
@@ -21,6 +22,49 @@ async function imageRow(page: Page): Promise<{ texts: string[]; best: boolean[] 
 async function plotsReady(page: Page): Promise<void> {
   const ready = page.getByRole('button', { name: 'Save PNG' }).and(page.locator(':enabled'));
   await ready.nth(1).waitFor();
+}
+
+/** A frequency tick as ours are written: a space, then the prefix and unit ("7.25 MHz"). */
+const TICK = /^\d+(\.\d+)? [kM]?Hz$/;
+
+/**
+ * Zooms into the middle fifth of the step-up plot: its frequency axis is ticked again with
+ * our prefixes for the range shown (labels the whole sweep's ticks never had). Then hovers
+ * it: the heading of the hover box is the frequency written as every figure is, at the
+ * default 4 significant figures with a space before the unit ("7.200 MHz", not Plotly's
+ * "7.2MHz"), and stays so while the pointer moves over the same point.
+ */
+async function zoomAndHover(page: Page): Promise<void> {
+  const plot = page.locator('[role="group"][aria-label^="Voltage step-up at the last node"]');
+  const ticks = () => plot.locator('.xtick text').allTextContents();
+  const before = await ticks();
+  expect(before.length).toBeGreaterThanOrEqual(3);
+  for (const t of before) expect([t, TICK.test(t)]).toEqual([t, true]);
+  // The pointer works in the viewport: bring the plot into it first.
+  await plot.scrollIntoViewIfNeeded();
+  const area = (await plot.locator('.nsewdrag').first().boundingBox())!;
+  const y = area.y + area.height / 2;
+  await page.mouse.move(area.x + area.width * 0.4, y);
+  await page.mouse.down();
+  await page.mouse.move(area.x + area.width * 0.6, y, { steps: 8 });
+  await page.mouse.up();
+  let after: string[] = [];
+  await waitUntil(async () => {
+    after = await ticks();
+    return after.length >= 3 && after.some((t) => !before.includes(t));
+  }, 'the frequency ticks worked out again for the zoomed range');
+  for (const t of after) expect([t, TICK.test(t)]).toEqual([t, true]);
+  await shot(page, 'compare-03-zoomed');
+
+  const heading = plot.locator('.hoverlayer .legendtitletext');
+  await page.mouse.move(area.x + area.width * 0.5, y);
+  await waitUntil(async () => /^\d\.\d{3} MHz$/.test((await heading.textContent()) ?? ''), 'our hover heading'); // prettier-ignore
+  await page.mouse.move(area.x + area.width * 0.5 + 1, y + 2);
+  await waitUntil(async () => /^\d\.\d{3} MHz$/.test((await heading.textContent()) ?? ''), 'the heading after a move'); // prettier-ignore
+  await shot(page, 'compare-04-hover');
+  // A double-click resets the zoom and brings back the whole sweep's ticks.
+  await page.mouse.dblclick(area.x + area.width * 0.5, y);
+  await waitUntil(async () => (await ticks()).join() === before.join(), 'the ticks of the sweep');
 }
 
 /** The number (dB) at the start of a cell text such as "32.5 dB best". */
@@ -88,6 +132,7 @@ describe('compare variants', () => {
     }
     await plotsReady(page);
     await shot(page, 'compare-01-two-variants');
+    await zoomAndHover(page);
 
     // Taking one variant away leaves one column; the picker brings it back.
     await page.getByRole('button', { name: `Stop comparing ${PAIR}` }).click();

@@ -1,8 +1,8 @@
 /**
  * One number format everywhere, in the browser: the account page's significant figures set
  * to 3 and then to 6, and the same quantities read at each setting on the editor (headline
- * figures, a budget cell, the resonator table, the echo under a value field), the receiver
- * plan and a band study's result. At 3 figures no figure has more than three; at 6 the
+ * figures, a budget cell, the resonator table, the echo under a value field, a flag
+ * sentence the server writes), the receiver plan and a band study's result. At 3 figures no figure has more than three; at 6 the
  * same quantities show more, and round back to what 3 figures showed. Screenshots go to
  * test-results/screenshots/number-format-*.png.
  */
@@ -61,11 +61,16 @@ async function csrfHeaders(page: Page): Promise<Record<string, string>> {
   return { 'x-csrf-token': csrf };
 }
 
-/** A chain of the test's own from the shortwave example; returns its id and document. */
-async function newChain(page: Page, wid: string, what: string) {
+/** A chain of the test's own from an example (the shortwave one); returns its id and document. */
+async function newChain(
+  page: Page,
+  wid: string,
+  what: string,
+  fromExample = 'shortwave-superhet-single-tank',
+) {
   const created = await page.request.post(`/api/workspaces/${wid}/chains`, {
     headers: await csrfHeaders(page),
-    data: { fromExample: 'shortwave-superhet-single-tank', name: `${what} ${uniqueSuffix()}` },
+    data: { fromExample, name: `${what} ${uniqueSuffix()}` },
   });
   expect(created.status()).toBe(201);
   return created.json();
@@ -120,7 +125,27 @@ async function echoAt(page: Page, wid: string): Promise<string> {
   return echo;
 }
 
+/**
+ * The detector's level in the under-driven detector's flag sentence ("gets 134 µV peak"),
+ * from a fresh chain of the long-wave loop example (its detector is under-driven), read on
+ * the editor's Flags tab.
+ */
+async function flagAt(page: Page, wid: string, figures: number): Promise<string> {
+  const chain = await newChain(page, wid, 'Flag', 'longwave-time-signal-loop');
+  await page.goto(`/w/${wid}/chains/${chain.id}`);
+  await page.getByRole('tab', { name: /^Flags/ }).click();
+  const sentence = await textWhen(
+    page.locator('cw-flags-list li').filter({ hasText: 'peak it needs' }),
+    /gets [\d.]+ [µm]?V peak/,
+    'the under-driven detector flag',
+  );
+  await shot(page, `number-format-${figures}-flags`);
+  return /gets ([\d.]+ [µm]?V) peak/.exec(sentence)![1];
+}
+
 interface Reading {
+  /** A figure of a flag sentence, which the server writes at the user's figures. */
+  flag: string;
   headline: string;
   budget: string;
   loadedQ: string;
@@ -138,6 +163,7 @@ async function readAll(
   figures: number,
 ): Promise<Reading> {
   const editorUrl = `/w/${wid}/chains/${chainId}`;
+  const flag = await flagAt(page, wid, figures);
   const echo = await echoAt(page, wid);
   await page.goto(editorUrl);
   const headline = page.locator('.headline-value');
@@ -169,6 +195,7 @@ async function readAll(
   );
   await shot(page, `number-format-${figures}-band`);
   return {
+    flag,
     headline: headlineText,
     budget,
     loadedQ,

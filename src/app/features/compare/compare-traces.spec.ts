@@ -45,6 +45,18 @@ describe('stepUpOverlay', () => {
     );
   });
 
+  it('should tick the frequency axis with our prefixes again after a zoom, as the editor does', () => {
+    const variants = [shifted('a', 0), shifted('b', 1)];
+    for (const figure of [
+      stepUpOverlay(variants, options)!,
+      returnLossOverlay(variants, options)!,
+    ]) {
+      // tickUnits is what the plot re-ticks on a zoom, and what its hover heading is written in.
+      expect(figure.tickUnits).toEqual({ xaxis: 'hertz' });
+      expect((figure.layout.xaxis as { ticktext?: string[] }).ticktext?.[0]).toMatch(/ [kM]?Hz$/);
+    }
+  });
+
   it('should keep a variant’s colour when an earlier one has no sweep', () => {
     const figure = stepUpOverlay([{ name: 'refused', result: null }, shifted('b', 0)], options)!;
     expect(figure.data).toHaveLength(1);

@@ -78,6 +78,8 @@ export function stepUpOverlay(
   });
   const markers = frequencyMarkers(ctx);
   return {
+    // Ticked in hertz with our prefixes, again after a zoom, as the editor's plots are.
+    tickUnits: { xaxis: 'hertz' },
     data,
     layout: {
       ...baseLayout(ctx, 'Voltage step-up at the last node'),
@@ -107,6 +109,7 @@ export function returnLossOverlay(
   }));
   const markers = frequencyMarkers(ctx);
   return {
+    tickUnits: { xaxis: 'hertz' },
     data,
     layout: {
       ...baseLayout(ctx, 'Input return loss (higher is a better match)'),

@@ -88,8 +88,9 @@ function frequencyAxis(ctx: PlotContext): Partial<LayoutAxis> {
   const ticks = log
     ? logAxisTicks(ctx.sweep.freqsHz, 'hertz')
     : linearAxisTicks(ctx.sweep.freqsHz, 'hertz');
-  // The shared hover box's heading is written by Plotly (d3's SI form has no space before
-  // the prefix), to the user's number of significant figures; the values under it are ours.
+  // The shared hover box's heading is drawn by Plotly in d3's SI form ("7.322MHz"); the
+  // plot then writes it again as ours ("7.322 MHz", hover-heading.ts). The values under it
+  // are ours from the start (customdata).
   const heading = `%{x:.${significantFigures()}~s}Hz`;
   return {
     ...axisStyle(ctx.palette),

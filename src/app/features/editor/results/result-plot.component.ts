@@ -16,6 +16,7 @@ import type { Config, Layout } from 'plotly.js-dist-min';
 import { PLOTLY_LOADER, type PlotlyApi } from './plotly-loader';
 import { PlotDrawQueue } from './plot-draw-queue';
 import { retickUpdate } from './plot-axes';
+import { followHoverHeading, hoverHeadingText, hoverHeadingUnit } from './hover-heading';
 import type { PlotFigure } from './plot-traces';
 
 /** A figure, or a function that builds it when the plot's turn to draw comes. */
@@ -134,6 +135,7 @@ export class ResultPlotComponent {
   private readonly failureText = signal('');
   protected readonly failure = this.failureText.asReadonly();
   protected readonly state = signal<'loading' | 'ready' | 'failed'>('loading');
+  private stopHoverHeading: (() => void) | null = null;
 
   constructor() {
     const destroyRef = inject(DestroyRef);
@@ -185,7 +187,7 @@ export class ResultPlotComponent {
             .react(element, figure.data, layout, PLOT_CONFIG)
             .then(
               () => {
-                listening ||= this.retickOnZoom(plotly, element);
+                listening ||= this.listen(plotly, element);
                 this.state.set('ready');
               },
               (error: unknown) => {
@@ -202,16 +204,18 @@ export class ResultPlotComponent {
       this.queue.cancel(this);
       waiting?.();
       resizeObserver?.disconnect();
+      this.stopHoverHeading?.();
       this.plotly()?.purge(this.canvas().nativeElement);
     });
   }
 
   /**
    * Our tick labels are a fixed list, so after a zoom or pan they are worked out again for
-   * the range shown, and a double-click reset brings back the data's own. Plotly adds `on`
+   * the range shown, and a double-click reset brings back the data's own. A unified hover
+   * box's heading is written again with our formatter (`hover-heading.ts`). Plotly adds `on`
    * to the element with its first drawing (the specs' stand-in never does): false until then.
    */
-  private retickOnZoom(plotly: PlotlyApi, element: HTMLElement): boolean {
+  private listen(plotly: PlotlyApi, element: HTMLElement): boolean {
     type Handler = (event: Record<string, unknown>) => void;
     const host = element as HTMLElement & { on?: (name: string, handler: Handler) => void };
     if (typeof host.on !== 'function') return false;
@@ -221,6 +225,10 @@ export class ResultPlotComponent {
       const update = figure && tickUnits ? retickUpdate(event, tickUnits, figure.layout) : null;
       // Plotly takes dotted attribute paths here, which its types do not describe.
       if (update) void plotly.relayout(element, update as Partial<Layout>);
+    });
+    this.stopHoverHeading = followHoverHeading(element, host.on.bind(host), (event) => {
+      const unit = this.drawnFigure ? hoverHeadingUnit(this.drawnFigure) : null;
+      return unit ? hoverHeadingText(event, unit) : null;
     });
     return true;
   }
