@@ -35,7 +35,7 @@ import {
 import { FlagsListComponent } from './flags-list.component';
 import { ResonanceTablesComponent } from './resonance-tables.component';
 import { PLOTLY_LOADER } from './plotly-loader';
-import { prefetchWhenIdle } from './plot-timing';
+import { prefetchWhenIdle, warmPlotly } from './plot-timing';
 import { ResultPlotsComponent } from './result-plots.component';
 import { SummaryPanelComponent } from './summary-panel.component';
 import { TRANSMIT_HEADLINE } from './transmit-summary';
@@ -74,16 +74,18 @@ export class AnalysisResultsComponent {
   readonly stageSelected = output<string>();
 
   constructor() {
-    // The plotting library is large: once a result with a sweep shows, fetch it while the
-    // browser is idle, so the Plots tab opens straight to drawing.
+    // The plotting library is large: once a result with a sweep shows, fetch it and draw a
+    // hidden plot with it while the browser is idle, so the Plots tab opens straight to
+    // drawing.
     const load = inject(PLOTLY_LOADER);
-    const view = inject(DOCUMENT).defaultView;
+    const page = inject(DOCUMENT);
+    const view = page.defaultView;
     let prefetched = false;
     effect(() => {
       const sweep = this.result()?.sweep;
       if (prefetched || !sweep || sweep.freqsHz.length < 2) return;
       prefetched = true;
-      prefetchWhenIdle(load, view);
+      prefetchWhenIdle(load, view, (plotly) => warmPlotly(plotly, page));
     });
   }
 
