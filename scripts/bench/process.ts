@@ -1,7 +1,8 @@
 /**
- * Runs a whole process for the benchmark: wall time, peak resident memory (GNU time's
- * maximum RSS), exit status, with stdout written to a file so both sides of a comparison
- * pay for writing their output.
+ * Runs a whole process for the benchmark: wall time, CPU time and peak resident memory (GNU
+ * time's user + system seconds and maximum RSS), exit status, with stdout written to a file
+ * so both sides of a comparison pay for writing their output. On a loaded machine the CPU
+ * time says more than the wall time, which is mostly the wait for a core.
  */
 import { spawnSync } from 'node:child_process';
 import { closeSync, existsSync, openSync, readFileSync } from 'node:fs';
@@ -14,6 +15,8 @@ export interface ProcessRun {
   wallMs: number;
   /** Peak resident set size, bytes (NaN when GNU time is not installed). */
   peakBytes: number;
+  /** User + system CPU time of the process and its threads, ms (NaN without GNU time). */
+  cpuMs: number;
   status: number | null;
   stderr: string;
 }
@@ -32,7 +35,7 @@ export function runProcess(
   try {
     const wallMs = timeMs(() => {
       p = withTime
-        ? spawnSync(GNU_TIME, ['-f', '%M', '-o', rssFile, command, ...args], {
+        ? spawnSync(GNU_TIME, ['-f', '%M %U %S', '-o', rssFile, command, ...args], {
             cwd,
             stdio: ['ignore', out, 'pipe'],
             maxBuffer: 1 << 26,
@@ -42,10 +45,13 @@ export function runProcess(
     if (!p || p.error) {
       throw new Error(`${command} could not run: ${p?.error?.message ?? 'no process'}`);
     }
-    const peakKb = withTime ? Number(readFileSync(rssFile, 'utf8').trim().split('\n').pop()) : NaN;
+    const [peakKb, userS, systemS] = withTime
+      ? readFileSync(rssFile, 'utf8').trim().split('\n').pop()!.split(' ').map(Number)
+      : [NaN, NaN, NaN];
     return {
       wallMs,
       peakBytes: peakKb * 1024,
+      cpuMs: (userS + systemS) * 1000,
       status: p.status,
       stderr: String(p.stderr ?? ''),
     };
