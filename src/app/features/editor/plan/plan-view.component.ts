@@ -43,7 +43,14 @@ import {
   spurChartFigure,
   type SpurSortKey,
 } from './plan-figures';
-import { engineering, fieldText, figures, percent, plain } from '../results/format-quantity';
+import {
+  engineering,
+  fieldText,
+  figures,
+  nominalEngineering,
+  percent,
+  plain,
+} from '../results/format-quantity';
 
 type PlanState = { status: 'loading' } | { status: 'ready'; plan: PlanReport } | { status: 'failed'; message: string }; // prettier-ignore
 
@@ -141,6 +148,10 @@ export class PlanViewComponent {
   }
   protected band(db: number | null): string {
     return rejectionBand(db, this.settings().spurTargetDb);
+  }
+  /** A spacing or bandwidth the user set (or a round spacing of the list): as stated. */
+  protected statedHz(v: number): string {
+    return nominalEngineering(v, 'hertz');
   }
   protected hz(v: number | null | undefined): string {
     return v === null || v === undefined ? 'any input' : engineering(v, 'hertz');
