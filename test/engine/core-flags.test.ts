@@ -2,7 +2,17 @@
  * Flags: each code raised by a chain built to trigger it, with its severity, the stage id
  * and a sentence with the numbers; and left alone when the chain is fine.
  */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
 import { analyzeChain } from '../../shared/engine/analyze';
+import type { BuiltStage } from '../../shared/engine/core/build';
+import { buildChain } from '../../shared/engine/core/build';
+import { runNodeAnalysis } from '../../shared/engine/core/nodes';
+import { judgedForQ, qBudget } from '../../shared/engine/core/q-budget';
+import { availablePower, deliveredPower } from '../../shared/engine/core/quantities';
+import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import type { TwoPortModel } from '../../shared/engine/types';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import type { Flag } from '../../shared/engine/types';
 import { chain, TEST_CATALOGUE, type StageInput } from './core-fixtures';
 
@@ -145,5 +155,36 @@ describe('stage flags', () => {
     const [flag] = only(res.flags, 'detector-underdriven');
     expect(flag.stageId).toBe('s1');
     expect(flag.message).toMatch(/^"Diode" gets 10 mV peak/);
+  });
+});
+
+describe('the q-budget of a well-matched stage', () => {
+  it('skips the lossless rebuild only where the available power bounds the loss under the limit', () => {
+    // The two-metre example's match: about 0.1 dB between the source side's available power
+    // and what the stage delivers, so no part Q can make it lose more than that.
+    const raw = JSON.parse(
+      readFileSync(
+        path.join(__dirname, '../../examples/two-metre-coupled-preselector.chain.json'),
+        'utf8',
+      ),
+    );
+    const { variantOf: _v, ...doc } = raw;
+    const built = buildChain(parseChainDocument(doc), STAGE_DEFINITIONS);
+    const f0Na = runNodeAnalysis(built, [built.settings.f0Hz]);
+    const stage = built.twoPorts.find((s) => s.id === 'match')!;
+    expect(judgedForQ(stage)).toBe(true);
+    const bound =
+      10 *
+      Math.log10(
+        availablePower(f0Na, stage.firstSection, 0) /
+          deliveredPower(f0Na, stage.firstSection + stage.sectionCount, 0),
+      );
+    expect(bound).toBeGreaterThan(0);
+    // Below the bound the loss is worked out, and it is within the bound; above it, nothing.
+    const judged = qBudget(built, f0Na, stage as BuiltStage<TwoPortModel>, bound / 100);
+    expect(judged).not.toBeNull();
+    expect(judged!.lossDb).toBeGreaterThan(0);
+    expect(judged!.lossDb).toBeLessThanOrEqual(bound * (1 + 1e-9));
+    expect(qBudget(built, f0Na, stage as BuiltStage<TwoPortModel>, bound * 1.001)).toBeNull();
   });
 });

@@ -159,7 +159,9 @@ function sectionsWith(
 }
 
 /**
- * The stage's q-budget at f0, or null when it has no figure (no power through it).
+ * The stage's q-budget at f0, or null when it has no figure (no power through it) or its
+ * loss cannot exceed the limit (the source side's available power is within the limit of
+ * what it delivers).
  * @param f0Na the chain's node analysis at f0
  * @param limitDb the loss above which the needed Q is worked out
  */
@@ -171,8 +173,13 @@ export function qBudget(
 ): QBudget | null {
   const keys = partQKeys(stage);
   const at = surroundings(f0Na, stage);
-  const ideal = powerOut(built, at, stage, keys, LOSSLESS_Q);
   const real = powerOut(built, at, stage, keys, Infinity);
+  // No lossless stage delivers more than the source side makes available, |Voc|²/(8·Re Zs):
+  // when that is within the limit of what the stage delivers now, so is its loss, and the
+  // lossless rebuild is not needed.
+  const available = at.zsRe > 0 ? at.voc2 / (8 * at.zsRe) : NaN;
+  if (real > 0 && available <= real * 10 ** (limitDb / 10)) return null;
+  const ideal = powerOut(built, at, stage, keys, LOSSLESS_Q);
   if (!(ideal > 0 && real > 0)) return null;
   const lossAt = (q: number) => 10 * log10(ideal / powerOut(built, at, stage, keys, q));
   const lossDb = 10 * log10(ideal / real);
