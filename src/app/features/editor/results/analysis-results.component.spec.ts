@@ -250,6 +250,24 @@ describe('AnalysisResultsComponent', () => {
       expect(drawn()).toHaveLength(8);
     });
 
+    it('should tick a zoom the user made again when a new result redraws the plot', async () => {
+      await selectTab('Plots');
+      await fixture.whenStable();
+      expect(plotly.relayouts).toHaveLength(0);
+      // Plotly keeps the zoom on the element's layout through a redraw (uirevision).
+      const stepUp = drawn()[0].element as HTMLElement & { layout?: unknown };
+      stepUp.layout = { xaxis: { autorange: false, range: [9.8e6, 10.2e6] } };
+      const next = sampleResult();
+      next.f0Hz = 10.1e6;
+      host.result.set(next);
+      await fixture.whenStable();
+      expect(plotly.relayouts).toHaveLength(1);
+      const ticks = plotly.relayouts[0]['xaxis.tickvals'] as number[];
+      expect(ticks.length).toBeGreaterThanOrEqual(3);
+      expect(Math.min(...ticks)).toBeGreaterThanOrEqual(9.8e6);
+      expect(Math.max(...ticks)).toBeLessThanOrEqual(10.2e6);
+    });
+
     it('should redraw only the step-up plot when a node is ticked', async () => {
       await selectTab('Plots');
       await fixture.whenStable();

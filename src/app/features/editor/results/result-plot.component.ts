@@ -188,6 +188,7 @@ export class ResultPlotComponent {
             .then(
               () => {
                 listening ||= this.listen(plotly, element);
+                this.retickKeptZoom(plotly, element, figure);
                 this.state.set('ready');
               },
               (error: unknown) => {
@@ -231,6 +232,27 @@ export class ResultPlotComponent {
       return unit ? hoverHeadingText(event, unit) : null;
     });
     return true;
+  }
+
+  /**
+   * A redraw keeps a zoom or pan the user made (the figures' `uirevision`) but brings the
+   * data's own ticks, written for the whole sweep: tick the range still shown again.
+   */
+  private retickKeptZoom(plotly: PlotlyApi, element: HTMLElement, figure: PlotFigure): void {
+    const units = figure.tickUnits;
+    type ShownAxis = { autorange?: unknown; range?: unknown };
+    const shown = (element as HTMLElement & { layout?: Record<string, ShownAxis | undefined> })
+      .layout;
+    if (!units || !shown) return;
+    const kept: Record<string, unknown> = {};
+    for (const axis of ['xaxis', 'yaxis'] as const) {
+      const range = shown[axis]?.range;
+      if (units[axis] && shown[axis]?.autorange === false && Array.isArray(range)) {
+        kept[`${axis}.range`] = range;
+      }
+    }
+    const update = retickUpdate(kept, units, figure.layout);
+    if (update) void plotly.relayout(element, update as Partial<Layout>);
   }
 
   protected downloadPng(): void {
