@@ -12,7 +12,10 @@ import { chainRole, loadedChain } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { loadDataFiles } from '../files/data-files';
 
-/** GET /api/chains/:id/diff?from=&to=: what changed between two revisions (viewers and up). */
+/**
+ * GET /api/chains/:id/diff?from=&to=&figures=: what changed between two revisions (viewers
+ * and up), its texts at the reader's significant figures (2..8).
+ */
 export function revisionDiffRouter(em: EntityManager): Router {
   const router = Router();
   router.get('/:id/diff', chainRole(em, 'viewer'), async (req, res) => {
@@ -56,8 +59,13 @@ export function revisionDiffRouter(em: EntityManager): Router {
     const body: RevisionDiffDto = {
       from: q.from,
       to: q.to,
-      ...diffChains(before, after, (type) => catalogue.find((t) => t.type === type)?.params ?? []),
-      figures: keyFigures(...(await Promise.all([analyze(before), analyze(after)]))),
+      ...diffChains(
+        before,
+        after,
+        (type) => catalogue.find((t) => t.type === type)?.params ?? [],
+        q.figures,
+      ),
+      figures: keyFigures(...(await Promise.all([analyze(before), analyze(after)])), q.figures),
     };
     res.json(body);
   });

@@ -107,4 +107,41 @@ describe('keyFigures', () => {
     });
     expect(keyFigures(null, figures(1, 0))[0].beforeText).toBe('—');
   });
+
+  it("should write the results at the reader's figures with their trailing zeros, counts whole", () => {
+    const before = {
+      ...figures(10, 0),
+      levels: { ...figures(10, 0).levels, noiseFigureDb: 3.14159 },
+    };
+    const after = figures(12.5, 2);
+    const at = (digits: number, key: string) =>
+      keyFigures(before, after, digits).find((r) => r.key === key);
+    expect(at(3, 'totalGainDb')).toMatchObject({ beforeText: '10.0 dB', afterText: '12.5 dB' });
+    expect(at(3, 'noiseFigureDb')).toMatchObject({ beforeText: '3.14 dB', afterText: '3.00 dB' });
+    expect(at(3, 'bw3dbHz')).toMatchObject({ afterText: '12.0 kHz' });
+    expect(at(6, 'totalGainDb')).toMatchObject({
+      beforeText: '10.0000 dB',
+      afterText: '12.5000 dB',
+    });
+    expect(at(6, 'noiseFigureDb')).toMatchObject({ beforeText: '3.14159 dB' });
+    expect(at(6, 'sensitivityDbm')).toMatchObject({ afterText: '-120.000 dBm' });
+    expect(at(6, 'bw3dbHz')).toMatchObject({ afterText: '12.0000 kHz' });
+    expect(at(6, 'flags')).toMatchObject({ beforeText: '0', afterText: '2' });
+    expect(at(6, 'iip3Dbm')).toMatchObject({ beforeText: '—', afterText: '—' });
+  });
+});
+
+describe("diffChains at the reader's figures", () => {
+  it('should round the values and settings as stated, never padding them', () => {
+    const before = doc(base([S('src'), S('t1', 'shunt-lc-tank', { l: 4.71234e-6 }), S('load')]));
+    const after = doc({
+      ...base([S('src'), S('t1', 'shunt-lc-tank', { l: 10e-6 }), S('load')]),
+      settings: { f0Hz: 7.123456e6, sweep: { startHz: 5e5, stopHz: 2e6, points: 11 } },
+    });
+    const at = (digits: number) => diffChains(before, after, paramsOf, digits);
+    expect(at(3).values[0]).toMatchObject({ beforeText: '4.71 µH', afterText: '10 µH' });
+    expect(at(6).values[0]).toMatchObject({ beforeText: '4.71234 µH', afterText: '10 µH' });
+    expect(at(3).settings).toEqual([{ key: 'f0Hz', before: '1 MHz', after: '7.12 MHz' }]);
+    expect(at(6).settings).toEqual([{ key: 'f0Hz', before: '1 MHz', after: '7.12346 MHz' }]);
+  });
 });

@@ -13,9 +13,13 @@ export type ParamLookup = (type: string) => ParamSpec[];
 
 type Value = number | string | boolean | null;
 
-function show(value: Value, unit: UnitKind): string {
+/** Significant figures of the diff's texts when the caller asks for none. */
+const DEFAULT_DIFF_FIGURES = 3;
+
+// Values the user typed are written rounded to the figures, never padded with zeros.
+function show(value: Value, unit: UnitKind, digits: number): string {
   if (value === null || value === undefined) return '(none)';
-  if (typeof value === 'number') return formatEngineering(value, unit);
+  if (typeof value === 'number') return formatEngineering(value, unit, digits);
   return String(value);
 }
 
@@ -53,7 +57,12 @@ function movedIds(before: string[], after: string[]): Set<string> {
   return new Set(before.filter((id) => !stayed.has(id)));
 }
 
-function valueChanges(a: StageInstance, b: StageInstance, params: ParamSpec[]): ValueChangeDto[] {
+function valueChanges(
+  a: StageInstance,
+  b: StageInstance,
+  params: ParamSpec[],
+  digits: number,
+): ValueChangeDto[] {
   const keys = new Set([...Object.keys(a.values), ...Object.keys(b.values)]);
   const out: ValueChangeDto[] = [];
   for (const key of keys) {
@@ -70,8 +79,8 @@ function valueChanges(a: StageInstance, b: StageInstance, params: ParamSpec[]): 
       unit,
       before,
       after,
-      beforeText: show(before, unit),
-      afterText: show(after, unit),
+      beforeText: show(before, unit, digits),
+      afterText: show(after, unit, digits),
     });
   }
   if ((a.dataFileId ?? null) !== (b.dataFileId ?? null)) {
@@ -125,18 +134,22 @@ const SETTING_UNITS: Record<string, UnitKind> = {
   'thresholds.matchReturnLossDb': 'db',
 };
 
-function settingText(key: string, raw: string | undefined): string {
+function settingText(key: string, raw: string | undefined, digits: number): string {
   if (raw === undefined) return '(none)';
   const unit = SETTING_UNITS[key];
   const n = Number(raw);
-  return unit && raw !== '' && Number.isFinite(n) ? formatEngineering(n, unit) : raw;
+  return unit && raw !== '' && Number.isFinite(n) ? formatEngineering(n, unit, digits) : raw;
 }
 
-/** The document-level changes between `before` and `after` (no key figures). */
+/**
+ * The document-level changes between `before` and `after` (no key figures). Values and
+ * settings are written to `digits` significant figures, rounded as stated (not padded).
+ */
 export function diffChains(
   before: ChainDocument,
   after: ChainDocument,
   paramsOf: ParamLookup,
+  digits = DEFAULT_DIFF_FIGURES,
 ): Omit<RevisionDiffDto, 'from' | 'to' | 'figures'> {
   const beforeById = new Map(before.stages.map((s, i) => [s.id, { s, i }]));
   const afterById = new Map(after.stages.map((s, i) => [s.id, { s, i }]));
@@ -163,7 +176,7 @@ export function diffChains(
         afterText: s.type,
       });
     }
-    values.push(...valueChanges(old.s, s, paramsOf(s.type)));
+    values.push(...valueChanges(old.s, s, paramsOf(s.type), digits));
   }
 
   const sb = flatten(before.settings);
@@ -173,8 +186,8 @@ export function diffChains(
     if (sb.get(key) === sa.get(key)) continue;
     settings.push({
       key,
-      before: settingText(key, sb.get(key)),
-      after: settingText(key, sa.get(key)),
+      before: settingText(key, sb.get(key), digits),
+      after: settingText(key, sa.get(key), digits),
     });
   }
   if (before.name !== after.name)
@@ -210,6 +223,8 @@ const FIGURES: {
   label: string;
   unit: UnitKind;
   pick: (a: FigureSource) => number | null;
+  /** A count: written as a whole number at any figures ("2", never "2.000"). */
+  count?: boolean;
 }[] = [
   { key: 'totalGainDb', label: 'Total gain', unit: 'db', pick: (a) => a.levels.totalGainDb },
   { key: 'noiseFigureDb', label: 'Noise figure', unit: 'db', pick: (a) => a.levels.noiseFigureDb },
@@ -233,19 +248,30 @@ const FIGURES: {
     label: 'Flags (warning or error)',
     unit: 'none',
     pick: (a) => a.flags.filter((f) => f.severity !== 'info').length,
+    count: true,
   },
 ];
 
-/** The key figures before and after, formatted with their units. */
+/**
+ * The key figures before and after, formatted with their units. With `digits` (the user's
+ * significant figures) they are results and keep their trailing zeros ("12.50 dB" at 4), as
+ * the screens write results; without, 3 figures with the zeros dropped.
+ */
 export function keyFigures(
   before: FigureSource | null,
   after: FigureSource | null,
+  digits?: number,
 ): KeyFigureDto[] {
   return FIGURES.map((f) => {
     const b = before ? f.pick(before) : null;
     const a = after ? f.pick(after) : null;
-    const text = (v: number | null) =>
-      v === null || !Number.isFinite(v) ? '—' : formatEngineering(v, f.unit);
+    const text = (v: number | null) => {
+      if (v === null || !Number.isFinite(v)) return '—';
+      if (f.count) return String(v);
+      return digits === undefined
+        ? formatEngineering(v, f.unit, DEFAULT_DIFF_FIGURES)
+        : formatEngineering(v, f.unit, digits, true);
+    };
     return {
       key: f.key,
       label: f.label,

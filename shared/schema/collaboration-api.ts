@@ -107,6 +107,8 @@ export interface ActivityDto {
 export const diffQuerySchema = z.object({
   from: z.coerce.number().int().min(1),
   to: z.coerce.number().int().min(1),
+  /** The reader's significant figures for the texts (absent: 3, key figures unpadded). */
+  figures: messageFiguresField(z.coerce.number).optional(),
 });
 export interface ValueChangeDto {
   stageId: string;

@@ -3,6 +3,7 @@ import { OutboxMessageSchema } from '../../server/mail/outbox.entity';
 import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
 import { fixtureChain } from './support/chain-fixture';
 import { initServices } from '../../server/common/services';
+import { formatEngineering } from '../../shared/units/format';
 import { createTestContext, testConfig, type TestContext } from './support/test-db';
 
 let ctx: TestContext;
@@ -51,6 +52,27 @@ describe('revision diff', () => {
     expect(Number.isFinite(gain.after)).toBe(true);
     expect((await send(owner, 'get', `/api/chains/${chainId}/diff?from=1&to=9`)).status).toBe(404);
     expect((await send(owner, 'get', `/api/chains/${chainId}/diff?from=x&to=2`)).status).toBe(422);
+
+    // At the reader's figures: results padded to 6, stated values rounded, counts whole.
+    const six = await send(owner, 'get', `/api/chains/${chainId}/diff?from=1&to=2&figures=6`);
+    expect(six.status).toBe(200);
+    const gain6 = six.body.figures.find((f: { key: string }) => f.key === 'totalGainDb');
+    expect(gain6.afterText).toBe(formatEngineering(gain6.after, 'db', 6, true));
+    expect(gain6.afterText).toMatch(/^-?\d[\d.]* dB$/);
+    expect(gain6.afterText.replace(/[^\d]/g, '').replace(/^0+/, '')).toHaveLength(6);
+    const c6 = six.body.values.find((v: { key: string }) => v.key === 'c');
+    expect([c6.beforeText, c6.afterText]).toEqual(['253.3 pF', '506.6 pF']);
+    const flags6 = six.body.figures.find((f: { key: string }) => f.key === 'flags');
+    expect(flags6.afterText).toBe(String(flags6.after));
+    for (const figures of ['9', '1', '2.5', 'four']) {
+      const bad = await send(
+        owner,
+        'get',
+        `/api/chains/${chainId}/diff?from=1&to=2&figures=${figures}`,
+      );
+      expect([figures, bad.status]).toEqual([figures, 422]);
+      expect(bad.body.message).toContain('figures must be a whole number from 2 to 8');
+    }
   });
 });
 

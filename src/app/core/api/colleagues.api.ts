@@ -123,8 +123,10 @@ export class ColleaguesApi {
     const query = before ? `?before=${enc(before)}` : '';
     return this.http.get<ActivityDto[]>(`/api/workspaces/${enc(workspaceId)}/activity${query}`);
   }
-  diff(chainId: string, from: number, to: number): Observable<RevisionDiffDto> {
-    return this.http.get<RevisionDiffDto>(`/api/chains/${enc(chainId)}/diff?from=${from}&to=${to}`);
+  /** What changed between two revisions; `figures`: the significant figures of its texts. */
+  diff(chainId: string, from: number, to: number, figures?: number): Observable<RevisionDiffDto> {
+    const params: Record<string, number> = figures ? { from, to, figures } : { from, to };
+    return this.http.get<RevisionDiffDto>(`/api/chains/${enc(chainId)}/diff`, { params });
   }
 
   // ---------------------------------------------------------------- admin's mail pages

@@ -5,6 +5,7 @@ import { firstValueFrom } from 'rxjs';
 import type { RevisionDiffDto, RevisionSummaryDto } from '../../../../shared/schema/api';
 import { ChainsApi } from '../../core/api/chains.api';
 import { ColleaguesApi } from '../../core/api/colleagues.api';
+import { significantFigures } from '../../core/format/number-format';
 import { describeHttpError } from '../../core/http/error-message';
 
 /**
@@ -56,7 +57,11 @@ export class RevisionDiffComponent {
     this.busy.set(true);
     this.failure.set('');
     try {
-      this.diff.set(await firstValueFrom(this.api.diff(this.chainId(), +this.from, +this.to)));
+      // The texts (values, settings, key figures) come written at the user's figures.
+      const figures = significantFigures();
+      this.diff.set(
+        await firstValueFrom(this.api.diff(this.chainId(), +this.from, +this.to, figures)),
+      );
     } catch (error) {
       this.failure.set(describeHttpError(error));
     } finally {
