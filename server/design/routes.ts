@@ -28,6 +28,9 @@ import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import type { DesignOp } from './design-ops';
 
+/** What every design request carries besides its operation's own fields. */
+type DesignBody = { document: ChainDocument; workspaceId?: string; figures?: number };
+
 /**
  * Parses the body, checks workspace access and the budget, loads the data files, runs
  * design operation `op` on the pool and sends its answer; the engine's refusal of the chain
@@ -37,16 +40,17 @@ async function runDesign(
   em: EntityManager,
   req: Request,
   res: Response,
-  schema: z.ZodType<{ document: ChainDocument; workspaceId?: string }>,
+  schema: z.ZodType<DesignBody>,
   op: DesignOp,
 ): Promise<void> {
   const body = parseOr422(schema, req.body);
   if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
   assertWithinBudget(body.document);
   const dataFiles = await loadDataFiles(em, body.document, body.workspaceId);
-  const { document, ...request } = body;
+  const { document, figures, ...request } = body;
   const outcome = await runOnPool({
     document,
+    ...(figures ? { figures } : {}),
     ...(dataFiles ? { dataFiles } : {}),
     want: 'design',
     op,
@@ -63,15 +67,14 @@ async function runDesign(
 export function designRouter(em: EntityManager): Router {
   const router = Router();
   router.use(requireUser);
-  const routes: [string, z.ZodType<{ document: ChainDocument; workspaceId?: string }>, DesignOp][] =
-    [
-      ['/tune/candidates', tuneCandidatesRequestSchema, 'tune/candidates'],
-      ['/tune', tuneRequestSchema, 'tune'],
-      ['/tune-pair', tunePairRequestSchema, 'tune-pair'],
-      ['/match-here', matchHereRequestSchema, 'match-here'],
-      ['/snap', snapRequestSchema, 'snap'],
-      ['/parts', partsRequestSchema, 'parts'],
-    ];
+  const routes: [string, z.ZodType<DesignBody>, DesignOp][] = [
+    ['/tune/candidates', tuneCandidatesRequestSchema, 'tune/candidates'],
+    ['/tune', tuneRequestSchema, 'tune'],
+    ['/tune-pair', tunePairRequestSchema, 'tune-pair'],
+    ['/match-here', matchHereRequestSchema, 'match-here'],
+    ['/snap', snapRequestSchema, 'snap'],
+    ['/parts', partsRequestSchema, 'parts'],
+  ];
   for (const [path, schema, op] of routes) {
     router.post(path, (req, res) => runDesign(em, req, res, schema, op));
   }

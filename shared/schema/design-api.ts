@@ -1,11 +1,14 @@
 /** Request bodies of the design assistants under /api/design (re-exported by api.ts). */
 import { z } from 'zod';
 import { chainDocumentSchema } from './chain';
+import { messageFiguresField } from './chains-api';
 
 const designBase = {
   document: chainDocumentSchema,
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */
   workspaceId: z.uuid({ error: 'workspaceId must be a workspace id' }).optional(),
+  /** Significant figures of the answer's texts (2..8; absent: 4). */
+  figures: messageFiguresField(z.number).optional(),
 };
 const idText = (what: string) =>
   z

@@ -96,6 +96,32 @@ describe('design routes', () => {
     }
   });
 
+  it("writes the answer's texts at the asked figures, and refuses figures out of range", async () => {
+    const body = {
+      document: fixtureChain(),
+      afterStageId: 'src',
+      zSource: { re: 50, im: 0 },
+      zLoad: { re: 1000, im: -200 },
+      q: 8,
+    };
+    // The two sections meet at √(50 · 1000) = 223.6068 Ω.
+    const meeting = async (extra: object) => {
+      const res = await send(viewer, 'post', '/api/design/match-here', { ...body, ...extra });
+      expect(res.status).toBe(200);
+      return res.body.candidates
+        .map((c: { title: string }) => c.title)
+        .find((t: string) => t.startsWith('Two L'));
+    };
+    expect(await meeting({})).toMatch(/^Two L-sections through 223\.6 Ω:/);
+    expect(await meeting({ figures: 6 })).toMatch(/^Two L-sections through 223\.607 Ω:/);
+    expect(await meeting({ figures: 2 })).toMatch(/^Two L-sections through 220 Ω:/);
+    for (const figures of [9, 1, 2.5, 'four']) {
+      const bad = await send(viewer, 'post', '/api/design/match-here', { ...body, figures });
+      expect([figures, bad.status]).toEqual([figures, 422]);
+      expect(bad.body.message).toContain('figures must be a whole number from 2 to 8');
+    }
+  });
+
   it('answers 422 for a q of zero before the engine sees it', async () => {
     const res = await send(viewer, 'post', '/api/design/match-here', {
       document: fixtureChain(),

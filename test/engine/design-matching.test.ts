@@ -12,6 +12,7 @@ import {
   lSectionReactances,
   tappedCapacitorEquivalent,
 } from '../../shared/engine/design';
+import { withMessageFigures } from '../../shared/engine/core/format';
 import { StageParameterError } from '../../shared/engine/errors';
 import { rel } from './stages-support';
 
@@ -82,6 +83,17 @@ describe('pi and T', () => {
     // √(1000/50 − 1) = 4.36
     expect(() => designPi({ r1: 1000, r2: 50, f0: 10e6, q: 4 })).toThrow(/loaded Q above 4\.359/);
     expect(() => designT({ r1: 10, r2: 50, f0: 1e6, q: 1.9 })).toThrow(StageParameterError);
+  });
+
+  it("writes the minimum Q padded and a stated parasitic rounded at the caller's figures", () => {
+    const pi = () => designPi({ r1: 1000, r2: 50, f0: 10e6, q: 4 });
+    expect(() => withMessageFigures(6, pi)).toThrow(/loaded Q above 4\.35890 /);
+    expect(() => withMessageFigures(2, pi)).toThrow(/loaded Q above 4\.4 /);
+    const absorb = () =>
+      designLSection({ r1: 75, r2: 1000, f0: 1e6, parasiticC: 1.2e-9 }, 'lowpass');
+    // √(1000/75 − 1)/(2π · 1 MHz · 1000 Ω) = 558.9 pF designed; the 1200 pF stated stays unpadded.
+    expect(() => withMessageFigures(6, absorb)).toThrow(/parasitic 1200 pF .* shunt 558\.934 pF/);
+    expect(() => absorb()).toThrow(/parasitic 1200 pF .* shunt 558\.9 pF/);
   });
 });
 

@@ -2,6 +2,7 @@
  * L-section synthesis: Q = √(Rhigh/Rlow − 1), series reactance Q·Rlow, shunt reactance
  * Rhigh/Q. The shunt element always sits across the higher resistance.
  */
+import { formatDesignResult, formatDesignStated } from '../core/format';
 import { StageParameterError } from '../errors';
 
 /** Reactance magnitudes of an L-section between two resistances. */
@@ -57,8 +58,8 @@ export function subtractParasitic(designedC: number, parasiticC: number): number
   if (parasiticC > 0 && !(left > 0)) {
     throw new StageParameterError(
       'parasiticC',
-      `the parasitic ${(parasiticC * 1e12).toPrecision(4)} pF is more than the designed shunt ` +
-        `${(designedC * 1e12).toPrecision(4)} pF, so it cannot be absorbed: lower Q, ` +
+      `the parasitic ${formatDesignStated(parasiticC * 1e12)} pF is more than the designed shunt ` +
+        `${formatDesignResult(designedC * 1e12)} pF, so it cannot be absorbed: lower Q, ` +
         'use a high-pass form (the shunt L resonates the parasitic out) or reduce the parasitic',
     );
   }

@@ -4,6 +4,7 @@
  * All resistances are real; port 1 sees r1, port 2 is terminated in r2 (with an optional
  * parasitic shunt capacitance across it, absorbed into the design where the topology can).
  */
+import { formatDesignResult } from '../core/format';
 import { StageParameterError } from '../errors';
 import {
   absorbIntoShuntL,
@@ -85,7 +86,7 @@ function checkQ(q: number | undefined, minimum: number, what: string): number {
   if (q === undefined || !(q > minimum)) {
     throw new StageParameterError(
       'q',
-      `${what} needs a loaded Q above ${minimum.toPrecision(4)} for these resistances (got ${q})`,
+      `${what} needs a loaded Q above ${formatDesignResult(minimum)} for these resistances (got ${q})`,
     );
   }
   return q;

@@ -7,6 +7,7 @@
 import { analyzeChain } from '../analyze';
 import { defaultCatalogue } from '../default-catalogue';
 import { hasModes, modeView } from '../modes/apply-mode';
+import { formatDesignResult } from '../core/format';
 import { StageParameterError } from '../errors';
 import type { ComplexJson } from '../types';
 import type { ChainDocument, StageInstance } from '../../schema/chain';
@@ -229,7 +230,7 @@ export function matchHere(
     const parts = [...first.parts, ...second.parts];
     designs.push({
       topology: 'double-l',
-      title: `Two L-sections through ${rm.toPrecision(4)} Ω: ${describe(parts)}`,
+      title: `Two L-sections through ${formatDesignResult(rm)} Ω: ${describe(parts)}`,
       parts,
       loadedQ: Math.max(first.q, second.q),
     });

@@ -13,6 +13,7 @@
  * turned into its series form Rs = R2/(1 + Q2²), C1 is added, and the parallel form at the
  * top must be R1 ∥ Cp with Cp resonating L at f0.
  */
+import { formatDesignResult, formatDesignStated } from '../core/format';
 import { StageParameterError } from '../errors';
 import { checkResistance } from './l-section';
 import type { MatchDesign, MatchSpec } from './match-design';
@@ -85,7 +86,7 @@ export function designTappedCapacitor(spec: MatchSpec): MatchDesign {
     throw new StageParameterError(
       'q',
       `a tapped-capacitor transformer from ${r1} Ω to ${r2} Ω needs a loaded Q above ` +
-        `${minQ.toPrecision(4)} (got ${q})`,
+        `${formatDesignResult(minQ)} (got ${q})`,
     );
   }
   const w = 2 * Math.PI * f0;
@@ -109,7 +110,7 @@ export function designTappedCapacitor(spec: MatchSpec): MatchDesign {
 function parasiticTooLarge(c2: number, spec: MatchSpec): never {
   throw new StageParameterError(
     'parasiticC',
-    `the parasitic ${((spec.parasiticC ?? 0) * 1e12).toPrecision(4)} pF is more than the ` +
-      `designed C2 ${(c2 * 1e12).toPrecision(4)} pF: raise Q or lower the parasitic`,
+    `the parasitic ${formatDesignStated((spec.parasiticC ?? 0) * 1e12)} pF is more than the ` +
+      `designed C2 ${formatDesignResult(c2 * 1e12)} pF: raise Q or lower the parasitic`,
   );
 }

@@ -13,6 +13,7 @@ import type {
   TuneResult,
 } from '../../../../../shared/engine/design';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
+import { significantFigures } from '../../../core/format/number-format';
 import { SKIP_ERROR_SNACKBAR } from '../../../core/http/http-context';
 
 /** The design assistants' endpoints; refusals (422) are shown in the panel, not a snackbar. */
@@ -21,8 +22,10 @@ export class DesignApi {
   private readonly http = inject(HttpClient);
   private readonly quiet = { context: new HttpContext().set(SKIP_ERROR_SNACKBAR, [422]) };
 
+  // Every answer's texts come written at the user's significant figures.
   private post<T>(path: string, body: object): Observable<T> {
-    return this.http.post<T>(`/api/design/${path}`, body, this.quiet);
+    const figures = significantFigures();
+    return this.http.post<T>(`/api/design/${path}`, { ...body, figures }, this.quiet);
   }
 
   tuneCandidates(document: ChainDocument, resonator: ResonatorRef, workspaceId?: string) {
