@@ -15,13 +15,16 @@ import { chainRole, currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { assertWithinBudget, runOnPool } from './analysis-pool';
+import { cachedOutcome, wantsFresh } from './answer-cache';
 import { answerEncoding, sendAnswer } from './answer-encoding';
+import type { AnalysisTask } from './analysis-task';
 
 /**
  * Runs the analysis on the thread pool with the data files the stages refer to (from
  * `workspaceId` only) and sends the answer the thread serialised and compressed (in the
- * encoding the client accepts); the engine's refusal is a
- * 422 `invalid-chain` with its issues as details.
+ * encoding the client accepts), or the same answer kept from a moment ago (./answer-cache.ts,
+ * `x-analysis-answer: cached`); the engine's refusal is a 422 `invalid-chain` with its
+ * issues as details.
  */
 async function analyze(
   em: EntityManager,
@@ -37,7 +40,7 @@ async function analyze(
   // Every mode is a whole analysis of its own.
   assertWithinBudget(doc, modes.allModes ? Math.max(1, doc.modes?.length ?? 0) : 1);
   const dataFiles = await loadDataFiles(em, doc, workspaceId);
-  const outcome = await runOnPool({
+  const task: AnalysisTask = {
     document: doc,
     ...(dataFiles ? { dataFiles } : {}),
     want: 'answer',
@@ -47,7 +50,11 @@ async function analyze(
     ...(modes.allModes ? { allModes: true } : modes.mode ? { mode: modes.mode } : {}),
     ...(modes.figures ? { figures: modes.figures } : {}),
     encoding: answerEncoding(req),
-  });
+  };
+  const { outcome, source } = wantsFresh(req)
+    ? { outcome: await runOnPool(task), source: 'computed' as const }
+    : await cachedOutcome(currentUser(req).id, task, () => runOnPool(task));
+  res.set('x-analysis-answer', source);
   if (outcome.kind === 'refused') {
     throw new HttpError(422, 'invalid-chain', outcome.message, outcome.details);
   }

@@ -51,8 +51,13 @@ function chainOf(pads: number, points: number): ChainDocumentInput {
   };
 }
 
+// Always computed (never a kept answer, server/analysis/answer-cache.ts): these tests are
+// about the threads that compute.
 const analyse = (doc: ChainDocumentInput) =>
-  send(editor, 'post', '/api/analysis', { document: doc, sweep: true });
+  send(editor, 'post', '/api/analysis', { document: doc, sweep: true }).set(
+    'cache-control',
+    'no-cache',
+  );
 
 describe('the stages × points budget', () => {
   it('should refuse a chain above it with 422 naming the limit and the points that fit', async () => {
