@@ -1,5 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { OFF_SCREEN_WAIT_MS, PlotDrawQueue } from './plot-draw-queue';
+import { DRAW_WAIT_MS, OFF_SCREEN_WAIT_MS, PlotDrawQueue } from './plot-draw-queue';
 
 /** An element laid out at `top` (px from the window's top), 380 px high. */
 function plotAt(top: number): HTMLElement {
@@ -107,5 +107,18 @@ describe('PlotDrawQueue', () => {
     await nextFrame();
     idle[0].callback();
     expect(drawn).toEqual(['shown', 'below']);
+  });
+
+  it('should go on when the plot being drawn goes away, or its drawing never ends', async () => {
+    const drawn: string[] = [];
+    const never = new Promise<void>(() => undefined);
+    queue.schedule('gone', { element: plotAt(0), draw: () => never });
+    queue.schedule('b', { element: plotAt(100), draw: () => (drawn.push('b'), never) });
+    queue.schedule('c', { element: plotAt(200), draw: async () => void drawn.push('c') });
+    queue.cancel('gone');
+    await nextFrame();
+    expect(drawn).toEqual(['b']);
+    await jest.advanceTimersByTimeAsync(DRAW_WAIT_MS);
+    expect(drawn).toEqual(['b', 'c']);
   });
 });

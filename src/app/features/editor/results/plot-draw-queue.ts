@@ -18,6 +18,8 @@ export interface PlotDrawJob {
 
 /** How long an off-screen plot may wait for an idle moment, ms. */
 export const OFF_SCREEN_WAIT_MS = 1000;
+/** How long the queue waits for one drawing before it goes on with the next, ms. */
+export const DRAW_WAIT_MS = 3000;
 
 interface QueueWindow {
   innerHeight: number;
@@ -33,6 +35,8 @@ export class PlotDrawQueue {
   private readonly waiting = new Map<unknown, PlotDrawJob>();
   /** A drawing is under way (until the frame after it is painted). */
   private drawing = false;
+  /** The owner of the drawing under way and how to end its turn early. */
+  private current: { owner: unknown; release: () => void } | null = null;
   private idleAsked = false;
 
   /** Queues `job` for `owner`, replacing a job of the same owner not yet started. */
@@ -41,9 +45,14 @@ export class PlotDrawQueue {
     this.next();
   }
 
-  /** Drops the owner's waiting job (its plot is going away). */
+  /**
+   * Drops the owner's waiting job (its plot is going away). A drawing of a plot taken off
+   * the page may never finish (Plotly's promise for a purged element), so its turn ends.
+   */
   cancel(owner: unknown): void {
     this.waiting.delete(owner);
+    const current = this.current;
+    if (current && current.owner === owner) current.release();
   }
 
   private next(): void {
@@ -74,11 +83,19 @@ export class PlotDrawQueue {
     const job = this.waiting.get(owner)!;
     this.waiting.delete(owner);
     this.drawing = true;
-    const done = () =>
+    let released = false;
+    const release = () => {
+      if (released) return;
+      released = true;
+      if (this.current?.owner === owner) this.current = null;
       this.afterPaint(() => {
         this.drawing = false;
         this.next();
       });
+    };
+    this.current = { owner, release };
+    // A drawing that never ends must not hold up the plots after it.
+    this.view?.setTimeout(release, DRAW_WAIT_MS);
     // The plot reports its own failure; the queue goes on with the others.
     let drawing: Promise<unknown>;
     try {
@@ -86,7 +103,7 @@ export class PlotDrawQueue {
     } catch (error) {
       drawing = Promise.reject(error);
     }
-    drawing.then(done, done);
+    drawing.then(release, release);
   }
 
   /** Whether any of the element is inside the window (an unlaid element counts as out). */

@@ -166,6 +166,9 @@ export class ResultPlotComponent {
     // A pending task while a drawing waits for its turn (one, however often it is replaced),
     // handed to the drawing when it starts.
     let waiting: (() => void) | null = null;
+    // The pending task of the drawing under way, ended on destroy too: Plotly's promise for
+    // a purged element may never settle.
+    let inFlight: (() => void) | null = null;
     effect(() => {
       const plotly = this.plotly();
       const source = this.figure();
@@ -177,6 +180,7 @@ export class ResultPlotComponent {
         draw: () => {
           const drawn = waiting ?? (() => undefined);
           waiting = null;
+          inFlight = drawn;
           const figure = typeof source === 'function' ? source() : source;
           this.drawnFigure = figure;
           // Plotly writes later changes (zoomed ticks) into the axis objects it is given:
@@ -204,6 +208,7 @@ export class ResultPlotComponent {
     destroyRef.onDestroy(() => {
       this.queue.cancel(this);
       waiting?.();
+      inFlight?.();
       resizeObserver?.disconnect();
       this.stopHoverHeading?.();
       this.plotly()?.purge(this.canvas().nativeElement);
