@@ -2,17 +2,15 @@
  * The analysis answer on the wire: the sweep in columns with only the traces asked for,
  * compressed, never cached; the two-metre example at 2,001 points stays under 100 KB.
  */
-import { readFileSync } from 'node:fs';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import path from 'node:path';
 import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import request from 'supertest';
 import { analyzeChain } from '../../shared/engine';
-import { chainDocumentSchema, type ChainDocument } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 import { analysisFromDto, SWEEP_DIGITS } from '../../shared/schema/sweep-columns';
-import { REPO_ROOT } from '../../server/config';
 import { createUser, PASSWORD, send, signIn, type Client } from './support/agents';
+import { exampleChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
 
 let ctx: TestContext;
@@ -21,14 +19,7 @@ let server: http.Server;
 let cookie: string;
 let csrf: string;
 
-const twoMetre: ChainDocument = chainDocumentSchema.parse(
-  JSON.parse(
-    readFileSync(
-      path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
-      'utf8',
-    ),
-  ),
-);
+const twoMetre: ChainDocument = exampleChain('two-metre-coupled-preselector');
 
 beforeAll(async () => {
   ctx = await createTestContext();

@@ -2,25 +2,16 @@
  * Analysis answers kept for a moment: the same request again is answered from memory, per
  * user; a changed document or a request for a fresh analysis is computed.
  */
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
-import { REPO_ROOT } from '../../server/config';
-import { chainDocumentSchema, type ChainDocument } from '../../shared/schema/chain';
+import type { ChainDocument } from '../../shared/schema/chain';
 import { createUser, send, signIn, type Client } from './support/agents';
+import { exampleChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
 
 let ctx: TestContext;
 let ada: Client;
 let bob: Client;
 
-const twoMetre: ChainDocument = chainDocumentSchema.parse(
-  JSON.parse(
-    readFileSync(
-      path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
-      'utf8',
-    ),
-  ),
-);
+const twoMetre: ChainDocument = exampleChain('two-metre-coupled-preselector');
 
 beforeAll(async () => {
   ctx = await createTestContext();

@@ -1,8 +1,8 @@
 /**
  * The node analysis across one section at one point (ABCD at m[o … o+7]): the steps the
- * single-point probes and the studies' judged sweeps take, and what the block loops of
- * nodes.ts write out inline. Arguments are arrays and indices only, so calling them boxes
- * nothing.
+ * single-point probes and the studies' judged sweeps take, and the backward step over a
+ * block of points that the node analysis runs. Arguments are arrays and indices only, so
+ * calling them boxes nothing.
  */
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
@@ -58,28 +58,49 @@ export function backStep(
   from: number,
   to: number,
 ): void {
-  const zr = re[from];
-  const zi = im[from];
-  let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-  if (finite(zr) && finite(zi)) {
-    nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-    ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-    dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-    di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-  } else {
-    nr = m[o];
-    ni = m[o + 1];
-    dr = m[o + 4];
-    di = m[o + 5];
-  }
-  const d2 = dr * dr + di * di;
-  if (d2 === 0) {
-    re[to] = OPEN;
-    im[to] = 0;
-  } else {
-    const inv = 1 / d2; // one division, two products
-    re[to] = (nr * dr + ni * di) * inv;
-    im[to] = (ni * dr - nr * di) * inv;
+  backSection(m, o, re, im, to, from - to, 1);
+}
+
+/**
+ * {@link backStep} over a block of `n` points: Zin at `at + k` from Zin at `at + P + k`, the
+ * section's ABCD of point k at m[mj + 8k …]. Written out in one loop, so a cold run (the
+ * CLI's one analysis) calls nothing per point; `x - x === 0` is Number.isFinite for numbers.
+ */
+export function backSection(
+  m: Float64Array,
+  mj: number,
+  re: Float64Array,
+  im: Float64Array,
+  at: number,
+  P: number,
+  n: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const from = at + P + k;
+    const zr = re[from];
+    const zi = im[from];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (zr - zr === 0 && zi - zi === 0) {
+      nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
+      ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
+      dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
+      di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
+    } else {
+      nr = m[o];
+      ni = m[o + 1];
+      dr = m[o + 4];
+      di = m[o + 5];
+    }
+    const d2 = dr * dr + di * di;
+    if (d2 === 0) {
+      re[at + k] = OPEN;
+      im[at + k] = 0;
+    } else {
+      const inv = 1 / d2; // one division, two products
+      re[at + k] = (nr * dr + ni * di) * inv;
+      im[at + k] = (ni * dr - nr * di) * inv;
+    }
   }
 }
 

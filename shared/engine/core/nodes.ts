@@ -25,9 +25,9 @@
  */
 import type { AbcdFill, ComplexFn, RealFn } from '../types';
 import type { BuiltChain } from './build';
-import { sourceStep } from './node-steps';
+import { backSection, sourceStep } from './node-steps';
 
-export { backStep, forwardStep, sourceStep, voltageStep } from './node-steps';
+export { backSection, backStep, forwardStep, sourceStep, voltageStep } from './node-steps';
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.
@@ -222,52 +222,9 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
 }
 
 /**
- * Zin at a section's input for a block of points (`at` its input node's first index):
- * {@link backStep} written out in the loop, so a cold run (the CLI's one analysis) calls
- * nothing per point; `x - x === 0` is Number.isFinite for numbers.
- */
-function backSection(
-  m: Float64Array,
-  mj: number,
-  re: Float64Array,
-  im: Float64Array,
-  at: number,
-  P: number,
-  n: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    const from = at + P + k;
-    const zr = re[from];
-    const zi = im[from];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (zr - zr === 0 && zi - zi === 0) {
-      nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-      ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-      dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-      di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
-    } else {
-      nr = m[o];
-      ni = m[o + 1];
-      dr = m[o + 4];
-      di = m[o + 5];
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      re[at + k] = OPEN;
-      im[at + k] = 0;
-    } else {
-      const inv = 1 / d2;
-      re[at + k] = (nr * dr + ni * di) * inv;
-      im[at + k] = (ni * dr - nr * di) * inv;
-    }
-  }
-}
-
-/**
  * Zsrc and V at a section's output for a block of points (`at` its input node's first
- * index): {@link forwardStep} and {@link voltageStep} written out in the loop, as in
- * {@link backSection}.
+ * index): {@link forwardStep} and {@link voltageStep} written out in one loop, as
+ * {@link backSection} is (fused here: the voltage step reads the Zin the same point needs).
  */
 function forwardSection(
   m: Float64Array,

@@ -16,7 +16,13 @@
  * frequencies, so from there on nothing is read from the nominal.
  */
 import type { BuiltChain } from '../core/build';
-import { backStep, MIN_NODE_HZ, sourceStep, voltageStep, type NodeAnalysis } from '../core/nodes';
+import {
+  backSection,
+  MIN_NODE_HZ,
+  sourceStep,
+  voltageStep,
+  type NodeAnalysis,
+} from '../core/nodes';
 import type { Probe } from '../core/probe';
 import { locateEdge, locateGridPeak, powerMax, stepUpPower, toDb } from '../core/response-shape';
 import type { ComplexFn, Section } from '../types';
@@ -203,7 +209,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
     for (let q = steps.length - 1; q >= 0; q--) {
       const { from, to } = steps[q];
       const m = steps[q].m ?? mats[from];
-      for (let k = 0; k < P; k++) backStep(m, 8 * k, zinRe, zinIm, to * P + k, from * P + k);
+      backSection(m, 0, zinRe, zinIm, from * P, (to - from) * P, P);
     }
     // The voltage at the source terminal, then step by step up to the node.
     const source = built.source.model;
