@@ -20,8 +20,8 @@ import { dataFilesRouter } from './files/routes';
 import { partsRouter } from './parts/routes';
 import { chainStudiesRouter } from './studies/routes';
 import { studyLimitsFromEnv } from './studies/limits';
-import { apiNotFound, errorHandler } from './common/error-handler';
-import { healthHandler } from './common/health';
+import { apiNotFound, createErrorHandler } from './common/error-handler';
+import { databaseProbe, healthHandler } from './common/health';
 import { jsonBody } from './common/json-body';
 import { requestLogger } from './common/logger';
 import { rejectNulCharacters } from './common/reject-nul';
@@ -133,7 +133,7 @@ export function createApp(services: Services): Express {
   app.use('/api', apiNotFound);
 
   serveClient(app, config.clientDir);
-  app.use(errorHandler);
+  app.use(createErrorHandler(databaseProbe(services.orm)));
   return app;
 }
 

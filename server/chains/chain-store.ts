@@ -54,7 +54,9 @@ export async function createChain(
     await lockReferencedDataFiles(em, input.document);
     await em.commit();
   } catch (err) {
-    await em.rollback();
+    // The first error says what went wrong; a rollback on a lost connection fails too, and
+    // its error would hide it.
+    await em.rollback().catch(() => undefined);
     throw err;
   }
   return chain;

@@ -1,11 +1,21 @@
 import { DriverException } from '@mikro-orm/core';
 
 /** Error codes of Node's sockets that mean the database could not be reached. */
-const SOCKET_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND']);
+const SOCKET_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ECONNABORTED',
+  'ETIMEDOUT',
+  'EPIPE',
+  'ENOTFOUND',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  'EAI_AGAIN',
+]);
 
 /** Messages of pg and knex when a connection is lost or cannot be had. */
 const LOST_CONNECTION =
-  /Connection terminated|connection error and is not queryable|Timeout acquiring a connection|server closed the connection|terminating connection due to administrator command|the database system is (starting up|shutting down|in recovery mode)/i;
+  /Connection terminated|is not queryable|Cannot use a pool after calling end|timeout exceeded when trying to connect|Query read timeout|Timeout acquiring a connection|server closed the connection|terminating connection due to administrator command|the database system is (starting up|shutting down|in recovery mode)/i;
 
 interface Coded {
   code?: unknown;

@@ -1,7 +1,8 @@
 import { DriverException, UniqueConstraintViolationException } from '@mikro-orm/core';
 import { z } from 'zod';
 import { ConflictError } from './errors';
-import { toDto } from './error-handler';
+import type { Request, Response } from 'express';
+import { createErrorHandler, toDto } from './error-handler';
 
 describe('toDto', () => {
   it('should keep a typed error status, code and details', () => {
@@ -48,5 +49,49 @@ describe('toDto', () => {
       status: 500,
       body: { error: 'internal', message: 'the server failed; the error is in its log' },
     });
+  });
+});
+
+describe('createErrorHandler', () => {
+  /** Runs the middleware on `err` and resolves with the status, body and Retry-After sent. */
+  function run(err: unknown, probe: () => Promise<boolean>) {
+    return new Promise<{ status: number; body: unknown; retryAfter?: string }>(
+      (resolve, reject) => {
+        const headers: Record<string, string> = {};
+        let status = 0;
+        const res = {
+          headersSent: false,
+          setHeader: (k: string, v: string) => (headers[k] = v),
+          status(code: number) {
+            status = code;
+            return this;
+          },
+          json: (body: unknown) => resolve({ status, body, retryAfter: headers['Retry-After'] }),
+        } as unknown as Response;
+        const req = {
+          log: { warn: () => undefined, error: () => undefined },
+        } as unknown as Request;
+        createErrorHandler(probe)(err, req, res, reject);
+      },
+    );
+  }
+
+  it('should answer 503 for an unrecognised error while the database does not answer', async () => {
+    const answer = await run(new Error('Transaction query already complete'), async () => false);
+    expect(answer.status).toBe(503);
+    expect(answer.retryAfter).toBe('5');
+    expect(answer.body).toMatchObject({ error: 'db-unavailable' });
+  });
+
+  it('should keep the 500 when the database answers, and a failing probe counts as down', async () => {
+    expect((await run(new Error('a bug'), async () => true)).status).toBe(500);
+    const thrown = await run(new Error('a bug'), () => Promise.reject(new Error('probe')));
+    expect(thrown.status).toBe(503);
+  });
+
+  it('should not ask the database about an answer that is not a 500', async () => {
+    const probe = jest.fn(async () => false);
+    expect((await run(new ConflictError('stale-version', 'reload'), probe)).status).toBe(409);
+    expect(probe).not.toHaveBeenCalled();
   });
 });

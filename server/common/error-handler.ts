@@ -15,6 +15,15 @@ import { zodDetails } from './validate';
 /** Seconds a client should wait before retrying while the database is away. */
 export const RETRY_AFTER_SECONDS = 5;
 
+/** The answer while the database is away. */
+const DB_UNAVAILABLE: { status: number; body: ApiErrorDto } = {
+  status: 503,
+  body: {
+    error: 'db-unavailable',
+    message: `the database cannot be reached just now; try again in ${RETRY_AFTER_SECONDS} seconds`,
+  },
+};
+
 /** Errors body-parser raises, recognised by their `type`. */
 interface BodyParserError {
   type?: string;
@@ -75,15 +84,7 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
       body: { error: 'stale-version', message: 'someone saved this in the meantime; reload it' },
     };
   }
-  if (isDatabaseUnavailable(err)) {
-    return {
-      status: 503,
-      body: {
-        error: 'db-unavailable',
-        message: `the database cannot be reached just now; try again in ${RETRY_AFTER_SECONDS} seconds`,
-      },
-    };
-  }
+  if (isDatabaseUnavailable(err)) return DB_UNAVAILABLE;
   const state = sqlState(err);
   // Deadlock or serialisation failure between two requests: the retry will go through.
   if (state === '40P01' || state === '40001') {
@@ -142,13 +143,43 @@ export function toDto(err: unknown): { status: number; body: ApiErrorDto } {
   };
 }
 
+/** Answers whether the database is reachable right now (a `select 1` with a short timeout). */
+export type DatabaseProbe = () => Promise<boolean>;
+
 /**
  * The one error middleware: maps typed errors, zod, body-parser and database errors to
  * JSON. Failures are logged through the request's logger with the error's kind and the
  * database's message, never a request body or SQL parameters.
+ *
+ * An error no rule recognises would be a 500. When the database is going away, the driver
+ * and the pool fail in many ways whose messages no list keeps up with (a rollback on a
+ * dropped connection, a client closed mid-query), so before answering 500 the handler asks
+ * `probe` whether the database answers: if it does not, the failure is the outage's and the
+ * answer is 503 with Retry-After like any other refused request.
  */
-export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
-  const { status, body } = toDto(err);
+export function createErrorHandler(probe?: DatabaseProbe): ErrorRequestHandler {
+  return (err, req, res, next) => {
+    const mapped = toDto(err);
+    if (!probe || mapped.status !== 500 || err instanceof HttpError) {
+      answer(err, req, res, mapped);
+      return;
+    }
+    probe()
+      .catch(() => false)
+      .then((up) => answer(err, req, res, up ? mapped : DB_UNAVAILABLE))
+      .catch(next);
+  };
+}
+
+/** The error middleware without a database probe (an unrecognised error is a 500). */
+export const errorHandler: ErrorRequestHandler = createErrorHandler();
+
+function answer(
+  err: unknown,
+  req: Parameters<ErrorRequestHandler>[1],
+  res: Parameters<ErrorRequestHandler>[2],
+  { status, body }: { status: number; body: ApiErrorDto },
+): void {
   const log = req.log;
   if (status === 503 && body.error === 'db-unavailable') {
     log?.warn({ err: loggableError(err) }, 'database unavailable');
@@ -160,7 +191,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (res.headersSent) return;
   if (status === 503) res.setHeader('Retry-After', String(RETRY_AFTER_SECONDS));
   res.status(status).json(body);
-};
+}
 
 /** JSON 404 for any /api path no route matched. */
 export const apiNotFound: RequestHandler = (req, _res, next) => {

@@ -24,3 +24,37 @@ export function healthHandler(orm: MikroORM): RequestHandler {
     }
   };
 }
+
+/**
+ * A probe for the error middleware: whether the database answers `select 1` within
+ * `timeoutMs`. Requests failing together share one probe, and its answer is kept for
+ * `keepMs`, so an outage under traffic costs one query per interval, not one per request.
+ */
+export function databaseProbe(
+  orm: MikroORM,
+  timeoutMs = 1000,
+  keepMs = 500,
+): () => Promise<boolean> {
+  let pending: Promise<boolean> | null = null;
+  let last: { up: boolean; at: number } | null = null;
+  return () => {
+    if (last && Date.now() - last.at < keepMs) return Promise.resolve(last.up);
+    pending ??= new Promise<boolean>((resolve) => {
+      const timer = setTimeout(() => resolve(false), timeoutMs);
+      timer.unref();
+      orm.em
+        .getConnection()
+        .execute('select 1')
+        .then(
+          () => resolve(true),
+          () => resolve(false),
+        )
+        .finally(() => clearTimeout(timer));
+    }).then((up) => {
+      last = { up, at: Date.now() };
+      pending = null;
+      return up;
+    });
+    return pending;
+  };
+}
