@@ -8,6 +8,7 @@ import { createLogger } from './logger';
 import { createStudyQueue, type StudyQueue } from '../studies/queue';
 import { MailOutbox } from '../mail/outbox';
 import { EventHub } from '../presence/event-hub';
+import { settleAfterAnswerWork } from '../auth/after-answer';
 
 /** What the app needs from the outside world; built once by initServices, passed to createApp. */
 export interface Services {
@@ -83,6 +84,7 @@ export async function initServices(
     mail: new MailOutbox(mailer),
     events,
     async close() {
+      await settleAfterAnswerWork();
       await events.close();
       await studyQueue.stop();
       mailer.close();
