@@ -82,6 +82,12 @@ describe('plots', () => {
       opening.push(await readPlotProbe(page));
       if (i === 0) await shot(page, 'plots-01-first-plot');
       await page.getByRole('tab', { name: 'Budget' }).click();
+      // The next opening must draw new plots: a probe armed while the old ones were still on
+      // the page, with a tab switch there and back in one change detection, saw no drawing.
+      await waitUntil(
+        async () => (await page.locator('cw-result-plot').count()) === 0,
+        'the Plots tab to close',
+      );
     }
     record('first-plot.json', opening, FIRST_PLOT_TARGET_MS, 'click on Plots → first plot');
 

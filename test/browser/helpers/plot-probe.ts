@@ -50,15 +50,17 @@ export async function armPlotProbe(page: Page, gesture: Gesture): Promise<void> 
         ),
         (path) => path.getAttribute('d') ?? '',
       ).join('|');
-    const before = lines();
+    let before = lines();
     const start = (e: ProbeEvent) => {
       probe.startedAt ??= e.timeStamp;
     };
     g.document.addEventListener(type, start, true);
     const observer = new g.MutationObserver(() => {
-      if (probe.startedAt === null) return;
       const now = lines();
-      if (now === '' || now === before) return;
+      // Plots taken off the page: whatever is drawn next is a new drawing, even of the
+      // same traces.
+      if (now === '') before = '';
+      if (probe.startedAt === null || now === '' || now === before) return;
       observer.disconnect();
       g.document.removeEventListener(type, start, true);
       g.requestAnimationFrame(() => (probe.shownAt = performance.now()));
