@@ -9,6 +9,7 @@
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { BASE_URL, DEMO, launchBrowser, shot } from './harness';
 import { checkScreen } from './helpers/axe';
+import { filterChains } from './helpers/chains';
 import { WIDTHS, type Width } from './helpers/widths';
 
 const LOADING_DEMO = 'Long-wave time signal, ferrite loop into a diode detector';
@@ -74,8 +75,7 @@ describe('every screen at three widths', () => {
 
     // Chain list: more than names (f0 and stage count), actions in a menu, author once.
     // Filtered by name: the list shows a page at a time, and earlier tests add chains.
-    const filter = page.getByLabel('Filter by name or description');
-    await filter.fill('Long-wave time signal');
+    await filterChains(page, 'Long-wave time signal');
     const row = page.getByRole('row', { name: new RegExp(escape(LOADING_DEMO)) });
     await row.waitFor();
     const rowText = await row.innerText();
@@ -95,7 +95,7 @@ describe('every screen at three widths', () => {
       // Not exact: a variant's link starts with an arrow under its parent.
       .getByRole('link', { name: LIGHT_LOAD })
       .getAttribute('href');
-    await filter.fill(DESIGNED_MATCH);
+    await filterChains(page, DESIGNED_MATCH);
     const matchHref = await page
       .getByRole('link', { name: DESIGNED_MATCH, exact: true })
       .getAttribute('href');

@@ -15,7 +15,7 @@ import { formatEngineering } from '../../shared/units/format';
 import { DEMO, launchBrowser, openPage, shot, signIn, type WatchedPage } from './harness';
 import { api, DEFAULT_FIGURES, savedAnalysis } from './helpers/api';
 import { describeAxe, seriousAxeViolations } from './helpers/axe';
-import { openChainNamed } from './helpers/chains';
+import { filterChains, openChainNamed } from './helpers/chains';
 import { flat, pdfPageSize, pdfText, printPdf, reportReady } from './helpers/pdf';
 
 const CHAIN = 'Long-wave time signal, ferrite loop into a diode detector';
@@ -119,7 +119,7 @@ describe('printable report', () => {
     const { page } = watched;
     await page.goto('/');
     await page.waitForURL(/\/w\/[^/]+\/chains$/);
-    await page.getByLabel('Filter by name or description').fill(TRANSCEIVER);
+    await filterChains(page, TRANSCEIVER);
     const href = await page.getByRole('link', { name: TRANSCEIVER }).first().getAttribute('href');
     await page.goto(`${href}/report?mode=transmit`);
     await reportReady(page);
