@@ -13,6 +13,7 @@
  */
 import type { SweepReport } from '../types';
 import type { BuiltChain } from './build';
+import { hypot2 } from './hypot';
 import { isOneOffWorkspace, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
@@ -36,7 +37,7 @@ const sources = new WeakMap<SweepReport, SweepSource>();
 
 /** Step-up at point i, dB: |V|/|Es| (the one formula of the trace and its readers). */
 function stepUpAt(re: Float64Array, im: Float64Array, emf: Float64Array, i: number): number {
-  return db20(hypot(re[i], im[i]) / abs(emf[i]));
+  return db20(hypot2(re[i], im[i]) / abs(emf[i]));
 }
 
 /**
