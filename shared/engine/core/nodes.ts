@@ -25,7 +25,7 @@
  */
 import type { AbcdFill, ComplexFn, RealFn } from '../types';
 import type { BuiltChain } from './build';
-import { backSection, sourceStep } from './node-steps';
+import { backSection } from './node-steps';
 
 export { backSection, backStep, forwardStep, sourceStep, voltageStep } from './node-steps';
 
@@ -55,23 +55,68 @@ export interface NodeAnalysis {
   /** Impedance looking back toward the source. */
   zsrcRe: Float64Array;
   zsrcIm: Float64Array;
-  /** Node voltage, PEAK phasor, volts. */
+  /**
+   * Node voltage, PEAK phasor, volts, index `node·points + i`; in a workspace made with
+   * `voltageAt`, index `vRow[node]·points + i` instead.
+   */
   vRe: Float64Array;
   vIm: Float64Array;
+  /**
+   * Row of each node's voltage in vRe/vIm, −1 for a node whose voltage is not kept; absent
+   * when every node has its row (row = node).
+   */
+  vRow?: Int32Array;
   /** Source EMF (PEAK volts) at each input frequency. */
   emf: Float64Array;
   /** Scratch of the run: every section's ABCD for one block of points (8 slots each). */
   blockAbcd: Float64Array;
   /** Scratch of the run: one block of complex values (re, im interleaved). */
   blockPair: Float64Array;
+  /** Scratch of the run: one block of voltages at a node whose row is not kept (re, im). */
+  blockVRe?: Float64Array;
+  blockVIm?: Float64Array;
+}
+
+/** What a workspace keeps beyond what every analysis needs. */
+export interface NodeAnalysisOptions {
+  /**
+   * The flat nodes whose voltages are kept (default: every node). The voltage is still
+   * carried through every node, the same numbers as without the option, but only these
+   * nodes' rows are stored, in ascending node order (`vRow` says where): a long sweep whose
+   * reader needs the voltage at a few nodes does not write, nor hold, it at every other.
+   */
+  voltageAt?: ArrayLike<number>;
+}
+
+/** Each node's voltage row: the nodes listed, in ascending order, once each. */
+function voltageRows(nodes: number, voltageAt: ArrayLike<number>): Int32Array {
+  const row = new Int32Array(nodes).fill(-1);
+  for (let k = 0; k < voltageAt.length; k++) {
+    const n = voltageAt[k];
+    if (!Number.isInteger(n) || n < 0 || n >= nodes) {
+      throw new RangeError(`voltageAt: ${n} is not a node of this chain (0 … ${nodes - 1})`);
+    }
+    row[n] = 0;
+  }
+  let next = 0;
+  for (let n = 0; n < nodes; n++) if (row[n] === 0) row[n] = next++;
+  return row;
 }
 
 /** Allocates a workspace for `points` frequencies; pass it back to reuse the arrays. */
-export function createNodeAnalysis(built: BuiltChain, points: number): NodeAnalysis {
+export function createNodeAnalysis(
+  built: BuiltChain,
+  points: number,
+  options: NodeAnalysisOptions = {},
+): NodeAnalysis {
   const nodes = built.sections.length + 1;
   const size = nodes * points;
   const block = Math.min(points, BLOCK);
-  return {
+  const { voltageAt } = options;
+  const vRow = voltageAt ? voltageRows(nodes, voltageAt) : undefined;
+  let rows = nodes;
+  if (vRow) for (let n = 0; n < nodes; n++) if (vRow[n] < 0) rows--;
+  const na: NodeAnalysis = {
     points,
     nodes,
     freqs: new Float64Array(points),
@@ -80,12 +125,19 @@ export function createNodeAnalysis(built: BuiltChain, points: number): NodeAnaly
     zinIm: new Float64Array(size),
     zsrcRe: new Float64Array(size),
     zsrcIm: new Float64Array(size),
-    vRe: new Float64Array(size),
-    vIm: new Float64Array(size),
+    vRe: new Float64Array(rows * points),
+    vIm: new Float64Array(rows * points),
     emf: new Float64Array(points),
     blockAbcd: new Float64Array(8 * built.sections.length * block),
     blockPair: new Float64Array(2 * block),
   };
+  if (vRow) {
+    na.vRow = vRow;
+    // A node whose voltage is not kept passes it on to the next through this scratch.
+    na.blockVRe = new Float64Array(block);
+    na.blockVIm = new Float64Array(block);
+  }
+  return na;
 }
 
 /** Largest workspace (in doubles) kept between analyses; bigger ones go to the collector. */
@@ -216,15 +268,73 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
   for (let k = 0; k < n; k++) {
     zsrcRe[i0 + k] = t[2 * k];
     zsrcIm[i0 + k] = t[2 * k + 1];
-    sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, i0 + k, i0 + k);
   }
-  for (let j = 0; j < N; j++) forwardSection(m, 8 * j * B, na, j * P + i0, P, n);
+  // Each node's voltages go to its row, or, when it is not kept, to the block's scratch,
+  // from where the next section reads them.
+  const { vRow } = na;
+  // Only a workspace with rows not kept (vRow) has the scratch; others never read it.
+  const blockVRe = na.blockVRe ?? vRe;
+  const blockVIm = na.blockVIm ?? vIm;
+  let row = vRow ? vRow[0] : 0;
+  let fromRe = row < 0 ? blockVRe : vRe;
+  let fromIm = row < 0 ? blockVIm : vIm;
+  let fromAt = row < 0 ? 0 : row * P + i0;
+  sourceSection(na, i0, n, fromRe, fromIm, fromAt);
+  for (let j = 0; j < N; j++) {
+    row = vRow ? vRow[j + 1] : j + 1;
+    const toRe = row < 0 ? blockVRe : vRe;
+    const toIm = row < 0 ? blockVIm : vIm;
+    const toAt = row < 0 ? 0 : row * P + i0;
+    forwardSection(m, 8 * j * B, na, j * P + i0, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
+    fromRe = toRe;
+    fromIm = toIm;
+    fromAt = toAt;
+  }
+}
+
+/**
+ * The voltage at the source terminal for a block of points into vRe/vIm from `vAt`:
+ * {@link sourceStep} written out in one loop (x − x is 0 exactly for finite x).
+ */
+function sourceSection(
+  na: NodeAnalysis,
+  i0: number,
+  n: number,
+  vRe: Float64Array,
+  vIm: Float64Array,
+  vAt: number,
+): void {
+  const { emf, zsrcRe, zsrcIm, zinRe, zinIm } = na;
+  for (let k = 0; k < n; k++) {
+    const i = i0 + k;
+    const to = vAt + k;
+    const em = emf[i];
+    const sr = zsrcRe[i];
+    const si = zsrcIm[i];
+    const z0r = zinRe[i];
+    const z0i = zinIm[i];
+    if (!(z0r - z0r === 0) || !(z0i - z0i === 0)) {
+      vRe[to] = em;
+      vIm[to] = 0;
+    } else if (!(sr - sr === 0) || !(si - si === 0)) {
+      vRe[to] = 0;
+      vIm[to] = 0;
+    } else {
+      const dr = sr + z0r;
+      const di = si + z0i;
+      const d2 = dr * dr + di * di;
+      vRe[to] = (em * (z0r * dr + z0i * di)) / d2;
+      vIm[to] = (em * (z0i * dr - z0r * di)) / d2;
+    }
+  }
 }
 
 /**
  * Zsrc and V at a section's output for a block of points (`at` its input node's first
- * index): {@link forwardStep} and {@link voltageStep} written out in one loop, as
- * {@link backSection} is (fused here: the voltage step reads the Zin the same point needs).
+ * index; its voltages read from vInRe/vInIm at `vIn`, those at its output written to
+ * vOutRe/vOutIm at `vOut`, which may be the same places): {@link forwardStep} and
+ * {@link voltageStep} written out in one loop, as {@link backSection} is (fused here: the
+ * voltage step reads the Zin the same point needs).
  */
 function forwardSection(
   m: Float64Array,
@@ -233,8 +343,14 @@ function forwardSection(
   at: number,
   P: number,
   n: number,
+  vInRe: Float64Array,
+  vInIm: Float64Array,
+  vIn: number,
+  vOutRe: Float64Array,
+  vOutIm: Float64Array,
+  vOut: number,
 ): void {
-  const { zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm } = na;
+  const { zsrcRe, zsrcIm, zinRe, zinIm } = na;
   for (let k = 0; k < n; k++) {
     const o = mj + 8 * k;
     const from = at + k;
@@ -264,17 +380,18 @@ function forwardSection(
       zsrcIm[to] = (ni * dr - nr * di) * inv;
     }
     // V at the output: V/(A + B·Y), Y = 1/Zin(out).
+    // (Its voltages are read before they are written: the two places may be one.)
     const ar = zinRe[to];
     const ai = zinIm[to];
-    const vr = vRe[from];
-    const vi = vIm[from];
+    const vr = vInRe[vIn + k];
+    const vi = vInIm[vIn + k];
     let er = m[o];
     let ei = m[o + 1];
     if (ar - ar === 0 && ai - ai === 0) {
       const a2 = ar * ar + ai * ai;
       if (a2 === 0 || (vr === 0 && vi === 0)) {
-        vRe[to] = 0;
-        vIm[to] = 0;
+        vOutRe[vOut + k] = 0;
+        vOutIm[vOut + k] = 0;
         continue;
       }
       const ia = 1 / a2;
@@ -284,7 +401,7 @@ function forwardSection(
       ei += m[o + 2] * yi + m[o + 3] * yr;
     }
     const ie = 1 / (er * er + ei * ei);
-    vRe[to] = (vr * er + vi * ei) * ie;
-    vIm[to] = (vi * er - vr * ei) * ie;
+    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
+    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
   }
 }

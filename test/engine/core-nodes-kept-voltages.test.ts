@@ -1,0 +1,118 @@
+/**
+ * A node analysis that keeps the voltages of some nodes only (`voltageAt`): each kept row is
+ * the full analysis's row for that node, bit for bit, and every other array is the full
+ * analysis's, on every example chain (mixers, coupled tanks, amplifiers, an open detector
+ * input) over several blocks of points, with a fresh and with a reused workspace.
+ */
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { buildChain, type BuiltChain } from '../../shared/engine/core/build';
+import { BLOCK, createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
+import { defaultCatalogue } from '../../shared/engine/default-catalogue';
+import { chainDocumentSchema } from '../../shared/schema/chain';
+
+const DIR = path.join(__dirname, '..', '..', 'examples');
+const keys = readdirSync(DIR)
+  .filter((n) => n.endsWith('.chain.json'))
+  .map((n) => n.slice(0, -'.chain.json'.length));
+
+function builtOf(key: string): BuiltChain {
+  const { variantOf: _v, ...raw } = JSON.parse(readFileSync(path.join(DIR, `${key}.chain.json`), 'utf8')); // prettier-ignore
+  return buildChain(chainDocumentSchema.parse(raw), defaultCatalogue());
+}
+
+/** Frequencies over the chain's sweep: three full blocks and a part of one. */
+function grid(built: BuiltChain, points = 3 * BLOCK + 17): Float64Array {
+  const { startHz, stopHz } = built.settings.sweep;
+  return Float64Array.from({ length: points }, (_, i) => startHz + ((stopHz - startHz) * i) / (points - 1)); // prettier-ignore
+}
+
+/** Where two arrays differ (Object.is: NaN equals NaN, +0 is not −0), at most a few. */
+function differences(got: ArrayLike<number>, want: ArrayLike<number>, what: string): string[] {
+  const out: string[] = [];
+  if (got.length !== want.length) return [`${what}: length ${got.length} ≠ ${want.length}`];
+  for (let i = 0; i < want.length && out.length < 3; i++) {
+    if (!Object.is(got[i], want[i])) out.push(`${what}[${i}]: ${got[i]} ≠ ${want[i]}`);
+  }
+  return out;
+}
+
+/** Every difference between a kept-voltage analysis and the full one. */
+function compare(kept: NodeAnalysis, full: NodeAnalysis, nodes: readonly number[]): string[] {
+  const P = full.points;
+  const out: string[] = [];
+  for (const key of ['freqs', 'fNode', 'zinRe', 'zinIm', 'zsrcRe', 'zsrcIm', 'emf'] as const) {
+    out.push(...differences(kept[key], full[key], key));
+  }
+  for (const node of nodes) {
+    const row = kept.vRow![node];
+    for (const key of ['vRe', 'vIm'] as const) {
+      const got = kept[key].subarray(row * P, (row + 1) * P);
+      const want = full[key].subarray(node * P, (node + 1) * P);
+      out.push(...differences(got, want, `${key} at node ${node}`));
+    }
+  }
+  return out;
+}
+
+describe('node analysis keeping some nodes’ voltages', () => {
+  it.each(keys)('%s: the user nodes’ rows are the full analysis’s, exactly', (key) => {
+    const built = builtOf(key);
+    const freqs = grid(built);
+    const userNodes = Array.from(built.userNodeFlat);
+    const full = runNodeAnalysis(built, freqs);
+    const kept = runNodeAnalysis(built, freqs, createNodeAnalysis(built, freqs.length, { voltageAt: userNodes })); // prettier-ignore
+    expect(compare(kept, full, userNodes)).toEqual([]);
+    // Only those rows are held.
+    expect(kept.vRe.length).toBe(new Set(userNodes).size * freqs.length);
+    expect(kept.vIm.length).toBe(kept.vRe.length);
+  });
+
+  it('keeps the rows in ascending node order, once each, and marks the others −1', () => {
+    const built = builtOf('two-metre-coupled-preselector');
+    const nodes = built.sections.length + 1;
+    expect(nodes).toBeGreaterThan(3);
+    const listed = [nodes - 1, 1, nodes - 1, 0];
+    const na = createNodeAnalysis(built, 10, { voltageAt: listed });
+    const want = Array.from({ length: nodes }, (_, n) => (n === 0 ? 0 : n === 1 ? 1 : n === nodes - 1 ? 2 : -1)); // prettier-ignore
+    expect(Array.from(na.vRow!)).toEqual(want);
+    expect(na.vRe.length).toBe(3 * 10);
+    // Without the option every node has its row at its own index.
+    const all = createNodeAnalysis(built, 10);
+    expect(all.vRow).toBeUndefined();
+    expect(all.vRe.length).toBe(nodes * 10);
+  });
+
+  it('a node in the middle only, the source and the load not kept: the same numbers', () => {
+    // The voltage passes through unkept nodes at both ends of the chain.
+    for (const key of keys) {
+      const built = builtOf(key);
+      const freqs = grid(built, BLOCK + 1);
+      const middle = [Math.floor(built.sections.length / 2)];
+      const full = runNodeAnalysis(built, freqs);
+      const kept = runNodeAnalysis(built, freqs, createNodeAnalysis(built, freqs.length, { voltageAt: middle })); // prettier-ignore
+      expect({ key, diff: compare(kept, full, middle) }).toEqual({ key, diff: [] });
+    }
+  });
+
+  it('a reused workspace keeps its rows and gives the new frequencies’ values', () => {
+    const built = builtOf('shortwave-superhet-coupled-pair');
+    const userNodes = Array.from(built.userNodeFlat);
+    const first = grid(built);
+    const ws = createNodeAnalysis(built, first.length, { voltageAt: userNodes });
+    runNodeAnalysis(built, first, ws);
+    // The same number of points, half a step apart: every value changes.
+    const second = first.map((f) => f + (first[1] - first[0]) / 2);
+    const again = runNodeAnalysis(built, second, ws);
+    expect(again).toBe(ws);
+    expect(compare(again, runNodeAnalysis(built, second), userNodes)).toEqual([]);
+  });
+
+  it('refuses a node the chain does not have', () => {
+    const built = builtOf('shortwave-superhet-single-tank');
+    const nodes = built.sections.length + 1;
+    expect(() => createNodeAnalysis(built, 4, { voltageAt: [nodes] })).toThrow(RangeError);
+    expect(() => createNodeAnalysis(built, 4, { voltageAt: [-1] })).toThrow(/not a node/);
+    expect(() => createNodeAnalysis(built, 4, { voltageAt: [0.5] })).toThrow(/not a node/);
+  });
+});
