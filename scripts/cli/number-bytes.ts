@@ -64,17 +64,26 @@ export function putText(buf: Uint8Array, pos: number, text: string, width: numbe
 /** Most bytes a cell can take beyond its width (a long fallback string, in UTF-8). */
 export const CELL_SLACK = 96;
 
+/*
+ * The writers take the column and the row (`values[i]`), not the value: a number that is not
+ * a small integer, passed to a function the optimiser did not inline, is boxed on the heap,
+ * and a long table's millions of such boxes were most of the CLI's garbage.
+ */
+
 /**
- * `value.toFixed(3)` right-aligned in `width`, or `missing` for a value that is not finite.
+ * `values[i].toFixed(3)` right-aligned in `width`, or `missing` for a value that is not
+ * finite.
  * @returns the position after the cell
  */
 export function putFixed3(
   buf: Uint8Array,
   pos: number,
-  value: number,
+  values: ArrayLike<number>,
+  i: number,
   width: number,
   missing: string,
 ): number {
+  const value = values[i];
   if (!finite(value)) return putText(buf, pos, missing, width);
   const size = abs(value);
   const scaled = size * 1000;
@@ -95,18 +104,20 @@ export function putFixed3(
 }
 
 /**
- * `formatNumber(value, digits)` right-aligned in `width` (`padEnd` when `left`): `digits`
+ * `formatNumber(values[i], digits)` right-aligned in `width` (`padEnd` when `left`): `digits`
  * significant figures, trailing zeros dropped, as `String(Number(value.toPrecision(digits)))`.
  * @returns the position after the cell
  */
 export function putSignificant(
   buf: Uint8Array,
   pos: number,
-  value: number,
+  values: ArrayLike<number>,
+  i: number,
   digits: number,
   width: number,
   left = false,
 ): number {
+  const value = values[i];
   const size = abs(value);
   // Zero, non-finite values and those String() writes with an exponent take the slow path.
   if (!(size >= 1e-6) || !finite(size)) return putAligned(buf, pos, value, digits, width, left);

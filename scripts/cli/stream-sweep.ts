@@ -58,18 +58,18 @@ export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
       const i = i0 + r;
       out.room(rowBytes);
       const buf = out.buf;
-      let pos = putSignificant(buf, out.pos, f[i], 9, w[0], true);
+      let pos = putSignificant(buf, out.pos, f, i, 9, w[0], true);
       for (let k = 0; k < columns; k++) {
         buf[pos++] = SPACE;
         buf[pos++] = SPACE;
-        pos = putFixed3(buf, pos, stepUp[k][r], w[k + 1], DASH);
+        pos = putFixed3(buf, pos, stepUp[k], r, w[k + 1], DASH);
       }
       buf[pos++] = SPACE;
       buf[pos++] = SPACE;
-      pos = putSignificant(buf, pos, re[i], 6, wz);
+      pos = putSignificant(buf, pos, re, i, 6, wz);
       buf[pos++] = SPACE;
       buf[pos++] = SPACE;
-      pos = putSignificant(buf, pos, im[i], 6, wi);
+      pos = putSignificant(buf, pos, im, i, 6, wi);
       buf[pos++] = NEWLINE;
       out.pos = pos;
     }

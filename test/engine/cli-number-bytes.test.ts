@@ -13,9 +13,9 @@ function values(count: number, seed = 12345): number[] {
 }
 
 const significant = (v: number, digits: number, width = 14, left = false) =>
-  cellText((buf, pos) => putSignificant(buf, pos, v, digits, width, left));
+  cellText((buf, pos) => putSignificant(buf, pos, [v], 0, digits, width, left));
 const fixed3 = (v: number, width = 14) =>
-  cellText((buf, pos) => putFixed3(buf, pos, v, width, '—'));
+  cellText((buf, pos) => putFixed3(buf, pos, [v], 0, width, '—'));
 
 // Ties of the exact decimal, values either side of powers of ten, and the special values.
 const EDGES = [12345678.5, -12345678.5, 1234567.25, 2.5, -2.5, 999999999.5, 99999.95, 1e21,
