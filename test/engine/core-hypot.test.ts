@@ -74,6 +74,8 @@ describe('hypot2', () => {
     expect(hypot2(Number.NaN, Number.NEGATIVE_INFINITY)).toBe(Number.POSITIVE_INFINITY);
     expect(hypot2(Number.POSITIVE_INFINITY, Number.NaN)).toBe(Number.POSITIVE_INFINITY);
     expect(hypot2(Number.NaN, 0)).toBeNaN();
+    expect(hypot2(0, Number.NaN)).toBeNaN();
+    expect(hypot2(-0, Number.NaN)).toBeNaN();
     expect(hypot2(2, Number.NaN)).toBeNaN();
     expect(Object.is(hypot2(-0, -0), 0)).toBe(true);
     expect(hypot2(3, -4)).toBe(5);

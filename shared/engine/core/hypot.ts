@@ -23,9 +23,12 @@ export function hypot2(re: number, im: number): number {
   const a = abs(re);
   const b = abs(im);
   if (a === INF || b === INF) return INF;
-  if (a !== a || b !== b) return NaN;
+  // A NaN part needs no test of its own: every comparison with NaN is false, so `max` is
+  // NaN or the other part, and a NaN goes through the sums below (0 + NaN, NaN / max).
+  // Every return is computed, none a constant NaN or 0: a constant among the returns made
+  // the optimiser box the result of every call inlined into a loop on the heap.
   const max = b > a ? b : a;
-  if (max === 0) return 0;
+  if (max === 0) return a + b;
   const x = a / max;
   const y = b / max;
   return sqrt(x * x + y * y) * max;
