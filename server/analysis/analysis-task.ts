@@ -6,6 +6,7 @@
 import type { MeasuredNetwork } from '../../shared/engine/types';
 import type { ChainDocument } from '../../shared/schema/chain';
 import type { SweepTrace } from '../../shared/schema/sweep-columns';
+import type { SweepPacking } from '../../shared/schema/sweep-packing';
 import type { DesignOp } from '../design/design-ops';
 import type { AnswerEncoding } from './answer-encoding';
 import type { ExportFile, ExportSpec } from './export-file';
@@ -31,6 +32,8 @@ export interface AnalysisTask {
   request?: unknown;
   /** Sweep traces to include in the answer; none leaves the sweep out. */
   traces: readonly SweepTrace[];
+  /** How the answer's sweep columns travel (absent: plain arrays). */
+  packing?: SweepPacking;
   /** Limit the per-node sweep traces to these node indices. */
   nodes?: readonly number[];
   /** Add the receiver plan (`'full'`: with the spur chart and the IF choice). */

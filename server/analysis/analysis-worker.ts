@@ -21,14 +21,16 @@ import { runExport, runShared } from './thread-jobs';
 
 function toDto(result: AnalysisResult, task: AnalysisTask): AnalysisDto {
   const { sweep: full, ...rest } = result;
-  return full ? { ...rest, sweep: sweepToColumns(full, task.traces, task.nodes) } : rest;
+  return full
+    ? { ...rest, sweep: sweepToColumns(full, task.traces, task.nodes, task.packing) }
+    : rest;
 }
 
 /** The answer's JSON bytes, the sweep's columns written by hand (./sweep-json.ts). */
 function answerBytes(result: AnalysisResult, task: AnalysisTask): Uint8Array {
   const { sweep: full, ...rest } = result;
   if (!full) return Buffer.from(JSON.stringify(rest), 'utf8');
-  return answerWithSweepJson(JSON.stringify(rest), full, task.traces, task.nodes);
+  return answerWithSweepJson(JSON.stringify(rest), full, task.traces, task.nodes, task.packing);
 }
 
 /** Every mode's analysis; a mode the engine refuses carries its reason, the others still run. */

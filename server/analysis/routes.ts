@@ -9,6 +9,7 @@ import {
   sweepTracesQuerySchema,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
+import { sweepPackingSchema, type SweepPacking } from '../../shared/schema/sweep-packing';
 import { storedDocument } from '../chains/stored-document';
 import { HttpError } from '../common/errors';
 import { chainRole, currentUser, requireUser } from '../common/roles';
@@ -36,6 +37,7 @@ async function analyze(
   workspaceId: string | undefined,
   plan: boolean | 'full' = false,
   modes: { mode?: string; allModes?: boolean; figures?: number } = {},
+  packing: SweepPacking = 'plain',
 ) {
   // Every mode is a whole analysis of its own.
   assertWithinBudget(doc, modes.allModes ? Math.max(1, doc.modes?.length ?? 0) : 1);
@@ -46,6 +48,7 @@ async function analyze(
     want: 'answer',
     traces,
     ...(nodes ? { nodes } : {}),
+    ...(packing !== 'plain' ? { packing } : {}),
     plan,
     ...(modes.allModes ? { allModes: true } : modes.mode ? { mode: modes.mode } : {}),
     ...(modes.figures ? { figures: modes.figures } : {}),
@@ -76,11 +79,22 @@ export function analysisRouter(em: EntityManager): Router {
     const body = parseOr422(analysisRequestSchema, req.body);
     if (body.workspaceId) await assertCanRead(em, currentUser(req), body.workspaceId);
     const traces = body.sweep ? (body.traces ?? PLOTTED_TRACES) : [];
-    await analyze(em, req, res, body.document, traces, body.nodes, body.workspaceId, body.plan, {
-      ...(body.mode ? { mode: body.mode } : {}),
-      allModes: body.allModes,
-      ...(body.figures ? { figures: body.figures } : {}),
-    });
+    await analyze(
+      em,
+      req,
+      res,
+      body.document,
+      traces,
+      body.nodes,
+      body.workspaceId,
+      body.plan,
+      {
+        ...(body.mode ? { mode: body.mode } : {}),
+        allModes: body.allModes,
+        ...(body.figures ? { figures: body.figures } : {}),
+      },
+      body.sweepPacking,
+    );
   });
   router.get('/catalogue', requireUser, (_req, res) => {
     res.type('application/json').send(catalogueJson);
@@ -92,11 +106,12 @@ const tracesQuery = z.object({ traces: sweepTracesQuerySchema });
 const modesQuery = z.object({
   mode: analysisRequestSchema.shape.mode,
   modes: z.literal('all', { error: 'modes takes only "all" (every mode\'s analysis)' }).optional(),
+  packing: sweepPackingSchema.default('plain'),
 });
 
 /**
- * GET /api/chains/:id/analysis?sweep=1&traces=stepUp,zIn&mode=transmit (or &modes=all): the
- * stored chain, for viewers and up.
+ * GET /api/chains/:id/analysis?sweep=1&traces=stepUp,zIn&mode=transmit (or &modes=all;
+ * &packing=differences for the smaller sweep columns): the stored chain, for viewers and up.
  */
 export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
@@ -108,7 +123,11 @@ export function chainAnalysisRouter(em: EntityManager): Router {
       req.query.traces === undefined
         ? PLOTTED_TRACES
         : parseOr422(tracesQuery, { traces: req.query.traces }, 'query').traces;
-    const query = parseOr422(modesQuery, { mode: req.query.mode, modes: req.query.modes }, 'query'); // prettier-ignore
+    const query = parseOr422(
+      modesQuery,
+      { mode: req.query.mode, modes: req.query.modes, packing: req.query.packing },
+      'query',
+    );
     const chain = res.locals.chain!;
     await analyze(
       em,
@@ -120,6 +139,7 @@ export function chainAnalysisRouter(em: EntityManager): Router {
       chain.workspace.id,
       plan,
       { ...(query.mode ? { mode: query.mode } : {}), allModes: query.modes === 'all' },
+      query.packing,
     );
   });
   return router;

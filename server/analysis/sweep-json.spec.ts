@@ -4,6 +4,7 @@ import { analyzeChain } from '../../shared/engine';
 import type { SweepReport } from '../../shared/engine/types';
 import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { SWEEP_TRACES, sweepToColumns, type SweepTrace } from '../../shared/schema/sweep-columns';
+import type { SweepPacking } from '../../shared/schema/sweep-packing';
 import { REPO_ROOT } from '../config';
 import { answerWithSweepJson } from './sweep-json';
 
@@ -13,8 +14,9 @@ function expected(
   sweep: SweepReport,
   traces: readonly SweepTrace[],
   nodes?: number[],
+  packing?: SweepPacking,
 ) {
-  return JSON.stringify({ ...head, sweep: sweepToColumns(sweep, traces, nodes) });
+  return JSON.stringify({ ...head, sweep: sweepToColumns(sweep, traces, nodes, packing) });
 }
 
 function written(
@@ -22,8 +24,11 @@ function written(
   sweep: SweepReport,
   traces: readonly SweepTrace[],
   nodes?: number[],
+  packing?: SweepPacking,
 ) {
-  return Buffer.from(answerWithSweepJson(JSON.stringify(head), sweep, traces, nodes)).toString();
+  return Buffer.from(
+    answerWithSweepJson(JSON.stringify(head), sweep, traces, nodes, packing),
+  ).toString();
 }
 
 /** A sweep whose every trace is `values`. */
@@ -60,6 +65,26 @@ describe('the sweep columns written by hand', () => {
     const some: SweepTrace[] = ['stepUp', 'returnLoss'];
     const nodes = [sweep!.nodes[sweep!.nodes.length - 1].index];
     expect(written(rest, sweep!, some, nodes)).toBe(expected(rest, sweep!, some, nodes));
+    const packed = written(rest, sweep!, SWEEP_TRACES, undefined, 'differences');
+    expect(packed).toBe(expected(rest, sweep!, SWEEP_TRACES, undefined, 'differences'));
+    expect(JSON.parse(packed).sweep.packing).toBe('differences');
+    expect(written(rest, sweep!, some, nodes, 'differences')).toBe(
+      expected(rest, sweep!, some, nodes, 'differences'),
+    );
+  });
+
+  it('should write difference columns as JSON.stringify does: smooth, spread, zeros, gaps', () => {
+    const random = lcg(20261203);
+    const smooth = Array.from({ length: 3000 }, (_, i) => 40 * Math.cos(i / 300) - 3);
+    // A column whose second differences are large (counts near the exact limit).
+    const spread = Array.from({ length: 500 }, () => (random() - 0.5) * 10 ** (random() * 8));
+    const zeros = [0, -0, 0];
+    const gaps = [1, NaN, 3];
+    for (const values of [smooth, spread, zeros, gaps, []]) {
+      expect(written({ a: 1 }, sweepOf(values), SWEEP_TRACES, undefined, 'differences')).toBe(
+        expected({ a: 1 }, sweepOf(values), SWEEP_TRACES, undefined, 'differences'),
+      );
+    }
   });
 
   it('should write awkward values as JSON.stringify does: halves, carries, signs, extremes, non-finite', () => {

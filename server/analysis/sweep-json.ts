@@ -20,6 +20,11 @@ import {
   roundSignificant,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
+import {
+  columnCounts,
+  secondDifferences,
+  type SweepPacking,
+} from '../../shared/schema/sweep-packing';
 
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
@@ -97,6 +102,55 @@ function writeRounded(v: number, digits: number): void {
   for (let i = shift - 1; i >= low; i--) out[at++] = ZERO + digitsScratch[i];
 }
 
+/** Writes the integer `n` (|n| < 2^53) as JSON does. */
+function writeInteger(n: number): void {
+  if (n === 0) return ascii('0');
+  room(24);
+  if (n < 0) out[at++] = MINUS;
+  let len = 0;
+  if (n < 2 ** 31 && n > -(2 ** 31)) {
+    for (let v = (n < 0 ? -n : n) | 0; v > 0;) {
+      const q = (v / 10) | 0;
+      digitsScratch[len++] = v - q * 10;
+      v = q;
+    }
+  } else {
+    for (let v = Math.abs(n); v > 0;) {
+      const q = Math.floor(v / 10);
+      digitsScratch[len++] = v - q * 10;
+      v = q;
+    }
+  }
+  for (let i = len - 1; i >= 0; i--) out[at++] = ZERO + digitsScratch[i];
+}
+
+/** Counts and their differences, reused between columns (grown as needed). */
+let counts = new Float64Array(4096);
+let steps = new Float64Array(4096);
+
+/**
+ * Writes `values` as JSON prints `packColumn(values, digits, …)`: a difference column, or
+ * the plain rounded array where the column cannot be packed exactly.
+ */
+function writePackedColumn(values: ArrayLike<number>, digits: number): void {
+  if (counts.length < values.length) {
+    counts = new Float64Array(values.length);
+    steps = new Float64Array(values.length);
+  }
+  const decimals = columnCounts(values, digits, counts);
+  if (decimals === undefined) return writeColumn(values, digits);
+  secondDifferences(counts.subarray(0, values.length), steps);
+  ascii(`{"decimals":${decimals},"steps":[`);
+  for (let i = 0; i < values.length; i++) {
+    if (i > 0) {
+      room(1);
+      out[at++] = COMMA;
+    }
+    writeInteger(steps[i]);
+  }
+  ascii(']}');
+}
+
 function writeColumn(values: ArrayLike<number>, digits: number): void {
   ascii('[');
   for (let i = 0; i < values.length; i++) {
@@ -109,32 +163,36 @@ function writeColumn(values: ArrayLike<number>, digits: number): void {
   ascii(']');
 }
 
-function writeColumns(key: string, columns: ArrayLike<number>[]): void {
+type ColumnWriter = (values: ArrayLike<number>, digits: number) => void;
+
+function writeColumns(key: string, columns: ArrayLike<number>[], write: ColumnWriter): void {
   ascii(`,"${key}":[`);
   columns.forEach((c, i) => {
     if (i > 0) ascii(',');
-    writeColumn(c, SWEEP_DIGITS);
+    write(c, SWEEP_DIGITS);
   });
   ascii(']');
 }
 
-function writeOne(key: string, values: ArrayLike<number>): void {
+function writeOne(key: string, values: ArrayLike<number>, write: ColumnWriter): void {
   ascii(`,"${key}":`);
-  writeColumn(values, SWEEP_DIGITS);
+  write(values, SWEEP_DIGITS);
 }
 
 /**
  * The API's JSON answer as UTF-8 bytes: `head` (JSON text of an object without its sweep)
  * with the sweep's columns added as its last member, `sweep`, exactly as
- * JSON.stringify({ ...head, sweep: sweepToColumns(sweep, traces, nodes) }) writes it.
- * The bytes are a view of a buffer the next call overwrites: compress or copy them first.
+ * JSON.stringify({ ...head, sweep: sweepToColumns(sweep, traces, nodes, packing) }) writes
+ * it. The bytes are a view of a buffer the next call overwrites: compress or copy them first.
  */
 export function answerWithSweepJson(
   head: string,
   sweep: SweepReport,
   traces: readonly SweepTrace[],
   nodes?: readonly number[],
+  packing: SweepPacking = 'plain',
 ): Uint8Array {
+  const write = packing === 'differences' ? writePackedColumn : writeColumn;
   const want = new Set(traces);
   const chosen = nodes ? sweep.nodes.filter((n) => nodes.includes(n.index)) : sweep.nodes;
   at = 0;
@@ -143,24 +201,28 @@ export function answerWithSweepJson(
   const open = head.length > 2 ? head.slice(0, -1) + ',' : '{';
   room(Buffer.byteLength(open));
   at += out.write(open, at, 'utf8');
-  ascii(`"sweep":{"digits":${SWEEP_DIGITS},"freqsHz":`);
-  writeColumn(sweep.freqsHz, FREQUENCY_DIGITS);
+  ascii(`"sweep":{"digits":${SWEEP_DIGITS},`);
+  if (packing === 'differences') ascii('"packing":"differences",');
+  ascii('"freqsHz":');
+  write(sweep.freqsHz, FREQUENCY_DIGITS);
   ascii(`,"nodes":${JSON.stringify(chosen.map((n) => n.index))}`);
   if (want.has('stepUp'))
     writeColumns(
       'stepUpDb',
       chosen.map((n) => n.stepUpDb),
+      write,
     );
   if (want.has('phase'))
     writeColumns(
       'phaseDeg',
       chosen.map((n) => n.phaseDeg),
+      write,
     );
   if (want.has('zIn')) {
-    writeOne('zInRe', sweep.zIn.re);
-    writeOne('zInIm', sweep.zIn.im);
+    writeOne('zInRe', sweep.zIn.re, write);
+    writeOne('zInIm', sweep.zIn.im, write);
   }
-  if (want.has('returnLoss')) writeOne('returnLossDb', sweep.returnLossDb);
+  if (want.has('returnLoss')) writeOne('returnLossDb', sweep.returnLossDb, write);
   ascii('}}');
   return out.subarray(0, at);
 }

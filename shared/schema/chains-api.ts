@@ -6,6 +6,7 @@ import { z } from 'zod';
 import type { WorkspaceRole } from './account-fields';
 import { chainDocumentSchema } from './chain';
 import { sweepTracesSchema, type AnalysisDto } from './sweep-columns';
+import { sweepPackingSchema } from './sweep-packing';
 
 // ------------------------------------------------------------------ chains
 /**
@@ -146,6 +147,12 @@ export const analysisRequestSchema = z.object({
    * plotted ones: step-up at every node, input impedance and return loss.
    */
   traces: sweepTracesSchema.optional(),
+  /**
+   * How the sweep columns travel (`shared/schema/sweep-packing.ts`): `plain` arrays (the
+   * default) or `differences`, a third of the size on the wire and read back to the same
+   * values.
+   */
+  sweepPacking: sweepPackingSchema.default('plain'),
   /** Send the per-node sweep traces for these node indices only (default: every node). */
   nodes: z.array(z.number().int().min(0).max(1000)).max(200).optional(),
   /** The workspace whose data files the document's stages refer to (`dataFileId`). */

@@ -7,6 +7,7 @@
  */
 import { z } from 'zod';
 import type { AnalysisResult, SweepReport } from '../engine/types';
+import { packColumn, unpackColumn, type PackedColumn, type SweepPacking } from './sweep-packing';
 
 /** The traces a sweep can carry. */
 export const SWEEP_TRACES = ['stepUp', 'phase', 'zIn', 'returnLoss'] as const;
@@ -49,8 +50,27 @@ export interface SweepColumnsDto {
   returnLossDb?: number[];
 }
 
+/**
+ * The sweep columns in the `differences` packing (`sweepPacking: 'differences'`, see
+ * ./sweep-packing.ts): each column a `DifferenceColumn`, or a plain array where it could
+ * not be packed exactly. Read back, the values are identical to the plain packing's.
+ */
+export interface DifferenceSweepDto {
+  digits: number;
+  packing: 'differences';
+  freqsHz: PackedColumn;
+  nodes: number[];
+  stepUpDb?: PackedColumn[];
+  phaseDeg?: PackedColumn[];
+  zInRe?: PackedColumn;
+  zInIm?: PackedColumn;
+  returnLossDb?: PackedColumn;
+}
+
 /** An analysis as the API answers it: the engine's result with the sweep in columns. */
-export type AnalysisDto = Omit<AnalysisResult, 'sweep'> & { sweep?: SweepColumnsDto };
+export type AnalysisDto = Omit<AnalysisResult, 'sweep'> & {
+  sweep?: SweepColumnsDto | DifferenceSweepDto;
+};
 
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
@@ -66,7 +86,7 @@ export function roundSignificant(v: number, digits: number): number {
   return Number(v.toPrecision(digits));
 }
 
-function rounded(values: readonly number[], digits: number): number[] {
+function rounded(values: ArrayLike<number>, digits: number): number[] {
   const out = new Array<number>(values.length);
   // JSON has no NaN or infinities: a point the engine could not evaluate is sent as null.
   for (let i = 0; i < values.length; i++) out[i] = roundSignificant(values[i], digits);
@@ -75,13 +95,16 @@ function rounded(values: readonly number[], digits: number): number[] {
 
 /**
  * The traces of `sweep` asked for, in columns. `nodes` limits the per-node traces to those
- * node indices (default: every node).
+ * node indices (default: every node). `packing: 'differences'` packs each column
+ * (./sweep-packing.ts).
  */
 export function sweepToColumns(
   sweep: SweepReport,
   traces: readonly SweepTrace[],
   nodes?: readonly number[],
-): SweepColumnsDto {
+  packing: SweepPacking = 'plain',
+): SweepColumnsDto | DifferenceSweepDto {
+  if (packing === 'differences') return differenceColumns(sweep, traces, nodes);
   const want = new Set(traces);
   const chosen = nodes ? sweep.nodes.filter((n) => nodes.includes(n.index)) : sweep.nodes;
   const out: SweepColumnsDto = {
@@ -99,21 +122,47 @@ export function sweepToColumns(
   return out;
 }
 
+function differenceColumns(
+  sweep: SweepReport,
+  traces: readonly SweepTrace[],
+  nodes?: readonly number[],
+): DifferenceSweepDto {
+  const want = new Set(traces);
+  const chosen = nodes ? sweep.nodes.filter((n) => nodes.includes(n.index)) : sweep.nodes;
+  const pack = (values: readonly number[], digits = SWEEP_DIGITS) =>
+    packColumn(values, digits, (v) => rounded(v, digits));
+  const out: DifferenceSweepDto = {
+    digits: SWEEP_DIGITS,
+    packing: 'differences',
+    freqsHz: pack(sweep.freqsHz, FREQUENCY_DIGITS),
+    nodes: chosen.map((n) => n.index),
+  };
+  if (want.has('stepUp')) out.stepUpDb = chosen.map((n) => pack(n.stepUpDb));
+  if (want.has('phase')) out.phaseDeg = chosen.map((n) => pack(n.phaseDeg));
+  if (want.has('zIn')) {
+    out.zInRe = pack(sweep.zIn.re);
+    out.zInIm = pack(sweep.zIn.im);
+  }
+  if (want.has('returnLoss')) out.returnLossDb = pack(sweep.returnLossDb);
+  return out;
+}
+
 /**
- * Reads the columns back into the engine's sweep form. A trace that was not asked for reads
+ * Reads the columns back into the engine's sweep form, from either packing. A trace that was not asked for reads
  * as empty arrays (a node without a phase column has an empty `phaseDeg`), so a reader
  * checks the lengths of the traces it did not ask for.
  */
-export function columnsToSweep(dto: SweepColumnsDto): SweepReport {
+export function columnsToSweep(dto: SweepColumnsDto | DifferenceSweepDto): SweepReport {
+  const read = (column: PackedColumn | undefined) => (column ? unpackColumn(column) : []);
   return {
-    freqsHz: dto.freqsHz,
+    freqsHz: read(dto.freqsHz),
     nodes: dto.nodes.map((index, i) => ({
       index,
-      stepUpDb: dto.stepUpDb?.[i] ?? [],
-      phaseDeg: dto.phaseDeg?.[i] ?? [],
+      stepUpDb: read(dto.stepUpDb?.[i]),
+      phaseDeg: read(dto.phaseDeg?.[i]),
     })),
-    zIn: { re: dto.zInRe ?? [], im: dto.zInIm ?? [] },
-    returnLossDb: dto.returnLossDb ?? [],
+    zIn: { re: read(dto.zInRe), im: read(dto.zInIm) },
+    returnLossDb: read(dto.returnLossDb),
   };
 }
 

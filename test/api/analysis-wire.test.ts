@@ -9,7 +9,7 @@ import request from 'supertest';
 import { analyzeChain } from '../../shared/engine';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { analysisFromDto, SWEEP_DIGITS } from '../../shared/schema/sweep-columns';
-import { createUser, PASSWORD, send, signIn, type Client } from './support/agents';
+import { createUser, createWorkspace, PASSWORD, send, signIn, type Client } from './support/agents';
 import { exampleChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
 
@@ -18,12 +18,15 @@ let client: Client;
 let server: http.Server;
 let cookie: string;
 let csrf: string;
+let wid: string;
 
 const twoMetre: ChainDocument = exampleChain('two-metre-coupled-preselector');
 
 beforeAll(async () => {
   ctx = await createTestContext();
-  await createUser(ctx.services.orm.em.fork(), 'wire@analysis.test');
+  const em = ctx.services.orm.em.fork();
+  const user = await createUser(em, 'wire@analysis.test');
+  wid = (await createWorkspace(em, 'Wire', [[user, 'editor']])).id;
   client = await signIn(ctx.app, 'wire@analysis.test');
   // A raw session for the byte count (supertest undoes the compression it is checking).
   const csrfRes = await request(ctx.app).get('/api/auth/csrf');
@@ -128,6 +131,47 @@ describe('the analysis answer on the wire', () => {
       near(sweep.nodes[i].stepUpDb, n.stepUpDb);
       near(sweep.nodes[i].phaseDeg, n.phaseDeg);
     });
+  });
+
+  it('should send the differences packing in about a third of the bytes, read back to the same values', async () => {
+    const traces = ['stepUp', 'phase', 'zIn', 'returnLoss'];
+    const plain = await rawPost('/api/analysis', { document: twoMetre, traces }, 'br');
+    const packed = await rawPost(
+      '/api/analysis',
+      { document: twoMetre, traces, sweepPacking: 'differences' },
+      'br',
+    );
+    expect(packed.headers['content-encoding']).toBe('br');
+    expect(packed.raw.length).toBeLessThan(plain.raw.length / 2.5);
+    const fromPlain = JSON.parse(brotliDecompressSync(plain.raw).toString('utf8'));
+    const fromPacked = JSON.parse(brotliDecompressSync(packed.raw).toString('utf8'));
+    expect(fromPacked.sweep.packing).toBe('differences');
+    expect(fromPacked.sweep.zInRe).toEqual({ decimals: expect.any(Number), steps: expect.any(Array) }); // prettier-ignore
+    // Every value identical to the plain packing's (toEqual compares the doubles exactly).
+    expect(analysisFromDto(fromPacked)).toEqual(analysisFromDto(fromPlain));
+    expect(analysisFromDto(fromPacked).sweep!.zIn.re).toHaveLength(2001);
+  });
+
+  it('should send a stored chain packed as differences when asked, and refuse an unknown packing', async () => {
+    const created = await send(client, 'post', `/api/workspaces/${wid}/chains`, {
+      document: twoMetre,
+    });
+    expect(created.status).toBe(201);
+    const url = `/api/chains/${created.body.id}/analysis?sweep=1`;
+    const plain = await send(client, 'get', url);
+    const packed = await send(client, 'get', `${url}&packing=differences`);
+    expect(packed.status).toBe(200);
+    expect(packed.body.sweep.packing).toBe('differences');
+    expect(plain.body.sweep.packing).toBeUndefined();
+    expect(analysisFromDto(packed.body)).toEqual(analysisFromDto(plain.body));
+    const wrong = await send(client, 'get', `${url}&packing=zip`);
+    expect(wrong.status).toBe(422);
+    expect(wrong.body.message).toContain('plain, differences');
+    const wrongBody = await send(client, 'post', '/api/analysis', {
+      document: twoMetre,
+      sweepPacking: 'zip',
+    });
+    expect(wrongBody.status).toBe(422);
   });
 
   it('should send only the traces and nodes asked for', async () => {

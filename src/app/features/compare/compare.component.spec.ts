@@ -82,6 +82,7 @@ describe('CompareComponent', () => {
     http.expectOne((r) => r.url === '/api/chains/a/analysis').flush(withImageRejection(14.2));
     const b = http.expectOne((r) => r.url === '/api/chains/b/analysis');
     expect(b.request.params.get('sweep')).toBe('1');
+    expect(b.request.params.get('packing')).toBe('differences');
     b.flush(withImageRejection(32.5));
     await fixture.whenStable();
   }

@@ -44,6 +44,8 @@ export class AnalysisApi {
           document,
           sweep: true,
           traces: PLOTTED_TRACES,
+          // A third of the bytes on the wire; analysisFromDto reads the same values back.
+          sweepPacking: 'differences',
           ...(workspaceId ? { workspaceId } : {}),
           ...(mode ? { mode } : {}),
           // The flag sentences are written on the server: at the user's figures, like the rest.

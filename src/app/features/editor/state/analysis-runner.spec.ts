@@ -2,7 +2,11 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
-import { PLOTTED_TRACES, type SweepColumnsDto } from '../../../../../shared/schema/sweep-columns';
+import {
+  PLOTTED_TRACES,
+  type DifferenceSweepDto,
+  type SweepColumnsDto,
+} from '../../../../../shared/schema/sweep-columns';
 import {
   applySignificantFigures,
   DEFAULT_SIGNIFICANT_FIGURES,
@@ -40,6 +44,7 @@ describe('AnalysisRunner', () => {
         document: doc('a'),
         sweep: true,
         traces: PLOTTED_TRACES,
+        sweepPacking: 'differences',
         figures: DEFAULT_SIGNIFICANT_FIGURES,
       });
       req.flush(result(1));
@@ -54,6 +59,7 @@ describe('AnalysisRunner', () => {
         document: doc('a'),
         sweep: true,
         traces: PLOTTED_TRACES,
+        sweepPacking: 'differences',
         workspaceId: 'w1',
         figures: DEFAULT_SIGNIFICANT_FIGURES,
       });
@@ -82,6 +88,27 @@ describe('AnalysisRunner', () => {
       ]);
       expect(sweep.zIn).toEqual({ re: [50, 51, 52], im: [1, 0, -1] });
       expect(sweep.returnLossDb).toEqual([20, 30, 25]);
+    });
+
+    it('should read a sweep sent as differences into the values the plain columns carry', () => {
+      const columns: DifferenceSweepDto = {
+        digits: 6,
+        packing: 'differences',
+        // 1, 2, 3 MHz: 1e6, then a step of 1e6, then no change of step.
+        freqsHz: { decimals: 0, steps: [1e6, 1e6, 0] },
+        nodes: [0],
+        // -0.25, -0.5, -1.125 dB in counts of 0.001 dB, and a column sent plain.
+        stepUpDb: [{ decimals: 3, steps: [-250, -250, -375] }],
+        zInRe: [50, 51, 52],
+        zInIm: { decimals: -2, steps: [3, -1, 2] },
+        returnLossDb: { decimals: 1, steps: [201, 0, 0] },
+      };
+      send('a').flush({ ...result(2e6), sweep: columns });
+      const sweep = runner.result()!.sweep!;
+      expect(sweep.freqsHz).toEqual([1e6, 2e6, 3e6]);
+      expect(sweep.nodes).toEqual([{ index: 0, stepUpDb: [-0.25, -0.5, -1.125], phaseDeg: [] }]);
+      expect(sweep.zIn).toEqual({ re: [50, 51, 52], im: [300, 200, 300] });
+      expect(sweep.returnLossDb).toEqual([20.1, 20.1, 20.1]);
     });
 
     it('should gather quick edits and send the last once they pause, cancelling the first', () => {
@@ -121,6 +148,7 @@ describe('AnalysisRunner', () => {
         document: doc('a'),
         sweep: true,
         traces: PLOTTED_TRACES,
+        sweepPacking: 'differences',
         workspaceId: 'w1',
         figures: 3,
       });
