@@ -5,6 +5,7 @@ import { startAnalysisPool, stopAnalysisPool } from './analysis/analysis-pool';
 import { createApp } from './app';
 import { ConfigError, configFromEnv, REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
+import { flushLogs } from './common/logger';
 import { initServices } from './common/services';
 import { startFakeSmtp } from './mail/fake-smtp';
 
@@ -53,6 +54,7 @@ async function main(): Promise<void> {
     if (smtp) await new Promise<void>((resolve) => smtp.close(() => resolve()));
     await stopAnalysisPool();
     await services.close();
+    flushLogs();
     process.exit(0);
   };
   process.on('SIGINT', () => void stop('SIGINT'));

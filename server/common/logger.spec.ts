@@ -1,0 +1,38 @@
+import type { EventEmitter } from 'node:events';
+import { closeSync, mkdtempSync, openSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { batchedOutput, createLogger, flushLogs } from './logger';
+
+describe('the batched log output', () => {
+  const dir = mkdtempSync(path.join(tmpdir(), 'cw-log-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it('should hold lines until 4 KB gather or a flush, then write them whole and in order', async () => {
+    const file = path.join(dir, 'batched.log');
+    const fd = openSync(file, 'w');
+    const destination = batchedOutput(fd);
+    const logger = createLogger({ destination });
+    logger.info({ n: 1 }, 'first');
+    logger.info({ n: 2 }, 'second');
+    // Not written yet: one write per batch, not per line.
+    expect(readFileSync(file, 'utf8')).toBe('');
+    flushLogs();
+    const lines = readFileSync(file, 'utf8')
+      .trim()
+      .split('\n')
+      .map((l) => JSON.parse(l));
+    expect(lines.map((l) => [l.msg, l.n])).toEqual([
+      ['first', 1],
+      ['second', 2],
+    ]);
+    // More than a batch's worth goes out without a flush.
+    const written = new Promise((resolve) => (destination as unknown as EventEmitter).once('write', resolve)); // prettier-ignore
+    for (let i = 0; i < 100; i++) logger.info({ i, pad: 'x'.repeat(60) }, 'filler');
+    await written;
+    expect(readFileSync(file, 'utf8').length).toBeGreaterThan(4096);
+    flushLogs();
+    expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(102);
+    closeSync(fd);
+  });
+});
