@@ -1,6 +1,7 @@
 import path from 'node:path';
 import { defineConfig, type Options } from '@mikro-orm/postgresql';
 import { Migrator } from '@mikro-orm/migrations';
+import { UserCacheSubscriber } from './auth/user-cache';
 import { ENTITIES } from './common/entities';
 import { REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
@@ -23,6 +24,8 @@ export function ormOptions(
     clientUrl,
     entities: ENTITIES,
     extensions: [Migrator],
+    // Forgets the signed-in users kept in memory when a flush changes users or memberships.
+    subscribers: [new UserCacheSubscriber()],
     // Entities are defined with defineEntity, so no metadata reflection is needed.
     discovery: { warnWhenNoEntities: true },
     migrations: {

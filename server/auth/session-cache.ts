@@ -9,6 +9,7 @@
  */
 import session, { type SessionData, type Store } from 'express-session';
 import { LRUCache } from 'lru-cache';
+import { forgetCachedUsers } from './user-cache';
 
 /** How long a session read stays fresh, ms. */
 export const SESSION_CACHE_MS = 2000;
@@ -22,6 +23,8 @@ const caches = new Set<WeakRef<CachedSessionStore>>();
 
 /** Drops every cached session (after sessions were ended in SQL, not through the store). */
 export function forgetCachedSessions(): void {
+  // The signed-in users kept in memory go too: what ends sessions in SQL changed accounts.
+  forgetCachedUsers();
   for (const ref of caches) {
     const cache = ref.deref();
     if (cache) cache.forgetAll();

@@ -14,6 +14,7 @@ import { UserSchema } from '../users/user.entity';
 import { hashPassword, verifyPassword } from '../users/password';
 import { readAnonToken, storeAnonToken } from './anon-csrf';
 import { CachedSessionStore } from './session-cache';
+import { findUser } from './user-cache';
 import '../common/request-types';
 import { CSRF_ERROR_CODE } from './csrf-code';
 
@@ -123,7 +124,8 @@ export function createPassport(em: EntityManager): InstanceType<typeof Passport>
   passport.serializeUser((user, done) => done(null, user.id));
   passport.deserializeUser((id: string, done) => {
     // A deactivated or deleted account's sessions end: it is signed out on its next request.
-    em.findOne(UserSchema, { id })
+    // Kept in memory for a moment (./user-cache.ts), forgotten whenever accounts change.
+    findUser(em, id)
       .then((user) => done(null, user && !user.deactivatedAt ? user : false))
       .catch(done);
   });
