@@ -12,7 +12,8 @@ import {
 import { sweepPackingSchema, type SweepPacking } from '../../shared/schema/sweep-packing';
 import { storedDocument } from '../chains/stored-document';
 import { HttpError } from '../common/errors';
-import { chainRole, currentUser, requireUser } from '../common/roles';
+import { chainRoleInOneQuery } from '../common/one-query-access';
+import { currentUser, requireUser } from '../common/roles';
 import { parseOr422 } from '../common/validate';
 import { assertCanRead, loadDataFiles } from '../files/data-files';
 import { assertWithinBudget, runOnPool } from './analysis-pool';
@@ -115,7 +116,7 @@ const modesQuery = z.object({
  */
 export function chainAnalysisRouter(em: EntityManager): Router {
   const router = Router();
-  router.get('/:id/analysis', chainRole(em, 'viewer'), async (req, res) => {
+  router.get('/:id/analysis', chainRoleInOneQuery(em, 'viewer'), async (req, res) => {
     const sweep = req.query.sweep === '1' || req.query.sweep === 'true';
     const plan =
       req.query.plan === 'full' ? 'full' : req.query.plan === '1' || req.query.plan === 'true';

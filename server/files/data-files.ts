@@ -5,10 +5,9 @@ import { toMeasuredNetwork } from '../../shared/io/network-data';
 import { readTouchstone, TouchstoneError, type TouchstoneFile } from '../../shared/io/touchstone';
 import type { DataFileDto, DataFileKind, DataFileSummaryDto } from '../../shared/schema/api';
 import type { ChainDocument } from '../../shared/schema/chain';
-import { ForbiddenError, HttpError, NotFoundError } from '../common/errors';
+import { HttpError } from '../common/errors';
+import { assertCanReadInOneQuery } from '../common/one-query-access';
 import type { User } from '../users/user.entity';
-import { membershipsOf } from '../workspaces/membership.repository';
-import { WorkspaceSchema } from '../workspaces/workspace.entity';
 import { DataFileSchema, type DataFile } from './data-file.entity';
 
 /** A Touchstone file the reader refuses: 422 with the reader's message (file, line, fix). */
@@ -124,20 +123,9 @@ const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /**
  * Checks that `user` may read workspace `workspaceId` (viewer and up), for routes that take
- * the workspace in the body: 404 for no such workspace, 403 for a non-member.
+ * the workspace in the body: 404 for no such workspace, 403 for a non-member. One query
+ * (../common/one-query-access.ts): an analysis asks this many times a second.
  */
-export async function assertCanRead(
-  em: EntityManager,
-  user: User,
-  workspaceId: string,
-): Promise<void> {
-  const workspace = await em.findOne(WorkspaceSchema, { id: workspaceId });
-  if (!workspace) throw new NotFoundError('no such workspace');
-  const membership = await membershipsOf(em).findFor(user.id, workspace.id);
-  if (!membership) {
-    throw new ForbiddenError(
-      'you are not a member of this workspace, so its data files cannot be used; ask an owner to add you',
-      'not-member',
-    );
-  }
+export function assertCanRead(em: EntityManager, user: User, workspaceId: string): Promise<void> {
+  return assertCanReadInOneQuery(em, user, workspaceId);
 }

@@ -10,6 +10,7 @@ let ctx: TestContext;
 let viewer: Client;
 let editor: Client;
 let wid: string;
+let outsider: Client;
 
 beforeAll(async () => {
   ctx = await createTestContext();
@@ -24,6 +25,8 @@ beforeAll(async () => {
   ).id;
   viewer = await signIn(ctx.app, 'viewer@analysis.test');
   editor = await signIn(ctx.app, 'editor@analysis.test');
+  await createUser(em, 'outsider@analysis.test');
+  outsider = await signIn(ctx.app, 'outsider@analysis.test');
 });
 afterAll(() => ctx.close());
 
@@ -101,6 +104,31 @@ describe('analysis', () => {
     const res = await send(viewer, 'get', `/api/chains/${good.body.id}/analysis?sweep=1`);
     expect(res.status).toBe(200);
     expect(res.body.sweep.freqsHz).toHaveLength(201);
+  });
+
+  it('should check the chain or workspace and the membership at once: 404, 403, then 200', async () => {
+    const doc = fixtureChain();
+    const created = await send(editor, 'post', `/api/workspaces/${wid}/chains`, { document: doc });
+    const url = `/api/chains/${created.body.id}/analysis`;
+    expect((await send(viewer, 'get', url)).status).toBe(200);
+    const stranger = await send(outsider, 'get', url);
+    expect(stranger.status).toBe(403);
+    expect(stranger.body.error).toBe('not-member');
+    const missing = await send(viewer, 'get', '/api/chains/00000000-0000-4000-8000-000000000000/analysis'); // prettier-ignore
+    expect(missing.status).toBe(404);
+    expect(missing.body.message).toBe('no such chain');
+
+    const body = { document: doc, sweep: false };
+    expect((await send(viewer, 'post', '/api/analysis', { ...body, workspaceId: wid })).status).toBe(200); // prettier-ignore
+    const notMember = await send(outsider, 'post', '/api/analysis', { ...body, workspaceId: wid });
+    expect(notMember.status).toBe(403);
+    expect(notMember.body.error).toBe('not-member');
+    const noWorkspace = await send(viewer, 'post', '/api/analysis', {
+      ...body,
+      workspaceId: '00000000-0000-4000-8000-000000000000',
+    });
+    expect(noWorkspace.status).toBe(404);
+    expect(noWorkspace.body.message).toBe('no such workspace');
   });
 
   it('should list the catalogue with every stage type and no functions', async () => {
