@@ -68,33 +68,41 @@ export function columnCounts(
   counts: { [i: number]: number },
 ): number | undefined {
   const n = values.length;
+  if (shifts.length < n) shifts = new Int32Array(Math.max(n, 2 * shifts.length));
   let finest = -Infinity;
   for (let i = 0; i < n; i++) {
     const v = values[i];
     if (!Number.isFinite(v)) return undefined;
-    if (v === 0) continue;
-    const shift = roundingShift(v, digits);
-    if (shift > 22 || shift < -22) return undefined;
-    if (shift > finest) finest = shift;
-  }
-  if (finest === -Infinity) finest = 0;
-  for (let i = 0; i < n; i++) {
-    const v = values[i];
     if (v === 0) {
       counts[i] = 0;
       continue;
     }
     const shift = roundingShift(v, digits);
-    const m = roundedMantissa(v, shift);
-    const widen = finest - shift;
+    if (shift > 22 || shift < -22) return undefined;
+    if (shift > finest) finest = shift;
+    shifts[i] = shift;
+    counts[i] = roundedMantissa(v, shift);
+  }
+  if (finest === -Infinity) return 0;
+  for (let i = 0; i < n; i++) {
+    const m = counts[i];
+    if (m === 0) {
+      // A zero (any other value keeps a mantissa of `digits` digits); never -0 on the wire.
+      counts[i] = 0;
+      continue;
+    }
+    const widen = finest - shifts[i];
     if (widen > 22) return undefined;
     const k = m * POW10[widen];
     // |m| < 2^53 always; the product is exact while it stays at most MAX_COUNT.
     if (!(Math.abs(k) <= MAX_COUNT)) return undefined;
-    counts[i] = k === 0 ? 0 : k;
+    counts[i] = k;
   }
   return finest;
 }
+
+/** Each value's rounding shift, between the two passes of `columnCounts` (reused). */
+let shifts = new Int32Array(1024);
 
 /** The counts differenced twice: the first, the first step, then each step's change. */
 export function secondDifferences(counts: ArrayLike<number>, out: { [i: number]: number }): void {
