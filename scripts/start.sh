@@ -54,7 +54,9 @@ step "Starting Chainwright"
 export PORT CW_SMTP_PORT="$SMTP_PORT" CW_MAIL_DIR="$CW_REPO/.data/mail"
 export CW_SESSION_SECRET
 CW_SESSION_SECRET="$(cat .data/session-secret)"
-node --enable-source-maps dist/server/main.js &
+# One garbage-collector thread: on a small machine V8's parallel helpers cost more CPU in
+# coordination than they save (the bench's CPU per analysis), and the cores are the analyses'.
+node --enable-source-maps --single-threaded-gc dist/server/main.js &
 NODE_PID=$!
 if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
   die "the server did not answer on port $PORT (see its messages above)"

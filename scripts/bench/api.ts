@@ -97,7 +97,8 @@ async function startServer(root: string, url: string): Promise<ChildProcess> {
     encoding: 'utf8',
   });
   if (build.status !== 0) throw new Error(`server bundle failed: ${build.stderr}`);
-  const server = spawn(process.execPath, ['dist/server/main.js'], {
+  // Started as scripts/start.sh starts it.
+  const server = spawn(process.execPath, ['--single-threaded-gc', 'dist/server/main.js'], {
     cwd: root,
     env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
     stdio: ['ignore', 'ignore', 'pipe'],
