@@ -18,6 +18,13 @@ import { encodeAnswer } from './answer-encoding';
 import { engineRefusal } from './engine-errors';
 import { answerWithSweepJson } from './sweep-json';
 import { runExport, runShared } from './thread-jobs';
+import { lowerThreadPriority } from './thread-priority';
+
+/** The analysis threads' nice value (the event loop keeps the process's, 0). */
+const ANALYSIS_THREAD_NICE = 5;
+
+// The event loop goes first: a long analysis must not hold /api/health or a sign-in back.
+lowerThreadPriority(ANALYSIS_THREAD_NICE);
 
 function toDto(result: AnalysisResult, task: AnalysisTask): AnalysisDto {
   const { sweep: full, ...rest } = result;
