@@ -20,11 +20,7 @@ import {
   roundSignificant,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
-import {
-  columnCounts,
-  secondDifferences,
-  type SweepPacking,
-} from '../../shared/schema/sweep-packing';
+import { columnCounts, type SweepPacking } from '../../shared/schema/sweep-packing';
 
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
@@ -102,52 +98,60 @@ function writeRounded(v: number, digits: number): void {
   for (let i = shift - 1; i >= low; i--) out[at++] = ZERO + digitsScratch[i];
 }
 
-/** Writes the integer `n` (|n| < 2^53) as JSON does. */
-function writeInteger(n: number): void {
-  if (n === 0) return ascii('0');
-  room(24);
-  if (n < 0) out[at++] = MINUS;
-  let len = 0;
-  if (n < 2 ** 31 && n > -(2 ** 31)) {
-    for (let v = (n < 0 ? -n : n) | 0; v > 0;) {
-      const q = (v / 10) | 0;
-      digitsScratch[len++] = v - q * 10;
-      v = q;
-    }
-  } else {
-    for (let v = Math.abs(n); v > 0;) {
-      const q = Math.floor(v / 10);
-      digitsScratch[len++] = v - q * 10;
-      v = q;
-    }
-  }
-  for (let i = len - 1; i >= 0; i--) out[at++] = ZERO + digitsScratch[i];
-}
-
-/** Counts and their differences, reused between columns (grown as needed). */
+/** The column's counts, reused between columns (grown as needed). */
 let counts = new Float64Array(4096);
-let steps = new Float64Array(4096);
+
+/** Bytes a count's second difference takes at most: a comma, a sign and 16 digits. */
+const MAX_STEP_BYTES = 18;
 
 /**
  * Writes `values` as JSON prints `packColumn(values, digits, …)`: a difference column, or
- * the plain rounded array where the column cannot be packed exactly.
+ * the plain rounded array where the column cannot be packed exactly. The second
+ * differences are written as they are formed (secondDifferences' arithmetic), into room
+ * made once for the whole column.
  */
 function writePackedColumn(values: ArrayLike<number>, digits: number): void {
-  if (counts.length < values.length) {
-    counts = new Float64Array(values.length);
-    steps = new Float64Array(values.length);
-  }
+  const n = values.length;
+  if (counts.length < n) counts = new Float64Array(Math.max(n, 2 * counts.length));
   const decimals = columnCounts(values, digits, counts);
   if (decimals === undefined) return writeColumn(values, digits);
-  secondDifferences(counts.subarray(0, values.length), steps);
   ascii(`{"decimals":${decimals},"steps":[`);
-  for (let i = 0; i < values.length; i++) {
-    if (i > 0) {
-      room(1);
-      out[at++] = COMMA;
+  room(n * MAX_STEP_BYTES + 2);
+  const o = out;
+  let p = at;
+  for (let i = 0; i < n; i++) {
+    if (i > 0) o[p++] = COMMA;
+    let d =
+      i === 0 ? counts[0] : i === 1 ? counts[1] - counts[0] : counts[i] - 2 * counts[i - 1] + counts[i - 2]; // prettier-ignore
+    if (d === 0) {
+      o[p++] = ZERO;
+      continue;
     }
-    writeInteger(steps[i]);
+    if (d < 0) {
+      o[p++] = MINUS;
+      d = -d;
+    }
+    if (d < 10) {
+      o[p++] = ZERO + d;
+      continue;
+    }
+    let len = 0;
+    if (d < 2 ** 31) {
+      for (let v = d | 0; v > 0;) {
+        const q = (v / 10) | 0;
+        digitsScratch[len++] = v - q * 10;
+        v = q;
+      }
+    } else {
+      for (let v = d; v > 0;) {
+        const q = Math.floor(v / 10);
+        digitsScratch[len++] = v - q * 10;
+        v = q;
+      }
+    }
+    while (len > 0) o[p++] = ZERO + digitsScratch[--len];
   }
+  at = p;
   ascii(']}');
 }
 

@@ -70,15 +70,28 @@ export function columnCounts(
   const n = values.length;
   if (shifts.length < n) shifts = new Int32Array(Math.max(n, 2 * shifts.length));
   let finest = -Infinity;
+  // The decade of the value before, and the bounds well inside it: a value within them has
+  // that decade's shift without a logarithm (neighbouring points mostly share a decade).
+  let shift = 0;
+  let low = Infinity;
+  let high = -Infinity;
   for (let i = 0; i < n; i++) {
     const v = values[i];
-    if (!Number.isFinite(v)) return undefined;
     if (v === 0) {
       counts[i] = 0;
       continue;
     }
-    const shift = roundingShift(v, digits);
-    if (shift > 22 || shift < -22) return undefined;
+    const a = v < 0 ? -v : v;
+    if (!(a > low && a < high)) {
+      if (!Number.isFinite(v)) return undefined;
+      const decade = Math.floor(Math.log10(a));
+      shift = digits - 1 - decade;
+      if (shift > 22 || shift < -22) return undefined;
+      // A relative margin far above Math.log10's error, so that inside the bounds the
+      // logarithm would give the same decade.
+      low = decade >= -300 && decade <= 300 ? 10 ** decade * (1 + 1e-9) : Infinity;
+      high = decade >= -300 && decade <= 300 ? 10 ** (decade + 1) * (1 - 1e-9) : -Infinity;
+    }
     if (shift > finest) finest = shift;
     shifts[i] = shift;
     counts[i] = roundedMantissa(v, shift);
