@@ -16,6 +16,7 @@ import { runDesignOp } from '../design/design-ops';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
 import { encodeAnswer } from './answer-encoding';
 import { engineRefusal } from './engine-errors';
+import { handOver } from './hand-over';
 import { answerWithSweepJson } from './sweep-json';
 import { runExport, runShared } from './thread-jobs';
 import { lowerThreadPriority } from './thread-priority';
@@ -92,7 +93,7 @@ function runWhole(task: AnalysisTask): AnalysisOutcome {
 
 /** The thread's job, its messages written to the figures the client asked for. */
 export default function runAnalysis(task: AnalysisTask): AnalysisOutcome {
-  return withMessageFigures(task.figures, () => runTask(task));
+  return handOver(withMessageFigures(task.figures, () => runTask(task)));
 }
 
 function runTask(task: AnalysisTask): AnalysisOutcome {
