@@ -15,6 +15,11 @@ export class CsrfTokenStore {
   private token: string | null = null;
   private pending: Promise<string> | null = null;
 
+  /** The token held now, or null when the next request must fetch one. */
+  held(): string | null {
+    return this.token;
+  }
+
   /** The held token, or a fresh one from GET /api/auth/csrf. */
   async get(): Promise<string> {
     if (this.token) return this.token;

@@ -57,6 +57,16 @@ describe('HTTP interceptors', () => {
       }
     });
 
+    it('should send a request with a held token at once, without waiting a turn', async () => {
+      TestBed.inject(CsrfTokenStore).set('held');
+      const answer = firstValueFrom(http.post('/api/analysis', {}));
+      // No settle(): the request must already be with the backend.
+      const req = backend.expectOne('/api/analysis');
+      expect(req.request.headers.get('x-csrf-token')).toBe('held');
+      req.flush({ ok: true });
+      await expect(answer).resolves.toEqual({ ok: true });
+    });
+
     it('should not add the token to a GET', async () => {
       TestBed.inject(CsrfTokenStore).set('held');
       const answer = firstValueFrom(http.get('/api/me'));
