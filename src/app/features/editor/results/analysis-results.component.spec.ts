@@ -7,6 +7,7 @@ import { MatTabGroupHarness } from '@angular/material/tabs/testing';
 import type { ChainDocument } from '../../../../../shared/schema/chain';
 import type { AnalysisResult } from '../../../../../shared/engine/types';
 import { AnalysisResultsComponent } from './analysis-results.component';
+import * as detailRows from './detail-rows';
 import { PLOTLY_LOADER } from './plotly-loader';
 import { type FakePlotly, fakePlotly } from './testing/fake-plotly';
 import { sampleDocument, sampleResult } from './testing/sample-analysis';
@@ -34,6 +35,28 @@ describe('AnalysisResultsComponent', () => {
       await fixture.whenStable();
       expect(text('.waiting')).toContain('No analysis yet');
       expect(all('table')).toHaveLength(0);
+    });
+  });
+
+  describe('tabs', () => {
+    afterEach(() => jest.restoreAllMocks());
+
+    it('should work a new result into the open tab only, and into the next when it is opened', async () => {
+      const flags = jest.spyOn(detailRows, 'flagItems');
+      const resonators = jest.spyOn(detailRows, 'resonatorRows');
+      const next = sampleResult();
+      next.flags = [];
+      host.result.set(next);
+      await fixture.whenStable();
+      // The budget is open: the hidden tabs' rows are not built for the new result.
+      expect(flags).not.toHaveBeenCalled();
+      expect(resonators).not.toHaveBeenCalled();
+      expect(all('cw-budget-table')).toHaveLength(1);
+      await selectTab('Flags');
+      await fixture.whenStable();
+      expect(flags).toHaveBeenCalled();
+      expect(text('cw-flags-list')).toContain('No flags');
+      expect(all('cw-budget-table')).toHaveLength(0);
     });
   });
 
