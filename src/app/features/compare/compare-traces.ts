@@ -83,7 +83,11 @@ export function stepUpOverlay(
     data,
     layout: {
       ...baseLayout(ctx, 'Voltage step-up at the last node'),
-      yaxis: { ...axisStyle(options.palette), title: { text: 'Step-up re EMF (dB)' } },
+      yaxis: {
+        ...axisStyle(options.palette),
+        type: 'linear',
+        title: { text: 'Step-up re EMF (dB)' },
+      },
       shapes: markers.shapes,
       annotations: markers.annotations,
     },
@@ -115,6 +119,7 @@ export function returnLossOverlay(
       ...baseLayout(ctx, 'Input return loss (higher is a better match)'),
       yaxis: {
         ...axisStyle(options.palette),
+        type: 'linear',
         title: { text: 'Return loss (dB)' },
         rangemode: 'tozero',
       },

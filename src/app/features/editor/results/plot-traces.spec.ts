@@ -57,6 +57,29 @@ describe('plot-traces', () => {
     });
   });
 
+  describe('axes', () => {
+    it('should state the type of every axis, so Plotly does not read the data to guess it', () => {
+      const ctx = context();
+      for (const scale of ['lin', 'log'] as const) {
+        const figures = [
+          stepUpFigure({ ...ctx, scale }, [1, 4]),
+          impedanceFigure({ ...ctx, scale }),
+          returnLossFigure({ ...ctx, scale }, 10),
+        ];
+        for (const figure of figures) {
+          const axes = Object.entries(figure.layout).filter(([key]) => /^[xy]axis\d*$/.test(key));
+          expect(axes.length).toBeGreaterThanOrEqual(2);
+          for (const [key, axis] of axes) {
+            expect([key, (axis as { type?: string }).type]).toEqual([
+              key,
+              expect.stringMatching(/^(linear|log)$/),
+            ]);
+          }
+        }
+      }
+    });
+  });
+
   describe('stepUpFigure', () => {
     const figure = stepUpFigure(context(), [1, 4]);
     const traces = figure.data as Partial<ScatterData>[];

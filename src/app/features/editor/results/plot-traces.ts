@@ -1,7 +1,8 @@
 /**
  * Plot figures (traces and layout) built from an analysis result. Pure: no Plotly at run
  * time here, only its types, so these are cheap to test and keep Plotly out of the
- * initial bundle. Every trace is SVG `scatter` (never `scattergl`): no GPU needed.
+ * initial bundle. Every trace is SVG `scatter` (never `scattergl`): no GPU needed. Every
+ * axis states its type: left out, Plotly reads through the data to guess it on each drawing.
  */
 import type { Annotation, Data, Layout, LayoutAxis, Shape } from 'plotly.js-dist-min';
 import type { AnalysisResult, SweepReport } from '../../../../../shared/engine/types';
@@ -221,7 +222,11 @@ export function stepUpFigure(ctx: PlotContext, nodes: number[]): PlotFigure {
     data,
     layout: {
       ...baseLayout(ctx, 'Voltage step-up at chosen nodes'),
-      yaxis: { ...axisStyle(ctx.palette), title: { text: 'Step-up re EMF (dB)' } },
+      yaxis: {
+        ...axisStyle(ctx.palette),
+        type: 'linear',
+        title: { text: 'Step-up re EMF (dB)' },
+      },
       shapes: markers.shapes,
       annotations: markers.annotations,
     },
@@ -271,6 +276,7 @@ export function impedanceFigure(ctx: PlotContext): PlotFigure {
       },
       yaxis2: {
         ...axisStyle(ctx.palette),
+        type: 'linear',
         title: { text: 'Phase (°)' },
         overlaying: 'y',
         side: 'right',
@@ -328,6 +334,7 @@ export function returnLossFigure(ctx: PlotContext, thresholdDb: number): PlotFig
       ...baseLayout(ctx, 'Return loss at the input (higher is a better match)'),
       yaxis: {
         ...axisStyle(ctx.palette),
+        type: 'linear',
         title: { text: 'Return loss (dB)' },
         rangemode: 'tozero',
       },
