@@ -46,6 +46,7 @@ import type { LeaveAware } from './leave.guard';
 import { StagePaletteComponent } from './palette/stage-palette.component';
 import { ParamPanelComponent } from './params/param-panel.component';
 import { AnalysisResultsComponent } from './results/analysis-results.component';
+import { PlotDrawQueue } from './results/plot-draw-queue';
 import { ChainPersistence } from './save/chain-persistence';
 import { ChainSettingsComponent } from './settings/chain-settings.component';
 import { AnalysisApi } from './state/analysis-api';
@@ -187,9 +188,14 @@ export default class ChainEditorComponent implements LeaveAware {
       { label: 'Skip to the stages', targetId: 'cw-strip' },
       { label: 'Skip to the results', targetId: 'cw-results' },
     ]);
+    // While an edit's answer is on its way, plots below the window wait for it instead of
+    // drawing the figures it is about to replace in the idle time of the wait.
+    const drawQueue = inject(PlotDrawQueue);
+    effect(() => drawQueue.holdOffScreen(this.runner.pending()));
     inject(DestroyRef).onDestroy(() => {
       this.skipLinks.clear();
       this.closeSheet();
+      drawQueue.holdOffScreen(false);
     });
     // A sheet belongs to the phone and tablet layouts; a wider window shows it in place.
     effect(() => {

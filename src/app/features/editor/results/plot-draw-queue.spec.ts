@@ -1,5 +1,5 @@
 import { TestBed } from '@angular/core/testing';
-import { DRAW_WAIT_MS, OFF_SCREEN_WAIT_MS, PlotDrawQueue } from './plot-draw-queue';
+import { DRAW_WAIT_MS, NEAR_VIEW_PX, OFF_SCREEN_WAIT_MS, PlotDrawQueue } from './plot-draw-queue';
 
 /** An element laid out at `top` (px from the window's top), 380 px high. */
 function plotAt(top: number): HTMLElement {
@@ -120,5 +120,44 @@ describe('PlotDrawQueue', () => {
     expect(drawn).toEqual(['b']);
     await jest.advanceTimersByTimeAsync(DRAW_WAIT_MS);
     expect(drawn).toEqual(['b', 'c']);
+  });
+
+  it('should count a plot just below the window as in view', async () => {
+    const drawn: string[] = [];
+    const near = window.innerHeight + NEAR_VIEW_PX - 50;
+    const far = window.innerHeight + NEAR_VIEW_PX + 50;
+    queue.schedule('far', { element: plotAt(far), draw: async () => void drawn.push('far') });
+    queue.schedule('near', { element: plotAt(near), draw: async () => void drawn.push('near') });
+    expect(drawn).toEqual(['near']);
+    await nextFrame();
+    expect(drawn).toEqual(['near']);
+    idle[0].callback();
+    expect(drawn).toEqual(['near', 'far']);
+  });
+
+  it('should hold the plots out of view while asked, and draw their newest figure after', async () => {
+    const drawn: string[] = [];
+    const below = (name: string) => ({
+      element: plotAt(2000),
+      draw: async () => void drawn.push(name),
+    });
+    queue.schedule('below', below('old'));
+    expect(idle).toHaveLength(1);
+    queue.holdOffScreen(true);
+    // The browser goes idle while the answer is on its way: nothing out of view is drawn.
+    idle[0].callback();
+    await nextFrame();
+    expect(drawn).toEqual([]);
+    queue.schedule('below', below('new'));
+    expect(idle).toHaveLength(1);
+    // A plot in view is drawn all the same.
+    queue.schedule('shown', { element: plotAt(0), draw: async () => void drawn.push('shown') });
+    expect(drawn).toEqual(['shown']);
+    await nextFrame();
+    expect(drawn).toEqual(['shown']);
+    queue.holdOffScreen(false);
+    expect(idle).toHaveLength(2);
+    idle[1].callback();
+    expect(drawn).toEqual(['shown', 'new']);
   });
 });

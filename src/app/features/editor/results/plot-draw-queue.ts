@@ -4,7 +4,14 @@
  * four plots drawn together keep the first one off the screen until the last is done. Here
  * the plot a person is looking at is painted first; plots below the fold follow when the
  * browser is idle (within a second at the latest), so typing is not held up by plots no one
- * sees. A plot that asks again before its turn keeps its place with the newer drawing.
+ * sees. A plot just below the window (within `NEAR_VIEW_PX`) counts as in view: it is the
+ * next thing scrolled to, and an idle moment there would come while the person reads the plot
+ * above. A plot that asks again before its turn keeps its place with the newer drawing.
+ *
+ * While the page waits for an answer that will replace the figures (`holdOffScreen(true)`,
+ * the editor's analysis in flight), plots out of view are not drawn: the browser is idle
+ * during the wait, and a long drawing of a figure about to be replaced would hold up the plot
+ * in view when the answer lands. They are drawn, with the newest figure, once it is released.
  */
 import { DOCUMENT, Injectable, inject } from '@angular/core';
 
@@ -20,6 +27,8 @@ export interface PlotDrawJob {
 export const OFF_SCREEN_WAIT_MS = 1000;
 /** How long the queue waits for one drawing before it goes on with the next, ms. */
 export const DRAW_WAIT_MS = 3000;
+/** How far below the window a plot still counts as in view, px. */
+export const NEAR_VIEW_PX = 200;
 
 interface QueueWindow {
   innerHeight: number;
@@ -38,6 +47,8 @@ export class PlotDrawQueue {
   /** The owner of the drawing under way and how to end its turn early. */
   private current: { owner: unknown; release: () => void } | null = null;
   private idleAsked = false;
+  /** Plots out of view wait until released (`holdOffScreen`). */
+  private offScreenHeld = false;
 
   /** Queues `job` for `owner`, replacing a job of the same owner not yet started. */
   schedule(owner: unknown, job: PlotDrawJob): void {
@@ -55,18 +66,29 @@ export class PlotDrawQueue {
     if (current && current.owner === owner) current.release();
   }
 
+  /**
+   * Holds the plots out of view (true) while an answer that will replace their figures is on
+   * its way, or lets them be drawn again (false). Plots in view are drawn either way.
+   */
+  holdOffScreen(held: boolean): void {
+    if (this.offScreenHeld === held) return;
+    this.offScreenHeld = held;
+    if (!held) this.next();
+  }
+
   private next(): void {
     if (this.drawing || this.waiting.size === 0) return;
     const shown = this.firstWaiting(true);
     if (shown) return this.run(shown.owner);
     // Only plots below the fold wait: draw the first of them when the browser is idle. A
     // plot in view that asks meanwhile does not wait for that.
-    if (this.idleAsked) return;
+    if (this.idleAsked || this.offScreenHeld) return;
     this.idleAsked = true;
     this.whenIdle(() => {
       this.idleAsked = false;
       if (this.drawing) return;
-      const first = this.firstWaiting(true) ?? this.firstWaiting(false);
+      const first =
+        this.firstWaiting(true) ?? (this.offScreenHeld ? null : this.firstWaiting(false));
       if (first) this.run(first.owner);
     });
   }
@@ -106,11 +128,14 @@ export class PlotDrawQueue {
     drawing.then(release, release);
   }
 
-  /** Whether any of the element is inside the window (an unlaid element counts as out). */
+  /**
+   * Whether any of the element is inside the window or within `NEAR_VIEW_PX` below it (an
+   * unlaid element counts as out).
+   */
   private inView(element: HTMLElement): boolean {
     const height = this.view?.innerHeight ?? 0;
     const box = element.getBoundingClientRect();
-    return box.bottom > 0 && box.top < height && box.height > 0;
+    return box.bottom > 0 && box.top < height + NEAR_VIEW_PX && box.height > 0;
   }
 
   /** Calls back once the browser has painted a frame (after the next animation frame). */
