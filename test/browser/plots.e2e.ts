@@ -115,13 +115,18 @@ describe('plots', () => {
   });
 });
 
-/** Waits until no analysis is in flight and every plot on the tab is drawn. */
+/**
+ * Waits until no analysis is in flight and every plot on the tab has drawn its newest figure
+ * (a plot is `aria-busy` until then): an edit made while a plot below is still drawing the
+ * last answer would be timed against that drawing.
+ */
 async function settledPlots(page: Page): Promise<void> {
   await settled(page);
   await waitUntil(
     async () =>
       (await page.locator('cw-result-plot').count()) === PLOT_COUNT &&
-      (await page.locator('cw-result-plot .main-svg').count()) >= PLOT_COUNT,
+      (await page.locator('cw-result-plot .main-svg').count()) >= PLOT_COUNT &&
+      (await page.locator('cw-result-plot [aria-busy="true"]').count()) === 0,
     'every plot drawn',
   );
 }

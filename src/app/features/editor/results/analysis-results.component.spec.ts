@@ -254,6 +254,24 @@ describe('AnalysisResultsComponent', () => {
       expect(plotly.purged.filter((e) => elements.includes(e))).toEqual([]);
     });
 
+    it('should mark each plot busy from a new result until its figure is drawn', async () => {
+      await selectTab('Plots');
+      await fixture.whenStable();
+      const busy = () => all('cw-result-plot [aria-busy="true"]').length;
+      expect(drawn()).toHaveLength(4);
+      expect(busy()).toBe(0);
+      const next = sampleResult();
+      next.f0Hz = 10.2e6;
+      host.result.set(next);
+      fixture.detectChanges();
+      // Queued (the plots are below the fold in a page without layout), not yet drawn.
+      expect(drawn()).toHaveLength(4);
+      expect(busy()).toBe(4);
+      await fixture.whenStable();
+      expect(drawn()).toHaveLength(8);
+      expect(busy()).toBe(0);
+    });
+
     it('should redraw no plot for an edit the plots do not show, until its result lands', async () => {
       await selectTab('Plots');
       await fixture.whenStable();

@@ -39,7 +39,8 @@ const PLOT_CONFIG: Partial<Config> = {
  * One Plotly figure. Plotly is loaded on first render; each new figure is applied with
  * `Plotly.react`, which diffs against the plot on screen instead of rebuilding it. Drawings
  * take turns through the page's `PlotDrawQueue`, plots in view first, and a figure given as
- * a function is built only when its turn comes.
+ * a function is built only when its turn comes. The plot is `aria-busy` from the moment it
+ * has a figure to draw until that figure (the newest) is on screen.
  */
 @Component({
   selector: 'cw-result-plot',
@@ -52,6 +53,7 @@ const PLOT_CONFIG: Partial<Config> = {
         class="canvas"
         role="group"
         [attr.aria-label]="label()"
+        [attr.aria-busy]="busy() || null"
         [style.height.px]="height"
       ></div>
       @if (state() === 'loading') {
@@ -135,6 +137,8 @@ export class ResultPlotComponent {
   private readonly failureText = signal('');
   protected readonly failure = this.failureText.asReadonly();
   protected readonly state = signal<'loading' | 'ready' | 'failed'>('loading');
+  /** A figure is waiting for its turn or being drawn. */
+  protected readonly busy = signal(true);
   private stopHoverHeading: (() => void) | null = null;
 
   constructor() {
@@ -157,6 +161,7 @@ export class ResultPlotComponent {
           (error: unknown) => {
             this.failureText.set(error instanceof Error ? error.message : String(error));
             this.state.set('failed');
+            this.busy.set(false);
           },
         )
         .finally(loaded);
@@ -174,6 +179,7 @@ export class ResultPlotComponent {
       const source = this.figure();
       if (!plotly) return;
       waiting ??= this.pendingTasks.add();
+      this.busy.set(true);
       const element = this.canvas().nativeElement;
       this.queue.schedule(this, {
         element,
@@ -200,7 +206,11 @@ export class ResultPlotComponent {
                 this.state.set('failed');
               },
             )
-            .finally(drawn);
+            .finally(() => {
+              // Still busy when a newer figure came in meanwhile.
+              if (waiting === null) this.busy.set(false);
+              drawn();
+            });
         },
       });
     });
