@@ -2,11 +2,19 @@
  * A resonator's own (unloaded) resonance and Q: its element alone, searched near the loaded
  * resonance. The rising zero of the element's imaginary part nearest `near` on a log grid
  * from near/3 to 3·near (4,001 points), scanned outward from `near` so only the points up to
- * the crossing are evaluated (nearest-crossing.ts), then bisected to machine precision; Q =
- * (ωr/2·real)·d(imag)/dω by central difference.
+ * the crossing are evaluated (nearest-crossing.ts), then refined by the Illinois method
+ * (refine.ts) from the grid values either side; Q = (ωr/2·real)·d(imag)/dω by central
+ * difference.
+ *
+ * The scan's arrays live in one workspace kept by the module and reused by every search: a
+ * search is called for each declared resonator of every analysis, and fresh arrays of the
+ * whole grid each time were most of what an analysis allocated in typed arrays. A point's
+ * entries are valid when its stamp holds the current search's number, so nothing is cleared
+ * between searches. Nothing a search calls can start another search.
  */
 import type { ComplexFn } from '../types';
 import { nearestRisingOutward } from './nearest-crossing';
+import { solveBracketed } from './refine';
 
 const { PI, exp, log } = Math;
 const isFiniteNumber = Number.isFinite;
@@ -15,6 +23,7 @@ const isFiniteNumber = Number.isFinite;
 const OWN_POINTS = 4001;
 /** Points of that grid whose values one block call gives (when the element has a block form). */
 const OWN_CHUNK = 32;
+const OWN_CHUNKS = Math.ceil(OWN_POINTS / OWN_CHUNK);
 /** Relative step of the central difference for dB/dω. */
 const DIFF_STEP = 1e-6;
 
@@ -31,21 +40,57 @@ export function bisectRising(g: (f: number) => number, lo: number, hi: number): 
   return 0.5 * (lo + hi);
 }
 
+/** The reused arrays of the search (see the module's comment). */
+interface OwnWorkspace {
+  /** The grid's frequencies, each computed (an exponential) when the scan first reaches it. */
+  grid: Float64Array;
+  /** The imaginary part at each grid point. */
+  im: Float64Array;
+  /**
+   * The search number for which grid[i] (gridStamp) and a chunk of im (chunkStamp) hold;
+   * numbers count up from 1 (a double: exact far beyond any process's count of searches).
+   */
+  gridStamp: Float64Array;
+  chunkStamp: Float64Array;
+  /** A block call's (re, im) pairs. */
+  pair: Float64Array;
+  /** The point form's (re, im), and the scan's two slots. */
+  out: Float64Array;
+  scratch: Float64Array;
+  search: number;
+}
+
+let workspace: OwnWorkspace | null = null;
+
+function ownWorkspace(): OwnWorkspace {
+  workspace ??= {
+    grid: new Float64Array(OWN_POINTS),
+    im: new Float64Array(OWN_POINTS),
+    gridStamp: new Float64Array(OWN_POINTS),
+    chunkStamp: new Float64Array(OWN_CHUNKS),
+    pair: new Float64Array(2 * OWN_CHUNK),
+    out: new Float64Array(2),
+    scratch: new Float64Array(2),
+    search: 0,
+  };
+  workspace.search++;
+  return workspace;
+}
+
 /** Q of a resonator's own element at its resonance nearest `near`, or null. */
 export function ownResonance(fn: ComplexFn, near: number): number | null {
+  const ws = ownWorkspace();
+  const { grid, im, gridStamp, chunkStamp, pair, out, search } = ws;
   // The points of logGrid(near / 3, near * 3, OWN_POINTS), computed as it computes them.
   const start = near / 3;
   const stop = near * 3;
   const last = OWN_POINTS - 1;
   const ratio = log(stop / start) / last;
-  // Each point's frequency computed once (an exponential), when the scan first reaches it.
-  const grid = new Float64Array(OWN_POINTS);
   const freqAt = (i: number) => {
-    const f = grid[i];
-    if (f !== 0) return f;
+    if (gridStamp[i] === search) return grid[i];
+    gridStamp[i] = search;
     return (grid[i] = i === 0 ? start : i === last ? stop : start * exp(ratio * i));
   };
-  const out = new Float64Array(2);
   const imAt = (f: number) => {
     fn(f, out, 0);
     return out[1];
@@ -53,23 +98,19 @@ export function ownResonance(fn: ComplexFn, near: number): number | null {
   // The scan's values: with a block form, a chunk of OWN_CHUNK points at a time (their
   // frequencies, then one block call), the same numbers as the point form.
   const block = fn.fill;
-  const im = new Float64Array(OWN_POINTS);
-  const done = new Uint8Array(Math.ceil(OWN_POINTS / OWN_CHUNK));
-  const pair = new Float64Array(2 * OWN_CHUNK);
   const imOf = (i: number) => {
-    if (!block) return imAt(freqAt(i));
+    if (!block) return (im[i] = imAt(freqAt(i)));
     const c = (i / OWN_CHUNK) | 0;
-    if (!done[c]) {
+    if (chunkStamp[c] !== search) {
       const from = c * OWN_CHUNK;
       const n = Math.min(OWN_CHUNK, OWN_POINTS - from);
       for (let j = from; j < from + n; j++) freqAt(j);
       block(grid, from, n, pair, 0, 2);
       for (let j = 0; j < n; j++) im[from + j] = pair[2 * j + 1];
-      done[c] = 1;
+      chunkStamp[c] = search;
     }
     return im[i];
   };
-  const scratch = new Float64Array(2);
   const k = nearestRisingOutward(
     OWN_POINTS,
     freqAt,
@@ -78,10 +119,12 @@ export function ownResonance(fn: ComplexFn, near: number): number | null {
       v[1] = freqAt(i); // the element's own frequency is the grid's: always rising
     },
     near,
-    scratch,
+    ws.scratch,
   );
   if (k < 0) return null;
-  const fr = bisectRising(imAt, freqAt(k), freqAt(k + 1));
+  // The scan evaluated both ends of the bracket: the refinement starts from their values.
+  const fr = solveBracketed(imAt, freqAt(k), freqAt(k + 1), undefined, im[k], im[k + 1]);
+  if (!isFiniteNumber(fr)) return null;
   fn(fr, out, 0);
   const real = out[0];
   const h = fr * DIFF_STEP;

@@ -1,0 +1,77 @@
+/**
+ * An element's own resonance and Q (own-resonance.ts): the closed form of a series RLC, the
+ * same answer by the point form and the block form, and searches that reuse one workspace
+ * giving each its own answer whatever ran before.
+ */
+import { bisectRising, ownResonance } from '../../shared/engine/core/own-resonance';
+import type { ComplexFn } from '../../shared/engine/types';
+
+/** A series RLC's impedance R + j(ωL − 1/ωC), with a block form when `block`. */
+function seriesRlc(r: number, l: number, c: number, block: boolean): ComplexFn & { calls: number } {
+  const fn = ((f: number, out: Float64Array, o: number) => {
+    fn.calls++;
+    const w = 2 * Math.PI * f;
+    out[o] = r;
+    out[o + 1] = w * l - 1 / (w * c);
+  }) as ComplexFn & { calls: number };
+  fn.calls = 0;
+  if (block) {
+    fn.fill = (f, fo, n, out, oo, stride) => {
+      for (let k = 0; k < n; k++) {
+        const w = 2 * Math.PI * f[fo + k];
+        out[oo + stride * k] = r;
+        out[oo + stride * k + 1] = w * l - 1 / (w * c);
+      }
+    };
+  }
+  return fn;
+}
+
+const rel = (a: number, b: number) => Math.abs(a / b - 1);
+
+describe('ownResonance', () => {
+  // 10 µH, 2.533 nF, 2 Ω: f0 ≈ 1 MHz, Q = ω0·L/R ≈ 31.4.
+  const L = 10e-6;
+  const C = 2.533e-9;
+  const R = 2;
+  const f0 = 1 / (2 * Math.PI * Math.sqrt(L * C));
+  const q0 = (2 * Math.PI * f0 * L) / R;
+
+  it.each([false, true])('gives the closed-form Q of a series RLC (block form %s)', (block) => {
+    const q = ownResonance(seriesRlc(R, L, C, block), f0 * 1.3);
+    expect(q).not.toBeNull();
+    expect(rel(q!, q0)).toBeLessThan(1e-7);
+  });
+
+  it('refines to the Q that the zero bisected to machine precision gives', () => {
+    const fn = seriesRlc(R, L, C, false);
+    const im = (f: number) => {
+      const out = new Float64Array(2);
+      fn(f, out, 0);
+      return out[1];
+    };
+    const fr = bisectRising(im, f0 * 0.9, f0 * 1.1);
+    expect(rel(fr, f0)).toBeLessThan(1e-13);
+    const h = fr * 1e-6;
+    const slope = (im(fr + h) - im(fr - h)) / (2 * Math.PI * 2 * h);
+    const qBisected = ((2 * Math.PI * fr) / (2 * R)) * slope;
+    expect(rel(ownResonance(fn, f0 * 0.8)!, qBisected)).toBeLessThan(1e-9);
+  });
+
+  it('answers each search afresh though the workspace is reused (interleaved elements)', () => {
+    const a = seriesRlc(R, L, C, true);
+    const b = seriesRlc(0.5, 3 * L, C / 7, true); // another resonance, another Q
+    const c = seriesRlc(R, L, C, false);
+    const first = [ownResonance(a, f0), ownResonance(b, f0 * 0.7), ownResonance(c, f0 * 1.2)];
+    // Near targets whose grids share chunk and point numbers with those before.
+    const again = [ownResonance(b, f0 * 0.7), ownResonance(a, f0), ownResonance(c, f0 * 1.2)];
+    expect(again).toEqual([first[1], first[0], first[2]]);
+    const fb = 1 / (2 * Math.PI * Math.sqrt(3 * L * (C / 7)));
+    expect(rel(first[1]!, (2 * Math.PI * fb * 3 * L) / 0.5)).toBeLessThan(1e-7);
+  });
+
+  it('finds nothing where the element has no rising zero within a factor 3', () => {
+    expect(ownResonance(seriesRlc(R, L, C, true), f0 * 20)).toBeNull();
+    expect(ownResonance(seriesRlc(R, L, C, false), f0 / 20)).toBeNull();
+  });
+});
