@@ -32,6 +32,10 @@ interface SweepSource {
   freqs: Float64Array;
   zinRe: Float64Array;
   zinIm: Float64Array;
+  /** Per user node, whether its voltage's parts are finite at every point (found as copied). */
+  vFinite: boolean[];
+  /** Whether both parts of the input impedance are finite at every point. */
+  zinFinite: boolean;
 }
 const sources = new WeakMap<SweepReport, SweepSource>();
 
@@ -85,6 +89,20 @@ function allFinite(values: Float64Array): boolean {
   return true;
 }
 
+/**
+ * Copies `from` into `to` and tells whether every value is finite, in the one pass: x·0 is 0
+ * exactly for finite x and NaN otherwise, so the sum of them is 0 only when all are finite.
+ */
+function copyAllFinite(from: Float64Array, to: Float64Array): boolean {
+  let lost = 0;
+  for (let i = 0; i < from.length; i++) {
+    const x = from[i];
+    to[i] = x;
+    lost += x * 0;
+  }
+  return lost === 0;
+}
+
 /** Share of the values that are NaN. */
 function nanShare(values: ArrayLike<number>): number {
   if (values instanceof Float64Array && allFinite(values)) return 0;
@@ -108,13 +126,13 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
   }
   const { P, emf } = src;
   // The common case in plain passes: every EMF finite and non-zero and a node's voltages all
-  // finite, so none of its points can be lost.
+  // finite (as the report found when it copied them), so none of its points can be lost.
   let emfUsable = true;
   for (let i = 0; i < P && emfUsable; i++) emfUsable = emf[i] * 0 === 0 && emf[i] !== 0;
   const stepUp = sweep.nodes.map((_, n) => {
     const re = src.vRe[n];
     const im = src.vIm[n];
-    if (emfUsable && allFinite(re) && allFinite(im)) return 0;
+    if (emfUsable && src.vFinite[n]) return 0;
     let lost = 0;
     for (let i = 0; i < P; i++) {
       const vr = re[i];
@@ -127,7 +145,8 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
     }
     return P === 0 ? 0 : lost / P;
   });
-  return { zIn: Math.max(nanShare(src.zinRe), nanShare(src.zinIm)), stepUp };
+  const zIn = src.zinFinite ? 0 : Math.max(nanShare(src.zinRe), nanShare(src.zinIm));
+  return { zIn, stepUp };
 }
 
 /** Defines `obj[key]` as computed by `compute` on first read (then a plain data property). */
@@ -183,12 +202,34 @@ export function lazySweepReport(
     t.set(view);
     return t;
   };
-  const vRe = Array.from(flats, (flat, n) => trace(na.vRe, flat, 2 * n));
-  const vIm = Array.from(flats, (flat, n) => trace(na.vIm, flat, 2 * n + 1));
+  // The traces the last check reads for lost points: whether they are all finite is found
+  // while copying them (read in place, by one pass over them).
+  let finite = true;
+  const checkedTrace = (from: Float64Array, row: number, slot: number) => {
+    const view = from.subarray(row * P, (row + 1) * P);
+    if (!all) {
+      finite = allFinite(view);
+      return view;
+    }
+    const t = all.subarray(slot * P, (slot + 1) * P);
+    finite = copyAllFinite(view, t);
+    return t;
+  };
+  const vRe: Float64Array[] = [];
+  const vIm: Float64Array[] = [];
+  const vFinite: boolean[] = [];
+  for (let n = 0; n < U; n++) {
+    vRe.push(checkedTrace(na.vRe, flats[n], 2 * n));
+    const reFinite = finite;
+    vIm.push(checkedTrace(na.vIm, flats[n], 2 * n + 1));
+    vFinite.push(reFinite && finite);
+  }
   const emf = trace(na.emf, 0, 2 * U);
   const freqs = trace(na.freqs, 0, 2 * U + 1);
-  const zinRe = trace(na.zinRe, 0, 2 * U + 2);
-  const zinIm = trace(na.zinIm, 0, 2 * U + 3);
+  const zinRe = checkedTrace(na.zinRe, 0, 2 * U + 2);
+  const reFinite = finite;
+  const zinIm = checkedTrace(na.zinIm, 0, 2 * U + 3);
+  const zinFinite = reFinite && finite;
   const zsrcRe = trace(na.zsrcRe, 0, 2 * U + 4);
   const zsrcIm = trace(na.zsrcIm, 0, 2 * U + 5);
 
@@ -223,6 +264,6 @@ export function lazySweepReport(
     }
     return out;
   });
-  sources.set(report, { P, vRe, vIm, emf, freqs, zinRe, zinIm });
+  sources.set(report, { P, vRe, vIm, emf, freqs, zinRe, zinIm, vFinite, zinFinite });
   return report;
 }
