@@ -12,9 +12,13 @@ import {
   gridDb,
   locateEdge,
   mayFall,
+  mayFallScanned,
   powerMax,
+  scanStepUpPower,
   stepUpPower,
+  type PowerScan,
 } from '../../shared/engine/core/response-shape';
+import type { NodeAnalysis } from '../../shared/engine/core/nodes';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 /** A single tuned circuit's response in dB: peak at f0 with loaded Q, 1 dB above 0 there. */
@@ -181,5 +185,77 @@ describe('the grid scan in power', () => {
     expect(ruledOut.length).toBeGreaterThan(0);
     expect(ruledOut.every((edge) => edge === null)).toBe(true);
     expect(found).toBeGreaterThan(0);
+  });
+});
+
+describe('the one-pass scan of a node (scanStepUpPower)', () => {
+  // Voltages and EMFs with zeros, NaN and ∞ mixed in, so the peak and the sides' lowest
+  // values are found among points the peak search must pass over.
+  const special = fc.constantFrom(0, NaN, Infinity, -Infinity, 1e-300, 1e300);
+  const value = fc.oneof(
+    { weight: 6, arbitrary: fc.double({ min: -1e3, max: 1e3, noNaN: true }) },
+    { weight: 1, arbitrary: special },
+  );
+
+  it('gives the powers, the peak and mayFall’s answers of the separate passes (property)', () => {
+    fc.assert(
+      fc.property(
+        fc
+          .integer({ min: 1, max: 40 })
+          .chain((P) =>
+            fc.tuple(
+              fc.array(value, { minLength: 2 * P, maxLength: 2 * P }),
+              fc.array(value, { minLength: 2 * P, maxLength: 2 * P }),
+              fc.array(value, { minLength: P, maxLength: P }),
+            ),
+          ),
+        fc.constantFrom(0, 1),
+        fc.array(fc.double({ min: -400, max: 400, noNaN: true }), { minLength: 1, maxLength: 6 }),
+        ([re, im, emf], flat, levels) => {
+          const P = emf.length;
+          const na = {
+            points: P,
+            vRe: Float64Array.from(re),
+            vIm: Float64Array.from(im),
+            emf: Float64Array.from(emf),
+          } as unknown as NodeAnalysis;
+          const apart = new Float64Array(P);
+          stepUpPower(na, flat, apart);
+          const k = powerMax(apart, P);
+          const together = new Float64Array(P);
+          const scan: PowerScan = { k: -2, minBelow: NaN, minAbove: NaN };
+          scanStepUpPower(na, flat, together, scan);
+          expect(Array.from(together)).toEqual(Array.from(apart));
+          expect(scan.k).toBe(k);
+          if (k < 0) return;
+          // Levels at and either side of the grid's own values, as well as arbitrary ones.
+          const grid = Array.from(apart, (p) => 10 * Math.log10(p)).filter(Number.isFinite);
+          for (const level of [...levels, ...grid, ...grid.map((l) => l + 1e-12)]) {
+            for (const dir of [-1, 1] as const) {
+              expect(mayFallScanned(scan, level, dir)).toBe(mayFall(apart, k, level, dir));
+            }
+          }
+        },
+      ),
+      { numRuns: 500 },
+    );
+  });
+
+  it('finds the first of equal highest points, and a side with nothing in it never falls', () => {
+    const na = {
+      points: 5,
+      vRe: Float64Array.of(1, 3, 2, 3, 1),
+      vIm: new Float64Array(5),
+      emf: new Float64Array(5).fill(1),
+    } as unknown as NodeAnalysis;
+    const power = new Float64Array(5);
+    const scan: PowerScan = { k: -1, minBelow: 0, minAbove: 0 };
+    scanStepUpPower(na, 0, power, scan);
+    expect(scan).toEqual({ k: 1, minBelow: 1, minAbove: 1 });
+    const edge = { ...na, vRe: Float64Array.of(3, 2, 1, 0.5, 0.25) } as unknown as NodeAnalysis;
+    scanStepUpPower(edge, 0, power, scan);
+    expect(scan).toEqual({ k: 0, minBelow: Infinity, minAbove: 0.0625 });
+    expect(mayFallScanned(scan, 100, -1)).toBe(false);
+    expect(mayFallScanned(scan, 10 * Math.log10(0.0625), 1)).toBe(true);
   });
 });

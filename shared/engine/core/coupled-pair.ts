@@ -28,7 +28,7 @@ import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
 import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
-import { locateEdge, locateGridPeak, powerMax, stepUpPower } from './response-shape';
+import { locateEdge, locateGridPeak, scanStepUpPower, type PowerScan } from './response-shape';
 
 const isFiniteNumber = Number.isFinite;
 const HALF_POWER_DB = 10 * Math.log10(2);
@@ -151,8 +151,9 @@ export function pairPeak(
   const flat = stage.firstSection + stage.sectionCount;
   const P = gridNa.points;
   const power = new Float64Array(P);
-  stepUpPower(gridNa, flat, power);
-  const k = powerMax(power, P);
+  const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
+  scanStepUpPower(gridNa, flat, power, scan);
+  const k = scan.k;
   if (k < 0) return null;
   const peak = locateGridPeak(probe, gridNa, flat, k);
   const level = peak.db - HALF_POWER_DB;

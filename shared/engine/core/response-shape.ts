@@ -17,6 +17,13 @@ const { log10 } = Math;
 const isFiniteNumber = Number.isFinite;
 /** Relative margin of the power scan's comparisons: beyond it rounding cannot matter. */
 const SCAN_MARGIN = 1e-9;
+/**
+ * Brent's tolerance for a peak: it stops with the maximum known to within 2·tol of its
+ * frequency, so peaks are located to 1e-8 relative. A maximum is flat to second order, so
+ * its level is then known to rounding, and closer than about √ε ≈ 1.5e-8 its frequency is
+ * decided by rounding anyway: further steps would be paid for and tell nothing.
+ */
+const PEAK_TOL = 0.5e-8;
 
 export const toDb = (r: number) => 20 * log10(r);
 
@@ -49,6 +56,61 @@ export function stepUpPower(na: NodeAnalysis, flat: number, out: Float64Array): 
   }
 }
 
+/**
+ * What one pass over a node's grid learns for its selectivity: the power ratios (into the
+ * array given), the grid peak {@link powerMax} picks, and the lowest power either side of it,
+ * which answers {@link mayFall} for any level without another pass.
+ */
+export interface PowerScan {
+  /** Index of the highest finite, positive power ratio, or −1 (powerMax's). */
+  k: number;
+  /** The lowest power ratio below k and above k (NaN ignored; Infinity when none). */
+  minBelow: number;
+  minAbove: number;
+}
+
+/**
+ * |V|²/|Es|² at `flat` at every grid point of `na` into out (stepUpPower's numbers), with its
+ * peak and the lowest ratio either side of the peak found in the same pass.
+ */
+export function scanStepUpPower(
+  na: NodeAnalysis,
+  flat: number,
+  out: Float64Array,
+  scan: PowerScan,
+): void {
+  const { points: P, vRe, vIm, emf } = na;
+  const base = flat * P;
+  let k = -1;
+  let best = 0;
+  let runMin = Infinity; // over the points before i
+  let minBelow = Infinity;
+  let minAbove = Infinity;
+  for (let i = 0; i < P; i++) {
+    const vr = vRe[base + i];
+    const vi = vIm[base + i];
+    const e = emf[i];
+    const p = (vr * vr + vi * vi) / (e * e);
+    out[i] = p;
+    if (p > 0 && p < Infinity && (k < 0 || p > best)) {
+      k = i;
+      best = p;
+      minBelow = runMin;
+      minAbove = Infinity;
+    } else if (p < minAbove) minAbove = p;
+    if (p < runMin) runMin = p;
+  }
+  scan.k = k;
+  scan.minBelow = minBelow;
+  scan.minAbove = minAbove;
+}
+
+/** {@link mayFall}'s answer from a scan: whether the grid comes near `level` on that side. */
+export function mayFallScanned(scan: PowerScan, level: number, dir: -1 | 1): boolean {
+  const surelyNot = 10 ** (level / 10) * (1 + SCAN_MARGIN);
+  return (dir < 0 ? scan.minBelow : scan.minAbove) <= surelyNot;
+}
+
 /** Index of the highest finite, positive power ratio of the first `n`, or −1 (gridMax's). */
 export function powerMax(power: ArrayLike<number>, n: number): number {
   let k = -1;
@@ -67,8 +129,8 @@ export function gridMax(db: ArrayLike<number>): number {
 }
 
 /**
- * The peak bracketed by grid point k and its neighbours, located by Brent's method from grid
- * point k (refine.ts), its first step the parabola through the three grid points when their
+ * The peak bracketed by grid point k and its neighbours, located to 1e-8 relative (PEAK_TOL)
+ * by Brent's method from grid point k (refine.ts), its first step the parabola through the three grid points when their
  * levels are given (`dbLo`, `dbHi`: the grid's at k − 1 and k + 1). A peak on the first or
  * last grid point stays there (it lies at or beyond the grid's end).
  */
@@ -85,7 +147,7 @@ export function locatePeak(
   if (k <= 0 || k >= last) return { k, fHz: f[k], db: dbK };
   const known =
     dbLo !== undefined && dbHi !== undefined ? { hLo: dbLo, hStart: dbK, hHi: dbHi } : undefined;
-  const [fHz, level] = maximiseSmooth((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1], f[k], undefined, known); // prettier-ignore
+  const [fHz, level] = maximiseSmooth((x) => dbAt(probe, flat, x), f[k - 1], f[k + 1], f[k], PEAK_TOL, known); // prettier-ignore
   // The search cannot do worse than the grid point it started from.
   return level >= dbK ? { k, fHz, db: level } : { k, fHz: f[k], db: dbK };
 }

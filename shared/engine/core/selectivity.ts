@@ -12,10 +12,10 @@ import {
   dbAt,
   locateEdge,
   locateGridPeak,
-  mayFall,
-  powerMax,
-  stepUpPower,
+  mayFallScanned,
+  scanStepUpPower,
   toDb,
+  type PowerScan,
 } from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
@@ -92,8 +92,8 @@ export const FLOOR_MARGIN_DB = 3;
 
 /**
  * Selectivity report of every user-level node. Peaks and band edges are bracketed on the
- * sweep and located by evaluating the chain at single frequencies (to 1e-10 relative), so
- * they do not depend on the sweep's spacing.
+ * sweep and located by evaluating the chain at single frequencies (peaks to 1e-8 relative,
+ * edges to 1e-10), so they do not depend on the sweep's spacing.
  * @param sweepNa node analysis over the sweep grid
  * @param imageHz image frequency at the input (null without a mixer)
  * @param only the one user-level node to report (a study's judged node) without its −60 dB
@@ -113,13 +113,15 @@ export function analyzeSelectivity(
   const ex = runNodeAnalysis(built, exact, sharedWorkspace('exact', built, exact.length));
   const P = sweepNa.points;
   const power = new Float64Array(P);
+  const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
   const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     if (only !== undefined && n !== only) continue;
     const flat = built.userNodeFlat[n];
-    stepUpPower(sweepNa, flat, power);
-    const k = powerMax(power, P);
+    // One pass: the powers, the grid peak, and whether either side may reach −60 dB.
+    scanStepUpPower(sweepNa, flat, power, scan);
+    const k = scan.k;
     const peak = k >= 0 ? locateGridPeak(probe, sweepNa, flat, k) : null;
     let e3: [number, number] | null = null;
     let e60: [number, number] | null = null;
@@ -131,8 +133,8 @@ export function analyzeSelectivity(
       const deep = only === undefined;
       // A −60 dB width needs both edges: the second is looked for only when the first exists.
       const at60 = peak.db - 60;
-      const lo60 = deep && mayFall(power, k, at60, -1) ? locateEdge(probe, flat, sweepNa, power, k, at60, -1) : null; // prettier-ignore
-      const hi60 = lo60 && mayFall(power, k, at60, 1) ? locateEdge(probe, flat, sweepNa, power, k, at60, 1) : null; // prettier-ignore
+      const lo60 = deep && mayFallScanned(scan, at60, -1) ? locateEdge(probe, flat, sweepNa, power, k, at60, -1) : null; // prettier-ignore
+      const hi60 = lo60 && mayFallScanned(scan, at60, 1) ? locateEdge(probe, flat, sweepNa, power, k, at60, 1) : null; // prettier-ignore
       if (lo60 && hi60) {
         const fp = peak.fHz;
         const further = Math.max(
