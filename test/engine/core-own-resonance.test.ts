@@ -3,10 +3,17 @@
  * same answer by the point form and the block form, and searches that reuse one workspace
  * giving each its own answer whatever ran before.
  */
-import { bisectRising, ownResonance } from '../../shared/engine/core/own-resonance';
+import {
+  bisectRising,
+  ownResonance,
+  type OwnResonanceMemo,
+} from '../../shared/engine/core/own-resonance';
 import type { ComplexFn } from '../../shared/engine/types';
 
-/** A series RLC's impedance R + j(ωL − 1/ωC), with a block form when `block`. */
+/**
+ * A series RLC's impedance R + j(ωL − 1/ωC), with a block form when `block`; `calls` counts
+ * the points evaluated by either form.
+ */
 function seriesRlc(r: number, l: number, c: number, block: boolean): ComplexFn & { calls: number } {
   const fn = ((f: number, out: Float64Array, o: number) => {
     fn.calls++;
@@ -17,6 +24,7 @@ function seriesRlc(r: number, l: number, c: number, block: boolean): ComplexFn &
   fn.calls = 0;
   if (block) {
     fn.fill = (f, fo, n, out, oo, stride) => {
+      fn.calls += n;
       for (let k = 0; k < n; k++) {
         const w = 2 * Math.PI * f[fo + k];
         out[oo + stride * k] = r;
@@ -73,5 +81,30 @@ describe('ownResonance', () => {
   it('finds nothing where the element has no rising zero within a factor 3', () => {
     expect(ownResonance(seriesRlc(R, L, C, true), f0 * 20)).toBeNull();
     expect(ownResonance(seriesRlc(R, L, C, false), f0 / 20)).toBeNull();
+  });
+
+  it('with a memo, answers a repeated search of one element near one target without searching', () => {
+    const memo: OwnResonanceMemo = new Map();
+    const a = seriesRlc(R, L, C, true);
+    const b = seriesRlc(R, L, C, true); // the same values, another element
+    const q = ownResonance(a, f0, memo);
+    const searched = a.calls;
+    expect(searched).toBeGreaterThan(0);
+    expect(ownResonance(a, f0, memo)).toBe(q);
+    expect(a.calls).toBe(searched);
+    // Another target or another element is searched afresh, and remembered beside the first.
+    const elsewhere = ownResonance(a, f0 * 1.01, memo);
+    expect(a.calls).toBeGreaterThan(searched);
+    expect(rel(elsewhere!, q!)).toBeLessThan(1e-7);
+    expect(ownResonance(b, f0, memo)).toBe(q);
+    expect(b.calls).toBeGreaterThan(0);
+    expect(memo.get(a)!.map((k) => k.near)).toEqual([f0, f0 * 1.01]);
+    // A search that finds nothing is remembered too.
+    const none = a.calls;
+    expect(ownResonance(a, f0 * 20, memo)).toBeNull();
+    const afterNone = a.calls;
+    expect(afterNone).toBeGreaterThan(none);
+    expect(ownResonance(a, f0 * 20, memo)).toBeNull();
+    expect(a.calls).toBe(afterNone);
   });
 });

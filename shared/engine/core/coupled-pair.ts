@@ -19,6 +19,7 @@ import {
   DIFF_STEP,
   ownResonance,
   probePointEval,
+  type OwnResonanceMemo,
   resonate,
   type Extract,
   type PointEval,
@@ -51,13 +52,17 @@ export interface CoupledTankFigures {
 
 const nn = (x: number | undefined) => (x === undefined || Number.isNaN(x) ? null : x);
 
-/** One tank of a pair. */
+/**
+ * One tank of a pair.
+ * @param memo the analysis's own-resonance answers so far: both tanks are usually one element
+ */
 export function coupledTank(
   built: BuiltChain,
   gridNa: NodeAnalysis,
   probe: Probe,
   stage: BuiltStage,
   decl: ShuntDecl,
+  memo?: OwnResonanceMemo,
 ): CoupledTankFigures {
   const first = decl.coupledPartner === 'downstream';
   const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
@@ -90,7 +95,7 @@ export function coupledTank(
     fIn: att ? att.fIn : null,
     resonanceHz: att ? att.fr : null,
     loadedQ: qA,
-    unloadedQ: att ? ownResonance(own, att.fr) : null,
+    unloadedQ: att ? ownResonance(own, att.fr, memo) : null,
     detachedQ: qD,
     detachedFr: det ? det.fr : null,
     loadingRatio: !first && qA && qD ? qA / qD : null,

@@ -15,7 +15,7 @@ import type { Probe } from './probe';
 import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
 
-export { bisectRising, ownResonance } from './own-resonance';
+export { bisectRising, ownResonance, type OwnResonanceMemo } from './own-resonance';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, abs, log } = Math;

@@ -77,8 +77,29 @@ function ownWorkspace(): OwnWorkspace {
   return workspace;
 }
 
-/** Q of a resonator's own element at its resonance nearest `near`, or null. */
-export function ownResonance(fn: ComplexFn, near: number): number | null {
+/**
+ * Answers already found within one analysis, by element and target: the tanks of a coupled
+ * pair are one element (the stage declares the same admittance for both) searched near the
+ * same resonance, and an element is a function of frequency alone, so the second search
+ * would repeat the first exactly. Kept per analysis (a study changes its elements).
+ */
+export type OwnResonanceMemo = Map<ComplexFn, { near: number; q: number | null }[]>;
+
+/**
+ * Q of a resonator's own element at its resonance nearest `near`, or null.
+ * @param memo answers of this analysis so far: one found there is returned, a new one added
+ */
+export function ownResonance(fn: ComplexFn, near: number, memo?: OwnResonanceMemo): number | null {
+  if (!memo) return searchOwnResonance(fn, near);
+  let known = memo.get(fn);
+  if (!known) memo.set(fn, (known = []));
+  for (const k of known) if (k.near === near) return k.q;
+  const q = searchOwnResonance(fn, near);
+  known.push({ near, q });
+  return q;
+}
+
+function searchOwnResonance(fn: ComplexFn, near: number): number | null {
   const ws = ownWorkspace();
   const { grid, im, gridStamp, chunkStamp, pair, out, search } = ws;
   // The points of logGrid(near / 3, near * 3, OWN_POINTS), computed as it computes them.

@@ -5,6 +5,7 @@
  */
 import type { ResonatorReport } from '../types';
 import type { BuiltChain } from './build';
+import type { OwnResonanceMemo } from './own-resonance';
 import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import {
@@ -111,4 +112,6 @@ export interface Context {
   gridNa: NodeAnalysis;
   probe: Probe;
   claims: Claim[];
+  /** Elements' own resonances searched so far in this analysis. */
+  own: OwnResonanceMemo;
 }

@@ -84,7 +84,7 @@ function declaredShunt(
       downstreamLabel: downstreamOf(built, flat),
     };
   }
-  const { fIn: _f, cut, ...fig } = shuntFigures(built, topo, probe, flat, att, decl.ownAdmittance); // prettier-ignore
+  const { fIn: _f, cut, ...fig } = shuntFigures(built, topo, probe, flat, att, decl.ownAdmittance, ctx.own); // prettier-ignore
   ctx.claims.push({ segment: topo.segment[flat], fr: fig.resonanceHz, bw: fig.bandwidthHz ?? 0 });
   return { ...base, ...fig, downstreamLabel: downstreamOf(built, cut) };
 }
@@ -112,7 +112,7 @@ function declaredSeries(
     node: null,
     resonanceHz: res ? res.fr : null,
     loadedQ: q,
-    unloadedQ: res ? ownResonance(decl.ownImpedance, res.fr) : null,
+    unloadedQ: res ? ownResonance(decl.ownImpedance, res.fr, ctx.own) : null,
     bandwidthHz: res && q ? res.fr / q : null,
     detachedQ: null,
     detachedBandwidthHz: null,
@@ -145,7 +145,7 @@ function declaredPair(
     ctx.claims.push({ segment, fr: peakLocal, bw: peak.bandwidthHz ?? 0 });
   }
   return decls.map((decl) => {
-    const fig = coupledTank(built, gridNa, probe, stage, decl);
+    const fig = coupledTank(built, gridNa, probe, stage, decl, ctx.own);
     const bw = fig.resonanceHz !== null && fig.loadedQ ? fig.resonanceHz / fig.loadedQ : null;
     if (fig.resonanceHz !== null) ctx.claims.push({ segment, fr: fig.resonanceHz, bw: bw ?? 0 });
     const first = decl.coupledPartner === 'downstream';
@@ -185,7 +185,7 @@ export function analyzeResonators(
 ): ResonatorFinding[] {
   const topo = chainTopology(built);
   const gridNa = bracketingGrid(built, sweepNa, (f) => runNodeAnalysis(built, f));
-  const ctx: Context = { built, topo, gridNa, probe: createProbe(built), claims: [] };
+  const ctx: Context = { built, topo, gridNa, probe: createProbe(built), claims: [], own: new Map() }; // prettier-ignore
   const claimed = new Set<number>();
   const declared: ResonatorFinding[] = [];
   for (const stage of built.twoPorts) {

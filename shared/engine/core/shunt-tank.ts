@@ -8,7 +8,7 @@
  */
 import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
-import { ownResonance } from './extract-resonance';
+import { ownResonance, type OwnResonanceMemo } from './extract-resonance';
 import type { Probe } from './probe';
 import { cutAt, resonanceNear, type NodeResonance } from './resonance-search';
 import { detachCut, type Topology } from './topology';
@@ -30,7 +30,10 @@ export interface ShuntFigures {
 
 const nn = (x: number) => (Number.isNaN(x) ? null : x);
 
-/** Measures a located loaded resonance at `node`: detached Q, share, unloaded Q. */
+/**
+ * Measures a located loaded resonance at `node`: detached Q, share, unloaded Q.
+ * @param memo the analysis's own-resonance answers so far (see ownResonance)
+ */
 export function shuntFigures(
   built: BuiltChain,
   topo: Topology,
@@ -38,6 +41,7 @@ export function shuntFigures(
   node: number,
   att: NodeResonance,
   own: ComplexFn | null,
+  memo?: OwnResonanceMemo,
 ): ShuntFigures {
   const scratch = new Float64Array(2);
   const cut = detachCut(built, topo, node, att.fr);
@@ -52,7 +56,7 @@ export function shuntFigures(
     resonanceHz: att.fr,
     fIn: att.fIn,
     loadedQ: qA,
-    unloadedQ: own ? ownResonance(own, att.fr) : null,
+    unloadedQ: own ? ownResonance(own, att.fr, memo) : null,
     bandwidthHz: qA ? att.fr / qA : null,
     detachedQ: qD,
     detachedBandwidthHz: det && qD ? det.fr / qD : null,
