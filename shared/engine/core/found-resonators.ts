@@ -13,6 +13,7 @@ import {
   unloadedShuntQ,
   type SeriesFigures,
 } from './found-series';
+import { gatherCandidates } from './found-candidates';
 import type { Probe } from './probe';
 import { risingCrossings, type NodeResonance } from './resonance-search';
 import {
@@ -28,16 +29,6 @@ import {
 import { shuntFigures, type ShuntFigures } from './shunt-tank';
 import { owningStage } from './topology';
 
-const { abs, log } = Math;
-
-/** A resonance found at a node, measured, before views of one mode are merged. */
-interface Candidate {
-  node: number;
-  res: NodeResonance;
-  fig: ShuntFigures;
-  claim: Claim;
-}
-
 /**
  * Resonances the network shows that no declared resonator covers. A found resonance is a
  * tuned circuit only when that circuit resonates by itself: with the downstream side cut away
@@ -49,8 +40,15 @@ interface Candidate {
  */
 export function foundResonances(ctx: Context, claimed: Set<number>): ResonatorFinding[] {
   const { built, topo, gridNa, probe } = ctx;
-  const candidates: Candidate[] = [];
-  const f0 = built.settings.f0Hz;
+  // What covers a claim now (the declared resonators) covers it when the merge below asks.
+  const gathering = gatherCandidates<ShuntFigures>(
+    built.settings.f0Hz,
+    (n, res) => {
+      const fig = shuntFigures(built, topo, probe, n, res, null);
+      return fig.detachedQ !== null && fig.detachedQ >= MIN_DETACHED_Q ? fig : null;
+    },
+    (claim) => ctx.claims.some((k) => sameMode(k, claim)),
+  );
   for (let n = 0; n < probe.nodes; n++) {
     if (topo.group[n] !== n || claimed.has(n)) continue;
     const category = owningStage(built, topo, n).definition.category;
@@ -58,27 +56,22 @@ export function foundResonances(ctx: Context, claimed: Set<number>): ResonatorFi
     for (const b of risingCrossings(gridNa, n)) {
       const res = locate(gridNa, probe, n, b);
       if (!res || !(res.q > 0) || !(res.g > 0)) continue;
-      // Signal and image reach one node's tuned circuit at the same frequency: keep the
-      // input frequency nearer f0.
-      const twin = candidates.find((c) => c.node === n && abs(c.res.fr / res.fr - 1) < 1e-6);
-      if (twin && abs(log(res.fIn / f0)) >= abs(log(twin.res.fIn / f0))) continue;
-      const fig = shuntFigures(built, topo, probe, n, res, null);
-      if (!(fig.detachedQ !== null && fig.detachedQ >= MIN_DETACHED_Q)) continue;
-      const claim = { segment: topo.segment[n], fr: res.fr, bw: res.fr / res.q };
-      if (twin) Object.assign(twin, { res, fig, claim });
-      else candidates.push({ node: n, res, fig, claim });
+      gathering.offer(n, res, { segment: topo.segment[n], fr: res.fr, bw: res.fr / res.q });
     }
   }
+  const candidates = gathering.candidates;
   // Highest impedance first: the node where the tuned circuit's voltage is.
   candidates.sort((a, b) => a.res.g - b.res.g);
   const out: ResonatorFinding[] = [];
   let unloaded: Probe | null = null;
   for (const c of candidates) {
+    // An unmeasured candidate is covered (gatherCandidates), so it stops here.
     if (ctx.claims.some((k) => sameMode(k, c.claim))) continue;
+    const fig = c.fig!;
     ctx.claims.push(c.claim);
     unloaded ??= unloadedProbe(built, false);
-    c.fig.unloadedQ = unloadedShuntQ(unloaded, c.node, c.fig.cut, c.res);
-    out.push(foundTank(ctx, c));
+    fig.unloadedQ = unloadedShuntQ(unloaded, c.node, fig.cut, c.res);
+    out.push(foundTank(ctx, c.node, fig));
   }
   return out;
 }
@@ -154,7 +147,7 @@ function foundLoop(ctx: Context, { node, fig: all }: SeriesCandidate): Resonator
 }
 
 /** The report of a found parallel resonance. */
-function foundTank(ctx: Context, { node, fig: all }: Candidate): ResonatorFinding {
+function foundTank(ctx: Context, node: number, all: ShuntFigures): ResonatorFinding {
   const { built, topo } = ctx;
   const { cut, ...fig } = all;
   const stage = owningStage(built, topo, node);
