@@ -240,8 +240,11 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
   const sections = built.sections;
   const B = m.length / (8 * N || 1);
 
-  // Frequencies at every node and every section's ABCD at the frequency at its input.
-  fNode.set(na.freqs.subarray(i0, i0 + n), i0);
+  // Frequencies at every node and every section's ABCD at the frequency at its input. The
+  // input frequencies are copied by a loop: a subarray to copy from would be an object made
+  // per block, and a run with a reused workspace allocates nothing.
+  const freqs = na.freqs;
+  for (let k = i0; k < i0 + n; k++) fNode[k] = freqs[k];
   for (let j = 0; j < N; j++) {
     const s = sections[j];
     const at = j * P + i0;
