@@ -37,6 +37,16 @@ function seriesRlc(r: number, l: number, c: number, block: boolean): ComplexFn &
 
 const rel = (a: number, b: number) => Math.abs(a / b - 1);
 
+/** `fn` with the frequencies its block form is given recorded into `seen`. */
+function recordingGrid(fn: ComplexFn, seen: number[]): ComplexFn {
+  const recording: ComplexFn = (f, out, o) => fn(f, out, o);
+  recording.fill = (f, fo, n, out, oo, stride) => {
+    for (let k = 0; k < n; k++) seen.push(f[fo + k]);
+    fn.fill!(f, fo, n, out, oo, stride);
+  };
+  return recording;
+}
+
 describe('ownResonance', () => {
   // 10 µH, 2.533 nF, 2 Ω: f0 ≈ 1 MHz, Q = ω0·L/R ≈ 31.4.
   const L = 10e-6;
@@ -74,6 +84,25 @@ describe('ownResonance', () => {
     // Near targets whose grids share chunk and point numbers with those before.
     const again = [ownResonance(b, f0 * 0.7), ownResonance(a, f0), ownResonance(c, f0 * 1.2)];
     expect(again).toEqual([first[1], first[0], first[2]]);
+    // Targets whose grids grow by ratios that differ in rounding (the grid's ends rounded
+    // apart), so the growth factors kept from one search are not the other's.
+    const ratio = (near: number) => Math.log((near * 3) / (near / 3)) / 4000;
+    const targets = Array.from({ length: 200 }, (_, i) => f0 * (0.9 + i * 0.001));
+    const other = targets.find((t) => ratio(t) !== ratio(f0))!;
+    expect(ratio(other)).not.toBe(ratio(f0));
+    // The scan evaluates the element at its own grid's points exactly, though the searches
+    // before (at f0) grew their grids by another ratio.
+    const seen: number[] = [];
+    const recording = recordingGrid(a, seen);
+    expect(ownResonance(recording, other)).not.toBeNull();
+    const start = other / 3;
+    const r = ratio(other);
+    const onGrid = seen.map((f) => {
+      const i = Math.round(Math.log(f / start) / r);
+      return i === 0 || i === 4000 ? f : start * Math.exp(r * i);
+    });
+    expect(seen.length).toBeGreaterThan(100);
+    expect(seen).toEqual(onGrid);
     const fb = 1 / (2 * Math.PI * Math.sqrt(3 * L * (C / 7)));
     expect(rel(first[1]!, (2 * Math.PI * fb * 3 * L) / 0.5)).toBeLessThan(1e-7);
   });

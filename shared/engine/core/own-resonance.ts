@@ -8,9 +8,10 @@
  *
  * The scan's arrays live in one workspace kept by the module and reused by every search: a
  * search is called for each declared resonator of every analysis, and fresh arrays of the
- * whole grid each time were most of what an analysis allocated in typed arrays. A point's
- * entries are valid when its stamp holds the current search's number, so nothing is cleared
- * between searches. Nothing a search calls can start another search.
+ * whole grid each time were most of what an analysis allocated in typed arrays. A chunk's
+ * values are valid when its stamp holds the current search's number, a grid point's growth
+ * factor when it was computed for the current ratio, so nothing is cleared between searches.
+ * Nothing a search calls can start another search.
  */
 import type { ComplexFn } from '../types';
 import { nearestRisingOutward } from './nearest-crossing';
@@ -42,15 +43,21 @@ export function bisectRising(g: (f: number) => number, lo: number, hi: number): 
 
 /** The reused arrays of the search (see the module's comment). */
 interface OwnWorkspace {
-  /** The grid's frequencies, each computed (an exponential) when the scan first reaches it. */
+  /** The grid's frequencies of the chunks a block call is given. */
   grid: Float64Array;
+  /**
+   * exp(ratio·i) of the grid's point i, and the ratio it was computed for: a grid point is
+   * start·exp(ratio·i), and the ratio, log(9)/4000 up to rounding of the grid's ends, is the
+   * same for almost every search, so each exponential is computed once, not once a search.
+   */
+  growth: Float64Array;
+  growthRatio: Float64Array;
   /** The imaginary part at each grid point. */
   im: Float64Array;
   /**
-   * The search number for which grid[i] (gridStamp) and a chunk of im (chunkStamp) hold;
-   * numbers count up from 1 (a double: exact far beyond any process's count of searches).
+   * The search number for which a chunk of im holds; numbers count up from 1 (a double:
+   * exact far beyond any process's count of searches).
    */
-  gridStamp: Float64Array;
   chunkStamp: Float64Array;
   /** A block call's (re, im) pairs. */
   pair: Float64Array;
@@ -65,8 +72,9 @@ let workspace: OwnWorkspace | null = null;
 function ownWorkspace(): OwnWorkspace {
   workspace ??= {
     grid: new Float64Array(OWN_POINTS),
+    growth: new Float64Array(OWN_POINTS),
+    growthRatio: new Float64Array(OWN_POINTS),
     im: new Float64Array(OWN_POINTS),
-    gridStamp: new Float64Array(OWN_POINTS),
     chunkStamp: new Float64Array(OWN_CHUNKS),
     pair: new Float64Array(2 * OWN_CHUNK),
     out: new Float64Array(2),
@@ -101,16 +109,20 @@ export function ownResonance(fn: ComplexFn, near: number, memo?: OwnResonanceMem
 
 function searchOwnResonance(fn: ComplexFn, near: number): number | null {
   const ws = ownWorkspace();
-  const { grid, im, gridStamp, chunkStamp, pair, out, search } = ws;
+  const { grid, growth, growthRatio, im, chunkStamp, pair, out, search } = ws;
   // The points of logGrid(near / 3, near * 3, OWN_POINTS), computed as it computes them.
   const start = near / 3;
   const stop = near * 3;
   const last = OWN_POINTS - 1;
   const ratio = log(stop / start) / last;
   const freqAt = (i: number) => {
-    if (gridStamp[i] === search) return grid[i];
-    gridStamp[i] = search;
-    return (grid[i] = i === 0 ? start : i === last ? stop : start * exp(ratio * i));
+    if (i === 0) return start;
+    if (i === last) return stop;
+    if (growthRatio[i] !== ratio) {
+      growthRatio[i] = ratio;
+      growth[i] = exp(ratio * i);
+    }
+    return start * growth[i];
   };
   const imAt = (f: number) => {
     fn(f, out, 0);
@@ -125,7 +137,7 @@ function searchOwnResonance(fn: ComplexFn, near: number): number | null {
     if (chunkStamp[c] !== search) {
       const from = c * OWN_CHUNK;
       const n = Math.min(OWN_CHUNK, OWN_POINTS - from);
-      for (let j = from; j < from + n; j++) freqAt(j);
+      for (let j = from; j < from + n; j++) grid[j] = freqAt(j);
       block(grid, from, n, pair, 0, 2);
       for (let j = 0; j < n; j++) im[from + j] = pair[2 * j + 1];
       chunkStamp[c] = search;
