@@ -33,6 +33,28 @@ describe('the batched log output', () => {
     expect(readFileSync(file, 'utf8').length).toBeGreaterThan(4096);
     flushLogs();
     expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(102);
+    // Ended before its descriptor goes: its timer must not write to a closed (or reused) fd.
+    const closed = new Promise((resolve) => (destination as unknown as EventEmitter).once('close', resolve)); // prettier-ignore
+    (destination as unknown as { end(): void }).end();
+    await closed;
+  });
+
+  it('should survive a descriptor closed under it: the lines are lost, not the process', async () => {
+    const fd = openSync(path.join(dir, 'closed.log'), 'w');
+    const destination = batchedOutput(fd);
+    const logger = createLogger({ destination });
     closeSync(fd);
+    // Watched without a listener of the test's own: only the logger's keeps the error handled.
+    const emit = jest.spyOn(destination as unknown as EventEmitter, 'emit');
+    logger.info('lost');
+    (destination as unknown as { flush(): void }).flush();
+    const end = Date.now() + 5000;
+    while (!emit.mock.calls.some(([name]) => name === 'error') && Date.now() < end) {
+      await new Promise((resolve) => setTimeout(resolve, 10));
+    }
+    const error = emit.mock.calls.find(([name]) => name === 'error')?.[1];
+    expect(error).toMatchObject({ code: 'EBADF' });
+    // Forgotten: a later flush of every log does not try it again.
+    expect(() => flushLogs()).not.toThrow();
   });
 });

@@ -40,7 +40,14 @@ export function batchedOutput(fd = 1): DestinationStream {
     }
   }, FLUSH_MS);
   timer.unref();
-  destination.on('close', () => clearInterval(timer));
+  const forget = () => {
+    clearInterval(timer);
+    buffered.delete(destination);
+  };
+  destination.on('close', forget);
+  // A log that can no longer be written (its descriptor closed under it) must not take the
+  // process down with an unhandled 'error' event: its lines are lost, the work goes on.
+  destination.on('error', forget);
   buffered.add(destination);
   return destination;
 }
