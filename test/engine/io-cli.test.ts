@@ -226,6 +226,18 @@ describe('analyze CLI', () => {
     expect(fromBlob(FIXTURE('no-such-chain.json')).code).toBe(2);
     expect(fromBlob('--list-types').out).toBe(cli('--list-types').out);
     expect(fromBlob(FIXTURE('listener-7mhz.json'), '--timing').err).toMatch(/^timing: analysis /);
+    // Node warns about an extra CA file it cannot read; from the launcher it never reads one.
+    const missing = join(dir, 'no-such-certificates.pem');
+    const withCerts = (command: string, args: string[]) =>
+      spawnSync(command, args, {
+        encoding: 'utf8',
+        timeout: 30_000,
+        env: { ...process.env, NODE_EXTRA_CA_CERTS: missing },
+      });
+    expect(withCerts(process.execPath, ['-e', '0']).stderr).toContain(missing);
+    const quiet = withCerts(launcher, [FIXTURE('listener-7mhz.json'), '--sweep']);
+    expect(quiet.stderr).toBe('');
+    expect(quiet.stdout).toBe(cli(FIXTURE('listener-7mhz.json'), '--sweep').out);
   });
 
   it('should run from the TypeScript source through tsx as npm run analyze does', () => {
