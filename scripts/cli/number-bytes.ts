@@ -17,7 +17,6 @@ const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 const NEAR_HALF = 1e-6;
 /** Also keeps every whole number of the fast paths below 2^31 (32-bit integer digits). */
 const SCALED_LIMIT = 1e9;
-const SPACE = 32;
 const MINUS = 45;
 const DOT = 46;
 const ZERO = 48;
@@ -36,29 +35,61 @@ function digitCount(n: number): number {
   return n < 1e6 ? 6 : n < 1e7 ? 7 : n < 1e8 ? 8 : n < 1e9 ? 9 : 10;
 }
 
+/** The two ASCII digits of every number 0–99, at twice the number. */
+const PAIRS = Uint8Array.from({ length: 200 }, (_, k) =>
+  k % 2 === 0 ? ZERO + Math.floor(k / 20) : ZERO + (((k - 1) / 2) % 10),
+);
+
 /**
- * Writes the whole number 0 ≤ n < 2^31 as exactly `k` digits (leading zeros) ending before
- * `end`, in 32-bit integer arithmetic (a division by ten becomes a multiplication).
+ * Writes the whole number 0 ≤ n < 2^31 backward from `end`: `frac` digits (leading zeros
+ * kept), a point when `frac` > 0, then the rest of the digits (at least one), two digits a
+ * step, in 32-bit integer arithmetic (a division by a constant becomes a multiplication).
+ * @returns the position of the first character written
  */
-function putDigits(buf: Uint8Array, end: number, n: number, k: number): void {
+function putDecimal(buf: Uint8Array, end: number, n: number, frac: number): number {
   let m = n | 0;
-  for (let p = end - 1; p >= end - k; p--) {
-    const q = (m / 10) | 0;
-    buf[p] = ZERO + (m - 10 * q);
+  let p = end;
+  if (frac > 0) {
+    let d = frac;
+    for (; d > 1; d -= 2) {
+      const q = (m / 100) | 0;
+      const r = (m - 100 * q) << 1;
+      buf[--p] = PAIRS[r + 1];
+      buf[--p] = PAIRS[r];
+      m = q;
+    }
+    if (d === 1) {
+      const q = (m / 10) | 0;
+      buf[--p] = ZERO + (m - 10 * q);
+      m = q;
+    }
+    buf[--p] = DOT;
+  }
+  while (m >= 100) {
+    const q = (m / 100) | 0;
+    const r = (m - 100 * q) << 1;
+    buf[--p] = PAIRS[r + 1];
+    buf[--p] = PAIRS[r];
     m = q;
   }
+  if (m >= 10) {
+    const r = m << 1;
+    buf[--p] = PAIRS[r + 1];
+    buf[--p] = PAIRS[r];
+  } else buf[--p] = ZERO + m;
+  return p;
 }
 
-/** Spaces from `pos` up to `width` characters of a cell whose text is `len` long. */
-function pad(buf: Uint8Array, pos: number, len: number, width: number): number {
-  for (let k = len; k < width; k++) buf[pos++] = SPACE;
-  return pos;
-}
+/*
+ * Every writer below writes into a buffer whose bytes from `pos` on are spaces already (the
+ * sweep table fills its buffer with spaces once, and each row is written after the last),
+ * so a right-aligned cell only skips its padding, and a gap between cells is two steps on.
+ */
 
 /** A cell written from its string (the slow path), right-aligned in `width` UTF-16 units. */
 export function putText(buf: Uint8Array, pos: number, text: string, width: number): number {
-  pos = pad(buf, pos, text.length, width);
-  return pos + (buf as Buffer).write(text, pos, 'utf8');
+  const at = text.length < width ? pos + width - text.length : pos;
+  return at + (buf as Buffer).write(text, at, 'utf8');
 }
 
 /** Most bytes a cell can take beyond its width (a long fallback string, in UTF-8). */
@@ -85,21 +116,15 @@ export function putFixed3(
 ): number {
   const value = values[i];
   if (!finite(value)) return putText(buf, pos, missing, width);
-  const size = abs(value);
-  const scaled = size * 1000;
+  const scaled = abs(value) * 1000;
   if (scaled >= SCALED_LIMIT || nearHalf(scaled)) return putText(buf, pos, value.toFixed(3), width);
-  const n = round(scaled);
-  const whole = floor(n / 1000);
-  const wholeDigits = digitCount(whole);
+  const n = round(scaled) | 0;
   // toFixed writes a minus for every negative value, "-0.000" included (but not for −0).
-  const neg = value < 0 ? 1 : 0;
-  const len = neg + wholeDigits + 4;
-  pos = pad(buf, pos, len, width);
-  if (neg) buf[pos] = MINUS;
-  const end = pos + len;
-  putDigits(buf, end, n - 1000 * whole, 3);
-  buf[end - 4] = DOT;
-  putDigits(buf, end - 4, whole, wholeDigits);
+  const neg = value < 0;
+  const len = (neg ? 1 : 0) + digitCount((n / 1000) | 0) + 4;
+  const end = len < width ? pos + width : pos + len;
+  const first = putDecimal(buf, end, n, 3);
+  if (neg) buf[first - 1] = MINUS;
   return end;
 }
 
@@ -129,32 +154,21 @@ export function putSignificant(
   }
   // n·10^-s is the rounded value; String() writes it with the fewest digits, so drop the
   // trailing zeros (at most ten digits remain: no two such decimals share a double).
-  let n = round(scaled);
+  let n = round(scaled) | 0;
   let s = shift;
-  while (s > 0 && n % 10 === 0) {
-    n /= 10;
+  while (s > 0) {
+    const q = (n / 10) | 0;
+    if (n !== 10 * q) break;
+    n = q;
     s--;
   }
   const k = digitCount(n);
   const neg = value < 0 ? 1 : 0;
   const len = neg + (s === 0 ? k : k > s ? k + 1 : s + 2);
-  if (!left) pos = pad(buf, pos, len, width);
-  if (neg) buf[pos] = MINUS;
-  const end = pos + len;
-  if (s === 0) putDigits(buf, end, n, k);
-  else if (k > s) {
-    const unit = POW10[s];
-    const whole = floor(n / unit);
-    putDigits(buf, end, n - whole * unit, s);
-    buf[end - s - 1] = DOT;
-    putDigits(buf, end - s - 1, whole, k - s);
-  } else {
-    // "0.", zeros, then the digits.
-    putDigits(buf, end, n, s);
-    buf[pos + neg] = ZERO;
-    buf[pos + neg + 1] = DOT;
-  }
-  return left ? pad(buf, end, len, width) : end;
+  const end = left || len >= width ? pos + len : pos + width;
+  const first = putDecimal(buf, end, n, s);
+  if (neg) buf[first - 1] = MINUS;
+  return left && len < width ? pos + width : end;
 }
 
 function putAligned(
@@ -168,11 +182,11 @@ function putAligned(
   const text = formatNumber(value, digits);
   if (!left) return putText(buf, pos, text, width);
   const end = pos + (buf as Buffer).write(text, pos, 'utf8');
-  return pad(buf, end, text.length, width);
+  return text.length < width ? end + width - text.length : end;
 }
 
 /** The cell as text (for tests and small tables): what the byte writers write. */
 export function cellText(write: (buf: Uint8Array, pos: number) => number): string {
-  const buf = Buffer.alloc(256);
+  const buf = Buffer.alloc(256, ' ');
   return buf.toString('utf8', 0, write(buf, 0));
 }

@@ -51,6 +51,11 @@ export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
   const rowBytes = w.reduce((a, b) => a + b + 2, 1) + CELL_SLACK * w.length;
   // Each node's step-up a block of rows at a time: no whole trace is ever made.
   const stepUp = Array.from({ length: columns }, () => new Float64Array(Math.min(P, ROWS)));
+  // The cell writers write into spaces (number-bytes.ts): the buffer from the first row on
+  // is filled with spaces, and again after each time it is written out. A row goes after the
+  // last, so past its end the buffer is still spaces.
+  let spaced: Uint8Array | null = null;
+  let next = 0;
   for (let i0 = 0; i0 < P; i0 += ROWS) {
     const n = Math.min(ROWS, P - i0);
     for (let k = 0; k < columns; k++) stepUpDb(k, i0, n, stepUp[k]);
@@ -58,20 +63,16 @@ export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
       const i = i0 + r;
       out.room(rowBytes);
       const buf = out.buf;
-      let pos = putSignificant(buf, out.pos, f, i, 9, w[0], true);
-      for (let k = 0; k < columns; k++) {
-        buf[pos++] = SPACE;
-        buf[pos++] = SPACE;
-        pos = putFixed3(buf, pos, stepUp[k], r, w[k + 1], DASH);
+      if (buf !== spaced || out.pos !== next) {
+        buf.fill(SPACE, out.pos);
+        spaced = buf;
       }
-      buf[pos++] = SPACE;
-      buf[pos++] = SPACE;
-      pos = putSignificant(buf, pos, re, i, 6, wz);
-      buf[pos++] = SPACE;
-      buf[pos++] = SPACE;
-      pos = putSignificant(buf, pos, im, i, 6, wi);
+      let pos = putSignificant(buf, out.pos, f, i, 9, w[0], true);
+      for (let k = 0; k < columns; k++) pos = putFixed3(buf, pos + 2, stepUp[k], r, w[k + 1], DASH);
+      pos = putSignificant(buf, pos + 2, re, i, 6, wz);
+      pos = putSignificant(buf, pos + 2, im, i, 6, wi);
       buf[pos++] = NEWLINE;
-      out.pos = pos;
+      out.pos = next = pos;
     }
   }
 }
