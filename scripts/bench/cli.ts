@@ -11,8 +11,10 @@
  * at 100,000 points it is at least 3× faster than ngspice's own AC solver (constant-resistor
  * netlist) and peaks at no more than 1.5× ngspice's resident memory. The 3× is judged on two
  * pairs that each do the same work on both sides, never across them: solver against solver
- * (the AC analysis time ngspice reports against the analysis time the CLI reports with
- * --timing, both measured inside the process around the solve alone) and whole process
+ * (the AC analysis time ngspice reports against the solve time the CLI reports with
+ * --timing: every node's voltage and impedance at every point, both measured inside the
+ * process; the CLI's whole analysis, which adds its findings, is printed beside it, not
+ * judged) and whole process
  * against whole process (start-up, solve and every point written, on both sides).
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -34,6 +36,11 @@ interface SpiceRun extends ProcessRun {
 interface CliRun extends ProcessRun {
   /** The engine's analysis alone, as the CLI's --timing reports it. */
   analysisMs: number;
+  /**
+   * The solve alone (the sweep's node analysis: every node's voltage and impedance at every
+   * point, what ngspice's AC analysis computes), when --timing reports it; NaN otherwise.
+   */
+  solveMs: number;
 }
 
 function spice(
@@ -73,7 +80,12 @@ function cli(dir: string, start: Start, chainFile: string, rows: number): CliRun
   if (lines < rows + 2) throw new Error(`the CLI wrote ${lines} lines for ${rows} sweep points`);
   const analysis = /^timing: analysis ([0-9.]+) s$/m.exec(run.stderr);
   if (!analysis) throw new Error(`the CLI did not report its analysis time: ${run.stderr}`);
-  return { ...run, analysisMs: Number(analysis[1]) * 1e3 };
+  const solve = /^timing: solve ([0-9.]+) s$/m.exec(run.stderr);
+  return {
+    ...run,
+    analysisMs: Number(analysis[1]) * 1e3,
+    solveMs: solve ? Number(solve[1]) * 1e3 : NaN,
+  };
 }
 
 const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick));
@@ -105,7 +117,8 @@ export const cliSection: BenchSection = {
         const cliCpu = medianOf(cliRuns, (r) => r.cpuMs);
         const exCpu = medianOf(exported, (r) => r.cpuMs);
         const coCpu = medianOf(constant, (r) => r.cpuMs);
-        const cliSolveMs = medianOf(cliRuns, (r) => r.analysisMs);
+        const cliAnalysisMs = medianOf(cliRuns, (r) => r.analysisMs);
+        const cliSolveMs = medianOf(cliRuns, (r) => r.solveMs);
         const cliPeak = medianOf(cliRuns, (r) => r.peakBytes);
         const exMs = medianOf(exported, (r) => r.wallMs);
         const exAc = medianOf(exported, (r) => r.acMs);
@@ -124,7 +137,7 @@ export const cliSection: BenchSection = {
         );
         ctx.row(
           `whole CLI (dist/analyze --sweep: node from its start-up snapshot, every node written), ${n} points: whole / CPU / analysis / peak`,
-          `${ms(cliMs)} / ${ms(cliCpu)} / ${ms(cliSolveMs)} / ${mib(cliPeak)}`,
+          `${ms(cliMs)} / ${ms(cliCpu)} / ${ms(cliAnalysisMs)} / ${mib(cliPeak)}`,
         );
         if (plainRuns.length > 0) {
           ctx.row(
@@ -146,13 +159,26 @@ export const cliSection: BenchSection = {
             `${(cliCpu / exCpu).toFixed(2)}×`,
           );
         } else {
-          const solver = coAc / cliSolveMs;
+          // Like for like: ngspice's AC analysis solves every node's voltage at every point, as
+          // the CLI's solve does. The CLI's whole analysis adds resonances, edges, selectivity,
+          // noise and flags: printed beside it, not judged. A CLI that does not report its
+          // solve is judged on its whole analysis, and the row says so.
+          const solved = Number.isFinite(cliSolveMs);
+          const solver = coAc / (solved ? cliSolveMs : cliAnalysisMs);
           ctx.row(
-            `solver vs solver: ngspice's AC analysis (constant resistors) ÷ the CLI's analysis, ${n} points`,
+            solved
+              ? `solver vs solver: ngspice's AC analysis (constant resistors) ÷ the CLI's solve (${ms(cliSolveMs)}: every node's voltage and impedance at every point), ${n} points`
+              : `solver vs solver: ngspice's AC analysis (constant resistors) ÷ the CLI's whole analysis (the CLI reported no solve time), ${n} points`,
             `${solver.toFixed(1)}× faster`,
             '≥ 3× faster',
             verdict(solver >= 3),
           );
+          if (solved) {
+            ctx.row(
+              `not judged: ngspice's AC analysis ÷ the CLI's whole analysis (${ms(cliAnalysisMs)}: the solve, resonances, edges, selectivity, noise, flags), ${n} points`,
+              `${(coAc / cliAnalysisMs).toFixed(1)}×`,
+            );
+          }
           const whole = coMs / cliMs;
           ctx.row(
             `whole process vs whole process: ngspice -b (constant resistors) ÷ the whole CLI, ${n} points`,
