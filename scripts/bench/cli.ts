@@ -23,7 +23,7 @@ import { join } from 'node:path';
 import { parseRusage } from '../../shared/engine';
 import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { benchChain } from './bench-chain';
-import { bundleCli, launcherPath } from './bundle-cli';
+import { bundleCli, CLI_UNUSED_ENV, launcherPath } from './bundle-cli';
 import { median } from './measure';
 import { lineCount, runProcess, type ProcessRun } from './process';
 import { mib, ms, verdict, type BenchContext, type BenchSection } from './rows';
@@ -73,7 +73,7 @@ function cli(dir: string, start: Start, chainFile: string, rows: number): CliRun
   const run =
     'launcher' in start
       ? runProcess(start.launcher, args, dir, outFile)
-      : runProcess(process.execPath, [start.bundle, ...args], dir, outFile);
+      : runProcess(process.execPath, [start.bundle, ...args], dir, outFile, launcherEnv());
   if (run.status !== 0) throw new Error(`the CLI exited with status ${run.status}: ${run.stderr}`);
   // The budget table, then "Sweep", a header and one line per point.
   const lines = lineCount(outFile);
@@ -86,6 +86,16 @@ function cli(dir: string, start: Start, chainFile: string, rows: number): CliRun
     analysisMs: Number(analysis[1]) * 1e3,
     solveMs: solve ? Number(solve[1]) * 1e3 : NaN,
   };
+}
+
+/**
+ * The environment the launcher gives Node (without what it unsets), so the bundle started
+ * without the snapshot differs from the launcher by the snapshot alone.
+ */
+function launcherEnv(): NodeJS.ProcessEnv {
+  const env = { ...process.env };
+  for (const name of CLI_UNUSED_ENV) delete env[name];
+  return env;
 }
 
 const medianOf = <T>(runs: T[], pick: (r: T) => number) => median(runs.map(pick));
@@ -141,7 +151,7 @@ export const cliSection: BenchSection = {
         );
         if (plainRuns.length > 0) {
           ctx.row(
-            `the same without the start-up snapshot (node dist/analyze.js), ${n} points: whole / CPU / analysis / peak`,
+            `the same without the start-up snapshot (node dist/analyze.js, in the launcher's environment), ${n} points: whole / CPU / analysis / peak`,
             `${ms(medianOf(plainRuns, (r) => r.wallMs))} / ${ms(medianOf(plainRuns, (r) => r.cpuMs))} / ${ms(medianOf(plainRuns, (r) => r.analysisMs))} / ${mib(medianOf(plainRuns, (r) => r.peakBytes))}`,
           );
         }

@@ -21,12 +21,13 @@ export interface ProcessRun {
   stderr: string;
 }
 
-/** Runs `command args` in `cwd` with stdout to `stdoutFile`. */
+/** Runs `command args` in `cwd` with stdout to `stdoutFile` (in `env`, default this process's). */
 export function runProcess(
   command: string,
   args: string[],
   cwd: string,
   stdoutFile: string,
+  env: NodeJS.ProcessEnv = process.env,
 ): ProcessRun {
   const rssFile = join(cwd, 'peak-rss.txt');
   const withTime = existsSync(GNU_TIME);
@@ -37,10 +38,16 @@ export function runProcess(
       p = withTime
         ? spawnSync(GNU_TIME, ['-f', '%M %U %S', '-o', rssFile, command, ...args], {
             cwd,
+            env,
             stdio: ['ignore', out, 'pipe'],
             maxBuffer: 1 << 26,
           })
-        : spawnSync(command, args, { cwd, stdio: ['ignore', out, 'pipe'], maxBuffer: 1 << 26 });
+        : spawnSync(command, args, {
+            cwd,
+            env,
+            stdio: ['ignore', out, 'pipe'],
+            maxBuffer: 1 << 26,
+          });
     });
     if (!p || p.error) {
       throw new Error(`${command} could not run: ${p?.error?.message ?? 'no process'}`);
