@@ -21,26 +21,45 @@ const OPEN_ARRAY = 0x5b;
 const CLOSE_ARRAY = 0x5d;
 const OPEN_OBJECT = 0x7b;
 const CLOSE_OBJECT = 0x7d;
+const LETTER_U = 0x75;
+const DIGIT_0 = 0x30;
+
+/** Whether the escape at `bytes[i]` (just after a backslash) is `u0000`, a NUL character. */
+function isNulEscape(bytes: Uint8Array, i: number): boolean {
+  return (
+    bytes[i] === LETTER_U &&
+    bytes[i + 1] === DIGIT_0 &&
+    bytes[i + 2] === DIGIT_0 &&
+    bytes[i + 3] === DIGIT_0 &&
+    bytes[i + 4] === DIGIT_0
+  );
+}
 
 /**
  * Scans raw JSON bytes once, without recursion, and throws JsonShapeError when nesting is
  * deeper than `maxDepth` or an array holds more than `maxArrayLength` elements. Bytes inside
  * strings are skipped (UTF-8 continuation bytes never equal an ASCII bracket). Malformed
  * JSON is left for the parser to refuse.
+ * @returns whether a string (a key or a value) holds the escape `\u0000`: the only way a
+ * NUL character can be in parsed JSON, since the parser refuses a raw control character in
+ * a string. Without one, no walk of the parsed body for NUL is needed (./reject-nul.ts).
  */
 export function checkJsonShape(
   bytes: Uint8Array,
   maxDepth = MAX_JSON_DEPTH,
   maxArrayLength = MAX_JSON_ARRAY_LENGTH,
-): void {
+): boolean {
   // Per open container: -1 for an object, else the number of commas seen in the array.
   const open: number[] = [];
   let inString = false;
+  let nul = false;
   for (let i = 0; i < bytes.length; i++) {
     const b = bytes[i];
     if (inString) {
-      if (b === BACKSLASH) i++;
-      else if (b === QUOTE) inString = false;
+      if (b === BACKSLASH) {
+        if (!nul && isNulEscape(bytes, i + 1)) nul = true;
+        i++;
+      } else if (b === QUOTE) inString = false;
       continue;
     }
     if (b === QUOTE) inString = true;
@@ -63,6 +82,17 @@ export function checkJsonShape(
       }
     }
   }
+  return nul;
+}
+
+const NUL_SCAN = Symbol('chainwright.bodyNulScan');
+
+/**
+ * Whether the body the JSON parser gave `req` may hold a NUL character: true unless the scan
+ * of its raw bytes found no `\u0000` escape (or there is no body at all).
+ */
+export function bodyMayHoldNul(req: object): boolean {
+  return (req as { [NUL_SCAN]?: boolean })[NUL_SCAN] !== false;
 }
 
 /**
@@ -73,6 +103,8 @@ export function checkJsonShape(
 export function jsonBody(limitBytes: number): RequestHandler {
   return express.json({
     limit: limitBytes,
-    verify: (_req, _res, buf) => checkJsonShape(buf),
+    verify: (req, _res, buf) => {
+      (req as { [NUL_SCAN]?: boolean })[NUL_SCAN] = checkJsonShape(buf);
+    },
   });
 }
