@@ -83,8 +83,10 @@ export function createApp(services: Services): Express {
   );
   // Every answer compressed when the client accepts it (an analysis with its sweep to under
   // half, the client's scripts to about a quarter); not event streams, which must not wait
-  // in a compressor's buffer.
-  app.use(compression({ filter: compressible }));
+  // in a compressor's buffer. The analyses' answers come compressed from their thread
+  // (analysis/answer-encoding.ts), so those requests skip the middleware altogether.
+  const compress = compression({ filter: compressible });
+  app.use((req, res, next) => (answersEncoded(req) ? next() : compress(req, res, next)));
   app.use(jsonBody(config.bodyLimitBytes), rejectNulCharacters);
   // One entity manager per request, so identity maps never leak between requests.
   app.use((_req, _res, next) => RequestContext.create(orm.em, next));
@@ -140,6 +142,13 @@ export function createApp(services: Services): Express {
 function compressible(req: Request, res: Response): boolean {
   const type = String(res.getHeader('Content-Type') ?? '');
   return !type.startsWith('text/event-stream') && compression.filter(req, res);
+}
+
+/** The analysis routes, whose answers are encoded on the analysis thread. */
+const ENCODED_ON_THREAD = /^\/api\/(analysis|chains\/[^/]+\/analysis)\/?$/;
+
+function answersEncoded(req: Request): boolean {
+  return (req.method === 'POST' || req.method === 'GET') && ENCODED_ON_THREAD.test(req.path);
 }
 
 function noStore(_req: Request, res: Response, next: () => void): void {
