@@ -2,7 +2,9 @@ import type { EventEmitter } from 'node:events';
 import { closeSync, mkdtempSync, openSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { batchedOutput, createLogger, flushLogs } from './logger';
+import express from 'express';
+import request from 'supertest';
+import { batchedOutput, createLogger, flushLogs, requestLogger } from './logger';
 
 describe('the batched log output', () => {
   const dir = mkdtempSync(path.join(tmpdir(), 'cw-log-'));
@@ -56,5 +58,54 @@ describe('the batched log output', () => {
     expect(error).toMatchObject({ code: 'EBADF' });
     // Forgotten: a later flush of every log does not try it again.
     expect(() => flushLogs()).not.toThrow();
+  });
+});
+
+describe('the request line', () => {
+  function appWithLog() {
+    const lines: Record<string, unknown>[] = [];
+    const destination = { write: (line: string) => lines.push(JSON.parse(line)) };
+    const logger = createLogger({ destination });
+    const app = express();
+    app.use(requestLogger(logger));
+    app.get('/api/things/:id', (req, res) => {
+      req.log.info({ seen: req.params.id }, 'inside');
+      res.status(201).json({ id: req.id });
+    });
+    app.get('/api/broken', () => {
+      throw new Error('broken on purpose');
+    });
+    return { app, lines };
+  }
+
+  it('should write one line per request, with the route pattern and the request id it sends back', async () => {
+    const { app, lines } = appWithLog();
+    const answer = await request(app)
+      .get('/api/things/abc?secret=1')
+      .set('x-request-id', 'proxy-id.1');
+    expect(answer.status).toBe(201);
+    expect(answer.headers['x-request-id']).toBe('proxy-id.1');
+    expect(answer.body).toEqual({ id: 'proxy-id.1' });
+    const [inside, line] = lines;
+    expect(inside).toMatchObject({ reqId: 'proxy-id.1', seen: 'abc', msg: 'inside' });
+    expect(Object.keys(line)).toEqual(['level', 'time', 'app', 'reqId', 'method', 'route', 'status', 'ms', 'userId', 'msg']); // prettier-ignore
+    expect(line).toMatchObject({ level: 30, app: 'chainwright', reqId: 'proxy-id.1', method: 'GET', route: '/api/things/:id', status: 201, userId: null, msg: 'request' }); // prettier-ignore
+    expect(line.ms).toEqual(expect.any(Number));
+    expect(lines).toHaveLength(2);
+  });
+
+  it('should make its own id for a malformed one, and log a failed request once', async () => {
+    const { app, lines } = appWithLog();
+    const answer = await request(app).get('/api/broken').set('x-request-id', 'bad id with spaces');
+    expect(answer.status).toBe(500);
+    const id = answer.headers['x-request-id'];
+    expect(id).toMatch(/^[0-9a-f-]{36}$/);
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatchObject({
+      reqId: id,
+      route: '/api/broken',
+      status: 500,
+      msg: 'request',
+    });
   });
 });

@@ -1,3 +1,4 @@
+import type { Logger } from 'pino';
 import type { WorkspaceRole } from '../../shared/schema/api';
 import type { Chain } from '../chains/chain.entity';
 import type { User as UserEntity } from '../users/user.entity';
@@ -10,6 +11,12 @@ declare global {
     // passport's req.user is our User entity (loaded per request from the session's id).
     // eslint-disable-next-line @typescript-eslint/no-empty-object-type
     interface User extends UserEntity {}
+    interface Request {
+      /** The request id (server/common/logger.ts), sent back in `x-request-id`. */
+      id: string;
+      /** The request's logger: the server's, with `reqId` on every line. */
+      log: Logger;
+    }
     interface Locals {
       /** Set by the workspace/chain role middleware. */
       workspace?: Workspace;
