@@ -34,7 +34,13 @@ describe('the batched log output', () => {
     await written;
     expect(readFileSync(file, 'utf8').length).toBeGreaterThan(4096);
     flushLogs();
-    expect(readFileSync(file, 'utf8').trim().split('\n')).toHaveLength(102);
+    // A batch already on its way (an asynchronous write in flight) lands after flushLogs
+    // returns: wait for it rather than read a file it has not reached yet.
+    const lineCount = () => readFileSync(file, 'utf8').trim().split('\n').length;
+    for (let waited = 0; lineCount() < 102 && waited < 5000; waited += 20) {
+      await new Promise((resolve) => setTimeout(resolve, 20));
+    }
+    expect(lineCount()).toBe(102);
     // Ended before its descriptor goes: its timer must not write to a closed (or reused) fd.
     const closed = new Promise((resolve) => (destination as unknown as EventEmitter).once('close', resolve)); // prettier-ignore
     (destination as unknown as { end(): void }).end();
