@@ -10,6 +10,7 @@ import { runNodeAnalysis } from '../../shared/engine/core/nodes';
 import { createProbe } from '../../shared/engine/core/probe';
 import { stepUp } from '../../shared/engine/core/quantities';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import type { ComplexFn, RealFn } from '../../shared/engine/types';
 import { chainDocumentSchema } from '../../shared/schema/chain';
 
 const file = path.join(__dirname, '..', '..', 'examples', 'shortwave-superhet-single-tank.chain.json'); // prettier-ignore
@@ -45,5 +46,72 @@ describe('probe', () => {
     const d = probe.zsrcRe[2] ** 2 + probe.zsrcIm[2] ** 2;
     expect(close(out[0], probe.zsrcRe[2] / d)).toBe(true);
     expect(close(out[1], -probe.zsrcIm[2] / d)).toBe(true);
+  });
+});
+
+describe('probe terminations with and without block forms', () => {
+  // The probe reads the source's EMF and impedance and the load's impedance through their
+  // block forms when they have them (nothing boxed), else through their point forms: both
+  // ways must give the very same numbers.
+  const { source, load } = built;
+  const pointC =
+    (fn: ComplexFn): ComplexFn =>
+    (f, out, o) =>
+      fn(f, out, o);
+  const pointR =
+    (fn: RealFn): RealFn =>
+    (f) =>
+      fn(f);
+  const blockC = (fn: ComplexFn): ComplexFn =>
+    Object.assign(pointC(fn), {
+      fill: (
+        f: Float64Array,
+        fo: number,
+        n: number,
+        out: Float64Array,
+        oo: number,
+        stride: number,
+      ) => {
+        for (let k = 0; k < n; k++) fn(f[fo + k], out, oo + stride * k);
+      },
+    });
+  const blockR = (fn: RealFn): RealFn =>
+    Object.assign(pointR(fn), {
+      fill: (f: Float64Array, fo: number, n: number, out: Float64Array, oo: number) => {
+        for (let k = 0; k < n; k++) out[oo + k] = fn(f[fo + k]);
+      },
+    });
+  const withTerminations = (c: (fn: ComplexFn) => ComplexFn, r: (fn: RealFn) => RealFn) => ({
+    ...built,
+    source: { ...source, model: { ...source.model, impedance: c(source.model.impedance!), emf: r(source.model.emf!) } }, // prettier-ignore
+    load: { ...load, model: { ...load.model, impedance: c(load.model.impedance!) } },
+  });
+  const pointOnly = createProbe(withTerminations(pointC, pointR));
+  const blocks = createProbe(withTerminations(blockC, blockR));
+
+  it('the wrappers are what they claim to be', () => {
+    const b = withTerminations(blockC, blockR);
+    const p = withTerminations(pointC, pointR);
+    expect(typeof b.source.model.emf!.fill).toBe('function');
+    expect(typeof b.load.model.impedance!.fill).toBe('function');
+    expect(p.source.model.emf!.fill).toBeUndefined();
+    expect(p.source.model.impedance!.fill).toBeUndefined();
+  });
+
+  it.each([6.1e6, 7.2031e6, 8.11e6])('the same step-up and impedances at %d Hz', (f) => {
+    for (let n = 0; n < built.sections.length + 1; n++) {
+      const a = pointOnly.at(f, n, true);
+      const b = blocks.at(f, n, true);
+      expect(Number.isFinite(a)).toBe(true);
+      expect(b).toBe(a);
+      pointOnly.at(f, n);
+      blocks.at(f, n);
+      expect([blocks.zsrcRe[n], blocks.zsrcIm[n], blocks.zinRe[n], blocks.zinIm[n]]).toEqual([
+        pointOnly.zsrcRe[n],
+        pointOnly.zsrcIm[n],
+        pointOnly.zinRe[n],
+        pointOnly.zinIm[n],
+      ]);
+    }
   });
 });

@@ -8,9 +8,14 @@
  * first unilateral section at or after the node (whatever lies beyond it cannot change the
  * impedance there), and the forward pass stops at the node (a voltage needs no forward pass).
  * The steps across a section are the node analysis's own functions (nodes.ts), called with
- * arrays and indices only, so nothing is boxed or allocated per call.
+ * arrays and indices only, so nothing is boxed or allocated per call. The sections, and the
+ * source and load where they have one, are evaluated by their block forms over the one point,
+ * the frequency read from `fNode`: a frequency passed as a number to a call the optimiser
+ * did not inline is boxed on the heap, which made a few hundred probe calls of an analysis a
+ * few hundred kilobytes of garbage.
  */
 import type { BuiltChain } from './build';
+import { hypot2 } from './hypot';
 import { backStep, forwardStep, MIN_NODE_HZ, sourceStep, voltageStep } from './nodes';
 
 const finite = Number.isFinite;
@@ -79,12 +84,15 @@ export function createProbe(built: BuiltChain): Probe {
     fNode[0] = f;
     for (let j = 0; j < end; j++) {
       const s = sections[j];
-      s.abcd(fNode[j], m, 8 * j);
+      // The block form over the one point (what the node analysis runs, and equal to the
+      // point form): the frequency is read from fNode, so no number is boxed for the call.
+      s.fill(fNode, j, 1, m, 8 * j);
       const tr = s.translate;
       fNode[j + 1] = tr ? Math.max(tr(fNode[j]), MIN_NODE_HZ) : fNode[j];
     }
     if (end === N) {
-      zl(fNode[N], t, 0);
+      if (zl.fill) zl.fill(fNode, N, 1, t, 0, 2);
+      else zl(fNode[N], t, 0);
       zinRe[N] = t[0];
       zinIm[N] = t[1];
     } else {
@@ -93,21 +101,23 @@ export function createProbe(built: BuiltChain): Probe {
     }
     const from = voltage ? 0 : node;
     for (let j = end - 1; j >= from; j--) backStep(m, 8 * j, zinRe, zinIm, j + 1, j);
-    zs(f, t, 0);
+    if (zs.fill) zs.fill(fNode, 0, 1, t, 0, 2);
+    else zs(f, t, 0);
     zsrcRe[0] = t[0];
     zsrcIm[0] = t[1];
-    if (voltage) return stepUpTo(f, node);
+    if (voltage) return stepUpTo(node);
     for (let j = 0; j < node; j++) forwardStep(m, 8 * j, zsrcRe, zsrcIm, j, j + 1);
     return NaN;
   }
 
   /** |V[node]|/|Es| from the voltage divider at node 0 and the voltage steps (nodes.ts). */
-  function stepUpTo(f: number, node: number): number {
-    const e = es(f);
-    emf[0] = e;
+  function stepUpTo(node: number): number {
+    if (es.fill) es.fill(fNode, 0, 1, emf, 0);
+    else emf[0] = es(fNode[0]);
+    const e = emf[0];
     sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, 0, 0);
     for (let j = 0; j < node; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1);
-    return Math.hypot(vRe[node], vIm[node]) / Math.abs(e);
+    return hypot2(vRe[node], vIm[node]) / Math.abs(e);
   }
 
   function nodeAdmittance(node: number, out: Float64Array): void {
