@@ -80,17 +80,23 @@ export function backSection(
     const from = at + P + k;
     const zr = re[from];
     const zi = im[from];
+    // A and C read once, before the branch, for both of its ways (measurably faster in
+    // the optimised loop than each way reading its own).
+    const a0 = m[o];
+    const a1 = m[o + 1];
+    const c0 = m[o + 4];
+    const c1 = m[o + 5];
     let nr: number, ni: number, dr: number, di: number; // prettier-ignore
     if (zr - zr === 0 && zi - zi === 0) {
-      nr = m[o] * zr - m[o + 1] * zi + m[o + 2];
-      ni = m[o] * zi + m[o + 1] * zr + m[o + 3];
-      dr = m[o + 4] * zr - m[o + 5] * zi + m[o + 6];
-      di = m[o + 4] * zi + m[o + 5] * zr + m[o + 7];
+      nr = a0 * zr - a1 * zi + m[o + 2];
+      ni = a0 * zi + a1 * zr + m[o + 3];
+      dr = c0 * zr - c1 * zi + m[o + 6];
+      di = c0 * zi + c1 * zr + m[o + 7];
     } else {
-      nr = m[o];
-      ni = m[o + 1];
-      dr = m[o + 4];
-      di = m[o + 5];
+      nr = a0;
+      ni = a1;
+      dr = c0;
+      di = c1;
     }
     const d2 = dr * dr + di * di;
     if (d2 === 0) {

@@ -358,20 +358,35 @@ function forwardSection(
     const o = mj + 8 * k;
     const from = at + k;
     const to = from + P;
-    // Zsrc at the output: (D·Z + B)/(C·Z + A).
+    // Every value the point needs is read first, each once: for all the optimiser knows a
+    // store into one of these arrays may change another (the voltages' two places may even
+    // be one), so it reads again whatever is read after a store (≈ 5 % of the run).
+    const a0 = m[o];
+    const a1 = m[o + 1];
+    const b0 = m[o + 2];
+    const b1 = m[o + 3];
+    const c0 = m[o + 4];
+    const c1 = m[o + 5];
+    const d0 = m[o + 6];
+    const d1 = m[o + 7];
     const sr = zsrcRe[from];
     const si = zsrcIm[from];
+    const ar = zinRe[to];
+    const ai = zinIm[to];
+    const vr = vInRe[vIn + k];
+    const vi = vInIm[vIn + k];
+    // Zsrc at the output: (D·Z + B)/(C·Z + A).
     let nr: number, ni: number, dr: number, di: number; // prettier-ignore
     if (sr - sr === 0 && si - si === 0) {
-      nr = m[o + 6] * sr - m[o + 7] * si + m[o + 2];
-      ni = m[o + 6] * si + m[o + 7] * sr + m[o + 3];
-      dr = m[o + 4] * sr - m[o + 5] * si + m[o];
-      di = m[o + 4] * si + m[o + 5] * sr + m[o + 1];
+      nr = d0 * sr - d1 * si + b0;
+      ni = d0 * si + d1 * sr + b1;
+      dr = c0 * sr - c1 * si + a0;
+      di = c0 * si + c1 * sr + a1;
     } else {
-      nr = m[o + 6];
-      ni = m[o + 7];
-      dr = m[o + 4];
-      di = m[o + 5];
+      nr = d0;
+      ni = d1;
+      dr = c0;
+      di = c1;
     }
     const d2 = dr * dr + di * di;
     if (d2 === 0) {
@@ -383,13 +398,8 @@ function forwardSection(
       zsrcIm[to] = (ni * dr - nr * di) * inv;
     }
     // V at the output: V/(A + B·Y), Y = 1/Zin(out).
-    // (Its voltages are read before they are written: the two places may be one.)
-    const ar = zinRe[to];
-    const ai = zinIm[to];
-    const vr = vInRe[vIn + k];
-    const vi = vInIm[vIn + k];
-    let er = m[o];
-    let ei = m[o + 1];
+    let er = a0;
+    let ei = a1;
     if (ar - ar === 0 && ai - ai === 0) {
       const a2 = ar * ar + ai * ai;
       if (a2 === 0 || (vr === 0 && vi === 0)) {
@@ -400,8 +410,8 @@ function forwardSection(
       const ia = 1 / a2;
       const yr = ar * ia;
       const yi = -ai * ia;
-      er += m[o + 2] * yr - m[o + 3] * yi;
-      ei += m[o + 2] * yi + m[o + 3] * yr;
+      er += b0 * yr - b1 * yi;
+      ei += b0 * yi + b1 * yr;
     }
     const ie = 1 / (er * er + ei * ei);
     vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
