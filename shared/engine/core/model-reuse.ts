@@ -7,8 +7,32 @@ import type { ChainSettings } from '../../schema/chain';
 import type { ParamValues, StageDefinition, StageModel } from '../types';
 import type { BuiltChain } from './build';
 
-/** The settings (as JSON) each built chain's settings object was made from. */
+/**
+ * The settings (as JSON) of each built chain's settings object, written when a later build
+ * first compares its own with them: a chain built without `like` does not pay for it.
+ */
 const settingsSource = new WeakMap<ChainSettings, string>();
+
+/** The JSON of a built chain's settings (which nothing changes once built). */
+function sourceJson(settings: ChainSettings): string {
+  let json = settingsSource.get(settings);
+  if (json === undefined) settingsSource.set(settings, (json = JSON.stringify(settings)));
+  return json;
+}
+
+/**
+ * A deep copy of plain data (objects, arrays and primitives, as the chain schema parses
+ * them), as `structuredClone` makes it but without its serialisation; anything else (a Date,
+ * a Map) goes to `structuredClone`.
+ */
+function copyPlain<T>(value: T): T {
+  if (typeof value !== 'object' || value === null) return value;
+  if (Array.isArray(value)) return value.map(copyPlain) as T;
+  if (Object.getPrototypeOf(value) !== Object.prototype) return structuredClone(value);
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(value)) out[key] = copyPlain((value as Record<string, unknown>)[key]); // prettier-ignore
+  return out as T;
+}
 
 /**
  * The settings object of a chain being built: `like`'s own when the document's settings are
@@ -17,11 +41,8 @@ const settingsSource = new WeakMap<ChainSettings, string>();
  * the caller edits its document afterwards (a band study moves the dial in place).
  */
 export function builtSettings(settings: ChainSettings, like?: BuiltChain): ChainSettings {
-  const json = JSON.stringify(settings);
-  if (like && settingsSource.get(like.settings) === json) return like.settings;
-  const copy = structuredClone(settings);
-  settingsSource.set(copy, json);
-  return copy;
+  if (like && sourceJson(like.settings) === JSON.stringify(settings)) return like.settings;
+  return copyPlain(settings);
 }
 
 /**
