@@ -149,18 +149,13 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
   return { zIn, stepUp };
 }
 
-/** Defines `obj[key]` as computed by `compute` on first read (then a plain data property). */
-function lazy<T extends object>(obj: T, key: string, compute: () => unknown): void {
-  const settle = (value: unknown) => {
-    Object.defineProperty(obj, key, { value, writable: true, enumerable: true, configurable: true }); // prettier-ignore
-    return value;
-  };
-  Object.defineProperty(obj, key, {
-    enumerable: true,
-    configurable: true,
-    get: () => settle(compute()),
-    set: settle,
-  });
+/**
+ * Makes `obj[key]` a plain data property holding `value` (a lazy trace once read or assigned)
+ * and returns the value.
+ */
+function settle<T>(obj: object, key: string, value: T): T {
+  Object.defineProperty(obj, key, { value, writable: true, enumerable: true, configurable: true }); // prettier-ignore
+  return value;
 }
 
 /**
@@ -233,37 +228,61 @@ export function lazySweepReport(
   const zsrcRe = trace(na.zsrcRe, 0, 2 * U + 4);
   const zsrcIm = trace(na.zsrcIm, 0, 2 * U + 5);
 
+  // Each trace an accessor written in an object literal (own, enumerable, configurable, as
+  // defineProperty would make it, without its cost): computed on first read, then settled.
   const nodes = Array.from(flats, (_, index) => {
     const re = vRe[index];
     const im = vIm[index];
-    const node = { index } as SweepReport['nodes'][number];
-    lazy(node, 'stepUpDb', () => {
-      const out = new Array<number>(P);
-      for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
-      return out;
-    });
-    lazy(node, 'phaseDeg', () => {
-      const out = new Array<number>(P);
-      for (let i = 0; i < P; i++) out[i] = (atan2(im[i], re[i]) * 180) / PI;
-      return out;
-    });
+    const node: SweepReport['nodes'][number] = {
+      index,
+      get stepUpDb() {
+        const out = new Array<number>(P);
+        for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
+        return settle(node, 'stepUpDb', out);
+      },
+      set stepUpDb(value) {
+        settle(node, 'stepUpDb', value);
+      },
+      get phaseDeg() {
+        const out = new Array<number>(P);
+        for (let i = 0; i < P; i++) out[i] = (atan2(im[i], re[i]) * 180) / PI;
+        return settle(node, 'phaseDeg', out);
+      },
+      set phaseDeg(value) {
+        settle(node, 'phaseDeg', value);
+      },
+    };
     return node;
   });
   // Keys in the order readers have always seen: freqsHz, nodes, zIn, returnLossDb.
-  const report = {} as SweepReport;
-  lazy(report, 'freqsHz', () => Array.from(freqs));
-  report.nodes = nodes;
-  lazy(report, 'zIn', () => ({ re: Array.from(zinRe), im: Array.from(zinIm) }));
-  lazy(report, 'returnLossDb', () => {
-    const out = new Array<number>(P);
-    for (let i = 0; i < P; i++) {
-      out[i] =
-        reference === null
-          ? returnLossConjugate(zinRe[i], zinIm[i], zsrcRe[i], zsrcIm[i])
-          : returnLossAgainst(zinRe[i], zinIm[i], reference);
-    }
-    return out;
-  });
+  const report: SweepReport = {
+    get freqsHz() {
+      return settle(report, 'freqsHz', Array.from(freqs));
+    },
+    set freqsHz(value) {
+      settle(report, 'freqsHz', value);
+    },
+    nodes,
+    get zIn() {
+      return settle(report, 'zIn', { re: Array.from(zinRe), im: Array.from(zinIm) });
+    },
+    set zIn(value) {
+      settle(report, 'zIn', value);
+    },
+    get returnLossDb() {
+      const out = new Array<number>(P);
+      for (let i = 0; i < P; i++) {
+        out[i] =
+          reference === null
+            ? returnLossConjugate(zinRe[i], zinIm[i], zsrcRe[i], zsrcIm[i])
+            : returnLossAgainst(zinRe[i], zinIm[i], reference);
+      }
+      return settle(report, 'returnLossDb', out);
+    },
+    set returnLossDb(value) {
+      settle(report, 'returnLossDb', value);
+    },
+  };
   sources.set(report, { P, vRe, vIm, emf, freqs, zinRe, zinIm, vFinite, zinFinite });
   return report;
 }
