@@ -10,6 +10,7 @@ import {
   sweepColumns,
   sweepNanShares,
 } from '../../shared/engine/core/sweep-report';
+import fc from 'fast-check';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 const opts = { catalogue: TEST_CATALOGUE, sweep: true };
@@ -163,5 +164,47 @@ describe('sweepNanShares', () => {
     // A report that is not the engine's own (read back from columns) is counted from its arrays.
     const plain = JSON.parse(JSON.stringify(computed));
     expect(sweepNanShares(plain).zIn).toBe(0);
+  });
+
+  it('finds a single lost value wherever it lies, for any number of points (property)', () => {
+    // The copy tests finiteness in four interleaved sums and a tail: one non-finite value in
+    // any slot (or none) must show, in either part of a voltage or of the input impedance.
+    const lost = fc.constantFrom(NaN, Infinity, -Infinity);
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 13 }),
+        fc.nat(),
+        lost,
+        fc.constantFrom('vRe', 'vIm', 'zinRe', 'zinIm', 'none'),
+        (P, at, bad, where) => {
+          const rows = {
+            vRe: Float64Array.from({ length: P }, (_, i) => 1 + i),
+            vIm: Float64Array.from({ length: P }, (_, i) => -i),
+            zinRe: new Float64Array(P).fill(50),
+            zinIm: new Float64Array(P).fill(5),
+          };
+          if (where !== 'none') rows[where][at % P] = bad;
+          const na = {
+            points: P,
+            nodes: 1,
+            freqs: Float64Array.from({ length: P }, (_, i) => 1e6 + i),
+            emf: new Float64Array(P).fill(1),
+            ...rows,
+            zsrcRe: new Float64Array(P).fill(50),
+            zsrcIm: new Float64Array(P),
+          } as unknown as NodeAnalysis;
+          const built = { userNodeFlat: Int32Array.of(0), settings: {} } as unknown as BuiltChain;
+          const shares = sweepNanShares(lazySweepReport(built, na, 50));
+          const computed = lazySweepReport(built, na, 50);
+          const nanShare = (a: number[]) => a.filter(Number.isNaN).length / a.length;
+          expect(shares.stepUp).toEqual([nanShare(computed.nodes[0].stepUpDb)]);
+          expect(shares.zIn).toBe(Math.max(nanShare(computed.zIn.re), nanShare(computed.zIn.im)));
+          // An infinite part of Zin is no lost point; a NaN one is.
+          const zinLost = (where === 'zinRe' || where === 'zinIm') && Number.isNaN(bad);
+          expect(shares.zIn).toBe(zinLost ? 1 / P : 0);
+        },
+      ),
+      { numRuns: 500 },
+    );
   });
 });

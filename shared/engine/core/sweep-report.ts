@@ -90,17 +90,27 @@ function allFinite(values: Float64Array): boolean {
 }
 
 /**
- * Copies `from` into `to` and tells whether every value is finite, in the one pass: x·0 is 0
- * exactly for finite x and NaN otherwise, so the sum of them is 0 only when all are finite.
+ * Copies `from` into `to` (natively) and tells whether every value is finite: x·0 is 0
+ * exactly for finite x and NaN otherwise, so a sum of them is 0 only when all are finite.
+ * Four sums, each over every fourth value: one running sum waits for each addition before
+ * the next (a chain of additions twice as slow as the copy and the test together).
  */
 function copyAllFinite(from: Float64Array, to: Float64Array): boolean {
-  let lost = 0;
-  for (let i = 0; i < from.length; i++) {
-    const x = from[i];
-    to[i] = x;
-    lost += x * 0;
+  to.set(from);
+  const n = from.length;
+  let a = 0;
+  let b = 0;
+  let c = 0;
+  let d = 0;
+  let i = 0;
+  for (; i + 3 < n; i += 4) {
+    a += from[i] * 0;
+    b += from[i + 1] * 0;
+    c += from[i + 2] * 0;
+    d += from[i + 3] * 0;
   }
-  return lost === 0;
+  for (; i < n; i++) a += from[i] * 0;
+  return a + b + c + d === 0;
 }
 
 /** Share of the values that are NaN. */
