@@ -51,7 +51,11 @@ export function analyzeBuilt(
   const f0Hz = built.settings.f0Hz;
   const grid = frequencyGrid(built.settings.sweep);
   const f0Na = runNodeAnalysis(built, [f0Hz], sharedWorkspace('f0', built, 1));
-  const sweepNa = runNodeAnalysis(built, grid, sharedWorkspace('sweep', built, grid.length));
+  // The sweep's voltages are read at the user's nodes only (reports, selectivity, a coupled
+  // pair's peak at its stage's end): the others are carried through, not stored, so a long
+  // sweep writes and holds about half the voltages.
+  const sweepWs = sharedWorkspace('sweep', built, grid.length, { voltageAt: built.userNodeFlat });
+  const sweepNa = runNodeAnalysis(built, grid, sweepWs);
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
   // A branch to ground is judged as a trap; the resonances it alone makes are not tanks.

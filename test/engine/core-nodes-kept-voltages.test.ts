@@ -7,7 +7,16 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { buildChain, type BuiltChain } from '../../shared/engine/core/build';
-import { BLOCK, createNodeAnalysis, runNodeAnalysis, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
+import { BLOCK, createNodeAnalysis, runNodeAnalysis, sharedWorkspace, voltageRow, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
+import { analyzeBuilt } from '../../shared/engine/analyze';
+import { settleLoadLevel } from '../../shared/engine/core/load-level';
+import { sweepReport } from '../../shared/engine/core/reports';
+import {
+  analyzeSelectivity,
+  findMixer,
+  imageFrequency,
+} from '../../shared/engine/core/selectivity';
+import { frequencyGrid } from '../../shared/engine/core/sweep';
 import { defaultCatalogue } from '../../shared/engine/default-catalogue';
 import { chainDocumentSchema } from '../../shared/schema/chain';
 
@@ -114,5 +123,47 @@ describe('node analysis keeping some nodes’ voltages', () => {
     expect(() => createNodeAnalysis(built, 4, { voltageAt: [nodes] })).toThrow(RangeError);
     expect(() => createNodeAnalysis(built, 4, { voltageAt: [-1] })).toThrow(/not a node/);
     expect(() => createNodeAnalysis(built, 4, { voltageAt: [0.5] })).toThrow(/not a node/);
+  });
+});
+
+describe('kept voltages in a whole analysis', () => {
+  it('voltageRow: the node itself, its kept row, or a refusal', () => {
+    const built = builtOf('two-metre-coupled-preselector');
+    const nodes = built.sections.length + 1;
+    const all = createNodeAnalysis(built, 4);
+    expect(voltageRow(all, nodes - 1)).toBe(nodes - 1);
+    const some = createNodeAnalysis(built, 4, { voltageAt: [0, nodes - 1] });
+    expect(voltageRow(some, 0)).toBe(0);
+    expect(voltageRow(some, nodes - 1)).toBe(1);
+    expect(() => voltageRow(some, 1)).toThrow(/not kept/);
+  });
+
+  it('a shared workspace is reused only for the same kept nodes', () => {
+    const built = builtOf('shortwave-superhet-single-tank');
+    const user = Array.from(built.userNodeFlat);
+    const key = 'kept-voltages-test';
+    const a = sharedWorkspace(key, built, 50, { voltageAt: user });
+    expect(a.vRow).toBeDefined();
+    expect(sharedWorkspace(key, built, 50, { voltageAt: user })).toBe(a);
+    const other = sharedWorkspace(key, built, 50, { voltageAt: [0] });
+    expect(other).not.toBe(a);
+    expect(voltageRow(other, 0)).toBe(0);
+    const every = sharedWorkspace(key, built, 50);
+    expect(every.vRow).toBeUndefined();
+    expect(sharedWorkspace(key, built, 50, { voltageAt: user })).not.toBe(every);
+  });
+
+  it.each(keys)('%s: selectivity and sweep as from every node’s voltages', (key) => {
+    // The analysis keeps the sweep's voltages at the user's nodes only; what it reports must
+    // be what a node analysis keeping every node's gives.
+    const built = builtOf(key);
+    const result = analyzeBuilt(built);
+    const settled = settleLoadLevel(built);
+    const full = runNodeAnalysis(settled, frequencyGrid(settled.settings.sweep));
+    const image = imageFrequency(settled, findMixer(settled));
+    expect(result.selectivity).toEqual(analyzeSelectivity(settled, full, image));
+    expect(JSON.parse(JSON.stringify(result.sweep))).toEqual(
+      JSON.parse(JSON.stringify(sweepReport(settled, full))),
+    );
   });
 });

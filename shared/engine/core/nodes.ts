@@ -103,6 +103,19 @@ function voltageRows(nodes: number, voltageAt: ArrayLike<number>): Int32Array {
   return row;
 }
 
+/**
+ * The row of `node`'s voltage in `na.vRe`/`na.vIm` (index `row·points + i`): the node itself
+ * in a workspace that keeps every node's, else its kept row.
+ * @throws RangeError when the workspace does not keep that node's voltage
+ */
+export function voltageRow(na: NodeAnalysis, node: number): number {
+  const { vRow } = na;
+  if (!vRow) return node;
+  const row = vRow[node];
+  if (!(row >= 0)) throw new RangeError(`node ${node}'s voltage is not kept in this node analysis`);
+  return row;
+}
+
 /** Allocates a workspace for `points` frequencies; pass it back to reuse the arrays. */
 export function createNodeAnalysis(
   built: BuiltChain,
@@ -149,17 +162,33 @@ const kept = new Map<string, NodeAnalysis>();
  * analysis used for that key when its shape fits, so repeated analyses neither allocate nor
  * zero-fill their arrays. What it holds is valid until the next call with the same key.
  * Workspaces above 32 MiB are not kept (a one-off long sweep should not pin its memory).
+ * With `voltageAt` the workspace keeps those nodes' voltages only (one kept with other rows
+ * is not reused for it).
  */
-export function sharedWorkspace(key: string, built: BuiltChain, points: number): NodeAnalysis {
+export function sharedWorkspace(
+  key: string,
+  built: BuiltChain,
+  points: number,
+  options: NodeAnalysisOptions = {},
+): NodeAnalysis {
   const ws = kept.get(key);
-  if (ws && fitsWorkspace(ws, built, points)) return ws;
-  const fresh = createNodeAnalysis(built, points);
+  if (ws && fitsWorkspace(ws, built, points) && sameRows(ws, built, options.voltageAt)) return ws;
+  const fresh = createNodeAnalysis(built, points, options);
   if ((built.sections.length + 1) * points * 7 <= KEEP_DOUBLES) kept.set(key, fresh);
   else {
     kept.delete(key);
     oneOff.add(fresh);
   }
   return fresh;
+}
+
+/** Whether `ws` keeps exactly the voltages `voltageAt` asks for (every node's without it). */
+function sameRows(ws: NodeAnalysis, built: BuiltChain, voltageAt?: ArrayLike<number>): boolean {
+  if (!voltageAt) return !ws.vRow;
+  if (!ws.vRow) return false;
+  const want = voltageRows(built.sections.length + 1, voltageAt);
+  for (let n = 0; n < want.length; n++) if (want[n] !== ws.vRow[n]) return false;
+  return true;
 }
 
 /** Lets the kept workspaces go (before a process image is saved, e.g. a start-up snapshot). */

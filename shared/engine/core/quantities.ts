@@ -2,7 +2,7 @@
  * Quantities derived from a node analysis at one node and point: admittance, delivered and
  * available power, mismatch, reflection. All voltages are PEAK, so powers carry the ½.
  */
-import type { NodeAnalysis } from './nodes';
+import { voltageRow, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, hypot, log10 } = Math;
@@ -17,7 +17,7 @@ export function at(na: NodeAnalysis, node: number, i: number): number {
 
 /** |V| at a node, PEAK volts. */
 export function vMag(na: NodeAnalysis, node: number, i: number): number {
-  const k = node * na.points + i;
+  const k = voltageRow(na, node) * na.points + i;
   return hypot(na.vRe[k], na.vIm[k]);
 }
 
@@ -51,8 +51,9 @@ export function availablePower(na: NodeAnalysis, node: number, i: number): numbe
   const si = na.zsrcIm[k];
   const zr = na.zinRe[k];
   const zi = na.zinIm[k];
-  const vr = na.vRe[k];
-  const vi = na.vIm[k];
+  const kv = voltageRow(na, node) * na.points + i;
+  const vr = na.vRe[kv];
+  const vi = na.vIm[kv];
   if (open(sr, si) || !(sr > 0)) return NaN;
   let tr = vr;
   let ti = vi;

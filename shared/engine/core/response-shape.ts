@@ -8,7 +8,7 @@
  * points a search starts from are put in dB, by the same formula as before; a point within
  * rounding of a level is judged in dB, so the scan picks the brackets the dB grid picked.
  */
-import type { NodeAnalysis } from './nodes';
+import { voltageRow, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { stepUp } from './quantities';
 import { maximiseSmooth, solveBracketed } from './refine';
@@ -47,7 +47,7 @@ export function gridDb(na: NodeAnalysis, flat: number, i: number): number {
 /** |V|²/|Es|² at `flat` at every grid point of `na`, into out (length ≥ points). */
 export function stepUpPower(na: NodeAnalysis, flat: number, out: Float64Array): void {
   const { points: P, vRe, vIm, emf } = na;
-  const base = flat * P;
+  const base = voltageRow(na, flat) * P;
   for (let i = 0; i < P; i++) {
     const vr = vRe[base + i];
     const vi = vIm[base + i];
@@ -80,7 +80,7 @@ export function scanStepUpPower(
   scan: PowerScan,
 ): void {
   const { points: P, vRe, vIm, emf } = na;
-  const base = flat * P;
+  const base = voltageRow(na, flat) * P;
   let k = -1;
   let best = 0;
   let runMin = Infinity; // over the points before i

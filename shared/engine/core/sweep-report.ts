@@ -14,7 +14,7 @@
 import type { SweepReport } from '../types';
 import type { BuiltChain } from './build';
 import { hypot2 } from './hypot';
-import { isOneOffWorkspace, type NodeAnalysis } from './nodes';
+import { isOneOffWorkspace, voltageRow, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, abs, atan2, hypot, log10 } = Math;
@@ -224,9 +224,10 @@ export function lazySweepReport(
   const vIm: Float64Array[] = [];
   const vFinite: boolean[] = [];
   for (let n = 0; n < U; n++) {
-    vRe.push(checkedTrace(na.vRe, flats[n], 2 * n));
+    const row = voltageRow(na, flats[n]);
+    vRe.push(checkedTrace(na.vRe, row, 2 * n));
     const reFinite = finite;
-    vIm.push(checkedTrace(na.vIm, flats[n], 2 * n + 1));
+    vIm.push(checkedTrace(na.vIm, row, 2 * n + 1));
     vFinite.push(reFinite && finite);
   }
   const emf = trace(na.emf, 0, 2 * U);
