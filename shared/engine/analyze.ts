@@ -12,6 +12,7 @@ import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
 import { analyzeResonators } from './core/resonators';
+import type { ShapeMemo } from './core/response-shape';
 import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivity';
 import { frequencyGrid } from './core/sweep';
 import { defaultCatalogue } from './default-catalogue';
@@ -59,11 +60,13 @@ export function analyzeBuilt(
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
   // A branch to ground is judged as a trap; the resonances it alone makes are not tanks.
-  const findings = analyzeResonators(built, sweepNa).filter((r) => !isTrapResonance(built, r));
+  // A coupled pair's peak found on the sweep is the selectivity's at that node too.
+  const shapes: ShapeMemo = new Map();
+  const findings = analyzeResonators(built, sweepNa, shapes).filter((r) => !isTrapResonance(built, r)); // prettier-ignore
   const traps = judgeTraps(built, f0Na);
   const transmit = built.mode?.kind === 'transmit' ? analyseTransmit(built, f0Na) : undefined;
   const image = imageFrequency(built, findMixer(built));
-  const selectivity = analyzeSelectivity(built, sweepNa, image);
+  const selectivity = analyzeSelectivity(built, sweepNa, image, undefined, shapes);
   const flags = raiseFlags({ built, f0Na, resonators: findings });
   const levels = levelsReport(built, f0Na, stages);
   const plan = options.plan

@@ -2,7 +2,22 @@
  * Selectivity: image frequency and rejection (published examples IMG-1, IMG-3, each named at its check), −3 dB and −60 dB
  * bandwidths and shape factor of a single tank in closed form, offsets, a one-point sweep.
  */
+import { readFileSync } from 'node:fs';
+import path from 'node:path';
 import { analyzeChain } from '../../shared/engine/analyze';
+import { buildChain } from '../../shared/engine/core/build';
+import { settleLoadLevel } from '../../shared/engine/core/load-level';
+import { runNodeAnalysis } from '../../shared/engine/core/nodes';
+import { analyzeResonators } from '../../shared/engine/core/resonators';
+import type { ShapeMemo } from '../../shared/engine/core/response-shape';
+import {
+  analyzeSelectivity,
+  findMixer,
+  imageFrequency,
+} from '../../shared/engine/core/selectivity';
+import { frequencyGrid } from '../../shared/engine/core/sweep';
+import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
+import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 
 const rel = (a: number | null | undefined, b: number, tol: number) => {
@@ -109,5 +124,44 @@ describe('a one-point sweep', () => {
     expect(res.sweep?.freqsHz).toEqual([1e6]);
     expect(res.selectivity[1]).toMatchObject({ peakHz: 1e6, bw3dbHz: null, bw60dbHz: null });
     rel(res.resonators[0].loadedQ, 20, 1e-6);
+  });
+});
+
+describe('a coupled pair’s shape shared with the selectivity', () => {
+  // The pair's peak and −3 dB width at its output node are the selectivity's own searches
+  // there: found once on the sweep (analyzeResonators keeps the shape), read by the
+  // selectivity, and the same report as searching again.
+  it.each(['shortwave-superhet-coupled-pair', 'two-metre-coupled-preselector'])('%s', (key) => {
+    const file = path.join(__dirname, '..', '..', 'examples', `${key}.chain.json`);
+    const doc = parseChainDocument(JSON.parse(readFileSync(file, 'utf8')));
+    const built = settleLoadLevel(buildChain(doc, STAGE_DEFINITIONS));
+    const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+    const shapes: ShapeMemo = new Map();
+    const findings = analyzeResonators(built, sweepNa, shapes);
+    expect(findings.some((r) => r.pairPeakHz != null)).toBe(true);
+    const image = imageFrequency(built, findMixer(built));
+    const shared = analyzeSelectivity(built, sweepNa, image, undefined, shapes);
+    const user = Array.from(built.userNodeFlat);
+    // A kept shape is a user node's (a pair's output), so the selectivity did read it.
+    expect([...shapes.keys()].some((flat) => user.includes(flat))).toBe(true);
+    expect(shared).toEqual(analyzeSelectivity(built, sweepNa, image));
+    // A pair's peak is the selectivity's peak at its output node, to the bit.
+    for (const [flat, shape] of shapes) {
+      const n = user.indexOf(flat);
+      if (n >= 0) expect(shared[n].peakHz).toBe(shape.peak?.fHz ?? null);
+    }
+  });
+
+  it('keeps no shape found on a search grid other than the sweep', () => {
+    // Too few sweep points to bracket resonances: the resonators search a grid of their own.
+    const file = path.join(__dirname, '..', '..', 'examples', 'shortwave-superhet-coupled-pair.chain.json'); // prettier-ignore
+    const doc = parseChainDocument(JSON.parse(readFileSync(file, 'utf8')));
+    doc.settings.sweep.points = 101;
+    const built = settleLoadLevel(buildChain(doc, STAGE_DEFINITIONS));
+    const sweepNa = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+    const shapes: ShapeMemo = new Map();
+    const findings = analyzeResonators(built, sweepNa, shapes);
+    expect(findings.some((r) => r.pairPeakHz != null)).toBe(true);
+    expect(shapes.size).toBe(0);
   });
 });

@@ -29,10 +29,9 @@ import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
 import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
-import { locateEdge, locateGridPeak, scanStepUpPower, type PowerScan } from './response-shape';
+import { halfPowerShape, type ShapeMemo } from './response-shape';
 
 const isFiniteNumber = Number.isFinite;
-const HALF_POWER_DB = 10 * Math.log10(2);
 
 type ShuntDecl = ResonatorDecl & { kind: 'shunt' };
 
@@ -146,23 +145,19 @@ export function ownSusceptanceZero(
 /**
  * Where a pair peaks: the highest point of the voltage at its output node over the grid,
  * located by single-frequency evaluations, and its −3 dB width there (input Hz).
+ * @param memo where the shape found is kept for the selectivity of the same grid (when given)
  */
 export function pairPeak(
   built: BuiltChain,
   gridNa: NodeAnalysis,
   probe: Probe,
   stage: BuiltStage,
+  memo?: ShapeMemo,
 ): { peakHz: number; bandwidthHz: number | null } | null {
   const flat = stage.firstSection + stage.sectionCount;
-  const P = gridNa.points;
-  const power = new Float64Array(P);
-  const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
-  scanStepUpPower(gridNa, flat, power, scan);
-  const k = scan.k;
-  if (k < 0) return null;
-  const peak = locateGridPeak(probe, gridNa, flat, k);
-  const level = peak.db - HALF_POWER_DB;
-  const lo = locateEdge(probe, flat, gridNa, power, k, level, -1);
-  const hi = locateEdge(probe, flat, gridNa, power, k, level, 1);
+  const shape = halfPowerShape(probe, gridNa, flat);
+  memo?.set(flat, shape);
+  const { peak, lo, hi } = shape;
+  if (!peak) return null;
   return { peakHz: peak.fHz, bandwidthHz: lo && hi ? hi.fHz - lo.fHz : null };
 }

@@ -8,6 +8,7 @@ import type { BuiltChain } from './build';
 import type { OwnResonanceMemo } from './own-resonance';
 import type { NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
+import type { ShapeMemo } from './response-shape';
 import {
   attached,
   resonanceIn,
@@ -114,4 +115,6 @@ export interface Context {
   claims: Claim[];
   /** Elements' own resonances searched so far in this analysis. */
   own: OwnResonanceMemo;
+  /** Where a coupled pair's response shape is kept for the selectivity (gridNa is the sweep). */
+  shapes?: ShapeMemo;
 }

@@ -30,6 +30,7 @@ import { foundResonances, foundSeries } from './found-resonators';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { bracketingGrid } from './resonance-search';
+import type { ShapeMemo } from './response-shape';
 import {
   downstreamOf,
   locate,
@@ -136,7 +137,7 @@ function declaredPair(
   const { built, topo, gridNa, probe } = ctx;
   const end = stage.firstSection + stage.sectionCount;
   for (let n = stage.firstSection; n <= end; n++) claimed.add(topo.group[n]);
-  const peak = pairPeak(built, gridNa, probe, stage);
+  const peak = pairPeak(built, gridNa, probe, stage, ctx.shapes);
   const segment = topo.segment[end];
   let peakLocal: number | null = null;
   if (peak) {
@@ -178,14 +179,18 @@ function declaredPair(
  * Analyses every resonator the stages declare and every one the network shows.
  * @param sweepNa the sweep's node analysis, reused to bracket resonances when it spans the
  *   search range with enough points (else a search grid is analysed)
+ * @param shapes where a coupled pair's response shape is kept when found on `sweepNa`
  */
 export function analyzeResonators(
   built: BuiltChain,
   sweepNa: NodeAnalysis | null = null,
+  shapes?: ShapeMemo,
 ): ResonatorFinding[] {
   const topo = chainTopology(built);
   const gridNa = bracketingGrid(built, sweepNa, (f) => runNodeAnalysis(built, f));
   const ctx: Context = { built, topo, gridNa, probe: createProbe(built), claims: [], own: new Map() }; // prettier-ignore
+  // Shapes found on the sweep itself are the selectivity's too; a search grid's are not.
+  if (shapes && gridNa === sweepNa) ctx.shapes = shapes;
   const claimed = new Set<number>();
   const declared: ResonatorFinding[] = [];
   for (const stage of built.twoPorts) {

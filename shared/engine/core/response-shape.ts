@@ -212,3 +212,40 @@ export function locateEdge(
   }
   return null;
 }
+
+/** The "−3 dB" level below a peak: the half-power points, 10·log10(2) dB down. */
+export const HALF_POWER_DB = 10 * log10(2);
+
+/**
+ * A node's response over a grid as far as its half-power edges: the scan's power ratios and
+ * what the scan learnt, the located peak (null when no grid point has a finite, positive
+ * power) and the edges half a power below it either side.
+ */
+export interface HalfPowerShape {
+  power: Float64Array;
+  scan: PowerScan;
+  peak: Peak | null;
+  lo: Edge | null;
+  hi: Edge | null;
+}
+
+/**
+ * The shapes found over one node analysis's grid, by flat node: a coupled pair's peak and
+ * width and the selectivity at its output node are the same searches, so the second reads
+ * the first's (valid for the one analysis that made them).
+ */
+export type ShapeMemo = Map<number, HalfPowerShape>;
+
+/** Scans `flat` over the grid of `na`, locates its peak and its half-power edges. */
+export function halfPowerShape(probe: Probe, na: NodeAnalysis, flat: number): HalfPowerShape {
+  const power = new Float64Array(na.points);
+  const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
+  scanStepUpPower(na, flat, power, scan);
+  const k = scan.k;
+  if (k < 0) return { power, scan, peak: null, lo: null, hi: null };
+  const peak = locateGridPeak(probe, na, flat, k);
+  const level = peak.db - HALF_POWER_DB;
+  const lo = locateEdge(probe, flat, na, power, k, level, -1);
+  const hi = locateEdge(probe, flat, na, power, k, level, 1);
+  return { power, scan, peak, lo, hi };
+}

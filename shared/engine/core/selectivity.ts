@@ -12,14 +12,16 @@ import {
   dbAt,
   locateEdge,
   locateGridPeak,
+  HALF_POWER_DB,
   mayFallScanned,
   scanStepUpPower,
   toDb,
   type PowerScan,
+  type ShapeMemo,
 } from './response-shape';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
-const { abs, log10 } = Math;
+const { abs } = Math;
 const isFiniteNumber = Number.isFinite;
 
 /** The first frequency-translating section of a chain and its local oscillator. */
@@ -78,8 +80,6 @@ export function imageFrequency(built: BuiltChain, mixer: MixerInfo | null): numb
   return img > 0 && abs(img - mixer.fInHz) > 1e-9 * mixer.fInHz ? img : null;
 }
 
-/** The "−3 dB" points are the half-power points, 10·log10(2) = 3.0103 dB down (common practice). */
-const HALF_POWER_DB = 10 * log10(2);
 /**
  * A −60 dB width is stated only when the response goes on falling through −60 dB: on each
  * side, half as far again from the peak as its −60 dB edge (in log frequency), it must be
@@ -98,12 +98,15 @@ export const FLOOR_MARGIN_DB = 3;
  * @param imageHz image frequency at the input (null without a mixer)
  * @param only the one user-level node to report (a study's judged node) without its −60 dB
  *   width and depth (null there), else every node in full
+ * @param shapes shapes already found on `sweepNa` in this analysis, by flat node (a coupled
+ *   pair's output: resonators.ts), read instead of searched again
  */
 export function analyzeSelectivity(
   built: BuiltChain,
   sweepNa: NodeAnalysis,
   imageHz: number | null,
   only?: number,
+  shapes?: ShapeMemo,
 ): SelectivityReport[] {
   const { f0Hz, offsetsHz } = built.settings;
   // Exact points: f0, each offset below and above, and the image.
@@ -119,22 +122,27 @@ export function analyzeSelectivity(
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     if (only !== undefined && n !== only) continue;
     const flat = built.userNodeFlat[n];
+    // A coupled pair's peak and width at this node are these very searches (resonators.ts):
+    // its shape is read instead of found again.
+    const known = shapes?.get(flat);
     // One pass: the powers, the grid peak, and whether either side may reach −60 dB.
-    scanStepUpPower(sweepNa, flat, power, scan);
-    const k = scan.k;
-    const peak = k >= 0 ? locateGridPeak(probe, sweepNa, flat, k) : null;
+    if (!known) scanStepUpPower(sweepNa, flat, power, scan);
+    const nodePower = known ? known.power : power;
+    const nodeScan = known ? known.scan : scan;
+    const k = nodeScan.k;
+    const peak = known ? known.peak : k >= 0 ? locateGridPeak(probe, sweepNa, flat, k) : null;
     let e3: [number, number] | null = null;
     let e60: [number, number] | null = null;
     let deepest: number | null = null;
     if (peak && P > 2) {
-      const lo3 = locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, -1);
-      const hi3 = locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, 1);
+      const lo3 = known ? known.lo : locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, -1); // prettier-ignore
+      const hi3 = known ? known.hi : locateEdge(probe, flat, sweepNa, power, k, peak.db - HALF_POWER_DB, 1); // prettier-ignore
       e3 = lo3 && hi3 ? [lo3.fHz, hi3.fHz] : null;
       const deep = only === undefined;
       // A −60 dB width needs both edges: the second is looked for only when the first exists.
       const at60 = peak.db - 60;
-      const lo60 = deep && mayFallScanned(scan, at60, -1) ? locateEdge(probe, flat, sweepNa, power, k, at60, -1) : null; // prettier-ignore
-      const hi60 = lo60 && mayFallScanned(scan, at60, 1) ? locateEdge(probe, flat, sweepNa, power, k, at60, 1) : null; // prettier-ignore
+      const lo60 = deep && mayFallScanned(nodeScan, at60, -1) ? locateEdge(probe, flat, sweepNa, nodePower, k, at60, -1) : null; // prettier-ignore
+      const hi60 = lo60 && mayFallScanned(nodeScan, at60, 1) ? locateEdge(probe, flat, sweepNa, nodePower, k, at60, 1) : null; // prettier-ignore
       if (lo60 && hi60) {
         const fp = peak.fHz;
         const further = Math.max(
