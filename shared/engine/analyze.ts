@@ -38,6 +38,17 @@ export interface AnalyzeOptions extends BuildOptions {
    * they match the figures the user reads elsewhere.
    */
   figures?: number;
+  /** Filled in with how long the sweep's solve took (see `analyzeBuilt`). */
+  clock?: SolveClock;
+}
+
+/**
+ * The sweep's solve alone (the node analysis: every node's voltage and impedance at every
+ * point, what a circuit simulator's AC analysis computes), ms; set when the analysis ran,
+ * for a caller that reports it beside the whole analysis (the CLI's --timing).
+ */
+export interface SolveClock {
+  solveMs?: number;
 }
 
 /**
@@ -46,7 +57,12 @@ export interface AnalyzeOptions extends BuildOptions {
  */
 export function analyzeBuilt(
   builtAsGiven: BuiltChain,
-  options: { sweep?: boolean; plan?: boolean | 'full'; tuning?: GangTuning | null } = {},
+  options: {
+    sweep?: boolean;
+    plan?: boolean | 'full';
+    tuning?: GangTuning | null;
+    clock?: SolveClock;
+  } = {},
 ): AnalysisResult {
   const built = settleLoadLevel(builtAsGiven);
   const f0Hz = built.settings.f0Hz;
@@ -56,7 +72,9 @@ export function analyzeBuilt(
   // pair's peak at its stage's end): the others are carried through, not stored, so a long
   // sweep writes and holds about half the voltages.
   const sweepWs = sharedWorkspace('sweep', built, grid.length, { voltageAt: built.userNodeFlat });
+  const solveStarted = options.clock ? performance.now() : 0;
   const sweepNa = runNodeAnalysis(built, grid, sweepWs);
+  if (options.clock) options.clock.solveMs = performance.now() - solveStarted;
   const nodes = nodeReports(built, f0Na);
   const stages = stageReports(built, f0Na);
   // A branch to ground is judged as a trap; the resonances it alone makes are not tanks.

@@ -3,7 +3,13 @@
  * benchmark; the client imports only its types). Import from here rather than from the
  * modules behind it.
  */
-export { analyzeChain, analyzeBuilt, ENGINE_VERSION, type AnalyzeOptions } from './analyze';
+export {
+  analyzeChain,
+  analyzeBuilt,
+  ENGINE_VERSION,
+  type AnalyzeOptions,
+  type SolveClock,
+} from './analyze';
 export {
   buildChain,
   stageName,
