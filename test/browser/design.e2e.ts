@@ -83,9 +83,13 @@ describe('design tools', () => {
     expect(text).toMatch(/→ 22[78]/);
     await shot(page, 'design-01-tune');
     await page.getByTestId('tune-apply').click();
-    await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(true);
-    await page.getByRole('button', { name: 'Undo' }).click();
-    await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(false);
+    const undo = page.getByRole('button', { name: 'Undo' });
+    // The edit lands in the history when the editor takes it (a tick after the click on a
+    // loaded machine): wait for the button's state, never read it once.
+    await waitUntil(() => undo.isEnabled(), 'Undo enabled after the tuned value was applied');
+    await undo.click();
+    // One undo empties the history: the tuning was a single edit.
+    await waitUntil(async () => !(await undo.isEnabled()), 'Undo disabled after one undo');
 
     // The pass-band peak after the link (node 3) on 7.0 MHz instead of the resonance.
     await page.getByTestId('tune-what').selectOption('3');
@@ -174,7 +178,8 @@ describe('design tools', () => {
     expect(await page.getByTestId('snap-after-gain').innerText()).toMatch(/dB/);
     await shot(page, 'design-03-snap');
     await page.getByTestId('snap-apply').click();
-    await expect(page.getByRole('button', { name: 'Undo' }).isEnabled()).resolves.toBe(true);
+    const undo = page.getByRole('button', { name: 'Undo' });
+    await waitUntil(() => undo.isEnabled(), 'Undo enabled after the snapped values were applied');
   });
 
   it('matches the short whip into the 1 kΩ node with one click, saves a variant and compares it', async () => {
