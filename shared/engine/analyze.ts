@@ -11,10 +11,11 @@ import { withMessageFigures } from './core/format';
 import { settleLoadLevel } from './core/load-level';
 import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
 import { levelsReport, nodeReports, stageReports, sweepReport } from './core/reports';
-import { analyzeResonators } from './core/resonators';
+import { analyzeResonators, resonatorNodes } from './core/resonators';
 import type { ShapeMemo } from './core/response-shape';
 import { analyzeSelectivity, findMixer, imageFrequency } from './core/selectivity';
 import { frequencyGrid } from './core/sweep';
+import { chainTopology, type Topology } from './core/topology';
 import { defaultCatalogue } from './default-catalogue';
 import { planChain, planFlags } from './planning';
 import { gangTuningOf, type GangTuning } from './planning/spur-chart-gang';
@@ -52,6 +53,15 @@ export interface SolveClock {
 }
 
 /**
+ * The nodes whose frequency and impedances the analysis reads from its sweep: the chain's
+ * input (the sweep report's Zin and return loss) and the resonators' (`resonatorNodes`).
+ */
+export function sweepImpedanceNodes(built: BuiltChain, topo: Topology = chainTopology(built)): number[] {
+  const nodes = resonatorNodes(built, topo);
+  return nodes[0] === 0 ? nodes : [0, ...nodes];
+}
+
+/**
  * Analyses an already built chain (for callers that build once and analyse many times).
  * @throws ChainValidationError when a figure every chain has is not finite (finite-figures.ts)
  */
@@ -69,9 +79,14 @@ export function analyzeBuilt(
   const grid = frequencyGrid(built.settings.sweep);
   const f0Na = runNodeAnalysis(built, [f0Hz], sharedWorkspace('f0', built, 1));
   // The sweep's voltages are read at the user's nodes only (reports, selectivity, a coupled
-  // pair's peak at its stage's end): the others are carried through, not stored, so a long
-  // sweep writes and holds about half the voltages.
-  const sweepWs = sharedWorkspace('sweep', built, grid.length, { voltageAt: built.userNodeFlat });
+  // pair's peak at its stage's end), its frequencies and impedances at the input (the sweep
+  // report) and where the resonators are searched: the others are carried through, not
+  // stored, so a long sweep writes and holds about half of each.
+  const topo = chainTopology(built);
+  const sweepWs = sharedWorkspace('sweep', built, grid.length, {
+    voltageAt: built.userNodeFlat,
+    impedanceAt: sweepImpedanceNodes(built, topo),
+  });
   const solveStarted = options.clock ? performance.now() : 0;
   const sweepNa = runNodeAnalysis(built, grid, sweepWs);
   if (options.clock) options.clock.solveMs = performance.now() - solveStarted;
@@ -80,7 +95,7 @@ export function analyzeBuilt(
   // A branch to ground is judged as a trap; the resonances it alone makes are not tanks.
   // A coupled pair's peak found on the sweep is the selectivity's at that node too.
   const shapes: ShapeMemo = new Map();
-  const findings = analyzeResonators(built, sweepNa, shapes).filter((r) => !isTrapResonance(built, r)); // prettier-ignore
+  const findings = analyzeResonators(built, sweepNa, shapes, topo).filter((r) => !isTrapResonance(built, r)); // prettier-ignore
   const traps = judgeTraps(built, f0Na);
   const transmit = built.mode?.kind === 'transmit' ? analyseTransmit(built, f0Na) : undefined;
   const image = imageFrequency(built, findMixer(built));

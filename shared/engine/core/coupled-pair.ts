@@ -51,6 +51,23 @@ export interface CoupledTankFigures {
 
 const nn = (x: number | undefined) => (x === undefined || Number.isNaN(x) ? null : x);
 
+/** The flat node of a pair's tank: the stage's first for the first tank, else its last. */
+export function pairTankFlat(stage: BuiltStage, decl: ShuntDecl): number {
+  return decl.coupledPartner === 'downstream'
+    ? stage.firstSection
+    : stage.firstSection + stage.sectionCount;
+}
+
+/**
+ * Whether a section before `flat` changes frequency: a pair's tank there is searched on the
+ * grid's node analysis (its Zsrc, Zin and frequency at `flat`), else on its own susceptance.
+ */
+export function translatedBefore(built: BuiltChain, flat: number): boolean {
+  let translated = false;
+  for (let j = 0; j < flat; j++) translated ||= !!built.sections[j].translate;
+  return translated;
+}
+
 /**
  * One tank of a pair.
  * @param memo the analysis's own-resonance answers so far: both tanks are usually one element
@@ -64,7 +81,7 @@ export function coupledTank(
   memo?: OwnResonanceMemo,
 ): CoupledTankFigures {
   const first = decl.coupledPartner === 'downstream';
-  const flat = first ? stage.firstSection : stage.firstSection + stage.sectionCount;
+  const flat = pairTankFlat(stage, decl);
   const grid = gridNa.freqs;
   const f0 = built.settings.f0Hz;
   const own = decl.ownAdmittance;
@@ -72,8 +89,7 @@ export function coupledTank(
     coupledExtract(flat, own, true, true, false),
     coupledExtract(flat, own, true, false, first),
   ];
-  let translated = false;
-  for (let j = 0; j < flat; j++) translated ||= !!built.sections[j].translate;
+  const translated = translatedBefore(built, flat);
   // The extracts read Zsrc, Zin and the frequency at the tank's node only.
   const at = probePointEval(probe, flat);
   const [att, det] = translated

@@ -10,7 +10,7 @@
  */
 import type { ComplexFn } from '../types';
 import type { BuiltChain } from './build';
-import type { NodeAnalysis } from './nodes';
+import { impedanceRow, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { nearestRisingOutward } from './nearest-crossing';
 import { solveBracketed } from './refine';
@@ -193,7 +193,7 @@ function addInverse(re: number, im: number, out: Float64Array, o: number): void 
 
 export function shuntExtract(node: number, downstream: boolean): Extract {
   return (na, i, out) => {
-    const k = node * na.points + i;
+    const k = impedanceRow(na, node) * na.points + i;
     out[0] = 0;
     out[1] = 0;
     addInverse(na.zsrcRe[k], na.zsrcIm[k], out, 0);
@@ -218,7 +218,7 @@ export function coupledExtract(
 ): Extract {
   const y = new Float64Array(2);
   return (na, i, out) => {
-    const k = node * na.points + i;
+    const k = impedanceRow(na, node) * na.points + i;
     out[0] = 0;
     out[1] = 0;
     if (withSource) addInverse(na.zsrcRe[k], na.zsrcIm[k], out, 0);
@@ -255,7 +255,7 @@ export function seriesLoopOnGrid(
   const series = m[0] === 1 && m[1] === 0 && m[4] === 0 && m[5] === 0 && m[6] === 1 && m[7] === 0; // prettier-ignore
   if (!series) return null;
   const P = na.points;
-  const base = section * P;
+  const base = impedanceRow(na, section) * P;
   const imag = new Float64Array(P);
   for (let i = 0; i < P; i++) imag[i] = na.zsrcIm[base + i] + na.zinIm[base + i];
   return { imag, local: na.fNode.subarray(base, base + P) };
@@ -278,8 +278,8 @@ export function seriesExtract(built: BuiltChain, section: number): Extract {
   let gm = new Float64Array(0);
   let filled = new Uint8Array(0);
   return (na, i, out) => {
-    const kIn = section * na.points + i;
-    const kOut = kIn + na.points;
+    const kIn = impedanceRow(na, section) * na.points + i;
+    const kOut = impedanceRow(na, section + 1) * na.points + i;
     let mm = m;
     let o = 0;
     if (na.points === 1) sec.abcd(na.fNode[kIn], m, 0);
@@ -293,7 +293,7 @@ export function seriesExtract(built: BuiltChain, section: number): Extract {
       if (!filled[c]) {
         const from = c * SERIES_CHUNK;
         const n = Math.min(SERIES_CHUNK, na.points - from);
-        sec.fill(na.fNode, section * na.points + from, n, gm, 8 * from);
+        sec.fill(na.fNode, impedanceRow(na, section) * na.points + from, n, gm, 8 * from);
         filled[c] = 1;
       }
       mm = gm;

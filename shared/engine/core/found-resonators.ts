@@ -27,7 +27,42 @@ import {
   type ResonatorFinding,
 } from './resonator-context';
 import { shuntFigures, type ShuntFigures } from './shunt-tank';
-import { owningStage } from './topology';
+import { owningStage, type Topology } from './topology';
+import type { BuiltChain } from './build';
+
+/**
+ * The nodes {@link foundResonances} scans for a rising susceptance: one per electrical node,
+ * not claimed by a coupled pair, not owned by a matching network or a filter.
+ */
+export function shuntScanNodes(
+  built: BuiltChain,
+  topo: Topology,
+  claimed: ReadonlySet<number>,
+): number[] {
+  const out: number[] = [];
+  for (let n = 0; n < built.sections.length + 1; n++) {
+    if (topo.group[n] !== n || claimed.has(n)) continue;
+    const category = owningStage(built, topo, n).definition.category;
+    if (category === 'matching' || category === 'filter') continue;
+    out.push(n);
+  }
+  return out;
+}
+
+/**
+ * The nodes {@link foundSeries} scans for a rising loop reactance: the first section of each
+ * run of series sections (given by `series`) not owned by a matching network or a filter.
+ */
+export function seriesScanNodes(built: BuiltChain, topo: Topology, series: Uint8Array): number[] {
+  const out: number[] = [];
+  for (let n = 0; n < series.length; n++) {
+    if (!series[n] || (n > 0 && series[n - 1])) continue;
+    const category = built.twoPorts[topo.stageOf[n]].definition.category;
+    if (category === 'matching' || category === 'filter') continue;
+    out.push(n);
+  }
+  return out;
+}
 
 /**
  * Resonances the network shows that no declared resonator covers. A found resonance is a
@@ -49,10 +84,7 @@ export function foundResonances(ctx: Context, claimed: Set<number>): ResonatorFi
     },
     (claim) => ctx.claims.some((k) => sameMode(k, claim)),
   );
-  for (let n = 0; n < probe.nodes; n++) {
-    if (topo.group[n] !== n || claimed.has(n)) continue;
-    const category = owningStage(built, topo, n).definition.category;
-    if (category === 'matching' || category === 'filter') continue;
+  for (const n of shuntScanNodes(built, topo, claimed)) {
     for (const b of risingCrossings(gridNa, n)) {
       const res = locate(gridNa, probe, n, b);
       if (!res || !(res.q > 0) || !(res.g > 0)) continue;
@@ -96,10 +128,7 @@ export function foundSeries(ctx: Context): ResonatorFinding[] {
   const series = seriesSections(built);
   const candidates: SeriesCandidate[] = [];
   let unloaded: Probe | null = null;
-  for (let n = 0; n < series.length; n++) {
-    if (!series[n] || (n > 0 && series[n - 1])) continue;
-    const category = built.twoPorts[topo.stageOf[n]].definition.category;
-    if (category === 'matching' || category === 'filter') continue;
+  for (const n of seriesScanNodes(built, topo, series)) {
     for (const b of risingLoopCrossings(gridNa, n)) {
       const res = locateSeries(gridNa, probe, n, b);
       if (!res || !(res.q > 0) || !(res.g > 0)) continue;

@@ -32,7 +32,7 @@ import {
   type Bracket,
   type NodeResonance,
 } from './resonance-search';
-import type { NodeAnalysis } from './nodes';
+import { impedanceRow, type NodeAnalysis } from './nodes';
 
 const isFiniteNumber = Number.isFinite;
 const abs = Math.abs;
@@ -79,7 +79,7 @@ export function shortedAt(built: BuiltChain, cut: number): AdmittanceOf {
 /** Every rising crossing of the loop reactance at `node` over the grid. */
 export function risingLoopCrossings(na: NodeAnalysis, node: number): Bracket[] {
   const out: Bracket[] = [];
-  const base = node * na.points;
+  const base = impedanceRow(na, node) * na.points;
   const x = (i: number) => na.zsrcIm[base + i] + na.zinIm[base + i];
   const r = (i: number) => na.zsrcRe[base + i] + na.zinRe[base + i];
   for (let i = 0; i + 1 < na.points; i++) {

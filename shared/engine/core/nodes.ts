@@ -75,6 +75,20 @@ export interface NodeAnalysis {
   /** Scratch of the run: one block of voltages at a node whose row is not kept (re, im). */
   blockVRe?: Float64Array;
   blockVIm?: Float64Array;
+  /**
+   * Row of each node's frequency and impedances in fNode, zinRe/zinIm and zsrcRe/zsrcIm, −1
+   * for a node whose are not kept; absent when every node has its row (row = node).
+   */
+  zRow?: Int32Array;
+  /**
+   * Scratch of the run with `zRow`: every node's frequency and impedances for one block of
+   * points (index `node·BLOCK + k`), from where the kept rows are copied.
+   */
+  blockF?: Float64Array;
+  blockZinRe?: Float64Array;
+  blockZinIm?: Float64Array;
+  blockZsrcRe?: Float64Array;
+  blockZsrcIm?: Float64Array;
 }
 
 /** What a workspace keeps beyond what every analysis needs. */
@@ -86,15 +100,22 @@ export interface NodeAnalysisOptions {
    * reader needs the voltage at a few nodes does not write, nor hold, it at every other.
    */
   voltageAt?: ArrayLike<number>;
+  /**
+   * The flat nodes whose frequency (fNode) and impedances (Zin, Zsrc) are kept (default:
+   * every node). They are still worked out at every node, the same numbers as without the
+   * option, in a scratch of one block of points, but only these nodes' rows are stored, in
+   * ascending node order (`zRow` says where; read them through {@link impedanceRow}).
+   */
+  impedanceAt?: ArrayLike<number>;
 }
 
-/** Each node's voltage row: the nodes listed, in ascending order, once each. */
-function voltageRows(nodes: number, voltageAt: ArrayLike<number>): Int32Array {
+/** Each node's row: the nodes listed, in ascending order, once each. */
+function voltageRows(nodes: number, voltageAt: ArrayLike<number>, name = 'voltageAt'): Int32Array {
   const row = new Int32Array(nodes).fill(-1);
   for (let k = 0; k < voltageAt.length; k++) {
     const n = voltageAt[k];
     if (!Number.isInteger(n) || n < 0 || n >= nodes) {
-      throw new RangeError(`voltageAt: ${n} is not a node of this chain (0 … ${nodes - 1})`);
+      throw new RangeError(`${name}: ${n} is not a node of this chain (0 … ${nodes - 1})`);
     }
     row[n] = 0;
   }
@@ -116,6 +137,29 @@ export function voltageRow(na: NodeAnalysis, node: number): number {
   return row;
 }
 
+/**
+ * The row of `node`'s frequency and impedances in `na.fNode`, `na.zinRe`/`zinIm` and
+ * `na.zsrcRe`/`zsrcIm` (index `row·points + i`): the node itself in a workspace that keeps
+ * every node's, else its kept row.
+ * @throws RangeError when the workspace does not keep that node's impedances
+ */
+export function impedanceRow(na: { zRow?: Int32Array }, node: number): number {
+  const { zRow } = na;
+  if (!zRow) return node;
+  const row = zRow[node];
+  if (!(row >= 0)) {
+    throw new RangeError(`node ${node}'s impedances are not kept in this node analysis`);
+  }
+  return row;
+}
+
+/** Rows kept of `nodes` by a row map (all without one). */
+function keptRows(nodes: number, map: Int32Array | undefined): number {
+  let rows = nodes;
+  if (map) for (let n = 0; n < nodes; n++) if (map[n] < 0) rows--;
+  return rows;
+}
+
 /** Allocates a workspace for `points` frequencies; pass it back to reuse the arrays. */
 export function createNodeAnalysis(
   built: BuiltChain,
@@ -125,19 +169,20 @@ export function createNodeAnalysis(
   const nodes = built.sections.length + 1;
   const size = nodes * points;
   const block = Math.min(points, BLOCK);
-  const { voltageAt } = options;
+  const { voltageAt, impedanceAt } = options;
   const vRow = voltageAt ? voltageRows(nodes, voltageAt) : undefined;
-  let rows = nodes;
-  if (vRow) for (let n = 0; n < nodes; n++) if (vRow[n] < 0) rows--;
+  const zRow = impedanceAt ? voltageRows(nodes, impedanceAt, 'impedanceAt') : undefined;
+  const rows = keptRows(nodes, vRow);
+  const zSize = keptRows(nodes, zRow) * points;
   const na: NodeAnalysis = {
     points,
     nodes,
     freqs: new Float64Array(points),
-    fNode: new Float64Array(size),
-    zinRe: new Float64Array(size),
-    zinIm: new Float64Array(size),
-    zsrcRe: new Float64Array(size),
-    zsrcIm: new Float64Array(size),
+    fNode: new Float64Array(zSize),
+    zinRe: new Float64Array(zSize),
+    zinIm: new Float64Array(zSize),
+    zsrcRe: new Float64Array(zSize),
+    zsrcIm: new Float64Array(zSize),
     vRe: new Float64Array(rows * points),
     vIm: new Float64Array(rows * points),
     emf: new Float64Array(points),
@@ -149,6 +194,14 @@ export function createNodeAnalysis(
     // A node whose voltage is not kept passes it on to the next through this scratch.
     na.blockVRe = new Float64Array(block);
     na.blockVIm = new Float64Array(block);
+  }
+  if (zRow) {
+    na.zRow = zRow;
+    na.blockF = new Float64Array(nodes * block);
+    na.blockZinRe = new Float64Array(nodes * block);
+    na.blockZinIm = new Float64Array(nodes * block);
+    na.blockZsrcRe = new Float64Array(nodes * block);
+    na.blockZsrcIm = new Float64Array(nodes * block);
   }
   return na;
 }
@@ -172,7 +225,14 @@ export function sharedWorkspace(
   options: NodeAnalysisOptions = {},
 ): NodeAnalysis {
   const ws = kept.get(key);
-  if (ws && fitsWorkspace(ws, built, points) && sameRows(ws, built, options.voltageAt)) return ws;
+  if (
+    ws &&
+    fitsWorkspace(ws, built, points) &&
+    sameRows(ws.vRow, built, options.voltageAt) &&
+    sameRows(ws.zRow, built, options.impedanceAt)
+  ) {
+    return ws;
+  }
   const fresh = createNodeAnalysis(built, points, options);
   if ((built.sections.length + 1) * points * 7 <= KEEP_DOUBLES) kept.set(key, fresh);
   else {
@@ -182,12 +242,12 @@ export function sharedWorkspace(
   return fresh;
 }
 
-/** Whether `ws` keeps exactly the voltages `voltageAt` asks for (every node's without it). */
-function sameRows(ws: NodeAnalysis, built: BuiltChain, voltageAt?: ArrayLike<number>): boolean {
-  if (!voltageAt) return !ws.vRow;
-  if (!ws.vRow) return false;
-  const want = voltageRows(built.sections.length + 1, voltageAt);
-  for (let n = 0; n < want.length; n++) if (want[n] !== ws.vRow[n]) return false;
+/** Whether a workspace's row map keeps exactly the nodes `at` asks for (every node without it). */
+function sameRows(map: Int32Array | undefined, built: BuiltChain, at?: ArrayLike<number>): boolean {
+  if (!at) return !map;
+  if (!map) return false;
+  const want = voltageRows(built.sections.length + 1, at);
+  for (let n = 0; n < want.length; n++) if (want[n] !== map[n]) return false;
   return true;
 }
 
@@ -261,45 +321,58 @@ export function runNodeAnalysis(
   return na;
 }
 
-/** The node analysis of points i0 … i0+n−1 (n ≤ BLOCK). */
+/**
+ * The node analysis of points i0 … i0+n−1 (n ≤ BLOCK). Frequencies and impedances are worked
+ * out in the result arrays themselves (index `node·P + i`), or, in a workspace that keeps
+ * only some nodes' (zRow), in the block's scratch (index `node·B + k`), from where the kept
+ * rows are then copied: the same loops over other places.
+ */
 function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): void {
   const P = na.points;
   const N = built.sections.length;
-  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm, vRe, vIm, emf, blockAbcd: m, blockPair: t } = na;
+  const { vRe, vIm, emf, blockAbcd: m, blockPair: t, zRow } = na;
   const sections = built.sections;
   const B = m.length / (8 * N || 1);
+  // Where node 0's point i0 is (s0) and the step from one node to the next (S).
+  const fNode = zRow ? na.blockF! : na.fNode;
+  const zinRe = zRow ? na.blockZinRe! : na.zinRe;
+  const zinIm = zRow ? na.blockZinIm! : na.zinIm;
+  const zsrcRe = zRow ? na.blockZsrcRe! : na.zsrcRe;
+  const zsrcIm = zRow ? na.blockZsrcIm! : na.zsrcIm;
+  const s0 = zRow ? 0 : i0;
+  const S = zRow ? B : P;
 
   // Frequencies at every node and every section's ABCD at the frequency at its input. The
   // input frequencies are copied by a loop: a subarray to copy from would be an object made
   // per block, and a run with a reused workspace allocates nothing.
   const freqs = na.freqs;
-  for (let k = i0; k < i0 + n; k++) fNode[k] = freqs[k];
+  for (let k = 0; k < n; k++) fNode[s0 + k] = freqs[i0 + k];
   for (let j = 0; j < N; j++) {
     const s = sections[j];
-    const at = j * P + i0;
+    const at = j * S + s0;
     s.fill(fNode, at, n, m, 8 * j * B);
     const tr = s.translate;
     // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
     // open circuit and its matrix infinite; evaluate such a point at 1 mHz instead.
-    if (tr) for (let k = 0; k < n; k++) fNode[at + P + k] = max(tr(fNode[at + k]), MIN_NODE_HZ);
-    else fNode.copyWithin(at + P, at, at + n);
+    if (tr) for (let k = 0; k < n; k++) fNode[at + S + k] = max(tr(fNode[at + k]), MIN_NODE_HZ);
+    else fNode.copyWithin(at + S, at, at + n);
   }
 
   // Backward pass, load → source.
-  fillComplex(built.load.model.impedance, fNode, N * P + i0, n, t);
+  fillComplex(built.load.model.impedance, fNode, N * S + s0, n, t);
   for (let k = 0; k < n; k++) {
-    zinRe[N * P + i0 + k] = t[2 * k];
-    zinIm[N * P + i0 + k] = t[2 * k + 1];
+    zinRe[N * S + s0 + k] = t[2 * k];
+    zinIm[N * S + s0 + k] = t[2 * k + 1];
   }
-  for (let j = N - 1; j >= 0; j--) backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+  for (let j = N - 1; j >= 0; j--) backSection(m, 8 * j * B, zinRe, zinIm, j * S + s0, S, n);
 
   // Forward pass, source → load, and the voltage at the source terminal.
   const source = built.source.model;
   fillReal(source.emf, na.freqs, i0, n, emf);
   fillComplex(source.impedance, na.freqs, i0, n, t);
   for (let k = 0; k < n; k++) {
-    zsrcRe[i0 + k] = t[2 * k];
-    zsrcIm[i0 + k] = t[2 * k + 1];
+    zsrcRe[s0 + k] = t[2 * k];
+    zsrcIm[s0 + k] = t[2 * k + 1];
   }
   // Each node's voltages go to its row, or, when it is not kept, to the block's scratch,
   // from where the next section reads them.
@@ -311,36 +384,71 @@ function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: number): v
   let fromRe = row < 0 ? blockVRe : vRe;
   let fromIm = row < 0 ? blockVIm : vIm;
   let fromAt = row < 0 ? 0 : row * P + i0;
-  sourceSection(na, i0, n, fromRe, fromIm, fromAt);
+  sourceSection(emf, zsrcRe, zsrcIm, zinRe, zinIm, i0, s0, n, fromRe, fromIm, fromAt);
   for (let j = 0; j < N; j++) {
     row = vRow ? vRow[j + 1] : j + 1;
     const toRe = row < 0 ? blockVRe : vRe;
     const toIm = row < 0 ? blockVIm : vIm;
     const toAt = row < 0 ? 0 : row * P + i0;
-    forwardSection(m, 8 * j * B, na, j * P + i0, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
+    forwardSection(m, 8 * j * B, zsrcRe, zsrcIm, zinRe, zinIm, j * S + s0, S, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     fromRe = toRe;
     fromIm = toIm;
     fromAt = toAt;
+  }
+  if (zRow) keepRows(na, zRow, i0, n, B);
+}
+
+/** The kept nodes' frequencies and impedances of one block, from its scratch to their rows. */
+function keepRows(na: NodeAnalysis, zRow: Int32Array, i0: number, n: number, B: number): void {
+  const P = na.points;
+  const { fNode, zinRe, zinIm, zsrcRe, zsrcIm } = na;
+  const bF = na.blockF!;
+  const bZr = na.blockZinRe!;
+  const bZi = na.blockZinIm!;
+  const bSr = na.blockZsrcRe!;
+  const bSi = na.blockZsrcIm!;
+  for (let node = 0; node < zRow.length; node++) {
+    const row = zRow[node];
+    if (row < 0) continue;
+    const to = row * P + i0;
+    const from = node * B;
+    for (let k = 0; k < n; k++) {
+      const f = bF[from + k];
+      const zr = bZr[from + k];
+      const zi = bZi[from + k];
+      const sr = bSr[from + k];
+      const si = bSi[from + k];
+      fNode[to + k] = f;
+      zinRe[to + k] = zr;
+      zinIm[to + k] = zi;
+      zsrcRe[to + k] = sr;
+      zsrcIm[to + k] = si;
+    }
   }
 }
 
 /**
  * The voltage at the source terminal for a block of points into vRe/vIm from `vAt`:
- * {@link sourceStep} written out in one loop (x − x is 0 exactly for finite x).
+ * {@link sourceStep} written out in one loop (x − x is 0 exactly for finite x). The EMF is
+ * read from point i0, the impedances at node 0 from `z0`.
  */
 function sourceSection(
-  na: NodeAnalysis,
+  emf: Float64Array,
+  zsrcRe: Float64Array,
+  zsrcIm: Float64Array,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
   i0: number,
+  z0: number,
   n: number,
   vRe: Float64Array,
   vIm: Float64Array,
   vAt: number,
 ): void {
-  const { emf, zsrcRe, zsrcIm, zinRe, zinIm } = na;
   for (let k = 0; k < n; k++) {
-    const i = i0 + k;
+    const i = z0 + k;
     const to = vAt + k;
-    const em = emf[i];
+    const em = emf[i0 + k];
     const sr = zsrcRe[i];
     const si = zsrcIm[i];
     const z0r = zinRe[i];
@@ -371,7 +479,10 @@ function sourceSection(
 function forwardSection(
   m: Float64Array,
   mj: number,
-  na: NodeAnalysis,
+  zsrcRe: Float64Array,
+  zsrcIm: Float64Array,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
   at: number,
   P: number,
   n: number,
@@ -382,7 +493,6 @@ function forwardSection(
   vOutIm: Float64Array,
   vOut: number,
 ): void {
-  const { zsrcRe, zsrcIm, zinRe, zinIm } = na;
   for (let k = 0; k < n; k++) {
     const o = mj + 8 * k;
     const from = at + k;

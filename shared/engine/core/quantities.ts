@@ -2,7 +2,7 @@
  * Quantities derived from a node analysis at one node and point: admittance, delivered and
  * available power, mismatch, reflection. All voltages are PEAK, so powers carry the ½.
  */
-import { voltageRow, type NodeAnalysis } from './nodes';
+import { impedanceRow, voltageRow, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { abs, hypot, log10 } = Math;
@@ -10,9 +10,9 @@ const isFiniteNumber = Number.isFinite;
 
 const open = (re: number, im: number) => !isFiniteNumber(re) || !isFiniteNumber(im);
 
-/** Index of (flat node, point) in a node analysis. */
+/** Index of (flat node, point) in a node analysis's frequencies and impedances. */
 export function at(na: NodeAnalysis, node: number, i: number): number {
-  return node * na.points + i;
+  return impedanceRow(na, node) * na.points + i;
 }
 
 /** |V| at a node, PEAK volts. */
@@ -28,7 +28,7 @@ export function stepUp(na: NodeAnalysis, node: number, i: number): number {
 
 /** Re(1/Zin) at a node (0 when open), siemens. */
 export function gIn(na: NodeAnalysis, node: number, i: number): number {
-  const k = node * na.points + i;
+  const k = impedanceRow(na, node) * na.points + i;
   const r = na.zinRe[k];
   const x = na.zinIm[k];
   if (open(r, x)) return 0;
@@ -46,7 +46,7 @@ export function deliveredPower(na: NodeAnalysis, node: number, i: number): numbe
  * NaN when the source side has no resistance (no power is defined as available).
  */
 export function availablePower(na: NodeAnalysis, node: number, i: number): number {
-  const k = node * na.points + i;
+  const k = impedanceRow(na, node) * na.points + i;
   const sr = na.zsrcRe[k];
   const si = na.zsrcIm[k];
   const zr = na.zinRe[k];
@@ -71,7 +71,7 @@ export function availablePower(na: NodeAnalysis, node: number, i: number): numbe
 
 /** Mismatch factor 4·Re Zsrc·Re Zin / |Zsrc + Zin|² at a node (0 for an open node). */
 export function mismatchFactor(na: NodeAnalysis, node: number, i: number): number {
-  const k = node * na.points + i;
+  const k = impedanceRow(na, node) * na.points + i;
   const sr = na.zsrcRe[k];
   const si = na.zsrcIm[k];
   const zr = na.zinRe[k];
@@ -84,7 +84,7 @@ export function mismatchFactor(na: NodeAnalysis, node: number, i: number): numbe
 
 /** |Γ| of Zin against Zsrc* at a node: |Zin − Zsrc*| / |Zin + Zsrc| (1 when open). */
 export function reflectionMag(na: NodeAnalysis, node: number, i: number): number {
-  const k = node * na.points + i;
+  const k = impedanceRow(na, node) * na.points + i;
   const sr = na.zsrcRe[k];
   const si = na.zsrcIm[k];
   const zr = na.zinRe[k];

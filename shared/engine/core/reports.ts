@@ -6,7 +6,7 @@ import type { LevelsReport, NodeReport, StageReport, SweepReport } from '../type
 import type { BuiltChain } from './build';
 import { cascadeInputPoint } from './linearity';
 import { correlationNoiseFigureDb } from './noise-correlation';
-import type { NodeAnalysis } from './nodes';
+import { impedanceRow, type NodeAnalysis } from './nodes';
 import {
   emfForAvailableDbm,
   friis,
@@ -58,7 +58,7 @@ function againstReference(zr: number, zi: number, ref: number) {
 export function nodeReports(built: BuiltChain, na: NodeAnalysis): NodeReport[] {
   const pavs = availablePower(na, 0, 0);
   return Array.from(built.userNodeFlat, (flat, n): NodeReport => {
-    const k = flat * na.points;
+    const k = impedanceRow(na, flat) * na.points;
     const v = vMag(na, flat, 0);
     const ref = nodeReference(built, n);
     const against = ref === null ? null : againstReference(na.zinRe[k], na.zinIm[k], ref);
@@ -99,7 +99,7 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
   const v = Array.from(flats, (j) => vMag(na, j, 0));
   const gains = built.twoPorts.map((_, k) => pav[k + 1] / pav[k]);
   const factors = built.twoPorts.map((s, k) => {
-    const j = flats[k] * na.points;
+    const j = impedanceRow(na, flats[k]) * na.points;
     const zr = na.zsrcRe[j];
     const zi = na.zsrcIm[j];
     const d = zr * zr + zi * zi;
@@ -117,8 +117,8 @@ export function stageReports(built: BuiltChain, na: NodeAnalysis): StageReport[]
     label: s.label,
     fromNode: k,
     toNode: k + 1,
-    fInHz: na.fNode[flats[k] * na.points],
-    fOutHz: na.fNode[flats[k + 1] * na.points],
+    fInHz: na.fNode[impedanceRow(na, flats[k]) * na.points],
+    fOutHz: na.fNode[impedanceRow(na, flats[k + 1]) * na.points],
     voltageGainDb: db20(v[k + 1] / v[k]),
     cumulativeVoltageGainDb: db20(v[k + 1] / v[0]),
     availableGainDb: gainsDb[k],
@@ -151,7 +151,7 @@ export function chainNoiseFigureDb(
   const nf = last ? last.cumulativeNoiseFigureDb : 0;
   const loadNoise = built.load.model.noise;
   if (!loadNoise || loadNoise.kind === 'passive') return nf;
-  const j = built.sections.length * na.points;
+  const j = impedanceRow(na, built.sections.length) * na.points;
   const zr = na.zsrcRe[j];
   const zi = na.zsrcIm[j];
   const d = zr * zr + zi * zi;
@@ -185,7 +185,7 @@ export function levelsReport(
     correlationNoiseFigureDb: correlationNoiseFigureDb(built),
     totalGainDb: last ? last.cumulativeGainDb : 0,
     sensitivityDbm: sens,
-    sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[0]) / SQRT2,
+    sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[impedanceRow(na, 0) * na.points]) / SQRT2,
     iip3Dbm: iip3,
     sfdrDb: iip3 === null ? null : sfdrDb(iip3, floor),
     inputAvailableDbm: dbm(availablePower(na, 0, 0)),

@@ -10,7 +10,7 @@
  * rises behind a mixer whose LO is above the signal.
  */
 import type { BuiltChain } from './build';
-import type { NodeAnalysis } from './nodes';
+import { impedanceRow, type NodeAnalysis } from './nodes';
 import type { Probe } from './probe';
 import { solveBracketed } from './refine';
 import { logGrid } from './sweep';
@@ -76,7 +76,7 @@ const ROUNDING_B = 1e-9;
 
 /** G and B at `node`, grid point i, into out[0], out[1] (an open side adds nothing). */
 function admittanceAt(na: NodeAnalysis, node: number, i: number, out: Float64Array): void {
-  const k = node * na.points + i;
+  const k = impedanceRow(na, node) * na.points + i;
   let g = 0;
   let b = 0;
   const sr = na.zsrcRe[k];
@@ -127,7 +127,7 @@ function susceptanceAt(na: NodeAnalysis, k: number): number {
 export function risingCrossings(na: NodeAnalysis, node: number): Bracket[] {
   const out: Bracket[] = [];
   const fl = na.fNode;
-  const base = node * na.points;
+  const base = impedanceRow(na, node) * na.points;
   let y: Float64Array | null = null;
   let prev = susceptanceAt(na, base);
   for (let i = 0; i + 1 < na.points; i++) {

@@ -18,7 +18,7 @@
  */
 import type { ResonatorDecl } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
-import { coupledTank, pairPeak } from './coupled-pair';
+import { coupledTank, pairPeak, pairTankFlat, translatedBefore } from './coupled-pair';
 import {
   ownResonance,
   probePointEval,
@@ -26,7 +26,8 @@ import {
   seriesExtract,
   seriesLoopOnGrid,
 } from './extract-resonance';
-import { foundResonances, foundSeries } from './found-resonators';
+import { foundResonances, foundSeries, seriesScanNodes, shuntScanNodes } from './found-resonators';
+import { seriesSections } from './found-series';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 import { createProbe } from './probe';
 import { bracketingGrid } from './resonance-search';
@@ -41,13 +42,62 @@ import {
   type ResonatorFinding,
 } from './resonator-context';
 import { shuntFigures } from './shunt-tank';
-import { chainTopology } from './topology';
+import { chainTopology, type Topology } from './topology';
 
 export { bisectRising, nearestRisingCrossing } from './extract-resonance';
 export { searchRange } from './resonance-search';
 export { MIN_DETACHED_Q, type ResonatorFinding } from './resonator-context';
 
 const { max, min } = Math;
+
+/** The flat node of a shunt tank a stage declares. */
+function shuntFlat(stage: BuiltStage, decl: ResonatorDecl & { kind: 'shunt' }): number {
+  return stage.firstSection + max(0, min(decl.node, stage.sectionCount));
+}
+
+/** A stage's coupled pair's tanks (none when it declares no pair). */
+function pairDecls(stage: BuiltStage): (ResonatorDecl & { kind: 'shunt' })[] {
+  return (stage.model.resonators ?? []).filter(
+    (d): d is ResonatorDecl & { kind: 'shunt' } => d.kind === 'shunt' && !!d.coupledPartner,
+  );
+}
+
+/** The electrical nodes a coupled pair holds: every node inside or at the ends of the pair. */
+function pairClaims(built: BuiltChain, topo: Topology): Set<number> {
+  const claimed = new Set<number>();
+  for (const stage of built.twoPorts) {
+    if (pairDecls(stage).length === 0) continue;
+    const end = stage.firstSection + stage.sectionCount;
+    for (let n = stage.firstSection; n <= end; n++) claimed.add(topo.group[n]);
+  }
+  return claimed;
+}
+
+/**
+ * The nodes whose frequency and impedances {@link analyzeResonators} reads from the sweep's
+ * node analysis, in ascending order: each declared resonator's (a series one's section input
+ * and output, a coupled pair's tank only after a frequency change), and every node the search for found resonances scans. The analysis keeps
+ * those rows of its sweep only (`impedanceAt`); any other read is refused (`impedanceRow`).
+ */
+export function resonatorNodes(built: BuiltChain, topo: Topology = chainTopology(built)): number[] {
+  const nodes = new Set<number>();
+  for (const stage of built.twoPorts) {
+    for (const decl of stage.model.resonators ?? []) {
+      if (decl.kind === 'series') {
+        if (decl.section >= 0 && decl.section < stage.sectionCount) {
+          nodes.add(stage.firstSection + decl.section);
+          nodes.add(stage.firstSection + decl.section + 1);
+        }
+      } else if (!decl.coupledPartner) nodes.add(shuntFlat(stage, decl));
+      else if (translatedBefore(built, pairTankFlat(stage, decl))) {
+        nodes.add(pairTankFlat(stage, decl));
+      }
+    }
+  }
+  for (const n of shuntScanNodes(built, topo, pairClaims(built, topo))) nodes.add(n);
+  for (const n of seriesScanNodes(built, topo, seriesSections(built))) nodes.add(n);
+  return [...nodes].sort((a, b) => a - b);
+}
 
 /** A shunt tank a stage declares (not part of a coupled pair). */
 function declaredShunt(
@@ -57,7 +107,7 @@ function declaredShunt(
   name: string,
 ): ResonatorFinding {
   const { built, topo, gridNa, probe } = ctx;
-  const flat = stage.firstSection + max(0, min(decl.node, stage.sectionCount));
+  const flat = shuntFlat(stage, decl);
   const b = nearestBracket(gridNa, flat, built.settings.f0Hz);
   const att = b ? locate(gridNa, probe, flat, b) : null;
   const base = {
@@ -132,11 +182,9 @@ function declaredPair(
   ctx: Context,
   stage: BuiltStage,
   decls: (ResonatorDecl & { kind: 'shunt' })[],
-  claimed: Set<number>,
 ): ResonatorFinding[] {
   const { built, topo, gridNa, probe } = ctx;
   const end = stage.firstSection + stage.sectionCount;
-  for (let n = stage.firstSection; n <= end; n++) claimed.add(topo.group[n]);
   const peak = pairPeak(built, gridNa, probe, stage, ctx.shapes);
   const segment = topo.segment[end];
   let peakLocal: number | null = null;
@@ -180,25 +228,25 @@ function declaredPair(
  * @param sweepNa the sweep's node analysis, reused to bracket resonances when it spans the
  *   search range with enough points (else a search grid is analysed)
  * @param shapes where a coupled pair's response shape is kept when found on `sweepNa`
+ * @param topo the chain's topology, when the caller has it already
  */
 export function analyzeResonators(
   built: BuiltChain,
   sweepNa: NodeAnalysis | null = null,
   shapes?: ShapeMemo,
+  topo: Topology = chainTopology(built),
 ): ResonatorFinding[] {
-  const topo = chainTopology(built);
   const gridNa = bracketingGrid(built, sweepNa, (f) => runNodeAnalysis(built, f));
   const ctx: Context = { built, topo, gridNa, probe: createProbe(built), claims: [], own: new Map() }; // prettier-ignore
   // Shapes found on the sweep itself are the selectivity's too; a search grid's are not.
   if (shapes && gridNa === sweepNa) ctx.shapes = shapes;
-  const claimed = new Set<number>();
+  // Nodes inside or at the ends of a coupled pair belong to the pair.
+  const claimed = pairClaims(built, topo);
   const declared: ResonatorFinding[] = [];
   for (const stage of built.twoPorts) {
     const decls = stage.model.resonators ?? [];
-    const pair = decls.filter(
-      (d): d is ResonatorDecl & { kind: 'shunt' } => d.kind === 'shunt' && !!d.coupledPartner,
-    );
-    if (pair.length > 0) declared.push(...declaredPair(ctx, stage, pair, claimed));
+    const pair = pairDecls(stage);
+    if (pair.length > 0) declared.push(...declaredPair(ctx, stage, pair));
     const many = decls.length > 1;
     for (const decl of decls) {
       const name = `${decl.kind === 'shunt' ? 'Tank' : 'Series resonator'} "${stage.label}"${many ? ` (${decl.label})` : ''}`; // prettier-ignore

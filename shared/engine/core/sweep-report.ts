@@ -14,7 +14,7 @@
 import type { SweepReport } from '../types';
 import type { BuiltChain } from './build';
 import { hypot2 } from './hypot';
-import { isOneOffWorkspace, voltageRow, type NodeAnalysis } from './nodes';
+import { impedanceRow, isOneOffWorkspace, voltageRow, type NodeAnalysis } from './nodes';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
 const { PI, abs, atan2, hypot, log10 } = Math;
@@ -232,12 +232,13 @@ export function lazySweepReport(
   }
   const emf = trace(na.emf, 0, 2 * U);
   const freqs = trace(na.freqs, 0, 2 * U + 1);
-  const zinRe = checkedTrace(na.zinRe, 0, 2 * U + 2);
+  const input = impedanceRow(na, 0);
+  const zinRe = checkedTrace(na.zinRe, input, 2 * U + 2);
   const reFinite = finite;
-  const zinIm = checkedTrace(na.zinIm, 0, 2 * U + 3);
+  const zinIm = checkedTrace(na.zinIm, input, 2 * U + 3);
   const zinFinite = reFinite && finite;
-  const zsrcRe = trace(na.zsrcRe, 0, 2 * U + 4);
-  const zsrcIm = trace(na.zsrcIm, 0, 2 * U + 5);
+  const zsrcRe = trace(na.zsrcRe, input, 2 * U + 4);
+  const zsrcIm = trace(na.zsrcIm, input, 2 * U + 5);
 
   // Each trace an accessor written in an object literal (own, enumerable, configurable, as
   // defineProperty would make it, without its cost): computed on first read, then settled.
