@@ -13,10 +13,15 @@ import { buildChain, type BuiltChain } from '../../shared/engine/core/build';
 import { seriesExtract } from '../../shared/engine/core/extract-resonance';
 import { risingLoopCrossings } from '../../shared/engine/core/found-series';
 import { settleLoadLevel } from '../../shared/engine/core/load-level';
-import { BLOCK, createNodeAnalysis, impedanceRow, runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
+import { BLOCK, createNodeAnalysis, impedanceRow, isLongSweep, runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
 import { gIn, reflectionMag } from '../../shared/engine/core/quantities';
 import { sweepReport } from '../../shared/engine/core/reports';
 import { risingCrossings } from '../../shared/engine/core/resonance-search';
+import {
+  analyzeSelectivity,
+  findMixer,
+  imageFrequency,
+} from '../../shared/engine/core/selectivity';
 import { analyzeResonators } from '../../shared/engine/core/resonators';
 import type { ShapeMemo } from '../../shared/engine/core/response-shape';
 import { frequencyGrid } from '../../shared/engine/core/sweep';
@@ -34,9 +39,11 @@ const keys = [
   BENCH,
 ];
 
-function builtOf(key: string): BuiltChain {
-  if (key === BENCH) return buildChain(chainDocumentSchema.parse(benchChain(1001)), defaultCatalogue()); // prettier-ignore
+/** The chain, its sweep over `points` points when given. */
+function builtOf(key: string, points?: number): BuiltChain {
+  if (key === BENCH) return buildChain(chainDocumentSchema.parse(benchChain(points ?? 1001)), defaultCatalogue()); // prettier-ignore
   const { variantOf: _v, ...raw } = JSON.parse(readFileSync(path.join(DIR, `${key}.chain.json`), 'utf8')); // prettier-ignore
+  if (points !== undefined) raw.settings.sweep.points = points;
   return buildChain(chainDocumentSchema.parse(raw), defaultCatalogue());
 }
 
@@ -88,8 +95,10 @@ describe('node analysis keeping some nodes’ impedances', () => {
     const built = builtOf(key);
     const freqs = grid(built);
     const full = runNodeAnalysis(built, freqs);
-    // Node 0 and the load kept, or neither: the values pass through unkept nodes at both ends.
-    for (const nodes of [everyOther(built, 0), everyOther(built, 1)]) {
+    // Node 0 and the load kept, or neither: the values pass through unkept nodes at both
+    // ends; with the middle node only, through runs of unkept nodes.
+    const middle = [Math.floor(built.sections.length / 2)];
+    for (const nodes of [everyOther(built, 0), everyOther(built, 1), middle]) {
       const kept = runNodeAnalysis(built, freqs, createNodeAnalysis(built, freqs.length, { impedanceAt: nodes })); // prettier-ignore
       expect({ key, nodes, diff: compare(kept, full, nodes) }).toEqual({ key, nodes, diff: [] });
       for (const k of ROWS) expect(kept[k].length).toBe(nodes.length * freqs.length);
@@ -194,18 +203,29 @@ describe('kept impedances in a whole analysis', () => {
     );
   });
 
-  it.each(keys)('%s: the analysis (its sweep keeping those rows) reports the same', (key) => {
-    const built = settleLoadLevel(builtOf(key));
-    const full = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
-    const result = analyzeBuilt(built);
-    const want = analyzeResonators(built, full, new Map())
-      .filter((r) => !isTrapResonance(built, r))
-      .map(({ flat: _f, fIn: _i, f0LocalHz: _l, downstreamLabel: _d, name: _n, ...r }) => r);
-    expect(result.resonators).toEqual(want);
-    expect(JSON.parse(JSON.stringify(result.sweep))).toEqual(
-      JSON.parse(JSON.stringify(sweepReport(built, full))),
-    );
-  });
+  it.each(['shortwave-superhet-coupled-pair', 'two-metre-coupled-preselector', BENCH])(
+    '%s over a sweep too long to keep: the analysis (keeping those rows) reports the same',
+    (key) => {
+      const short = builtOf(key);
+      // Just past the length whose workspace is not kept between analyses.
+      const points = Math.ceil(((1 << 22) + 1) / ((short.sections.length + 1) * 7)) + 1;
+      const built = settleLoadLevel(builtOf(key, points));
+      expect(isLongSweep(built, points)).toBe(true);
+      expect(isLongSweep(built, points - 2)).toBe(false);
+      const full = runNodeAnalysis(built, frequencyGrid(built.settings.sweep));
+      const result = analyzeBuilt(built);
+      const want = analyzeResonators(built, full, new Map())
+        .filter((r) => !isTrapResonance(built, r))
+        .map(({ flat: _f, fIn: _i, f0LocalHz: _l, downstreamLabel: _d, name: _n, ...r }) => r);
+      expect(result.resonators).toEqual(want);
+      expect(result.selectivity).toEqual(analyzeSelectivity(built, full, imageFrequency(built, findMixer(built)))); // prettier-ignore
+      const sweep = result.sweep!;
+      const all = sweepReport(built, full);
+      expect(Array.from(sweep.zIn.re)).toEqual(Array.from(all.zIn.re));
+      expect(Array.from(sweep.zIn.im)).toEqual(Array.from(all.zIn.im));
+      expect(Array.from(sweep.returnLossDb)).toEqual(Array.from(all.returnLossDb));
+    },
+  );
 
   it('the bench chain keeps about half its nodes’ impedances', () => {
     const built = settleLoadLevel(builtOf(BENCH));
