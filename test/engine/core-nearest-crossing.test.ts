@@ -53,6 +53,20 @@ describe('nearestRisingOutward', () => {
     );
   });
 
+  it('keeps a crossing between subnormal values inside its bracket, as the whole-grid scan does', () => {
+    // Found by the property above: 0.5 × the smallest subnormal rounded so that the crossing
+    // of the first bracket was placed at 2.01, outside [1.01, 1.51], and the outward scan
+    // stopped before the bracket the whole-grid scan picked.
+    // The grid as the property builds it (1.5100000000000002, ...: the last bits matter).
+    const f: number[] = [];
+    let x = 1;
+    for (const step of [0.01, 0.5000000000000001, 0.01, 0.01, 0.01]) f.push((x += step));
+    const v = [-5e-324, 0, -5e-324, 0, 0];
+    const target = 1.747913041315271;
+    expect(nearestRisingCrossing(f, v, target)).toBe(2);
+    expect(outward(f, v, target).k).toBe(2);
+  });
+
   it('picks the lower bracket when two crossings are equally near', () => {
     // Crossings interpolated at 2 and 8: equally far from 4 in log frequency.
     const f = [1, 2, 3, 7, 8, 9];

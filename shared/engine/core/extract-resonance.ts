@@ -46,7 +46,9 @@ export function nearestRisingCrossing(
     const a = s * v[k];
     const b = s * v[k + 1];
     if (!(a < 0 && b >= 0) || !isFiniteNumber(a) || !isFiniteNumber(b)) continue;
-    const fc = f[k] + ((f[k + 1] - f[k]) * -a) / (b - a);
+    // The fraction first: it lies in [0, 1] even for subnormal values, whose product with the
+    // step could round to a point far outside the bracket.
+    const fc = f[k] + (f[k + 1] - f[k]) * (-a / (b - a));
     const d = abs(log(fc / target));
     if (d < bestDist) {
       bestDist = d;

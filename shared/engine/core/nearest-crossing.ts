@@ -67,7 +67,9 @@ export function nearestRisingOutward(
     const b = s * vk1;
     if (!(a < 0 && b >= 0) || !isFiniteNumber(a) || !isFiniteNumber(b)) return;
     const fk = freqAt(k);
-    const fc = fk + ((freqAt(k + 1) - fk) * -a) / (b - a);
+    // As nearestRisingCrossing computes it (the fraction first, so the crossing stays in its
+    // bracket even for subnormal values: the distance bound below relies on that).
+    const fc = fk + (freqAt(k + 1) - fk) * (-a / (b - a));
     const d = abs(log(fc / target));
     if (d < bestD || (d === bestD && k < bestK)) {
       bestD = d;
