@@ -5,10 +5,15 @@
  * calling them boxes nothing.
  */
 
+import type { ComplexFn, RealFn } from '../types';
+
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.
 const finite = Number.isFinite;
 const OPEN = Number.POSITIVE_INFINITY;
+
+/** Lowest frequency a section is evaluated at after a mixer, Hz. */
+export const MIN_NODE_HZ = 1e-3;
 
 /**
  * The voltage at the source terminal (index `to`) from the EMF (`emf[e]`) and the source
@@ -180,4 +185,28 @@ export function voltageStep(
   const ie = 1 / (er * er + ei * ei);
   vRe[to] = (vr * er + vi * ei) * ie;
   vIm[to] = (vi * er - vr * ei) * ie;
+}
+
+/** One-port values at f[fo … fo+n−1] into `pair` (re, im interleaved from 0). */
+export function fillComplex(
+  fn: ComplexFn,
+  f: Float64Array,
+  fo: number,
+  n: number,
+  pair: Float64Array,
+): void {
+  if (fn.fill) fn.fill(f, fo, n, pair, 0, 2);
+  else for (let k = 0; k < n; k++) fn(f[fo + k], pair, 2 * k);
+}
+
+/** Real values at f[fo … fo+n−1] into out[fo …]. */
+export function fillReal(
+  fn: RealFn,
+  f: Float64Array,
+  fo: number,
+  n: number,
+  out: Float64Array,
+): void {
+  if (fn.fill) fn.fill(f, fo, n, out, fo);
+  else for (let k = 0; k < n; k++) out[fo + k] = fn(f[fo + k]);
 }
