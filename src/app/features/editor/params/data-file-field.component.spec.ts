@@ -2,7 +2,7 @@ import { provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
 import type { DataFileDto, DataFileSummaryDto } from '../../../../../shared/schema/api';
-import { DataFileFieldComponent } from './data-file-field.component';
+import { DataFileFieldComponent, type DataFilePick } from './data-file-field.component';
 
 const LOOP_S1P = '# MHz S RI R 50\n0.5 0.2 -0.3\n2.0 0.1 -0.5\n';
 
@@ -23,7 +23,7 @@ function summary(id: string, name: string, kind: 's1p' | 's2p'): DataFileSummary
 describe('DataFileFieldComponent', () => {
   let fixture: ComponentFixture<DataFileFieldComponent>;
   let http: HttpTestingController;
-  let picked: (string | null)[];
+  let picked: DataFilePick[];
 
   beforeEach(async () => {
     TestBed.configureTestingModule({
@@ -33,8 +33,9 @@ describe('DataFileFieldComponent', () => {
     fixture = TestBed.createComponent(DataFileFieldComponent);
     fixture.componentRef.setInput('workspaceId', 'w1');
     fixture.componentRef.setInput('kind', 's1p');
+    fixture.componentRef.setInput('stageId', 'ant');
     picked = [];
-    fixture.componentInstance.picked.subscribe((id) => picked.push(id));
+    fixture.componentInstance.picked.subscribe((pick) => picked.push(pick));
     fixture.detectChanges();
     http
       .expectOne('/api/workspaces/w1/files')
@@ -94,7 +95,10 @@ describe('DataFileFieldComponent', () => {
   it('should emit the picked file and null for none', async () => {
     await choose('f1');
     await choose('');
-    expect(picked).toEqual(['f1', null]);
+    expect(picked).toEqual([
+      { stageId: 'ant', fileId: 'f1' },
+      { stageId: 'ant', fileId: null },
+    ]);
   });
 
   it('should open the file chooser for the upload entry without emitting', async () => {
@@ -116,8 +120,29 @@ describe('DataFileFieldComponent', () => {
     const stored: DataFileDto = { ...summary('f3', 'new-loop.s1p', 's1p'), content: LOOP_S1P };
     req.flush(stored);
     await settle();
-    expect(picked).toEqual(['f3']);
+    expect(picked).toEqual([{ stageId: 'ant', fileId: 'f3' }]);
     expect(optionTexts()).toContain('new-loop.s1p (2 points)');
+  });
+
+  it('should keep offering a file uploaded while the list was on its way', async () => {
+    fixture.componentRef.setInput('workspaceId', 'w2');
+    await settle();
+    const list = http.expectOne('/api/workspaces/w2/files');
+    await pickFile(new File([LOOP_S1P], 'new-loop.s1p'));
+    http
+      .expectOne({ method: 'POST', url: '/api/workspaces/w2/files' })
+      .flush({ ...summary('f3', 'new-loop.s1p', 's1p'), content: LOOP_S1P });
+    await settle();
+    // The list was read before the upload was stored: it does not hold the new file.
+    list.flush([summary('f1', 'roof-loop.s1p', 's1p')]);
+    await settle();
+    expect(picked).toEqual([{ stageId: 'ant', fileId: 'f3' }]);
+    expect(optionTexts()).toEqual([
+      'None: use the table below',
+      'roof-loop.s1p (2 points)',
+      'new-loop.s1p (2 points)',
+      'Upload Touchstone…',
+    ]);
   });
 
   it("should show the reader's refusal and pick nothing", async () => {

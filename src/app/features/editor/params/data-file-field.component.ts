@@ -25,10 +25,18 @@ export const DATA_FILE_KIND_OF_TYPE: Readonly<Record<string, DataFileKind>> = {
 
 const UPLOAD = '__upload';
 
+/** A file chosen for a stage (fileId null: none, the stage's own table). */
+export interface DataFilePick {
+  stageId: string;
+  fileId: string | null;
+}
+
 /**
  * "Data file" for a measured stage: the workspace's files of the stage's kind, none (the
  * stage's own table), or a Touchstone file uploaded from this machine. Picking one emits
- * its id (null for none); the panel turns that into an undoable edit.
+ * its id (null for none) with the stage it was picked for; the panel turns that into an
+ * undoable edit. An upload is for the stage shown when it started, even if another stage of
+ * the same kind is shown by the time it lands.
  */
 @Component({
   selector: 'cw-data-file-field',
@@ -77,11 +85,13 @@ export class DataFileFieldComponent {
   readonly workspaceId = input.required<string>();
   /** 's1p' for a measured antenna, 's2p' for a measured two-port. */
   readonly kind = input.required<DataFileKind>();
+  /** The stage the field chooses a file for. */
+  readonly stageId = input.required<string>();
   /** The stage's current `dataFileId`, if any. */
   readonly selected = input<string | undefined>(undefined);
   readonly disabled = input(false);
-  /** The id picked (null: none). */
-  readonly picked = output<string | null>();
+  /** The file picked (null: none) and the stage it is for. */
+  readonly picked = output<DataFilePick>();
 
   private readonly api = inject(DataFilesApi);
   private readonly fileInput = viewChild.required<ElementRef<HTMLInputElement>>('fileInput');
@@ -111,8 +121,15 @@ export class DataFileFieldComponent {
   }
 
   private async refresh(workspaceId: string): Promise<void> {
+    this.all.set([]);
     try {
-      this.all.set(await firstValueFrom(this.api.list(workspaceId)));
+      const listed = await firstValueFrom(this.api.list(workspaceId));
+      if (workspaceId !== this.workspaceId()) return; // another workspace's list is on its way
+      // A file uploaded while the list was on its way stays offered (and shown as chosen).
+      this.all.update((uploaded) => [
+        ...listed,
+        ...uploaded.filter((f) => !listed.some((l) => l.id === f.id)),
+      ]);
     } catch (err) {
       this.error.set(`The data files could not be listed: ${describeHttpError(err)}`);
     }
@@ -127,7 +144,7 @@ export class DataFileFieldComponent {
       return;
     }
     this.error.set(null);
-    this.picked.emit(select.value || null);
+    this.picked.emit({ stageId: this.stageId(), fileId: select.value || null });
   }
 
   protected async onFile(event: Event): Promise<void> {
@@ -135,6 +152,7 @@ export class DataFileFieldComponent {
     const file = inputEl.files?.[0];
     inputEl.value = '';
     if (!file) return;
+    const stageId = this.stageId();
     this.busy.set(true);
     this.error.set(null);
     try {
@@ -142,7 +160,7 @@ export class DataFileFieldComponent {
       const stored = await firstValueFrom(this.api.upload(this.workspaceId(), file.name, content));
       this.all.update((files) => [...files, stored]);
       if (stored.kind === this.kind()) {
-        this.picked.emit(stored.id);
+        this.picked.emit({ stageId, fileId: stored.id });
       } else {
         this.error.set(
           `${stored.name} is a ${stored.portCount}-port file; this stage needs a .${this.kind()} file`,

@@ -1,11 +1,12 @@
 import { provideHttpClient } from '@angular/common/http';
-import { provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { ComponentFixture, TestBed } from '@angular/core/testing';
-import type { WorkspaceRole } from '../../../../../shared/schema/api';
+import type { StageTypeInfo } from '../../../../../shared/engine/types';
+import type { DataFileDto, WorkspaceRole } from '../../../../../shared/schema/api';
 import { chainDto } from '../testing/chain-dto';
 import { AnalysisRunner } from '../state/analysis-runner';
 import { EditorStore } from '../state/editor.store';
-import { CATALOGUE } from '../testing/catalogue-fixture';
+import { CATALOGUE, stage } from '../testing/catalogue-fixture';
 import { ParamPanelComponent } from './param-panel.component';
 
 describe('ParamPanelComponent', () => {
@@ -173,6 +174,79 @@ describe('ParamPanelComponent', () => {
     });
   });
 
+  describe('a data file uploading while the form is used', () => {
+    let http: HttpTestingController;
+
+    beforeEach(async () => {
+      TestBed.configureTestingModule({
+        providers: [provideHttpClient(), provideHttpClientTesting(), EditorStore, AnalysisRunner],
+      });
+      http = TestBed.inject(HttpTestingController);
+      store = TestBed.inject(EditorStore);
+      store.setCatalogue([...CATALOGUE, MEASURED]);
+      const chain = chainDto('editor');
+      const [src, ...rest] = chain.document.stages;
+      chain.document = {
+        ...chain.document,
+        stages: [src, stage('meas', MEASURED), stage('meas2', MEASURED), ...rest],
+      };
+      store.load(chain);
+      store.select('meas');
+      fixture = TestBed.createComponent(ParamPanelComponent);
+      await fixture.whenStable();
+      http.expectOne('/api/workspaces/w1/files').flush([]);
+      await fixture.whenStable();
+    });
+
+    afterEach(() => http.verify());
+
+    it('should keep a value chosen while the file uploads when the upload lands before the next render', async () => {
+      const upload = await startUpload();
+      const noise = host().querySelector<HTMLSelectElement>('select[data-param="noise"]')!;
+      noise.value = 'file';
+      noise.dispatchEvent(new Event('change'));
+      // The upload's answer is handled before the form is rendered again (both wait for
+      // the next task; the answer can come first), so the form still holds the stage as it
+      // was before the choice.
+      upload.flush(STORED);
+      await microtasks();
+      expect(measured('meas')).toMatchObject({ dataFileId: 'f9', values: { noise: 'file' } });
+      await fixture.whenStable();
+      expect(noise.value).toBe('file');
+      expect(dataFileSelect().value).toBe('f9');
+    });
+
+    it('should attach the file to the stage it was uploaded for, whatever is selected when it lands', async () => {
+      const upload = await startUpload();
+      store.select('meas2');
+      await fixture.whenStable();
+      upload.flush(STORED);
+      await fixture.whenStable();
+      expect(measured('meas').dataFileId).toBe('f9');
+      expect(measured('meas2').dataFileId).toBeUndefined();
+    });
+
+    /** Picks a file in the field's hidden input and returns its upload, on its way. */
+    async function startUpload() {
+      const fileInput = host().querySelector<HTMLInputElement>('input[type=file]')!;
+      const file = new File([AMPLIFIER_TS], 'bench-amplifier.ts');
+      Object.defineProperty(fileInput, 'files', { value: [file], configurable: true });
+      fileInput.dispatchEvent(new Event('change'));
+      // The file is read as text before the request goes out.
+      await new Promise((resolve) => setTimeout(resolve, 0));
+      await fixture.whenStable();
+      return http.expectOne({ method: 'POST', url: '/api/workspaces/w1/files' });
+    }
+
+    function dataFileSelect(): HTMLSelectElement {
+      return host().querySelector<HTMLSelectElement>('select[data-param="dataFileId"]')!;
+    }
+
+    function measured(id: string) {
+      return store.doc().stages.find((s) => s.id === id)!;
+    }
+  });
+
   // Helpers
 
   function setUp(role: WorkspaceRole, selected: string): void {
@@ -227,3 +301,45 @@ describe('ParamPanelComponent', () => {
     return store.doc().stages.find((s) => s.id === 'tank')!;
   }
 });
+
+/** A measured two-port as the panel sees it: a data file field and a noise choice. */
+const MEASURED: StageTypeInfo = {
+  type: 'measured-two-port',
+  category: 'filter',
+  role: 'two-port',
+  label: 'Measured two-port',
+  summary: 'S-parameters from a file.',
+  params: [
+    {
+      key: 'noise',
+      label: 'Noise',
+      kind: 'enum',
+      unit: 'none',
+      default: 'passive',
+      options: [
+        { value: 'passive', label: 'Passive, from its loss' },
+        { value: 'file', label: 'Parameters from the data file (active device)' },
+      ],
+    },
+  ],
+};
+
+const AMPLIFIER_TS = '[Version] 2.0\n# MHz S RI R 50\n[Number of Ports] 2\n';
+
+const STORED: DataFileDto = {
+  id: 'f9',
+  name: 'bench-amplifier.ts',
+  kind: 's2p',
+  portCount: 2,
+  pointCount: 2,
+  fMinHz: 100e6,
+  fMaxHz: 200e6,
+  uploadedBy: 'Ada',
+  createdAt: '2026-01-01T00:00:00.000Z',
+  content: AMPLIFIER_TS,
+};
+
+/** Lets promise callbacks run, and nothing that waits for a later task (a render). */
+async function microtasks(): Promise<void> {
+  for (let i = 0; i < 10; i++) await Promise.resolve();
+}

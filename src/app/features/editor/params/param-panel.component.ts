@@ -17,7 +17,11 @@ import {
 import { overriddenKeys } from '../modes/mode-edits';
 import { OverrideMarkComponent } from '../modes/override-mark.component';
 import { CoilTurnsComponent } from '../design/coil-turns.component';
-import { DATA_FILE_KIND_OF_TYPE, DataFileFieldComponent } from './data-file-field.component';
+import {
+  DATA_FILE_KIND_OF_TYPE,
+  DataFileFieldComponent,
+  type DataFilePick,
+} from './data-file-field.component';
 import { QuantityFieldComponent, type QuantityEdit } from './quantity-field.component';
 import type { PartDto } from '../../../../../shared/schema/api';
 import { PartPickComponent } from '../../parts/part-pick.component';
@@ -107,45 +111,69 @@ export class ParamPanelComponent {
   }
 
   protected onNumber(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
+    const now = this.current(stage.id);
+    if (!now) return;
     // A typed value is no longer the bin's part.
-    const own = withoutPart(stage, spec.key);
+    const own = withoutPart(now, spec.key);
     this.store.updateStage(withValue(own, spec.key, edit.value, edit.text), spec.key);
   }
 
   /** Takes a part from the bin: its value, and its Q and tolerance with it. */
   protected onPart(stage: StageInstance, spec: ParamSpec, part: PartDto): void {
-    this.store.updateStage(withPart(stage, spec, this.type()?.params ?? [], part));
+    const now = this.current(stage.id);
+    if (now) this.store.updateStage(withPart(now, spec, this.type()?.params ?? [], part));
   }
 
   protected onTolerance(stage: StageInstance, spec: ParamSpec, edit: QuantityEdit): void {
+    const now = this.current(stage.id);
+    if (!now) return;
     const percent = edit.text.trim() === '' ? null : edit.value;
-    this.store.updateStage(withTolerance(stage, spec.key, percent), `tol:${spec.key}`);
+    this.store.updateStage(withTolerance(now, spec.key, percent), `tol:${spec.key}`);
   }
 
   protected onEnum(stage: StageInstance, spec: ParamSpec, event: Event): void {
-    this.store.updateStage(withValue(stage, spec.key, (event.target as HTMLSelectElement).value));
+    const now = this.current(stage.id);
+    const value = (event.target as HTMLSelectElement).value;
+    if (now) this.store.updateStage(withValue(now, spec.key, value));
   }
 
   protected onBoolean(stage: StageInstance, spec: ParamSpec, checked: boolean): void {
-    this.store.updateStage(withValue(stage, spec.key, checked));
+    const now = this.current(stage.id);
+    if (now) this.store.updateStage(withValue(now, spec.key, checked));
   }
 
   protected onText(stage: StageInstance, spec: ParamSpec, event: Event): void {
+    const now = this.current(stage.id);
     const text = (event.target as HTMLTextAreaElement).value.slice(0, 200);
-    this.store.updateStage(withValue(stage, spec.key, text), spec.key);
+    if (now) this.store.updateStage(withValue(now, spec.key, text), spec.key);
   }
 
   protected onLabel(stage: StageInstance, event: Event): void {
+    const now = this.current(stage.id);
     const label = (event.target as HTMLInputElement).value.slice(0, 120);
-    this.store.updateStage({ ...stage, label }, 'label');
+    if (now) this.store.updateStage({ ...now, label }, 'label');
   }
 
-  protected onDataFile(stage: StageInstance, fileId: string | null): void {
-    const { dataFileId: _previous, ...rest } = stage;
+  /** A file picked or uploaded: for the stage it was chosen for, even if another is shown now. */
+  protected onDataFile({ stageId, fileId }: DataFilePick): void {
+    const now = this.current(stageId);
+    if (!now) return;
+    const { dataFileId: _previous, ...rest } = now;
     this.store.updateStage(fileId ? { ...rest, dataFileId: fileId } : rest);
   }
 
   protected applyPreset(stage: StageInstance, values: ParamValues): void {
-    this.store.updateStage(withPreset(stage, values));
+    const now = this.current(stage.id);
+    if (now) this.store.updateStage(withPreset(now, values));
+  }
+
+  /**
+   * The stage as the store holds it at this moment (in the mode shown). An edit starts from
+   * this, not from the template's `s`: that is the stage as last rendered, and an edit made
+   * since (a value chosen while a data file uploads, whose answer can land before the next
+   * render) would be undone by an edit built on the older copy.
+   */
+  private current(stageId: string): StageInstance | null {
+    return this.store.stagesInMode().find((s) => s.id === stageId) ?? null;
   }
 }
