@@ -117,10 +117,11 @@ async function walk({ page, problems }: WatchedPage, size: Width): Promise<void>
     mimeType: 'text/plain',
     buffer: Buffer.from(AMPLIFIER_TS),
   });
-  await textAppears(panel.locator('select[data-param="dataFileId"]'), 'test-amplifier.ts');
-  await panel
-    .locator('select[data-param="noise"]')
-    .selectOption({ label: 'Parameters from the data file (active device)' });
+  // The file is in once the select shows it chosen: a file of that name uploaded at another
+  // width may be listed already, before this upload has landed.
+  await expectChosen(panel.locator('select[data-param="dataFileId"]'), 'test-amplifier.ts');
+  const noise = panel.locator('select[data-param="noise"]');
+  await noise.selectOption({ label: 'Parameters from the data file (active device)' });
   await settled(page);
   await check('editor, amplifier values');
   await snap('05-amplifier-values');
@@ -182,6 +183,21 @@ async function walk({ page, problems }: WatchedPage, size: Width): Promise<void>
   // Leave the chain list as it was, so later tests find the demo chains on its first page.
   await page.goto(`/w/${wid}/chains`);
   await api(page, 'delete', `/api/chains/${chainId}`);
+}
+
+/** Waits until a select's chosen option reads `label` (a part of it). */
+async function expectChosen(select: Locator, label: string): Promise<void> {
+  let seen = '';
+  try {
+    await waitUntil(async () => {
+      seen = await select.evaluate(
+        (el) => (el as HTMLSelectElement).selectedOptions[0]?.textContent?.trim() ?? '',
+      );
+      return seen.includes(label);
+    }, `"${label}" chosen`);
+  } catch {
+    throw new Error(`expected "${label}" chosen, the select shows "${seen}"`);
+  }
 }
 
 /** Opens a stage's values: select its card; on a phone the values come up as a sheet. */
