@@ -73,6 +73,37 @@ describe('the sweep columns written by hand', () => {
     );
   });
 
+  it('should write an untouched report’s lazy traces as the same bytes as the settled traces', () => {
+    const doc = parseChainDocument(
+      JSON.parse(
+        readFileSync(
+          path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
+          'utf8',
+        ),
+      ),
+    );
+    for (const packing of ['plain', 'differences'] as const) {
+      const { sweep, ...rest } = analyzeChain(doc, { sweep: true });
+      // Written first, from traces never read (the writer computes them without settling).
+      const lazy = written(rest, sweep!, SWEEP_TRACES, undefined, packing);
+      expect(Object.getOwnPropertyDescriptor(sweep!.nodes[0], 'stepUpDb')?.get).toBeDefined();
+      expect(lazy).toBe(expected(rest, sweep!, SWEEP_TRACES, undefined, packing));
+      expect(written(rest, sweep!, SWEEP_TRACES, undefined, packing)).toBe(lazy);
+    }
+  });
+
+  it('should write a trace assigned over a lazy one as assigned', () => {
+    const doc = parseChainDocument(
+      JSON.parse(readFileSync(path.join(REPO_ROOT, 'examples', examples[0]), 'utf8')),
+    );
+    const { sweep, ...rest } = analyzeChain(doc, { sweep: true });
+    sweep!.returnLossDb = sweep!.freqsHz.map((_, i) => i / 7);
+    sweep!.nodes[0].stepUpDb = sweep!.freqsHz.map((_, i) => -i / 3);
+    const text = written(rest, sweep!, SWEEP_TRACES);
+    expect(JSON.parse(text).sweep.returnLossDb[7]).toBe(1);
+    expect(text).toBe(expected(rest, sweep!, SWEEP_TRACES));
+  });
+
   it('should write difference columns as JSON.stringify does: smooth, spread, zeros, gaps', () => {
     const random = lcg(20261203);
     const smooth = Array.from({ length: 3000 }, (_, i) => 40 * Math.cos(i / 300) - 3);

@@ -13,6 +13,7 @@
  * such values, those from 10^15 up, and shifts beyond the table go through
  * `roundSignificant` and JSON.stringify.
  */
+import { nodeTraceValues, traceValues } from '../../shared/engine/core/sweep-report';
 import type { SweepReport } from '../../shared/engine/types';
 import {
   FREQUENCY_DIGITS,
@@ -169,11 +170,16 @@ function writeColumn(values: ArrayLike<number>, digits: number): void {
 
 type ColumnWriter = (values: ArrayLike<number>, digits: number) => void;
 
-function writeColumns(key: string, columns: ArrayLike<number>[], write: ColumnWriter): void {
+function writeNodeColumns(
+  key: 'stepUpDb' | 'phaseDeg',
+  sweep: SweepReport,
+  nodes: SweepReport['nodes'],
+  write: ColumnWriter,
+): void {
   ascii(`,"${key}":[`);
-  columns.forEach((c, i) => {
+  nodes.forEach((node, i) => {
     if (i > 0) ascii(',');
-    write(c, SWEEP_DIGITS);
+    write(nodeTraceValues(sweep, node, key), SWEEP_DIGITS);
   });
   ascii(']');
 }
@@ -207,26 +213,17 @@ export function answerWithSweepJson(
   at += out.write(open, at, 'utf8');
   ascii(`"sweep":{"digits":${SWEEP_DIGITS},`);
   if (packing === 'differences') ascii('"packing":"differences",');
+  // Each column read as a lazy trace's values (not settled into an array), written at once.
   ascii('"freqsHz":');
-  write(sweep.freqsHz, FREQUENCY_DIGITS);
+  write(traceValues(sweep, 'freqsHz'), FREQUENCY_DIGITS);
   ascii(`,"nodes":${JSON.stringify(chosen.map((n) => n.index))}`);
-  if (want.has('stepUp'))
-    writeColumns(
-      'stepUpDb',
-      chosen.map((n) => n.stepUpDb),
-      write,
-    );
-  if (want.has('phase'))
-    writeColumns(
-      'phaseDeg',
-      chosen.map((n) => n.phaseDeg),
-      write,
-    );
+  if (want.has('stepUp')) writeNodeColumns('stepUpDb', sweep, chosen, write);
+  if (want.has('phase')) writeNodeColumns('phaseDeg', sweep, chosen, write);
   if (want.has('zIn')) {
-    writeOne('zInRe', sweep.zIn.re, write);
-    writeOne('zInIm', sweep.zIn.im, write);
+    writeOne('zInRe', traceValues(sweep, 'zInRe'), write);
+    writeOne('zInIm', traceValues(sweep, 'zInIm'), write);
   }
-  if (want.has('returnLoss')) writeOne('returnLossDb', sweep.returnLossDb, write);
+  if (want.has('returnLoss')) writeOne('returnLossDb', traceValues(sweep, 'returnLossDb'), write);
   ascii('}}');
   return out.subarray(0, at);
 }

@@ -7,8 +7,10 @@
 import { analyzeChain, type BuiltChain, type NodeAnalysis } from '../../shared/engine';
 import {
   lazySweepReport,
+  nodeTraceValues,
   sweepColumns,
   sweepNanShares,
+  traceValues,
 } from '../../shared/engine/core/sweep-report';
 import fc from 'fast-check';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
@@ -130,6 +132,68 @@ describe('sweepColumns', () => {
       expect(Array.from(cols.zinRe)).toEqual(sweep.zIn.re);
       expect(Array.from(cols.zinIm)).toEqual(sweep.zIn.im);
     }
+  });
+});
+
+describe('traceValues and nodeTraceValues', () => {
+  /** Each trace's values as an array of doubles (Object.is equality: -0 and NaN kept). */
+  const read = (sweep: ReturnType<typeof lazy>) => ({
+    freqsHz: Array.from(traceValues(sweep, 'freqsHz')),
+    zInRe: Array.from(traceValues(sweep, 'zInRe')),
+    zInIm: Array.from(traceValues(sweep, 'zInIm')),
+    returnLossDb: Array.from(traceValues(sweep, 'returnLossDb')),
+    stepUpDb: sweep.nodes.map((n) => Array.from(nodeTraceValues(sweep, n, 'stepUpDb'))),
+    phaseDeg: sweep.nodes.map((n) => Array.from(nodeTraceValues(sweep, n, 'phaseDeg'))),
+  });
+  const settled = (sweep: ReturnType<typeof lazy>) => ({
+    freqsHz: sweep.freqsHz,
+    zInRe: sweep.zIn.re,
+    zInIm: sweep.zIn.im,
+    returnLossDb: sweep.returnLossDb,
+    stepUpDb: sweep.nodes.map((n) => n.stepUpDb),
+    phaseDeg: sweep.nodes.map((n) => n.phaseDeg),
+  });
+  const lazy = (rLoad: number, reference?: number) =>
+    analyzeChain(seriesRlc(rLoad, reference), opts).sweep!;
+
+  it.each([
+    ['a reference resistance', 50],
+    ['the source’s own impedance', undefined],
+  ])('gives the traces’ own numbers without settling them, against %s', (_, reference) => {
+    const sweep = lazy(200, reference);
+    const values = read(sweep);
+    // Nothing was settled: every trace is still an accessor.
+    const accessor = (o: object, k: string) => Object.getOwnPropertyDescriptor(o, k)?.get;
+    for (const k of ['freqsHz', 'zIn', 'returnLossDb']) expect(accessor(sweep, k)).toBeDefined();
+    for (const n of sweep.nodes) expect(accessor(n, 'stepUpDb')).toBeDefined();
+    expect(values).toEqual(settled(sweep));
+    // Settled now: the same numbers again, read from the traces themselves.
+    expect(read(sweep)).toEqual(values);
+  });
+
+  it('gives an assigned trace, and a plain report’s arrays, as they are', () => {
+    const sweep = lazy(200, 50);
+    const fresh = settled(lazy(200, 50));
+    sweep.returnLossDb = [1, 2, 3];
+    sweep.nodes[1].stepUpDb = [4, 5];
+    sweep.zIn = { re: [6], im: [7] };
+    const values = read(sweep);
+    expect(values.returnLossDb).toEqual([1, 2, 3]);
+    expect(values.stepUpDb).toEqual([fresh.stepUpDb[0], [4, 5]]);
+    expect([values.zInRe, values.zInIm]).toEqual([[6], [7]]);
+    expect(values.freqsHz).toEqual(fresh.freqsHz);
+    const plain = JSON.parse(JSON.stringify(lazy(10, 50))) as ReturnType<typeof lazy>;
+    expect(read(plain)).toEqual(settled(plain));
+  });
+
+  it('keeps each report’s numbers when read after later analyses', () => {
+    const first = lazy(200, 50);
+    const later = lazy(10, 50);
+    const a = Array.from(nodeTraceValues(first, first.nodes[1], 'stepUpDb'));
+    const b = Array.from(nodeTraceValues(later, later.nodes[1], 'stepUpDb'));
+    expect(a).toEqual(first.nodes[1].stepUpDb);
+    expect(b).toEqual(later.nodes[1].stepUpDb);
+    expect(a).not.toEqual(b);
   });
 });
 

@@ -36,12 +36,30 @@ interface SweepSource {
   vFinite: boolean[];
   /** Whether both parts of the input impedance are finite at every point. */
   zinFinite: boolean;
+  zsrcRe: Float64Array;
+  zsrcIm: Float64Array;
+  reference: number | null;
+  /** The report's node objects, in the order of `vRe`/`vIm`. */
+  nodes: SweepReport['nodes'];
 }
 const sources = new WeakMap<SweepReport, SweepSource>();
 
 /** Step-up at point i, dB: |V|/|Es| (the one formula of the trace and its readers). */
 function stepUpAt(re: Float64Array, im: Float64Array, emf: Float64Array, i: number): number {
   return db20(hypot2(re[i], im[i]) / abs(emf[i]));
+}
+
+/** Phase at point i, degrees. */
+function phaseAt(re: Float64Array, im: Float64Array, i: number): number {
+  return (atan2(im[i], re[i]) * 180) / PI;
+}
+
+/** Return loss at point i, dB, against `reference` or (null) the source's own impedance. */
+function returnLossAt(src: SweepSource, i: number): number {
+  const { zinRe, zinIm, reference } = src;
+  return reference === null
+    ? returnLossConjugate(zinRe[i], zinIm[i], src.zsrcRe[i], src.zsrcIm[i])
+    : returnLossAgainst(zinRe[i], zinIm[i], reference);
 }
 
 /**
@@ -173,14 +191,14 @@ function settle<T>(obj: object, key: string, value: T): T {
  * |Γ| = |Z − R|/|Z + R|, an open input reflecting totally.
  */
 function returnLossAgainst(zr: number, zi: number, ref: number): number {
-  const g = isFiniteNumber(zr) && isFiniteNumber(zi) ? hypot(zr - ref, zi) / hypot(zr + ref, zi) : 1; // prettier-ignore
+  const g = isFiniteNumber(zr) && isFiniteNumber(zi) ? hypot2(zr - ref, zi) / hypot2(zr + ref, zi) : 1; // prettier-ignore
   return 0 - db20(g);
 }
 
 /** Return loss against the source's own impedance (conjugate match), dB. */
 function returnLossConjugate(zr: number, zi: number, sr: number, si: number): number {
   const open = !isFiniteNumber(zr) || !isFiniteNumber(zi) || !isFiniteNumber(sr) || !isFiniteNumber(si); // prettier-ignore
-  return 0 - db20(open ? 1 : hypot(zr - sr, zi + si) / hypot(zr + sr, zi + si));
+  return 0 - db20(open ? 1 : hypot2(zr - sr, zi + si) / hypot2(zr + sr, zi + si));
 }
 
 /**
@@ -257,7 +275,7 @@ export function lazySweepReport(
       },
       get phaseDeg() {
         const out = new Array<number>(P);
-        for (let i = 0; i < P; i++) out[i] = (atan2(im[i], re[i]) * 180) / PI;
+        for (let i = 0; i < P; i++) out[i] = phaseAt(re, im, i);
         return settle(node, 'phaseDeg', out);
       },
       set phaseDeg(value) {
@@ -266,6 +284,21 @@ export function lazySweepReport(
     };
     return node;
   });
+  const source: SweepSource = {
+    P,
+    vRe,
+    vIm,
+    emf,
+    freqs,
+    zinRe,
+    zinIm,
+    vFinite,
+    zinFinite,
+    zsrcRe,
+    zsrcIm,
+    reference,
+    nodes,
+  };
   // Keys in the order readers have always seen: freqsHz, nodes, zIn, returnLossDb.
   const report: SweepReport = {
     get freqsHz() {
@@ -283,18 +316,74 @@ export function lazySweepReport(
     },
     get returnLossDb() {
       const out = new Array<number>(P);
-      for (let i = 0; i < P; i++) {
-        out[i] =
-          reference === null
-            ? returnLossConjugate(zinRe[i], zinIm[i], zsrcRe[i], zsrcIm[i])
-            : returnLossAgainst(zinRe[i], zinIm[i], reference);
-      }
+      for (let i = 0; i < P; i++) out[i] = returnLossAt(source, i);
       return settle(report, 'returnLossDb', out);
     },
     set returnLossDb(value) {
       settle(report, 'returnLossDb', value);
     },
   };
-  sources.set(report, { P, vRe, vIm, emf, freqs, zinRe, zinIm, vFinite, zinFinite });
+  sources.set(report, source);
   return report;
+}
+
+/** Whether `obj[key]` is still a lazy trace: an accessor, neither read nor assigned yet. */
+function isLazy(obj: object, key: string): boolean {
+  return Object.getOwnPropertyDescriptor(obj, key)?.get !== undefined;
+}
+
+/** The column a computed trace is written into for `traceValues` (reused). */
+let column = new Float64Array(0);
+/** A column longer than this is not kept between calls. */
+const KEPT_COLUMN_POINTS = 1 << 16;
+
+function columnOf(P: number): Float64Array {
+  if (column.length === P) return column;
+  const c = new Float64Array(P);
+  if (P <= KEPT_COLUMN_POINTS) column = c;
+  return c;
+}
+
+/** A trace of the whole sweep (not of one node). */
+export type SweepTraceKey = 'freqsHz' | 'zInRe' | 'zInIm' | 'returnLossDb';
+
+/**
+ * A trace's values for a writer that reads each value once, the same numbers as the trace,
+ * without settling a lazy trace (which makes an array of it): the frequencies and Zin as the
+ * arrays the report was made from, the return loss computed into a column that the next call
+ * overwrites (read it first). A trace already read or assigned, and a report not made
+ * here, give the trace itself.
+ */
+export function traceValues(sweep: SweepReport, key: SweepTraceKey): ArrayLike<number> {
+  const src = sources.get(sweep);
+  if (key === 'freqsHz') return src && isLazy(sweep, key) ? src.freqs : sweep.freqsHz;
+  if (key === 'returnLossDb') {
+    if (!src || !isLazy(sweep, key)) return sweep.returnLossDb;
+    const out = columnOf(src.P);
+    for (let i = 0; i < src.P; i++) out[i] = returnLossAt(src, i);
+    return out;
+  }
+  if (src && isLazy(sweep, 'zIn')) return key === 'zInRe' ? src.zinRe : src.zinIm;
+  return key === 'zInRe' ? sweep.zIn.re : sweep.zIn.im;
+}
+
+/**
+ * A node's trace as `traceValues` gives the sweep's: a lazy one computed into the column the
+ * next call overwrites, without settling it.
+ */
+export function nodeTraceValues(
+  sweep: SweepReport,
+  node: SweepReport['nodes'][number],
+  key: 'stepUpDb' | 'phaseDeg',
+): ArrayLike<number> {
+  const src = sources.get(sweep);
+  const n = src && isLazy(node, key) ? src.nodes.indexOf(node) : -1;
+  if (n < 0) return node[key];
+  const { P, emf } = src!;
+  const re = src!.vRe[n];
+  const im = src!.vIm[n];
+  const out = columnOf(P);
+  if (key === 'stepUpDb') for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
+  else for (let i = 0; i < P; i++) out[i] = phaseAt(re, im, i);
+  return out;
 }
