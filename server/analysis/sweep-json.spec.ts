@@ -111,7 +111,14 @@ describe('the sweep columns written by hand', () => {
     const spread = Array.from({ length: 500 }, () => (random() - 0.5) * 10 ** (random() * 8));
     const zeros = [0, -0, 0];
     const gaps = [1, NaN, 3];
-    for (const values of [smooth, spread, zeros, gaps, []]) {
+    // Columns found unpackable only after their first steps were written: a count beyond the
+    // exact limit, and a shift too far from the finest for an exact power of ten.
+    const late = [1e-12, 2e-12, 5, 6];
+    const far = [1e-15, 2e-15, 1e8];
+    for (const values of [late, far]) {
+      expect(Array.isArray(JSON.parse(written({}, sweepOf(values), ['returnLoss'], undefined, 'differences')).sweep.returnLossDb)).toBe(true); // prettier-ignore
+    }
+    for (const values of [smooth, spread, zeros, gaps, late, far, []]) {
       expect(written({ a: 1 }, sweepOf(values), SWEEP_TRACES, undefined, 'differences')).toBe(
         expected({ a: 1 }, sweepOf(values), SWEEP_TRACES, undefined, 'differences'),
       );

@@ -21,7 +21,7 @@ import {
   roundSignificant,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
-import { columnCounts, type SweepPacking } from '../../shared/schema/sweep-packing';
+import { columnMantissas, MAX_COUNT, type SweepPacking } from '../../shared/schema/sweep-packing';
 
 const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
 
@@ -99,31 +99,66 @@ function writeRounded(v: number, digits: number): void {
   for (let i = shift - 1; i >= low; i--) out[at++] = ZERO + digitsScratch[i];
 }
 
-/** The column's counts, reused between columns (grown as needed). */
-let counts = new Float64Array(4096);
+/** The column's mantissas and their shifts, reused between columns (grown as needed). */
+let mantissas = new Float64Array(4096);
+let shifts = new Int32Array(4096);
 
 /** Bytes a count's second difference takes at most: a comma, a sign and 16 digits. */
 const MAX_STEP_BYTES = 18;
 
+/** The two digits of 0 … 99 as ASCII, at 2·n and 2·n + 1. */
+const DIGIT_PAIRS = Uint8Array.from({ length: 200 }, (_, i) =>
+  i % 2 === 0 ? ZERO + Math.floor(i / 20) : ZERO + ((i >> 1) % 10),
+);
+
 /**
  * Writes `values` as JSON prints `packColumn(values, digits, …)`: a difference column, or
- * the plain rounded array where the column cannot be packed exactly. The second
- * differences are written as they are formed (secondDifferences' arithmetic), into room
- * made once for the whole column.
+ * the plain rounded array where the column cannot be packed exactly. After the mantissas
+ * (`columnMantissas`), one pass widens each to its count, checks it (a count beyond
+ * `MAX_COUNT` sends the column plain: what is written so far is dropped) and writes its
+ * second difference (`secondDifferences`' numbers: exact integers either way), into room
+ * made once for the whole column, its digits two at a time backward from the last.
  */
 function writePackedColumn(values: ArrayLike<number>, digits: number): void {
   const n = values.length;
-  if (counts.length < n) counts = new Float64Array(Math.max(n, 2 * counts.length));
-  const decimals = columnCounts(values, digits, counts);
-  if (decimals === undefined) return writeColumn(values, digits);
-  ascii(`{"decimals":${decimals},"steps":[`);
+  if (mantissas.length < n) {
+    mantissas = new Float64Array(Math.max(n, 2 * mantissas.length));
+    shifts = new Int32Array(mantissas.length);
+  }
+  const finest = columnMantissas(values, digits, mantissas, shifts);
+  if (finest === undefined) return writeColumn(values, digits);
+  const start = at;
+  ascii(`{"decimals":${finest},"steps":[`);
   room(n * MAX_STEP_BYTES + 2);
   const o = out;
+  const m = mantissas;
+  const sh = shifts;
   let p = at;
+  let before = 0;
+  let step = 0;
   for (let i = 0; i < n; i++) {
+    let k = m[i];
+    if (k !== 0) {
+      const widen = finest - sh[i];
+      if (widen !== 0) {
+        if (widen > 22) {
+          at = start;
+          return writeColumn(values, digits);
+        }
+        k *= POW10[widen];
+      }
+      // |m| < 2^53 always; the product is exact while it stays at most MAX_COUNT.
+      if (!(k <= MAX_COUNT && k >= -MAX_COUNT)) {
+        at = start;
+        return writeColumn(values, digits);
+      }
+    } else k = 0; // never -0 on the wire
+    // The first count, then the first step, then each step's change.
+    const s = k - before;
+    let d = s - step;
+    step = i === 0 ? 0 : s;
+    before = k;
     if (i > 0) o[p++] = COMMA;
-    let d =
-      i === 0 ? counts[0] : i === 1 ? counts[1] - counts[0] : counts[i] - 2 * counts[i - 1] + counts[i - 2]; // prettier-ignore
     if (d === 0) {
       o[p++] = ZERO;
       continue;
@@ -136,24 +171,42 @@ function writePackedColumn(values: ArrayLike<number>, digits: number): void {
       o[p++] = ZERO + d;
       continue;
     }
-    let len = 0;
     if (d < 2 ** 31) {
-      for (let v = d | 0; v > 0;) {
-        const q = (v / 10) | 0;
-        digitsScratch[len++] = v - q * 10;
+      let v = d | 0;
+      let e = (p += v < 100 ? 2 : v < 1000 ? 3 : v < 10000 ? 4 : digitCount(v));
+      while (v >= 100) {
+        const q = (v / 100) | 0;
+        const r = (v - q * 100) << 1;
+        o[--e] = DIGIT_PAIRS[r + 1];
+        o[--e] = DIGIT_PAIRS[r];
         v = q;
       }
-    } else {
-      for (let v = d; v > 0;) {
-        const q = Math.floor(v / 10);
-        digitsScratch[len++] = v - q * 10;
-        v = q;
-      }
+      if (v >= 10) {
+        o[--e] = DIGIT_PAIRS[2 * v + 1];
+        o[--e] = DIGIT_PAIRS[2 * v];
+      } else o[--e] = ZERO + v;
+      continue;
+    }
+    let len = 0;
+    for (let v = d; v > 0;) {
+      const q = Math.floor(v / 10);
+      digitsScratch[len++] = v - q * 10;
+      v = q;
     }
     while (len > 0) o[p++] = ZERO + digitsScratch[--len];
   }
   at = p;
   ascii(']}');
+}
+
+/** The number of decimal digits of 0 < v < 2^31. */
+function digitCount(v: number): number {
+  let len = 1;
+  while (v >= 10) {
+    v = (v / 10) | 0;
+    len++;
+  }
+  return len;
 }
 
 function writeColumn(values: ArrayLike<number>, digits: number): void {

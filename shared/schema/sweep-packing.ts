@@ -57,18 +57,19 @@ export function roundedMantissa(v: number, shift: number): number {
 }
 
 /**
- * Fills `counts` with the column's counts at its finest decimal step and returns that
- * step's `decimals`, or undefined when the column must go plain (a non-finite value, a
- * shift without an exact power of ten, a count beyond `MAX_COUNT`). `counts` must hold
- * `values.length` numbers.
+ * The first pass of `columnCounts`: fills `mantissas` with each value's rounded mantissa
+ * (`roundedMantissa` at its own shift; a zero's is 0) and `shifts` with that shift, and
+ * returns the finest shift (0 for a column of zeros), or undefined when the column must go
+ * plain (a non-finite value, a shift without an exact power of ten). Both arrays must hold
+ * `values.length` numbers. A value's count is then its mantissa · 10^(finest − shift).
  */
-export function columnCounts(
+export function columnMantissas(
   values: ArrayLike<number>,
   digits: number,
-  counts: { [i: number]: number },
+  mantissas: { [i: number]: number },
+  shifts: { [i: number]: number },
 ): number | undefined {
   const n = values.length;
-  if (shifts.length < n) shifts = new Int32Array(Math.max(n, 2 * shifts.length));
   let finest = -Infinity;
   // The decade of the value before, and the bounds well inside it: a value within them has
   // that decade's shift without a logarithm (neighbouring points mostly share a decade).
@@ -78,7 +79,8 @@ export function columnCounts(
   for (let i = 0; i < n; i++) {
     const v = values[i];
     if (v === 0) {
-      counts[i] = 0;
+      mantissas[i] = 0;
+      shifts[i] = shift;
       continue;
     }
     const a = v < 0 ? -v : v;
@@ -91,12 +93,29 @@ export function columnCounts(
       // logarithm would give the same decade.
       low = decade >= -300 && decade <= 300 ? 10 ** decade * (1 + 1e-9) : Infinity;
       high = decade >= -300 && decade <= 300 ? 10 ** (decade + 1) * (1 - 1e-9) : -Infinity;
+      if (shift > finest) finest = shift;
     }
-    if (shift > finest) finest = shift;
     shifts[i] = shift;
-    counts[i] = roundedMantissa(v, shift);
+    mantissas[i] = roundedMantissa(v, shift);
   }
-  if (finest === -Infinity) return 0;
+  return finest === -Infinity ? 0 : finest;
+}
+
+/**
+ * Fills `counts` with the column's counts at its finest decimal step and returns that
+ * step's `decimals`, or undefined when the column must go plain (a non-finite value, a
+ * shift without an exact power of ten, a count beyond `MAX_COUNT`). `counts` must hold
+ * `values.length` numbers.
+ */
+export function columnCounts(
+  values: ArrayLike<number>,
+  digits: number,
+  counts: { [i: number]: number },
+): number | undefined {
+  const n = values.length;
+  if (shifts.length < n) shifts = new Int32Array(Math.max(n, 2 * shifts.length));
+  const finest = columnMantissas(values, digits, counts, shifts);
+  if (finest === undefined) return undefined;
   for (let i = 0; i < n; i++) {
     const m = counts[i];
     if (m === 0) {
