@@ -125,7 +125,7 @@ export function analyzeBuilt(
     selectivity,
     levels,
     flags,
-    ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa) }),
+    ...(options.sweep === false ? {} : { sweep: sweepReport(built, sweepNa, grid) }),
     ...(plan ? { plan } : {}),
     ...(built.mode ? { mode: built.mode } : {}),
     ...(traps.length > 0 ? { traps } : {}),

@@ -196,7 +196,13 @@ export function levelsReport(
  * The sweep as plain arrays for plotting: step-up and phase per user node, input Zin and RL
  * (against the reference chosen for the chain input, else against the source's own
  * impedance). The traces are computed when first read (sweep-report.ts).
+ * @param inputFreqs the frequencies the sweep ran over, when nothing changes or reuses them
+ *   (read as they are, not copied)
  */
-export function sweepReport(built: BuiltChain, na: NodeAnalysis): SweepReport {
-  return lazySweepReport(built, na, nodeReference(built, 0));
+export function sweepReport(
+  built: BuiltChain,
+  na: NodeAnalysis,
+  inputFreqs?: Float64Array,
+): SweepReport {
+  return lazySweepReport(built, na, nodeReference(built, 0), inputFreqs);
 }

@@ -205,36 +205,43 @@ function returnLossConjugate(zr: number, zi: number, sr: number, si: number): nu
  * The sweep report of a node analysis over the sweep grid.
  * @param reference the reference resistance chosen for the chain input, Ω; null to judge the
  *   return loss against the source's own impedance (the conjugate match it really wants)
+ * @param inputFreqs the frequencies the node analysis ran over, when the caller neither
+ *   changes nor reuses them: read as they are instead of copied from the workspace
  */
 export function lazySweepReport(
   built: BuiltChain,
   na: NodeAnalysis,
   reference: number | null,
+  inputFreqs?: Float64Array,
 ): SweepReport {
   const P = na.points;
   const flats = built.userNodeFlat;
   const U = flats.length;
+  const ownFreqs = inputFreqs?.length === P ? inputFreqs : undefined;
   // A workspace the next analysis may reuse is copied (one allocation: per user node the
-  // voltage, then six single traces); a one-off one (a long sweep) is read in place, which
-  // spares a second copy of the largest arrays of the analysis.
-  const all = isOneOffWorkspace(na) ? null : new Float64Array((2 * U + 6) * P);
-  const trace = (from: Float64Array, row: number, slot: number) => {
+  // voltage, then the single traces: the EMF, Zin, the frequencies unless given, and the
+  // source's impedance when the return loss is judged against it); a one-off one (a long
+  // sweep) is read in place, which spares a second copy of the largest arrays of the analysis.
+  const single = 3 + (ownFreqs ? 0 : 1) + (reference === null ? 2 : 0);
+  const all = isOneOffWorkspace(na) ? null : new Float64Array((2 * U + single) * P);
+  let slot = 0;
+  const trace = (from: Float64Array, row: number) => {
     const view = from.subarray(row * P, (row + 1) * P);
     if (!all) return view;
-    const t = all.subarray(slot * P, (slot + 1) * P);
+    const t = all.subarray(slot * P, ++slot * P);
     t.set(view);
     return t;
   };
   // The traces the last check reads for lost points: whether they are all finite is found
   // while copying them (read in place, by one pass over them).
   let finite = true;
-  const checkedTrace = (from: Float64Array, row: number, slot: number) => {
+  const checkedTrace = (from: Float64Array, row: number) => {
     const view = from.subarray(row * P, (row + 1) * P);
     if (!all) {
       finite = allFinite(view);
       return view;
     }
-    const t = all.subarray(slot * P, (slot + 1) * P);
+    const t = all.subarray(slot * P, ++slot * P);
     finite = copyAllFinite(view, t);
     return t;
   };
@@ -243,20 +250,21 @@ export function lazySweepReport(
   const vFinite: boolean[] = [];
   for (let n = 0; n < U; n++) {
     const row = voltageRow(na, flats[n]);
-    vRe.push(checkedTrace(na.vRe, row, 2 * n));
+    vRe.push(checkedTrace(na.vRe, row));
     const reFinite = finite;
-    vIm.push(checkedTrace(na.vIm, row, 2 * n + 1));
+    vIm.push(checkedTrace(na.vIm, row));
     vFinite.push(reFinite && finite);
   }
-  const emf = trace(na.emf, 0, 2 * U);
-  const freqs = trace(na.freqs, 0, 2 * U + 1);
+  const emf = trace(na.emf, 0);
+  const freqs = ownFreqs ?? trace(na.freqs, 0);
   const input = impedanceRow(na, 0);
-  const zinRe = checkedTrace(na.zinRe, input, 2 * U + 2);
+  const zinRe = checkedTrace(na.zinRe, input);
   const reFinite = finite;
-  const zinIm = checkedTrace(na.zinIm, input, 2 * U + 3);
+  const zinIm = checkedTrace(na.zinIm, input);
   const zinFinite = reFinite && finite;
-  const zsrcRe = trace(na.zsrcRe, input, 2 * U + 4);
-  const zsrcIm = trace(na.zsrcIm, input, 2 * U + 5);
+  // Read only by the return loss against the source's own impedance.
+  const zsrcRe = reference === null ? trace(na.zsrcRe, input) : zinRe;
+  const zsrcIm = reference === null ? trace(na.zsrcIm, input) : zinIm;
 
   // Each trace an accessor written in an object literal (own, enumerable, configurable, as
   // defineProperty would make it, without its cost): computed on first read, then settled.
