@@ -92,6 +92,21 @@ describe('the sweep columns written by hand', () => {
     }
   });
 
+  it('should write a report read in place as the same bytes as a copied one', () => {
+    const doc = parseChainDocument(
+      JSON.parse(
+        readFileSync(
+          path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
+          'utf8',
+        ),
+      ),
+    );
+    const { sweep: copied, ...rest } = analyzeChain(doc, { sweep: true });
+    const want = written(rest, copied!, SWEEP_TRACES, undefined, 'differences');
+    const inPlace = analyzeChain(doc, { sweep: true, sweepInPlace: true }).sweep!;
+    expect(written(rest, inPlace, SWEEP_TRACES, undefined, 'differences')).toBe(want);
+  });
+
   it('should write a trace assigned over a lazy one as assigned', () => {
     const doc = parseChainDocument(
       JSON.parse(readFileSync(path.join(REPO_ROOT, 'examples', examples[0]), 'utf8')),

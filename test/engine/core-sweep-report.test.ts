@@ -197,6 +197,34 @@ describe('traceValues and nodeTraceValues', () => {
   });
 });
 
+describe('a sweep report read in place (sweepInPlace)', () => {
+  it('holds the copied report’s numbers until the next analysis, and refuses reads after it', () => {
+    const copied = analyzeChain(seriesRlc(200), opts).sweep!;
+    const expected = JSON.parse(JSON.stringify(copied));
+    const inPlace = analyzeChain(seriesRlc(200), { ...opts, sweepInPlace: true }).sweep!;
+    // One trace read (and so settled) before the next analysis, the rest left lazy.
+    const settledStepUp = inPlace.nodes[1].stepUpDb;
+    expect(Array.from(nodeTraceValues(inPlace, inPlace.nodes[0], 'stepUpDb'))).toEqual(
+      expected.nodes[0].stepUpDb,
+    );
+    expect(Array.from(traceValues(inPlace, 'returnLossDb'))).toEqual(expected.returnLossDb);
+    expect(sweepNanShares(inPlace).zIn).toBe(0);
+    // The copied report is its own: the in-place analysis did not touch it.
+    expect(JSON.parse(JSON.stringify(copied))).toEqual(expected);
+    analyzeChain(seriesRlc(10), opts);
+    expect(settledStepUp).toEqual(expected.nodes[1].stepUpDb);
+    expect(inPlace.nodes[1].stepUpDb).toBe(settledStepUp);
+    expect(() => inPlace.returnLossDb).toThrow(/after a later analysis reused its workspace/);
+    expect(() => inPlace.nodes[0].phaseDeg).toThrow(/reused its workspace/);
+    expect(() => traceValues(inPlace, 'zInRe')).toThrow(/reused its workspace/);
+    expect(() => nodeTraceValues(inPlace, inPlace.nodes[0], 'stepUpDb')).toThrow(/reused/);
+    expect(() => sweepNanShares(inPlace)).toThrow(/reused its workspace/);
+    expect(() => JSON.stringify(inPlace)).toThrow(/reused its workspace/);
+    // A copied report made before the same later analysis is still whole.
+    expect(JSON.parse(JSON.stringify(copied))).toEqual(expected);
+  });
+});
+
 describe('sweepNanShares', () => {
   it('counts the points a trace loses without computing it, as the computed trace shows them', () => {
     // Two user nodes over 6 points: voltages, EMFs and impedances with NaN, ∞ and 0 mixed in.

@@ -88,6 +88,8 @@ export interface NodeAnalysis {
   blockZinIm?: Float64Array;
   blockZsrcRe?: Float64Array;
   blockZsrcIm?: Float64Array;
+  /** How many runs have written this workspace (a reader in place can tell it was reused). */
+  runs: number;
 }
 
 /** What a workspace keeps beyond what every analysis needs. */
@@ -186,6 +188,7 @@ export function createNodeAnalysis(
     emf: new Float64Array(points),
     blockAbcd: new Float64Array(8 * built.sections.length * block),
     blockPair: new Float64Array(2 * block),
+    runs: 0,
   };
   if (vRow) {
     na.vRow = vRow;
@@ -309,6 +312,7 @@ export function runNodeAnalysis(
 ): NodeAnalysis {
   const P = freqs.length;
   const na = ws && fitsWorkspace(ws, built, P) ? ws : createNodeAnalysis(built, P);
+  na.runs++;
   // Copied natively: a loop here runs once per analysis, interpreted in a cold process.
   na.freqs.set(freqs);
   if (na.zRow)

@@ -198,11 +198,13 @@ export function levelsReport(
  * impedance). The traces are computed when first read (sweep-report.ts).
  * @param inputFreqs the frequencies the sweep ran over, when nothing changes or reuses them
  *   (read as they are, not copied)
+ * @param inPlace read the workspace in place until its next run (see `lazySweepReport`)
  */
 export function sweepReport(
   built: BuiltChain,
   na: NodeAnalysis,
   inputFreqs?: Float64Array,
+  inPlace = false,
 ): SweepReport {
-  return lazySweepReport(built, na, nodeReference(built, 0), inputFreqs);
+  return lazySweepReport(built, na, nodeReference(built, 0), inputFreqs, inPlace);
 }

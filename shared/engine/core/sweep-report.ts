@@ -41,8 +41,28 @@ interface SweepSource {
   reference: number | null;
   /** The report's node objects, in the order of `vRe`/`vIm`. */
   nodes: SweepReport['nodes'];
+  /** A reused workspace read in place, and its run count then (see `inPlace`). */
+  lent?: NodeAnalysis;
+  lentRuns?: number;
 }
 const sources = new WeakMap<SweepReport, SweepSource>();
+
+/** Refuses a source whose workspace, read in place, a later run has overwritten. */
+function checkLent(src: SweepSource): SweepSource {
+  if (src.lent && src.lent.runs !== src.lentRuns) {
+    throw new Error(
+      'the sweep report was read after a later analysis reused its workspace (it was made ' +
+        'to be read in place, before the next analysis)',
+    );
+  }
+  return src;
+}
+
+/** The report's source, if it has one, refused when read in place after its workspace's reuse. */
+function sourceOf(sweep: SweepReport): SweepSource | undefined {
+  const src = sources.get(sweep);
+  return src && checkLent(src);
+}
 
 /** Step-up at point i, dB: |V|/|Es| (the one formula of the trace and its readers). */
 function stepUpAt(re: Float64Array, im: Float64Array, emf: Float64Array, i: number): number {
@@ -76,7 +96,7 @@ export interface SweepColumns {
 }
 
 export function sweepColumns(sweep: SweepReport): SweepColumns {
-  const src = sources.get(sweep);
+  const src = sourceOf(sweep);
   if (!src) {
     return {
       freqs: sweep.freqsHz,
@@ -145,7 +165,7 @@ function nanShare(values: ArrayLike<number>): number {
  * dB is NaN exactly where |V|/|Es| is, which finite values with a non-zero EMF never are.
  */
 export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: number[] } {
-  const src = sources.get(sweep);
+  const src = sourceOf(sweep);
   if (!src) {
     return {
       zIn: Math.max(nanShare(sweep.zIn.re), nanShare(sweep.zIn.im)),
@@ -207,12 +227,15 @@ function returnLossConjugate(zr: number, zi: number, sr: number, si: number): nu
  *   return loss against the source's own impedance (the conjugate match it really wants)
  * @param inputFreqs the frequencies the node analysis ran over, when the caller neither
  *   changes nor reuses them: read as they are instead of copied from the workspace
+ * @param inPlace read a reused workspace in place, not a copy: for a caller that reads the
+ *   report before the workspace's next run, after which every read of it throws
  */
 export function lazySweepReport(
   built: BuiltChain,
   na: NodeAnalysis,
   reference: number | null,
   inputFreqs?: Float64Array,
+  inPlace = false,
 ): SweepReport {
   const P = na.points;
   const flats = built.userNodeFlat;
@@ -223,7 +246,8 @@ export function lazySweepReport(
   // source's impedance when the return loss is judged against it); a one-off one (a long
   // sweep) is read in place, which spares a second copy of the largest arrays of the analysis.
   const single = 3 + (ownFreqs ? 0 : 1) + (reference === null ? 2 : 0);
-  const all = isOneOffWorkspace(na) ? null : new Float64Array((2 * U + single) * P);
+  const oneOff = isOneOffWorkspace(na);
+  const all = oneOff || inPlace ? null : new Float64Array((2 * U + single) * P);
   let slot = 0;
   const trace = (from: Float64Array, row: number) => {
     const view = from.subarray(row * P, (row + 1) * P);
@@ -274,6 +298,7 @@ export function lazySweepReport(
     const node: SweepReport['nodes'][number] = {
       index,
       get stepUpDb() {
+        checkLent(source);
         const out = new Array<number>(P);
         for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
         return settle(node, 'stepUpDb', out);
@@ -282,6 +307,7 @@ export function lazySweepReport(
         settle(node, 'stepUpDb', value);
       },
       get phaseDeg() {
+        checkLent(source);
         const out = new Array<number>(P);
         for (let i = 0; i < P; i++) out[i] = phaseAt(re, im, i);
         return settle(node, 'phaseDeg', out);
@@ -306,10 +332,14 @@ export function lazySweepReport(
     zsrcIm,
     reference,
     nodes,
+    // A reused workspace read in place: refused once its next run has overwritten it.
+    lent: all || oneOff ? undefined : na,
+    lentRuns: na.runs,
   };
   // Keys in the order readers have always seen: freqsHz, nodes, zIn, returnLossDb.
   const report: SweepReport = {
     get freqsHz() {
+      checkLent(source);
       return settle(report, 'freqsHz', Array.from(freqs));
     },
     set freqsHz(value) {
@@ -317,12 +347,14 @@ export function lazySweepReport(
     },
     nodes,
     get zIn() {
+      checkLent(source);
       return settle(report, 'zIn', { re: Array.from(zinRe), im: Array.from(zinIm) });
     },
     set zIn(value) {
       settle(report, 'zIn', value);
     },
     get returnLossDb() {
+      checkLent(source);
       const out = new Array<number>(P);
       for (let i = 0; i < P; i++) out[i] = returnLossAt(source, i);
       return settle(report, 'returnLossDb', out);
@@ -363,7 +395,7 @@ export type SweepTraceKey = 'freqsHz' | 'zInRe' | 'zInIm' | 'returnLossDb';
  * here, give the trace itself.
  */
 export function traceValues(sweep: SweepReport, key: SweepTraceKey): ArrayLike<number> {
-  const src = sources.get(sweep);
+  const src = sourceOf(sweep);
   if (key === 'freqsHz') return src && isLazy(sweep, key) ? src.freqs : sweep.freqsHz;
   if (key === 'returnLossDb') {
     if (!src || !isLazy(sweep, key)) return sweep.returnLossDb;
@@ -384,7 +416,7 @@ export function nodeTraceValues(
   node: SweepReport['nodes'][number],
   key: 'stepUpDb' | 'phaseDeg',
 ): ArrayLike<number> {
-  const src = sources.get(sweep);
+  const src = sourceOf(sweep);
   const n = src && isLazy(node, key) ? src.nodes.indexOf(node) : -1;
   if (n < 0) return node[key];
   const { P, emf } = src!;

@@ -243,6 +243,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
       emf,
       blockAbcd: unfilled,
       blockPair: pair,
+      runs: 1,
     };
   }
 
