@@ -90,6 +90,18 @@ export function imageFrequency(built: BuiltChain, mixer: MixerInfo | null): numb
  */
 export const FLOOR_MARGIN_DB = 3;
 
+/** The step-up powers of one node, read within one call only: kept between analyses. */
+let keptPower = new Float64Array(0);
+/** A longer sweep's powers are not kept (a one-off long sweep should not pin its memory). */
+const KEPT_POWER_POINTS = 1 << 16;
+
+function powerScratch(points: number): Float64Array {
+  if (keptPower.length === points) return keptPower;
+  const power = new Float64Array(points);
+  if (points <= KEPT_POWER_POINTS) keptPower = power;
+  return power;
+}
+
 /**
  * Selectivity report of every user-level node. Peaks and band edges are bracketed on the
  * sweep and located by evaluating the chain at single frequencies (peaks to 1e-8 relative,
@@ -115,7 +127,7 @@ export function analyzeSelectivity(
   if (imageHz !== null) exact.push(imageHz);
   const ex = runNodeAnalysis(built, exact, sharedWorkspace('exact', built, exact.length));
   const P = sweepNa.points;
-  const power = new Float64Array(P);
+  const power = powerScratch(P);
   const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
   const probe = createProbe(built);
   const reports: SelectivityReport[] = [];
