@@ -122,6 +122,20 @@ export const TRANSMISSION_LINE: StageDefinition = {
               o,
             );
           },
+          // The block form: the point form's arithmetic at each point, without a call per
+          // point through the node analysis's wrapper for point forms (nor a boxed frequency).
+          fill(f, fo, n, out, oo) {
+            for (let k = 0; k < n; k++) {
+              const fk = f[fo + k];
+              transmissionLineAbcd(
+                alphaRef * Math.sqrt(fk / ref) * len,
+                2 * Math.PI * fk * delay,
+                z0,
+                out,
+                oo + 8 * k,
+              );
+            }
+          },
         },
       ],
       noise: { kind: 'passive' },
