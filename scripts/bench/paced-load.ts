@@ -42,6 +42,8 @@ export interface LoadResult {
   /** Seconds from the first request's due time to the last answer. */
   duration: number;
   latency: { p50: number; p90: number; p99: number; max: number };
+  /** Each second's slowest answer (by due time: second k holds requests due in [k, k+1) s), ms. */
+  worstBySecond: number[];
   /** This process's own CPU time (user + system), ms: it shares the machine with the server. */
   cpuMs: number;
 }
@@ -131,6 +133,7 @@ export function runPacedLoad(spec: LoadSpec): Promise<LoadResult> {
   const request = Buffer.concat([Buffer.from(head, 'latin1'), body]);
   const total = Math.round(spec.rate * spec.seconds);
   const latencies: number[] = [];
+  const worstBySecond = new Array<number>(Math.ceil(spec.seconds)).fill(0);
   const result = { sent: 0, ok: 0, non2xx: 0, errors: 0, timeouts: 0 };
   const cpuStart = process.cpuUsage();
   const start = performance.now();
@@ -147,7 +150,12 @@ export function runPacedLoad(spec: LoadSpec): Promise<LoadResult> {
     const settle = (kind: 'ok' | 'non2xx' | 'errors' | 'timeouts', due: number) => {
       result[kind]++;
       lastEnd = performance.now();
-      if (kind === 'ok') latencies.push(lastEnd - due);
+      if (kind === 'ok') {
+        const latency = lastEnd - due;
+        latencies.push(latency);
+        const second = Math.min(worstBySecond.length - 1, Math.floor((due - start) / 1000));
+        if (latency > worstBySecond[second]) worstBySecond[second] = latency;
+      }
       if (++settled < total) return;
       clearInterval(watch);
       for (const c of open) c.socket.destroy();
@@ -162,6 +170,7 @@ export function runPacedLoad(spec: LoadSpec): Promise<LoadResult> {
           p99: percentile(latencies, 99),
           max: latencies.length ? latencies[latencies.length - 1] : NaN,
         },
+        worstBySecond,
         cpuMs: (cpu.user + cpu.system) / 1000,
       });
     };
