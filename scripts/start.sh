@@ -56,7 +56,9 @@ export CW_SESSION_SECRET
 CW_SESSION_SECRET="$(cat .data/session-secret)"
 # One garbage-collector thread: on a small machine V8's parallel helpers cost more CPU in
 # coordination than they save (the bench's CPU per analysis), and the cores are the analyses'.
-node --enable-source-maps --single-threaded-gc dist/server/main.js &
+# A 32 MB semi-space (V8's default tops out at 16): under a steady load the event loop's young
+# generation is collected a fraction as often, for about the same survivors per collection.
+node --enable-source-maps --single-threaded-gc --max-semi-space-size=32 dist/server/main.js &
 NODE_PID=$!
 if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
   die "the server did not answer on port $PORT (see its messages above)"

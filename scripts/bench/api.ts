@@ -104,11 +104,15 @@ async function startServer(root: string, url: string): Promise<ChildProcess> {
   });
   if (build.status !== 0) throw new Error(`server bundle failed: ${build.stderr}`);
   // Started as scripts/start.sh starts it.
-  const server = spawn(process.execPath, ['--single-threaded-gc', 'dist/server/main.js'], {
-    cwd: root,
-    env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
-    stdio: ['ignore', 'ignore', 'pipe'],
-  });
+  const server = spawn(
+    process.execPath,
+    ['--single-threaded-gc', '--max-semi-space-size=32', 'dist/server/main.js'],
+    {
+      cwd: root,
+      env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
+      stdio: ['ignore', 'ignore', 'pipe'],
+    },
+  );
   let stderr = '';
   server.stderr?.on('data', (c: Buffer) => (stderr += c.toString()));
   const end = Date.now() + 60_000;
