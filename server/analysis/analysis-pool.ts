@@ -8,6 +8,7 @@
 import { existsSync, mkdirSync, mkdtempSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
+import { AsyncResource } from 'node:async_hooks';
 import { Piscina } from 'piscina';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { HttpError } from '../common/errors';
@@ -85,6 +86,12 @@ export class AnalysisStoppedError extends HttpError {
 }
 
 let limits = analysisLimitsFromEnv();
+
+/**
+ * Made as the module loads, so with no request's async context: what starts in it (the
+ * pool's threads, the deadline timer) carries none.
+ */
+const outsideRequests = new AsyncResource('analysis-pool');
 let pool: Piscina<AnalysisTask, AnalysisOutcome> | null = null;
 
 let devBundle: string | undefined;
@@ -129,7 +136,14 @@ export const ANALYSIS_YOUNG_GENERATION_MB = 96;
 
 // At least one thread: piscina 5 with minThreads 0 can leave the first task waiting.
 function thePool(minThreads = 1): Piscina<AnalysisTask, AnalysisOutcome> {
-  pool ??= new Piscina<AnalysisTask, AnalysisOutcome>({
+  // Its threads and ports would otherwise hold the async context of the request that
+  // happened to start it (after a timeout, a new pool starts in one) for the pool's life.
+  pool ??= outsideRequests.runInAsyncScope(() => newPool(minThreads));
+  return pool;
+}
+
+function newPool(minThreads: number): Piscina<AnalysisTask, AnalysisOutcome> {
+  return new Piscina<AnalysisTask, AnalysisOutcome>({
     filename: workerFile(),
     resourceLimits: { maxYoungGenerationSizeMb: ANALYSIS_YOUNG_GENERATION_MB },
     minThreads: Math.max(1, Math.min(minThreads, limits.threads)),
@@ -137,7 +151,6 @@ function thePool(minThreads = 1): Piscina<AnalysisTask, AnalysisOutcome> {
     maxQueue: limits.maxQueue,
     idleTimeout: 60_000,
   });
-  return pool;
 }
 
 /**
@@ -193,14 +206,16 @@ export function withinBudget(doc: ChainDocument, runs = 1): boolean {
  */
 export async function runOnPool(task: AnalysisTask): Promise<AnalysisOutcome> {
   const { timeoutMs } = limits;
-  const timeout = AbortSignal.timeout(timeoutMs);
+  const timeout = new AbortController();
+  const deadline = { at: performance.now() + timeoutMs, controller: timeout };
+  watchDeadline(deadline);
   const running = thePool();
   inFlight++;
   heldBy.set(running, (heldBy.get(running) ?? 0) + 1);
   try {
-    return await running.run(task, { signal: timeout });
+    return await running.run(task, { signal: timeout.signal });
   } catch (err) {
-    if (timeout.aborted) {
+    if (timeout.signal.aborted) {
       retire(running);
       throw new AnalysisTimeoutError(timeoutMs);
     }
@@ -213,11 +228,53 @@ export async function runOnPool(task: AnalysisTask): Promise<AnalysisOutcome> {
     }
     throw err;
   } finally {
+    deadlines.delete(deadline);
     inFlight--;
     const left = (heldBy.get(running) ?? 1) - 1;
     if (left > 0) heldBy.set(running, left);
     else heldBy.delete(running);
     if (left <= 0 && retired.has(running)) end(running);
+  }
+}
+
+interface Deadline {
+  /** performance.now() at which the analysis is stopped. */
+  at: number;
+  controller: AbortController;
+}
+
+/** The analyses in hand and when each runs out of time. */
+const deadlines = new Set<Deadline>();
+/** How often the deadlines are checked, ms: an analysis is stopped at most this late. */
+const DEADLINE_CHECK_MS = 100;
+let deadlineTimer: NodeJS.Timeout | undefined;
+
+/**
+ * Watches `deadline` with one timer for every analysis, not a timer per analysis
+ * (`AbortSignal.timeout`). A timer made while a request is handled carries that request's
+ * async context, its entity manager included, for as long as it is pending: ten seconds per
+ * analysis kept some two thousand request contexts alive under a steady load, and the
+ * garbage collector copied and promoted them all. This timer is made outside any request
+ * (`outsideRequests`) and runs only while analyses are in hand.
+ */
+function watchDeadline(deadline: Deadline): void {
+  deadlines.add(deadline);
+  deadlineTimer ??= outsideRequests.runInAsyncScope(() =>
+    setInterval(checkDeadlines, DEADLINE_CHECK_MS).unref(),
+  );
+}
+
+function checkDeadlines(): void {
+  const now = performance.now();
+  for (const d of deadlines) {
+    if (d.at <= now) {
+      deadlines.delete(d);
+      d.controller.abort(new Error('the analysis ran out of time'));
+    }
+  }
+  if (deadlines.size === 0 && deadlineTimer) {
+    clearInterval(deadlineTimer);
+    deadlineTimer = undefined;
   }
 }
 

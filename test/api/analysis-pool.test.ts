@@ -2,14 +2,18 @@
  * Analyses run on worker threads within two budgets: stages × sweep points (422 above it)
  * and time (503, the thread replaced); the event loop keeps answering meanwhile.
  */
+import { AsyncLocalStorage } from 'node:async_hooks';
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import {
   analysesInFlight,
   analysisLimits,
   analysisThreadIds,
   configureAnalysis,
+  runOnPool,
   stopAnalysisPool,
 } from '../../server/analysis/analysis-pool';
-import type { ChainDocumentInput } from '../../shared/schema/chain';
+import { chainDocumentSchema, type ChainDocumentInput } from '../../shared/schema/chain';
 import { createUser, createWorkspace, send, signIn, type Client } from './support/agents';
 import { fixtureChain } from './support/chain-fixture';
 import { createTestContext, type TestContext } from './support/test-db';
@@ -106,6 +110,29 @@ describe('the time budget', () => {
     expect(after.status).toBe(200);
     expect(analysisThreadIds()).toHaveLength(1);
     expect(analysisThreadIds()).not.toEqual(before);
+  });
+});
+
+describe('what an analysis leaves behind', () => {
+  it("should keep nothing of its request's async context alive once it has answered", async () => {
+    // A timer or a thread made while a request is handled holds that request's async
+    // context (with its entity manager): a per-analysis time-budget timer kept every request
+    // of the last ten seconds alive, and a pool started by a request kept that one for good.
+    // Here the pool starts within the request.
+    setFlagsFromString('--expose-gc');
+    const gc = runInNewContext('gc') as () => void;
+    await configureAnalysis({ threads: 1, timeoutMs: 60_000 });
+    const context = new AsyncLocalStorage<object>();
+    const document = chainDocumentSchema.parse(chainOf(0, 201));
+    let held: WeakRef<object> | undefined;
+    const outcome = await context.run({ request: 'analysis' }, async () => {
+      held = new WeakRef(context.getStore()!);
+      return runOnPool({ document, want: 'answer', traces: ['stepUp'] });
+    });
+    expect(outcome.kind).toBe('answer');
+    await new Promise((resolve) => setImmediate(resolve));
+    gc();
+    expect(held!.deref()).toBeUndefined();
   });
 });
 
