@@ -111,9 +111,13 @@ function runTask(task: AnalysisTask): AnalysisOutcome {
     if (task.want === 'answer' && task.allModes) {
       return { kind: 'answer', ...encodeAnswer(allModes(task, options), task.encoding) };
     }
+    // The sweep is written out below, before this thread's next analysis, so its report may
+    // read the reused workspace rather than a copy (not for all modes above: each mode's
+    // sweep is written only after the later modes have run).
     const result = analyzeChain(task.document, {
       ...options,
       ...(task.mode ? { mode: task.mode } : {}),
+      sweepInPlace: true,
     });
     if (task.want === 'flag-count') {
       const count = result.flags.filter((f) => f.severity === 'warning' || f.severity === 'error');
