@@ -5,7 +5,7 @@
  * sweep, then the sweep's arrays, in chunks).
  */
 import type { AnalysisResult, SweepReport } from '../../shared/engine';
-import { sweepColumns } from '../../shared/engine/core/sweep-report';
+import { sweepColumns } from '../../shared/engine/core/sweep-readers';
 import type { ByteSink } from './byte-sink';
 import { CELL_SLACK, putFixed3, putSignificant } from './number-bytes';
 

@@ -13,7 +13,7 @@
  * such values, those from 10^15 up, and shifts beyond the table go through
  * `roundSignificant` and JSON.stringify.
  */
-import { nodeTraceValues, traceValues } from '../../shared/engine/core/sweep-report';
+import { nodeTraceValues, traceValues } from '../../shared/engine/core/sweep-readers';
 import type { SweepReport } from '../../shared/engine/types';
 import {
   FREQUENCY_DIGITS,

@@ -5,13 +5,8 @@
  * spreading) as ordinary data.
  */
 import { analyzeChain, type BuiltChain, type NodeAnalysis } from '../../shared/engine';
-import {
-  lazySweepReport,
-  nodeTraceValues,
-  sweepColumns,
-  sweepNanShares,
-  traceValues,
-} from '../../shared/engine/core/sweep-report';
+import { lazySweepReport, sweepNanShares } from '../../shared/engine/core/sweep-report';
+import { nodeTraceValues, sweepColumns, traceValues } from '../../shared/engine/core/sweep-readers';
 import fc from 'fast-check';
 import { chain, TEST_CATALOGUE } from './core-fixtures';
 

@@ -13,113 +13,19 @@
  */
 import type { SweepReport } from '../types';
 import type { BuiltChain } from './build';
-import { hypot2 } from './hypot';
 import { impedanceRow, isOneOffWorkspace, voltageRow, type NodeAnalysis } from './nodes';
+import {
+  checkLent,
+  phaseAt,
+  returnLossAt,
+  sourceOf,
+  sources,
+  stepUpAt,
+  type SweepSource,
+} from './sweep-source';
 
 // Globals read once: a global lookup inside a hot loop is slow in some hosts (test VMs).
-const { PI, abs, atan2, hypot, log10 } = Math;
-const isFiniteNumber = Number.isFinite;
-
-const db20 = (r: number) => 20 * log10(r);
-
-/** What a lazily computed sweep report was made from, for questions that need no trace. */
-interface SweepSource {
-  P: number;
-  /** Per user node, the voltage's real and imaginary parts over the sweep. */
-  vRe: Float64Array[];
-  vIm: Float64Array[];
-  emf: Float64Array;
-  freqs: Float64Array;
-  zinRe: Float64Array;
-  zinIm: Float64Array;
-  /** Per user node, whether its voltage's parts are finite at every point (found as copied). */
-  vFinite: boolean[];
-  /** Whether both parts of the input impedance are finite at every point. */
-  zinFinite: boolean;
-  zsrcRe: Float64Array;
-  zsrcIm: Float64Array;
-  reference: number | null;
-  /** The report's node objects, in the order of `vRe`/`vIm`. */
-  nodes: SweepReport['nodes'];
-  /** A reused workspace read in place, and its run count then (see `inPlace`). */
-  lent?: NodeAnalysis;
-  lentRuns?: number;
-}
-const sources = new WeakMap<SweepReport, SweepSource>();
-
-/** Refuses a source whose workspace, read in place, a later run has overwritten. */
-function checkLent(src: SweepSource): SweepSource {
-  if (src.lent && src.lent.runs !== src.lentRuns) {
-    throw new Error(
-      'the sweep report was read after a later analysis reused its workspace (it was made ' +
-        'to be read in place, before the next analysis)',
-    );
-  }
-  return src;
-}
-
-/** The report's source, if it has one, refused when read in place after its workspace's reuse. */
-function sourceOf(sweep: SweepReport): SweepSource | undefined {
-  const src = sources.get(sweep);
-  return src && checkLent(src);
-}
-
-/** Step-up at point i, dB: |V|/|Es| (the one formula of the trace and its readers). */
-function stepUpAt(re: Float64Array, im: Float64Array, emf: Float64Array, i: number): number {
-  return db20(hypot2(re[i], im[i]) / abs(emf[i]));
-}
-
-/** Phase at point i, degrees. */
-function phaseAt(re: Float64Array, im: Float64Array, i: number): number {
-  return (atan2(im[i], re[i]) * 180) / PI;
-}
-
-/** Return loss at point i, dB, against `reference` or (null) the source's own impedance. */
-function returnLossAt(src: SweepSource, i: number): number {
-  const { zinRe, zinIm, reference } = src;
-  return reference === null
-    ? returnLossConjugate(zinRe[i], zinIm[i], src.zsrcRe[i], src.zsrcIm[i])
-    : returnLossAgainst(zinRe[i], zinIm[i], reference);
-}
-
-/**
- * The sweep's columns for a writer that streams a long sweep: the frequencies and Zin as
- * the arrays the report was made from, and each node's step-up computed a block at a time,
- * the same numbers as the report's traces, without making a whole trace.
- */
-export interface SweepColumns {
-  freqs: ArrayLike<number>;
-  zinRe: ArrayLike<number>;
-  zinIm: ArrayLike<number>;
-  /** Step-up of user node `node` (its index in `nodes`) at points from … from+count−1 into out[0 …]. */
-  stepUpDb(node: number, from: number, count: number, out: Float64Array): void;
-}
-
-export function sweepColumns(sweep: SweepReport): SweepColumns {
-  const src = sourceOf(sweep);
-  if (!src) {
-    return {
-      freqs: sweep.freqsHz,
-      zinRe: sweep.zIn.re,
-      zinIm: sweep.zIn.im,
-      stepUpDb: (node, from, count, out) => {
-        const t = sweep.nodes[node].stepUpDb;
-        for (let k = 0; k < count; k++) out[k] = t[from + k];
-      },
-    };
-  }
-  const { vRe, vIm, emf } = src;
-  return {
-    freqs: src.freqs,
-    zinRe: src.zinRe,
-    zinIm: src.zinIm,
-    stepUpDb: (node, from, count, out) => {
-      const re = vRe[node];
-      const im = vIm[node];
-      for (let k = 0; k < count; k++) out[k] = stepUpAt(re, im, emf, from + k);
-    },
-  };
-}
+const { abs, hypot } = Math;
 
 /** Whether every value is finite (x·0 is 0 exactly for finite x, else NaN). */
 function allFinite(values: Float64Array): boolean {
@@ -204,21 +110,6 @@ export function sweepNanShares(sweep: SweepReport): { zIn: number; stepUp: numbe
 function settle<T>(obj: object, key: string, value: T): T {
   Object.defineProperty(obj, key, { value, writable: true, enumerable: true, configurable: true }); // prettier-ignore
   return value;
-}
-
-/**
- * Return loss against a real reference resistance, dB (the reports' own formula):
- * |Γ| = |Z − R|/|Z + R|, an open input reflecting totally.
- */
-function returnLossAgainst(zr: number, zi: number, ref: number): number {
-  const g = isFiniteNumber(zr) && isFiniteNumber(zi) ? hypot2(zr - ref, zi) / hypot2(zr + ref, zi) : 1; // prettier-ignore
-  return 0 - db20(g);
-}
-
-/** Return loss against the source's own impedance (conjugate match), dB. */
-function returnLossConjugate(zr: number, zi: number, sr: number, si: number): number {
-  const open = !isFiniteNumber(zr) || !isFiniteNumber(zi) || !isFiniteNumber(sr) || !isFiniteNumber(si); // prettier-ignore
-  return 0 - db20(open ? 1 : hypot2(zr - sr, zi + si) / hypot2(zr + sr, zi + si));
 }
 
 /**
@@ -365,65 +256,4 @@ export function lazySweepReport(
   };
   sources.set(report, source);
   return report;
-}
-
-/** Whether `obj[key]` is still a lazy trace: an accessor, neither read nor assigned yet. */
-function isLazy(obj: object, key: string): boolean {
-  return Object.getOwnPropertyDescriptor(obj, key)?.get !== undefined;
-}
-
-/** The column a computed trace is written into for `traceValues` (reused). */
-let column = new Float64Array(0);
-/** A column longer than this is not kept between calls. */
-const KEPT_COLUMN_POINTS = 1 << 16;
-
-function columnOf(P: number): Float64Array {
-  if (column.length === P) return column;
-  const c = new Float64Array(P);
-  if (P <= KEPT_COLUMN_POINTS) column = c;
-  return c;
-}
-
-/** A trace of the whole sweep (not of one node). */
-export type SweepTraceKey = 'freqsHz' | 'zInRe' | 'zInIm' | 'returnLossDb';
-
-/**
- * A trace's values for a writer that reads each value once, the same numbers as the trace,
- * without settling a lazy trace (which makes an array of it): the frequencies and Zin as the
- * arrays the report was made from, the return loss computed into a column that the next call
- * overwrites (read it first). A trace already read or assigned, and a report not made
- * here, give the trace itself.
- */
-export function traceValues(sweep: SweepReport, key: SweepTraceKey): ArrayLike<number> {
-  const src = sourceOf(sweep);
-  if (key === 'freqsHz') return src && isLazy(sweep, key) ? src.freqs : sweep.freqsHz;
-  if (key === 'returnLossDb') {
-    if (!src || !isLazy(sweep, key)) return sweep.returnLossDb;
-    const out = columnOf(src.P);
-    for (let i = 0; i < src.P; i++) out[i] = returnLossAt(src, i);
-    return out;
-  }
-  if (src && isLazy(sweep, 'zIn')) return key === 'zInRe' ? src.zinRe : src.zinIm;
-  return key === 'zInRe' ? sweep.zIn.re : sweep.zIn.im;
-}
-
-/**
- * A node's trace as `traceValues` gives the sweep's: a lazy one computed into the column the
- * next call overwrites, without settling it.
- */
-export function nodeTraceValues(
-  sweep: SweepReport,
-  node: SweepReport['nodes'][number],
-  key: 'stepUpDb' | 'phaseDeg',
-): ArrayLike<number> {
-  const src = sourceOf(sweep);
-  const n = src && isLazy(node, key) ? src.nodes.indexOf(node) : -1;
-  if (n < 0) return node[key];
-  const { P, emf } = src!;
-  const re = src!.vRe[n];
-  const im = src!.vIm[n];
-  const out = columnOf(P);
-  if (key === 'stepUpDb') for (let i = 0; i < P; i++) out[i] = stepUpAt(re, im, emf, i);
-  else for (let i = 0; i < P; i++) out[i] = phaseAt(re, im, i);
-  return out;
 }
