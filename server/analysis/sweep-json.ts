@@ -21,9 +21,12 @@ import {
   roundSignificant,
   type SweepTrace,
 } from '../../shared/schema/sweep-columns';
-import { columnMantissas, MAX_COUNT, type SweepPacking } from '../../shared/schema/sweep-packing';
-
-const POW10 = Array.from({ length: 23 }, (_, i) => 10 ** i);
+import {
+  columnMantissas,
+  countOf,
+  POW10,
+  type SweepPacking,
+} from '../../shared/schema/sweep-packing';
 
 const USUAL_BYTES = 1 << 18;
 /** Grows as needed; reused between answers (one analysis at a time per thread). */
@@ -137,22 +140,11 @@ function writePackedColumn(values: ArrayLike<number>, digits: number): void {
   let before = 0;
   let step = 0;
   for (let i = 0; i < n; i++) {
-    let k = m[i];
-    if (k !== 0) {
-      const widen = finest - sh[i];
-      if (widen !== 0) {
-        if (widen > 22) {
-          at = start;
-          return writeColumn(values, digits);
-        }
-        k *= POW10[widen];
-      }
-      // |m| < 2^53 always; the product is exact while it stays at most MAX_COUNT.
-      if (!(k <= MAX_COUNT && k >= -MAX_COUNT)) {
-        at = start;
-        return writeColumn(values, digits);
-      }
-    } else k = 0; // never -0 on the wire
+    const k = countOf(m[i], sh[i], finest);
+    if (k !== k) {
+      at = start;
+      return writeColumn(values, digits);
+    }
     // The first count, then the first step, then each step's change.
     const s = k - before;
     let d = s - step;

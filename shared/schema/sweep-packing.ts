@@ -117,20 +117,25 @@ export function columnCounts(
   const finest = columnMantissas(values, digits, counts, shifts);
   if (finest === undefined) return undefined;
   for (let i = 0; i < n; i++) {
-    const m = counts[i];
-    if (m === 0) {
-      // A zero (any other value keeps a mantissa of `digits` digits); never -0 on the wire.
-      counts[i] = 0;
-      continue;
-    }
-    const widen = finest - shifts[i];
-    if (widen > 22) return undefined;
-    const k = m * POW10[widen];
-    // |m| < 2^53 always; the product is exact while it stays at most MAX_COUNT.
-    if (!(Math.abs(k) <= MAX_COUNT)) return undefined;
+    const k = countOf(counts[i], shifts[i], finest);
+    if (k !== k) return undefined;
     counts[i] = k;
   }
   return finest;
+}
+
+/**
+ * The count of mantissa `m` (rounded at `shift`) in steps of the column's finest shift, or
+ * NaN when it cannot be sent exactly (no exact power of ten, or beyond `MAX_COUNT`).
+ */
+export function countOf(m: number, shift: number, finest: number): number {
+  // A zero (any other value keeps a mantissa of `digits` digits); never -0 on the wire.
+  if (m === 0) return 0;
+  const widen = finest - shift;
+  if (widen > 22) return NaN;
+  const k = m * POW10[widen];
+  // |m| < 2^53 always; the product is exact while it stays at most MAX_COUNT.
+  return Math.abs(k) <= MAX_COUNT ? k : NaN;
 }
 
 /** Each value's rounding shift, between the two passes of `columnCounts` (reused). */
