@@ -6,8 +6,6 @@
  * blocks of points; the analysis's sweep keeps the rows its resonator search reads, and
  * finds what a sweep keeping every node's finds.
  */
-import { readdirSync, readFileSync } from 'node:fs';
-import path from 'node:path';
 import { analyzeBuilt, sweepImpedanceNodes } from '../../shared/engine/analyze';
 import { buildChain, type BuiltChain } from '../../shared/engine/core/build';
 import { seriesExtract } from '../../shared/engine/core/extract-resonance';
@@ -29,38 +27,15 @@ import { defaultCatalogue } from '../../shared/engine/default-catalogue';
 import { isTrapResonance } from '../../shared/engine/transmit';
 import { chainDocumentSchema } from '../../shared/schema/chain';
 import { benchChain } from '../../scripts/bench/bench-chain';
+import { builtExample, differences, exampleKeys, grid } from './helpers/kept-rows';
 
-const DIR = path.join(__dirname, '..', '..', 'examples');
 const BENCH = 'bench chain';
-const keys = [
-  ...readdirSync(DIR)
-    .filter((n) => n.endsWith('.chain.json'))
-    .map((n) => n.slice(0, -'.chain.json'.length)),
-  BENCH,
-];
+const keys = [...exampleKeys, BENCH];
 
 /** The chain, its sweep over `points` points when given. */
 function builtOf(key: string, points?: number): BuiltChain {
   if (key === BENCH) return buildChain(chainDocumentSchema.parse(benchChain(points ?? 1001)), defaultCatalogue()); // prettier-ignore
-  const { variantOf: _v, ...raw } = JSON.parse(readFileSync(path.join(DIR, `${key}.chain.json`), 'utf8')); // prettier-ignore
-  if (points !== undefined) raw.settings.sweep.points = points;
-  return buildChain(chainDocumentSchema.parse(raw), defaultCatalogue());
-}
-
-/** Frequencies over the chain's sweep: three full blocks and a part of one. */
-function grid(built: BuiltChain, points = 3 * BLOCK + 17): Float64Array {
-  const { startHz, stopHz } = built.settings.sweep;
-  return Float64Array.from({ length: points }, (_, i) => startHz + ((stopHz - startHz) * i) / (points - 1)); // prettier-ignore
-}
-
-/** Where two arrays differ (Object.is: NaN equals NaN, +0 is not −0), at most a few. */
-function differences(got: ArrayLike<number>, want: ArrayLike<number>, what: string): string[] {
-  const out: string[] = [];
-  if (got.length !== want.length) return [`${what}: length ${got.length} ≠ ${want.length}`];
-  for (let i = 0; i < want.length && out.length < 3; i++) {
-    if (!Object.is(got[i], want[i])) out.push(`${what}[${i}]: ${got[i]} ≠ ${want[i]}`);
-  }
-  return out;
+  return builtExample(key, points);
 }
 
 const ROWS = ['fNode', 'zinRe', 'zinIm', 'zsrcRe', 'zsrcIm'] as const;

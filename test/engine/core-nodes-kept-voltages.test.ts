@@ -4,9 +4,6 @@
  * analysis's, on every example chain (mixers, coupled tanks, amplifiers, an open detector
  * input) over several blocks of points, with a fresh and with a reused workspace.
  */
-import { readdirSync, readFileSync } from 'node:fs';
-import path from 'node:path';
-import { buildChain, type BuiltChain } from '../../shared/engine/core/build';
 import { BLOCK, createNodeAnalysis, runNodeAnalysis, sharedWorkspace, voltageRow, type NodeAnalysis } from '../../shared/engine/core/nodes'; // prettier-ignore
 import { analyzeBuilt } from '../../shared/engine/analyze';
 import { settleLoadLevel } from '../../shared/engine/core/load-level';
@@ -17,34 +14,12 @@ import {
   imageFrequency,
 } from '../../shared/engine/core/selectivity';
 import { frequencyGrid } from '../../shared/engine/core/sweep';
-import { defaultCatalogue } from '../../shared/engine/default-catalogue';
-import { chainDocumentSchema } from '../../shared/schema/chain';
-
-const DIR = path.join(__dirname, '..', '..', 'examples');
-const keys = readdirSync(DIR)
-  .filter((n) => n.endsWith('.chain.json'))
-  .map((n) => n.slice(0, -'.chain.json'.length));
-
-function builtOf(key: string): BuiltChain {
-  const { variantOf: _v, ...raw } = JSON.parse(readFileSync(path.join(DIR, `${key}.chain.json`), 'utf8')); // prettier-ignore
-  return buildChain(chainDocumentSchema.parse(raw), defaultCatalogue());
-}
-
-/** Frequencies over the chain's sweep: three full blocks and a part of one. */
-function grid(built: BuiltChain, points = 3 * BLOCK + 17): Float64Array {
-  const { startHz, stopHz } = built.settings.sweep;
-  return Float64Array.from({ length: points }, (_, i) => startHz + ((stopHz - startHz) * i) / (points - 1)); // prettier-ignore
-}
-
-/** Where two arrays differ (Object.is: NaN equals NaN, +0 is not −0), at most a few. */
-function differences(got: ArrayLike<number>, want: ArrayLike<number>, what: string): string[] {
-  const out: string[] = [];
-  if (got.length !== want.length) return [`${what}: length ${got.length} ≠ ${want.length}`];
-  for (let i = 0; i < want.length && out.length < 3; i++) {
-    if (!Object.is(got[i], want[i])) out.push(`${what}[${i}]: ${got[i]} ≠ ${want[i]}`);
-  }
-  return out;
-}
+import {
+  builtExample as builtOf,
+  differences,
+  exampleKeys as keys,
+  grid,
+} from './helpers/kept-rows';
 
 /** Every difference between a kept-voltage analysis and the full one. */
 function compare(kept: NodeAnalysis, full: NodeAnalysis, nodes: readonly number[]): string[] {
