@@ -14,21 +14,35 @@
  * Cascade: C = C₁ + A₁·C₂·A₁ᴴ; F = 1 + [1 Zs]·C·[1 Zs]ᴴ / (2kT0·Re Zs).
  * Frequency translation is taken as transparent (single-sideband, image noise ignored).
  */
-import type { BuiltChain } from './build';
+import type { BuiltChain, BuiltStage } from './build';
 import { cascade } from './abcd';
+import { hypot2 } from './hypot';
 import { BOLTZMANN } from './noise';
-import { runNodeAnalysis } from './nodes';
+import { runNodeAnalysis, type NodeAnalysis } from './nodes';
 
 type M2 = Float64Array; // [11re, 11im, 12re, 12im, 21re, 21im, 22re, 22im]
 
-/** out = X·C·Xᴴ for complex 2×2 matrices. */
-function congruence(x: M2, c: M2): M2 {
-  const t = new Float64Array(8);
+/**
+ * out = X·C·Xᴴ for complex 2×2 matrices, through `t` (X·C) and `xh` (Xᴴ), eight slots each;
+ * `out` may be `c` (C is read whole before out is written).
+ */
+function congruenceInto(x: M2, c: M2, out: M2, t: M2, xh: M2): M2 {
   cascade(x, 0, c, 0, t, 0);
-  const xh = Float64Array.of(x[0], -x[1], x[4], -x[5], x[2], -x[3], x[6], -x[7]);
-  const out = new Float64Array(8);
+  xh[0] = x[0];
+  xh[1] = -x[1];
+  xh[2] = x[4];
+  xh[3] = -x[5];
+  xh[4] = x[2];
+  xh[5] = -x[3];
+  xh[6] = x[6];
+  xh[7] = -x[7];
   cascade(t, 0, xh, 0, out, 0);
   return out;
+}
+
+/** out = X·C·Xᴴ for complex 2×2 matrices. */
+function congruence(x: M2, c: M2): M2 {
+  return congruenceInto(x, c, new Float64Array(8), new Float64Array(8), new Float64Array(8));
 }
 
 /** Hermitian part (M + Mᴴ)/2 scaled by s. */
@@ -44,33 +58,41 @@ function hermitian(m: M2, s: number): M2 {
 /** Chain-form correlation matrix of a passive section with ABCD `a` at temperature T. */
 export function passiveCorrelation(a: M2, temperatureK: number): M2 {
   const kt2 = 2 * BOLTZMANN * temperatureK;
-  const [ar, ai, br, bi, cr, ci, dr, di] = a;
-  const cMag = Math.hypot(cr, ci);
-  const bMag = Math.hypot(br, bi);
+  const ar = a[0], ai = a[1], br = a[2], bi = a[3], cr = a[4], ci = a[5], dr = a[6], di = a[7]; // prettier-ignore
+  const cMag = hypot2(cr, ci);
+  const bMag = hypot2(br, bi);
   if (cMag === 0 && bMag === 0) return new Float64Array(8); // transformer-like: lossless
   const unitDiagonal = ar === 1 && ai === 0 && dr === 1 && di === 0;
   // A bare series impedance is a noise voltage 2kT·Re Z; a bare shunt admittance a noise
   // current 2kT·Re Y (the general forms below divide by a zero C or B for these).
   if (unitDiagonal && cMag === 0) return Float64Array.of(kt2 * br, 0, 0, 0, 0, 0, 0, 0);
   if (unitDiagonal && bMag === 0) return Float64Array.of(0, 0, 0, 0, 0, 0, kt2 * cr, 0);
-  const inv = (re: number, im: number) => {
-    const d = re * re + im * im;
-    return [re / d, -im / d];
-  };
-  const mul = (xr: number, xi: number, yr: number, yi: number) => [xr * yr - xi * yi, xr * yi + xi * yr]; // prettier-ignore
   const detR = ar * dr - ai * di - (br * cr - bi * ci);
   const detI = ar * di + ai * dr - (br * ci + bi * cr);
-  // Pick the representation that exists and is better conditioned (scaled to 50 Ω).
+  // Pick the representation that exists and is better conditioned (scaled to 50 Ω). The
+  // products are written out (x·y for complex x, y: re = xr·yr − xi·yi, im = xr·yi + xi·yr).
   if (cMag * 2500 >= bMag) {
-    const [icr, ici] = inv(cr, ci);
+    const d = cr * cr + ci * ci;
+    const icr = cr / d;
+    const ici = -ci / d;
     const z = Float64Array.of(
-      ...mul(ar, ai, icr, ici), ...mul(detR, detI, icr, ici), icr, ici, ...mul(dr, di, icr, ici),
+      ar * icr - ai * ici, ar * ici + ai * icr,
+      detR * icr - detI * ici, detR * ici + detI * icr,
+      icr, ici,
+      dr * icr - di * ici, dr * ici + di * icr,
     ); // prettier-ignore
     return congruence(Float64Array.of(1, 0, -ar, -ai, 0, 0, -cr, -ci), hermitian(z, kt2));
   }
-  const [ibr, ibi] = inv(br, bi);
+  const d = br * br + bi * bi;
+  const ibr = br / d;
+  const ibi = -bi / d;
+  const ndr = -detR;
+  const ndi = -detI;
   const y = Float64Array.of(
-    ...mul(dr, di, ibr, ibi), ...mul(-detR, -detI, ibr, ibi), -ibr, -ibi, ...mul(ar, ai, ibr, ibi),
+    dr * ibr - di * ibi, dr * ibi + di * ibr,
+    ndr * ibr - ndi * ibi, ndr * ibi + ndi * ibr,
+    -ibr, -ibi,
+    ar * ibr - ai * ibi, ar * ibi + ai * ibr,
   ); // prettier-ignore
   return congruence(Float64Array.of(0, 0, br, bi, 1, 0, dr, di), hermitian(y, kt2));
 }
@@ -78,29 +100,44 @@ export function passiveCorrelation(a: M2, temperatureK: number): M2 {
 /**
  * Chain-form correlation matrix of the two-ports (and, with `withLoad`, a load that declares
  * its own noise) in cascade at f0, with the node analysis it was read from.
+ * @param atF0 the chain's node analysis at f0 alone (one point, every node's row), when the
+ *   caller has it: read instead of a new one
  */
-function cascadeCorrelation(built: BuiltChain, withLoad: boolean) {
+function cascadeCorrelation(built: BuiltChain, withLoad: boolean, atF0?: NodeAnalysis) {
   const t0 = built.settings.temperatureK;
   const kt2 = 2 * BOLTZMANN * t0;
-  const na = runNodeAnalysis(built, [built.settings.f0Hz]);
+  const f0 = built.settings.f0Hz;
+  const na =
+    atF0 && atF0.points === 1 && atF0.freqs[0] === f0 && !atF0.zRow
+      ? atF0
+      : runNodeAnalysis(built, [f0]);
+  // The cascade is folded from the last two-port back, so each unit's matrices are moved
+  // into the running total as soon as they are known (C = C₁ + A₁·(C₂ + A₂·(…)·A₂ᴴ)·A₁ᴴ):
+  // the units are gathered first (their order is the chain's), then folded.
   const units: { a: M2; c: M2 }[] = [];
   // A load that declares its own noise (a converter or receiver input) ends the cascade as
   // noise sources at its terminals, behind a through connection.
-  for (const stage of withLoad ? [...built.twoPorts, built.load] : built.twoPorts) {
+  const stages = built.twoPorts;
+  const count = stages.length + (withLoad ? 1 : 0);
+  for (let s = 0; s < count; s++) {
+    const stage: BuiltStage = s < stages.length ? stages[s] : built.load;
     const decl = stage.model.noise;
     if (stage === built.load && (!decl || decl.kind === 'passive')) continue;
     const sections = 'sections' in stage.model ? stage.model.sections : [];
-    const mats = sections.map((s, k) => {
-      const m = new Float64Array(8);
-      s.abcd(built.f0AtFlatNode[stage.firstSection + k], m, 0);
-      return m;
-    });
     if (!decl || decl.kind === 'passive') {
-      for (const a of mats) units.push({ a, c: passiveCorrelation(a, t0) });
+      for (let k = 0; k < sections.length; k++) {
+        const a = new Float64Array(8);
+        sections[k].abcd(built.f0AtFlatNode[stage.firstSection + k], a, 0);
+        units.push({ a, c: passiveCorrelation(a, t0) });
+      }
       continue;
     }
     const a = Float64Array.of(1, 0, 0, 0, 0, 0, 1, 0);
-    for (const m of mats) cascade(a, 0, m, 0, a, 0);
+    const m = new Float64Array(8);
+    for (let k = 0; k < sections.length; k++) {
+      sections[k].abcd(built.f0AtFlatNode[stage.firstSection + k], m, 0);
+      cascade(a, 0, m, 0, a, 0);
+    }
     let c: M2;
     if (decl.kind === 'figure') {
       const rs = na.zsrcRe[stage.firstSection];
@@ -117,10 +154,14 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean) {
     }
     units.push({ a, c });
   }
-  let total: M2 = new Float64Array(8);
+  const total: M2 = new Float64Array(8);
+  const moved = new Float64Array(8);
+  const t = new Float64Array(8);
+  const xh = new Float64Array(8);
   for (let k = units.length - 1; k >= 0; k--) {
-    const moved = congruence(units[k].a, total);
-    total = units[k].c.map((v, s) => v + moved[s]);
+    congruenceInto(units[k].a, total, moved, t, xh);
+    const c = units[k].c;
+    for (let s = 0; s < 8; s++) total[s] = c[s] + moved[s];
   }
   return { total, kt2, na };
 }
@@ -129,8 +170,8 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean) {
  * Noise figure (dB) of the whole chain at f0 by the correlation-matrix method. Passive stages
  * are taken at the chain's reference temperature, like the Friis cascade.
  */
-export function correlationNoiseFigureDb(built: BuiltChain): number {
-  const { total, kt2, na } = cascadeCorrelation(built, true);
+export function correlationNoiseFigureDb(built: BuiltChain, atF0?: NodeAnalysis): number {
+  const { total, kt2, na } = cascadeCorrelation(built, true, atF0);
   const zr = na.zsrcRe[0];
   const zi = na.zsrcIm[0];
   // [1 Zs]·C·[1 Zs]ᴴ = C11 + 2·Re(C12·Zs*) + C22·|Zs|²

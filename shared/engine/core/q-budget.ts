@@ -10,7 +10,7 @@
  * needed: every part-Q parameter raised to at least q, the stage rebuilt and evaluated at f0
  * between the terminations the chain gives it, with q solved for (log-space bisection to 1 %).
  */
-import type { ParamValues, Section, TwoPortModel } from '../types';
+import type { ParamValues, Section, StageDefinition, TwoPortModel } from '../types';
 import type { BuiltChain, BuiltStage } from './build';
 import { backStep, sourceStep, voltageStep, type NodeAnalysis } from './nodes';
 
@@ -33,7 +33,17 @@ export interface QBudget {
  * unloaded Q of a part), not a design's loaded Q.
  */
 function partQKeys(stage: BuiltStage): string[] {
-  return stage.definition.params
+  const def = stage.definition;
+  let keys = partQKeysOf.get(def);
+  if (!keys) partQKeysOf.set(def, (keys = findPartQKeys(def)));
+  return keys;
+}
+
+/** Each stage type's part-Q keys, found once per type (its parameter list never changes). */
+const partQKeysOf = new WeakMap<StageDefinition, string[]>();
+
+function findPartQKeys(def: StageDefinition): string[] {
+  return def.params
     .filter(
       (p) =>
         p.kind === 'number' &&
@@ -102,21 +112,53 @@ function surroundings(f0Na: NodeAnalysis, stage: BuiltStage<TwoPortModel>): Surr
  */
 function deliveredThrough(sections: readonly Section[], at: Surroundings): number {
   const n = sections.length;
-  const m = new Float64Array(8 * n);
-  const zinRe = new Float64Array(n + 1);
-  const zinIm = new Float64Array(n + 1);
-  const vRe = new Float64Array(n + 1);
-  const vIm = new Float64Array(n + 1);
+  const { m, zinRe, zinIm, vRe, vIm, zsRe, zsIm } = scratchFor(n);
   for (let j = 0; j < n; j++) sections[j].abcd(at.fNode[j], m, 8 * j);
   zinRe[n] = at.zlRe;
   zinIm[n] = at.zlIm;
   for (let j = n - 1; j >= 0; j--) backStep(m, 8 * j, zinRe, zinIm, j + 1, j);
-  sourceStep(UNIT_EMF, Float64Array.of(at.zsRe), Float64Array.of(at.zsIm), zinRe, zinIm, vRe, vIm, 0, 0); // prettier-ignore
+  zsRe[0] = at.zsRe;
+  zsIm[0] = at.zsIm;
+  sourceStep(UNIT_EMF, zsRe, zsIm, zinRe, zinIm, vRe, vIm, 0, 0);
   for (let j = 0; j < n; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1);
   const zr = at.zlRe;
   const zi = at.zlIm;
   const g = isFinite(zr) && isFinite(zi) ? zr / (zr * zr + zi * zi) : 0;
   return (at.voc2 * (vRe[n] ** 2 + vIm[n] ** 2) * g) / 2;
+}
+
+/**
+ * The arrays of {@link deliveredThrough}, kept between calls (a q-budget evaluates its stage
+ * a dozen times or so, every analysis): each slot it reads it has written in the same call.
+ */
+interface DeliveryScratch {
+  sections: number;
+  m: Float64Array;
+  zinRe: Float64Array;
+  zinIm: Float64Array;
+  vRe: Float64Array;
+  vIm: Float64Array;
+  /** The source side's impedance, one slot each. */
+  zsRe: Float64Array;
+  zsIm: Float64Array;
+}
+
+let delivery: DeliveryScratch | null = null;
+
+function scratchFor(sections: number): DeliveryScratch {
+  if (delivery && delivery.sections >= sections) return delivery;
+  const n = Math.max(sections, 8);
+  delivery = {
+    sections: n,
+    m: new Float64Array(8 * n),
+    zinRe: new Float64Array(n + 1),
+    zinIm: new Float64Array(n + 1),
+    vRe: new Float64Array(n + 1),
+    vIm: new Float64Array(n + 1),
+    zsRe: new Float64Array(1),
+    zsIm: new Float64Array(1),
+  };
+  return delivery;
 }
 
 const UNIT_EMF = Float64Array.of(1);

@@ -182,7 +182,7 @@ export function levelsReport(
     noiseTemperatureK: te,
     sourceNoiseTemperatureK: tSource,
     systemNoiseTemperatureK: tSource + te,
-    correlationNoiseFigureDb: correlationNoiseFigureDb(built),
+    correlationNoiseFigureDb: correlationNoiseFigureDb(built, na),
     totalGainDb: last ? last.cumulativeGainDb : 0,
     sensitivityDbm: sens,
     sensitivityEmfRms: emfForAvailableDbm(sens, na.zsrcRe[impedanceRow(na, 0) * na.points]) / SQRT2,

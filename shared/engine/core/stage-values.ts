@@ -24,9 +24,16 @@ function describe(v: unknown): string {
   return typeof v === 'string' ? JSON.stringify(v) : String(v);
 }
 
-/** Checks one value against its spec; returns the problem ("must be ...") or null. */
+/** A bound or value in a message, in the parameter's unit. */
+function inUnit(spec: ParamSpec, x: number): string {
+  return formatQuantity(x, spec.unit, 6);
+}
+
+/**
+ * Checks one value against its spec; returns the problem ("must be ...") or null. (No
+ * closure per call: every value of every stage of every analysis is checked here.)
+ */
 function checkValue(spec: ParamSpec, v: unknown): string | null {
-  const unit = (x: number) => formatQuantity(x, spec.unit, 6);
   switch (spec.kind) {
     case 'number':
       if (typeof v !== 'number') return `must be a number (got ${describe(v)})`;
@@ -35,25 +42,26 @@ function checkValue(spec: ParamSpec, v: unknown): string | null {
         // Name the whole range, so the message says what would be accepted.
         const low = spec.exclusiveMin ? !(v > spec.min) : !(v >= spec.min);
         if (low || !(v <= spec.max)) {
-          const from = spec.exclusiveMin ? `above ${unit(spec.min)}` : `from ${unit(spec.min)}`;
-          return `must be ${from} up to ${unit(spec.max)} (got ${unit(v)})`;
+          const from = spec.exclusiveMin
+            ? `above ${inUnit(spec, spec.min)}`
+            : `from ${inUnit(spec, spec.min)}`;
+          return `must be ${from} up to ${inUnit(spec, spec.max)} (got ${inUnit(spec, v)})`;
         }
         return null;
       }
       if (spec.min !== undefined) {
         if (spec.exclusiveMin && !(v > spec.min))
-          return `must be above ${unit(spec.min)} (got ${describe(v)})`;
+          return `must be above ${inUnit(spec, spec.min)} (got ${describe(v)})`;
         if (!spec.exclusiveMin && !(v >= spec.min))
-          return `must be at least ${unit(spec.min)} (got ${describe(v)})`;
+          return `must be at least ${inUnit(spec, spec.min)} (got ${describe(v)})`;
       }
       if (spec.max !== undefined && !(v <= spec.max))
-        return `must be at most ${unit(spec.max)} (got ${describe(v)})`;
+        return `must be at most ${inUnit(spec, spec.max)} (got ${describe(v)})`;
       return null;
     case 'enum': {
-      const allowed = (spec.options ?? []).map((o) => o.value);
-      if (typeof v !== 'string' || !allowed.includes(v))
-        return `must be one of ${allowed.join(', ')} (got ${describe(v)})`;
-      return null;
+      const options = spec.options ?? [];
+      if (typeof v === 'string') for (const o of options) if (o.value === v) return null;
+      return `must be one of ${options.map((o) => o.value).join(', ')} (got ${describe(v)})`;
     }
     case 'boolean':
       return typeof v === 'boolean' ? null : `must be true or false (got ${describe(v)})`;
