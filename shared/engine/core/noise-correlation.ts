@@ -40,33 +40,77 @@ function congruenceInto(x: M2, c: M2, out: M2, t: M2, xh: M2): M2 {
   return out;
 }
 
-/** out = X·C·Xᴴ for complex 2×2 matrices. */
-function congruence(x: M2, c: M2): M2 {
-  return congruenceInto(x, c, new Float64Array(8), new Float64Array(8), new Float64Array(8));
+/** Hermitian part (M + Mᴴ)/2 scaled by s, into out. */
+function hermitianInto(m: M2, s: number, out: M2): M2 {
+  out[0] = s * m[0];
+  out[1] = 0;
+  out[2] = (s * (m[2] + m[4])) / 2;
+  out[3] = (s * (m[3] - m[5])) / 2;
+  out[4] = (s * (m[4] + m[2])) / 2;
+  out[5] = (s * (m[5] - m[3])) / 2;
+  out[6] = s * m[6];
+  out[7] = 0;
+  return out;
 }
 
-/** Hermitian part (M + Mᴴ)/2 scaled by s. */
-function hermitian(m: M2, s: number): M2 {
-  return Float64Array.of(
-    s * m[0], 0,
-    (s * (m[2] + m[4])) / 2, (s * (m[3] - m[5])) / 2,
-    (s * (m[4] + m[2])) / 2, (s * (m[5] - m[3])) / 2,
-    s * m[6], 0,
-  ); // prettier-ignore
+/** Writes the eight values into out. */
+function put(
+  out: M2,
+  v0: number,
+  v1: number,
+  v2: number,
+  v3: number,
+  v4: number,
+  v5: number,
+  v6: number,
+  v7: number,
+): M2 {
+  out[0] = v0;
+  out[1] = v1;
+  out[2] = v2;
+  out[3] = v3;
+  out[4] = v4;
+  out[5] = v5;
+  out[6] = v6;
+  out[7] = v7;
+  return out;
 }
+
+/** The 2×2 scratch matrices of {@link passiveCorrelationInto}. */
+interface CorrelationScratch {
+  /** Z or Y of the section, its Hermitian part, the move to chain form, X·C and Xᴴ. */
+  m: M2;
+  h: M2;
+  x: M2;
+  t: M2;
+  xh: M2;
+}
+
+const scratchMatrices = (): CorrelationScratch => ({
+  m: new Float64Array(8),
+  h: new Float64Array(8),
+  x: new Float64Array(8),
+  t: new Float64Array(8),
+  xh: new Float64Array(8),
+});
 
 /** Chain-form correlation matrix of a passive section with ABCD `a` at temperature T. */
 export function passiveCorrelation(a: M2, temperatureK: number): M2 {
+  return passiveCorrelationInto(a, temperatureK, new Float64Array(8), scratchMatrices());
+}
+
+/** {@link passiveCorrelation} into `out` (not `a`), through the scratch `w`. */
+function passiveCorrelationInto(a: M2, temperatureK: number, out: M2, w: CorrelationScratch): M2 {
   const kt2 = 2 * BOLTZMANN * temperatureK;
   const ar = a[0], ai = a[1], br = a[2], bi = a[3], cr = a[4], ci = a[5], dr = a[6], di = a[7]; // prettier-ignore
   const cMag = hypot2(cr, ci);
   const bMag = hypot2(br, bi);
-  if (cMag === 0 && bMag === 0) return new Float64Array(8); // transformer-like: lossless
+  if (cMag === 0 && bMag === 0) return put(out, 0, 0, 0, 0, 0, 0, 0, 0); // transformer-like: lossless
   const unitDiagonal = ar === 1 && ai === 0 && dr === 1 && di === 0;
   // A bare series impedance is a noise voltage 2kT·Re Z; a bare shunt admittance a noise
   // current 2kT·Re Y (the general forms below divide by a zero C or B for these).
-  if (unitDiagonal && cMag === 0) return Float64Array.of(kt2 * br, 0, 0, 0, 0, 0, 0, 0);
-  if (unitDiagonal && bMag === 0) return Float64Array.of(0, 0, 0, 0, 0, 0, kt2 * cr, 0);
+  if (unitDiagonal && cMag === 0) return put(out, kt2 * br, 0, 0, 0, 0, 0, 0, 0);
+  if (unitDiagonal && bMag === 0) return put(out, 0, 0, 0, 0, 0, 0, kt2 * cr, 0);
   const detR = ar * dr - ai * di - (br * cr - bi * ci);
   const detI = ar * di + ai * dr - (br * ci + bi * cr);
   // Pick the representation that exists and is better conditioned (scaled to 50 Ω). The
@@ -75,26 +119,28 @@ export function passiveCorrelation(a: M2, temperatureK: number): M2 {
     const d = cr * cr + ci * ci;
     const icr = cr / d;
     const ici = -ci / d;
-    const z = Float64Array.of(
+    put(w.m,
       ar * icr - ai * ici, ar * ici + ai * icr,
       detR * icr - detI * ici, detR * ici + detI * icr,
       icr, ici,
       dr * icr - di * ici, dr * ici + di * icr,
     ); // prettier-ignore
-    return congruence(Float64Array.of(1, 0, -ar, -ai, 0, 0, -cr, -ci), hermitian(z, kt2));
+    put(w.x, 1, 0, -ar, -ai, 0, 0, -cr, -ci);
+    return congruenceInto(w.x, hermitianInto(w.m, kt2, w.h), out, w.t, w.xh);
   }
   const d = br * br + bi * bi;
   const ibr = br / d;
   const ibi = -bi / d;
   const ndr = -detR;
   const ndi = -detI;
-  const y = Float64Array.of(
+  put(w.m,
     dr * ibr - di * ibi, dr * ibi + di * ibr,
     ndr * ibr - ndi * ibi, ndr * ibi + ndi * ibr,
     -ibr, -ibi,
     ar * ibr - ai * ibi, ar * ibi + ai * ibr,
   ); // prettier-ignore
-  return congruence(Float64Array.of(0, 0, br, bi, 1, 0, dr, di), hermitian(y, kt2));
+  put(w.x, 0, 0, br, bi, 1, 0, dr, di);
+  return congruenceInto(w.x, hermitianInto(w.m, kt2, w.h), out, w.t, w.xh);
 }
 
 /**
@@ -118,6 +164,7 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean, atF0?: NodeAna
   // A load that declares its own noise (a converter or receiver input) ends the cascade as
   // noise sources at its terminals, behind a through connection.
   const stages = built.twoPorts;
+  const w = scratchMatrices();
   const count = stages.length + (withLoad ? 1 : 0);
   for (let s = 0; s < count; s++) {
     const stage: BuiltStage = s < stages.length ? stages[s] : built.load;
@@ -128,7 +175,7 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean, atF0?: NodeAna
       for (let k = 0; k < sections.length; k++) {
         const a = new Float64Array(8);
         sections[k].abcd(built.f0AtFlatNode[stage.firstSection + k], a, 0);
-        units.push({ a, c: passiveCorrelation(a, t0) });
+        units.push({ a, c: passiveCorrelationInto(a, t0, new Float64Array(8), w) });
       }
       continue;
     }
@@ -156,10 +203,8 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean, atF0?: NodeAna
   }
   const total: M2 = new Float64Array(8);
   const moved = new Float64Array(8);
-  const t = new Float64Array(8);
-  const xh = new Float64Array(8);
   for (let k = units.length - 1; k >= 0; k--) {
-    congruenceInto(units[k].a, total, moved, t, xh);
+    congruenceInto(units[k].a, total, moved, w.t, w.xh);
     const c = units[k].c;
     for (let s = 0; s < 8; s++) total[s] = c[s] + moved[s];
   }
