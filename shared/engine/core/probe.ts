@@ -55,6 +55,21 @@ export function addInverse(re: number, im: number, out: Float64Array): void {
   out[1] += d === 0 ? 0 : -im / d;
 }
 
+/** The probe of each built chain that asked for one (see {@link probeOf}). */
+const probes = new WeakMap<BuiltChain, Probe>();
+
+/**
+ * The probe of a built chain, made on first use and kept with the chain: an analysis's
+ * resonator search and selectivity evaluate the same chain, one after the other, and its
+ * dozen arrays need not be made twice. A probe keeps nothing between calls that a later call
+ * reads, so whoever takes it next sees the same numbers.
+ */
+export function probeOf(built: BuiltChain): Probe {
+  let probe = probes.get(built);
+  if (!probe) probes.set(built, (probe = createProbe(built)));
+  return probe;
+}
+
 /** Makes a probe for a built chain; reuse it for every evaluation of that chain. */
 export function createProbe(built: BuiltChain): Probe {
   const sections = built.sections;

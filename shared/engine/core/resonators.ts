@@ -29,7 +29,7 @@ import {
 import { foundResonances, foundSeries, seriesScanNodes, shuntScanNodes } from './found-resonators';
 import { seriesSections } from './found-series';
 import { runNodeAnalysis, type NodeAnalysis } from './nodes';
-import { createProbe } from './probe';
+import { probeOf } from './probe';
 import { bracketingGrid } from './resonance-search';
 import type { ShapeMemo } from './response-shape';
 import {
@@ -237,7 +237,7 @@ export function analyzeResonators(
   topo: Topology = chainTopology(built),
 ): ResonatorFinding[] {
   const gridNa = bracketingGrid(built, sweepNa, (f) => runNodeAnalysis(built, f));
-  const ctx: Context = { built, topo, gridNa, probe: createProbe(built), claims: [], own: new Map() }; // prettier-ignore
+  const ctx: Context = { built, topo, gridNa, probe: probeOf(built), claims: [], own: new Map() }; // prettier-ignore
   // Shapes found on the sweep itself are the selectivity's too; a search grid's are not.
   if (shapes && gridNa === sweepNa) ctx.shapes = shapes;
   // Nodes inside or at the ends of a coupled pair belong to the pair.

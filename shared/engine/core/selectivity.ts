@@ -6,7 +6,7 @@
 import type { SelectivityReport } from '../types';
 import type { BuiltChain } from './build';
 import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
-import { createProbe } from './probe';
+import { probeOf } from './probe';
 import { stepUp } from './quantities';
 import {
   dbAt,
@@ -129,7 +129,7 @@ export function analyzeSelectivity(
   const P = sweepNa.points;
   const power = powerScratch(P);
   const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
-  const probe = createProbe(built);
+  const probe = probeOf(built);
   const reports: SelectivityReport[] = [];
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     if (only !== undefined && n !== only) continue;
