@@ -10,7 +10,9 @@ import {
   correlationNoiseFigureDb,
   passiveCorrelation,
 } from '../../shared/engine/core/noise-correlation';
+import { runNodeAnalysis } from '../../shared/engine/core/nodes';
 import { chain, TEST_CATALOGUE, type StageInput } from './core-fixtures';
+import { builtExample, exampleKeys } from './helpers/kept-rows';
 
 const nfBoth = (stages: StageInput[], f0 = 1e6) => {
   const doc = chain(stages, { f0Hz: f0 });
@@ -75,5 +77,17 @@ describe('correlation matrices', () => {
       }),
       { numRuns: 80 },
     );
+  });
+});
+
+describe("the correlation noise figure from the analysis's own run at f0", () => {
+  it.each(exampleKeys)('%s: the same bits as with a run of its own', (key) => {
+    const built = builtExample(key);
+    const own = correlationNoiseFigureDb(built);
+    const f0 = built.settings.f0Hz;
+    expect(Object.is(correlationNoiseFigureDb(built, runNodeAnalysis(built, [f0])), own)).toBe(true); // prettier-ignore
+    // A run that is not the one-point run at f0 is not read (the figure's own is made).
+    const other = runNodeAnalysis(built, [f0 * 1.5, f0]);
+    expect(Object.is(correlationNoiseFigureDb(built, other), own)).toBe(true);
   });
 });

@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { buildChain } from '../../shared/engine/core/build';
 import { runNodeAnalysis } from '../../shared/engine/core/nodes';
-import { createProbe } from '../../shared/engine/core/probe';
+import { createProbe, probeOf } from '../../shared/engine/core/probe';
 import { stepUp } from '../../shared/engine/core/quantities';
 import { STAGE_DEFINITIONS } from '../../shared/engine/stages';
 import type { ComplexFn, RealFn } from '../../shared/engine/types';
@@ -112,6 +112,31 @@ describe('probe terminations with and without block forms', () => {
         pointOnly.zinRe[n],
         pointOnly.zinIm[n],
       ]);
+    }
+  });
+});
+
+describe("a built chain's kept probe (probeOf)", () => {
+  it('is one probe per built chain, and answers as a fresh probe does after any other call', () => {
+    const kept = probeOf(built);
+    expect(probeOf(built)).toBe(kept);
+    const again = buildChain(chainDocumentSchema.parse(JSON.parse(readFileSync(file, 'utf8'))), STAGE_DEFINITIONS); // prettier-ignore
+    expect(probeOf(again)).not.toBe(kept);
+    const fresh = createProbe(built);
+    const last = built.sections.length;
+    // Whatever the kept probe evaluated before, a call gives the fresh probe's very numbers.
+    kept.at(9.3e6, last, true);
+    kept.at(5.5e6, 1);
+    for (const [f, node, voltage] of [
+      [7.2e6, last, true],
+      [6.05e6, 2, false],
+    ] as const) {
+      const a = kept.at(f, node, voltage);
+      const b = fresh.at(f, node, voltage);
+      expect(Object.is(a, b)).toBe(true);
+      for (let n = voltage ? 0 : node; n <= node; n++) {
+        expect(Object.is(kept.zinRe[n], fresh.zinRe[n]) && Object.is(kept.zinIm[n], fresh.zinIm[n])).toBe(true); // prettier-ignore
+      }
     }
   });
 });
