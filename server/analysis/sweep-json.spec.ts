@@ -8,6 +8,13 @@ import type { SweepPacking } from '../../shared/schema/sweep-packing';
 import { REPO_ROOT } from '../config';
 import { answerWithSweepJson } from './sweep-json';
 
+/** A shipped example (`examples/<file>`), parsed as the engine takes it. */
+function example(file: string) {
+  return parseChainDocument(
+    JSON.parse(readFileSync(path.join(REPO_ROOT, 'examples', file), 'utf8')),
+  );
+}
+
 /** What the hand-written bytes must equal: the answer as JSON.stringify writes it. */
 function expected(
   head: object,
@@ -56,9 +63,7 @@ describe('the sweep columns written by hand', () => {
   );
 
   it.each(examples)('should write %s byte for byte as JSON.stringify does', (file) => {
-    const doc = parseChainDocument(
-      JSON.parse(readFileSync(path.join(REPO_ROOT, 'examples', file), 'utf8')),
-    );
+    const doc = example(file);
     const { sweep, ...rest } = analyzeChain(doc, { sweep: true });
     expect(sweep).toBeDefined();
     expect(written(rest, sweep!, SWEEP_TRACES)).toBe(expected(rest, sweep!, SWEEP_TRACES));
@@ -74,14 +79,7 @@ describe('the sweep columns written by hand', () => {
   });
 
   it('should write an untouched report’s lazy traces as the same bytes as the settled traces', () => {
-    const doc = parseChainDocument(
-      JSON.parse(
-        readFileSync(
-          path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
-          'utf8',
-        ),
-      ),
-    );
+    const doc = example('two-metre-coupled-preselector.chain.json');
     for (const packing of ['plain', 'differences'] as const) {
       const { sweep, ...rest } = analyzeChain(doc, { sweep: true });
       // Written first, from traces never read (the writer computes them without settling).
@@ -93,14 +91,7 @@ describe('the sweep columns written by hand', () => {
   });
 
   it('should write a report read in place as the same bytes as a copied one', () => {
-    const doc = parseChainDocument(
-      JSON.parse(
-        readFileSync(
-          path.join(REPO_ROOT, 'examples', 'two-metre-coupled-preselector.chain.json'),
-          'utf8',
-        ),
-      ),
-    );
+    const doc = example('two-metre-coupled-preselector.chain.json');
     const { sweep: copied, ...rest } = analyzeChain(doc, { sweep: true });
     const want = written(rest, copied!, SWEEP_TRACES, undefined, 'differences');
     const inPlace = analyzeChain(doc, { sweep: true, sweepInPlace: true }).sweep!;
@@ -108,9 +99,7 @@ describe('the sweep columns written by hand', () => {
   });
 
   it('should write a trace assigned over a lazy one as assigned', () => {
-    const doc = parseChainDocument(
-      JSON.parse(readFileSync(path.join(REPO_ROOT, 'examples', examples[0]), 'utf8')),
-    );
+    const doc = example(examples[0]);
     const { sweep, ...rest } = analyzeChain(doc, { sweep: true });
     sweep!.returnLossDb = sweep!.freqsHz.map((_, i) => i / 7);
     sweep!.nodes[0].stepUpDb = sweep!.freqsHz.map((_, i) => -i / 3);

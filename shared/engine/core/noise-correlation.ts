@@ -157,9 +157,8 @@ function cascadeCorrelation(built: BuiltChain, withLoad: boolean, atF0?: NodeAna
     atF0 && atF0.points === 1 && atF0.freqs[0] === f0 && !atF0.zRow
       ? atF0
       : runNodeAnalysis(built, [f0]);
-  // The cascade is folded from the last two-port back, so each unit's matrices are moved
-  // into the running total as soon as they are known (C = C₁ + A₁·(C₂ + A₂·(…)·A₂ᴴ)·A₁ᴴ):
-  // the units are gathered first (their order is the chain's), then folded.
+  // The units are gathered in the chain's order, then folded from the last one back
+  // (C = C₁ + A₁·(C₂ + A₂·(…)·A₂ᴴ)·A₁ᴴ) through one running total and scratch.
   const units: { a: M2; c: M2 }[] = [];
   // A load that declares its own noise (a converter or receiver input) ends the cascade as
   // noise sources at its terminals, behind a through connection.

@@ -135,30 +135,9 @@ function declaredShunt(
       downstreamLabel: downstreamOf(built, flat),
     };
   }
-  const fig = shuntFigures(built, topo, probe, flat, att, decl.ownAdmittance, ctx.own);
+  const { fIn: _f, cut, ...fig } = shuntFigures(built, topo, probe, flat, att, decl.ownAdmittance, ctx.own); // prettier-ignore
   ctx.claims.push({ segment: topo.segment[flat], fr: fig.resonanceHz, bw: fig.bandwidthHz ?? 0 });
-  // The base's keys, then the figures' (fIn and the cut left out), in the order spreading
-  // them gave: written out, as object spreads and rests are slow paths of the optimiser.
-  return {
-    stageId: base.stageId,
-    label: base.label,
-    kind: base.kind,
-    origin: base.origin,
-    node: base.node,
-    flat,
-    fIn: base.fIn,
-    f0LocalHz: base.f0LocalHz,
-    name,
-    resonanceHz: fig.resonanceHz,
-    loadedQ: fig.loadedQ,
-    unloadedQ: fig.unloadedQ,
-    bandwidthHz: fig.bandwidthHz,
-    detachedQ: fig.detachedQ,
-    detachedBandwidthHz: fig.detachedBandwidthHz,
-    loadingRatio: fig.loadingRatio,
-    downstreamShare: fig.downstreamShare,
-    downstreamLabel: downstreamOf(built, fig.cut),
-  };
+  return { ...base, ...fig, downstreamLabel: downstreamOf(built, cut) };
 }
 
 /** A series resonator a stage declares. */

@@ -5,6 +5,7 @@
  */
 import type { SelectivityReport } from '../types';
 import type { BuiltChain } from './build';
+import { keptScratch } from './kept-scratch';
 import { runNodeAnalysis, sharedWorkspace, type NodeAnalysis } from './nodes';
 import { probeOf } from './probe';
 import { stepUp } from './quantities';
@@ -91,16 +92,7 @@ export function imageFrequency(built: BuiltChain, mixer: MixerInfo | null): numb
 export const FLOOR_MARGIN_DB = 3;
 
 /** The step-up powers of one node, read within one call only: kept between analyses. */
-let keptPower = new Float64Array(0);
-/** A longer sweep's powers are not kept (a one-off long sweep should not pin its memory). */
-const KEPT_POWER_POINTS = 1 << 16;
-
-function powerScratch(points: number): Float64Array {
-  if (keptPower.length === points) return keptPower;
-  const power = new Float64Array(points);
-  if (points <= KEPT_POWER_POINTS) keptPower = power;
-  return power;
-}
+const powerScratch = keptScratch(1 << 16);
 
 /**
  * Selectivity report of every user-level node. Peaks and band edges are bracketed on the

@@ -4,6 +4,7 @@
  * the same numbers as the report's traces without settling them into arrays.
  */
 import type { SweepReport } from '../types';
+import { keptScratch } from './kept-scratch';
 import { phaseAt, returnLossAt, sourceOf, stepUpAt } from './sweep-source';
 
 /**
@@ -51,16 +52,7 @@ function isLazy(obj: object, key: string): boolean {
 }
 
 /** The column a computed trace is written into for `traceValues` (reused). */
-let column = new Float64Array(0);
-/** A column longer than this is not kept between calls. */
-const KEPT_COLUMN_POINTS = 1 << 16;
-
-function columnOf(P: number): Float64Array {
-  if (column.length === P) return column;
-  const c = new Float64Array(P);
-  if (P <= KEPT_COLUMN_POINTS) column = c;
-  return c;
-}
+const columnOf = keptScratch(1 << 16);
 
 /** A trace of the whole sweep (not of one node). */
 export type SweepTraceKey = 'freqsHz' | 'zInRe' | 'zInIm' | 'returnLossDb';
