@@ -5,6 +5,7 @@ import { startAnalysisPool, stopAnalysisPool } from './analysis/analysis-pool';
 import { createApp } from './app';
 import { ConfigError, configFromEnv, REPO_ROOT } from './config';
 import { loadDevEnv } from './dev-env';
+import { listenHttp } from './common/http-server';
 import { flushLogs } from './common/logger';
 import { initServices } from './common/services';
 import { startFakeSmtp } from './mail/fake-smtp';
@@ -33,11 +34,7 @@ async function main(): Promise<void> {
       .catch((err: Error) => console.error('[server] mail retry failed:', err.message));
   }, 60_000);
   retryMail.unref();
-  const server: Server = await new Promise((resolve, reject) => {
-    const s = app.listen(config.port, config.host, (err?: Error) =>
-      err ? reject(err) : resolve(s),
-    );
-  });
+  const server: Server = await listenHttp(app, config.port, config.host);
   console.log(
     `[server] Chainwright is listening on http://${config.host}:${config.port} in ${config.mode} mode`,
   );

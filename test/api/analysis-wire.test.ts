@@ -6,6 +6,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import request from 'supertest';
+import { listenHttp } from '../../server/common/http-server';
 import { analyzeChain } from '../../shared/engine';
 import type { ChainDocument } from '../../shared/schema/chain';
 import { analysisFromDto, SWEEP_DIGITS } from '../../shared/schema/sweep-columns';
@@ -37,9 +38,8 @@ beforeAll(async () => {
     .send({ email: 'wire@analysis.test', password: PASSWORD });
   cookie = String(login.headers['set-cookie']).split(';')[0];
   csrf = login.body.csrfToken;
-  server = await new Promise((resolve) => {
-    const s = ctx.app.listen(0, '127.0.0.1', () => resolve(s));
-  });
+  // Served as server/main.ts serves it.
+  server = await listenHttp(ctx.app, 0, '127.0.0.1');
 });
 afterAll(async () => {
   await new Promise((resolve) => server.close(resolve));
