@@ -11,7 +11,7 @@
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { buildSync } from 'esbuild';
-import { WORKER_BUILD } from '../server/analysis/worker-build';
+import { serverBundleOptions } from '../server/analysis/worker-build';
 
 const root = path.resolve(__dirname, '..');
 const out = path.join(root, 'dist', 'server');
@@ -23,9 +23,10 @@ const entries: [string, string][] = [
 ];
 
 const started = Date.now();
+const options = serverBundleOptions(root);
 for (const [source, bundle] of entries) {
   const entry = path.join(root, source);
   if (!existsSync(entry)) continue;
-  buildSync({ ...WORKER_BUILD, entryPoints: [entry], outfile: path.join(out, bundle) });
+  buildSync({ ...options, entryPoints: [entry], outfile: path.join(out, bundle) });
 }
 console.log(`[build] server bundled into dist/server in ${Date.now() - started} ms`);

@@ -106,7 +106,12 @@ async function startServer(root: string, url: string): Promise<ChildProcess> {
   // Started as scripts/start.sh starts it.
   const server = spawn(
     process.execPath,
-    ['--single-threaded-gc', '--max-semi-space-size=32', 'dist/server/main.js'],
+    [
+      '--single-threaded-gc',
+      '--max-semi-space-size=32',
+      '--heap-growing-percent=200',
+      'dist/server/main.js',
+    ],
     {
       cwd: root,
       env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },

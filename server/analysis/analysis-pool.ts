@@ -14,7 +14,7 @@ import type { ChainDocument } from '../../shared/schema/chain';
 import { HttpError } from '../common/errors';
 import { REPO_ROOT } from '../config';
 import type { AnalysisOutcome, AnalysisTask } from './analysis-task';
-import { WORKER_BUILD } from './worker-build';
+import { serverBundleOptions } from './worker-build';
 
 export interface AnalysisLimits {
   /** Most stages × sweep points one analysis may ask for. */
@@ -115,7 +115,7 @@ function workerFile(): string {
     // eslint-disable-next-line @typescript-eslint/no-require-imports
     const esbuild = require('esbuild') as typeof import('esbuild');
     esbuild.buildSync({
-      ...WORKER_BUILD,
+      ...serverBundleOptions(REPO_ROOT),
       entryPoints: [path.join(__dirname, 'analysis-worker.ts')],
       outfile: out,
     });
