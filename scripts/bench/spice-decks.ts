@@ -6,7 +6,6 @@
  * close their control block with `quit 0`, since `ngspice -b` exits with status 1 after a
  * run made only of control commands; and both time themselves (`rusage all`).
  */
-import { evaluate } from 'mathjs';
 import { chainToSpiceDeck } from '../../shared/engine';
 import type { ChainDocument } from '../../shared/schema/chain';
 
@@ -23,6 +22,12 @@ function forBench(netlist: string): string {
 }
 
 export function benchDecks(doc: ChainDocument): BenchDecks {
+  // Loaded here, when the CLI section needs it, not with the bench: mathjs's full instance
+  // (every function and its documentation, some 28 MB of heap) would otherwise sit in the
+  // process through the engine section, and every full collection of the analyses timed
+  // there would mark it: the analysis threads and the CLI carry nothing like it.
+  // eslint-disable-next-line @typescript-eslint/no-require-imports
+  const { evaluate } = require('mathjs') as typeof import('mathjs');
   const deck = chainToSpiceDeck(doc);
   const f0 = doc.settings.f0Hz;
   let fixed = 0;
