@@ -17,6 +17,7 @@ import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'no
 import http from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { GcTrace, summariseGc } from './gc-trace';
 import { median } from './measure';
 import type { LoadResult, LoadSpec } from './paced-load';
 import { kib, ms, verdict, type BenchSection } from './rows';
@@ -97,7 +98,7 @@ function databaseUrl(root: string): string | undefined {
   return /^DATABASE_URL=(.+)$/m.exec(readFileSync(file, 'utf8'))?.[1]?.trim();
 }
 
-async function startServer(root: string, url: string): Promise<ChildProcess> {
+async function startServer(root: string, url: string, gc: GcTrace): Promise<ChildProcess> {
   const build = spawnSync(process.execPath, ['--import', 'tsx', 'scripts/build-server.ts'], {
     cwd: root,
     encoding: 'utf8',
@@ -110,14 +111,17 @@ async function startServer(root: string, url: string): Promise<ChildProcess> {
       '--single-threaded-gc',
       '--max-semi-space-size=32',
       '--heap-growing-percent=200',
+      // Its collections, read from its standard output (./gc-trace.ts): a line each.
+      '--trace-gc',
       'dist/server/main.js',
     ],
     {
       cwd: root,
       env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
-      stdio: ['ignore', 'ignore', 'pipe'],
+      stdio: ['ignore', 'pipe', 'pipe'],
     },
   );
+  server.stdout?.setEncoding('utf8').on('data', (c: string) => gc.feed(c));
   let stderr = '';
   server.stderr?.on('data', (c: Buffer) => (stderr += c.toString()));
   const end = Date.now() + 60_000;
@@ -264,7 +268,8 @@ export const apiSection: BenchSection = {
     const dir = mkdtempSync(join(tmpdir(), 'cw-bench-api-'));
     const bodyFile = join(dir, 'body.json');
     writeFileSync(bodyFile, body);
-    const server = await startServer(ctx.root, url);
+    const gc = new GcTrace();
+    const server = await startServer(ctx.root, url, gc);
     try {
       const session = await signIn();
       const ask = (text: string) =>
@@ -302,8 +307,10 @@ export const apiSection: BenchSection = {
         '(not judged)',
       );
       const cpuBefore = processCpuMs(server.pid);
+      const gcFrom = gc.events.length;
       const r = load(ctx.root, session, bodyFile, seconds, true);
       const cpuAfter = processCpuMs(server.pid);
+      const gcDuring = gc.events.slice(gcFrom);
       const errors = r.errors + r.timeouts + r.non2xx;
       const rate = r.ok / r.duration;
       ctx.row(
@@ -332,6 +339,15 @@ export const apiSection: BenchSection = {
           `${ms(perAnalysis)} → ≤ ${(2000 / perAnalysis).toFixed(0)}/s on 2 idle cores`,
           `≤ ${(2000 / RATE).toFixed(0)} ms`,
           verdict(perAnalysis <= 2000 / RATE),
+        );
+      }
+      if (gc.mainIsolate) {
+        const g = summariseGc(gcDuring, gc.mainIsolate);
+        ctx.row(
+          "API: the event loop's garbage collection under that load: young collections (every, pause mean / max, heap grown per collection); full collections (count, worst pause, marking in all)",
+          `${g.young} (every ${ms(g.youngEveryMs)}, ${ms(g.youngPauseMeanMs)} / ${ms(g.youngPauseMaxMs)}, ` +
+            `${g.promotedMbPerYoung.toFixed(2)} MB); ${g.full} (${ms(g.fullPauseMaxMs)}, ${ms(g.fullMarkingMs)})`,
+          '(not judged)',
         );
       }
       ctx.row(
