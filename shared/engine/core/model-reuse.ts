@@ -5,13 +5,14 @@
  */
 import type { ChainSettings } from '../../schema/chain';
 import type { ParamValues, StageDefinition, StageModel } from '../types';
+import { attachment } from './attached';
 import type { BuiltChain } from './build';
 
 /**
  * The settings (as JSON) of each built chain's settings object, written when a later build
  * first compares its own with them: a chain built without `like` does not pay for it.
  */
-const settingsSource = new WeakMap<ChainSettings, string>();
+const settingsSource = attachment<ChainSettings, string>('settings JSON');
 
 /** The JSON of a built chain's settings (which nothing changes once built). */
 function sourceJson(settings: ChainSettings): string {

@@ -14,6 +14,7 @@
  * did not inline is boxed on the heap, which made a few hundred probe calls of an analysis a
  * few hundred kilobytes of garbage.
  */
+import { attachment } from './attached';
 import type { BuiltChain } from './build';
 import { hypot2 } from './hypot';
 import { backStep, forwardStep, MIN_NODE_HZ, sourceStep, voltageStep } from './nodes';
@@ -56,7 +57,7 @@ export function addInverse(re: number, im: number, out: Float64Array): void {
 }
 
 /** The probe of each built chain that asked for one (see {@link probeOf}). */
-const probes = new WeakMap<BuiltChain, Probe>();
+const probes = attachment<BuiltChain, Probe>('probe');
 
 /**
  * The probe of a built chain, made on first use and kept with the chain: an analysis's

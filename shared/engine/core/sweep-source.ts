@@ -3,6 +3,7 @@
  * its traces, shared by the report and by the readers that write a trace without settling
  * it (./sweep-readers.ts), so both give the same numbers.
  */
+import { attachment } from './attached';
 import type { SweepReport } from '../types';
 import { hypot2 } from './hypot';
 import type { NodeAnalysis } from './nodes';
@@ -37,7 +38,7 @@ export interface SweepSource {
   lentRuns?: number;
 }
 /** Each lazy report's source (see `lazySweepReport`). */
-export const sources = new WeakMap<SweepReport, SweepSource>();
+export const sources = attachment<SweepReport, SweepSource>('sweep source');
 
 /** Refuses a source whose workspace, read in place, a later run has overwritten. */
 export function checkLent(src: SweepSource): SweepSource {
