@@ -1,4 +1,4 @@
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { buildSync } from 'esbuild';
 import { parseQuantity } from '../../shared/units/parse';
@@ -19,7 +19,9 @@ describe('the server bundles', () => {
   });
 
   it('carry only the mathjs the unit parser uses, which reads values as the sources do', () => {
-    // Inside the repository, so the bundle's require() finds node_modules.
+    // Inside the repository, so the bundle's require() finds node_modules (a fresh clone
+    // has no dist/ yet).
+    mkdirSync(path.join(REPO_ROOT, 'dist'), { recursive: true });
     const dir = mkdtempSync(path.join(REPO_ROOT, 'dist', 'bundle-spec-'));
     try {
       const outfile = path.join(dir, 'parse.js');
