@@ -44,10 +44,25 @@ export function parseGcLine(line: string): GcEvent | undefined {
   };
 }
 
-/** Collects the trace from a stream's chunks, keeping only the collections. */
+/**
+ * Collects the trace from a stream's chunks, keeping only the collections. V8 prints it
+ * through the C library's buffered output, so a line may arrive long after its collection:
+ * read a stretch of it by the isolate's clock (`sinceStart`), once the process has exited.
+ */
 export class GcTrace {
   readonly events: GcEvent[] = [];
   private partial = '';
+  private startedAt = NaN;
+
+  /** Call as the process is started: its isolates' clocks start then (within a few ms). */
+  start(): void {
+    this.startedAt = performance.now();
+  }
+
+  /** ms since `start`, on the clock the trace's lines use. */
+  sinceStart(): number {
+    return performance.now() - this.startedAt;
+  }
 
   feed(chunk: string): void {
     const lines = (this.partial + chunk).split('\n');
@@ -78,9 +93,14 @@ export interface GcSummary {
   fullMarkingMs: number;
 }
 
-/** The event loop's collections among `events` (a slice of a trace), summarised. */
-export function summariseGc(events: readonly GcEvent[], isolate: string): GcSummary {
-  const mine = events.filter((e) => e.isolate === isolate);
+/** The collections of `isolate` from `fromMs` to `toMs` on its clock, summarised. */
+export function summariseGc(
+  events: readonly GcEvent[],
+  isolate: string,
+  fromMs = -Infinity,
+  toMs = Infinity,
+): GcSummary {
+  const mine = events.filter((e) => e.isolate === isolate && e.at >= fromMs && e.at <= toMs);
   const young = mine.filter((e) => e.kind === 'young');
   const full = mine.filter((e) => e.kind === 'full');
   let growth = 0;

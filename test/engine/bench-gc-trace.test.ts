@@ -49,4 +49,13 @@ describe("the bench's reading of V8's collection trace", () => {
     expect(g.promotedMbPerYoung).toBeCloseTo(2.8, 6);
     expect(g).toMatchObject({ full: 1, fullPauseMaxMs: 22.57, fullMarkingMs: 68.6 });
   });
+
+  it("reads a stretch of the trace by the isolate's clock", () => {
+    const events = lines.map(parseGcLine).filter((e) => e !== undefined);
+    const g = summariseGc(events, '0x371a8e90', 64000, 68000);
+    expect(g.young).toBe(2);
+    expect(g.youngEveryMs).toBe(65448 - 64625);
+    expect(g.full).toBe(1);
+    expect(summariseGc(events, '0x371a8e90', 68200, 70000).young).toBe(0);
+  });
 });
