@@ -54,14 +54,9 @@ step "Starting Chainwright"
 export PORT CW_SMTP_PORT="$SMTP_PORT" CW_MAIL_DIR="$CW_REPO/.data/mail"
 export CW_SESSION_SECRET
 CW_SESSION_SECRET="$(cat .data/session-secret)"
-# One garbage-collector thread: on a small machine V8's parallel helpers cost more CPU in
-# coordination than they save (the bench's CPU per analysis), and the cores are the analyses'.
-# A 32 MB semi-space (V8's default tops out at 16): under a steady load the event loop's young
-# generation is collected a fraction as often, for about the same survivors per collection.
-# The old generation may grow to three times what a full collection left (V8 chose about 1.5
-# for the server's 50 MB): under 200 analyses/s that is one full collection a minute instead
-# of one every 3 s, each 70-100 ms of marking on the event loop.
-node --enable-source-maps --single-threaded-gc --max-semi-space-size=32 --heap-growing-percent=200 dist/server/main.js &
+# The garbage collector's options, and why, are in scripts/lib/server-v8-flags.
+mapfile -t V8_FLAGS < <(grep -v '^#' scripts/lib/server-v8-flags | grep .)
+node --enable-source-maps "${V8_FLAGS[@]}" dist/server/main.js &
 NODE_PID=$!
 if ! wait_for_http "http://127.0.0.1:$PORT/api/health"; then
   die "the server did not answer on port $PORT (see its messages above)"

@@ -117,19 +117,17 @@ async function startServer(
     encoding: 'utf8',
   });
   if (build.status !== 0) throw new Error(`server bundle failed: ${build.stderr}`);
-  // Started as scripts/start.sh starts it.
+  // Started as scripts/start.sh starts it (its V8 options from scripts/lib/server-v8-flags).
+  const v8Flags = readFileSync(join(root, 'scripts', 'lib', 'server-v8-flags'), 'utf8')
+    .split('\n')
+    .map((line) => line.trim())
+    .filter((line) => line && !line.startsWith('#'));
   const gcOutput = openSync(gcFile, 'w');
   gc.start();
   const server = spawn(
     process.execPath,
-    [
-      '--single-threaded-gc',
-      '--max-semi-space-size=32',
-      '--heap-growing-percent=200',
-      // Its collections, read from its standard output (./gc-trace.ts): a line each.
-      '--trace-gc',
-      'dist/server/main.js',
-    ],
+    // Its collections, read from its standard output (./gc-trace.ts): a line each.
+    [...v8Flags, '--trace-gc', 'dist/server/main.js'],
     {
       cwd: root,
       env: { ...process.env, DATABASE_URL: url, PORT: String(PORT), CW_SIGNIN_LIMIT: '100000' },
