@@ -2,6 +2,7 @@
  * Command-line analysis of a chain file.
  *
  *   npm run analyze -- <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]] [--timing]
+ *   npm run analyze -- <chain.json> --sweep-only [--mode <id>] [--json] [--timing]
  *   npm run analyze -- <chain.json> --list-modes [--json]
  *   npm run analyze -- --list-types [--json]
  *
@@ -15,6 +16,7 @@ import { startupSnapshot } from 'node:v8';
 import {
   analyzeChain,
   ChainValidationError,
+  sweepChain,
   hasModes,
   modeView,
   STAGE_DEFINITIONS,
@@ -30,11 +32,12 @@ import { chainToTouchstone, TouchstoneExportError } from '../shared/io/chain-tou
 import { CHAIN_FORMAT, CHAIN_FORMAT_VERSION, type ChainDocument } from '../shared/schema/chain';
 import { ChainDocumentError, parseChainDocument } from '../shared/schema/parse-chain';
 import { ByteSink } from './cli/byte-sink';
-import { writeResultJson, writeSweepTable } from './cli/stream-sweep';
+import { writeResultJson, writeSweepJson, writeSweepTable } from './cli/stream-sweep';
 import { DESIGN_USAGE, runDesignCli, takeDesignOption } from './design-cli';
 import { modeReportText, modesText } from './cli/mode-text';
 
 const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--json] [--spice] [--touchstone [--z0 <ohm>]] [--timing]
+       analyze <chain.json> --sweep-only [--mode <id>] [--json] [--timing]
        analyze <chain.json> --list-modes [--json]
        analyze --list-types [--json]
 
@@ -42,6 +45,8 @@ const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--j
   --mode <id>    analyse (or export) the chain in this mode (default: its first mode)
   --list-modes   the chain's modes: id, kind (receive, transmit, state) and name
   --sweep        add the sweep (a table, or arrays with --json)
+  --sweep-only   the sweep alone, without the analysis at f0 (a table, or arrays with --json):
+                 the same numbers as --sweep, sooner and in less memory for a long sweep
   --plan         add the receiver plan: spurs, strong signals, outside noise, converter
   --json         the whole analysis as JSON
   --spice        an ngspice netlist of the chain
@@ -49,7 +54,7 @@ const USAGE = `usage: analyze <chain.json> [--mode <id>] [--sweep] [--plan] [--j
   --z0 <ohm>     reference resistance of the Touchstone file (default 50)
   --list-types   the stage types with their parameters, units and defaults
   --timing       say on standard error how long the sweep's solve, the engine's whole analysis
-                 and the whole process took (seconds)
+                 (with --sweep-only: the sweep alone) and the whole process took (seconds)
 
 ${DESIGN_USAGE}`;
 
@@ -66,6 +71,7 @@ class CliError extends Error {
 interface Options {
   file?: string;
   sweep: boolean;
+  sweepOnly: boolean;
   plan: boolean;
   json: boolean;
   spice: boolean;
@@ -82,6 +88,7 @@ interface Options {
 function parseArgs(argv: string[]): Options {
   const o: Options = {
     sweep: false,
+    sweepOnly: false,
     plan: false,
     json: false,
     spice: false,
@@ -102,6 +109,7 @@ function parseArgs(argv: string[]): Options {
     }
     if (taken > 0) i += taken - 1;
     else if (a === '--sweep') o.sweep = true;
+    else if (a === '--sweep-only') o.sweepOnly = true;
     else if (a === '--plan') o.plan = true;
     else if (a === '--json') o.json = true;
     else if (a === '--spice') o.spice = true;
@@ -126,6 +134,24 @@ function parseArgs(argv: string[]): Options {
     throw new CliError(1, 'choose one of --spice, --touchstone and --list-types');
   }
   if (!o.file && !o.listTypes) throw new CliError(1, `no chain file given\n${USAGE}`);
+  if (o.sweepOnly) {
+    const others = Object.entries({
+      '--sweep': o.sweep,
+      '--plan': o.plan,
+      '--spice': o.spice,
+      '--touchstone': o.touchstone,
+      '--list-types': o.listTypes,
+      '--list-modes': o.listModes,
+      'a design option': o.design.size > 0,
+    }).filter(([, given]) => given);
+    if (others.length > 0) {
+      throw new CliError(
+        1,
+        `--sweep-only writes the sweep alone and takes only --mode, --json and --timing; ` +
+          `leave out ${others.map(([name]) => name).join(', ')} (for the analysis with its sweep, use --sweep)`,
+      );
+    }
+  }
   return o;
 }
 
@@ -283,6 +309,13 @@ function run(argv: string[], out: ByteSink): void {
     if (designed !== null) return write(designed + '\n');
     const started = performance.now();
     const clock: SolveClock | undefined = o.timing ? {} : undefined;
+    if (o.sweepOnly) {
+      // Written out before anything else runs, so the report may read the solve in place.
+      const sweep = sweepChain(full, { catalogue, mode: o.mode, clock, inPlace: true });
+      if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
+      if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
+      return o.json ? writeSweepJson(sweep, write) : writeSweepTable(sweep, out);
+    }
     const result = analyzeChain(full, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false, mode: o.mode, clock }); // prettier-ignore
     if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
     if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
@@ -353,12 +386,13 @@ function mainThenExit(argv: string[]): never {
  * Built into a V8 start-up snapshot (scripts/bench/bundle-cli.ts), the bundle's modules are
  * already loaded when the process starts, and main runs from there; the arguments then
  * follow the executable directly, as there is no script path. Before the snapshot is taken,
- * the chain files named in CW_CLI_WARM_UP (path-delimited) are analysed once, their output
- * discarded, so the functions an analysis runs are compiled already when a run starts.
+ * the chain files named in CW_CLI_WARM_UP (path-delimited) are analysed once with their
+ * sweep and swept once alone, their output discarded, so the functions an analysis runs are compiled already when a run starts.
  */
 function buildingSnapshot(): void {
   for (const file of (process.env.CW_CLI_WARM_UP ?? '').split(delimiter).filter(Boolean)) {
     main([file, '--sweep']);
+    main([file, '--sweep-only']);
   }
   // The warm-up's workspaces would only make the snapshot, and every run's memory, larger.
   releaseSharedWorkspaces();

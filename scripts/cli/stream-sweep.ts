@@ -91,6 +91,29 @@ function writeArray(values: ArrayLike<number>, write: Write): void {
 }
 
 /**
+ * The sweep's members, from "freqsHz" to "returnLossDb", each array on one line, the
+ * members indented by `pad` (the closing brace is the caller's).
+ */
+function writeSweepMembers(sweep: SweepReport, write: Write, pad: string): void {
+  write(`${pad}"freqsHz": `);
+  writeArray(sweep.freqsHz, write);
+  write(`,\n${pad}"nodes": [`);
+  sweep.nodes.forEach((n, k) => {
+    write(`${k > 0 ? ',' : ''}\n${pad}  { "index": ${n.index}, "stepUpDb": `);
+    writeArray(n.stepUpDb, write);
+    write(', "phaseDeg": ');
+    writeArray(n.phaseDeg, write);
+    write(' }');
+  });
+  write(`\n${pad}],\n${pad}"zIn": { "re": `);
+  writeArray(sweep.zIn.re, write);
+  write(', "im": ');
+  writeArray(sweep.zIn.im, write);
+  write(` },\n${pad}"returnLossDb": `);
+  writeArray(sweep.returnLossDb, write);
+}
+
+/**
  * The whole result as JSON, the sweep streamed last: the same document `JSON.stringify`
  * would give (the head indented, the sweep's arrays on single lines).
  */
@@ -101,21 +124,14 @@ export function writeResultJson(result: AnalysisResult, write: Write): void {
     write(text + '\n');
     return;
   }
-  write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "sweep": {\n    "freqsHz": ');
-  writeArray(sweep.freqsHz, write);
-  write(',\n    "nodes": [');
-  sweep.nodes.forEach((n, k) => {
-    write(`${k > 0 ? ',' : ''}\n      { "index": ${n.index}, "stepUpDb": `);
-    writeArray(n.stepUpDb, write);
-    write(', "phaseDeg": ');
-    writeArray(n.phaseDeg, write);
-    write(' }');
-  });
-  write('\n    ],\n    "zIn": { "re": ');
-  writeArray(sweep.zIn.re, write);
-  write(', "im": ');
-  writeArray(sweep.zIn.im, write);
-  write(' },\n    "returnLossDb": ');
-  writeArray(sweep.returnLossDb, write);
+  write(text.slice(0, text.lastIndexOf('}')).trimEnd() + ',\n  "sweep": {\n');
+  writeSweepMembers(sweep, write, '    ');
   write('\n  }\n}\n');
+}
+
+/** The sweep alone as a JSON document, streamed as in {@link writeResultJson}. */
+export function writeSweepJson(sweep: SweepReport, write: Write): void {
+  write('{\n');
+  writeSweepMembers(sweep, write, '  ');
+  write('\n}\n');
 }

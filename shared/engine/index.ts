@@ -10,6 +10,7 @@ export {
   type AnalyzeOptions,
   type SolveClock,
 } from './analyze';
+export { sweepChain, type SweepOnlyOptions } from './sweep-only';
 export {
   buildChain,
   stageName,

@@ -1,0 +1,90 @@
+/**
+ * The CLI's `--sweep-only`, run as a separate process from its esbuild bundle: the sweep
+ * alone, as a table and as JSON, must be what `--sweep` writes after its budget table, byte
+ * for byte and value for value, in any mode; its timing lines must nest; and the options it
+ * cannot honour must be refused with what to leave out.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { bundleCli } from '../../scripts/bench/bundle-cli';
+
+const ROOT = join(__dirname, '..', '..');
+const FIXTURE = (name: string) => join(ROOT, 'test', 'fixtures', 'chains', name);
+const EXAMPLE = (key: string) => join(ROOT, 'examples', `${key}.chain.json`);
+let dir: string;
+let bundle: string;
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), 'cw-cli-sweep-'));
+  bundle = await bundleCli(join(dir, 'analyze.js'));
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+function cli(...args: string[]) {
+  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 30_000 });
+  return { code: p.status, out: p.stdout, err: p.stderr };
+}
+
+/** What `--sweep` writes after its budget table and its "Sweep" line. */
+function sweepTableOf(out: string): string {
+  const at = out.indexOf('\nSweep\n');
+  expect(at).toBeGreaterThan(0);
+  return out.slice(at + '\nSweep\n'.length);
+}
+
+describe('analyze CLI --sweep-only', () => {
+  it.each([
+    ['a chain without modes', FIXTURE('listener-7mhz.json'), []],
+    ['a chain through a mixer', FIXTURE('with-mixer.json'), []],
+    ['a mode of a chain with modes', EXAMPLE('ism-433-transceiver-shared-antenna'), ['--mode', 'transmit']], // prettier-ignore
+  ])('should write the table --sweep writes, and nothing else, for %s', (_what, file, mode) => {
+    const alone = cli(file, '--sweep-only', ...mode);
+    expect(alone.err).toBe('');
+    expect(alone.code).toBe(0);
+    const withAnalysis = cli(file, '--sweep', ...mode);
+    expect(withAnalysis.code).toBe(0);
+    expect(alone.out).toBe(sweepTableOf(withAnalysis.out));
+    expect(alone.out.split('\n')[0]).toMatch(/^f \(Hz\)\s+n0 \(dB\)/);
+  });
+
+  it('should write the sweep as JSON, the values of --sweep --json', () => {
+    const alone = cli(EXAMPLE('two-metre-coupled-preselector'), '--sweep-only', '--json');
+    expect(alone.code).toBe(0);
+    const sweep = JSON.parse(alone.out);
+    const whole = JSON.parse(cli(EXAMPLE('two-metre-coupled-preselector'), '--sweep', '--json').out); // prettier-ignore
+    expect(sweep).toEqual(whole.sweep);
+    expect(sweep.freqsHz.length).toBeGreaterThan(100);
+  });
+
+  it('should say how long the solve, the sweep and the process took with --timing, output unchanged', () => {
+    const plain = cli(FIXTURE('listener-7mhz.json'), '--sweep-only');
+    const timed = cli(FIXTURE('listener-7mhz.json'), '--sweep-only', '--timing');
+    expect(timed.code).toBe(0);
+    expect(timed.out).toBe(plain.out);
+    const seconds = (what: string) => Number(new RegExp(`^timing: ${what} ([0-9.]+) s$`, 'm').exec(timed.err)?.[1]); // prettier-ignore
+    expect(seconds('solve')).toBeGreaterThan(0);
+    expect(seconds('solve')).toBeLessThan(seconds('analysis'));
+    expect(seconds('analysis')).toBeLessThan(seconds('whole process'));
+  });
+
+  it('should refuse, exit 1, the options it cannot honour, naming each to leave out', () => {
+    const r = cli(FIXTURE('listener-7mhz.json'), '--sweep-only', '--plan', '--spice');
+    expect(r.code).toBe(1);
+    expect(r.out).toBe('');
+    expect(r.err).toMatch(/--sweep-only writes the sweep alone/);
+    expect(r.err).toMatch(/leave out --plan, --spice/);
+    const both = cli(FIXTURE('listener-7mhz.json'), '--sweep-only', '--sweep');
+    expect(both.code).toBe(1);
+    expect(both.err).toMatch(/leave out --sweep \(for the analysis with its sweep, use --sweep\)/);
+  });
+
+  it('should exit 3 with the problems of an invalid chain, as the analysis does', () => {
+    const alone = cli(FIXTURE('invalid-values.json'), '--sweep-only');
+    const whole = cli(FIXTURE('invalid-values.json'), '--sweep');
+    expect(alone.code).toBe(3);
+    expect(alone.out).toBe('');
+    expect(alone.err).toBe(whole.err);
+  });
+});
