@@ -100,18 +100,29 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
   let fromAt = vr < 0 ? 0 : vr * P + i0;
   // zInRe/zInIm/zAt are node 0's Zin now.
   sourceSectionKept(emf, i0, sRe, sIm, sAt, zInRe, zInIm, zAt, n, fromRe, fromIm, fromAt);
+  // Zsrc is carried forward only as far as the last node whose impedances are kept: past it
+  // nothing reads it (a node's voltage needs the Zin at its output, not Zsrc), so the sections
+  // after it take the voltage step alone. (The sweep alone keeps node 0's only.)
+  const zsrcTo = lastKeptNode(zRow, N);
   for (let j = 0; j < N; j++) {
     vr = vRow ? vRow[j + 1] : j + 1;
     const toRe = vr < 0 ? blockVRe : vRe;
     const toIm = vr < 0 ? blockVIm : vIm;
     const toAt = vr < 0 ? 0 : vr * P + i0;
     row = zRow ? zRow[j + 1] : j + 1;
-    const sToRe = row < 0 ? bSr : zsrcRe;
-    const sToIm = row < 0 ? bSi : zsrcIm;
-    const sToAt = row < 0 ? 0 : row * P + i0;
     const zOutRe = row < 0 ? bZr : zinRe;
     const zOutIm = row < 0 ? bZi : zinIm;
     const zOutAt = row < 0 ? (j + 1) * B : row * P + i0;
+    if (j >= zsrcTo) {
+      voltageSectionKept(m, 8 * j * B, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+      fromRe = toRe;
+      fromIm = toIm;
+      fromAt = toAt;
+      continue;
+    }
+    const sToRe = row < 0 ? bSr : zsrcRe;
+    const sToIm = row < 0 ? bSi : zsrcIm;
+    const sToAt = row < 0 ? 0 : row * P + i0;
     forwardSectionKept(m, 8 * j * B, sRe, sIm, sAt, sToRe, sToIm, sToAt, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     sRe = sToRe;
     sIm = sToIm;
@@ -120,6 +131,14 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     fromIm = toIm;
     fromAt = toAt;
   }
+}
+
+/** The last flat node (0…N) whose impedances a row map keeps (N without a map). */
+function lastKeptNode(zRow: Int32Array | undefined, N: number): number {
+  if (!zRow) return N;
+  let last = 0;
+  for (let j = 0; j <= N; j++) if (zRow[j] >= 0) last = j;
+  return last;
 }
 
 /**
@@ -286,6 +305,58 @@ function forwardSectionKept(
       sOutRe[sOut + k] = (nr * dr + ni * di) * inv;
       sOutIm[sOut + k] = (ni * dr - nr * di) * inv;
     }
+    // V at the output: V/(A + B·Y), Y = 1/Zin(out).
+    let er = a0;
+    let ei = a1;
+    if (ar - ar === 0 && ai - ai === 0) {
+      const a2 = ar * ar + ai * ai;
+      if (a2 === 0 || (vr === 0 && vi === 0)) {
+        vOutRe[vOut + k] = 0;
+        vOutIm[vOut + k] = 0;
+        continue;
+      }
+      const ia = 1 / a2;
+      const yr = ar * ia;
+      const yi = -ai * ia;
+      er += b0 * yr - b1 * yi;
+      ei += b0 * yi + b1 * yr;
+    }
+    const ie = 1 / (er * er + ei * ei);
+    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
+    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
+  }
+}
+
+/**
+ * V at a section's output alone, for a block of points past the last node whose Zsrc is kept:
+ * the voltage half of {@link forwardSectionKept}, the same expressions in the same order, so
+ * the same voltages to the bit.
+ */
+function voltageSectionKept(
+  m: Float64Array,
+  mj: number,
+  zRe: Float64Array,
+  zIm: Float64Array,
+  zAt: number,
+  n: number,
+  vInRe: Float64Array,
+  vInIm: Float64Array,
+  vIn: number,
+  vOutRe: Float64Array,
+  vOutIm: Float64Array,
+  vOut: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    // Every value read before the first store (see forwardSectionKept).
+    const a0 = m[o];
+    const a1 = m[o + 1];
+    const b0 = m[o + 2];
+    const b1 = m[o + 3];
+    const ar = zRe[zAt + k];
+    const ai = zIm[zAt + k];
+    const vr = vInRe[vIn + k];
+    const vi = vInIm[vIn + k];
     // V at the output: V/(A + B·Y), Y = 1/Zin(out).
     let er = a0;
     let ei = a1;
