@@ -8,10 +8,10 @@
  *   (edit-to-render.json), with the target that file states.
  * Each row names when the browser run was and the load average it saw.
  */
-import { existsSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { median } from './measure';
-import { ms, verdict, type BenchContext, type BenchSection } from './rows';
+import { measuredWhen, ms, verdict, type BenchContext, type BenchSection } from './rows';
 
 /** Median edit → updated plot, ms. */
 const EDIT_TO_PLOT_TARGET_MS = 100;
@@ -44,7 +44,7 @@ function readBrowserFigure(file: string): BrowserFigure | string {
         ? median(samples)
         : undefined;
   if (value === undefined) return 'file has no medianMs or samplesMs';
-  const when = statSync(file).mtime.toISOString().slice(0, 16).replace('T', ' ');
+  const when = measuredWhen(file, data);
   const load = typeof data.load === 'number' ? `, load ${data.load.toFixed(2)} then` : '';
   return {
     medianMs: value,

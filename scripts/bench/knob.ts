@@ -3,9 +3,9 @@
  * test-results/knob-rate.json while it turns a capacitor). Read, not measured here: the row
  * says "not measured" when no browser run has written the file.
  */
-import { existsSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { verdict, type BenchContext, type BenchSection } from './rows';
+import { measuredWhen, verdict, type BenchContext, type BenchSection } from './rows';
 
 /** Live updates a second the knob must reach while a value turns. */
 const KNOB_TARGET_PER_S = 20;
@@ -19,10 +19,13 @@ export const knobSection: BenchSection = {
     const target = `≥ ${KNOB_TARGET_PER_S}/s`;
     if (!existsSync(file)) return ctx.row(figure, 'not measured', target);
     try {
-      const data = JSON.parse(readFileSync(file, 'utf8')) as { updatesPerSecond?: unknown };
+      const data = JSON.parse(readFileSync(file, 'utf8')) as {
+        updatesPerSecond?: unknown;
+        measuredAt?: unknown;
+      };
       const rate = data.updatesPerSecond;
       if (typeof rate !== 'number') return ctx.row(figure, 'file has no updatesPerSecond', target);
-      const when = statSync(file).mtime.toISOString().slice(0, 16).replace('T', ' ');
+      const when = measuredWhen(file, data);
       ctx.row(
         `${figure}, ${when} UTC`,
         `${rate.toFixed(0)}/s`,

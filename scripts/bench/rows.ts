@@ -3,6 +3,7 @@
  * rows; each row carries the 1-minute load average at the moment its figure was taken, so
  * a figure measured on a busy machine says so.
  */
+import { statSync } from 'node:fs';
 import { loadavg } from 'node:os';
 
 export type Verdict = 'PASS' | 'MISS' | '';
@@ -39,3 +40,14 @@ export const ms = (v: number) =>
 export const kib = (b: number) => `${(b / 1024).toFixed(1)} KiB`;
 export const mib = (b: number) => `${(b / 1024 / 1024).toFixed(0)} MiB`;
 export const loadNow = () => loadavg()[0];
+
+/**
+ * When a browser run took the figure in `file` (its `measuredAt`, "YYYY-MM-DD HH:MM" UTC),
+ * or, for a file written before runs said so, the file's modification time (which a copy
+ * of the file without its times moves to the moment of the copy).
+ */
+export function measuredWhen(file: string, data: { measuredAt?: unknown }): string {
+  const at = typeof data.measuredAt === 'string' ? new Date(data.measuredAt) : undefined;
+  const when = at && !Number.isNaN(at.getTime()) ? at : statSync(file).mtime;
+  return when.toISOString().slice(0, 16).replace('T', ' ');
+}

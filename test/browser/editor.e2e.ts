@@ -312,7 +312,13 @@ describe('chain editor', () => {
     writeFileSync(
       join(process.cwd(), 'test-results', 'edit-to-render.json'),
       JSON.stringify(
-        { medianMs: median, samplesMs: all, targetMs: 150, load: loadavg()[0] },
+        {
+          medianMs: median,
+          samplesMs: all,
+          targetMs: 150,
+          load: loadavg()[0],
+          measuredAt: new Date().toISOString(),
+        },
         null,
         2,
       ),

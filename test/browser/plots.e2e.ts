@@ -145,6 +145,7 @@ function record(file: string, samples: number[], targetMs: number, what: string)
         targetMs,
         load: loadavg()[0],
         baseUrl: BASE_URL,
+        measuredAt: new Date().toISOString(),
       },
       null,
       2,
