@@ -307,18 +307,21 @@ function run(argv: string[], out: ByteSink): void {
       return write(chainToTouchstone(doc, { catalogue, z0: o.z0 }).trimEnd() + '\n');
     const designed = runDesign(doc, o, catalogue);
     if (designed !== null) return write(designed + '\n');
-    const started = performance.now();
     const clock: SolveClock | undefined = o.timing ? {} : undefined;
-    if (o.sweepOnly) {
-      // Written out before anything else runs, so the report may read the solve in place.
-      const sweep = sweepChain(full, { catalogue, mode: o.mode, clock, inPlace: true });
+    /** Runs the engine, noting for --timing how long it and its solve took. */
+    const timed = <T>(engine: () => T): T => {
+      const started = performance.now();
+      const done = engine();
       if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
       if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
+      return done;
+    };
+    if (o.sweepOnly) {
+      // Written out before anything else runs, so the report may read the solve in place.
+      const sweep = timed(() => sweepChain(full, { catalogue, mode: o.mode, clock, inPlace: true })); // prettier-ignore
       return o.json ? writeSweepJson(sweep, write) : writeSweepTable(sweep, out);
     }
-    const result = analyzeChain(full, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false, mode: o.mode, clock }); // prettier-ignore
-    if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
-    if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
+    const result = timed(() => analyzeChain(full, { catalogue, sweep: o.sweep, plan: o.plan ? 'full' : false, mode: o.mode, clock })); // prettier-ignore
     if (o.json) return writeResultJson(result, write);
     const { sweep, ...atF0 } = result;
     write(budgetText(doc.name, atF0) + '\n');

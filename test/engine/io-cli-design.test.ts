@@ -2,27 +2,12 @@
  * The design options of the analysis CLI, run as a separate process on the bundle (as the
  * CLI ships): their answers, and their refusals with exit code 3 and the reason.
  */
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { bundleCli } from '../../scripts/bench/bundle-cli';
+import { bundledCli } from './helpers/bundled-cli';
 
 const ROOT = join(__dirname, '..', '..');
 const EXAMPLE = join(ROOT, 'examples', 'shortwave-superhet-single-tank.chain.json');
-let dir: string;
-let bundle: string;
-
-beforeAll(async () => {
-  dir = mkdtempSync(join(tmpdir(), 'cw-cli-design-'));
-  bundle = await bundleCli(join(dir, 'analyze.js'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function cli(...args: string[]) {
-  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 60_000 });
-  return { code: p.status, out: p.stdout, err: p.stderr };
-}
+const cli = bundledCli('cw-cli-design-', 60_000).run;
 
 describe('analyze CLI, design options', () => {
   it('tunes the preselector to 7.1 MHz and prints JSON the engine agrees with', () => {

@@ -3,27 +3,12 @@
  * clear refusal (exit 3) for a mode the chain does not have. Runs the esbuild bundle as a
  * separate process, like io-cli.test.ts.
  */
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { bundleCli } from '../../scripts/bench/bundle-cli';
+import { bundledCli } from './helpers/bundled-cli';
 import type { AnalysisResult } from '../../shared/engine/types';
 
 const EXAMPLE = join(__dirname, '..', '..', 'examples', 'ism-433-transceiver-shared-antenna.chain.json'); // prettier-ignore
-let dir: string;
-let bundle: string;
-
-beforeAll(async () => {
-  dir = mkdtempSync(join(tmpdir(), 'cw-cli-modes-'));
-  bundle = await bundleCli(join(dir, 'analyze.js'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function cli(...args: string[]) {
-  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 30_000 });
-  return { code: p.status, out: p.stdout, err: p.stderr };
-}
+const cli = bundledCli('cw-cli-modes-').run;
 
 describe('analyze CLI with modes', () => {
   it('lists the modes, the first marked as the one analysed by default', () => {

@@ -4,28 +4,13 @@
  * for byte and value for value, in any mode; its timing lines must nest; and the options it
  * cannot honour must be refused with what to leave out.
  */
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { bundleCli } from '../../scripts/bench/bundle-cli';
+import { bundledCli } from './helpers/bundled-cli';
 
 const ROOT = join(__dirname, '..', '..');
 const FIXTURE = (name: string) => join(ROOT, 'test', 'fixtures', 'chains', name);
 const EXAMPLE = (key: string) => join(ROOT, 'examples', `${key}.chain.json`);
-let dir: string;
-let bundle: string;
-
-beforeAll(async () => {
-  dir = mkdtempSync(join(tmpdir(), 'cw-cli-sweep-'));
-  bundle = await bundleCli(join(dir, 'analyze.js'));
-});
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function cli(...args: string[]) {
-  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 30_000 });
-  return { code: p.status, out: p.stdout, err: p.stderr };
-}
+const cli = bundledCli('cw-cli-sweep-').run;
 
 /** What `--sweep` writes after its budget table and its "Sweep" line. */
 function sweepTableOf(out: string): string {

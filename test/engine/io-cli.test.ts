@@ -4,33 +4,25 @@
  * one runs the TypeScript source through tsx, as `npm run analyze` does.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { bundleCli, snapshotCli } from '../../scripts/bench/bundle-cli';
+import { snapshotCli } from '../../scripts/bench/bundle-cli';
+import { bundledCli } from './helpers/bundled-cli';
 import { readTouchstone } from '../../shared/io/touchstone';
 import type { AnalysisResult } from '../../shared/engine/types';
 
 const ROOT = join(__dirname, '..', '..');
 const FIXTURE = (name: string) => join(ROOT, 'test', 'fixtures', 'chains', name);
-let dir: string;
-let bundle: string;
+const built = bundledCli('cw-cli-');
+const cli = built.run;
 
 let broken: string;
 
-beforeAll(async () => {
-  dir = mkdtempSync(join(tmpdir(), 'cw-cli-'));
-  bundle = await bundleCli(join(dir, 'analyze.js'));
+beforeAll(() => {
   // Written here rather than kept as a fixture, so formatters never see invalid JSON.
-  broken = join(dir, 'broken.json');
+  broken = join(built.dir, 'broken.json');
   writeFileSync(broken, '{\n  "name": "broken",\n  "settings": { "f0Hz": 7e6, }\n}\n');
 });
-afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-function cli(...args: string[]) {
-  const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: 30_000 });
-  return { code: p.status, out: p.stdout, err: p.stderr };
-}
 
 describe('analyze CLI', () => {
   it('should say how long the analysis and the whole process took with --timing, output unchanged', () => {
@@ -110,9 +102,9 @@ describe('analyze CLI', () => {
       settings: { sweep: { points: number } };
     };
     doc.settings.sweep.points = 20_000; // about 3 MB of table: far more than a pipe holds
-    const long = join(dir, 'long.json');
+    const long = join(built.dir, 'long.json');
     writeFileSync(long, JSON.stringify(doc));
-    const whole = spawnSync(process.execPath, [bundle, long, '--sweep'], {
+    const whole = spawnSync(process.execPath, [built.bundle, long, '--sweep'], {
       encoding: 'utf8',
       timeout: 30_000,
       maxBuffer: 1 << 26,
@@ -122,7 +114,7 @@ describe('analyze CLI', () => {
       20_000,
     );
     expect(whole.stdout.endsWith('\n')).toBe(true);
-    const cut = spawnSync('bash', ['-c', `"${process.execPath}" "${bundle}" "${long}" --sweep | head -n 1`], {
+    const cut = spawnSync('bash', ['-c', `"${process.execPath}" "${built.bundle}" "${long}" --sweep | head -n 1`], {
       encoding: 'utf8',
       timeout: 30_000,
     }); // prettier-ignore
@@ -187,7 +179,7 @@ describe('analyze CLI', () => {
   });
 
   it('should exit 3 naming an unknown formatVersion', () => {
-    const file = join(dir, 'future.json');
+    const file = join(built.dir, 'future.json');
     const doc = JSON.parse(readFileSync(FIXTURE('listener-7mhz.json'), 'utf8')) as object;
     writeFileSync(file, JSON.stringify({ ...doc, formatVersion: 2 }));
     const { code, err } = cli(file);
@@ -211,7 +203,7 @@ describe('analyze CLI', () => {
   });
 
   it('should start from its start-up snapshot with the same output, options and exit codes', () => {
-    const launcher = snapshotCli(bundle);
+    const launcher = snapshotCli(built.bundle);
     const fromBlob = (...args: string[]) => {
       const p = spawnSync(launcher, args, {
         encoding: 'utf8',
@@ -231,7 +223,7 @@ describe('analyze CLI', () => {
       /^timing: solve [0-9.]+ s\ntiming: analysis /,
     );
     // Node warns about an extra CA file it cannot read; from the launcher it never reads one.
-    const missing = join(dir, 'no-such-certificates.pem');
+    const missing = join(built.dir, 'no-such-certificates.pem');
     const withCerts = (command: string, args: string[]) =>
       spawnSync(command, args, {
         encoding: 'utf8',

@@ -5,7 +5,7 @@
  * 5 % more per point, which a sweep that keeps every row should not pay.
  */
 import type { BuiltChain } from './build';
-import { fillComplex, fillReal, MIN_NODE_HZ } from './node-steps';
+import { fillComplex, fillReal, MIN_NODE_HZ, voltageSection } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -114,7 +114,7 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const zOutIm = row < 0 ? bZi : zinIm;
     const zOutAt = row < 0 ? (j + 1) * B : row * P + i0;
     if (j >= zsrcTo) {
-      voltageSectionKept(m, 8 * j * B, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+      voltageSection(m, 8 * j * B, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
       fromRe = toRe;
       fromIm = toIm;
       fromAt = toAt;
@@ -305,58 +305,6 @@ function forwardSectionKept(
       sOutRe[sOut + k] = (nr * dr + ni * di) * inv;
       sOutIm[sOut + k] = (ni * dr - nr * di) * inv;
     }
-    // V at the output: V/(A + B·Y), Y = 1/Zin(out).
-    let er = a0;
-    let ei = a1;
-    if (ar - ar === 0 && ai - ai === 0) {
-      const a2 = ar * ar + ai * ai;
-      if (a2 === 0 || (vr === 0 && vi === 0)) {
-        vOutRe[vOut + k] = 0;
-        vOutIm[vOut + k] = 0;
-        continue;
-      }
-      const ia = 1 / a2;
-      const yr = ar * ia;
-      const yi = -ai * ia;
-      er += b0 * yr - b1 * yi;
-      ei += b0 * yi + b1 * yr;
-    }
-    const ie = 1 / (er * er + ei * ei);
-    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
-    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
-  }
-}
-
-/**
- * V at a section's output alone, for a block of points past the last node whose Zsrc is kept:
- * the voltage half of {@link forwardSectionKept}, the same expressions in the same order, so
- * the same voltages to the bit.
- */
-function voltageSectionKept(
-  m: Float64Array,
-  mj: number,
-  zRe: Float64Array,
-  zIm: Float64Array,
-  zAt: number,
-  n: number,
-  vInRe: Float64Array,
-  vInIm: Float64Array,
-  vIn: number,
-  vOutRe: Float64Array,
-  vOutIm: Float64Array,
-  vOut: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    // Every value read before the first store (see forwardSectionKept).
-    const a0 = m[o];
-    const a1 = m[o + 1];
-    const b0 = m[o + 2];
-    const b1 = m[o + 3];
-    const ar = zRe[zAt + k];
-    const ai = zIm[zAt + k];
-    const vr = vInRe[vIn + k];
-    const vi = vInIm[vIn + k];
     // V at the output: V/(A + B·Y), Y = 1/Zin(out).
     let er = a0;
     let ei = a1;

@@ -1,7 +1,7 @@
 /**
  * The node analysis across one section at one point (ABCD at m[o … o+7]): the steps the
- * single-point probes and the studies' judged sweeps take, and the backward step over a
- * block of points that the node analysis runs. Arguments are arrays and indices only, so
+ * single-point probes and the studies' judged sweeps take, and the backward and voltage
+ * steps over a block of points that the node analysis runs. Arguments are arrays and indices only, so
  * calling them boxes nothing.
  */
 
@@ -163,28 +163,60 @@ export function voltageStep(
   from: number,
   to: number,
 ): void {
-  const ar = zinRe[to];
-  const ai = zinIm[to];
-  const vr = vRe[from];
-  const vi = vIm[from];
-  let er = m[o];
-  let ei = m[o + 1];
-  if (finite(ar) && finite(ai)) {
-    const a2 = ar * ar + ai * ai;
-    if (a2 === 0 || (vr === 0 && vi === 0)) {
-      vRe[to] = 0;
-      vIm[to] = 0;
-      return;
+  voltageSection(m, o, zinRe, zinIm, to, 1, vRe, vIm, from, vRe, vIm, to);
+}
+
+/**
+ * {@link voltageStep} over a block of `n` points, between any places: V at the output into
+ * vOutRe/vOutIm from `vOut` from V at the input (vInRe/vInIm from `vIn`) and Zin at the output
+ * (zRe/zIm from `zAt`), the section's ABCD of point k at m[mj + 8k …]. The node analysis runs
+ * it past the last node whose Zsrc it keeps; elsewhere the voltage half of its fused forward
+ * step is these expressions in this order, so every path gives the same voltages.
+ */
+export function voltageSection(
+  m: Float64Array,
+  mj: number,
+  zRe: Float64Array,
+  zIm: Float64Array,
+  zAt: number,
+  n: number,
+  vInRe: Float64Array,
+  vInIm: Float64Array,
+  vIn: number,
+  vOutRe: Float64Array,
+  vOutIm: Float64Array,
+  vOut: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    // Every value read before the first store: the input and output places may be one.
+    const a0 = m[o];
+    const a1 = m[o + 1];
+    const b0 = m[o + 2];
+    const b1 = m[o + 3];
+    const ar = zRe[zAt + k];
+    const ai = zIm[zAt + k];
+    const vr = vInRe[vIn + k];
+    const vi = vInIm[vIn + k];
+    let er = a0;
+    let ei = a1;
+    if (ar - ar === 0 && ai - ai === 0) {
+      const a2 = ar * ar + ai * ai;
+      if (a2 === 0 || (vr === 0 && vi === 0)) {
+        vOutRe[vOut + k] = 0;
+        vOutIm[vOut + k] = 0;
+        continue;
+      }
+      const ia = 1 / a2;
+      const yr = ar * ia;
+      const yi = -ai * ia;
+      er += b0 * yr - b1 * yi;
+      ei += b0 * yi + b1 * yr;
     }
-    const ia = 1 / a2;
-    const yr = ar * ia;
-    const yi = -ai * ia;
-    er += m[o + 2] * yr - m[o + 3] * yi;
-    ei += m[o + 2] * yi + m[o + 3] * yr;
+    const ie = 1 / (er * er + ei * ei);
+    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
+    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
   }
-  const ie = 1 / (er * er + ei * ei);
-  vRe[to] = (vr * er + vi * ei) * ie;
-  vIm[to] = (vi * er - vr * ei) * ie;
 }
 
 /** One-port values at f[fo … fo+n−1] into `pair` (re, im interleaved from 0). */

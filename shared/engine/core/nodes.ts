@@ -29,7 +29,14 @@ import { MIN_NODE_HZ } from './node-steps';
 import { runBlock } from './node-block';
 import { runBlockKept } from './node-block-kept';
 
-export { backSection, backStep, forwardStep, sourceStep, voltageStep } from './node-steps';
+export {
+  backSection,
+  backStep,
+  forwardStep,
+  sourceStep,
+  voltageSection,
+  voltageStep,
+} from './node-steps';
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.

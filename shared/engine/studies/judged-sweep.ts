@@ -20,7 +20,7 @@ import {
   backSection,
   MIN_NODE_HZ,
   sourceStep,
-  voltageStep,
+  voltageSection,
   type NodeAnalysis,
 } from '../core/nodes';
 import type { Probe } from '../core/probe';
@@ -227,7 +227,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
     for (const { from, to, m: joined } of steps) {
       if (from >= flat) break;
       const m = joined ?? mats[from];
-      for (let k = 0; k < P; k++) voltageStep(m, 8 * k, zinRe, zinIm, vRe, vIm, from * P + k, to * P + k); // prettier-ignore
+      voltageSection(m, 0, zinRe, zinIm, to * P, P, vRe, vIm, from * P, vRe, vIm, to * P);
     }
     return {
       points: P,
