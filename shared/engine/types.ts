@@ -128,6 +128,12 @@ export interface Section {
   fill?: AbcdFill;
   /** Unilateral (y12 = 0): the backward pass restarts at its input. */
   unilateral?: boolean;
+  /**
+   * One admittance across the line: the ABCD is [[1, 0], [Y, 1]] at every frequency, so the
+   * voltage at its output is the voltage at its input (the node analysis copies it instead of
+   * dividing). Set by the factory that guarantees it (`shuntSection`), never inferred.
+   */
+  shunt?: boolean;
   /** Frequency at the section's output for frequency f at its input (mixers). */
   translate?: (f: number) => number;
 }

@@ -5,7 +5,13 @@
  * 5 % more per point, which a sweep that keeps every row should not pay.
  */
 import type { BuiltChain } from './build';
-import { fillComplex, fillReal, MIN_NODE_HZ, voltageSection } from './node-steps';
+import {
+  fillComplex,
+  fillReal,
+  forwardShuntSection,
+  MIN_NODE_HZ,
+  voltageSection,
+} from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -113,8 +119,10 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const zOutRe = row < 0 ? bZr : zinRe;
     const zOutIm = row < 0 ? bZi : zinIm;
     const zOutAt = row < 0 ? (j + 1) * B : row * P + i0;
+    const mj = 8 * j * B;
+    const shunt = sections[j].shunt === true;
     if (j >= zsrcTo) {
-      voltageSection(m, 8 * j * B, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+      voltageSection(m, mj, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt, shunt); // prettier-ignore
       fromRe = toRe;
       fromIm = toIm;
       fromAt = toAt;
@@ -123,7 +131,9 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const sToRe = row < 0 ? bSr : zsrcRe;
     const sToIm = row < 0 ? bSi : zsrcIm;
     const sToAt = row < 0 ? 0 : row * P + i0;
-    forwardSectionKept(m, 8 * j * B, sRe, sIm, sAt, sToRe, sToIm, sToAt, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+    // A shunt section passes the voltage through, as in node-block.ts.
+    if (shunt) forwardShuntSection(m, mj, sRe, sIm, sAt, sToRe, sToIm, sToAt, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+    else forwardSectionKept(m, mj, sRe, sIm, sAt, sToRe, sToIm, sToAt, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     sRe = sToRe;
     sIm = sToIm;
     sAt = sToAt;

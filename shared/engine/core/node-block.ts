@@ -4,7 +4,7 @@
  * source. A workspace that keeps some rows only runs node-block-kept.ts's loop instead.
  */
 import type { BuiltChain } from './build';
-import { backSection, fillComplex, fillReal, MIN_NODE_HZ } from './node-steps';
+import { backSection, fillComplex, fillReal, forwardShuntSection, MIN_NODE_HZ } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -66,7 +66,12 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     const toRe = row < 0 ? blockVRe : vRe;
     const toIm = row < 0 ? blockVIm : vIm;
     const toAt = row < 0 ? 0 : row * P + i0;
-    forwardSection(m, 8 * j * B, na, j * P + i0, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
+    const mj = 8 * j * B;
+    const at = j * P + i0;
+    // A shunt section passes the voltage through (node-steps.ts's `voltageSection`).
+    if (sections[j].shunt)
+      forwardShuntSection(m, mj, zsrcRe, zsrcIm, at, zsrcRe, zsrcIm, at + P, zinRe, zinIm, at + P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+    else forwardSection(m, mj, na, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
     fromRe = toRe;
     fromIm = toIm;
     fromAt = toAt;

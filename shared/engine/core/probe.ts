@@ -85,6 +85,8 @@ export function createProbe(built: BuiltChain): Probe {
   // First unilateral section at or after each node (N when none).
   const stopAt = new Int32Array(N + 1).fill(N);
   for (let j = N - 1; j >= 0; j--) stopAt[j] = sections[j].unilateral ? j : stopAt[j + 1];
+  // Sections that pass the voltage through (Section.shunt), as the node analysis takes them.
+  const shunt = Uint8Array.from(sections, (s) => (s.shunt ? 1 : 0));
   const zl = built.load.model.impedance!;
   const zs = built.source.model.impedance!;
   const es = built.source.model.emf!;
@@ -132,7 +134,7 @@ export function createProbe(built: BuiltChain): Probe {
     else emf[0] = es(fNode[0]);
     const e = emf[0];
     sourceStep(emf, zsrcRe, zsrcIm, zinRe, zinIm, vRe, vIm, 0, 0);
-    for (let j = 0; j < node; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1);
+    for (let j = 0; j < node; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1, shunt[j] === 1); // prettier-ignore
     return hypot2(vRe[node], vIm[node]) / Math.abs(e);
   }
 

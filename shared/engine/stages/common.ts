@@ -103,6 +103,7 @@ export function shuntSection(y: ComplexFn): Section {
   const s = new Float64Array(2);
   const yFill = y.fill;
   return {
+    shunt: true,
     abcd(f, out, o) {
       y(f, s, 0);
       shuntAdmittanceAbcd(s[0], s[1], out, o);

@@ -227,7 +227,9 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
     for (const { from, to, m: joined } of steps) {
       if (from >= flat) break;
       const m = joined ?? mats[from];
-      voltageSection(m, 0, zinRe, zinIm, to * P, P, vRe, vIm, from * P, vRe, vIm, to * P);
+      // A section of its own may be one shunt admittance, a joined run is not said to be.
+      const shunt = joined === null && built.sections[from].shunt === true;
+      voltageSection(m, 0, zinRe, zinIm, to * P, P, vRe, vIm, from * P, vRe, vIm, to * P, shunt); // prettier-ignore
     }
     return {
       points: P,
