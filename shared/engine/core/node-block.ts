@@ -4,7 +4,14 @@
  * source. A workspace that keeps some rows only runs node-block-kept.ts's loop instead.
  */
 import type { BuiltChain } from './build';
-import { backSection, fillComplex, fillReal, forwardShuntSection, MIN_NODE_HZ } from './node-steps';
+import {
+  backSection,
+  backShuntSection,
+  fillComplex,
+  fillReal,
+  forwardShuntSection,
+  MIN_NODE_HZ,
+} from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -40,7 +47,11 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     zinRe[N * P + i0 + k] = t[2 * k];
     zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
-  for (let j = N - 1; j >= 0; j--) backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+  for (let j = N - 1; j >= 0; j--) {
+    // A shunt section's matrix is mostly ones and zeros: its own loop reads C alone.
+    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+    else backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+  }
 
   // Forward pass, source → load, and the voltage at the source terminal.
   const source = built.source.model;

@@ -115,6 +115,51 @@ export function backSection(
   }
 }
 
+/**
+ * {@link backSection} through a shunt section (Section.shunt): the same expressions with its
+ * A = D = 1, B = 0 written in, so the same numbers, reading only C from the matrix.
+ */
+export function backShuntSection(
+  m: Float64Array,
+  mj: number,
+  re: Float64Array,
+  im: Float64Array,
+  at: number,
+  P: number,
+  n: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const from = at + P + k;
+    const zr = re[from];
+    const zi = im[from];
+    const c0 = m[o + 4];
+    const c1 = m[o + 5];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (zr - zr === 0 && zi - zi === 0) {
+      // Term by term as backSection rounds them (see forwardShuntSection).
+      nr = 1 * zr - 0 * zi + 0;
+      ni = 1 * zi + 0 * zr + 0;
+      dr = c0 * zr - c1 * zi + 1;
+      di = c0 * zi + c1 * zr + 0;
+    } else {
+      nr = 1;
+      ni = 0;
+      dr = c0;
+      di = c1;
+    }
+    const d2 = dr * dr + di * di;
+    if (d2 === 0) {
+      re[at + k] = OPEN;
+      im[at + k] = 0;
+    } else {
+      const inv = 1 / d2;
+      re[at + k] = (nr * dr + ni * di) * inv;
+      im[at + k] = (ni * dr - nr * di) * inv;
+    }
+  }
+}
+
 /** Zsrc at the section's output (`to`) from Zsrc at its input (`from`): (D·Z + B)/(C·Z + A). */
 export function forwardStep(
   m: Float64Array,
