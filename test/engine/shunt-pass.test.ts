@@ -9,7 +9,7 @@
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { buildChain, STAGE_DEFINITIONS } from '../../shared/engine';
+import { analyzeBuilt, buildChain, STAGE_DEFINITIONS } from '../../shared/engine';
 import type { BuiltChain } from '../../shared/engine/core/build';
 import {
   createNodeAnalysis,
@@ -83,6 +83,16 @@ describe('a shunt section passes the voltage through', () => {
         }
       }
     }
+  });
+
+  it.each(EXAMPLES)('gives the same selectivity at nodes joined by shunts for %s', (_file, raw) => {
+    // A user node joined to the one before it by shunt sections alone takes that node's
+    // report (selectivity.ts); with no section said to be a shunt every node's is searched.
+    const built = buildChain(parseChainDocument(raw), STAGE_DEFINITIONS);
+    const copied = analyzeBuilt(built, { sweep: false }).selectivity;
+    const searched = analyzeBuilt(general(built), { sweep: false }).selectivity;
+    expect(JSON.stringify(copied)).toBe(JSON.stringify(searched));
+    expect(copied.map((r) => r.node)).toEqual(Array.from(built.userNodeFlat, (_, n) => n));
   });
 
   it('gives what the general step gives through a shorted, an open and a dead node', () => {

@@ -123,12 +123,22 @@ export function analyzeSelectivity(
   const scan: PowerScan = { k: -1, minBelow: Infinity, minAbove: Infinity };
   const probe = probeOf(built);
   const reports: SelectivityReport[] = [];
+  // The last report worked out here (not read from a shape), at which flat node.
+  let last: { flat: number; report: SelectivityReport } | null = null;
   for (let n = 0; n < built.userNodeFlat.length; n++) {
     if (only !== undefined && n !== only) continue;
     const flat = built.userNodeFlat[n];
     // A coupled pair's peak and width at this node are these very searches (resonators.ts):
     // its shape is read instead of found again.
     const known = shapes?.get(flat);
+    // A node joined to the last one by shunt sections alone (a tank or a resistor across the
+    // line between two stages) is the same node: every voltage the searches read there, on the
+    // grid and at single frequencies, is the last one's copied (node-steps.ts), so its report
+    // is the last one's.
+    if (!known && last && sameNode(built, last.flat, flat)) {
+      reports.push({ ...last.report, node: n, offsets: last.report.offsets.map((o) => ({ ...o })) }); // prettier-ignore
+      continue;
+    }
     // One pass: the powers, the grid peak, and whether either side may reach −60 dB.
     if (!known) scanStepUpPower(sweepNa, flat, power, scan);
     const nodePower = known ? known.power : power;
@@ -183,6 +193,13 @@ export function analyzeSelectivity(
       imageHz,
       imageRejectionDb: isFiniteNumber(imageRejectionDb ?? 0) ? imageRejectionDb : null,
     });
+    last = known ? null : { flat, report: reports[reports.length - 1] };
   }
   return reports;
+}
+
+/** Flat nodes a ≤ b joined by shunt sections alone (Section.shunt): one electrical node. */
+function sameNode(built: BuiltChain, a: number, b: number): boolean {
+  for (let j = a; j < b; j++) if (!built.sections[j].shunt) return false;
+  return true;
 }
