@@ -134,6 +134,11 @@ export interface Section {
    * dividing). Set by the factory that guarantees it (`shuntSection`), never inferred.
    */
   shunt?: boolean;
+  /**
+   * One impedance in the line: the ABCD is [[1, Z], [0, 1]] at every frequency (the node
+   * analysis's steps skip reading its ones and zeros). Set by `seriesSection`, never inferred.
+   */
+  series?: boolean;
   /** Frequency at the section's output for frequency f at its input (mixers). */
   translate?: (f: number) => number;
 }

@@ -5,13 +5,8 @@
  * 5 % more per point, which a sweep that keeps every row should not pay.
  */
 import type { BuiltChain } from './build';
-import {
-  fillComplex,
-  fillReal,
-  forwardShuntSection,
-  MIN_NODE_HZ,
-  voltageSection,
-} from './node-steps';
+import { forwardShuntSection } from './ladder-steps';
+import { fillComplex, fillReal, MIN_NODE_HZ, voltageSection } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;

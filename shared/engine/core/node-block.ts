@@ -5,13 +5,12 @@
  */
 import type { BuiltChain } from './build';
 import {
-  backSection,
+  backSeriesSection,
   backShuntSection,
-  fillComplex,
-  fillReal,
+  forwardSeriesSection,
   forwardShuntSection,
-  MIN_NODE_HZ,
-} from './node-steps';
+} from './ladder-steps';
+import { backSection, fillComplex, fillReal, MIN_NODE_HZ } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -48,8 +47,10 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
   for (let j = N - 1; j >= 0; j--) {
-    // A shunt section's matrix is mostly ones and zeros: its own loop reads C alone.
-    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+    // A ladder's sections, mostly ones and zeros, have loops of their own (ladder-steps.ts).
+    const s = sections[j];
+    if (s.shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+    else if (s.series) backSeriesSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
     else backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
   }
 
@@ -80,8 +81,11 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     const mj = 8 * j * B;
     const at = j * P + i0;
     // A shunt section passes the voltage through (node-steps.ts's `voltageSection`).
-    if (sections[j].shunt)
+    const s = sections[j];
+    if (s.shunt)
       forwardShuntSection(m, mj, zsrcRe, zsrcIm, at, zsrcRe, zsrcIm, at + P, zinRe, zinIm, at + P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+    else if (s.series)
+      forwardSeriesSection(m, mj, zsrcRe, zsrcIm, zinRe, zinIm, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     else forwardSection(m, mj, na, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
     fromRe = toRe;
     fromIm = toIm;

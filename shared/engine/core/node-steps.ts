@@ -6,6 +6,7 @@
  */
 
 import type { ComplexFn, RealFn } from '../types';
+import { shuntVoltageSection } from './ladder-steps';
 
 // Globals read once: inside some hosts (test runners' VM contexts) each global lookup in a
 // hot loop is slow.
@@ -115,51 +116,6 @@ export function backSection(
   }
 }
 
-/**
- * {@link backSection} through a shunt section (Section.shunt): the same expressions with its
- * A = D = 1, B = 0 written in, so the same numbers, reading only C from the matrix.
- */
-export function backShuntSection(
-  m: Float64Array,
-  mj: number,
-  re: Float64Array,
-  im: Float64Array,
-  at: number,
-  P: number,
-  n: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    const from = at + P + k;
-    const zr = re[from];
-    const zi = im[from];
-    const c0 = m[o + 4];
-    const c1 = m[o + 5];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (zr - zr === 0 && zi - zi === 0) {
-      // Term by term as backSection rounds them (see forwardShuntSection).
-      nr = 1 * zr - 0 * zi + 0;
-      ni = 1 * zi + 0 * zr + 0;
-      dr = c0 * zr - c1 * zi + 1;
-      di = c0 * zi + c1 * zr + 0;
-    } else {
-      nr = 1;
-      ni = 0;
-      dr = c0;
-      di = c1;
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      re[at + k] = OPEN;
-      im[at + k] = 0;
-    } else {
-      const inv = 1 / d2;
-      re[at + k] = (nr * dr + ni * di) * inv;
-      im[at + k] = (ni * dr - nr * di) * inv;
-    }
-  }
-}
-
 /** Zsrc at the section's output (`to`) from Zsrc at its input (`from`): (D·Z + B)/(C·Z + A). */
 export function forwardStep(
   m: Float64Array,
@@ -223,7 +179,7 @@ export function voltageStep(
  * `shunt`: the section is one admittance across the line (Section.shunt: A = D = 1, B = 0 at
  * every point), so V/(A + B·Y) is V itself, and the step copies it, with the same two zeros
  * (a shorted output, a dead input), instead of taking two reciprocals per point. Across the
- * bench chain's twelve shunt sections that is about 5 % of a whole analysis. (The general
+ * bench chain's twelve shunt sections that is about 3 % of a whole analysis. (The general
  * steps give V too, but through 1 + 0·Y, whose rounding can only flip the sign of a zero, and
  * a NaN where |Zin|² underflows: the copy is the exact answer.)
  */
@@ -275,109 +231,6 @@ export function voltageSection(
     const ie = 1 / (er * er + ei * ei);
     vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
     vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
-  }
-}
-
-/**
- * Zsrc and V at the output of a shunt section (Section.shunt) for a block of points, the
- * fused forward step of the node analyses (node-block.ts, node-block-kept.ts) with the places
- * of their own: Zsrc at its input read from sInRe/sInIm at `sIn` and at its output written to
- * sOutRe/sOutIm at `sOut`, Zin at its output read from zRe/zIm at `zAt`, the voltages read from
- * vInRe/vInIm at `vIn` and written to vOutRe/vOutIm at `vOut` (the places read and written may
- * be the same). Zsrc is {@link forwardStep}'s expressions with the shunt's A = D = 1, B = 0
- * written in, so the same numbers, without reading them; the voltage is
- * {@link voltageSection}'s copy for a shunt. Only C is read from the matrix.
- */
-export function forwardShuntSection(
-  m: Float64Array,
-  mj: number,
-  sInRe: Float64Array,
-  sInIm: Float64Array,
-  sIn: number,
-  sOutRe: Float64Array,
-  sOutIm: Float64Array,
-  sOut: number,
-  zRe: Float64Array,
-  zIm: Float64Array,
-  zAt: number,
-  n: number,
-  vInRe: Float64Array,
-  vInIm: Float64Array,
-  vIn: number,
-  vOutRe: Float64Array,
-  vOutIm: Float64Array,
-  vOut: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    // Every value read before the first store (the places may be one).
-    const c0 = m[o + 4];
-    const c1 = m[o + 5];
-    const sr = sInRe[sIn + k];
-    const si = sInIm[sIn + k];
-    const ar = zRe[zAt + k];
-    const ai = zIm[zAt + k];
-    const vr = vInRe[vIn + k];
-    const vi = vInIm[vIn + k];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (sr - sr === 0 && si - si === 0) {
-      // (D·Z + B)/(C·Z + A) term by term as forwardStep rounds it: the products by 0 and the
-      // added zeros stay, since they settle the sign of a zero result.
-      nr = 1 * sr - 0 * si + 0;
-      ni = 1 * si + 0 * sr + 0;
-      dr = c0 * sr - c1 * si + 1;
-      di = c0 * si + c1 * sr + 0;
-    } else {
-      nr = 1;
-      ni = 0;
-      dr = c0;
-      di = c1;
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      sOutRe[sOut + k] = OPEN;
-      sOutIm[sOut + k] = 0;
-    } else {
-      const inv = 1 / d2;
-      sOutRe[sOut + k] = (nr * dr + ni * di) * inv;
-      sOutIm[sOut + k] = (ni * dr - nr * di) * inv;
-    }
-    if ((ar - ar === 0 && ai - ai === 0 && ar * ar + ai * ai === 0) || (vr === 0 && vi === 0)) {
-      vOutRe[vOut + k] = 0;
-      vOutIm[vOut + k] = 0;
-    } else {
-      vOutRe[vOut + k] = vr;
-      vOutIm[vOut + k] = vi;
-    }
-  }
-}
-
-/** {@link voltageSection} through a shunt section: V at the output is V at the input. */
-function shuntVoltageSection(
-  zRe: Float64Array,
-  zIm: Float64Array,
-  zAt: number,
-  n: number,
-  vInRe: Float64Array,
-  vInIm: Float64Array,
-  vIn: number,
-  vOutRe: Float64Array,
-  vOutIm: Float64Array,
-  vOut: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const ar = zRe[zAt + k];
-    const ai = zIm[zAt + k];
-    const vr = vInRe[vIn + k];
-    const vi = vInIm[vIn + k];
-    const shorted = ar - ar === 0 && ai - ai === 0 && ar * ar + ai * ai === 0;
-    if (shorted || (vr === 0 && vi === 0)) {
-      vOutRe[vOut + k] = 0;
-      vOutIm[vOut + k] = 0;
-    } else {
-      vOutRe[vOut + k] = vr;
-      vOutIm[vOut + k] = vi;
-    }
   }
 }
 
