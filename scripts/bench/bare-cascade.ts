@@ -1,8 +1,11 @@
 /**
  * The bare cascade the full analysis is compared with: each section's ABCD over the sweep,
  * multiplied into a running product, and nothing else (no impedances, voltages, reports).
- * It evaluates the sections exactly as the node analysis does (their block forms), so the
- * ratio measures what the analysis adds to the cascade itself.
+ * It evaluates the sections by their block forms (`Section.fill`, all eight slots of each
+ * matrix), as the node analysis does for a general section, so the ratio measures what the
+ * analysis adds to the cascade itself. (The node analysis takes a ladder's shunt and series
+ * sections by their one part's block form and steps of their own, core/ladder-steps.ts; a
+ * general 2×2 product has no use for that, so the cascade here keeps to the general form.)
  */
 import { cascade, type BuiltChain } from '../../shared/engine';
 

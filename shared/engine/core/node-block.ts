@@ -32,7 +32,10 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
   for (let j = 0; j < N; j++) {
     const s = sections[j];
     const at = j * P + i0;
-    s.fill(fNode, at, n, m, 8 * j * B);
+    // A ladder's section writes its one part's value alone, all its steps below read of it.
+    const part = s.shunt || s.series ? s.partFill : undefined;
+    if (part) part(fNode, at, n, m, 8 * j * B + (s.shunt ? 4 : 2), 8);
+    else s.fill(fNode, at, n, m, 8 * j * B);
     const tr = s.translate;
     // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
     // open circuit and its matrix infinite; evaluate such a point at 1 mHz instead.

@@ -77,6 +77,7 @@ export function seriesSection(z: ComplexFn): Section {
   const zFill = z.fill;
   return {
     series: true,
+    ...(zFill ? { partFill: zFill } : {}),
     abcd(f, out, o) {
       z(f, s, 0);
       seriesImpedanceAbcd(s[0], s[1], out, o);
@@ -105,6 +106,7 @@ export function shuntSection(y: ComplexFn): Section {
   const yFill = y.fill;
   return {
     shunt: true,
+    ...(yFill ? { partFill: yFill } : {}),
     abcd(f, out, o) {
       y(f, s, 0);
       shuntAdmittanceAbcd(s[0], s[1], out, o);
