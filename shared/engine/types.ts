@@ -135,15 +135,9 @@ export interface Section {
    */
   shunt?: boolean;
   /**
-   * One impedance in the line: the ABCD is [[1, Z], [0, 1]] at every frequency (the node
-   * analysis's steps skip reading its ones and zeros). Set by `seriesSection`, never inferred.
-   */
-  series?: boolean;
-  /**
-   * With `shunt` or `series`: the block form of its one part (Y, or Z), which the node
-   * analysis's block loop calls to write that value alone into the matrix's C (shunt) or B
-   * (series) slots: the ladder's steps (core/ladder-steps.ts) read nothing else there, so the
-   * six constant slots `fill` writes per point are not written.
+   * With `shunt`: the block form of its admittance Y, which the node analysis's block loop
+   * calls to write Y alone into the matrix's C slots: the shunt's steps (core/ladder-steps.ts)
+   * read nothing else there, so the six constant slots `fill` writes per point are not written.
    */
   partFill?: NonNullable<ComplexFn['fill']>;
   /** Frequency at the section's output for frequency f at its input (mixers). */

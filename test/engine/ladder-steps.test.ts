@@ -1,11 +1,11 @@
 /**
  * The ladder's own steps (ladder-steps.ts): a section that is one shunt admittance
  * (Section.shunt) passes the voltage through, the node analysis copying V across it instead of
- * taking V/(A + B·Y) with A = 1, B = 0; shunt and series sections (Section.series) take the
- * general steps' expressions with their ones and zeros written in. None may change a number
- * the general steps give: every node's voltage and impedances, in the analysis that keeps every
- * row, in one that keeps some rows only, and in the probe's single-point voltage, equal those
- * of the same chain with no section said to be either (every step the general one). Circuit
+ * taking V/(A + B·Y) with A = 1, B = 0, and takes the general steps' expressions with its ones
+ * and zeros written in, filled by its admittance alone. None may change a number the general
+ * steps give: every node's voltage and impedances, in the analysis that keeps every row, in
+ * one that keeps some rows only, and in the probe's single-point voltage, equal those of the
+ * same chain with no section said to be a shunt (every step the general one). Circuit
  * law (common practice): an admittance across the line joins its two ends into one node, so
  * they carry one voltage.
  */
@@ -29,11 +29,11 @@ const EXAMPLES = readdirSync(join(ROOT, 'examples'))
   .filter((f) => f.endsWith('.chain.json'))
   .map((f) => [f, JSON.parse(readFileSync(join(ROOT, 'examples', f), 'utf8'))] as const);
 
-/** The same chain with every section's step the general one (none said to be a shunt or series). */
+/** The same chain with every section's step the general one (none said to be a shunt). */
 function general(built: BuiltChain): BuiltChain {
   return {
     ...built,
-    sections: built.sections.map((s) => ({ ...s, shunt: undefined, series: undefined })),
+    sections: built.sections.map((s) => ({ ...s, shunt: undefined })),
   };
 }
 

@@ -1,12 +1,14 @@
 /**
- * The node analysis's steps across the two sections a ladder is made of, each with its own
- * loop: one shunt admittance (Section.shunt, ABCD [[1, 0], [Y, 1]]) and one series impedance
- * (Section.series, [[1, Z], [0, 1]]). Each is node-steps.ts's general step with the ones and
- * zeros of its matrix written in: the same operations in the same order, so the same numbers
- * to the bit, without reading six of the eight slots; and across a shunt the voltage is
- * copied (see node-steps.ts's `voltageSection`). Measured in an in-process alternation on the
- * bench chain (12 shunt, 6 series of 23 sections): the shunt's forward step about 3 % of a
- * whole analysis, its backward step 1 %, the series' two about 1.4 %.
+ * The node analysis's steps across a ladder's shunt section, one admittance across the line
+ * (Section.shunt, ABCD [[1, 0], [Y, 1]]), in loops of their own: node-steps.ts's general
+ * steps with the ones and zeros of its matrix written in, the same operations in the same
+ * order, so the same numbers to the bit, without reading six of the eight slots; and the
+ * voltage across it copied (see node-steps.ts's `voltageSection`). Measured in an in-process
+ * alternation on the bench chain (12 shunt sections of 23): the forward step about 3 % of a
+ * whole analysis, the backward step 1 %, filling the section by its admittance alone
+ * (Section.partFill) 3-4 %. (A series section's steps, written the same way, gained another
+ * 1.4 %, but the flag on the series sections' objects made the node analysis allocate a few
+ * KiB after every full collection, so they were left out.)
  */
 
 const OPEN = Number.POSITIVE_INFINITY;
@@ -156,127 +158,5 @@ export function shuntVoltageSection(
       vOutRe[vOut + k] = vr;
       vOutIm[vOut + k] = vi;
     }
-  }
-}
-
-/**
- * {@link backShuntSection}'s counterpart through a series section (Section.series): Zin at the
- * input is Zin at the output plus Z, by backSection's expressions with A = D = 1, C = 0.
- */
-export function backSeriesSection(
-  m: Float64Array,
-  mj: number,
-  re: Float64Array,
-  im: Float64Array,
-  at: number,
-  P: number,
-  n: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    const from = at + P + k;
-    const zr = re[from];
-    const zi = im[from];
-    const b0 = m[o + 2];
-    const b1 = m[o + 3];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (zr - zr === 0 && zi - zi === 0) {
-      nr = 1 * zr - 0 * zi + b0;
-      ni = 1 * zi + 0 * zr + b1;
-      dr = 0 * zr - 0 * zi + 1;
-      di = 0 * zi + 0 * zr + 0;
-    } else {
-      nr = 1;
-      ni = 0;
-      dr = 0;
-      di = 0;
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      re[at + k] = OPEN;
-      im[at + k] = 0;
-    } else {
-      const inv = 1 / d2;
-      re[at + k] = (nr * dr + ni * di) * inv;
-      im[at + k] = (ni * dr - nr * di) * inv;
-    }
-  }
-}
-
-/**
- * Zsrc and V at the output of a series section (Section.series) for a block of points, with
- * the places of node-block.ts's fused forward step (`na`'s rows from `at`, the voltages from
- * `vIn` to `vOut`): its expressions with A = D = 1, C = 0 written in, B (= Z) read.
- */
-export function forwardSeriesSection(
-  m: Float64Array,
-  mj: number,
-  zsrcRe: Float64Array,
-  zsrcIm: Float64Array,
-  zinRe: Float64Array,
-  zinIm: Float64Array,
-  at: number,
-  P: number,
-  n: number,
-  vInRe: Float64Array,
-  vInIm: Float64Array,
-  vIn: number,
-  vOutRe: Float64Array,
-  vOutIm: Float64Array,
-  vOut: number,
-): void {
-  for (let k = 0; k < n; k++) {
-    const o = mj + 8 * k;
-    const from = at + k;
-    const to = from + P;
-    // Every value read before the first store (see node-block.ts's forwardSection).
-    const b0 = m[o + 2];
-    const b1 = m[o + 3];
-    const sr = zsrcRe[from];
-    const si = zsrcIm[from];
-    const ar = zinRe[to];
-    const ai = zinIm[to];
-    const vr = vInRe[vIn + k];
-    const vi = vInIm[vIn + k];
-    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
-    if (sr - sr === 0 && si - si === 0) {
-      nr = 1 * sr - 0 * si + b0;
-      ni = 1 * si + 0 * sr + b1;
-      dr = 0 * sr - 0 * si + 1;
-      di = 0 * si + 0 * sr + 0;
-    } else {
-      nr = 1;
-      ni = 0;
-      dr = 0;
-      di = 0;
-    }
-    const d2 = dr * dr + di * di;
-    if (d2 === 0) {
-      zsrcRe[to] = OPEN;
-      zsrcIm[to] = 0;
-    } else {
-      const inv = 1 / d2;
-      zsrcRe[to] = (nr * dr + ni * di) * inv;
-      zsrcIm[to] = (ni * dr - nr * di) * inv;
-    }
-    // V/(A + B·Y), Y = 1/Zin(out), with A = 1.
-    let er = 1;
-    let ei = 0;
-    if (ar - ar === 0 && ai - ai === 0) {
-      const a2 = ar * ar + ai * ai;
-      if (a2 === 0 || (vr === 0 && vi === 0)) {
-        vOutRe[vOut + k] = 0;
-        vOutIm[vOut + k] = 0;
-        continue;
-      }
-      const ia = 1 / a2;
-      const yr = ar * ia;
-      const yi = -ai * ia;
-      er += b0 * yr - b1 * yi;
-      ei += b0 * yi + b1 * yr;
-    }
-    const ie = 1 / (er * er + ei * ei);
-    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
-    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
   }
 }

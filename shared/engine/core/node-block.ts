@@ -4,12 +4,7 @@
  * source. A workspace that keeps some rows only runs node-block-kept.ts's loop instead.
  */
 import type { BuiltChain } from './build';
-import {
-  backSeriesSection,
-  backShuntSection,
-  forwardSeriesSection,
-  forwardShuntSection,
-} from './ladder-steps';
+import { backShuntSection, forwardShuntSection } from './ladder-steps';
 import { backSection, fillComplex, fillReal, MIN_NODE_HZ } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
@@ -32,9 +27,9 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
   for (let j = 0; j < N; j++) {
     const s = sections[j];
     const at = j * P + i0;
-    // A ladder's section writes its one part's value alone, all its steps below read of it.
-    const part = s.shunt || s.series ? s.partFill : undefined;
-    if (part) part(fNode, at, n, m, 8 * j * B + (s.shunt ? 4 : 2), 8);
+    // A shunt section writes its admittance alone, all its steps below read of it.
+    const part = s.shunt ? s.partFill : undefined;
+    if (part) part(fNode, at, n, m, 8 * j * B + 4, 8);
     else s.fill(fNode, at, n, m, 8 * j * B);
     const tr = s.translate;
     // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
@@ -50,10 +45,8 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
   for (let j = N - 1; j >= 0; j--) {
-    // A ladder's sections, mostly ones and zeros, have loops of their own (ladder-steps.ts).
-    const s = sections[j];
-    if (s.shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
-    else if (s.series) backSeriesSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+    // A shunt section, mostly ones and zeros, has loops of its own (ladder-steps.ts).
+    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
     else backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
   }
 
@@ -84,11 +77,8 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     const mj = 8 * j * B;
     const at = j * P + i0;
     // A shunt section passes the voltage through (node-steps.ts's `voltageSection`).
-    const s = sections[j];
-    if (s.shunt)
+    if (sections[j].shunt)
       forwardShuntSection(m, mj, zsrcRe, zsrcIm, at, zsrcRe, zsrcIm, at + P, zinRe, zinIm, at + P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
-    else if (s.series)
-      forwardSeriesSection(m, mj, zsrcRe, zsrcIm, zinRe, zinIm, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     else forwardSection(m, mj, na, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
     fromRe = toRe;
     fromIm = toIm;

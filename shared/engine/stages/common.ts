@@ -76,8 +76,6 @@ export function seriesSection(z: ComplexFn): Section {
   const s = new Float64Array(2);
   const zFill = z.fill;
   return {
-    series: true,
-    ...(zFill ? { partFill: zFill } : {}),
     abcd(f, out, o) {
       z(f, s, 0);
       seriesImpedanceAbcd(s[0], s[1], out, o);
