@@ -14,23 +14,26 @@
 const OPEN = Number.POSITIVE_INFINITY;
 
 /**
- * node-steps.ts's `backSection` through a shunt section (Section.shunt): the same expressions with its
- * A = D = 1, B = 0 written in, so the same numbers, reading only C from the matrix.
+ * node-steps.ts's `backSection` through a shunt section (Section.shunt), between any places:
+ * Zin at its input into outRe/outIm from `outAt` from Zin at its output (inRe/inIm from
+ * `inAt`). The same expressions with its A = D = 1, B = 0 written in, so the same numbers,
+ * reading only C from the matrix.
  */
 export function backShuntSection(
   m: Float64Array,
   mj: number,
-  re: Float64Array,
-  im: Float64Array,
-  at: number,
-  P: number,
+  inRe: Float64Array,
+  inIm: Float64Array,
+  inAt: number,
+  outRe: Float64Array,
+  outIm: Float64Array,
+  outAt: number,
   n: number,
 ): void {
   for (let k = 0; k < n; k++) {
     const o = mj + 8 * k;
-    const from = at + P + k;
-    const zr = re[from];
-    const zi = im[from];
+    const zr = inRe[inAt + k];
+    const zi = inIm[inAt + k];
     const c0 = m[o + 4];
     const c1 = m[o + 5];
     let nr: number, ni: number, dr: number, di: number; // prettier-ignore
@@ -48,12 +51,12 @@ export function backShuntSection(
     }
     const d2 = dr * dr + di * di;
     if (d2 === 0) {
-      re[at + k] = OPEN;
-      im[at + k] = 0;
+      outRe[outAt + k] = OPEN;
+      outIm[outAt + k] = 0;
     } else {
       const inv = 1 / d2;
-      re[at + k] = (nr * dr + ni * di) * inv;
-      im[at + k] = (ni * dr - nr * di) * inv;
+      outRe[outAt + k] = (nr * dr + ni * di) * inv;
+      outIm[outAt + k] = (ni * dr - nr * di) * inv;
     }
   }
 }

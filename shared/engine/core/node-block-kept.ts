@@ -5,7 +5,7 @@
  * 5 % more per point, which a sweep that keeps every row should not pay.
  */
 import type { BuiltChain } from './build';
-import { forwardShuntSection } from './ladder-steps';
+import { backShuntSection, forwardShuntSection } from './ladder-steps';
 import { fillComplex, fillReal, MIN_NODE_HZ, voltageSection } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
@@ -43,7 +43,11 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
   for (let k = 0; k < n; k++) fFrom[fAt + k] = freqs[i0 + k];
   for (let j = 0; j < N; j++) {
     const s = sections[j];
-    s.fill(fFrom, fAt, n, m, 8 * j * B);
+    // A shunt section writes its admittance alone, all its steps below read of it (as in
+    // node-block.ts).
+    const part = s.shunt ? s.partFill : undefined;
+    if (part) part(fFrom, fAt, n, m, 8 * j * B + 4, 8);
+    else s.fill(fFrom, fAt, n, m, 8 * j * B);
     row = zRow ? zRow[j + 1] : j + 1;
     const to = row < 0 ? bF : fNode;
     const toAt = row < 0 ? 0 : row * P + i0;
@@ -73,7 +77,8 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const toRe = row < 0 ? bZr : zinRe;
     const toIm = row < 0 ? bZi : zinIm;
     const toAt = row < 0 ? j * B : row * P + i0;
-    backSectionTo(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
+    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
+    else backSectionTo(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
     zInRe = toRe;
     zInIm = toIm;
     zAt = toAt;

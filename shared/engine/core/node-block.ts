@@ -46,8 +46,10 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
   }
   for (let j = N - 1; j >= 0; j--) {
     // A shunt section, mostly ones and zeros, has loops of its own (ladder-steps.ts).
-    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
-    else backSection(m, 8 * j * B, zinRe, zinIm, j * P + i0, P, n);
+    const at = j * P + i0;
+    if (sections[j].shunt)
+      backShuntSection(m, 8 * j * B, zinRe, zinIm, at + P, zinRe, zinIm, at, n);
+    else backSection(m, 8 * j * B, zinRe, zinIm, at, P, n);
   }
 
   // Forward pass, source → load, and the voltage at the source terminal.
