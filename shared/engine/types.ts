@@ -129,15 +129,20 @@ export interface Section {
   /** Unilateral (y12 = 0): the backward pass restarts at its input. */
   unilateral?: boolean;
   /**
-   * One admittance across the line: the ABCD is [[1, 0], [Y, 1]] at every frequency, so the
-   * voltage at its output is the voltage at its input (the node analysis copies it instead of
-   * dividing). Set by the factory that guarantees it (`shuntSection`), never inferred.
+   * One part of a ladder: 'shunt', one admittance across the line (ABCD [[1, 0], [Y, 1]] at
+   * every frequency, so the voltage at its output is the voltage at its input and the node
+   * analysis copies it instead of dividing), or 'series', one impedance in the line
+   * ([[1, Z], [0, 1]]). Set by the factories that guarantee the matrix (`shuntSection`,
+   * `seriesSection`), never inferred. One property for both, so their objects share one shape:
+   * a flag of each kind gave the megamorphic property loads of the node analysis one shape more,
+   * and it then allocated a few KiB after every full collection, re-making their caches.
    */
-  shunt?: boolean;
+  ladder?: 'shunt' | 'series';
   /**
-   * With `shunt`: the block form of its admittance Y, which the node analysis's block loop
-   * calls to write Y alone into the matrix's C slots: the shunt's steps (core/ladder-steps.ts)
-   * read nothing else there, so the six constant slots `fill` writes per point are not written.
+   * With `ladder`: the block form of its one part (Y, or Z), which the node analysis's block
+   * loops call to write that value alone into the matrix's C (shunt) or B (series) slots: the
+   * ladder's steps (core/ladder-steps.ts) read nothing else there, so the six constant slots
+   * `fill` writes per point are not written.
    */
   partFill?: NonNullable<ComplexFn['fill']>;
   /** Frequency at the section's output for frequency f at its input (mixers). */

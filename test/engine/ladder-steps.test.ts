@@ -1,11 +1,12 @@
 /**
  * The ladder's own steps (ladder-steps.ts): a section that is one shunt admittance
- * (Section.shunt) passes the voltage through, the node analysis copying V across it instead of
- * taking V/(A + B·Y) with A = 1, B = 0, and takes the general steps' expressions with its ones
- * and zeros written in, filled by its admittance alone. None may change a number the general
- * steps give: every node's voltage and impedances, in the analysis that keeps every row, in
- * one that keeps some rows only, and in the probe's single-point voltage, equal those of the
- * same chain with no section said to be a shunt (every step the general one). Circuit
+ * (Section.ladder 'shunt') passes the voltage through, the node analysis copying V across it
+ * instead of taking V/(A + B·Y) with A = 1, B = 0; shunt and series sections take the general
+ * steps' expressions with their ones and zeros written in, filled by their one part alone.
+ * None may change a number the general steps give: every node's voltage and impedances, in
+ * the analysis that keeps every row, in one that keeps some rows only, and in the probe's
+ * single-point voltage, equal those of the same chain with no section said to be a ladder's
+ * (every step the general one). Circuit
  * law (common practice): an admittance across the line joins its two ends into one node, so
  * they carry one voltage.
  */
@@ -20,7 +21,7 @@ import {
 } from '../../shared/engine/core/nodes';
 import { createProbe } from '../../shared/engine/core/probe';
 import { frequencyGrid } from '../../shared/engine/core/sweep';
-import { shuntSection } from '../../shared/engine/stages/common';
+import { seriesSection, shuntSection } from '../../shared/engine/stages/common';
 import { parseChainDocument } from '../../shared/schema/parse-chain';
 import { benchChain } from '../../scripts/bench/bench-chain';
 
@@ -29,11 +30,11 @@ const EXAMPLES = readdirSync(join(ROOT, 'examples'))
   .filter((f) => f.endsWith('.chain.json'))
   .map((f) => [f, JSON.parse(readFileSync(join(ROOT, 'examples', f), 'utf8'))] as const);
 
-/** The same chain with every section's step the general one (none said to be a shunt). */
+/** The same chain with every section's step the general one (none said to be a ladder's). */
 function general(built: BuiltChain): BuiltChain {
   return {
     ...built,
-    sections: built.sections.map((s) => ({ ...s, shunt: undefined })),
+    sections: built.sections.map((s) => ({ ...s, ladder: undefined })),
   };
 }
 
@@ -47,17 +48,36 @@ function expectSameArray(a: Float64Array, b: Float64Array, what: string): void {
 }
 
 describe('a shunt section passes the voltage through', () => {
-  it('is said of the sections shuntSection makes, and of no other', () => {
+  it('is said of the sections shuntSection and seriesSection make, and of no other', () => {
     const built = buildChain(parseChainDocument(benchChain(201)), STAGE_DEFINITIONS);
-    const shunts = built.sections.filter((s) => s.shunt).length;
+    const shunts = built.sections.filter((s) => s.ladder === 'shunt').length;
     // The bench chain's tanks, traps and shunt parts (12 of its 23 sections).
     expect(shunts).toBeGreaterThanOrEqual(10);
     expect(shunts).toBeLessThan(built.sections.length);
-    const y = Object.assign((_f: number, out: Float64Array, o: number) => {
-      out[o] = 1e-3;
-      out[o + 1] = 0;
-    });
-    expect(shuntSection(y).shunt).toBe(true);
+    const y = Object.assign(
+      (_f: number, out: Float64Array, o: number) => {
+        out[o] = 1e-3;
+        out[o + 1] = 0;
+      },
+      {
+        fill(
+          _f: Float64Array,
+          _fo: number,
+          n: number,
+          out: Float64Array,
+          oo: number,
+          stride: number,
+        ) {
+          for (let k = 0; k < n; k++) out.set([1e-3, 0], oo + stride * k);
+        },
+      },
+    );
+    expect(shuntSection(y).ladder).toBe('shunt');
+    expect(seriesSection(y).ladder).toBe('series');
+    // One shape for both (types.ts says why).
+    expect(Object.keys(seriesSection(y))).toEqual(Object.keys(shuntSection(y)));
+    expect(Object.keys(shuntSection(y))).toEqual(['ladder', 'partFill', 'abcd', 'fill']);
+    expect(built.sections.filter((s) => s.ladder === 'series').length).toBeGreaterThanOrEqual(4);
   });
 
   it.each(EXAMPLES)('gives every number of the general step for %s', (_file, raw) => {

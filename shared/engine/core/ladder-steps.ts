@@ -1,20 +1,19 @@
 /**
- * The node analysis's steps across a ladder's shunt section, one admittance across the line
- * (Section.shunt, ABCD [[1, 0], [Y, 1]]), in loops of their own: node-steps.ts's general
- * steps with the ones and zeros of its matrix written in, the same operations in the same
- * order, so the same numbers to the bit, without reading six of the eight slots; and the
- * voltage across it copied (see node-steps.ts's `voltageSection`). Measured in an in-process
- * alternation on the bench chain (12 shunt sections of 23): the forward step about 3 % of a
- * whole analysis, the backward step 1 %, filling the section by its admittance alone
- * (Section.partFill) 3-4 %. (A series section's steps, written the same way, gained another
- * 1.4 %, but the flag on the series sections' objects made the node analysis allocate a few
- * KiB after every full collection, so they were left out.)
+ * The node analysis's steps across the two sections a ladder is made of, each in loops of its
+ * own: one admittance across the line (Section.ladder 'shunt', ABCD [[1, 0], [Y, 1]]) and one
+ * impedance in it ('series', [[1, Z], [0, 1]]). Each is node-steps.ts's general step with the
+ * ones and zeros of its matrix written in: the same operations in the same order, so the same
+ * numbers to the bit, without reading six of the eight slots; and across a shunt the voltage
+ * is copied (see node-steps.ts's `voltageSection`). Measured in an in-process alternation on
+ * the bench chain (12 shunt and 6 series sections of 23): the shunt's forward step about 3 % of
+ * a whole analysis, its backward step 1 %, the series' two 1.4 %, and filling both by their one
+ * part alone (Section.partFill) 3-4 %.
  */
 
 const OPEN = Number.POSITIVE_INFINITY;
 
 /**
- * node-steps.ts's `backSection` through a shunt section (Section.shunt), between any places:
+ * node-steps.ts's `backSection` through a shunt section (Section.ladder 'shunt'), between any places:
  * Zin at its input into outRe/outIm from `outAt` from Zin at its output (inRe/inIm from
  * `inAt`). The same expressions with its A = D = 1, B = 0 written in, so the same numbers,
  * reading only C from the matrix.
@@ -62,7 +61,7 @@ export function backShuntSection(
 }
 
 /**
- * Zsrc and V at the output of a shunt section (Section.shunt) for a block of points, the
+ * Zsrc and V at the output of a shunt section (Section.ladder 'shunt') for a block of points, the
  * fused forward step of the node analyses (node-block.ts, node-block-kept.ts) with the places
  * of their own: Zsrc at its input read from sInRe/sInIm at `sIn` and at its output written to
  * sOutRe/sOutIm at `sOut`, Zin at its output read from zRe/zIm at `zAt`, the voltages read from
@@ -161,5 +160,129 @@ export function shuntVoltageSection(
       vOutRe[vOut + k] = vr;
       vOutIm[vOut + k] = vi;
     }
+  }
+}
+
+/**
+ * {@link backShuntSection}'s counterpart through a series section (Section.ladder 'series'),
+ * between any places: Zin at the input is Zin at the output plus Z, by backSection's
+ * expressions with A = D = 1, C = 0 written in, reading B (= Z) alone.
+ */
+export function backSeriesSection(
+  m: Float64Array,
+  mj: number,
+  inRe: Float64Array,
+  inIm: Float64Array,
+  inAt: number,
+  outRe: Float64Array,
+  outIm: Float64Array,
+  outAt: number,
+  n: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const zr = inRe[inAt + k];
+    const zi = inIm[inAt + k];
+    const b0 = m[o + 2];
+    const b1 = m[o + 3];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (zr - zr === 0 && zi - zi === 0) {
+      nr = 1 * zr - 0 * zi + b0;
+      ni = 1 * zi + 0 * zr + b1;
+      dr = 0 * zr - 0 * zi + 1;
+      di = 0 * zi + 0 * zr + 0;
+    } else {
+      nr = 1;
+      ni = 0;
+      dr = 0;
+      di = 0;
+    }
+    const d2 = dr * dr + di * di;
+    if (d2 === 0) {
+      outRe[outAt + k] = OPEN;
+      outIm[outAt + k] = 0;
+    } else {
+      const inv = 1 / d2;
+      outRe[outAt + k] = (nr * dr + ni * di) * inv;
+      outIm[outAt + k] = (ni * dr - nr * di) * inv;
+    }
+  }
+}
+
+/**
+ * Zsrc and V at the output of a series section (Section.ladder 'series') for a block of points, with
+ * the places of node-block.ts's fused forward step (`na`'s rows from `at`, the voltages from
+ * `vIn` to `vOut`): its expressions with A = D = 1, C = 0 written in, B (= Z) read.
+ */
+export function forwardSeriesSection(
+  m: Float64Array,
+  mj: number,
+  zsrcRe: Float64Array,
+  zsrcIm: Float64Array,
+  zinRe: Float64Array,
+  zinIm: Float64Array,
+  at: number,
+  P: number,
+  n: number,
+  vInRe: Float64Array,
+  vInIm: Float64Array,
+  vIn: number,
+  vOutRe: Float64Array,
+  vOutIm: Float64Array,
+  vOut: number,
+): void {
+  for (let k = 0; k < n; k++) {
+    const o = mj + 8 * k;
+    const from = at + k;
+    const to = from + P;
+    // Every value read before the first store (see node-block.ts's forwardSection).
+    const b0 = m[o + 2];
+    const b1 = m[o + 3];
+    const sr = zsrcRe[from];
+    const si = zsrcIm[from];
+    const ar = zinRe[to];
+    const ai = zinIm[to];
+    const vr = vInRe[vIn + k];
+    const vi = vInIm[vIn + k];
+    let nr: number, ni: number, dr: number, di: number; // prettier-ignore
+    if (sr - sr === 0 && si - si === 0) {
+      nr = 1 * sr - 0 * si + b0;
+      ni = 1 * si + 0 * sr + b1;
+      dr = 0 * sr - 0 * si + 1;
+      di = 0 * si + 0 * sr + 0;
+    } else {
+      nr = 1;
+      ni = 0;
+      dr = 0;
+      di = 0;
+    }
+    const d2 = dr * dr + di * di;
+    if (d2 === 0) {
+      zsrcRe[to] = OPEN;
+      zsrcIm[to] = 0;
+    } else {
+      const inv = 1 / d2;
+      zsrcRe[to] = (nr * dr + ni * di) * inv;
+      zsrcIm[to] = (ni * dr - nr * di) * inv;
+    }
+    // V/(A + B·Y), Y = 1/Zin(out), with A = 1.
+    let er = 1;
+    let ei = 0;
+    if (ar - ar === 0 && ai - ai === 0) {
+      const a2 = ar * ar + ai * ai;
+      if (a2 === 0 || (vr === 0 && vi === 0)) {
+        vOutRe[vOut + k] = 0;
+        vOutIm[vOut + k] = 0;
+        continue;
+      }
+      const ia = 1 / a2;
+      const yr = ar * ia;
+      const yi = -ai * ia;
+      er += b0 * yr - b1 * yi;
+      ei += b0 * yi + b1 * yr;
+    }
+    const ie = 1 / (er * er + ei * ei);
+    vOutRe[vOut + k] = (vr * er + vi * ei) * ie;
+    vOutIm[vOut + k] = (vi * er - vr * ei) * ie;
   }
 }

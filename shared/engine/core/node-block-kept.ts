@@ -45,7 +45,7 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const s = sections[j];
     // A shunt section writes its admittance alone, all its steps below read of it (as in
     // node-block.ts).
-    const part = s.shunt ? s.partFill : undefined;
+    const part = s.ladder === 'shunt' ? s.partFill : undefined;
     if (part) part(fFrom, fAt, n, m, 8 * j * B + 4, 8);
     else s.fill(fFrom, fAt, n, m, 8 * j * B);
     row = zRow ? zRow[j + 1] : j + 1;
@@ -77,7 +77,8 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const toRe = row < 0 ? bZr : zinRe;
     const toIm = row < 0 ? bZi : zinIm;
     const toAt = row < 0 ? j * B : row * P + i0;
-    if (sections[j].shunt) backShuntSection(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
+    if (sections[j].ladder === 'shunt')
+      backShuntSection(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
     else backSectionTo(m, 8 * j * B, zInRe, zInIm, zAt, toRe, toIm, toAt, n);
     zInRe = toRe;
     zInIm = toIm;
@@ -120,7 +121,7 @@ export function runBlockKept(built: BuiltChain, na: NodeAnalysis, i0: number, n:
     const zOutIm = row < 0 ? bZi : zinIm;
     const zOutAt = row < 0 ? (j + 1) * B : row * P + i0;
     const mj = 8 * j * B;
-    const shunt = sections[j].shunt === true;
+    const shunt = sections[j].ladder === 'shunt';
     if (j >= zsrcTo) {
       voltageSection(m, mj, zOutRe, zOutIm, zOutAt, n, fromRe, fromIm, fromAt, toRe, toIm, toAt, shunt); // prettier-ignore
       fromRe = toRe;

@@ -4,7 +4,12 @@
  * source. A workspace that keeps some rows only runs node-block-kept.ts's loop instead.
  */
 import type { BuiltChain } from './build';
-import { backShuntSection, forwardShuntSection } from './ladder-steps';
+import {
+  backSeriesSection,
+  backShuntSection,
+  forwardSeriesSection,
+  forwardShuntSection,
+} from './ladder-steps';
 import { backSection, fillComplex, fillReal, MIN_NODE_HZ } from './node-steps';
 import type { NodeAnalysis } from './nodes';
 
@@ -27,9 +32,9 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
   for (let j = 0; j < N; j++) {
     const s = sections[j];
     const at = j * P + i0;
-    // A shunt section writes its admittance alone, all its steps below read of it.
-    const part = s.shunt ? s.partFill : undefined;
-    if (part) part(fNode, at, n, m, 8 * j * B + 4, 8);
+    // A ladder's section writes its one part's value alone, all its steps below read of it.
+    const part = s.ladder ? s.partFill : undefined;
+    if (part) part(fNode, at, n, m, 8 * j * B + (s.ladder === 'shunt' ? 4 : 2), 8);
     else s.fill(fNode, at, n, m, 8 * j * B);
     const tr = s.translate;
     // An RF point exactly on the LO translates to 0 Hz, where a series capacitor is an
@@ -45,10 +50,13 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     zinIm[N * P + i0 + k] = t[2 * k + 1];
   }
   for (let j = N - 1; j >= 0; j--) {
-    // A shunt section, mostly ones and zeros, has loops of its own (ladder-steps.ts).
+    // A ladder's sections, mostly ones and zeros, have loops of their own (ladder-steps.ts).
     const at = j * P + i0;
-    if (sections[j].shunt)
-      backShuntSection(m, 8 * j * B, zinRe, zinIm, at + P, zinRe, zinIm, at, n);
+    const ladder = sections[j].ladder;
+    if (ladder === 'shunt')
+      backShuntSection(m, 8 * j * B, zinRe, zinIm, at + P, zinRe, zinIm, at, n); // prettier-ignore
+    else if (ladder === 'series')
+      backSeriesSection(m, 8 * j * B, zinRe, zinIm, at + P, zinRe, zinIm, at, n); // prettier-ignore
     else backSection(m, 8 * j * B, zinRe, zinIm, at, P, n);
   }
 
@@ -79,8 +87,11 @@ export function runBlock(built: BuiltChain, na: NodeAnalysis, i0: number, n: num
     const mj = 8 * j * B;
     const at = j * P + i0;
     // A shunt section passes the voltage through (node-steps.ts's `voltageSection`).
-    if (sections[j].shunt)
+    const ladder = sections[j].ladder;
+    if (ladder === 'shunt')
       forwardShuntSection(m, mj, zsrcRe, zsrcIm, at, zsrcRe, zsrcIm, at + P, zinRe, zinIm, at + P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
+    else if (ladder === 'series')
+      forwardSeriesSection(m, mj, zsrcRe, zsrcIm, zinRe, zinIm, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt); // prettier-ignore
     else forwardSection(m, mj, na, at, P, n, fromRe, fromIm, fromAt, toRe, toIm, toAt);
     fromRe = toRe;
     fromIm = toIm;

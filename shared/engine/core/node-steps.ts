@@ -153,7 +153,7 @@ export function forwardStep(
 /**
  * V at the section's output (`to`) from V at its input (`from`): V/(A + B·Y) with
  * Y = 1/Zin(out) (0 when open; a shorted output or a dead input gives 0 V). For a section
- * that is one shunt admittance (`shunt`, Section.shunt) V itself: see {@link voltageSection}.
+ * that is one shunt admittance (`shunt`, Section.ladder 'shunt') V itself: see {@link voltageSection}.
  */
 export function voltageStep(
   m: Float64Array,
@@ -176,7 +176,7 @@ export function voltageStep(
  * it past the last node whose Zsrc it keeps; elsewhere the voltage half of its fused forward
  * step is these expressions in this order, so every path gives the same voltages.
  *
- * `shunt`: the section is one admittance across the line (Section.shunt: A = D = 1, B = 0 at
+ * `shunt`: the section is one admittance across the line (Section.ladder 'shunt': A = D = 1, B = 0 at
  * every point), so V/(A + B·Y) is V itself, and the step copies it, with the same two zeros
  * (a shorted output, a dead input), instead of taking two reciprocals per point. Across the
  * bench chain's twelve shunt sections that is about 3 % of a whole analysis. (The general

@@ -9,7 +9,7 @@
  *   (ZL = ∞) is carried as a non-finite value and gives Zin[j] = A/C.
  * - Forward pass: Zsrc[0] = Zs, Zsrc[j+1] = (D·Zsrc[j] + B)/(C·Zsrc[j] + A).
  * - Voltages (PEAK phasors): V[0] = Es·Zin[0]/(Zs + Zin[0]), V[j+1] = V[j]/(A + B/Zin[j+1]);
- *   across a section that is one shunt admittance (Section.shunt) V[j+1] = V[j], copied.
+ *   across a section that is one shunt admittance (Section.ladder 'shunt') V[j+1] = V[j], copied.
  * A unilateral section (y12 = 0) has AD − BC = 0, so the backward pass gives 1/y11 at its
  * input whatever lies beyond it, and the forward pass 1/y22 at its output: the restart falls
  * out of the matrices. Each section is evaluated at the frequency at its input; `translate`

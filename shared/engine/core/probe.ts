@@ -85,8 +85,8 @@ export function createProbe(built: BuiltChain): Probe {
   // First unilateral section at or after each node (N when none).
   const stopAt = new Int32Array(N + 1).fill(N);
   for (let j = N - 1; j >= 0; j--) stopAt[j] = sections[j].unilateral ? j : stopAt[j + 1];
-  // Sections that pass the voltage through (Section.shunt), as the node analysis takes them.
-  const shunt = Uint8Array.from(sections, (s) => (s.shunt ? 1 : 0));
+  // Sections that pass the voltage through (Section.ladder 'shunt'), as the node analysis takes them.
+  const shunt = Uint8Array.from(sections, (s) => (s.ladder === 'shunt' ? 1 : 0));
   const zl = built.load.model.impedance!;
   const zs = built.source.model.impedance!;
   const es = built.source.model.emf!;

@@ -120,7 +120,7 @@ function deliveredThrough(sections: readonly Section[], at: Surroundings): numbe
   zsRe[0] = at.zsRe;
   zsIm[0] = at.zsIm;
   sourceStep(UNIT_EMF, zsRe, zsIm, zinRe, zinIm, vRe, vIm, 0, 0);
-  for (let j = 0; j < n; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1, sections[j].shunt === true); // prettier-ignore
+  for (let j = 0; j < n; j++) voltageStep(m, 8 * j, zinRe, zinIm, vRe, vIm, j, j + 1, sections[j].ladder === 'shunt'); // prettier-ignore
   const zr = at.zlRe;
   const zi = at.zlIm;
   const g = isFinite(zr) && isFinite(zi) ? zr / (zr * zr + zi * zi) : 0;

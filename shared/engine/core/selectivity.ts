@@ -198,8 +198,8 @@ export function analyzeSelectivity(
   return reports;
 }
 
-/** Flat nodes a ≤ b joined by shunt sections alone (Section.shunt): one electrical node. */
+/** Flat nodes a ≤ b joined by shunt sections alone (Section.ladder 'shunt'): one electrical node. */
 function sameNode(built: BuiltChain, a: number, b: number): boolean {
-  for (let j = a; j < b; j++) if (!built.sections[j].shunt) return false;
+  for (let j = a; j < b; j++) if (built.sections[j].ladder !== 'shunt') return false;
   return true;
 }

@@ -76,6 +76,8 @@ export function seriesSection(z: ComplexFn): Section {
   const s = new Float64Array(2);
   const zFill = z.fill;
   return {
+    ladder: 'series',
+    ...(zFill ? { partFill: zFill } : {}),
     abcd(f, out, o) {
       z(f, s, 0);
       seriesImpedanceAbcd(s[0], s[1], out, o);
@@ -103,7 +105,7 @@ export function shuntSection(y: ComplexFn): Section {
   const s = new Float64Array(2);
   const yFill = y.fill;
   return {
-    shunt: true,
+    ladder: 'shunt',
     ...(yFill ? { partFill: yFill } : {}),
     abcd(f, out, o) {
       y(f, s, 0);

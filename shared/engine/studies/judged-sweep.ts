@@ -228,7 +228,7 @@ export function createJudgedSweep(nominal: BuiltChain, freqs: ArrayLike<number>)
       if (from >= flat) break;
       const m = joined ?? mats[from];
       // A section of its own may be one shunt admittance, a joined run is not said to be.
-      const shunt = joined === null && built.sections[from].shunt === true;
+      const shunt = joined === null && built.sections[from].ladder === 'shunt';
       voltageSection(m, 0, zinRe, zinIm, to * P, P, vRe, vIm, from * P, vRe, vIm, to * P, shunt); // prettier-ignore
     }
     return {
