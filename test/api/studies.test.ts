@@ -4,7 +4,7 @@
  * a worker killed mid-run (SIGKILL) leaves its study to be resumed from its checkpoint.
  */
 import { chainDocumentSchema } from '../../shared/schema/chain';
-import { monteCarloSpecSchema, type StudyDto } from '../../shared/schema/studies';
+import { MAX_TRIALS, monteCarloSpecSchema, type StudyDto } from '../../shared/schema/studies';
 import { planMonteCarlo, runTrial } from '../../shared/engine/studies';
 import { createChain } from '../../server/chains/chain-store';
 import { UserSchema } from '../../server/users/user.entity';
@@ -205,8 +205,9 @@ describe('studies run by worker processes', () => {
   });
 
   it('resumes a study from its checkpoint after its worker is killed (SIGKILL)', async () => {
-    // Enough trials that the run outlasts the wait for a checkpoint on a quiet machine too.
-    const created = await send(editor, 'post', url(), mc(4000, 11, LONG_POINTS));
+    // Enough trials that the run outlasts the wait for a checkpoint on a quiet machine too
+    // (the most a study takes: 4,000 once ran out in 3.3 s, done before the kill).
+    const created = await send(editor, 'post', url(), mc(MAX_TRIALS, 11, LONG_POINTS));
     const sid = created.body.id;
     // Wait for a checkpoint (written every 2 s) to be in the database.
     await waitFor(sid, (s) => s.status === 'running' && (s.progress?.done ?? 0) > 40);
@@ -223,11 +224,11 @@ describe('studies run by worker processes', () => {
     expect(Number(resumed.progress!.interim?.resumedFrom)).toBeLessThanOrEqual(atKill);
     const done = await waitFor(sid, (s) => s.status === 'done');
     const result = done.result as { trials: number; rows: { metrics: (number | null)[] }[] };
-    expect(result.trials).toBe(4000);
+    expect(result.trials).toBe(MAX_TRIALS);
     // Trials after the resume are the same as an unbroken run would give.
-    const plan = planMonteCarlo({ doc: DOC }, monteCarloSpecSchema.parse(mc(4000, 11, LONG_POINTS))); // prettier-ignore
-    expect(result.rows[3999].metrics[0]).toBeCloseTo(
-      runTrial({ doc: DOC }, plan, 3999).metrics[0]!,
+    const plan = planMonteCarlo({ doc: DOC }, monteCarloSpecSchema.parse(mc(MAX_TRIALS, 11, LONG_POINTS))); // prettier-ignore
+    expect(result.rows[MAX_TRIALS - 1].metrics[0]).toBeCloseTo(
+      runTrial({ doc: DOC }, plan, MAX_TRIALS - 1).metrics[0]!,
       0,
     );
   });
