@@ -8,6 +8,11 @@
  * the bench chain (12 shunt and 6 series sections of 23): the shunt's forward step about 3 % of
  * a whole analysis, its backward step 1 %, the series' two 1.4 %, and filling both by their one
  * part alone (Section.partFill) 3-4 %.
+ *
+ * They are written out, beside the general loops they repeat, on purpose: a loop made from the
+ * general one with the constants passed in would read them (V8 compiles one code for a
+ * function, whatever its arguments), and a shared per-point helper for the common tail costs
+ * a call per point in a cold run (the CLI's one analysis), as node-steps.ts says of its own.
  */
 
 const OPEN = Number.POSITIVE_INFINITY;

@@ -198,7 +198,12 @@ export function analyzeSelectivity(
   return reports;
 }
 
-/** Flat nodes a ≤ b joined by shunt sections alone (Section.ladder 'shunt'): one electrical node. */
+/**
+ * Flat nodes a ≤ b joined by shunt sections alone (Section.ladder 'shunt'): one electrical
+ * node. Not topology.ts's `group`, which reads the matrices at f0 and so may join nodes whose
+ * voltages the node analysis steps generally: the report is reused only where its voltages are
+ * copied, which the declared kind alone guarantees.
+ */
 function sameNode(built: BuiltChain, a: number, b: number): boolean {
   for (let j = a; j < b; j++) if (built.sections[j].ladder !== 'shunt') return false;
   return true;
