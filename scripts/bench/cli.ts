@@ -15,7 +15,9 @@
  * sweep alone, the work both sides do; the 3× on two pairs, never across them: solver against
  * solver (the AC analysis time ngspice reports against the solve time the CLI reports with
  * --timing: every node's voltage and impedance at every point, both measured inside the
- * process, both wall-clock) and whole process against whole process (start-up, solve and
+ * process, both wall-clock; the CLI solves and writes its table a chunk of 4,096 points at a
+ * time, and its solve is the chunks' solves added up, the writing between them left out, as
+ * ngspice's AC time leaves out its writing) and whole process against whole process (start-up, solve and
  * every point written, on both sides). The CLI's analysis with its sweep, which adds its
  * findings and keeps more of the solve for them, is printed beside each, not judged.
  */

@@ -24,24 +24,42 @@ const NEWLINE = 10;
 /** Column width of every number column: wide enough for "-1.23456e+308" and the headers. */
 const WIDTH = 14;
 
+/** The table's header cells: frequency, each node's step-up, the two parts of Zin. */
+function tableHeader(sweep: SweepReport): string[] {
+  return ['f (Hz)', ...sweep.nodes.map((n) => `n${n.index} (dB)`), 'Zin re (Ω)', 'Zin im (Ω)'];
+}
+
+/** Each column's width: the widest of its header and {@link WIDTH}. */
+const tableWidths = (header: string[]) => header.map((h) => Math.max(WIDTH, h.length));
+
 /**
  * The sweep as a table: frequency, step-up at every node (dB, three decimals), and Zin (six
  * significant figures), written into the sink's buffer a row at a time.
  */
 export function writeSweepTable(sweep: SweepReport, out: ByteSink): void {
-  const header = [
-    'f (Hz)',
-    ...sweep.nodes.map((n) => `n${n.index} (dB)`),
-    'Zin re (Ω)',
-    'Zin im (Ω)',
-  ];
-  const w = header.map((h) => Math.max(WIDTH, h.length));
+  writeSweepTableHeader(sweep, out);
+  writeSweepTableRows(sweep, out);
+}
+
+/** The table's header line (of any chunk of the sweep: each has every node). */
+export function writeSweepTableHeader(sweep: SweepReport, out: ByteSink): void {
+  const header = tableHeader(sweep);
+  const w = tableWidths(header);
   out.text(
     header
       .map((h, k) => (k === 0 ? h.padEnd(w[0]) : h.padStart(w[k])))
       .join('  ')
       .trimEnd() + '\n',
   );
+}
+
+/**
+ * The table's rows for every point of `sweep`: the whole sweep, or one chunk of it after the
+ * rows of the chunks before (the columns are fixed-width, so a chunk needs nothing of the
+ * others).
+ */
+export function writeSweepTableRows(sweep: SweepReport, out: ByteSink): void {
+  const w = tableWidths(tableHeader(sweep));
   const { freqs: f, zinRe: re, zinIm: im, stepUpDb } = sweepColumns(sweep);
   const P = f.length;
   const columns = sweep.nodes.length;

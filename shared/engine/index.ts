@@ -10,7 +10,13 @@ export {
   type AnalyzeOptions,
   type SolveClock,
 } from './analyze';
-export { sweepChain, type SweepOnlyOptions } from './sweep-only';
+export {
+  SWEEP_CHUNK,
+  sweepChain,
+  sweepChainInChunks,
+  type SweepChunkOptions,
+  type SweepOnlyOptions,
+} from './sweep-only';
 export {
   buildChain,
   stageName,

@@ -16,7 +16,12 @@ import type { SolveClock } from './analyze';
 import { buildChain, type BuildOptions } from './core/build';
 import { withMessageFigures } from './core/format';
 import { settleLoadLevel } from './core/load-level';
-import { runNodeAnalysis, sharedWorkspace } from './core/nodes';
+import {
+  createNodeAnalysis,
+  runNodeAnalysis,
+  sharedWorkspace,
+  type NodeAnalysis,
+} from './core/nodes';
 import { sweepReport } from './core/reports';
 import { frequencyGrid } from './core/sweep';
 import { defaultCatalogue } from './default-catalogue';
@@ -35,6 +40,13 @@ export interface SweepOnlyOptions extends BuildOptions {
    */
   inPlace?: boolean;
 }
+
+/**
+ * Points solved at a time by {@link sweepChainInChunks}: the rows of one chunk (about 0.9 MB
+ * on the bench chain) are written over by the next, so a long sweep's solve never touches
+ * fresh memory after its first chunk.
+ */
+export const SWEEP_CHUNK = 4096;
 
 /** The workspace's key: its rows differ from a whole analysis's, so it is kept apart. */
 const WORKSPACE = 'sweep-only';
@@ -58,5 +70,55 @@ export function sweepChain(doc: ChainDocument, options: SweepOnlyOptions = {}): 
     const na = runNodeAnalysis(built, grid, ws);
     if (options.clock) options.clock.solveMs = performance.now() - started;
     return sweepReport(built, na, grid, options.inPlace === true);
+  });
+}
+
+export interface SweepChunkOptions extends SweepOnlyOptions {
+  /** Points per chunk (default {@link SWEEP_CHUNK}); at least 1. */
+  chunkPoints?: number;
+}
+
+/**
+ * The chain's sweep a chunk of points at a time, for a caller that writes each out before
+ * the next is solved (the CLI's `--sweep-only` table): `visit` gets each chunk's report
+ * (points `from` … `from + report.freqsHz.length − 1` of the grid) and the grid's length.
+ *
+ * Every point's values are those of {@link sweepChain}, to the bit: the node analysis takes
+ * each point on its own, so where a chunk starts changes no number. What the chunks change is
+ * memory: the solve's rows are one chunk long and reused, so a 100,000-point sweep holds (and
+ * first touches, a page fault per 4 KiB) about 1 MB of them instead of 21 MB. A chunk's report
+ * reads the workspace in place: read it before `visit` returns (once the next chunk is solved,
+ * reading it throws).
+ * `options.clock.solveMs` is the sum of the chunks' solves (not the time in `visit`).
+ * @throws ChainValidationError listing every problem (stage, parameter, what to fix)
+ */
+export function sweepChainInChunks(
+  doc: ChainDocument,
+  options: SweepChunkOptions,
+  visit: (chunk: SweepReport, from: number, points: number) => void,
+): void {
+  const chunk = options.chunkPoints ?? SWEEP_CHUNK;
+  if (!Number.isInteger(chunk) || chunk < 1) {
+    throw new RangeError(`chunkPoints must be a whole number of at least 1 (got ${chunk})`);
+  }
+  withMessageFigures(options.figures, () => {
+    const built = settleLoadLevel(buildChain(doc, options.catalogue ?? defaultCatalogue(), options)); // prettier-ignore
+    const grid = frequencyGrid(built.settings.sweep);
+    const P = grid.length;
+    const rows = { voltageAt: built.userNodeFlat, impedanceAt: INPUT_ONLY };
+    // One workspace for the full chunks and one for a shorter last chunk: a workspace fits
+    // one number of points.
+    let full: NodeAnalysis | undefined;
+    let solveMs = 0;
+    for (let from = 0; from < P; from += chunk) {
+      const n = Math.min(chunk, P - from);
+      const ws = n === chunk ? (full ??= createNodeAnalysis(built, n, rows)) : createNodeAnalysis(built, n, rows); // prettier-ignore
+      const freqs = grid.subarray(from, from + n);
+      const started = options.clock ? performance.now() : 0;
+      const na = runNodeAnalysis(built, freqs, ws);
+      if (options.clock) solveMs += performance.now() - started;
+      visit(sweepReport(built, na, freqs, true), from, P);
+    }
+    if (options.clock) options.clock.solveMs = solveMs;
   });
 }

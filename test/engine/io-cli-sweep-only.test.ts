@@ -4,13 +4,17 @@
  * for byte and value for value, in any mode; its timing lines must nest; and the options it
  * cannot honour must be refused with what to leave out.
  */
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { SWEEP_CHUNK } from '../../shared/engine';
+import { benchChain } from '../../scripts/bench/bench-chain';
 import { bundledCli } from './helpers/bundled-cli';
 
 const ROOT = join(__dirname, '..', '..');
 const FIXTURE = (name: string) => join(ROOT, 'test', 'fixtures', 'chains', name);
 const EXAMPLE = (key: string) => join(ROOT, 'examples', `${key}.chain.json`);
-const cli = bundledCli('cw-cli-sweep-').run;
+const bundled = bundledCli('cw-cli-sweep-');
+const cli = bundled.run;
 
 /** What `--sweep` writes after its budget table and its "Sweep" line. */
 function sweepTableOf(out: string): string {
@@ -32,6 +36,19 @@ describe('analyze CLI --sweep-only', () => {
     expect(withAnalysis.code).toBe(0);
     expect(alone.out).toBe(sweepTableOf(withAnalysis.out));
     expect(alone.out.split('\n')[0]).toMatch(/^f \(Hz\)\s+n0 \(dB\)/);
+  });
+
+  it('should write the table --sweep writes for a sweep it solves and writes in several chunks', () => {
+    // The table is written a chunk of points at a time (sweepChainInChunks): two full chunks
+    // and a short one, against the whole analysis's table written from one report.
+    const points = 2 * SWEEP_CHUNK + 123;
+    const file = join(bundled.dir, 'bench-chain.json');
+    writeFileSync(file, JSON.stringify(benchChain(points)));
+    const alone = cli(file, '--sweep-only');
+    expect(alone.err).toBe('');
+    expect(alone.code).toBe(0);
+    expect(alone.out.split('\n')).toHaveLength(points + 2); // header, rows, final newline
+    expect(alone.out).toBe(sweepTableOf(cli(file, '--sweep').out));
   });
 
   it('should write the sweep as JSON, the values of --sweep --json', () => {

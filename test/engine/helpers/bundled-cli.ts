@@ -41,7 +41,9 @@ export function bundledCli(prefix: string, timeoutMs = 30_000): BundledCli {
       return bundle;
     },
     run(...args: string[]): CliRun {
-      const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: timeoutMs }); // prettier-ignore
+      // A long sweep's table runs to megabytes: room for it (Node's default is 1 MiB, past
+      // which the process is killed).
+      const p = spawnSync(process.execPath, [bundle, ...args], { encoding: 'utf8', timeout: timeoutMs, maxBuffer: 256 << 20 }); // prettier-ignore
       return { code: p.status, out: p.stdout, err: p.stderr };
     },
   };
