@@ -24,6 +24,7 @@ import {
   StageParameterError,
   type SolveClock,
   type StageDefinition,
+  type SweepReport,
 } from '../shared/engine';
 import { releaseSharedWorkspaces } from '../shared/engine/core/nodes';
 import { chainToSpice, SpiceExportError } from '../shared/engine/spice/netlist';
@@ -294,30 +295,6 @@ function timingText(endedAt: number): string {
   return lines.join('\n') + '\n';
 }
 
-/**
- * The sweep alone as a table, solved and written a chunk of points at a time (the table is
- * written row by row, so its rows need no more than their chunk): a long sweep's solve reuses
- * one chunk's memory instead of first touching all of it. For --timing, the analysis is the
- * engine's time without the writing between its chunks, and the solve the chunks' solves.
- */
-function writeSweepTableInChunks(
-  doc: ChainDocument,
-  mode: string | undefined,
-  out: ByteSink,
-  clock: SolveClock | undefined,
-): void {
-  let writing = 0;
-  const started = performance.now();
-  sweepChainInChunks(doc, { catalogue: STAGE_DEFINITIONS, mode, clock }, (chunk, from) => {
-    const at = clock ? performance.now() : 0;
-    if (from === 0) writeSweepTableHeader(chunk, out);
-    writeSweepTableRows(chunk, out);
-    if (clock) writing += performance.now() - at;
-  });
-  if (clock) timings.analysisS = (performance.now() - started - writing) / 1000;
-  if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
-}
-
 /** Runs the CLI, writing its output into `out` (a sweep row by row, as it is formatted). */
 function run(argv: string[], out: ByteSink): void {
   const write = (text: string) => out.text(text);
@@ -341,15 +318,29 @@ function run(argv: string[], out: ByteSink): void {
     const designed = runDesign(doc, o, catalogue);
     if (designed !== null) return write(designed + '\n');
     const clock: SolveClock | undefined = o.timing ? {} : undefined;
-    /** Runs the engine, noting for --timing how long it and its solve took. */
-    const timed = <T>(engine: () => T): T => {
+    /**
+     * Runs the engine, noting for --timing how long it and its solve took; `writingMs`, the
+     * time it spent in the caller's writing, is not the engine's.
+     */
+    const timed = <T>(engine: () => T, writingMs = () => 0): T => {
       const started = performance.now();
       const done = engine();
-      if (o.timing) timings.analysisS = (performance.now() - started) / 1000;
+      if (o.timing) timings.analysisS = (performance.now() - started - writingMs()) / 1000;
       if (clock?.solveMs !== undefined) timings.solveS = clock.solveMs / 1000;
       return done;
     };
-    if (o.sweepOnly && !o.json) return writeSweepTableInChunks(full, o.mode, out, clock);
+    if (o.sweepOnly && !o.json) {
+      // Solved and written a chunk of points at a time (the table is row by row): a long
+      // sweep's solve reuses one chunk's memory instead of first touching all of it.
+      let writing = 0;
+      const visit = (chunk: SweepReport, from: number) => {
+        const at = clock ? performance.now() : 0;
+        if (from === 0) writeSweepTableHeader(chunk, out);
+        writeSweepTableRows(chunk, out);
+        if (clock) writing += performance.now() - at;
+      };
+      return timed(() => sweepChainInChunks(full, { catalogue, mode: o.mode, clock }, visit), () => writing); // prettier-ignore
+    }
     if (o.sweepOnly) {
       // Written out before anything else runs, so the report may read the solve in place.
       const sweep = timed(() => sweepChain(full, { catalogue, mode: o.mode, clock, inPlace: true })); // prettier-ignore

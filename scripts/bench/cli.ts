@@ -17,8 +17,8 @@
  * --timing: every node's voltage and impedance at every point, both measured inside the
  * process, both wall-clock; the CLI solves and writes its table a chunk of 4,096 points at a
  * time, and its solve is the chunks' solves added up, the writing between them left out, as
- * ngspice's AC time leaves out its writing) and whole process against whole process (start-up, solve and
- * every point written, on both sides). The CLI's analysis with its sweep, which adds its
+ * ngspice's AC time leaves out its writing) and whole process against whole process
+ * (start-up, solve and every point written, on both sides). The CLI's analysis with its sweep, which adds its
  * findings and keeps more of the solve for them, is printed beside each, not judged.
  */
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';

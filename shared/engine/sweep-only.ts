@@ -13,7 +13,7 @@
  */
 import type { ChainDocument } from '../schema/chain';
 import type { SolveClock } from './analyze';
-import { buildChain, type BuildOptions } from './core/build';
+import { buildChain, type BuildOptions, type BuiltChain } from './core/build';
 import { withMessageFigures } from './core/format';
 import { settleLoadLevel } from './core/load-level';
 import {
@@ -53,6 +53,15 @@ const WORKSPACE = 'sweep-only';
 /** The report reads the input's impedances (Zin, return loss) and no other node's. */
 const INPUT_ONLY = [0];
 
+/** The chain built, its load settled at its level, and its sweep's frequency grid. */
+function builtForSweep(doc: ChainDocument, options: SweepOnlyOptions) {
+  const built = settleLoadLevel(buildChain(doc, options.catalogue ?? defaultCatalogue(), options)); // prettier-ignore
+  return { built, grid: frequencyGrid(built.settings.sweep) };
+}
+
+/** The rows the sweep's report reads: every user node's voltage, the input's impedances. */
+const keptRows = (built: BuiltChain) => ({ voltageAt: built.userNodeFlat, impedanceAt: INPUT_ONLY }); // prettier-ignore
+
 /**
  * The chain's sweep report alone.
  * @param doc the document as the chain schema parsed it (`parseChainDocument`)
@@ -60,12 +69,8 @@ const INPUT_ONLY = [0];
  */
 export function sweepChain(doc: ChainDocument, options: SweepOnlyOptions = {}): SweepReport {
   return withMessageFigures(options.figures, () => {
-    const built = settleLoadLevel(buildChain(doc, options.catalogue ?? defaultCatalogue(), options)); // prettier-ignore
-    const grid = frequencyGrid(built.settings.sweep);
-    const ws = sharedWorkspace(WORKSPACE, built, grid.length, {
-      voltageAt: built.userNodeFlat,
-      impedanceAt: INPUT_ONLY,
-    });
+    const { built, grid } = builtForSweep(doc, options);
+    const ws = sharedWorkspace(WORKSPACE, built, grid.length, keptRows(built));
     const started = options.clock ? performance.now() : 0;
     const na = runNodeAnalysis(built, grid, ws);
     if (options.clock) options.clock.solveMs = performance.now() - started;
@@ -102,10 +107,9 @@ export function sweepChainInChunks(
     throw new RangeError(`chunkPoints must be a whole number of at least 1 (got ${chunk})`);
   }
   withMessageFigures(options.figures, () => {
-    const built = settleLoadLevel(buildChain(doc, options.catalogue ?? defaultCatalogue(), options)); // prettier-ignore
-    const grid = frequencyGrid(built.settings.sweep);
+    const { built, grid } = builtForSweep(doc, options);
     const P = grid.length;
-    const rows = { voltageAt: built.userNodeFlat, impedanceAt: INPUT_ONLY };
+    const rows = keptRows(built);
     // One workspace for the full chunks and one for a shorter last chunk: a workspace fits
     // one number of points.
     let full: NodeAnalysis | undefined;

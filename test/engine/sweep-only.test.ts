@@ -14,6 +14,7 @@ import {
   sweepChain,
   sweepChainInChunks,
   type SolveClock,
+  type SweepChunkOptions,
   type SweepReport,
 } from '../../shared/engine';
 import { isLongSweep } from '../../shared/engine/core/nodes';
@@ -118,7 +119,7 @@ interface Chunk {
 }
 
 /** Every chunk's traces, each read while `visit` runs (its report reads the workspace in place). */
-function chunked(doc: ChainDocument, options: Parameters<typeof sweepChainInChunks>[1]): Chunk[] {
+function chunked(doc: ChainDocument, options: SweepChunkOptions): Chunk[] {
   const parts: Chunk[] = [];
   sweepChainInChunks(doc, options, (chunk, from, points) => {
     parts.push({ from, points, traces: readTraces(chunk) });
